@@ -1,0 +1,89 @@
+/**
+ * `npm start`: local PostgreSQL on loopback, migrations, demo seed, client build when stale, then the server.
+ */
+import { execFileSync, spawnSync } from "node:child_process";
+import fs from "node:fs";
+import net from "node:net";
+import path from "node:path";
+import { loadConfig } from "../server/config";
+import { createDb } from "../server/db/client";
+import { runMigrations } from "../server/db/migrate";
+import { DEMO_LAB, DEMO_PASSWORD, DEMO_USERS, seedDemo } from "../server/db/seed";
+import { startServer } from "../server/index";
+
+const root = path.resolve(import.meta.dirname, "..");
+
+function portInUse(port: number, host: string) {
+  return new Promise<boolean>((resolve) => {
+    const s = net.connect({ port, host }, () => {
+      s.destroy();
+      resolve(true);
+    });
+    s.on("error", () => resolve(false));
+  });
+}
+
+async function isRopewalk(url: string) {
+  try {
+    const r = await fetch(`${url}/api/health`, { signal: AbortSignal.timeout(2000) });
+    const body = (await r.json()) as { db?: string };
+    return typeof body.db === "string";
+  } catch {
+    return false;
+  }
+}
+
+function newestMtime(dir: string): number {
+  let newest = 0;
+  for (const entry of fs.readdirSync(dir, { withFileTypes: true })) {
+    const p = path.join(dir, entry.name);
+    newest = Math.max(newest, entry.isDirectory() ? newestMtime(p) : fs.statSync(p).mtimeMs);
+  }
+  return newest;
+}
+
+function buildClientIfStale(clientDir: string) {
+  const index = path.join(clientDir, "index.html");
+  const sources = [path.join(root, "client"), path.join(root, "shared")];
+  const sourceTime = Math.max(...sources.map(newestMtime), fs.statSync(path.join(root, "vite.config.ts")).mtimeMs);
+  if (fs.existsSync(index) && fs.statSync(index).mtimeMs >= sourceTime) return;
+  console.log("Building the client (missing or older than its sources)…");
+  const r = spawnSync("npx", ["vite", "build", "--logLevel", "warn"], { cwd: root, stdio: "inherit" });
+  if (r.status !== 0) throw new Error("client build failed");
+}
+
+async function main() {
+  const config = loadConfig({ ...process.env, NODE_ENV: process.env.NODE_ENV ?? "development" });
+  const url = `http://${config.host}:${config.port}`;
+  if (await portInUse(config.port, config.host)) {
+    const ours = await isRopewalk(url);
+    console.error(
+      ours
+        ? `Ropewalk is already running at ${url} — open it there, or stop that one first (Ctrl-C in its terminal).`
+        : `Port ${config.port} on ${config.host} is taken by another program. Stop it or start with PORT=<free port> npm start.`,
+    );
+    process.exit(1);
+  }
+  if (!process.env.DATABASE_URL) {
+    // Our own loopback cluster; the script prints DATABASE_URL lines on stdout and explains problems on stderr.
+    execFileSync("bash", [path.join(root, "docker-free-db-scripts/start.sh"), "ropewalk"], { stdio: ["ignore", "ignore", "inherit"] });
+  }
+  const { pool, db } = createDb(config.databaseUrl, 2);
+  await runMigrations(db);
+  const seed = (process.env.RW_SEED ?? (config.env === "production" ? "false" : "true")) === "true";
+  if (seed) await seedDemo(db);
+  await pool.end();
+  buildClientIfStale(config.clientDir);
+
+  await startServer(config);
+  console.log(`\nRopewalk is running at ${url}  (Ctrl-C stops it; npm run db:stop stops PostgreSQL)`);
+  if (seed) {
+    console.log(`\nDemo scenario: ${DEMO_LAB}. Every demo account's password is "${DEMO_PASSWORD}":`);
+    for (const u of DEMO_USERS) console.log(`  ${u.email.padEnd(26)} ${u.name.padEnd(18)} ${u.roles.join(", ")}`);
+  }
+}
+
+main().catch((e) => {
+  console.error(`npm start failed: ${(e as Error).message}`);
+  process.exit(1);
+});

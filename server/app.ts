@@ -1,0 +1,48 @@
+import fs from "node:fs";
+import path from "node:path";
+import express from "express";
+import helmet from "helmet";
+import type { AppDeps } from "./deps";
+import { NotFound } from "./http/errors";
+import { errorMiddleware } from "./http/error-middleware";
+import { csrfProtection } from "./http/csrf";
+import { loadUser, sessionMiddleware } from "./http/session";
+import { authRouter } from "./features/auth/auth.router";
+import { usersRouter } from "./features/users/users.router";
+import { healthRouter } from "./features/health/health.router";
+
+export const JSON_LIMIT = "512kb";
+
+/** Builds the app without listening; tests import this with their own deps. */
+export function createApp(deps: AppDeps) {
+  const app = express();
+  app.disable("x-powered-by");
+  app.set("trust proxy", deps.config.trustProxy);
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: { "img-src": ["'self'", "data:", "blob:"], "upgrade-insecure-requests": deps.config.cookieSecure ? [] : null },
+      },
+      strictTransportSecurity: deps.config.cookieSecure,
+    }),
+  );
+
+  const api = express.Router();
+  api.use("/health", healthRouter(deps));
+  api.use(sessionMiddleware(deps));
+  api.use(loadUser(deps));
+  api.use(csrfProtection);
+  api.use(express.json({ limit: JSON_LIMIT }));
+  api.use("/auth", authRouter(deps));
+  api.use("/users", usersRouter(deps));
+  api.use((_req, _res, next) => next(new NotFound("no such API route")));
+  app.use("/api", api);
+
+  const index = path.join(deps.config.clientDir, "index.html");
+  if (fs.existsSync(index)) {
+    app.use(express.static(deps.config.clientDir, { index: false, maxAge: "1h" }));
+    app.get("/{*splat}", (_req, res) => res.sendFile(index));
+  }
+  app.use(errorMiddleware);
+  return app;
+}

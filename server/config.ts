@@ -1,0 +1,67 @@
+import { z } from "zod";
+import path from "node:path";
+
+const bool = z.enum(["true", "false", "1", "0"]).transform((v) => v === "true" || v === "1");
+
+const envSchema = z.object({
+  NODE_ENV: z.enum(["development", "test", "production"]).default("development"),
+  HOST: z.string().default("127.0.0.1"),
+  PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+  PGPORT: z.coerce.number().int().min(1).max(65535).default(54329),
+  DATABASE_URL: z.string().optional(),
+  SESSION_SECRET: z.string().min(16).optional(),
+  SMTP_URL: z.string().optional(),
+  MAIL_FROM: z.string().default("Ropewalk <ropewalk@ropewalk.test>"),
+  CLIENT_DIR: z.string().optional(),
+  TRUST_PROXY: bool.optional(),
+  LOGIN_LIMIT_PER_ACCOUNT: z.coerce.number().int().positive().default(10),
+  LOGIN_LIMIT_PER_ADDRESS: z.coerce.number().int().positive().default(100),
+  LOGIN_WINDOW_MINUTES: z.coerce.number().positive().default(15),
+});
+
+export interface Config {
+  env: "development" | "test" | "production";
+  host: string;
+  port: number;
+  databaseUrl: string;
+  sessionSecret: string;
+  cookieSecure: boolean;
+  trustProxy: boolean;
+  smtpUrl?: string;
+  mailFrom: string;
+  clientDir: string;
+  login: { perAccount: number; perAddress: number; windowMs: number };
+  bcryptCost: number;
+}
+
+/** Parses the environment once; a bad value stops the process with the variable named. */
+export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Partial<Config> = {}): Config {
+  const parsed = envSchema.safeParse(env);
+  if (!parsed.success) {
+    const names = parsed.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`).join("; ");
+    throw new Error(`bad environment: ${names}`);
+  }
+  const e = parsed.data;
+  const production = e.NODE_ENV === "production";
+  if (production && !e.SESSION_SECRET) throw new Error("bad environment: SESSION_SECRET is required in production");
+  if (production && !e.DATABASE_URL) throw new Error("bad environment: DATABASE_URL is required in production");
+  return {
+    env: e.NODE_ENV,
+    host: e.HOST,
+    port: e.PORT,
+    databaseUrl: e.DATABASE_URL ?? `postgres://app@127.0.0.1:${e.PGPORT}/ropewalk`,
+    sessionSecret: e.SESSION_SECRET ?? "ropewalk-local-development-secret",
+    cookieSecure: production,
+    trustProxy: e.TRUST_PROXY ?? false,
+    smtpUrl: e.SMTP_URL,
+    mailFrom: e.MAIL_FROM,
+    clientDir: path.resolve(e.CLIENT_DIR ?? "dist/client"),
+    login: {
+      perAccount: e.LOGIN_LIMIT_PER_ACCOUNT,
+      perAddress: e.LOGIN_LIMIT_PER_ADDRESS,
+      windowMs: e.LOGIN_WINDOW_MINUTES * 60_000,
+    },
+    bcryptCost: 12,
+    ...overrides,
+  };
+}

@@ -1,0 +1,38 @@
+import { boolean, index, integer, jsonb, pgTable, serial, text, timestamp, varchar, bigserial } from "drizzle-orm/pg-core";
+
+export const users = pgTable("users", {
+  id: serial("id").primaryKey(),
+  email: text("email").notNull().unique(),
+  name: text("name").notNull(),
+  passwordHash: text("password_hash").notNull(),
+  roles: text("roles").array().notNull(),
+  active: boolean("active").notNull().default(true),
+  createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+  updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+});
+
+/** connect-pg-simple's table, created by migration (createTableIfMissing is off). */
+export const session = pgTable(
+  "session",
+  {
+    sid: varchar("sid").primaryKey(),
+    sess: jsonb("sess").notNull(),
+    expire: timestamp("expire", { precision: 6 }).notNull(),
+  },
+  (t) => [index("IDX_session_expire").on(t.expire)],
+);
+
+/** Append-only: the app never updates or deletes rows (a trigger in the migration enforces it). */
+export const auditEvents = pgTable(
+  "audit_events",
+  {
+    id: bigserial("id", { mode: "number" }).primaryKey(),
+    at: timestamp("at", { withTimezone: true }).notNull().defaultNow(),
+    actorId: integer("actor_id").references(() => users.id),
+    action: text("action").notNull(),
+    subjectType: text("subject_type").notNull(),
+    subjectId: text("subject_id"),
+    detail: jsonb("detail").notNull().default({}),
+  },
+  (t) => [index("audit_events_at_idx").on(t.at), index("audit_events_subject_idx").on(t.subjectType, t.subjectId)],
+);

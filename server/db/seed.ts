@@ -1,0 +1,56 @@
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+import bcrypt from "bcryptjs";
+import { sql } from "drizzle-orm";
+import type { Db } from "./client";
+import { users } from "./schema";
+import { recordAudit } from "../features/audit/audit.repo";
+import type { Role } from "../../shared/schemas";
+
+/** The demo scenario: Saltmarsh Applied Language Lab, a fictional lab stretching its own fictional model families. */
+export const DEMO_PASSWORD = "ropewalk-demo";
+export const DEMO_LAB = "Saltmarsh Applied Language Lab";
+export const DEMO_USERS: { email: string; name: string; roles: Role[] }[] = [
+  { email: "admin@ropewalk.test", name: "Odile Varga", roles: ["admin"] },
+  { email: "researcher@ropewalk.test", name: "Tomasz Brandt", roles: ["researcher"] },
+  { email: "infra@ropewalk.test", name: "Priya Lindqvist", roles: ["infra"] },
+  { email: "approver@ropewalk.test", name: "Henrik Osei", roles: ["approver"] },
+  { email: "approver2@ropewalk.test", name: "Mireille Tanaka", roles: ["approver"] },
+  { email: "viewer@ropewalk.test", name: "Jonah Pell", roles: ["viewer"] },
+];
+
+export type SeedStep = (db: Db, people: Map<string, number>) => Promise<void>;
+/** Later features append their demo data here; every step must be idempotent. */
+export const SEED_STEPS: SeedStep[] = [];
+
+async function seedUsers(db: Db) {
+  const people = new Map<string, number>();
+  for (const u of DEMO_USERS) {
+    const existing = await db.execute<{ id: number }>(sql`SELECT id FROM users WHERE email = ${u.email}`);
+    if (existing.rows[0]) {
+      people.set(u.email, existing.rows[0].id);
+      continue;
+    }
+    const passwordHash = await bcrypt.hash(DEMO_PASSWORD, 12);
+    const [row] = await db.insert(users).values({ ...u, passwordHash }).onConflictDoNothing().returning();
+    if (row) {
+      people.set(u.email, row.id);
+      await recordAudit(db, { actorId: null, action: "user.created", subjectType: "user", subjectId: row.id, detail: { email: u.email, roles: u.roles, by: "demo seed" } });
+    }
+  }
+  return people;
+}
+
+export async function seedDemo(db: Db) {
+  const people = await seedUsers(db);
+  for (const step of SEED_STEPS) await step(db, people);
+}
+
+if (process.argv[1] && fileURLToPath(import.meta.url) === path.resolve(process.argv[1])) {
+  const { loadConfig } = await import("../config");
+  const { createDb } = await import("./client");
+  const { pool, db } = createDb(loadConfig().databaseUrl, 2);
+  await seedDemo(db);
+  await pool.end();
+  console.log("demo data seeded");
+}

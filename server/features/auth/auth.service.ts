@@ -1,0 +1,37 @@
+import bcrypt from "bcryptjs";
+import type { AppDeps } from "../../deps";
+import { HttpError } from "../../http/errors";
+import { recordAudit } from "../audit/audit.repo";
+import { findUserByEmail } from "../users/users.repo";
+import { toSessionUser } from "../users/users.service";
+
+// Compared against when the e-mail is unknown, so both failures cost the same time.
+const DUMMY_HASH = bcrypt.hashSync("ropewalk-no-such-user", 12);
+
+export class InvalidCredentials extends HttpError {
+  constructor() {
+    super(401, "invalid_credentials", "e-mail or password is wrong");
+  }
+}
+
+/** Same answer for an unknown e-mail, a wrong password and a deactivated account. */
+export async function verifyCredentials(deps: AppDeps, email: string, password: string, address: string) {
+  const row = await findUserByEmail(deps.db, email);
+  const ok = await bcrypt.compare(password, row?.passwordHash ?? DUMMY_HASH);
+  if (!row || !ok || !row.active) {
+    await recordAudit(deps.db, {
+      actorId: row?.id ?? null,
+      action: "auth.sign_in_failed",
+      subjectType: "user",
+      subjectId: row?.id ?? null,
+      detail: { email, address },
+    });
+    throw new InvalidCredentials();
+  }
+  await recordAudit(deps.db, { actorId: row.id, action: "auth.signed_in", subjectType: "user", subjectId: row.id, detail: { address } });
+  return toSessionUser(row);
+}
+
+export async function recordSignOut(deps: AppDeps, userId: number) {
+  await recordAudit(deps.db, { actorId: userId, action: "auth.signed_out", subjectType: "user", subjectId: userId });
+}

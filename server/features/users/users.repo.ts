@@ -1,0 +1,52 @@
+import { asc, eq, sql } from "drizzle-orm";
+import { session, users } from "../../db/schema";
+import type { Executor } from "../../db/client";
+import type { Role } from "../../../shared/schemas";
+
+export type UserRow = typeof users.$inferSelect;
+
+export const findUserByEmail = async (ex: Executor, email: string) =>
+  (await ex.select().from(users).where(eq(users.email, email.toLowerCase())).limit(1))[0];
+
+export const findUserById = async (ex: Executor, id: number) =>
+  (await ex.select().from(users).where(eq(users.id, id)).limit(1))[0];
+
+/** Locks the row so concurrent role changes serialise. */
+export const lockUserById = async (ex: Executor, id: number) =>
+  (await ex.select().from(users).where(eq(users.id, id)).for("update").limit(1))[0];
+
+export const listUsers = (ex: Executor) => ex.select().from(users).orderBy(asc(users.id));
+
+export async function insertUser(
+  ex: Executor,
+  v: { email: string; name: string; passwordHash: string; roles: Role[] },
+) {
+  const [row] = await ex.insert(users).values({ ...v, email: v.email.toLowerCase() }).returning();
+  return row;
+}
+
+export async function updateUser(
+  ex: Executor,
+  id: number,
+  v: Partial<Pick<UserRow, "name" | "roles" | "active" | "passwordHash">>,
+) {
+  const [row] = await ex.update(users).set({ ...v, updatedAt: new Date() }).where(eq(users.id, id)).returning();
+  return row;
+}
+
+export async function countActiveAdmins(ex: Executor) {
+  const [r] = await ex
+    .select({ n: sql<number>`count(*)::int` })
+    .from(users)
+    .where(sql`${users.active} AND 'admin' = ANY(${users.roles})`);
+  return r.n;
+}
+
+/** Ends every session of a user (deactivation, password change elsewhere). */
+export async function deleteSessionsOfUser(ex: Executor, userId: number, exceptSid?: string) {
+  await ex.execute(
+    exceptSid
+      ? sql`DELETE FROM ${session} WHERE ${session.sess}->>'userId' = ${String(userId)} AND ${session.sid} <> ${exceptSid}`
+      : sql`DELETE FROM ${session} WHERE ${session.sess}->>'userId' = ${String(userId)}`,
+  );
+}

@@ -1,0 +1,32 @@
+import type { NextFunction, Request, Response } from "express";
+import type { Role, SessionUser } from "../../shared/schemas";
+import { Forbidden, Unauthorized } from "./errors";
+
+/** The signed-in user, set by the session loader (or a bearer token) on res.locals.user. */
+export function currentUser(res: Response): SessionUser {
+  const user = res.locals.user as SessionUser | undefined;
+  if (!user) throw new Unauthorized();
+  return user;
+}
+
+export function optionalUser(res: Response): SessionUser | undefined {
+  return res.locals.user as SessionUser | undefined;
+}
+
+export function requireAuth(_req: Request, res: Response, next: NextFunction) {
+  currentUser(res);
+  next();
+}
+
+/** Passes when the user holds at least one of the roles. Roles are explicit: admin does not imply the others. */
+export function requireRole(...roles: Role[]) {
+  return (_req: Request, res: Response, next: NextFunction) => {
+    const user = currentUser(res);
+    if (!roles.some((r) => user.roles.includes(r))) {
+      throw new Forbidden(`needs one of the roles: ${roles.join(", ")}`);
+    }
+    next();
+  };
+}
+
+export const hasRole = (user: SessionUser, ...roles: Role[]) => roles.some((r) => user.roles.includes(r));

@@ -1,0 +1,33 @@
+import type { NextFunction, Request, Response } from "express";
+import { ZodError } from "zod";
+import { HttpError } from "./errors";
+import { issuesToFields } from "./validate";
+
+type BodyParserError = Error & { type?: string; status?: number };
+type MulterLike = Error & { code?: string; field?: string; name: string };
+
+/** The one place errors become responses: { error: { code, message, fields? } }, never a stack trace. */
+export function errorMiddleware(err: unknown, req: Request, res: Response, _next: NextFunction) {
+  if (res.headersSent) return;
+  const send = (status: number, code: string, message: string, fields?: Record<string, string>) =>
+    res.status(status).json({ error: fields ? { code, message, fields } : { code, message } });
+
+  if (err instanceof HttpError) return send(err.status, err.code, err.message, err.fields);
+  if (err instanceof ZodError) {
+    const fields = issuesToFields(err);
+    return send(400, "invalid", `invalid input: ${Object.keys(fields).join(", ")}`, fields);
+  }
+  const bp = err as BodyParserError;
+  if (bp?.type === "entity.parse.failed") return send(400, "malformed_json", "the request body is not valid JSON", { "(body)": "not valid JSON" });
+  if (bp?.type === "entity.too.large") return send(413, "too_large", "the request body is too large");
+  if (bp?.type === "charset.unsupported" || bp?.type === "encoding.unsupported") return send(415, "unsupported", bp.message);
+  const mu = err as MulterLike;
+  if (mu?.name === "MulterError") {
+    if (mu.code === "LIMIT_FILE_SIZE") return send(413, "too_large", "the uploaded file is too large", { [mu.field ?? "file"]: "too large" });
+    return send(400, "invalid_upload", mu.message, { [mu.field ?? "file"]: mu.message });
+  }
+  if (typeof bp?.status === "number" && bp.status >= 400 && bp.status < 500) return send(bp.status, "bad_request", bp.message);
+
+  console.error(`[error] ${req.method} ${req.originalUrl}:`, err);
+  return send(500, "internal", "something went wrong on our side; it has been logged");
+}

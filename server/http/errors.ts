@@ -1,0 +1,36 @@
+/** Typed errors thrown by services; the error middleware maps them to { error: { code, message, fields? } }. */
+export class HttpError extends Error {
+  constructor(
+    readonly status: number,
+    readonly code: string,
+    message: string,
+    readonly fields?: Record<string, string>,
+  ) {
+    super(message);
+  }
+}
+export class Invalid extends HttpError {
+  constructor(message: string, fields?: Record<string, string>) {
+    super(400, "invalid", message, fields);
+  }
+}
+export class Unauthorized extends HttpError {
+  constructor(message = "sign in first") {
+    super(401, "unauthorized", message);
+  }
+}
+export class Forbidden extends HttpError {
+  constructor(message = "your roles do not allow this") {
+    super(403, "forbidden", message);
+  }
+}
+export class NotFound extends HttpError {
+  constructor(message = "not found") {
+    super(404, "not_found", message);
+  }
+}
+export class Conflict extends HttpError {
+  constructor(message: string, fields?: Record<string, string>) {
+    super(409, "conflict", message, fields);
+  }
+}

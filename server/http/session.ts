@@ -1,0 +1,55 @@
+import crypto from "node:crypto";
+import type { NextFunction, Request, Response } from "express";
+import session from "express-session";
+import connectPgSimple from "connect-pg-simple";
+import type { AppDeps } from "../deps";
+import { findUserById } from "../features/users/users.repo";
+import { toSessionUser } from "../features/users/users.service";
+
+declare module "express-session" {
+  interface SessionData {
+    userId?: number;
+    csrfToken?: string;
+  }
+}
+
+export const SESSION_COOKIE = "rw.sid";
+export const newCsrfToken = () => crypto.randomBytes(32).toString("base64url");
+
+export function sessionMiddleware(deps: AppDeps) {
+  const PgStore = connectPgSimple(session);
+  return session({
+    name: SESSION_COOKIE,
+    secret: deps.config.sessionSecret,
+    store: new PgStore({ pool: deps.pool, tableName: "session", createTableIfMissing: false, pruneSessionInterval: false }),
+    resave: false,
+    saveUninitialized: false,
+    rolling: true,
+    cookie: {
+      httpOnly: true,
+      sameSite: "lax",
+      secure: deps.config.cookieSecure,
+      maxAge: 12 * 60 * 60 * 1000,
+    },
+  });
+}
+
+/** Loads the signed-in user on every request; a deactivated or deleted user is signed out on the spot. */
+export function loadUser(deps: AppDeps) {
+  return async (req: Request, res: Response, next: NextFunction) => {
+    const id = req.session?.userId;
+    if (id) {
+      const row = await findUserById(deps.db, id);
+      if (row && row.active) res.locals.user = toSessionUser(row);
+      else delete req.session.userId;
+    }
+    next();
+  };
+}
+
+export const regenerate = (req: Request) =>
+  new Promise<void>((resolve, reject) => req.session.regenerate((err) => (err ? reject(err) : resolve())));
+export const saveSession = (req: Request) =>
+  new Promise<void>((resolve, reject) => req.session.save((err) => (err ? reject(err) : resolve())));
+export const destroySession = (req: Request) =>
+  new Promise<void>((resolve, reject) => req.session.destroy((err) => (err ? reject(err) : resolve())));

@@ -1,0 +1,40 @@
+import type { Server } from "node:http";
+import { loadConfig } from "./config";
+import { createDb } from "./db/client";
+import { createApp } from "./app";
+
+/** Starts the HTTP server; resolves once it listens. Used by `npm start` and production. */
+export async function startServer(config = loadConfig()) {
+  const { pool, db } = createDb(config.databaseUrl);
+  const app = createApp({ config, pool, db });
+  const server: Server = await new Promise((resolve, reject) => {
+    const s = app.listen(config.port, config.host, () => resolve(s));
+    s.on("error", reject);
+  });
+  let closing = false;
+  const shutdown = async (signal: string) => {
+    if (closing) return;
+    closing = true;
+    console.log(`\n${signal} received: finishing open requests, then stopping.`);
+    server.close();
+    server.closeIdleConnections();
+    setTimeout(() => server.closeAllConnections(), 5000).unref();
+    await pool.end().catch(() => undefined);
+    process.exit(0);
+  };
+  process.on("SIGTERM", () => void shutdown("SIGTERM"));
+  process.on("SIGINT", () => void shutdown("SIGINT"));
+  process.on("unhandledRejection", (reason) => console.error("[unhandledRejection]", reason));
+  return { server, pool, db, config };
+}
+
+const isMain = process.argv[1] && import.meta.url.endsWith(process.argv[1].replace(/\\/g, "/"));
+if (isMain) {
+  startServer().then(
+    ({ config }) => console.log(`Ropewalk listening on http://${config.host}:${config.port}`),
+    (e) => {
+      console.error(`Ropewalk could not start: ${(e as Error).message}`);
+      process.exit(1);
+    },
+  );
+}

@@ -1,0 +1,11 @@
+import { createDb } from "../../server/db/client";
+
+let shared: ReturnType<typeof createDb> | undefined;
+
+/** One pool per test worker on the migrated test database. */
+export function testDb() {
+  const url = process.env.TEST_DATABASE_URL;
+  if (!url) throw new Error("TEST_DATABASE_URL is not set; run tests through vitest (globalSetup)");
+  shared ??= createDb(url, 5);
+  return shared;
+}
