@@ -1,0 +1,32 @@
+/**
+ * Budget engine: tokens, FLOPs, accelerator-hours, cost and memory of a context-extension run.
+ * Pure functions only; the service resolves modelId / acceleratorId to numbers before calling.
+ * Formulas and their sources: design notes, "Budget"; each is tested in tests/unit/budget.
+ */
+export { estimateBudget } from "./budget/estimate";
+export {
+  acceleratorCost,
+  acceleratorHours,
+  attentionFlopsPerToken,
+  flopsPerToken,
+  parameterFlopsPerToken,
+  recomputeMultiplier,
+  wallClockHours,
+  type FlopOptions,
+} from "./budget/flops";
+export {
+  dataParallelRanks,
+  kvCacheBytesPerSequence,
+  kvCacheBytesPerToken,
+  minSequenceSharding,
+  servingSequencesPerAccelerator,
+  shardingDegrees,
+  trainingMemoryPerAccelerator,
+  weightBytes,
+  type TrainingMemoryInput,
+} from "./budget/memory";
+export { cumulativeTokens, stageTokens, tokensPerStep, type StageTokens } from "./budget/stages";
+export { growthCurve, logSpacedLengths } from "./budget/growth";
+export { BUDGET_RECIPES, RECIPE_CAUTION, findRecipe, recipeStage, type BudgetRecipe, type BudgetRecipeId } from "./budget/recipes";
+export { BUDGET_DEFAULTS, GROWTH_REACH } from "./budget/defaults";
+export type * from "./budget/types";

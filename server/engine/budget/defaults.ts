@@ -1,0 +1,21 @@
+/**
+ * Defaults applied when an input is left out. The engine owns them (shared/ has no defaults), so the
+ * response's assumptions always report the value that was actually used.
+ */
+export const BUDGET_DEFAULTS = {
+  /** Model FLOPs utilisation. An assumption: common practice, no source. */
+  utilization: 0.4,
+  convention: "causal",
+  recomputeFraction: 0,
+  /** bf16 weights + bf16 grads + fp32 master weights + fp32 Adam m and v = 2+2+4+4+4. Common practice, no source. */
+  optimizerBytesPerParameter: 16,
+  bytesPerElement: 2,
+  sequenceSharding: 1,
+  microBatchSequences: 1,
+  growthPoints: 9,
+} as const;
+
+/** The growth curve runs from the trained length to this multiple of the target. */
+export const GROWTH_REACH = 4;
+
+export const BILLION = 1e9;

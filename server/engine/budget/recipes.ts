@@ -1,0 +1,73 @@
+import type { StageInput } from "./types";
+
+export type BudgetRecipeId = "position-interpolation" | "yarn" | "adjusted-base";
+
+/** What a paper reported for its own runs. Shown beside a plan as a starting point, never as a prediction. */
+export interface BudgetRecipe {
+  id: BudgetRecipeId;
+  name: string;
+  source: { authors: string; year: number; title: string };
+  reported: {
+    steps?: number;
+    globalBatch?: number;
+    learningRate?: number;
+    sequenceLength?: number;
+    tokens?: number;
+  };
+  /** Plain words on what the figures are. */
+  summary: string;
+}
+
+export const RECIPE_CAUTION =
+  "Figures as the paper reported them for its own models and data; a starting point, not a prediction for this plan.";
+
+// Author lists and titles are from memory; the figures are the ones given in the design notes (DOMAIN.md, Budget).
+export const BUDGET_RECIPES: readonly BudgetRecipe[] = [
+  {
+    id: "position-interpolation",
+    name: "Position Interpolation fine-tune",
+    source: {
+      authors: "Chen, Wong, Chen, Tian",
+      year: 2023,
+      title: "Extending Context Window of Large Language Models via Positional Interpolation",
+    },
+    reported: { steps: 1000, globalBatch: 64, learningRate: 2e-5 },
+    summary: "1000 steps at global batch 64, learning rate 2e-5, at the extended length.",
+  },
+  {
+    id: "yarn",
+    name: "YaRN fine-tune",
+    source: {
+      authors: "Peng, Quesnelle, Fan, Shippole",
+      year: 2023,
+      title: "YaRN: Efficient Context Window Extension of Large Language Models",
+    },
+    reported: { steps: 400, globalBatch: 64, sequenceLength: 65_536 },
+    summary: "400 steps at 64k tokens per sequence, global batch 64: about 0.1% of the pre-training data.",
+  },
+  {
+    id: "adjusted-base",
+    name: "Adjusted base, continued pre-training",
+    source: { authors: "Xiong et al.", year: 2023, title: "Effective Long-Context Scaling of Foundation Models" },
+    reported: { tokens: 400e9 },
+    summary: "400B tokens of continued pre-training with the rotary base raised from 10 000 to 500 000.",
+  },
+];
+
+export function findRecipe(id: BudgetRecipeId): BudgetRecipe {
+  const recipe = BUDGET_RECIPES.find((r) => r.id === id);
+  if (!recipe) throw new RangeError(`unknown budget recipe: ${id}`);
+  return recipe;
+}
+
+/**
+ * A stage built from a recipe: the paper's length when it gave one, else the plan's target;
+ * the paper's global batch when it gave one, else `fallbackGlobalBatch`; steps when reported, else tokens.
+ */
+export function recipeStage(recipe: BudgetRecipe, targetContext: number, fallbackGlobalBatch: number): StageInput {
+  const sequenceLength = recipe.reported.sequenceLength ?? targetContext;
+  const globalBatch = recipe.reported.globalBatch ?? fallbackGlobalBatch;
+  if (recipe.reported.steps !== undefined) return { sequenceLength, globalBatch, steps: recipe.reported.steps };
+  if (recipe.reported.tokens !== undefined) return { sequenceLength, globalBatch, tokens: recipe.reported.tokens };
+  throw new RangeError(`recipe ${recipe.id} reports neither steps nor tokens`);
+}
