@@ -1,0 +1,31 @@
+import { createBrowserRouter, RouterProvider } from "react-router-dom";
+import { RouteErrorBoundary } from "../components/error-view";
+import { paths, routes } from "../config/paths";
+import { AppLayout } from "./layout/app-layout";
+import { RoleGate } from "./layout/role-gate";
+import { HomeRoute } from "./routes/home";
+import { NotFoundRoute } from "./routes/not-found";
+import { ProfileRoute } from "./routes/profile";
+import { SignInRoute } from "./routes/sign-in";
+import { UsersRoute } from "./routes/users";
+
+// Each route has its own error boundary so one broken screen keeps the header and navigation.
+const routeError = <RouteErrorBoundary homeHref={paths.home()} />;
+
+export const router = createBrowserRouter([
+  { path: routes.signIn, element: <SignInRoute />, errorElement: routeError },
+  {
+    element: <AppLayout />,
+    errorElement: routeError,
+    children: [
+      { index: true, element: <HomeRoute />, errorElement: routeError },
+      { path: routes.users, element: <RoleGate screen="users"><UsersRoute /></RoleGate>, errorElement: routeError },
+      { path: routes.profile, element: <ProfileRoute />, errorElement: routeError },
+      { path: "*", element: <NotFoundRoute />, errorElement: routeError },
+    ],
+  },
+]);
+
+export function AppRouter() {
+  return <RouterProvider router={router} />;
+}

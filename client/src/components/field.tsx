@@ -1,0 +1,56 @@
+import { useId, type ComponentProps, type ReactNode } from "react";
+
+type FieldProps = {
+  label: string;
+  error?: string;
+  hint?: string;
+  children: (ids: { id: string; describedBy: string | undefined; invalid: boolean }) => ReactNode;
+};
+
+/** Label, control, hint and error in one place, wired together for screen readers. */
+export function Field({ label, error, hint, children }: FieldProps) {
+  const id = useId();
+  const hintId = hint ? `${id}-hint` : undefined;
+  const errorId = error ? `${id}-error` : undefined;
+  const describedBy = [hintId, errorId].filter(Boolean).join(" ") || undefined;
+  return (
+    <div className="flex flex-col gap-1">
+      <label htmlFor={id} className="text-note font-semibold text-ink">
+        {label}
+      </label>
+      {children({ id, describedBy, invalid: Boolean(error) })}
+      {hint && !error && (
+        <p id={hintId} className="text-note text-ink-soft">
+          {hint}
+        </p>
+      )}
+      {error && (
+        <p id={errorId} className="text-note text-signal" role="alert">
+          {error}
+        </p>
+      )}
+    </div>
+  );
+}
+
+export function TextInput({ className = "", ...rest }: ComponentProps<"input">) {
+  return (
+    <input
+      className={`w-full rounded-md border border-rule-strong bg-white/70 px-3 py-2 text-body text-ink
+        placeholder:text-ink-soft/70 focus:border-seaglass focus:outline-2 focus:outline-seaglass/30
+        aria-[invalid=true]:border-signal ${className}`}
+      {...rest}
+    />
+  );
+}
+
+type CheckboxProps = ComponentProps<"input"> & { label: ReactNode };
+
+export function Checkbox({ label, className = "", ...rest }: CheckboxProps) {
+  return (
+    <label className={`inline-flex cursor-pointer items-center gap-2 text-body text-ink ${className}`}>
+      <input type="checkbox" className="size-4 accent-hemp" {...rest} />
+      {label}
+    </label>
+  );
+}

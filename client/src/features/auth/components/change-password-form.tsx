@@ -1,0 +1,76 @@
+import { useState } from "react";
+import { useForm } from "react-hook-form";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { z } from "zod";
+import { changePasswordRequestSchema, PASSWORD_MIN } from "../../../../../shared/schemas/auth";
+import { Button } from "../../../components/button";
+import { Field, TextInput } from "../../../components/field";
+import { Notice } from "../../../components/notice";
+import { applyApiErrors } from "../../../lib/form-errors";
+import { isApiError } from "../../../lib/api-client";
+import { useChangePassword } from "../api/change-password";
+
+// The request contract plus a typed-twice check that never leaves the browser.
+const formSchema = changePasswordRequestSchema
+  .extend({ confirmPassword: z.string() })
+  .refine((v) => v.newPassword === v.confirmPassword, { path: ["confirmPassword"], message: "does not match the new password" });
+
+const FIELDS = ["currentPassword", "newPassword", "confirmPassword"] as const;
+
+export function ChangePasswordForm() {
+  const change = useChangePassword();
+  const [formError, setFormError] = useState<string | null>(null);
+  const [done, setDone] = useState(false);
+  const { register, handleSubmit, setError, reset, formState } = useForm({
+    resolver: zodResolver(formSchema),
+    defaultValues: { currentPassword: "", newPassword: "", confirmPassword: "" },
+  });
+  const { errors } = formState;
+
+  const onSubmit = handleSubmit(({ currentPassword, newPassword }) => {
+    setFormError(null);
+    setDone(false);
+    change.mutate(
+      { currentPassword, newPassword },
+      {
+        onSuccess: () => {
+          reset();
+          setDone(true);
+        },
+        onError: (error) => {
+          if (isApiError(error) && error.code === "invalid_credentials") {
+            setError("currentPassword", { type: "server", message: "is not your current password" });
+            return;
+          }
+          setFormError(applyApiErrors(error, setError, FIELDS));
+        },
+      },
+    );
+  });
+
+  const input = (name: (typeof FIELDS)[number], autoComplete: string) =>
+    ({ id, describedBy, invalid }: { id: string; describedBy?: string; invalid: boolean }) => (
+      <TextInput id={id} type="password" autoComplete={autoComplete} aria-describedby={describedBy} aria-invalid={invalid} {...register(name)} />
+    );
+
+  return (
+    <form onSubmit={onSubmit} noValidate className="flex max-w-md flex-col gap-4" aria-label="Change password">
+      {done && <Notice tone="success">Password changed. Use the new one next time you sign in.</Notice>}
+      {formError && <Notice tone="alert">{formError}</Notice>}
+      <Field label="Current password" error={errors.currentPassword?.message}>
+        {input("currentPassword", "current-password")}
+      </Field>
+      <Field label="New password" hint={`At least ${PASSWORD_MIN} characters.`} error={errors.newPassword?.message}>
+        {input("newPassword", "new-password")}
+      </Field>
+      <Field label="New password, again" error={errors.confirmPassword?.message}>
+        {input("confirmPassword", "new-password")}
+      </Field>
+      <div>
+        <Button type="submit" busy={change.isPending}>
+          {change.isPending ? "Saving…" : "Change password"}
+        </Button>
+      </div>
+    </form>
+  );
+}

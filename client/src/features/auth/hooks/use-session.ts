@@ -1,0 +1,12 @@
+import { useQuery } from "@tanstack/react-query";
+import type { SessionUser } from "../../../../../shared/schemas/auth";
+import { authQueries } from "../api/queries";
+
+export const useSession = () => useQuery(authQueries.session());
+
+/** For screens inside the signed-in layout, which only renders once a user is known. */
+export function useCurrentUser(): SessionUser {
+  const { data } = useSession();
+  if (!data?.user) throw new Error("useCurrentUser used outside the signed-in layout");
+  return data.user;
+}

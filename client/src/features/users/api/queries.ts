@@ -1,0 +1,6 @@
+import { listUsersQuery } from "./list-users";
+
+/** The users feature's query factory: `useQuery(usersQueries.list())`. */
+export const usersQueries = {
+  list: listUsersQuery,
+};

@@ -1,0 +1,68 @@
+import { useState } from "react";
+import { useForm } from "react-hook-form";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { createUserRequestSchema } from "../../../../../shared/schemas/users";
+import { PASSWORD_MIN } from "../../../../../shared/schemas/auth";
+import { Button } from "../../../components/button";
+import { Field, TextInput } from "../../../components/field";
+import { Notice } from "../../../components/notice";
+import { isApiError } from "../../../lib/api-client";
+import { applyApiErrors } from "../../../lib/form-errors";
+import { useCreateUser } from "../api/create-user";
+import { RoleCheckboxes } from "./role-checkboxes";
+
+const FIELDS = ["name", "email", "password", "roles"] as const;
+
+export function CreateUserForm() {
+  const create = useCreateUser();
+  const [formError, setFormError] = useState<string | null>(null);
+  const [created, setCreated] = useState<string | null>(null);
+  const { register, handleSubmit, setError, reset, formState } = useForm({
+    resolver: zodResolver(createUserRequestSchema),
+    defaultValues: { name: "", email: "", password: "", roles: [] },
+  });
+  const { errors } = formState;
+
+  const onSubmit = handleSubmit((values) => {
+    setFormError(null);
+    setCreated(null);
+    create.mutate(values, {
+      onSuccess: (user) => {
+        reset();
+        setCreated(`Added ${user.name} (${user.email}). Share the password with them by a separate channel.`);
+      },
+      onError: (error) => {
+        // A taken e-mail is a 409; put it beside the e-mail even if the server names no field.
+        if (isApiError(error) && error.status === 409 && !error.fields) {
+          setError("email", { type: "server", message: error.message });
+          return;
+        }
+        setFormError(applyApiErrors(error, setError, FIELDS));
+      },
+    });
+  });
+
+  return (
+    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Add a user">
+      {created && <Notice tone="success">{created}</Notice>}
+      {formError && <Notice tone="alert">{formError}</Notice>}
+      <div className="grid gap-4 sm:grid-cols-2">
+        <Field label="Name" error={errors.name?.message}>
+          {({ id, describedBy, invalid }) => <TextInput id={id} autoComplete="off" aria-describedby={describedBy} aria-invalid={invalid} {...register("name")} />}
+        </Field>
+        <Field label="E-mail" error={errors.email?.message}>
+          {({ id, describedBy, invalid }) => <TextInput id={id} type="email" autoComplete="off" aria-describedby={describedBy} aria-invalid={invalid} {...register("email")} />}
+        </Field>
+        <Field label="First password" hint={`At least ${PASSWORD_MIN} characters; they can change it on their profile.`} error={errors.password?.message}>
+          {({ id, describedBy, invalid }) => <TextInput id={id} type="password" autoComplete="new-password" aria-describedby={describedBy} aria-invalid={invalid} {...register("password")} />}
+        </Field>
+      </div>
+      <RoleCheckboxes registration={register("roles")} error={errors.roles?.message} />
+      <div>
+        <Button type="submit" busy={create.isPending}>
+          {create.isPending ? "Adding…" : "Add user"}
+        </Button>
+      </div>
+    </form>
+  );
+}

@@ -1,0 +1,53 @@
+import { useState } from "react";
+import { useQuery } from "@tanstack/react-query";
+import type { User } from "../../../../../shared/schemas/users";
+import { Loading, Notice } from "../../../components/notice";
+import { usersQueries } from "../api/queries";
+import { useUpdateUser } from "../api/update-user";
+import { RoleEditor } from "./role-editor";
+import { UsersTable } from "./users-table";
+
+/** The user list with its row actions: change roles, deactivate, reactivate. */
+export function ManageUsers({ currentUserId }: { currentUserId: number }) {
+  const users = useQuery(usersQueries.list());
+  const update = useUpdateUser();
+  const [editing, setEditing] = useState<User | null>(null);
+  const [message, setMessage] = useState<{ tone: "success" | "alert"; text: string } | null>(null);
+
+  if (users.isPending) return <Loading label="Loading users…" />;
+  if (users.isError) return <Notice tone="alert" title="Could not load users">{users.error.message}</Notice>;
+
+  const setActive = (user: User, active: boolean) => {
+    setMessage(null);
+    update.mutate(
+      { id: user.id, changes: { active } },
+      {
+        onSuccess: (u) => setMessage({ tone: "success", text: `${u.name} is ${u.active ? "active again" : "deactivated and can no longer sign in"}.` }),
+        onError: (e) => setMessage({ tone: "alert", text: e.message }),
+      },
+    );
+  };
+
+  return (
+    <div className="flex flex-col gap-4">
+      {message && <Notice tone={message.tone}>{message.text}</Notice>}
+      {editing && (
+        <RoleEditor
+          key={editing.id}
+          user={editing}
+          onDone={() => setEditing(null)}
+        />
+      )}
+      <UsersTable
+        users={users.data}
+        currentUserId={currentUserId}
+        busyUserId={update.isPending ? (update.variables?.id ?? null) : null}
+        onEditRoles={(u) => {
+          setMessage(null);
+          setEditing(u);
+        }}
+        onSetActive={setActive}
+      />
+    </div>
+  );
+}
