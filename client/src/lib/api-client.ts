@@ -1,5 +1,6 @@
-import type { z } from "zod";
+import { z } from "zod";
 import { apiErrorSchema } from "../../../shared/schemas/common";
+import { apiPaths } from "../config/paths";
 
 /** Every failed request surfaces as this, whatever went wrong (HTTP error, network, unexpected body). */
 export class ApiError extends Error {
@@ -30,7 +31,7 @@ export function setCsrfToken(token: string | null) {
 
 type Method = "GET" | "POST" | "PATCH" | "PUT" | "DELETE";
 
-async function send(method: Method, url: string, body?: unknown, signal?: AbortSignal): Promise<Response> {
+async function send(method: Method, url: string, body?: unknown, signal?: AbortSignal, retried = false): Promise<Response> {
   const headers: Record<string, string> = { Accept: "application/json" };
   if (body !== undefined) headers["Content-Type"] = "application/json";
   if (method !== "GET" && csrfToken) headers["X-CSRF-Token"] = csrfToken;
@@ -47,8 +48,25 @@ async function send(method: Method, url: string, body?: unknown, signal?: AbortS
     if (signal?.aborted) throw e;
     throw new ApiError(0, "network", "Could not reach the Ropewalk server. Check your connection and try again.");
   }
-  if (!res.ok) throw await toApiError(res);
+  if (!res.ok) {
+    const error = await toApiError(res);
+    // The server forgot our token (session expired or store reset): learn the new one and try once more.
+    if (error.code === "csrf" && method !== "GET" && !retried && (await refreshCsrfToken())) {
+      return send(method, url, body, signal, true);
+    }
+    throw error;
+  }
   return res;
+}
+
+const csrfOnlySchema = z.object({ csrfToken: z.string() });
+
+async function refreshCsrfToken(): Promise<boolean> {
+  const res = await fetch(apiPaths.session(), { credentials: "same-origin", headers: { Accept: "application/json" } }).catch(() => null);
+  const parsed = csrfOnlySchema.safeParse(await res?.json().catch(() => null));
+  if (!parsed.success) return false;
+  csrfToken = parsed.data.csrfToken;
+  return true;
 }
 
 async function toApiError(res: Response): Promise<ApiError> {

@@ -1,0 +1,119 @@
+import fs from "node:fs";
+import path from "node:path";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Browser, Page } from "playwright-core";
+import { launchBrowser, screenshot } from "../setup/browser";
+import { startTestServer } from "../setup/server";
+import { createTestUser, type TestUser } from "../setup/users";
+
+// The browser clicks through the real built client served by the real app.
+const builtClient = path.resolve(import.meta.dirname, "../../dist/client/index.html");
+
+let server: Awaited<ReturnType<typeof startTestServer>>;
+let browser: Browser;
+let admin: TestUser;
+
+beforeAll(async () => {
+  if (!fs.existsSync(builtClient)) throw new Error("dist/client is missing: run `npm run build` before the browser tests");
+  [server, browser, admin] = await Promise.all([startTestServer(), launchBrowser(), createTestUser(["admin"], "Ada Admin")]);
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await server?.close();
+});
+
+async function signIn(page: Page, who: { email: string; password: string }) {
+  await page.getByLabel("E-mail").fill(who.email);
+  await page.getByLabel("Password").fill(who.password);
+  await page.getByRole("button", { name: "Sign in" }).click();
+}
+
+const navLabels = (page: Page) => page.getByRole("navigation", { name: "Main" }).getByRole("link").allTextContents();
+
+describe("foundation screens in a browser", () => {
+  it("admin creates a two-role user; that user sees only what the roles allow", async () => {
+    const context = await browser.newContext({ viewport: { width: 1280, height: 860 } });
+    const page = await context.newPage();
+    const pageErrors: string[] = [];
+    page.on("pageerror", (e) => pageErrors.push(e.message));
+
+    // A signed-out visit to /users lands on sign-in and returns to /users afterwards.
+    await page.goto(`${server.url}/users`);
+    await page.waitForURL(/\/sign-in\?next=%2Fusers$/);
+    await expect(page.getByRole("heading", { name: "Sign in to Ropewalk" }).isVisible()).resolves.toBe(true);
+    await screenshot(page, "sign-in");
+
+    // A wrong password is refused with a message and no navigation.
+    await signIn(page, { email: admin.email, password: "not-the-password" });
+    await page.getByText("do not match an active account").waitFor();
+    expect(new URL(page.url()).pathname).toBe("/sign-in");
+
+    await signIn(page, admin);
+    await page.waitForURL(`${server.url}/users`);
+    await page.getByRole("heading", { level: 1, name: "Users" }).waitFor();
+    expect(await navLabels(page)).toEqual(["Home", "Users", "Profile"]);
+
+    // The form's own validation (shared zod schema) speaks before the server is asked.
+    await page.getByRole("button", { name: "Add user" }).click();
+    await page.getByText("pick at least one role").waitFor();
+
+    const email = `rw-${Date.now()}@example.test`;
+    const password = "strand-laid-tight-42";
+    const form = page.getByRole("form", { name: "Add a user" });
+    await form.getByLabel("Name").fill("Rosa Researcher");
+    await form.getByLabel("E-mail").fill(email);
+    await form.getByLabel("First password").fill(password);
+    await form.getByLabel(/^Researcher/).check();
+    await form.getByLabel(/^Approver/).check();
+    await form.getByRole("button", { name: "Add user" }).click();
+    await page.getByText(`Added Rosa Researcher (${email})`).waitFor();
+
+    // The new row appears in the table with both roles; the text filter narrows to it.
+    await page.getByLabel("Filter users").fill("rosa");
+    const rows = page.getByRole("table", { name: "Users" }).locator("tbody tr");
+    await expect(rows.count()).resolves.toBe(1);
+    await expect(rows.first().textContent()).resolves.toMatch(/Rosa Researcher.*Researcher.*Approver/);
+    await page.getByLabel("Filter users").fill("");
+
+    // Creating the same e-mail again puts the server's 409 beside the E-mail field.
+    await form.getByLabel("Name").fill("Rosa Again");
+    await form.getByLabel("E-mail").fill(email);
+    await form.getByLabel("First password").fill(password);
+    await form.getByLabel(/^Viewer/).check();
+    await form.getByRole("button", { name: "Add user" }).click();
+    await form.getByText("already taken").waitFor();
+    await screenshot(page, "users");
+
+    await page.getByRole("link", { name: "Profile" }).click();
+    await page.getByRole("heading", { level: 1, name: "Profile" }).waitFor();
+    await screenshot(page, "profile");
+
+    await page.getByRole("button", { name: "Sign out" }).click();
+    await page.waitForURL(`${server.url}/sign-in`);
+
+    // The new user: Home and Profile only, and a plain refusal at /users.
+    await signIn(page, { email, password });
+    await page.waitForURL(`${server.url}/`);
+    await page.getByRole("heading", { name: "Good to see you, Rosa Researcher" }).waitFor();
+    expect(await navLabels(page)).toEqual(["Home", "Profile"]);
+    const roles = await page.getByLabel("Your roles").textContent();
+    expect(roles).toContain("Researcher");
+    expect(roles).toContain("Approver");
+    expect(roles).not.toContain("Admin");
+    await screenshot(page, "home");
+
+    await page.goto(`${server.url}/users`);
+    const refusal = page.getByTestId("not-allowed");
+    await refusal.waitFor();
+    await expect(refusal.textContent()).resolves.toContain("not allowed for your roles");
+    await expect(page.getByRole("table").count()).resolves.toBe(0);
+
+    await page.goto(`${server.url}/no-such-place`);
+    await page.getByRole("heading", { name: "Page not found" }).waitFor();
+    await screenshot(page, "not-found");
+
+    expect(pageErrors).toEqual([]);
+    await context.close();
+  }, 60_000);
+});

@@ -1,0 +1,29 @@
+import fs from "node:fs";
+import path from "node:path";
+import { chromium, type Browser, type Page } from "playwright-core";
+
+const root = path.resolve(import.meta.dirname, "../..");
+export const SCREENSHOT_DIR = path.join(root, "artifacts/screenshots");
+
+/** Debian's Chromium; the inner binary starts faster than the /usr/bin wrapper script. */
+function chromiumPath(): string {
+  if (process.env.CHROMIUM_PATH) return process.env.CHROMIUM_PATH;
+  return fs.existsSync("/usr/lib/chromium/chromium") ? "/usr/lib/chromium/chromium" : "/usr/bin/chromium";
+}
+
+export function launchBrowser(): Promise<Browser> {
+  return chromium.launch({
+    executablePath: chromiumPath(),
+    headless: true,
+    args: ["--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
+  });
+}
+
+/** Full-page picture of the current screen, kept in artifacts/ (git-ignored) for people to look at. */
+export async function screenshot(page: Page, name: string): Promise<string> {
+  fs.mkdirSync(SCREENSHOT_DIR, { recursive: true });
+  const file = path.join(SCREENSHOT_DIR, `${name}.png`);
+  // "disabled" fast-forwards CSS transitions so a pill caught mid-hover does not look washed out.
+  await page.screenshot({ path: file, fullPage: true, animations: "disabled" });
+  return file;
+}
