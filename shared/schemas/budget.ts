@@ -1,0 +1,214 @@
+import { z } from "zod";
+
+/*
+ * Budget contract: POST /api/budgets/estimate and the accelerator catalog.
+ * Defaults are not applied here: the engine applies them and reports each in `assumptions.defaulted`.
+ * z.number() already rejects NaN and ±Infinity; the upper limits keep every product finite.
+ */
+
+export const MAX_BUDGET_STAGES = 32;
+export const MAX_SEQUENCE_LENGTH = 2 ** 27;
+export const FLOP_CONVENTIONS = ["causal", "full"] as const;
+export const BUDGET_RECIPE_IDS = ["position-interpolation", "yarn", "adjusted-base"] as const;
+
+const count = (max: number) => z.number().int().positive().max(max);
+const amount = (max: number) => z.number().positive().max(max);
+const id = z.number().int().positive();
+const length = count(MAX_SEQUENCE_LENGTH);
+
+// ---- accelerator catalog ----------------------------------------------------------------
+
+const acceleratorFields = {
+  name: z.string().trim().min(1).max(100),
+  memoryBytes: count(1e15),
+  /** Dense peak FLOP/s at the training precision (no sparsity figure). */
+  peakFlops: amount(1e18),
+  /** Price per accelerator-hour, in the workspace's currency. */
+  pricePerHour: z.number().nonnegative().max(1e6),
+};
+
+export const acceleratorInputSchema = z.object({ ...acceleratorFields, notes: z.string().max(2000).optional() });
+export const acceleratorUpdateSchema = acceleratorInputSchema.partial();
+export const acceleratorSchema = z.object({ id, ...acceleratorFields, notes: z.string() });
+export type AcceleratorInput = z.infer<typeof acceleratorInputSchema>;
+export type AcceleratorUpdate = z.infer<typeof acceleratorUpdateSchema>;
+export type Accelerator = z.infer<typeof acceleratorSchema>;
+
+// ---- request -----------------------------------------------------------------------------
+
+/** Strict: a misspelled field is an error, not silently dropped. */
+export const modelShapeSchema = z
+  .strictObject({
+    parameters: count(1e15),
+    layers: count(10_000),
+    attentionHeads: count(10_000),
+    kvHeads: count(10_000),
+    headDim: count(65_536),
+    hiddenSize: count(1_000_000).optional(),
+    bytesPerElement: amount(16).optional(),
+  })
+  .superRefine((model, ctx) => {
+    if (model.attentionHeads % model.kvHeads !== 0) {
+      ctx.addIssue({ code: "custom", path: ["kvHeads"], message: "kvHeads must divide attentionHeads" });
+    }
+  });
+export const modelRefSchema = z.strictObject({ modelId: id });
+// A union reports the closest variant's issues when only one variant failed on values;
+// when both fail on types (NaN, null, a string) it reports "model" itself with this message.
+export const budgetModelSchema = z.union([modelShapeSchema, modelRefSchema], {
+  error: "give { modelId } or a model shape { parameters, layers, attentionHeads, kvHeads, headDim } of finite numbers",
+});
+
+export const clusterSpecSchema = z.strictObject({
+  peakFlops: acceleratorFields.peakFlops,
+  memoryBytes: acceleratorFields.memoryBytes,
+  pricePerHour: acceleratorFields.pricePerHour,
+});
+export const clusterRefSchema = z.strictObject({ acceleratorId: id });
+export const budgetClusterSchema = z.union([clusterSpecSchema, clusterRefSchema], {
+  error: "give { acceleratorId } or { peakFlops, memoryBytes, pricePerHour } as finite numbers",
+});
+
+type StageCommon = { sequenceLength: number; globalBatch: number };
+/** A stage by steps, or by a token target from which the engine derives steps. */
+export type StageRequest =
+  | (StageCommon & { steps: number; tokens?: undefined })
+  | (StageCommon & { tokens: number; steps?: undefined });
+
+// One object with an either-or rule (rather than a union) so a bad `steps` or `tokens` is named exactly.
+export const budgetStageRequestSchema = z
+  .object({
+    sequenceLength: length,
+    globalBatch: count(1e8),
+    steps: count(1e9).optional(),
+    tokens: amount(1e16).optional(),
+  })
+  .superRefine((stage, ctx) => {
+    const hasSteps = stage.steps !== undefined;
+    const hasTokens = stage.tokens !== undefined;
+    if (hasSteps && hasTokens) ctx.addIssue({ code: "custom", path: ["tokens"], message: "give steps or tokens, not both" });
+    if (!hasSteps && !hasTokens) ctx.addIssue({ code: "custom", path: ["steps"], message: "give steps or a token target" });
+  })
+  .transform((stage) => stage as StageRequest);
+
+export const budgetEstimateRequestSchema = z
+  .object({
+    model: budgetModelSchema,
+    cluster: budgetClusterSchema,
+    accelerators: count(1_000_000),
+    /** Model FLOPs utilisation in (0, 1]. */
+    utilization: z.number().positive().max(1).optional(),
+    convention: z.enum(FLOP_CONVENTIONS).optional(),
+    recomputeFraction: z.number().min(0).max(1).optional(),
+    optimizerBytesPerParameter: amount(64).optional(),
+    sequenceSharding: count(1_000_000).optional(),
+    microBatchSequences: count(1_000_000).optional(),
+    trainedContext: length.optional(),
+    targetContext: length.optional(),
+    growthPoints: z.number().int().min(2).max(64).optional(),
+    stages: z.array(budgetStageRequestSchema).min(1).max(MAX_BUDGET_STAGES),
+  })
+  .superRefine((request, ctx) => {
+    if (request.sequenceSharding !== undefined && request.sequenceSharding > request.accelerators) {
+      ctx.addIssue({ code: "custom", path: ["sequenceSharding"], message: "sequenceSharding cannot exceed accelerators" });
+    }
+    // Same fallbacks as the engine: shortest and longest stage lengths.
+    const lengths = request.stages.map((s) => s.sequenceLength);
+    const trained = request.trainedContext ?? Math.min(...lengths);
+    const target = request.targetContext ?? Math.max(...lengths);
+    if (trained > target) {
+      const path = request.targetContext !== undefined ? "targetContext" : "trainedContext";
+      ctx.addIssue({ code: "custom", path: [path], message: "trainedContext cannot exceed targetContext" });
+    }
+  });
+export type BudgetEstimateRequest = z.input<typeof budgetEstimateRequestSchema>;
+export type ParsedBudgetEstimateRequest = z.output<typeof budgetEstimateRequestSchema>;
+
+// ---- response ----------------------------------------------------------------------------
+
+const nonNegative = z.number().nonnegative();
+
+export const budgetStageEstimateSchema = z.object({
+  index: z.number().int().nonnegative(),
+  sequenceLength: z.number(),
+  globalBatch: z.number(),
+  steps: z.number(),
+  tokenTarget: z.number().nullable(),
+  tokens: nonNegative,
+  cumulativeTokens: nonNegative,
+  flopsPerToken: nonNegative,
+  attentionFlopsPerToken: nonNegative,
+  flops: nonNegative,
+  acceleratorHours: nonNegative,
+  wallClockHours: nonNegative,
+  cost: nonNegative,
+  kvCacheBytesPerToken: nonNegative,
+  kvCacheBytesPerSequence: nonNegative,
+  servingSequencesPerAccelerator: z.number().int().nonnegative(),
+  trainingMemoryPerAccelerator: nonNegative,
+  trainingMemory: z.object({ modelStates: nonNegative, activations: nonNegative, total: nonNegative }),
+  fits: z.boolean(),
+  minSequenceSharding: z.number().int().positive().nullable(),
+  warnings: z.array(z.string()),
+});
+
+export const budgetTotalsSchema = z.object({
+  tokens: nonNegative,
+  flops: nonNegative,
+  acceleratorHours: nonNegative,
+  wallClockHours: nonNegative,
+  cost: nonNegative,
+});
+
+export const budgetGrowthPointSchema = z.object({
+  sequenceLength: z.number(),
+  flopsPerToken: nonNegative,
+  attentionShare: z.number().min(0).max(1),
+  acceleratorHoursPerBillionTokens: nonNegative,
+  costPerBillionTokens: nonNegative,
+});
+
+export const budgetAssumptionsSchema = z.object({
+  convention: z.enum(FLOP_CONVENTIONS),
+  conventionFormula: z.string(),
+  conventionSource: z.string(),
+  utilization: z.number(),
+  utilizationSource: z.string(),
+  recomputeFraction: z.number(),
+  optimizerBytesPerParameter: z.number(),
+  optimizerBytesSource: z.string(),
+  bytesPerElement: z.number(),
+  hiddenSize: z.number(),
+  sequenceSharding: z.number(),
+  microBatchSequences: z.number(),
+  trainedContext: z.number(),
+  targetContext: z.number(),
+  defaulted: z.array(z.string()),
+  memoryModel: z.array(z.string()),
+  notes: z.array(z.string()),
+});
+
+export const budgetEstimateSchema = z.object({
+  stages: z.array(budgetStageEstimateSchema),
+  totals: budgetTotalsSchema,
+  growth: z.array(budgetGrowthPointSchema),
+  assumptions: budgetAssumptionsSchema,
+});
+export type BudgetEstimateResponse = z.infer<typeof budgetEstimateSchema>;
+
+// ---- published recipes (GET, read-only) --------------------------------------------------
+
+export const budgetRecipeSchema = z.object({
+  id: z.enum(BUDGET_RECIPE_IDS),
+  name: z.string(),
+  source: z.object({ authors: z.string(), year: z.number().int(), title: z.string() }),
+  reported: z.object({
+    steps: z.number().optional(),
+    globalBatch: z.number().optional(),
+    learningRate: z.number().optional(),
+    sequenceLength: z.number().optional(),
+    tokens: z.number().optional(),
+  }),
+  summary: z.string(),
+});
+export type BudgetRecipeResponse = z.infer<typeof budgetRecipeSchema>;
