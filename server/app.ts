@@ -10,6 +10,7 @@ import { loadUser, sessionMiddleware } from "./http/session";
 import { authRouter } from "./features/auth/auth.router";
 import { usersRouter } from "./features/users/users.router";
 import { healthRouter } from "./features/health/health.router";
+import { modelsRouter } from "./features/models/models.router";
 
 export const JSON_LIMIT = "512kb";
 
@@ -35,6 +36,7 @@ export function createApp(deps: AppDeps) {
   api.use(express.json({ limit: JSON_LIMIT }));
   api.use("/auth", authRouter(deps));
   api.use("/users", usersRouter(deps));
+  api.use("/models", modelsRouter(deps));
   api.use((_req, _res, next) => next(new NotFound("no such API route")));
   app.use("/api", api);
 

@@ -6,6 +6,7 @@ import type { Db } from "./client";
 import { users } from "./schema";
 import { recordAudit } from "../features/audit/audit.repo";
 import type { Role } from "../../shared/schemas";
+import { seedModelProfiles } from "../features/models/models.seed";
 
 /** The demo scenario: Saltmarsh Applied Language Lab, a fictional lab stretching its own fictional model families. */
 export const DEMO_PASSWORD = "ropewalk-demo";
@@ -21,7 +22,7 @@ export const DEMO_USERS: { email: string; name: string; roles: Role[] }[] = [
 
 export type SeedStep = (db: Db, people: Map<string, number>) => Promise<void>;
 /** Later features append their demo data here; every step must be idempotent. */
-export const SEED_STEPS: SeedStep[] = [];
+export const SEED_STEPS: SeedStep[] = [seedModelProfiles];
 
 async function seedUsers(db: Db) {
   const people = new Map<string, number>();

@@ -1,3 +1,4 @@
 export * from "./common";
 export * from "./auth";
 export * from "./users";
+export * from "./models";

@@ -1,0 +1,76 @@
+import { Router } from "express";
+import multer from "multer";
+import { z } from "zod";
+import type { AppDeps } from "../../deps";
+import { currentUser, requireAuth, requireRole } from "../../http/auth";
+import { Invalid } from "../../http/errors";
+import { parseBody, parseOr400, parseParams } from "../../http/validate";
+import { idParamSchema, modelProfileInputSchema } from "../../../shared/schemas";
+import * as service from "./models.service";
+
+export const MAX_CONFIG_BYTES = 1024 * 1024;
+
+const upload = multer({
+  storage: multer.memoryStorage(),
+  limits: { fileSize: MAX_CONFIG_BYTES, files: 1, fields: 4 },
+  fileFilter: (_req, file, cb) => {
+    const ok = /\.json$/i.test(file.originalname) || /json/.test(file.mimetype);
+    cb(ok ? null : new Invalid("only JSON files (config.json) can be imported", { file: "not a .json file" }), ok);
+  },
+});
+
+const importFlags = z.object({
+  save: z.enum(["true", "false"]).optional(),
+  overrides: z.string().max(64_000).optional(),
+});
+
+export function modelsRouter(deps: AppDeps) {
+  const r = Router();
+  const editors = requireRole("researcher", "infra", "admin");
+  r.use(requireAuth);
+
+  r.get("/", async (_req, res) => {
+    res.json({ models: await service.listModels(deps) });
+  });
+
+  r.post("/import", editors, upload.single("file"), async (req, res) => {
+    const flags = parseOr400(importFlags, { ...req.body, ...req.query }, "form");
+    let overrides = {};
+    if (flags.overrides) {
+      try {
+        overrides = JSON.parse(flags.overrides);
+      } catch {
+        throw new Invalid("overrides must be JSON", { overrides: "not valid JSON" });
+      }
+    }
+    const result = await service.importConfig(deps, currentUser(res), req.file, flags.save === "true", overrides);
+    res.status(result.saved ? 201 : 200).json(result);
+  });
+
+  r.get("/:id", async (req, res) => {
+    res.json({ model: await service.getModel(deps, parseParams(idParamSchema, req).id) });
+  });
+
+  r.get("/:id/source", async (req, res) => {
+    const src = await service.getModelSource(deps, parseParams(idParamSchema, req).id);
+    res.type("application/json").attachment(src.fileName).send(src.text);
+  });
+
+  r.post("/", editors, async (req, res) => {
+    const input = parseBody(modelProfileInputSchema, req);
+    res.status(201).json({ model: await service.createModel(deps, currentUser(res), input) });
+  });
+
+  r.put("/:id", editors, async (req, res) => {
+    const { id } = parseParams(idParamSchema, req);
+    const input = parseBody(modelProfileInputSchema, req);
+    res.json({ model: await service.updateModel(deps, currentUser(res), id, input) });
+  });
+
+  r.delete("/:id", editors, async (req, res) => {
+    await service.deleteModel(deps, currentUser(res), parseParams(idParamSchema, req).id);
+    res.status(204).end();
+  });
+
+  return r;
+}

@@ -1,0 +1,119 @@
+import type { AppDeps } from "../../deps";
+import { Conflict, Invalid, NotFound } from "../../http/errors";
+import { parseOr400 } from "../../http/validate";
+import { recordAudit } from "../audit/audit.repo";
+import {
+  modelProfileInputSchema, rotaryDimOf,
+  type ImportWarning, type ModelProfile, type ModelProfileInput, type ModelProfileValues, type SessionUser,
+} from "../../../shared/schemas";
+import { ConfigImportError, parseModelConfig } from "./config-import";
+import * as repo from "./models.repo";
+
+export function toModelProfile(row: repo.ModelRow): ModelProfile {
+  const { sourceConfig: _omit, ...rest } = row;
+  const d = rotaryDimOf(row);
+  return {
+    ...rest,
+    currentScaling: (row.currentScaling as ModelProfile["currentScaling"]) ?? null,
+    importWarnings: (row.importWarnings as ImportWarning[]) ?? [],
+    rotaryDim: d,
+    pairs: d / 2,
+    createdAt: row.createdAt.toISOString(),
+    updatedAt: row.updatedAt.toISOString(),
+  };
+}
+
+const isUnique = (e: unknown) => (e as { cause?: { code?: string } })?.cause?.code === "23505";
+const nameTaken = () => new Conflict("a profile with this name already exists", { name: "already taken" });
+
+export const listModels = async (deps: AppDeps) => (await repo.listModelRows(deps.db)).map(toModelProfile);
+
+async function mustFind(deps: AppDeps, id: number) {
+  const row = await repo.findModelRow(deps.db, id);
+  if (!row) throw new NotFound("no such model profile");
+  return row;
+}
+export const getModel = async (deps: AppDeps, id: number) => toModelProfile(await mustFind(deps, id));
+
+/** What the engine needs of a saved profile. */
+export async function getModelShape(deps: AppDeps, id: number) {
+  const m = await mustFind(deps, id);
+  return {
+    headDim: m.headDim, ropeTheta: m.ropeTheta, trainedContext: m.trainedContext, partialRotaryFactor: m.partialRotaryFactor,
+    layers: m.layers, attentionHeads: m.attentionHeads, kvHeads: m.kvHeads, hiddenSize: m.hiddenSize,
+    parameters: m.parameters, bytesPerElement: m.bytesPerElement, name: m.name,
+  };
+}
+
+export async function getModelSource(deps: AppDeps, id: number) {
+  const m = await mustFind(deps, id);
+  if (!m.sourceConfig) throw new NotFound("this profile was not imported from a file");
+  return { fileName: m.sourceFileName ?? "config.json", text: m.sourceConfig };
+}
+
+export async function createModel(
+  deps: AppDeps, actor: SessionUser, input: ModelProfileValues,
+  source?: { fileName: string; text: string; warnings: ImportWarning[] },
+) {
+  try {
+    return await deps.db.transaction(async (tx) => {
+      const row = await repo.insertModelRow(tx, {
+        ...input, currentScaling: input.currentScaling ?? null, createdBy: actor.id,
+        sourceFileName: source?.fileName ?? null, sourceConfig: source?.text ?? null, importWarnings: source?.warnings ?? [],
+      });
+      await recordAudit(tx, { actorId: actor.id, action: source ? "model.imported" : "model.created", subjectType: "model", subjectId: row.id, detail: { name: row.name } });
+      return toModelProfile(row);
+    });
+  } catch (e) {
+    if (isUnique(e)) throw nameTaken();
+    throw e;
+  }
+}
+
+export async function updateModel(deps: AppDeps, actor: SessionUser, id: number, input: ModelProfileValues) {
+  await mustFind(deps, id);
+  try {
+    return await deps.db.transaction(async (tx) => {
+      const row = await repo.updateModelRow(tx, id, { ...input, currentScaling: input.currentScaling ?? null });
+      await recordAudit(tx, { actorId: actor.id, action: "model.updated", subjectType: "model", subjectId: id, detail: { name: row.name } });
+      return toModelProfile(row);
+    });
+  } catch (e) {
+    if (isUnique(e)) throw nameTaken();
+    throw e;
+  }
+}
+
+export async function deleteModel(deps: AppDeps, actor: SessionUser, id: number) {
+  await deps.db.transaction(async (tx) => {
+    const row = await repo.findModelRow(tx, id);
+    if (!row) throw new NotFound("no such model profile");
+    const plans = await repo.modelUsage(tx, id);
+    if (plans.length) {
+      throw new Conflict(`plans use this profile: ${plans.map((p) => `#${p.id} ${p.title}`).join("; ")}`, { id: "in use by plans" });
+    }
+    await repo.deleteModelRow(tx, id);
+    await recordAudit(tx, { actorId: actor.id, action: "model.deleted", subjectType: "model", subjectId: id, detail: { name: row.name } });
+  });
+}
+
+/** Parses an uploaded config; saves it (with the file) only when asked, applying the user's edits on top. */
+export async function importConfig(
+  deps: AppDeps, actor: SessionUser,
+  file: { originalname: string; buffer: Buffer } | undefined, save: boolean, overrides: Partial<ModelProfileInput>,
+) {
+  if (!file) throw new Invalid("attach a config.json as the multipart field 'file'", { file: "missing" });
+  const text = file.buffer.toString("utf8");
+  let parsed;
+  try {
+    parsed = parseModelConfig(text, file.originalname);
+  } catch (e) {
+    if (e instanceof ConfigImportError) throw new Invalid(e.message, e.fields);
+    throw e;
+  }
+  const profile = { ...parsed.profile, ...overrides };
+  if (!save) return { profile, warnings: parsed.warnings, saved: null };
+  const values = parseOr400(modelProfileInputSchema, profile, "profile");
+  const saved = await createModel(deps, actor, values, { fileName: file.originalname, text, warnings: parsed.warnings });
+  return { profile, warnings: parsed.warnings, saved };
+}

@@ -1,0 +1,235 @@
+import { z } from "zod";
+
+/**
+ * Contract of POST /api/analyses: which rotary scaling methods to compare on one model.
+ * The engine (server/engine) and the client forms both use these schemas.
+ */
+
+export const METHOD_IDS = ["default", "linear", "ntk", "dynamic", "yarn", "llama3", "longrope", "base"] as const;
+export const methodIdSchema = z.enum(METHOD_IDS);
+export type MethodId = z.infer<typeof methodIdSchema>;
+
+/** Methods whose factor defaults to targetContext / trainedContext and that only make sense when it exceeds 1. */
+export const METHODS_NEEDING_EXTENSION: readonly MethodId[] = ["linear", "ntk", "dynamic", "yarn", "llama3"];
+
+export const MAX_LENGTH = 2 ** 31;
+export const MAX_METHODS = 16;
+const MAX_HEAD_DIM = 8192;
+
+/** A token count: whole, positive, at most 2^31. zod's number() already refuses NaN and ±Infinity. */
+export const lengthSchema = z.number().int("must be a whole number of tokens").positive().max(MAX_LENGTH, "at most 2^31 tokens");
+const positive = z.number().positive().max(1e12);
+const factorSchema = z.number().min(1, "factor must be at least 1").max(MAX_LENGTH).optional();
+const factorListSchema = z.array(z.number().positive("every factor must be positive").max(1e12)).min(1).max(MAX_HEAD_DIM / 2);
+
+export const modelShapeSchema = z.strictObject({
+  headDim: z.number().int().positive().max(MAX_HEAD_DIM),
+  ropeTheta: z.number().gt(1, "the base must exceed 1").max(1e15),
+  trainedContext: lengthSchema,
+  partialRotaryFactor: z.number().gt(0, "must be above 0").max(1, "must be at most 1").optional(),
+  layers: z.number().int().positive().max(10_000).optional(),
+  attentionHeads: z.number().int().positive().max(10_000).optional(),
+  kvHeads: z.number().int().positive().max(10_000).optional(),
+  hiddenSize: z.number().int().positive().max(1_000_000).optional(),
+});
+export type ModelShape = z.infer<typeof modelShapeSchema>;
+export const modelRefSchema = z.strictObject({ modelId: z.number().int().positive() });
+
+/** Rotary dimension d = headDim × partialRotaryFactor; null unless it is a positive even integer. */
+export function rotaryDimension(model: Pick<ModelShape, "headDim" | "partialRotaryFactor">): number | null {
+  const raw = model.headDim * (model.partialRotaryFactor ?? 1);
+  const d = Math.round(raw);
+  if (Math.abs(raw - d) > 1e-9 || d <= 0 || d % 2 !== 0) return null;
+  return d;
+}
+
+/** Cross-field rule "a > b" on two optional parameters with defaults; the issue names the field the caller set. */
+function ordered(hiName: string, loName: string, hiDefault: number, loDefault: number) {
+  return (v: Record<string, unknown>, ctx: z.RefinementCtx) => {
+    const hi = (v[hiName] as number | undefined) ?? hiDefault;
+    const lo = (v[loName] as number | undefined) ?? loDefault;
+    if (!(hi > lo)) {
+      const path = v[hiName] !== undefined ? hiName : loName;
+      ctx.addIssue({ code: "custom", path: [path], message: `${hiName} (${hi}) must exceed ${loName} (${lo})` });
+    }
+  };
+}
+
+/** One member per method: the validation table. Optional fields get their defaults in the engine. */
+export const methodParamsSchema = z.discriminatedUnion("method", [
+  z.strictObject({ method: z.literal("default") }),
+  z.strictObject({ method: z.literal("linear"), factor: factorSchema }),
+  z.strictObject({ method: z.literal("ntk"), factor: factorSchema }),
+  z.strictObject({ method: z.literal("dynamic"), factor: factorSchema, sequenceLength: lengthSchema.optional() }),
+  z.strictObject({
+    method: z.literal("yarn"),
+    factor: factorSchema,
+    betaFast: positive.optional(),
+    betaSlow: positive.optional(),
+    truncate: z.boolean().optional(),
+    attentionFactor: positive.optional(),
+    // 0 is accepted because configs carry it; like the loaders, the engine treats 0 as "not set".
+    mscale: z.number().min(0).max(1e6).optional(),
+    mscaleAllDim: z.number().min(0).max(1e6).optional(),
+  }).superRefine(ordered("betaFast", "betaSlow", 32, 1)),
+  z.strictObject({
+    method: z.literal("llama3"),
+    factor: factorSchema,
+    lowFreqFactor: positive.optional(),
+    highFreqFactor: positive.optional(),
+  }).superRefine(ordered("highFreqFactor", "lowFreqFactor", 4, 1)),
+  z.strictObject({ method: z.literal("longrope"), longFactor: factorListSchema, shortFactor: factorListSchema }),
+  z.strictObject({ method: z.literal("base"), base: z.number().gt(1, "the base must exceed 1").max(1e15) }),
+]);
+export type MethodParams = z.infer<typeof methodParamsSchema>;
+export type ParamsOf<K extends MethodId> = Extract<MethodParams, { method: K }>;
+
+export const bandsSchema = z.strictObject({ alpha: positive, beta: positive })
+  .refine((b) => b.beta > b.alpha, { path: ["beta"], message: "beta must exceed alpha" });
+export type Bands = z.infer<typeof bandsSchema>;
+export const DEFAULT_BANDS: Bands = { alpha: 1, beta: 32 };
+
+interface FieldIssue { path: (string | number)[]; message: string }
+
+/** Rules that need the model: rotary dimension, target above trained context, longrope list lengths. */
+export function modelDependentIssues(model: ModelShape, targetContext: number, methods: MethodParams[]): FieldIssue[] {
+  const issues: FieldIssue[] = [];
+  const d = rotaryDimension(model);
+  if (d === null) {
+    const field = model.partialRotaryFactor !== undefined && model.partialRotaryFactor !== 1 ? "partialRotaryFactor" : "headDim";
+    const raw = model.headDim * (model.partialRotaryFactor ?? 1);
+    issues.push({ path: ["model", field], message: `rotary dimension headDim × partialRotaryFactor = ${raw} must be a positive even integer` });
+  }
+  const needs = methods.findIndex((m) => METHODS_NEEDING_EXTENSION.includes(m.method));
+  if (needs >= 0 && !(targetContext > model.trainedContext)) {
+    issues.push({
+      path: ["targetContext"],
+      message: `must exceed the trained context (${model.trainedContext}) for method ${methods[needs].method} (methods.${needs})`,
+    });
+  }
+  methods.forEach((m, i) => {
+    if (m.method !== "longrope" || d === null) return;
+    for (const key of ["longFactor", "shortFactor"] as const) {
+      if (m[key].length !== d / 2) issues.push({ path: ["methods", i, key], message: `needs ${d / 2} entries (rotary dimension / 2), got ${m[key].length}` });
+    }
+  });
+  return issues;
+}
+
+const requestFields = {
+  targetContext: lengthSchema,
+  bands: bandsSchema.optional(),
+  methods: z.array(methodParamsSchema).min(1, "pick at least one method").max(MAX_METHODS, `at most ${MAX_METHODS} methods`),
+};
+
+/** The request the engine runs: model already resolved. */
+export const resolvedAnalysisRequestSchema = z.object({ model: modelShapeSchema, ...requestFields })
+  .superRefine((r, ctx) => modelDependentIssues(r.model, r.targetContext, r.methods).forEach((i) => ctx.addIssue({ code: "custom", ...i })));
+export type ResolvedAnalysisRequest = z.infer<typeof resolvedAnalysisRequestSchema>;
+
+/**
+ * The HTTP request: an inline model shape or a stored model's id. When the shape fails only on value checks,
+ * zod reports the shape's own fields (model.headDim …); model-dependent rules for { modelId } run after lookup.
+ */
+export const analysisRequestSchema = z.object({ model: z.union([modelRefSchema, modelShapeSchema]), ...requestFields })
+  .superRefine((r, ctx) => {
+    if ("modelId" in r.model) return;
+    modelDependentIssues(r.model, r.targetContext, r.methods).forEach((i) => ctx.addIssue({ code: "custom", ...i }));
+  });
+export type AnalysisRequest = z.infer<typeof analysisRequestSchema>;
+
+// ---- response ----
+
+/**
+ * Our names for the three kinds of pair, by rotations r = L/λ inside the trained window (α, β from the request):
+ * - "spinning" (r ≥ β): cycled many times in training and saw every angle; the trade calls these high-frequency.
+ *   Slowing them blurs neighbouring positions (the local-resolution cost of position interpolation).
+ * - "turning" (α ≤ r < β): a few rotations; methods blend between keeping and interpolating these.
+ * - "drifting" (r < α): never completed a rotation in training (low-frequency); extrapolating them
+ *   reaches angles the model never saw, so context-extension methods interpolate them.
+ */
+export const BAND_IDS = ["spinning", "turning", "drifting"] as const;
+export type Band = (typeof BAND_IDS)[number];
+
+const num = z.number();
+export const pairResultSchema = z.object({
+  index: z.number().int(),
+  invFreq: num,
+  scaledInvFreq: num,
+  wavelength: num,
+  scaledWavelength: num,
+  rotationsInTrainedWindow: num,
+  band: z.enum(BAND_IDS),
+  exceedsTrainedWindow: z.boolean(),
+  unseenAngles: z.boolean(),
+  compressedResolution: z.boolean(),
+});
+export type PairResult = z.infer<typeof pairResultSchema>;
+
+/** `rope_scaling` in the open model-configuration convention (snake_case keys, as loaders read them). */
+export const ropeScalingBlockSchema = z.object({
+  rope_type: z.enum(["linear", "dynamic", "yarn", "llama3", "longrope"]),
+  factor: num,
+  original_max_position_embeddings: z.number().int(),
+  beta_fast: num.optional(),
+  beta_slow: num.optional(),
+  truncate: z.boolean().optional(),
+  attention_factor: num.optional(),
+  mscale: num.optional(),
+  mscale_all_dim: num.optional(),
+  low_freq_factor: num.optional(),
+  high_freq_factor: num.optional(),
+  long_factor: z.array(num).optional(),
+  short_factor: z.array(num).optional(),
+});
+export type RopeScalingBlock = z.infer<typeof ropeScalingBlockSchema>;
+
+/** The keys to write into config.json: rope_scaling (null for none), rope_theta only when the base changes. */
+export const configPatchSchema = z.object({
+  rope_scaling: ropeScalingBlockSchema.nullable(),
+  rope_theta: num.optional(),
+  max_position_embeddings: z.number().int(),
+});
+export type ConfigPatch = z.infer<typeof configPatchSchema>;
+
+/** Liu et al. 2023, Theorem 3, for one base tuned at one length. */
+export const extrapolationBoundSchema = z.object({
+  base: num,
+  tuneContext: num,
+  criticalBase: num,
+  baseAboveCritical: z.boolean(),
+  tExtra: num,
+  bound: num,
+});
+export type ExtrapolationBound = z.infer<typeof extrapolationBoundSchema>;
+
+export const methodResultSchema = z.object({
+  method: methodIdSchema,
+  params: methodParamsSchema,
+  attentionFactor: num,
+  /** The base the scaled frequencies correspond to, for methods that only change the base; else null. */
+  effectiveBase: num.nullable(),
+  pairs: z.array(pairResultSchema),
+  summary: z.object({ unseenAnglesPairs: z.number().int(), compressedResolutionPairs: z.number().int(), exceedsTrainedWindowPairs: z.number().int() }),
+  /** First position below the target with Σ cos(m·θ'_i) < 0 (Men et al. 2024 on the scaled frequencies); null: none. */
+  supportedLength: z.number().int().nullable(),
+  extrapolationBound: extrapolationBoundSchema.nullable(),
+  ropeScaling: configPatchSchema,
+  notes: z.array(z.string()),
+});
+export type MethodResult = z.infer<typeof methodResultSchema>;
+
+export const analysisResponseSchema = z.object({
+  engineVersion: z.string(),
+  model: modelShapeSchema.extend({ rotaryDim: z.number().int(), pairs: z.number().int(), partialRotaryFactor: num }),
+  targetContext: z.number().int(),
+  scale: num,
+  bands: z.object({ alpha: num, beta: num }),
+  criticalDimension: z.number().int(),
+  criticalBase: num,
+  extrapolationBound: extrapolationBoundSchema,
+  supportedLength: z.number().int().nullable(),
+  methods: z.array(methodResultSchema),
+  decay: z.object({ positions: z.array(num), original: z.array(num), byMethod: z.record(z.string(), z.array(num)) }),
+});
+export type AnalysisResponse = z.infer<typeof analysisResponseSchema>;
