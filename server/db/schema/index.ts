@@ -1,2 +1,4 @@
 export * from "./users";
 export * from "./models";
+export * from "./plans";
+export * from "./accelerators";

@@ -1,0 +1,103 @@
+import { index, integer, jsonb, pgTable, serial, text, timestamp, uniqueIndex } from "drizzle-orm/pg-core";
+import { users } from "./users";
+import { modelProfiles } from "./models";
+
+/** Lab-wide settings (one row per key). */
+export const settings = pgTable("settings", {
+  key: text("key").primaryKey(),
+  value: jsonb("value").notNull(),
+  updatedBy: integer("updated_by").references(() => users.id),
+  updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+});
+
+export const plans = pgTable("plans", {
+  id: serial("id").primaryKey(),
+  title: text("title").notNull(),
+  purpose: text("purpose").notNull().default(""),
+  ownerId: integer("owner_id").notNull().references(() => users.id),
+  modelId: integer("model_id").notNull().references(() => modelProfiles.id, { onDelete: "restrict" }),
+  requiredApprovals: integer("required_approvals").notNull().default(1),
+  createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+  updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+});
+
+/** Content is immutable once submitted; contentHash = SHA-256 of its RFC 8785 canonical form. */
+export const planRevisions = pgTable(
+  "plan_revisions",
+  {
+    id: serial("id").primaryKey(),
+    planId: integer("plan_id").notNull().references(() => plans.id, { onDelete: "cascade" }),
+    number: integer("number").notNull(),
+    state: text("state").notNull().default("draft"),
+    version: integer("version").notNull().default(1),
+    round: integer("round").notNull().default(0),
+    authorId: integer("author_id").notNull().references(() => users.id),
+    content: jsonb("content").notNull(),
+    contentHash: text("content_hash").notNull(),
+    engineVersion: text("engine_version").notNull(),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+    submittedAt: timestamp("submitted_at", { withTimezone: true }),
+    decidedAt: timestamp("decided_at", { withTimezone: true }),
+  },
+  (t) => [uniqueIndex("plan_revisions_plan_number").on(t.planId, t.number), index("plan_revisions_state").on(t.state)],
+);
+
+/** One decision per approver per submission round of a revision. */
+export const planDecisions = pgTable(
+  "plan_decisions",
+  {
+    id: serial("id").primaryKey(),
+    revisionId: integer("revision_id").notNull().references(() => planRevisions.id, { onDelete: "cascade" }),
+    round: integer("round").notNull(),
+    approverId: integer("approver_id").notNull().references(() => users.id),
+    decision: text("decision").notNull(),
+    comment: text("comment").notNull().default(""),
+    signedHash: text("signed_hash").notNull(),
+    at: timestamp("at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex("plan_decisions_once").on(t.revisionId, t.round, t.approverId)],
+);
+
+/** Personal read-only API tokens; only the SHA-256 of the secret is stored. */
+export const apiTokens = pgTable("api_tokens", {
+  id: serial("id").primaryKey(),
+  userId: integer("user_id").notNull().references(() => users.id),
+  name: text("name").notNull(),
+  tokenHash: text("token_hash").notNull().unique(),
+  prefix: text("prefix").notNull(),
+  createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+  lastUsedAt: timestamp("last_used_at", { withTimezone: true }),
+  revokedAt: timestamp("revoked_at", { withTimezone: true }),
+});
+
+/** Mail waits here until delivered; rows are claimed with FOR UPDATE SKIP LOCKED so instances never send one twice. */
+export const mailOutbox = pgTable(
+  "mail_outbox",
+  {
+    id: serial("id").primaryKey(),
+    kind: text("kind").notNull(),
+    toAddresses: text("to_addresses").array().notNull(),
+    subject: text("subject").notNull(),
+    body: text("body").notNull(),
+    status: text("status").notNull().default("pending"),
+    attempts: integer("attempts").notNull().default(0),
+    nextAttemptAt: timestamp("next_attempt_at", { withTimezone: true }).notNull().defaultNow(),
+    lastError: text("last_error"),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+    sentAt: timestamp("sent_at", { withTimezone: true }),
+  },
+  (t) => [index("mail_outbox_due").on(t.status, t.nextAttemptAt)],
+);
+
+/** What the local SMTP sink received (development and tests only). */
+export const mailSinkMessages = pgTable("mail_sink_messages", {
+  id: serial("id").primaryKey(),
+  receivedAt: timestamp("received_at", { withTimezone: true }).notNull().defaultNow(),
+  messageId: text("message_id"),
+  fromAddress: text("from_address").notNull(),
+  toAddresses: text("to_addresses").array().notNull(),
+  subject: text("subject").notNull(),
+  text: text("text").notNull(),
+  raw: text("raw").notNull(),
+});
