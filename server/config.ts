@@ -12,6 +12,9 @@ const envSchema = z.object({
   SESSION_SECRET: z.string().min(16).optional(),
   SMTP_URL: z.string().optional(),
   MAIL_FROM: z.string().default("Ropewalk <ropewalk@ropewalk.test>"),
+  MAIL_SINK_PORT: z.coerce.number().int().min(0).max(65535).default(2525),
+  MAIL_RETRY_BASE_MS: z.coerce.number().int().min(0).default(5000),
+  PUBLIC_URL: z.string().optional(),
   CLIENT_DIR: z.string().optional(),
   TRUST_PROXY: bool.optional(),
   LOGIN_LIMIT_PER_ACCOUNT: z.coerce.number().int().positive().default(10),
@@ -27,8 +30,12 @@ export interface Config {
   sessionSecret: string;
   cookieSecure: boolean;
   trustProxy: boolean;
+  /** Where mail goes; defaults to the local sink outside production. */
   smtpUrl?: string;
   mailFrom: string;
+  mailSinkPort: number;
+  mailRetryBaseMs: number;
+  publicUrl: string;
   clientDir: string;
   login: { perAccount: number; perAddress: number; windowMs: number };
   bcryptCost: number;
@@ -53,8 +60,11 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
     sessionSecret: e.SESSION_SECRET ?? "ropewalk-local-development-secret",
     cookieSecure: production,
     trustProxy: e.TRUST_PROXY ?? false,
-    smtpUrl: e.SMTP_URL,
+    smtpUrl: e.SMTP_URL ?? (production ? undefined : `smtp://127.0.0.1:${e.MAIL_SINK_PORT}`),
     mailFrom: e.MAIL_FROM,
+    mailSinkPort: e.MAIL_SINK_PORT,
+    mailRetryBaseMs: e.MAIL_RETRY_BASE_MS,
+    publicUrl: e.PUBLIC_URL ?? `http://${e.HOST}:${e.PORT}`,
     clientDir: path.resolve(e.CLIENT_DIR ?? "dist/client"),
     login: {
       perAccount: e.LOGIN_LIMIT_PER_ACCOUNT,
