@@ -15,7 +15,8 @@ const upload = multer({
   limits: { fileSize: MAX_CONFIG_BYTES, files: 1, fields: 4 },
   fileFilter: (_req, file, cb) => {
     const ok = /\.json$/i.test(file.originalname) || /json/.test(file.mimetype);
-    cb(ok ? null : new Invalid("only JSON files (config.json) can be imported", { file: "not a .json file" }), ok);
+    if (ok) cb(null, true);
+    else cb(new Invalid("only JSON files (config.json) can be imported", { file: "not a .json file" }));
   },
 });
 
