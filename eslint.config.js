@@ -1,0 +1,66 @@
+// Flat config. Besides the usual TypeScript and hooks checks, it enforces the one-way imports of
+// ARCHITECTURE.md habit 1 with eslint-plugin-boundaries: a violation fails `npm run lint`.
+import tseslint from "typescript-eslint";
+import reactHooks from "eslint-plugin-react-hooks";
+import boundaries from "eslint-plugin-boundaries";
+
+/** Where each kind of code lives. More specific folders first: the first match names the element. */
+const ELEMENTS = [
+  { type: "client-app", pattern: "client/src/app" },
+  { type: "client-feature", pattern: "client/src/features/*", capture: ["feature"] },
+  { type: "client-shared", pattern: ["client/src/components", "client/src/lib", "client/src/config"] },
+  { type: "server-engine", pattern: "server/engine" },
+  { type: "server-feature", pattern: "server/features/*", capture: ["feature"] },
+  { type: "server", pattern: "server" },
+  { type: "shared", pattern: "shared" },
+];
+
+const to = (...types) => ({ to: { element: { types: { anyOf: types } } } });
+const client = ["client-app", "client-feature", "client-shared"];
+
+const POLICIES = [
+  // Client: shared UI and lib → features → app routes, never back. Imports inside one feature folder
+  // are "internal" to the element and not checked, so this only catches one feature reaching into another.
+  { from: { element: { type: "client-feature" } }, disallow: [to("client-feature", "client-app")], message: "a client feature may not import another feature or the app; compose them in app/routes" },
+  { from: { element: { type: "client-shared" } }, disallow: [to("client-feature", "client-app")], message: "client components, lib and config may not import features or the app" },
+  // The engine is pure computation: everything is refused, then its own files, shared contracts and zod are let back in.
+  { from: { element: { type: "server-engine" } }, disallow: [{ to: { module: { origin: "*" } } }], message: "server/engine imports only server/engine, shared/ and zod" },
+  { from: { element: { type: "server-engine" } }, allow: [to("server-engine", "shared"), { to: { module: { origin: "external", source: "zod" } } }] },
+  // Contracts are shared by both sides, so they may depend on neither.
+  { from: { element: { type: "shared" } }, disallow: [to("server", "server-engine", "server-feature", ...client)], message: "shared/ may not import server or client code" },
+  // Server code never pulls in browser code.
+  { from: { element: { types: { anyOf: ["server", "server-feature"] } } }, disallow: [to(...client)], message: "server code may not import client code" },
+];
+
+export default tseslint.config(
+  { ignores: ["dist/**", "node_modules/**", ".data/**", ".tmp/**", "artifacts/**", "migrations/**"] },
+  ...tseslint.configs.recommended,
+  {
+    files: ["**/*.{ts,tsx,js,mjs}"],
+    languageOptions: { ecmaVersion: 2023, sourceType: "module" },
+    rules: {
+      "@typescript-eslint/no-unused-vars": ["error", { argsIgnorePattern: "^_", varsIgnorePattern: "^_", caughtErrorsIgnorePattern: "^_", ignoreRestSiblings: true }],
+      // Pragmatic for a codebase written by several hands at once.
+      "@typescript-eslint/no-empty-object-type": "off",
+      "@typescript-eslint/no-namespace": "off",
+    },
+  },
+  {
+    files: ["client/**/*.{ts,tsx}"],
+    plugins: { "react-hooks": reactHooks },
+    rules: { ...reactHooks.configs.recommended.rules },
+  },
+  {
+    files: ["client/**/*.{ts,tsx}", "server/**/*.ts", "shared/**/*.ts"],
+    plugins: { boundaries },
+    settings: {
+      "boundaries/elements": ELEMENTS,
+      "import/resolver": { node: { extensions: [".ts", ".tsx", ".js", ".mjs", ".json"] } },
+      "boundaries/legacy-templates": false,
+    },
+    rules: {
+      // Externals and unknown local files are checked too, so the engine cannot reach for node:fs or scripts/.
+      "boundaries/dependencies": ["error", { default: "allow", checkAllOrigins: true, checkUnknownLocals: true, policies: POLICIES }],
+    },
+  },
+);

@@ -1,0 +1,40 @@
+import { describe, expect, it } from "vitest";
+import { ESLint } from "eslint";
+
+/*
+ * Runs the repository's real eslint.config.js over one-line files placed (virtually) in each layer,
+ * so a config change that silently stops enforcing ARCHITECTURE.md habit 1 fails here.
+ * Each import target exists in the repo; the importing file does not need to.
+ */
+const CASES: [from: string, source: string, refused: boolean][] = [
+  ["client/src/features/users/x.ts", "../auth/api/keys", true],
+  ["client/src/features/users/components/x.ts", "../api/keys", false],
+  ["client/src/features/users/x.ts", "../../app/nav", true],
+  ["client/src/features/users/x.ts", "../../lib/format", false],
+  ["client/src/components/x.tsx", "../features/auth/api/keys", true],
+  ["client/src/components/x.tsx", "../app/nav", true],
+  ["client/src/lib/x.ts", "../features/users/api/keys", true],
+  ["client/src/lib/x.ts", "../config/paths", false],
+  ["client/src/app/x.tsx", "../features/users/api/keys", false],
+  ["server/engine/x.ts", "../db/client", true],
+  ["server/engine/x.ts", "../features/users/users.service", true],
+  ["server/engine/x.ts", "../../scripts/start", true],
+  ["server/engine/x.ts", "node:fs", true],
+  ["server/engine/x.ts", "express", true],
+  ["server/engine/x.ts", "zod", false],
+  ["server/engine/x.ts", "../../shared/schemas/common", false],
+  ["shared/schemas/x.ts", "../../server/http/errors", true],
+  ["shared/schemas/x.ts", "../../client/src/lib/format", true],
+  ["shared/schemas/x.ts", "./common", false],
+  ["server/features/users/x.ts", "../../../client/src/lib/format", true],
+  ["server/features/users/x.ts", "../../http/errors", false],
+];
+
+describe("import boundaries (eslint-plugin-boundaries via eslint.config.js)", () => {
+  const eslint = new ESLint();
+  it.each(CASES)("%s importing %s: refused=%s", async (from, source, refused) => {
+    const [result] = await eslint.lintText(`import * as m from "${source}";\nexport const x = m;\n`, { filePath: from });
+    const hits = result.messages.filter((m) => m.ruleId === "boundaries/dependencies");
+    expect(hits.length > 0).toBe(refused);
+  });
+});
