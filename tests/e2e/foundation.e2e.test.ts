@@ -116,4 +116,85 @@ describe("foundation screens in a browser", () => {
     expect(pageErrors).toEqual([]);
     await context.close();
   }, 60_000);
+  it("a user changes their own password; errors land beside the fields", async () => {
+    const viewer = await createTestUser(["viewer"], "Vic Viewer");
+    const context = await browser.newContext();
+    const page = await context.newPage();
+    await page.goto(`${server.url}/profile`);
+    await signIn(page, viewer);
+    await page.waitForURL(`${server.url}/profile`);
+    const form = page.getByRole("form", { name: "Change password" });
+    const newPassword = "a-brand-new-rope-77";
+
+    // Client-side check from the shared schema plus the typed-twice rule.
+    await form.getByLabel("Current password").fill(viewer.password);
+    await form.getByLabel("New password", { exact: true }).fill(newPassword);
+    await form.getByLabel("New password, again").fill("something-else-entirely");
+    await form.getByRole("button", { name: "Change password" }).click();
+    await form.getByText("does not match the new password").waitFor();
+
+    // The server's 400 with fields: the wrong current password is flagged on its own input.
+    await form.getByLabel("Current password").fill("wrong-current-password");
+    await form.getByLabel("New password, again").fill(newPassword);
+    await form.getByRole("button", { name: "Change password" }).click();
+    await form.getByText("does not match", { exact: true }).waitFor();
+    const current = form.getByLabel("Current password");
+    expect(await current.getAttribute("aria-invalid")).toBe("true");
+    // The message is the one wired to that input, not a banner elsewhere.
+    const errorId = (await current.getAttribute("aria-describedby"))?.split(" ").find((id) => id.endsWith("-error"));
+    expect(await page.locator(`[id="${errorId}"]`).textContent()).toBe("does not match");
+
+    await form.getByLabel("Current password").fill(viewer.password);
+    await form.getByRole("button", { name: "Change password" }).click();
+    await page.getByText("Password changed.").waitFor();
+
+    // The new password is the one that works now.
+    await page.getByRole("button", { name: "Sign out" }).click();
+    await page.waitForURL(`${server.url}/sign-in`);
+    await signIn(page, viewer);
+    await page.getByText("do not match an active account").waitFor();
+    await signIn(page, { email: viewer.email, password: newPassword });
+    await page.waitForURL(`${server.url}/`);
+    await context.close();
+  }, 60_000);
+
+  it("admin changes a user's roles, sorts the table, and deactivates the account", async () => {
+    const target = await createTestUser(["viewer"], "Vera Viewer");
+    const adminContext = await browser.newContext({ viewport: { width: 1280, height: 860 } });
+    const page = await adminContext.newPage();
+    await page.goto(`${server.url}/users`);
+    await signIn(page, admin);
+    await page.getByRole("heading", { level: 1, name: "Users" }).waitFor();
+
+    const table = page.getByRole("table", { name: "Users" });
+    const nameHeader = table.getByRole("columnheader", { name: /Name/ });
+    expect(await nameHeader.getAttribute("aria-sort")).toBe("ascending");
+    await nameHeader.getByRole("button").click();
+    expect(await nameHeader.getAttribute("aria-sort")).toBe("descending");
+
+    await page.getByLabel("Filter users").fill(target.email);
+    const row = table.locator("tbody tr").filter({ hasText: target.email });
+    await page.getByRole("button", { name: "Change roles of Vera Viewer" }).click();
+    const editor = page.getByRole("form", { name: "Roles of Vera Viewer" });
+    await editor.getByLabel(/^Infra lead/).check();
+    await editor.getByRole("button", { name: "Save roles" }).click();
+    await editor.waitFor({ state: "detached" });
+    await expect(row.textContent()).resolves.toMatch(/Infra lead.*Viewer|Viewer.*Infra lead/);
+
+    await page.getByRole("button", { name: "Deactivate Vera Viewer" }).click();
+    await page.getByText("Vera Viewer is deactivated").waitFor();
+    await expect(row.textContent()).resolves.toContain("Deactivated");
+
+    // A deactivated account cannot sign in.
+    const other = await browser.newContext();
+    const second = await other.newPage();
+    await second.goto(`${server.url}/sign-in`);
+    await signIn(second, target);
+    await second.getByText("do not match an active account").waitFor();
+    await other.close();
+
+    await page.getByRole("button", { name: "Reactivate Vera Viewer" }).click();
+    await page.getByText("Vera Viewer is active again").waitFor();
+    await adminContext.close();
+  }, 60_000);
 });
