@@ -36,38 +36,72 @@ export type Accelerator = z.infer<typeof acceleratorSchema>;
 
 // ---- request -----------------------------------------------------------------------------
 
-/** Strict: a misspelled field is an error, not silently dropped. */
-export const modelShapeSchema = z
-  .strictObject({
-    parameters: count(1e15),
-    layers: count(10_000),
-    attentionHeads: count(10_000),
-    kvHeads: count(10_000),
-    headDim: count(65_536),
-    hiddenSize: count(1_000_000).optional(),
-    bytesPerElement: amount(16).optional(),
-  })
-  .superRefine((model, ctx) => {
-    if (model.attentionHeads % model.kvHeads !== 0) {
-      ctx.addIssue({ code: "custom", path: ["kvHeads"], message: "kvHeads must divide attentionHeads" });
-    }
-  });
-export const modelRefSchema = z.strictObject({ modelId: id });
-// A union reports the closest variant's issues when only one variant failed on values;
-// when both fail on types (NaN, null, a string) it reports "model" itself with this message.
-export const budgetModelSchema = z.union([modelShapeSchema, modelRefSchema], {
-  error: "give { modelId } or a model shape { parameters, layers, attentionHeads, kvHeads, headDim } of finite numbers",
-});
+/*
+ * Either-or inputs are one object with a rule, not a z.union: when both variants of a union fail on a
+ * type error (NaN, null, 2.5 where an integer goes) zod names only the object, never the field.
+ */
 
-export const clusterSpecSchema = z.strictObject({
+const modelShapeFields = {
+  parameters: count(1e15),
+  layers: count(10_000),
+  attentionHeads: count(10_000),
+  kvHeads: count(10_000),
+  headDim: count(65_536),
+  hiddenSize: count(1_000_000).optional(),
+  bytesPerElement: amount(16).optional(),
+};
+const REQUIRED_MODEL_FIELDS = ["parameters", "layers", "attentionHeads", "kvHeads", "headDim"] as const;
+
+type HeadCounts = { attentionHeads?: number; kvHeads?: number };
+function checkKvGroups(model: HeadCounts, ctx: z.RefinementCtx) {
+  if (model.attentionHeads === undefined || model.kvHeads === undefined) return;
+  if (model.attentionHeads % model.kvHeads !== 0) {
+    ctx.addIssue({ code: "custom", path: ["kvHeads"], message: "kvHeads must divide attentionHeads" });
+  }
+}
+
+/** A model's shape on its own (strict: a misspelled field is an error, not silently dropped). */
+export const modelShapeSchema = z.strictObject(modelShapeFields).superRefine(checkKvGroups);
+export type ModelShapeInput = z.output<typeof modelShapeSchema>;
+
+/**
+ * `{ ...ref }` or the shape's fields, never both; the shape's `required` fields must all be there
+ * when the ref is absent. Strict, so a misspelled field is an error.
+ */
+function refOrShape<R extends z.ZodRawShape, S extends z.ZodRawShape>(ref: R, shape: S, required: readonly string[]) {
+  const refKeys = Object.keys(ref);
+  return z
+    .strictObject({ ...ref, ...shape })
+    .partial()
+    .superRefine((value, ctx) => {
+      const given = (key: string) => (value as Record<string, unknown>)[key] !== undefined;
+      if (refKeys.some(given)) {
+        for (const key of Object.keys(shape).filter(given)) {
+          ctx.addIssue({ code: "custom", path: [key], message: `give ${refKeys.join(", ")} or ${key}, not both` });
+        }
+        return;
+      }
+      for (const key of required.filter((k) => !given(k))) {
+        ctx.addIssue({ code: "custom", path: [key], message: `required unless ${refKeys.join(", ")} is given` });
+      }
+    });
+}
+
+export type ModelRequest = { modelId: number } | ModelShapeInput;
+export const budgetModelSchema = refOrShape({ modelId: id }, modelShapeFields, REQUIRED_MODEL_FIELDS)
+  .superRefine(checkKvGroups)
+  .transform((model) => model as ModelRequest);
+
+const clusterSpecFields = {
   peakFlops: acceleratorFields.peakFlops,
   memoryBytes: acceleratorFields.memoryBytes,
   pricePerHour: acceleratorFields.pricePerHour,
-});
-export const clusterRefSchema = z.strictObject({ acceleratorId: id });
-export const budgetClusterSchema = z.union([clusterSpecSchema, clusterRefSchema], {
-  error: "give { acceleratorId } or { peakFlops, memoryBytes, pricePerHour } as finite numbers",
-});
+};
+export const clusterSpecSchema = z.strictObject(clusterSpecFields);
+export type ClusterRequest = { acceleratorId: number } | z.output<typeof clusterSpecSchema>;
+export const budgetClusterSchema = refOrShape({ acceleratorId: id }, clusterSpecFields, Object.keys(clusterSpecFields)).transform(
+  (cluster) => cluster as ClusterRequest,
+);
 
 type StageCommon = { sequenceLength: number; globalBatch: number };
 /** A stage by steps, or by a token target from which the engine derives steps. */
@@ -75,7 +109,7 @@ export type StageRequest =
   | (StageCommon & { steps: number; tokens?: undefined })
   | (StageCommon & { tokens: number; steps?: undefined });
 
-// One object with an either-or rule (rather than a union) so a bad `steps` or `tokens` is named exactly.
+// Steps or a token target: one object with an either-or rule, as above.
 export const budgetStageRequestSchema = z
   .object({
     sequenceLength: length,
