@@ -131,7 +131,10 @@ export type ResolvedAnalysisRequest = z.infer<typeof resolvedAnalysisRequestSche
  * The HTTP request: an inline model shape or a stored model's id. When the shape fails only on value checks,
  * zod reports the shape's own fields (model.headDim …); model-dependent rules for { modelId } run after lookup.
  */
-export const analysisRequestSchema = z.object({ model: z.union([modelRefSchema, modelShapeSchema]), ...requestFields })
+const modelInputSchema = z.union([modelRefSchema, modelShapeSchema], {
+  error: "give { modelId } or a model shape { headDim, ropeTheta, trainedContext, partialRotaryFactor?, … }",
+});
+export const analysisRequestSchema = z.object({ model: modelInputSchema, ...requestFields })
   .superRefine((r, ctx) => {
     if ("modelId" in r.model) return;
     modelDependentIssues(r.model, r.targetContext, r.methods).forEach((i) => ctx.addIssue({ code: "custom", ...i }));
@@ -203,6 +206,19 @@ export const extrapolationBoundSchema = z.object({
 });
 export type ExtrapolationBound = z.infer<typeof extrapolationBoundSchema>;
 
+/**
+ * Men et al. 2024 for the original base over the target window: supportedLength is the first m < targetContext
+ * with Σ cos(m·θ_i) < 0 (null: none found). The analysis scans with a budget; when `complete` is false only
+ * positions below checkedUpTo are known, and POST /api/bounds/base gives the full answer.
+ */
+export const baseSupportSchema = z.object({
+  base: num,
+  supportedLength: z.number().int().nullable(),
+  checkedUpTo: z.number().int(),
+  complete: z.boolean(),
+  supportsTarget: z.boolean().nullable(),
+});
+
 export const methodResultSchema = z.object({
   method: methodIdSchema,
   params: methodParamsSchema,
@@ -211,8 +227,6 @@ export const methodResultSchema = z.object({
   effectiveBase: num.nullable(),
   pairs: z.array(pairResultSchema),
   summary: z.object({ unseenAnglesPairs: z.number().int(), compressedResolutionPairs: z.number().int(), exceedsTrainedWindowPairs: z.number().int() }),
-  /** First position below the target with Σ cos(m·θ'_i) < 0 (Men et al. 2024 on the scaled frequencies); null: none. */
-  supportedLength: z.number().int().nullable(),
   extrapolationBound: extrapolationBoundSchema.nullable(),
   ropeScaling: configPatchSchema,
   notes: z.array(z.string()),
@@ -228,7 +242,7 @@ export const analysisResponseSchema = z.object({
   criticalDimension: z.number().int(),
   criticalBase: num,
   extrapolationBound: extrapolationBoundSchema,
-  supportedLength: z.number().int().nullable(),
+  baseSupport: baseSupportSchema,
   methods: z.array(methodResultSchema),
   decay: z.object({ positions: z.array(num), original: z.array(num), byMethod: z.record(z.string(), z.array(num)) }),
 });
