@@ -42,12 +42,15 @@ export type Accelerator = z.infer<typeof acceleratorSchema>;
  */
 
 const modelShapeFields = {
+  /** Used for both FLOPs (6N) and weight memory. */
   parameters: count(1e15),
   layers: count(10_000),
   attentionHeads: count(10_000),
   kvHeads: count(10_000),
   headDim: count(65_536),
+  /** Residual width; default attentionHeads × headDim. */
   hiddenSize: count(1_000_000).optional(),
+  /** Bytes per stored element of weights, activations and KV cache; default 2 (bf16/fp16). */
   bytesPerElement: amount(16).optional(),
 };
 const REQUIRED_MODEL_FIELDS = ["parameters", "layers", "attentionHeads", "kvHeads", "headDim"] as const;
@@ -113,6 +116,7 @@ export type StageRequest =
 export const budgetStageRequestSchema = z
   .object({
     sequenceLength: length,
+    /** Sequences per optimizer step, across all accelerators. */
     globalBatch: count(1e8),
     steps: count(1e9).optional(),
     tokens: amount(1e16).optional(),
@@ -135,10 +139,15 @@ export const budgetEstimateRequestSchema = z
     convention: z.enum(FLOP_CONVENTIONS).optional(),
     recomputeFraction: z.number().min(0).max(1).optional(),
     optimizerBytesPerParameter: amount(64).optional(),
+    /** Sequence-parallel degree for the reported training memory; default 1. */
     sequenceSharding: count(1_000_000).optional(),
+    /** Sequences per micro-batch on one data-parallel rank; default 1. */
     microBatchSequences: count(1_000_000).optional(),
+    /** Growth curve start; default the shortest stage length. */
     trainedContext: length.optional(),
+    /** Growth curve runs to 4 × this; default the longest stage length. */
     targetContext: length.optional(),
+    /** Log-spaced growth points, both ends included; default 9. */
     growthPoints: z.number().int().min(2).max(64).optional(),
     stages: z.array(budgetStageRequestSchema).min(1).max(MAX_BUDGET_STAGES),
   })
@@ -167,10 +176,13 @@ export const budgetStageEstimateSchema = z.object({
   sequenceLength: z.number(),
   globalBatch: z.number(),
   steps: z.number(),
+  /** The requested token target, or null when the stage was given by steps. */
   tokenTarget: z.number().nullable(),
+  /** Tokens actually trained: steps × globalBatch × sequenceLength. */
   tokens: nonNegative,
   cumulativeTokens: nonNegative,
   flopsPerToken: nonNegative,
+  /** The attention term of flopsPerToken, before the recomputation factor. */
   attentionFlopsPerToken: nonNegative,
   flops: nonNegative,
   acceleratorHours: nonNegative,
@@ -180,6 +192,7 @@ export const budgetStageEstimateSchema = z.object({
   kvCacheBytesPerSequence: nonNegative,
   servingSequencesPerAccelerator: z.number().int().nonnegative(),
   trainingMemoryPerAccelerator: nonNegative,
+  /** modelStates: weights + grads + optimizer states; activations: layer-input checkpoints; both per accelerator. */
   trainingMemory: z.object({ modelStates: nonNegative, activations: nonNegative, total: nonNegative }),
   fits: z.boolean(),
   minSequenceSharding: z.number().int().positive().nullable(),
@@ -197,6 +210,7 @@ export const budgetTotalsSchema = z.object({
 export const budgetGrowthPointSchema = z.object({
   sequenceLength: z.number(),
   flopsPerToken: nonNegative,
+  /** Share of flopsPerToken spent in the attention term. */
   attentionShare: z.number().min(0).max(1),
   acceleratorHoursPerBillionTokens: nonNegative,
   costPerBillionTokens: nonNegative,
@@ -217,6 +231,7 @@ export const budgetAssumptionsSchema = z.object({
   microBatchSequences: z.number(),
   trainedContext: z.number(),
   targetContext: z.number(),
+  /** Inputs that were left out and took their default. */
   defaulted: z.array(z.string()),
   memoryModel: z.array(z.string()),
   notes: z.array(z.string()),
@@ -243,6 +258,7 @@ export const budgetRecipeSchema = z.object({
     sequenceLength: z.number().optional(),
     tokens: z.number().optional(),
   }),
+  /** Plain words on what the figures are. */
   summary: z.string(),
 });
 export type BudgetRecipeResponse = z.infer<typeof budgetRecipeSchema>;

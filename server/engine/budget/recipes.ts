@@ -1,22 +1,9 @@
+import type { BUDGET_RECIPE_IDS, BudgetRecipeResponse } from "../../../shared/schemas/budget";
 import type { StageInput } from "./types";
 
-export type BudgetRecipeId = "position-interpolation" | "yarn" | "adjusted-base";
-
+export type BudgetRecipeId = (typeof BUDGET_RECIPE_IDS)[number];
 /** What a paper reported for its own runs. Shown beside a plan as a starting point, never as a prediction. */
-export interface BudgetRecipe {
-  id: BudgetRecipeId;
-  name: string;
-  source: { authors: string; year: number; title: string };
-  reported: {
-    steps?: number;
-    globalBatch?: number;
-    learningRate?: number;
-    sequenceLength?: number;
-    tokens?: number;
-  };
-  /** Plain words on what the figures are. */
-  summary: string;
-}
+export type BudgetRecipe = BudgetRecipeResponse;
 
 export const RECIPE_CAUTION =
   "Figures as the paper reported them for its own models and data; a starting point, not a prediction for this plan.";
