@@ -11,6 +11,7 @@ import { authRouter } from "./features/auth/auth.router";
 import { usersRouter } from "./features/users/users.router";
 import { healthRouter } from "./features/health/health.router";
 import { modelsRouter } from "./features/models/models.router";
+import { plansRouter } from "./features/plans/plans.router";
 
 export const JSON_LIMIT = "512kb";
 
@@ -37,6 +38,7 @@ export function createApp(deps: AppDeps) {
   api.use("/auth", authRouter(deps));
   api.use("/users", usersRouter(deps));
   api.use("/models", modelsRouter(deps));
+  api.use("/plans", plansRouter(deps));
   api.use((_req, _res, next) => next(new NotFound("no such API route")));
   app.use("/api", api);
 

@@ -2,3 +2,5 @@ export * from "./common";
 export * from "./auth";
 export * from "./users";
 export * from "./models";
+export * from "./plans";
+export * from "./analysis";

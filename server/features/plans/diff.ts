@@ -1,0 +1,49 @@
+import type { StageResult } from "../../../shared/schemas";
+import type { RevisionContent } from "./revision-content";
+
+export interface FieldChange { path: string; from: unknown; to: unknown }
+export interface FlagChange { scope: string; pair: number; flag: string; from: boolean; to: boolean }
+
+const same = (a: unknown, b: unknown) => JSON.stringify(a) === JSON.stringify(b);
+
+function changesOf(path: string, a: unknown, b: unknown, out: FieldChange[]) {
+  if (same(a, b)) return;
+  const objs = a && b && typeof a === "object" && typeof b === "object" && !Array.isArray(a) && !Array.isArray(b);
+  if (objs) {
+    const keys = new Set([...Object.keys(a as object), ...Object.keys(b as object)]);
+    for (const k of keys) changesOf(path ? `${path}.${k}` : k, (a as Record<string, unknown>)[k], (b as Record<string, unknown>)[k], out);
+  } else out.push({ path, from: a ?? null, to: b ?? null });
+}
+
+function flagChanges(scope: string, a: StageResult | undefined, b: StageResult | undefined, out: FlagChange[]) {
+  if (!a || !b) return;
+  for (const flag of ["unseenAngles", "compressedResolution", "exceedsTrainedWindow"] as const) {
+    const A = new Set(a.flags[flag]);
+    const B = new Set(b.flags[flag]);
+    for (const p of new Set([...A, ...B])) if (A.has(p) !== B.has(p)) out.push({ scope, pair: p, flag, from: A.has(p), to: B.has(p) });
+  }
+}
+
+/** What changed between two revisions: inputs field by field, stages by position, and pairs whose flags flipped. */
+export function diffContents(a: RevisionContent, b: RevisionContent) {
+  const fields: FieldChange[] = [];
+  for (const key of ["targetContext", "method", "bands", "notes", "model", "acceptance"] as const) changesOf(key, a[key], b[key], fields);
+  const stages: { index: number; change: "added" | "removed" | "changed"; fields: FieldChange[] }[] = [];
+  for (let i = 0; i < Math.max(a.stages.length, b.stages.length); i++) {
+    const sa = a.stages[i];
+    const sb = b.stages[i];
+    if (!sa) stages.push({ index: i, change: "added", fields: [] });
+    else if (!sb) stages.push({ index: i, change: "removed", fields: [] });
+    else {
+      const f: FieldChange[] = [];
+      changesOf("", sa, sb, f);
+      if (f.length) stages.push({ index: i, change: "changed", fields: f });
+    }
+  }
+  const flags: FlagChange[] = [];
+  flagChanges("final", a.results.final, b.results.final, flags);
+  a.results.stages.forEach((s, i) => flagChanges(`stages.${i}`, s, b.results.stages[i], flags));
+  const budget: FieldChange[] = [];
+  changesOf("budget", a.budget, b.budget, budget);
+  return { fields, stages, flags, budget };
+}

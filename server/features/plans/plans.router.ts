@@ -1,0 +1,115 @@
+import { Router } from "express";
+import { z } from "zod";
+import type { AppDeps } from "../../deps";
+import { currentUser, requireAuth, requireRole } from "../../http/auth";
+import { parseBody, parseParams, parseQuery } from "../../http/validate";
+import {
+  createPlanRequestSchema, decisionRequestSchema, planListQuerySchema, planSettingsSchema, updateRevisionRequestSchema,
+} from "../../../shared/schemas";
+import * as plans from "./plans.service";
+import * as workflow from "./workflow.service";
+import { exportRevision, verifyRevision } from "./export.service";
+import { diffContents } from "./diff";
+import { renderReport } from "./report";
+import { reviewQueue } from "./plans.list";
+import { minRequiredApprovals } from "./plans.repo";
+import type { RevisionContent } from "./revision-content";
+import "./plans.usage";
+
+const planParams = z.object({ id: z.coerce.number().int().positive() });
+const revParams = planParams.extend({ n: z.coerce.number().int().positive() });
+const diffParams = planParams.extend({ a: z.coerce.number().int().positive(), b: z.coerce.number().int().positive() });
+
+export function plansRouter(deps: AppDeps) {
+  const r = Router();
+  r.use(requireAuth);
+  const via = (res: { locals: Record<string, unknown> }) => (res.locals.viaToken ? "token" : "session") as "token" | "session";
+
+  r.get("/", async (req, res) => {
+    res.json(await plans.listPlans(deps, parseQuery(planListQuerySchema, req)));
+  });
+  r.post("/", requireRole("researcher"), async (req, res) => {
+    const input = parseBody(createPlanRequestSchema, req);
+    const created = await plans.createPlan(deps, currentUser(res), input);
+    res.status(201).json(await plans.getPlan(deps, created.id));
+  });
+
+  r.get("/settings", async (_req, res) => {
+    res.json({ minRequiredApprovals: await minRequiredApprovals(deps.db) });
+  });
+  r.put("/settings", requireRole("admin"), async (req, res) => {
+    const { minRequiredApprovals: min } = parseBody(planSettingsSchema, req);
+    res.json(await plans.updatePlanSettings(deps, currentUser(res), min));
+  });
+
+  r.get("/review-queue", requireRole("approver"), async (_req, res) => {
+    const rows = await reviewQueue(deps.db, currentUser(res).id);
+    res.json({
+      items: rows.map((q) => ({
+        planId: q.plan_id, title: q.title, revision: q.number, author: q.author_name, submittedAt: new Date(q.submitted_at).toISOString(),
+        contentHash: q.content_hash, approvals: q.approvals, requiredApprovals: q.required_approvals,
+      })),
+    });
+  });
+
+  r.get("/:id", async (req, res) => {
+    res.json(await plans.getPlan(deps, parseParams(planParams, req).id));
+  });
+  r.get("/:id/approved/export", async (req, res) => {
+    const { id } = parseParams(planParams, req);
+    const out = await exportRevision(deps, currentUser(res), id, "approved", via(res));
+    if (req.query.download) res.attachment(`ropewalk-plan-${id}-r${out.revision}-config-patch.json`);
+    res.json(out);
+  });
+  r.post("/:id/revisions", requireRole("researcher"), async (req, res) => {
+    const out = await plans.newRevision(deps, currentUser(res), parseParams(planParams, req).id);
+    res.status(201).json(out);
+  });
+  r.get("/:id/revisions/:n", async (req, res) => {
+    const { id, n } = parseParams(revParams, req);
+    res.json(await plans.getRevision(deps, id, n));
+  });
+  r.put("/:id/revisions/:n", requireRole("researcher"), async (req, res) => {
+    const { id, n } = parseParams(revParams, req);
+    res.json(await plans.updateDraft(deps, currentUser(res), id, n, parseBody(updateRevisionRequestSchema, req)));
+  });
+  r.post("/:id/revisions/:n/submit", requireRole("researcher"), async (req, res) => {
+    const { id, n } = parseParams(revParams, req);
+    res.json(await workflow.submit(deps, currentUser(res), id, n));
+  });
+  r.post("/:id/revisions/:n/withdraw", requireRole("researcher"), async (req, res) => {
+    const { id, n } = parseParams(revParams, req);
+    res.json(await workflow.withdraw(deps, currentUser(res), id, n));
+  });
+  r.post("/:id/revisions/:n/decisions", requireRole("approver"), async (req, res) => {
+    const { id, n } = parseParams(revParams, req);
+    res.json(await workflow.decide(deps, currentUser(res), id, n, parseBody(decisionRequestSchema, req)));
+  });
+  r.get("/:id/revisions/:n/verify", async (req, res) => {
+    const { id, n } = parseParams(revParams, req);
+    res.json(await verifyRevision(deps, id, n));
+  });
+  r.get("/:id/revisions/:n/export", async (req, res) => {
+    const { id, n } = parseParams(revParams, req);
+    const out = await exportRevision(deps, currentUser(res), id, n, via(res));
+    if (req.query.download) res.attachment(`ropewalk-plan-${id}-r${n}-config-patch.json`);
+    res.json(out);
+  });
+  r.get("/:id/revisions/:a/diff/:b", async (req, res) => {
+    const { id, a, b } = parseParams(diffParams, req);
+    const [ra, rb] = await Promise.all([plans.getRevision(deps, id, a), plans.getRevision(deps, id, b)]);
+    res.json({ a: { number: a, contentHash: ra.contentHash }, b: { number: b, contentHash: rb.contentHash }, ...diffContents(ra.content, rb.content) });
+  });
+  r.get("/:id/revisions/:n/report", async (req, res) => {
+    const { id, n } = parseParams(revParams, req);
+    const [plan, rev, check] = await Promise.all([plans.getPlan(deps, id), plans.getRevision(deps, id, n), verifyRevision(deps, id, n)]);
+    const decisions = plan.revisions.find((x) => x.number === n)?.decisions ?? [];
+    const html = renderReport({
+      plan: { id, title: plan.title, purpose: plan.purpose, owner: plan.owner ?? undefined },
+      revision: rev, content: rev.content as RevisionContent, verified: check.ok, decisions,
+    });
+    if (req.query.download) res.attachment(`ropewalk-plan-${id}-r${n}-report.html`);
+    res.type("html").send(html);
+  });
+  return r;
+}

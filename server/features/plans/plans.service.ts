@@ -1,0 +1,156 @@
+import type { AppDeps } from "../../deps";
+import type { Executor } from "../../db/client";
+import { Conflict, Forbidden, Invalid, NotFound } from "../../http/errors";
+import { recordAudit } from "../audit/audit.repo";
+import { findModelRow } from "../models/models.repo";
+import {
+  revisionInputSchema,
+  type CreatePlanRequest, type RevisionValues, type SessionUser, type UpdateRevisionRequest, type planListQuerySchema,
+} from "../../../shared/schemas";
+import type { z } from "zod";
+import * as repo from "./plans.repo";
+import { listPlanPage } from "./plans.list";
+import { buildContent, hashContent, snapshotOf, type RevisionContent } from "./revision-content";
+
+export async function effectiveApprovals(ex: Executor, plan: repo.PlanRow) {
+  return Math.max(plan.requiredApprovals, await repo.minRequiredApprovals(ex));
+}
+
+export async function mustPlan(ex: Executor, id: number) {
+  const plan = await repo.findPlan(ex, id);
+  if (!plan) throw new NotFound("no such plan");
+  return plan;
+}
+export async function mustRevision(ex: Executor, planId: number, n: number, lock = false) {
+  const rev = lock ? await repo.lockRevision(ex, planId, n) : await repo.findRevision(ex, planId, n);
+  if (!rev) throw new NotFound(`plan ${planId} has no revision ${n}`);
+  return rev;
+}
+
+const revisionValues = (c: RevisionContent): RevisionValues => ({
+  targetContext: c.targetContext, method: c.method, bands: c.bands, stages: c.stages, acceptance: c.acceptance, notes: c.notes,
+});
+
+export async function createPlan(deps: AppDeps, actor: SessionUser, input: z.output<typeof import("../../../shared/schemas").createPlanRequestSchema>) {
+  const model = await findModelRow(deps.db, input.modelId);
+  if (!model) throw new Invalid("no such model profile", { modelId: "not found" });
+  const content = buildContent(snapshotOf(model), input.revision);
+  return deps.db.transaction(async (tx) => {
+    const min = await repo.minRequiredApprovals(tx);
+    const required = input.requiredApprovals ?? min;
+    if (required < min) throw new Invalid(`the lab requires at least ${min} approvals`, { requiredApprovals: `at least ${min}` });
+    const plan = await repo.insertPlan(tx, { title: input.title, purpose: input.purpose, ownerId: actor.id, modelId: model.id, requiredApprovals: required });
+    const rev = await repo.insertRevision(tx, {
+      planId: plan.id, number: 1, authorId: actor.id, content, contentHash: hashContent(content), engineVersion: content.engineVersion,
+    });
+    await recordAudit(tx, { actorId: actor.id, action: "plan.created", subjectType: "plan", subjectId: plan.id, detail: { title: plan.title, revision: 1, hash: rev.contentHash } });
+    return { id: plan.id, revision: rev.number };
+  });
+}
+export type { CreatePlanRequest };
+
+/** A new draft from the latest revision, once that one is no longer a draft or in review. */
+export async function newRevision(deps: AppDeps, actor: SessionUser, planId: number) {
+  return deps.db.transaction(async (tx) => {
+    const plan = await repo.lockPlan(tx, planId);
+    if (!plan) throw new NotFound("no such plan");
+    if (plan.ownerId !== actor.id) throw new Forbidden("only the plan's owner starts new revisions");
+    const latest = (await repo.latestRevision(tx, planId))!;
+    if (latest.state === "draft" || latest.state === "in_review") {
+      throw new Conflict(`revision ${latest.number} is ${latest.state}; finish it first`, { state: latest.state });
+    }
+    const model = await findModelRow(tx, plan.modelId);
+    if (!model) throw new Conflict("the plan's model profile is gone");
+    // The new draft takes the latest content and the profile as it is now.
+    const content = buildContent(snapshotOf(model), revisionValues(latest.content as RevisionContent));
+    const rev = await repo.insertRevision(tx, {
+      planId, number: latest.number + 1, authorId: actor.id, content, contentHash: hashContent(content), engineVersion: content.engineVersion,
+    });
+    await repo.touchPlan(tx, planId);
+    await recordAudit(tx, { actorId: actor.id, action: "revision.created", subjectType: "plan", subjectId: planId, detail: { revision: rev.number, from: latest.number } });
+    return { number: rev.number, version: rev.version };
+  });
+}
+
+/** Edits a draft with optimistic concurrency: a stale version changes nothing. */
+export async function updateDraft(deps: AppDeps, actor: SessionUser, planId: number, n: number, input: z.output<typeof import("../../../shared/schemas").updateRevisionRequestSchema>) {
+  return deps.db.transaction(async (tx) => {
+    const rev = await mustRevision(tx, planId, n, true);
+    if (rev.authorId !== actor.id) throw new Forbidden("only the revision's author edits a draft");
+    if (rev.state !== "draft") throw new Conflict(`revision ${n} is ${rev.state}; only drafts change`, { state: rev.state });
+    if (rev.version !== input.version) {
+      throw new Conflict(`revision ${n} changed since you read it (version ${rev.version}, yours ${input.version}); reload`, { version: `current is ${rev.version}` });
+    }
+    const old = rev.content as RevisionContent;
+    const { version: _v, ...changes } = input;
+    const values = revisionInputSchema.parse({ ...revisionValues(old), ...changes });
+    const content = buildContent(old.model, values);
+    const row = await repo.updateRevision(tx, rev.id, { content, contentHash: hashContent(content), engineVersion: content.engineVersion, version: rev.version + 1 });
+    await repo.touchPlan(tx, planId);
+    await recordAudit(tx, { actorId: actor.id, action: "revision.edited", subjectType: "plan", subjectId: planId, detail: { revision: n, version: row.version, fields: Object.keys(changes) } });
+    return { number: n, version: row.version, contentHash: row.contentHash };
+  });
+}
+
+export async function updatePlanSettings(deps: AppDeps, actor: SessionUser, min: number) {
+  await deps.db.transaction(async (tx) => {
+    const before = await repo.minRequiredApprovals(tx);
+    await repo.setMinRequiredApprovals(tx, min, actor.id);
+    await recordAudit(tx, { actorId: actor.id, action: "settings.changed", subjectType: "settings", subjectId: "minRequiredApprovals", detail: { from: before, to: min } });
+  });
+  return { minRequiredApprovals: min };
+}
+
+export async function listPlans(deps: AppDeps, q: z.output<typeof planListQuerySchema>) {
+  const rows = await listPlanPage(deps.db, q);
+  return {
+    total: rows[0]?.total ?? 0,
+    page: q.page,
+    pageSize: q.pageSize,
+    plans: rows.map((r) => ({
+      id: r.id, title: r.title, purpose: r.purpose, owner: { id: r.owner_id, name: r.owner_name }, model: { id: r.model_id, name: r.model_name },
+      requiredApprovals: r.required_approvals, state: r.latest_state, latestRevision: r.latest_number, approvedRevision: r.approved_number,
+      createdAt: new Date(r.created_at).toISOString(), updatedAt: new Date(r.updated_at).toISOString(),
+    })),
+  };
+}
+
+export async function getPlan(deps: AppDeps, id: number) {
+  const plan = await mustPlan(deps.db, id);
+  const [owner, model, revs, required] = await Promise.all([
+    repo.userRef(deps.db, plan.ownerId), findModelRow(deps.db, plan.modelId), repo.revisionsOf(deps.db, id), effectiveApprovals(deps.db, plan),
+  ]);
+  const decisions = await repo.decisionsOf(deps.db, revs.map((r) => r.id));
+  const authors = new Map<number, Awaited<ReturnType<typeof repo.userRef>>>();
+  for (const r of revs) if (!authors.has(r.authorId)) authors.set(r.authorId, await repo.userRef(deps.db, r.authorId));
+  const latest = revs[revs.length - 1];
+  const approved = [...revs].reverse().find((r) => r.state === "approved");
+  return {
+    id: plan.id, title: plan.title, purpose: plan.purpose, owner, model: model ? { id: model.id, name: model.name } : null,
+    requiredApprovals: plan.requiredApprovals, effectiveRequiredApprovals: required,
+    state: latest.state, latestRevision: latest.number, approvedRevision: approved?.number ?? null,
+    createdAt: plan.createdAt.toISOString(), updatedAt: plan.updatedAt.toISOString(),
+    revisions: revs.map((r) => {
+      const mine = decisions.filter((d) => d.d.revisionId === r.id);
+      return {
+        number: r.number, state: r.state, version: r.version, round: r.round, contentHash: r.contentHash, engineVersion: r.engineVersion,
+        author: authors.get(r.authorId), createdAt: r.createdAt.toISOString(), submittedAt: r.submittedAt?.toISOString() ?? null,
+        decidedAt: r.decidedAt?.toISOString() ?? null,
+        approvals: mine.filter((d) => d.d.round === r.round && d.d.decision === "approve").length,
+        decisions: mine.map((d) => ({
+          approver: { id: d.d.approverId, name: d.name, email: d.email }, decision: d.d.decision, comment: d.d.comment,
+          signedHash: d.d.signedHash, round: d.d.round, at: d.d.at.toISOString(),
+        })),
+      };
+    }),
+  };
+}
+
+export async function getRevision(deps: AppDeps, planId: number, n: number) {
+  await mustPlan(deps.db, planId);
+  const r = await mustRevision(deps.db, planId, n);
+  return {
+    number: r.number, state: r.state, version: r.version, round: r.round, contentHash: r.contentHash, engineVersion: r.engineVersion,
+    authorId: r.authorId, content: r.content as RevisionContent,
+  };
+}

@@ -1,0 +1,70 @@
+import type { RevisionContent } from "./revision-content";
+
+const esc = (v: unknown) =>
+  String(v ?? "").replace(/[&<>"']/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[c]!);
+const n = (v: number) => (Number.isInteger(v) ? v.toLocaleString("en-US") : v.toPrecision(6));
+
+/** Scaled wavelength per pair on a log axis, trained and target lengths as lines; plain inline SVG so it prints. */
+function wavelengthChart(c: RevisionContent) {
+  const w = 640, h = 220, pad = 36;
+  const waves = c.results.final.scaledWavelengths;
+  const lo = Math.log10(Math.max(1, Math.min(...waves)));
+  const hi = Math.log10(Math.max(c.targetContext, ...waves)) + 0.2;
+  const y = (v: number) => h - pad - ((Math.log10(v) - lo) / (hi - lo)) * (h - 2 * pad);
+  const x = (i: number) => pad + (i / Math.max(1, waves.length - 1)) * (w - 2 * pad);
+  const colour: Record<string, string> = { spinning: "#2d7a74", turning: "#9a5b1f", drifting: "#5b4a8a" };
+  const dots = waves.map((v, i) => `<circle cx="${x(i).toFixed(1)}" cy="${y(v).toFixed(1)}" r="2.5" fill="${colour[c.results.final.bands[i]] ?? "#333"}"/>`).join("");
+  const line = (v: number, label: string, dash: string) =>
+    `<line x1="${pad}" x2="${w - pad}" y1="${y(v)}" y2="${y(v)}" stroke="#b23a2e" stroke-dasharray="${dash}"/><text x="${w - pad}" y="${y(v) - 4}" text-anchor="end" font-size="10">${esc(label)} ${n(v)}</text>`;
+  return `<svg width="${w}" height="${h}" role="img" aria-label="scaled wavelength per pair">
+    <rect x="0" y="0" width="${w}" height="${h}" fill="#fffdf8"/>${dots}
+    ${line(c.model.trainedContext, "trained", "4 3")}${line(c.targetContext, "target", "1 2")}
+    <text x="${pad}" y="${h - 8}" font-size="10">pair 0 → ${waves.length - 1}; wavelength in tokens, log scale</text></svg>`;
+}
+
+export interface ReportInput {
+  plan: { id: number; title: string; purpose: string; owner?: { name: string } };
+  revision: { number: number; state: string; contentHash: string; engineVersion: string };
+  content: RevisionContent;
+  verified: boolean;
+  decisions: { approver: { name: string }; decision: string; comment: string; signedHash: string; at: string }[];
+  budgetHtml?: string;
+}
+
+export function renderReport({ plan, revision, content: c, verified, decisions, budgetHtml }: ReportInput) {
+  const row = (cells: unknown[]) => `<tr>${cells.map((v) => `<td>${esc(v)}</td>`).join("")}</tr>`;
+  const head = (cells: string[]) => `<tr>${cells.map((v) => `<th>${esc(v)}</th>`).join("")}</tr>`;
+  const params = (p: object) => Object.entries(p).filter(([k]) => k !== "method").map(([k, v]) => `${k}=${Array.isArray(v) ? `[${v.length} values]` : v}`).join(", ");
+  const stageRows = c.stages.map((s, i) => {
+    const r = c.results.stages[i];
+    return row([i + 1, n(s.targetContext), `${s.method.method} ${params(s.method)}`, n(s.steps), n(s.globalBatch), n(s.sequenceLength), s.learningRate, s.dataMix,
+      `${r?.summary.unseenAnglesPairs ?? "–"} / ${r?.summary.compressedResolutionPairs ?? "–"} / ${r?.summary.exceedsTrainedWindowPairs ?? "–"}`]);
+  }).join("");
+  const f = c.results.final;
+  return `<!doctype html><html lang="en"><head><meta charset="utf-8"><title>${esc(plan.title)} — revision ${revision.number}</title>
+<style>
+body{font-family:"IBM Plex Sans",system-ui,sans-serif;color:#1f2633;background:#fff;margin:2rem auto;max-width:56rem;font-size:14px;line-height:1.45}
+h1{font-size:24px;margin:0}h2{font-size:17px;border-bottom:1px solid #d9cfbd;margin-top:1.6rem}table{border-collapse:collapse;width:100%}
+td,th{border:1px solid #d9cfbd;padding:3px 6px;text-align:left;vertical-align:top}th{background:#f6f1e7}code{font-size:12px;word-break:break-all}
+.bad{color:#b23a2e;font-weight:600}.ok{color:#2d7a74;font-weight:600}.caution{background:#f6f1e7;padding:.6rem;border-left:4px solid #9a5b1f}
+@media print{body{margin:0}}</style></head><body>
+<h1>${esc(plan.title)}</h1>
+<p>Plan #${plan.id}, revision ${revision.number} (${esc(revision.state)}) · owner ${esc(plan.owner?.name)} · engine ${esc(revision.engineVersion)}</p>
+<p>Content hash (SHA-256 of RFC 8785 canonical JSON): <code>${esc(revision.contentHash)}</code> —
+${verified ? '<span class="ok">verified: the stored content matches its hash</span>' : '<span class="bad">INTEGRITY CHECK FAILED: the stored content does not match its hash</span>'}</p>
+<p>${esc(plan.purpose)}</p>
+<h2>Inputs</h2><table>${head(["model", "d", "base", "trained", "target", "method"])}
+${row([`${c.model.name} (${c.model.family})`, c.results.rotaryDim, n(c.model.ropeTheta), n(c.model.trainedContext), n(c.targetContext), `${c.method.method} ${params(c.method)}`])}</table>
+<h2>Result at the target</h2>
+<p>Attention factor ${n(f.attentionFactor)}; pairs reaching unseen angles ${f.summary.unseenAnglesPairs}, with compressed resolution ${f.summary.compressedResolutionPairs},
+longer than the trained window ${f.summary.exceedsTrainedWindowPairs}. Critical dimension ${c.results.criticalDimension} (Liu et al. 2023).</p>
+${wavelengthChart(c)}
+<p>Configuration patch:</p><pre><code>${esc(JSON.stringify(f.patch, null, 2))}</code></pre>
+<h2>Stages</h2>${c.stages.length ? `<table>${head(["#", "target", "method", "steps", "batch", "seq len", "lr", "data mix", "unseen / compressed / beyond window"])}${stageRows}</table>` : "<p>No stages.</p>"}
+${budgetHtml ?? ""}
+<h2>Acceptance criteria</h2>${c.acceptance.length ? `<table>${head(["evaluation", "context", "metric", "must be"])}${c.acceptance.map((a) => row([a.evaluation, n(a.contextLength), a.metric, `${a.comparison} ${a.threshold}`])).join("")}</table>` : "<p>None stated.</p>"}
+<h2>Decisions</h2>${decisions.length ? `<table>${head(["approver", "decision", "comment", "signed hash", "at"])}${decisions.map((d) => `<tr><td>${esc(d.approver.name)}</td><td>${esc(d.decision)}</td><td>${esc(d.comment)}</td><td><code>${esc(d.signedHash)}</code></td><td>${esc(d.at)}</td></tr>`).join("")}</table>` : "<p>No decisions yet.</p>"}
+<h2>Notes</h2><p>${esc(c.notes) || "—"}</p>
+<p class="caution">Every figure here is an estimate under the stated conventions. A plan is confirmed only by long-context evaluations of the tuned model.</p>
+</body></html>`;
+}

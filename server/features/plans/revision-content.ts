@@ -1,0 +1,108 @@
+import crypto from "node:crypto";
+import canonicalize from "canonicalize";
+import { analyse, ENGINE_VERSION } from "../../engine";
+import { Invalid } from "../../http/errors";
+import {
+  modelDependentIssues,
+  type MethodParams, type ModelShape, type RevisionValues, type StageResult, type Bands,
+} from "../../../shared/schemas";
+import type { ModelRow } from "../models/models.repo";
+
+/** The profile values a revision freezes (later edits of the profile do not change a revision). */
+export type ModelSnapshot = {
+  id: number; name: string; family: string; headDim: number; partialRotaryFactor: number; ropeTheta: number; trainedContext: number;
+  layers: number; attentionHeads: number; kvHeads: number; hiddenSize: number; parameters: number; parametersTotal: number | null;
+  bytesPerElement: number;
+};
+
+export const snapshotOf = (m: ModelRow): ModelSnapshot => ({
+  id: m.id, name: m.name, family: m.family, headDim: m.headDim, partialRotaryFactor: m.partialRotaryFactor, ropeTheta: m.ropeTheta,
+  trainedContext: m.trainedContext, layers: m.layers, attentionHeads: m.attentionHeads, kvHeads: m.kvHeads, hiddenSize: m.hiddenSize,
+  parameters: m.parameters, parametersTotal: m.parametersTotal, bytesPerElement: m.bytesPerElement,
+});
+
+export type RevisionContent = RevisionValues & {
+  engineVersion: string;
+  model: ModelSnapshot;
+  results: {
+    rotaryDim: number;
+    criticalDimension: number;
+    criticalBase: number;
+    baseSupport: { supportedLength: number | null; checkedUpTo: number; complete: boolean };
+    final: StageResult;
+    stages: StageResult[];
+  };
+  /** Budget figures join here when the budget sheet is part of the plan. */
+  budget?: unknown;
+};
+
+const engineShape = (m: ModelSnapshot): ModelShape => ({
+  headDim: m.headDim, ropeTheta: m.ropeTheta, trainedContext: m.trainedContext, partialRotaryFactor: m.partialRotaryFactor,
+  layers: m.layers, attentionHeads: m.attentionHeads, kvHeads: m.kvHeads, hiddenSize: m.hiddenSize,
+});
+
+/** Model-dependent rules for the plan target and every stage, reported on the field to fix. */
+export function checkAgainstModel(model: ModelSnapshot, v: RevisionValues) {
+  const fields: Record<string, string> = {};
+  const shape = engineShape(model);
+  const add = (prefix: string, target: number, method: MethodParams) => {
+    for (const issue of modelDependentIssues(shape, target, [method])) {
+      const path = issue.path[0] === "methods" ? ["method", ...issue.path.slice(2)] : issue.path;
+      fields[[prefix, ...path].filter((p) => p !== "").join(".")] = issue.message.replace(/ \(methods\.0\)/, "");
+    }
+  };
+  add("", v.targetContext, v.method);
+  v.stages.forEach((s, i) => add(`stages.${i}`, s.targetContext, s.method));
+  v.acceptance.forEach((a, i) => {
+    if (a.contextLength > v.targetContext) fields[`acceptance.${i}.contextLength`] = `beyond the plan's target (${v.targetContext})`;
+  });
+  if (Object.keys(fields).length) throw new Invalid(`the revision does not fit the model: ${Object.keys(fields).join(", ")}`, fields);
+}
+
+function stageResult(model: ModelSnapshot, target: number, method: MethodParams, bands?: Bands) {
+  const a = analyse({ model: engineShape(model), targetContext: target, methods: [method], bands });
+  const m = a.methods[0];
+  const idx = (f: "unseenAngles" | "compressedResolution" | "exceedsTrainedWindow") => m.pairs.filter((p) => p[f]).map((p) => p.index);
+  const result: StageResult = {
+    targetContext: target,
+    method: m.method,
+    params: m.params as Record<string, unknown>,
+    attentionFactor: m.attentionFactor,
+    summary: m.summary,
+    flags: { unseenAngles: idx("unseenAngles"), compressedResolution: idx("compressedResolution"), exceedsTrainedWindow: idx("exceedsTrainedWindow") },
+    bands: m.pairs.map((p) => p.band),
+    scaledWavelengths: m.pairs.map((p) => p.scaledWavelength),
+    patch: m.ropeScaling,
+  };
+  return { analysis: a, result };
+}
+
+/** Runs the engine for the plan target and each stage; the results are frozen into the content. */
+export function buildContent(model: ModelSnapshot, v: RevisionValues): RevisionContent {
+  checkAgainstModel(model, v);
+  const final = stageResult(model, v.targetContext, v.method, v.bands);
+  return {
+    ...v,
+    engineVersion: ENGINE_VERSION,
+    model,
+    results: {
+      rotaryDim: final.analysis.model.rotaryDim,
+      criticalDimension: final.analysis.criticalDimension,
+      criticalBase: final.analysis.criticalBase,
+      baseSupport: {
+        supportedLength: final.analysis.baseSupport.supportedLength,
+        checkedUpTo: final.analysis.baseSupport.checkedUpTo,
+        complete: final.analysis.baseSupport.complete,
+      },
+      final: final.result,
+      stages: v.stages.map((s) => stageResult(model, s.targetContext, s.method, v.bands).result),
+    },
+  };
+}
+
+/** SHA-256 over the RFC 8785 canonical JSON of the content. */
+export function hashContent(content: unknown): string {
+  const canonical = canonicalize(content);
+  if (canonical === undefined) throw new Error("content cannot be canonicalised");
+  return crypto.createHash("sha256").update(canonical, "utf8").digest("hex");
+}

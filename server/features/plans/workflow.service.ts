@@ -1,0 +1,84 @@
+import type { AppDeps } from "../../deps";
+import { Conflict, Forbidden } from "../../http/errors";
+import { hasRole } from "../../http/auth";
+import { recordAudit } from "../audit/audit.repo";
+import type { SessionUser } from "../../../shared/schemas";
+import * as repo from "./plans.repo";
+import { effectiveApprovals, mustPlan, mustRevision } from "./plans.service";
+import { notify } from "./notify";
+
+const wrongState = (n: number, state: string, wanted: string) =>
+  new Conflict(`revision ${n} is ${state}; this needs it ${wanted}`, { state });
+
+/** draft → in_review, by the author. Opens a new decision round. */
+export async function submit(deps: AppDeps, actor: SessionUser, planId: number, n: number) {
+  return deps.db.transaction(async (tx) => {
+    const plan = await mustPlan(tx, planId);
+    const rev = await mustRevision(tx, planId, n, true);
+    if (rev.authorId !== actor.id) throw new Forbidden("only the revision's author submits it");
+    if (rev.state !== "draft") throw wrongState(n, rev.state, "draft");
+    const row = await repo.updateRevision(tx, rev.id, { state: "in_review", round: rev.round + 1, submittedAt: new Date() });
+    await repo.touchPlan(tx, planId);
+    await recordAudit(tx, { actorId: actor.id, action: "revision.submitted", subjectType: "plan", subjectId: planId, detail: { revision: n, hash: row.contentHash, round: row.round } });
+    const approvers = (await repo.activeUsersWithRole(tx, "approver")).filter((u) => u.id !== actor.id);
+    await notify(deps, tx, "review_requested", approvers.map((u) => u.email), { plan, revision: row, actorName: actor.name });
+    return { number: n, state: row.state };
+  });
+}
+
+/** in_review → draft, by the author. Decisions already made stay on record but belong to the closed round. */
+export async function withdraw(deps: AppDeps, actor: SessionUser, planId: number, n: number) {
+  return deps.db.transaction(async (tx) => {
+    const rev = await mustRevision(tx, planId, n, true);
+    if (rev.authorId !== actor.id) throw new Forbidden("only the revision's author withdraws it");
+    if (rev.state !== "in_review") throw wrongState(n, rev.state, "in_review");
+    const row = await repo.updateRevision(tx, rev.id, { state: "draft", version: rev.version + 1 });
+    await repo.touchPlan(tx, planId);
+    await recordAudit(tx, { actorId: actor.id, action: "revision.withdrawn", subjectType: "plan", subjectId: planId, detail: { revision: n, round: rev.round } });
+    return { number: n, state: row.state, version: row.version };
+  });
+}
+
+/**
+ * An approver's decision on the exact content hash under review. With the revision row locked, the quorum check,
+ * the state change and superseding the earlier approval happen at once, so concurrent decisions cannot overshoot.
+ */
+export async function decide(
+  deps: AppDeps, actor: SessionUser, planId: number, n: number, input: { decision: "approve" | "request_changes"; comment: string },
+) {
+  if (!hasRole(actor, "approver")) throw new Forbidden("only approvers decide");
+  return deps.db.transaction(async (tx) => {
+    const plan = await mustPlan(tx, planId);
+    const rev = await mustRevision(tx, planId, n, true);
+    if (rev.authorId === actor.id) throw new Forbidden("nobody decides on a revision they authored");
+    if (rev.state !== "in_review") throw wrongState(n, rev.state, "in_review");
+    const already = (await repo.decisionsOf(tx, [rev.id])).some((d) => d.d.round === rev.round && d.d.approverId === actor.id);
+    if (already) throw new Conflict("you already decided on this revision", { decision: "already recorded" });
+    await repo.insertDecision(tx, { revisionId: rev.id, round: rev.round, approverId: actor.id, decision: input.decision, comment: input.comment, signedHash: rev.contentHash });
+    await recordAudit(tx, {
+      actorId: actor.id, action: input.decision === "approve" ? "decision.approved" : "decision.changes_requested",
+      subjectType: "plan", subjectId: planId, detail: { revision: n, signedHash: rev.contentHash, comment: input.comment, round: rev.round },
+    });
+    const author = (await repo.userRef(tx, rev.authorId))!;
+    if (input.decision === "request_changes") {
+      const row = await repo.updateRevision(tx, rev.id, { state: "changes_requested", decidedAt: new Date() });
+      await recordAudit(tx, { actorId: actor.id, action: "revision.changes_requested", subjectType: "plan", subjectId: planId, detail: { revision: n } });
+      await notify(deps, tx, "changes_requested", [author.email], { plan, revision: row, actorName: actor.name, comment: input.comment });
+      return { number: n, state: row.state, approvals: await repo.approvalsInRound(tx, rev.id, rev.round) };
+    }
+    const approvals = await repo.approvalsInRound(tx, rev.id, rev.round);
+    const required = await effectiveApprovals(tx, plan);
+    if (approvals < required) return { number: n, state: rev.state, approvals };
+    const row = await repo.updateRevision(tx, rev.id, { state: "approved", decidedAt: new Date() });
+    const superseded = await repo.supersedeApprovedExcept(tx, planId, rev.id);
+    await repo.touchPlan(tx, planId);
+    await recordAudit(tx, { actorId: actor.id, action: "revision.approved", subjectType: "plan", subjectId: planId, detail: { revision: n, hash: row.contentHash, approvals } });
+    for (const s of superseded) {
+      await recordAudit(tx, { actorId: actor.id, action: "revision.superseded", subjectType: "plan", subjectId: planId, detail: { revision: s.number, by: n } });
+    }
+    await notify(deps, tx, "approved", [author.email], { plan, revision: row, actorName: actor.name, comment: input.comment });
+    const infra = await repo.activeUsersWithRole(tx, "infra");
+    await notify(deps, tx, "ready", infra.map((u) => u.email), { plan, revision: row, actorName: actor.name });
+    return { number: n, state: row.state, approvals };
+  });
+}

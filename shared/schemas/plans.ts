@@ -1,0 +1,112 @@
+import { z } from "zod";
+import { bandsSchema, configPatchSchema, lengthSchema, methodParamsSchema } from "./analysis";
+
+export const REVISION_STATES = ["draft", "in_review", "approved", "changes_requested", "superseded"] as const;
+export const revisionStateSchema = z.enum(REVISION_STATES);
+export type RevisionState = z.infer<typeof revisionStateSchema>;
+export const DECISIONS = ["approve", "request_changes"] as const;
+
+const text = (max: number) => z.string().max(max);
+
+/** One stage of a progressive extension. */
+export const stageSchema = z.strictObject({
+  targetContext: lengthSchema,
+  method: methodParamsSchema,
+  steps: z.number().int().positive().max(10_000_000),
+  globalBatch: z.number().int().positive().max(1_000_000),
+  sequenceLength: lengthSchema,
+  learningRate: z.number().positive().max(1),
+  dataMix: text(2000).default(""),
+});
+export type Stage = z.infer<typeof stageSchema>;
+export type StageInput = z.input<typeof stageSchema>;
+
+export const COMPARISONS = [">=", ">", "<=", "<"] as const;
+export const acceptanceCriterionSchema = z.strictObject({
+  evaluation: z.string().trim().min(1).max(200),
+  contextLength: lengthSchema,
+  metric: z.string().trim().min(1).max(120),
+  comparison: z.enum(COMPARISONS),
+  threshold: z.number().finite(),
+});
+export type AcceptanceCriterion = z.infer<typeof acceptanceCriterionSchema>;
+
+export const MAX_STAGES = 32;
+const revisionFields = {
+  targetContext: lengthSchema,
+  method: methodParamsSchema,
+  bands: bandsSchema.optional(),
+  stages: z.array(stageSchema).max(MAX_STAGES, `at most ${MAX_STAGES} stages`).default([]),
+  acceptance: z.array(acceptanceCriterionSchema).max(50).default([]),
+  notes: text(20_000).default(""),
+};
+export const revisionInputSchema = z.strictObject(revisionFields);
+export type RevisionInput = z.input<typeof revisionInputSchema>;
+export type RevisionValues = z.output<typeof revisionInputSchema>;
+
+export const createPlanRequestSchema = z.strictObject({
+  title: z.string().trim().min(1).max(200),
+  purpose: text(4000).default(""),
+  modelId: z.number().int().positive(),
+  requiredApprovals: z.number().int().min(1).max(3).optional(),
+  revision: revisionInputSchema,
+});
+export type CreatePlanRequest = z.input<typeof createPlanRequestSchema>;
+
+/** PUT a draft: any subset of the revision fields plus the version read last. */
+export const updateRevisionRequestSchema = z.strictObject({
+  version: z.number().int().positive(),
+  targetContext: revisionFields.targetContext.optional(),
+  method: methodParamsSchema.optional(),
+  bands: bandsSchema.optional(),
+  stages: z.array(stageSchema).max(MAX_STAGES, `at most ${MAX_STAGES} stages`).optional(),
+  acceptance: z.array(acceptanceCriterionSchema).max(50).optional(),
+  notes: text(20_000).optional(),
+});
+export type UpdateRevisionRequest = z.input<typeof updateRevisionRequestSchema>;
+
+export const decisionRequestSchema = z.strictObject({
+  decision: z.enum(DECISIONS),
+  comment: text(4000).default(""),
+});
+
+export const planSettingsSchema = z.strictObject({ minRequiredApprovals: z.number().int().min(1).max(3) });
+
+export const planListQuerySchema = z.object({
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(100).default(20),
+  sort: z.enum(["updatedAt", "createdAt", "title", "state", "owner", "model"]).default("updatedAt"),
+  dir: z.enum(["asc", "desc"]).default("desc"),
+  state: revisionStateSchema.optional(),
+  ownerId: z.coerce.number().int().positive().optional(),
+  modelId: z.coerce.number().int().positive().optional(),
+  q: z.string().max(200).optional(),
+});
+export type PlanListQuery = z.input<typeof planListQuerySchema>;
+
+// ---- stored content and responses ----
+
+/** What the engine found for one stage (or the final target), stored with the revision, never recomputed on read. */
+export const stageResultSchema = z.object({
+  targetContext: z.number(),
+  method: z.string(),
+  params: z.record(z.string(), z.unknown()),
+  attentionFactor: z.number(),
+  summary: z.object({ unseenAnglesPairs: z.number(), compressedResolutionPairs: z.number(), exceedsTrainedWindowPairs: z.number() }),
+  flags: z.object({ unseenAngles: z.array(z.number()), compressedResolution: z.array(z.number()), exceedsTrainedWindow: z.array(z.number()) }),
+  bands: z.array(z.string()),
+  scaledWavelengths: z.array(z.number()),
+  patch: configPatchSchema,
+});
+export type StageResult = z.infer<typeof stageResultSchema>;
+
+export const userRefSchema = z.object({ id: z.number(), name: z.string(), email: z.string() });
+export const decisionSchema = z.object({
+  approver: userRefSchema,
+  decision: z.enum(DECISIONS),
+  comment: z.string(),
+  signedHash: z.string(),
+  round: z.number(),
+  at: z.string(),
+});
+export type Decision = z.infer<typeof decisionSchema>;

@@ -1,0 +1,31 @@
+import type { Agent } from "./app";
+import { sampleProfile } from "../fixtures/profiles";
+
+/** A fresh profile (Gannet-like, 128-dim, base 10 000, trained 4096) created by the given editor. */
+export async function createProfile(editor: Agent, over: Record<string, unknown> = {}) {
+  const r = await editor.post("/api/models").set("X-CSRF-Token", editor.csrf).send(sampleProfile(over));
+  if (r.status !== 201) throw new Error(`profile: ${r.status} ${JSON.stringify(r.body)}`);
+  return r.body.model as { id: number; name: string };
+}
+
+export const twoStageRevision = () => ({
+  targetContext: 32768,
+  method: { method: "yarn" as const },
+  stages: [
+    { targetContext: 16384, method: { method: "yarn" as const }, steps: 200, globalBatch: 64, sequenceLength: 16384, learningRate: 2e-5, dataMix: "books 60%, code 40%" },
+    { targetContext: 32768, method: { method: "yarn" as const }, steps: 200, globalBatch: 32, sequenceLength: 32768, learningRate: 2e-5, dataMix: "books 60%, code 40%" },
+  ],
+  acceptance: [{ evaluation: "passkey retrieval", contextLength: 32768, metric: "accuracy", comparison: ">=" as const, threshold: 0.95 }],
+  notes: "test plan",
+});
+
+/** Creates a plan (revision 1 draft) as the researcher; answers the plan detail. */
+export async function createPlan(researcher: Agent, modelId: number, over: Record<string, unknown> = {}) {
+  const r = await researcher.post("/api/plans").set("X-CSRF-Token", researcher.csrf)
+    .send({ title: `Stretch ${Math.random().toString(36).slice(2, 7)}`, modelId, revision: twoStageRevision(), ...over });
+  if (r.status !== 201) throw new Error(`plan: ${r.status} ${JSON.stringify(r.body)}`);
+  return r.body as { id: number; revisions: { number: number; version: number; contentHash: string; state: string }[] };
+}
+
+export const post = (a: Agent, url: string, body: object = {}) => a.post(url).set("X-CSRF-Token", a.csrf).send(body);
+export const put = (a: Agent, url: string, body: object = {}) => a.put(url).set("X-CSRF-Token", a.csrf).send(body);
