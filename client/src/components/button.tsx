@@ -27,3 +27,12 @@ export function Button({ variant = "primary", size = "md", busy = false, classNa
     </button>
   );
 }
+
+/** A form's submit button that says what it is doing while the request runs. */
+export function SubmitButton({ busy, busyLabel, children, className }: { busy: boolean; busyLabel: string; children: string; className?: string }) {
+  return (
+    <Button type="submit" busy={busy} className={className}>
+      {busy ? busyLabel : children}
+    </Button>
+  );
+}

@@ -44,6 +44,17 @@ export function TextInput({ className = "", ...rest }: ComponentProps<"input">) 
   );
 }
 
+type TextFieldProps = ComponentProps<"input"> & { label: string; error?: string; hint?: string };
+
+/** A labelled text input with hint and error; spread react-hook-form's `register(name)` into it. */
+export function TextField({ label, error, hint, ...input }: TextFieldProps) {
+  return (
+    <Field label={label} error={error} hint={hint}>
+      {({ id, describedBy, invalid }) => <TextInput id={id} aria-describedby={describedBy} aria-invalid={invalid} {...input} />}
+    </Field>
+  );
+}
+
 type CheckboxProps = ComponentProps<"input"> & { label: ReactNode };
 
 export function Checkbox({ label, className = "", ...rest }: CheckboxProps) {

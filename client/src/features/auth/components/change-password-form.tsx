@@ -3,8 +3,8 @@ import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { z } from "zod";
 import { changePasswordRequestSchema, PASSWORD_MIN } from "../../../../../shared/schemas/auth";
-import { Button } from "../../../components/button";
-import { Field, TextInput } from "../../../components/field";
+import { SubmitButton } from "../../../components/button";
+import { TextField } from "../../../components/field";
 import { Notice } from "../../../components/notice";
 import { applyApiErrors } from "../../../lib/form-errors";
 import { isApiError } from "../../../lib/api-client";
@@ -48,28 +48,17 @@ export function ChangePasswordForm() {
     );
   });
 
-  const input = (name: (typeof FIELDS)[number], autoComplete: string) =>
-    ({ id, describedBy, invalid }: { id: string; describedBy?: string; invalid: boolean }) => (
-      <TextInput id={id} type="password" autoComplete={autoComplete} aria-describedby={describedBy} aria-invalid={invalid} {...register(name)} />
-    );
-
   return (
     <form onSubmit={onSubmit} noValidate className="flex max-w-md flex-col gap-4" aria-label="Change password">
       {done && <Notice tone="success">Password changed. Use the new one next time you sign in.</Notice>}
       {formError && <Notice tone="alert">{formError}</Notice>}
-      <Field label="Current password" error={errors.currentPassword?.message}>
-        {input("currentPassword", "current-password")}
-      </Field>
-      <Field label="New password" hint={`At least ${PASSWORD_MIN} characters.`} error={errors.newPassword?.message}>
-        {input("newPassword", "new-password")}
-      </Field>
-      <Field label="New password, again" error={errors.confirmPassword?.message}>
-        {input("confirmPassword", "new-password")}
-      </Field>
+      <TextField label="Current password" type="password" autoComplete="current-password" error={errors.currentPassword?.message} {...register("currentPassword")} />
+      <TextField label="New password" type="password" autoComplete="new-password" hint={`At least ${PASSWORD_MIN} characters.`} error={errors.newPassword?.message} {...register("newPassword")} />
+      <TextField label="New password, again" type="password" autoComplete="new-password" error={errors.confirmPassword?.message} {...register("confirmPassword")} />
       <div>
-        <Button type="submit" busy={change.isPending}>
-          {change.isPending ? "Saving…" : "Change password"}
-        </Button>
+        <SubmitButton busy={change.isPending} busyLabel="Saving…">
+          Change password
+        </SubmitButton>
       </div>
     </form>
   );

@@ -2,8 +2,8 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { loginRequestSchema, type SessionUser } from "../../../../../shared/schemas/auth";
-import { Button } from "../../../components/button";
-import { Field, TextInput } from "../../../components/field";
+import { SubmitButton } from "../../../components/button";
+import { TextField } from "../../../components/field";
 import { Notice } from "../../../components/notice";
 import { applyApiErrors } from "../../../lib/form-errors";
 import { isApiError } from "../../../lib/api-client";
@@ -37,19 +37,11 @@ export function SignInForm({ onSignedIn }: { onSignedIn: (user: SessionUser) => 
   return (
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Sign in">
       {formError && <Notice tone="alert">{formError}</Notice>}
-      <Field label="E-mail" error={errors.email?.message}>
-        {({ id, describedBy, invalid }) => (
-          <TextInput id={id} type="email" autoComplete="username" aria-describedby={describedBy} aria-invalid={invalid} {...register("email")} />
-        )}
-      </Field>
-      <Field label="Password" error={errors.password?.message}>
-        {({ id, describedBy, invalid }) => (
-          <TextInput id={id} type="password" autoComplete="current-password" aria-describedby={describedBy} aria-invalid={invalid} {...register("password")} />
-        )}
-      </Field>
-      <Button type="submit" busy={login.isPending} className="mt-2">
-        {login.isPending ? "Signing in…" : "Sign in"}
-      </Button>
+      <TextField label="E-mail" type="email" autoComplete="username" error={errors.email?.message} {...register("email")} />
+      <TextField label="Password" type="password" autoComplete="current-password" error={errors.password?.message} {...register("password")} />
+      <SubmitButton busy={login.isPending} busyLabel="Signing in…" className="mt-2">
+        Sign in
+      </SubmitButton>
     </form>
   );
 }

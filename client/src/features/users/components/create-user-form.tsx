@@ -3,8 +3,8 @@ import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { createUserRequestSchema } from "../../../../../shared/schemas/users";
 import { PASSWORD_MIN } from "../../../../../shared/schemas/auth";
-import { Button } from "../../../components/button";
-import { Field, TextInput } from "../../../components/field";
+import { SubmitButton } from "../../../components/button";
+import { TextField } from "../../../components/field";
 import { Notice } from "../../../components/notice";
 import { isApiError } from "../../../lib/api-client";
 import { applyApiErrors } from "../../../lib/form-errors";
@@ -47,21 +47,22 @@ export function CreateUserForm() {
       {created && <Notice tone="success">{created}</Notice>}
       {formError && <Notice tone="alert">{formError}</Notice>}
       <div className="grid gap-4 sm:grid-cols-2">
-        <Field label="Name" error={errors.name?.message}>
-          {({ id, describedBy, invalid }) => <TextInput id={id} autoComplete="off" aria-describedby={describedBy} aria-invalid={invalid} {...register("name")} />}
-        </Field>
-        <Field label="E-mail" error={errors.email?.message}>
-          {({ id, describedBy, invalid }) => <TextInput id={id} type="email" autoComplete="off" aria-describedby={describedBy} aria-invalid={invalid} {...register("email")} />}
-        </Field>
-        <Field label="First password" hint={`At least ${PASSWORD_MIN} characters; they can change it on their profile.`} error={errors.password?.message}>
-          {({ id, describedBy, invalid }) => <TextInput id={id} type="password" autoComplete="new-password" aria-describedby={describedBy} aria-invalid={invalid} {...register("password")} />}
-        </Field>
+        <TextField label="Name" autoComplete="off" error={errors.name?.message} {...register("name")} />
+        <TextField label="E-mail" type="email" autoComplete="off" error={errors.email?.message} {...register("email")} />
+        <TextField
+          label="First password"
+          type="password"
+          autoComplete="new-password"
+          hint={`At least ${PASSWORD_MIN} characters; they can change it on their profile.`}
+          error={errors.password?.message}
+          {...register("password")}
+        />
       </div>
       <RoleCheckboxes registration={register("roles")} error={errors.roles?.message} />
       <div>
-        <Button type="submit" busy={create.isPending}>
-          {create.isPending ? "Adding…" : "Add user"}
-        </Button>
+        <SubmitButton busy={create.isPending} busyLabel="Adding…">
+          Add user
+        </SubmitButton>
       </div>
     </form>
   );
