@@ -12,6 +12,9 @@ import { usersRouter } from "./features/users/users.router";
 import { healthRouter } from "./features/health/health.router";
 import { modelsRouter } from "./features/models/models.router";
 import { plansRouter } from "./features/plans/plans.router";
+import { tokensRouter } from "./features/tokens/tokens.router";
+import { auditRouter } from "./features/audit/audit.router";
+import { bearerAuth, unlessBearer } from "./http/bearer";
 
 export const JSON_LIMIT = "512kb";
 
@@ -31,14 +34,17 @@ export function createApp(deps: AppDeps) {
 
   const api = express.Router();
   api.use("/health", healthRouter(deps));
-  api.use(sessionMiddleware(deps));
-  api.use(loadUser(deps));
+  api.use(bearerAuth(deps));
+  api.use(unlessBearer(sessionMiddleware(deps)));
+  api.use(unlessBearer(loadUser(deps)));
   api.use(csrfProtection);
   api.use(express.json({ limit: JSON_LIMIT }));
   api.use("/auth", authRouter(deps));
   api.use("/users", usersRouter(deps));
   api.use("/models", modelsRouter(deps));
   api.use("/plans", plansRouter(deps));
+  api.use("/tokens", tokensRouter(deps));
+  api.use("/audit", auditRouter(deps));
   api.use((_req, _res, next) => next(new NotFound("no such API route")));
   app.use("/api", api);
 

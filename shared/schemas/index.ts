@@ -4,3 +4,5 @@ export * from "./users";
 export * from "./models";
 export * from "./plans";
 export * from "./analysis";
+export * from "./tokens";
+export * from "./audit";

@@ -1,0 +1,23 @@
+import { Router } from "express";
+import type { AppDeps } from "../../deps";
+import { currentUser, requireAuth } from "../../http/auth";
+import { parseBody, parseParams } from "../../http/validate";
+import { createTokenRequestSchema, idParamSchema } from "../../../shared/schemas";
+import { createToken, listTokens, revokeToken } from "./tokens.service";
+
+export function tokensRouter(deps: AppDeps) {
+  const r = Router();
+  r.use(requireAuth);
+  r.get("/", async (_req, res) => {
+    res.json({ tokens: await listTokens(deps, currentUser(res)) });
+  });
+  r.post("/", async (req, res) => {
+    const { name } = parseBody(createTokenRequestSchema, req);
+    res.status(201).json(await createToken(deps, currentUser(res), name));
+  });
+  r.delete("/:id", async (req, res) => {
+    await revokeToken(deps, currentUser(res), parseParams(idParamSchema, req).id);
+    res.status(204).end();
+  });
+  return r;
+}

@@ -1,0 +1,47 @@
+import crypto from "node:crypto";
+import { and, desc, eq, isNull, sql } from "drizzle-orm";
+import type { AppDeps } from "../../deps";
+import { apiTokens } from "../../db/schema";
+import { NotFound } from "../../http/errors";
+import { recordAudit } from "../audit/audit.repo";
+import type { SessionUser } from "../../../shared/schemas";
+
+const sha256 = (s: string) => crypto.createHash("sha256").update(s).digest("hex");
+
+const view = (t: typeof apiTokens.$inferSelect) => ({
+  id: t.id, name: t.name, prefix: t.prefix, createdAt: t.createdAt.toISOString(),
+  lastUsedAt: t.lastUsedAt?.toISOString() ?? null, revokedAt: t.revokedAt?.toISOString() ?? null,
+});
+
+/** A personal read-only token; the secret is returned once and only its SHA-256 is kept. */
+export async function createToken(deps: AppDeps, actor: SessionUser, name: string) {
+  const secret = `rw_${crypto.randomBytes(32).toString("base64url")}`;
+  return deps.db.transaction(async (tx) => {
+    const [row] = await tx.insert(apiTokens).values({ userId: actor.id, name, tokenHash: sha256(secret), prefix: secret.slice(0, 10) }).returning();
+    await recordAudit(tx, { actorId: actor.id, action: "token.created", subjectType: "token", subjectId: row.id, detail: { name } });
+    return { ...view(row), token: secret };
+  });
+}
+
+export async function listTokens(deps: AppDeps, actor: SessionUser) {
+  const rows = await deps.db.select().from(apiTokens).where(eq(apiTokens.userId, actor.id)).orderBy(desc(apiTokens.createdAt));
+  return rows.map(view);
+}
+
+export async function revokeToken(deps: AppDeps, actor: SessionUser, id: number) {
+  await deps.db.transaction(async (tx) => {
+    const [row] = await tx.update(apiTokens).set({ revokedAt: new Date() })
+      .where(and(eq(apiTokens.id, id), eq(apiTokens.userId, actor.id), isNull(apiTokens.revokedAt))).returning();
+    if (!row) throw new NotFound("no such active token of yours");
+    await recordAudit(tx, { actorId: actor.id, action: "token.revoked", subjectType: "token", subjectId: id, detail: { name: row.name } });
+  });
+}
+
+/** The owner of a live token, or undefined; records when it was last used (at most once a minute). */
+export async function userIdForToken(deps: AppDeps, secret: string) {
+  const [row] = await deps.db.select().from(apiTokens).where(and(eq(apiTokens.tokenHash, sha256(secret)), isNull(apiTokens.revokedAt))).limit(1);
+  if (!row) return undefined;
+  await deps.db.update(apiTokens).set({ lastUsedAt: new Date() })
+    .where(and(eq(apiTokens.id, row.id), sql`(${apiTokens.lastUsedAt} IS NULL OR ${apiTokens.lastUsedAt} < now() - interval '1 minute')`));
+  return row.userId;
+}

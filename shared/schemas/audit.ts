@@ -1,0 +1,19 @@
+import { z } from "zod";
+
+export const auditQuerySchema = z.object({
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(200).default(50),
+  action: z.string().max(80).optional(),
+  actorId: z.coerce.number().int().positive().optional(),
+  subjectType: z.string().max(40).optional(),
+  subjectId: z.string().max(40).optional(),
+  from: z.iso.datetime({ offset: true }).optional(),
+  to: z.iso.datetime({ offset: true }).optional(),
+});
+export type AuditQuery = z.input<typeof auditQuerySchema>;
+
+export const auditEventSchema = z.object({
+  id: z.number(), at: z.string(), actor: z.object({ id: z.number(), name: z.string() }).nullable(),
+  action: z.string(), subjectType: z.string(), subjectId: z.string().nullable(), detail: z.record(z.string(), z.unknown()),
+});
+export type AuditEvent = z.infer<typeof auditEventSchema>;
