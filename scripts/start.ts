@@ -10,6 +10,7 @@ import { createDb } from "../server/db/client";
 import { runMigrations } from "../server/db/migrate";
 import { DEMO_LAB, DEMO_PASSWORD, DEMO_USERS, seedDemo } from "../server/db/seed";
 import { startServer } from "../server/index";
+import { startMailSink } from "../server/mail/sink";
 
 const root = path.resolve(import.meta.dirname, "..");
 
@@ -52,6 +53,25 @@ function buildClientIfStale(clientDir: string) {
   if (r.status !== 0) throw new Error("client build failed");
 }
 
+/** Outside production, and unless SMTP_URL points elsewhere, mail goes to a sink on loopback; returns the line to print. */
+async function startLocalMailSink(config: ReturnType<typeof loadConfig>): Promise<string> {
+  if (process.env.SMTP_URL) return "Mail goes to the SMTP server named in SMTP_URL.";
+  if (config.env === "production") return "Mail: SMTP_URL is not set, so mail waits in the outbox (admins see it on the Mail page).";
+  const where = `127.0.0.1:${config.mailSinkPort}`;
+  try {
+    // Its own small pool; it lives as long as the process.
+    await startMailSink({ db: createDb(config.databaseUrl, 2).db, port: config.mailSinkPort });
+    return `Mail goes to the local sink on ${where}; admins read it on the Mail page.`;
+  } catch (e) {
+    if ((e as NodeJS.ErrnoException).code !== "EADDRINUSE") throw e;
+    return (
+      `Port ${config.mailSinkPort} on 127.0.0.1 is taken by another program, so the local mail sink is not running. ` +
+      `Mail waits in the outbox (Mail page) and goes to whatever accepts SMTP on ${where}; ` +
+      `start with MAIL_SINK_PORT=<free port> npm start to use the sink.`
+    );
+  }
+}
+
 async function main() {
   const config = loadConfig({ ...process.env, NODE_ENV: process.env.NODE_ENV ?? "development" });
   const url = `http://${config.host}:${config.port}`;
@@ -75,8 +95,10 @@ async function main() {
   await pool.end();
   buildClientIfStale(config.clientDir);
 
+  const mailLine = await startLocalMailSink(config);
   await startServer(config);
   console.log(`\nRopewalk is running at ${url}  (Ctrl-C stops it; npm run db:stop stops PostgreSQL)`);
+  console.log(mailLine);
   if (seed) {
     console.log(`\nDemo scenario: ${DEMO_LAB}. Every demo account's password is "${DEMO_PASSWORD}":`);
     for (const u of DEMO_USERS) console.log(`  ${u.email.padEnd(26)} ${u.name.padEnd(18)} ${u.roles.join(", ")}`);

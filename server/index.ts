@@ -2,6 +2,7 @@ import type { Server } from "node:http";
 import { loadConfig } from "./config";
 import { createDb } from "./db/client";
 import { createApp } from "./app";
+import { startOutboxWorker } from "./mail/worker";
 
 /** Starts the HTTP server; resolves once it listens. Used by `npm start` and production. */
 export async function startServer(config = loadConfig()) {
@@ -11,6 +12,7 @@ export async function startServer(config = loadConfig()) {
     const s = app.listen(config.port, config.host, () => resolve(s));
     s.on("error", reject);
   });
+  const mailWorker = startOutboxWorker({ config, db });
   let closing = false;
   const shutdown = async (signal: string) => {
     if (closing) return;
@@ -19,6 +21,7 @@ export async function startServer(config = loadConfig()) {
     server.close();
     server.closeIdleConnections();
     setTimeout(() => server.closeAllConnections(), 5000).unref();
+    await mailWorker.stop();
     await pool.end().catch(() => undefined);
     process.exit(0);
   };

@@ -1,0 +1,54 @@
+import type { AppDeps } from "../../deps";
+import { DEFAULT_BATCH, deliverDueMail, type DeliveryResult } from "../../mail/outbox";
+import * as repo from "./mail.repo";
+
+/** The Mail page shows at most this many of each list, newest first. */
+export const MAIL_PAGE_LIMIT = 200;
+
+export interface SinkMessageView {
+  id: number;
+  receivedAt: string;
+  from: string;
+  to: string[];
+  subject: string;
+  text: string;
+}
+
+export interface OutboxRowView {
+  id: number;
+  kind: string;
+  to: string[];
+  subject: string;
+  status: string;
+  attempts: number;
+  lastError: string | null;
+  createdAt: string;
+  sentAt: string | null;
+}
+
+export async function listMail(deps: AppDeps, q?: string): Promise<{ messages: SinkMessageView[]; outbox: OutboxRowView[] }> {
+  const [messages, outbox] = await Promise.all([
+    repo.listSinkMessages(deps.db, MAIL_PAGE_LIMIT, q),
+    repo.listOutbox(deps.db, MAIL_PAGE_LIMIT),
+  ]);
+  return {
+    messages: messages.map((m) => ({ ...m, receivedAt: m.receivedAt.toISOString() })),
+    outbox: outbox.map((o) => ({ ...o, createdAt: o.createdAt.toISOString(), sentAt: o.sentAt?.toISOString() ?? null })),
+  };
+}
+
+/** Batches one "deliver now" may run, so a large backlog cannot hold the request for long. */
+const DELIVER_NOW_MAX_BATCHES = 10;
+
+/** "Deliver now" on the Mail page: what is due, without waiting for the worker. */
+export async function deliverNow(deps: AppDeps): Promise<DeliveryResult> {
+  const total = { sent: 0, failed: 0 };
+  for (let i = 0; i < DELIVER_NOW_MAX_BATCHES; i++) {
+    const r = await deliverDueMail(deps);
+    total.sent += r.sent;
+    total.failed += r.failed;
+    // Stop at a short batch, or at a failure: the server is struggling and the worker retries later.
+    if (r.sent < DEFAULT_BATCH) break;
+  }
+  return total;
+}
