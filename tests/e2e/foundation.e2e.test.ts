@@ -37,6 +37,10 @@ describe("foundation screens in a browser", () => {
     const page = await context.newPage();
     const pageErrors: string[] = [];
     page.on("pageerror", (e) => pageErrors.push(e.message));
+    // Console errors catch CSP refusals and React warnings; the browser's own line for the expected 401/409 is not one.
+    page.on("console", (m) => {
+      if (m.type() === "error" && !m.text().startsWith("Failed to load resource")) pageErrors.push(m.text());
+    });
 
     // A signed-out visit to /users lands on sign-in and returns to /users afterwards.
     await page.goto(`${server.url}/users`);

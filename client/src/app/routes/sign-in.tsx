@@ -1,6 +1,6 @@
 import { Navigate, useNavigate, useSearchParams } from "react-router-dom";
 import { AppShell } from "../../components/app-shell";
-import { Loading } from "../../components/notice";
+import { Loading, Notice } from "../../components/notice";
 import { paths, safeNext } from "../../config/paths";
 import { SignInForm } from "../../features/auth/components/sign-in-form";
 import { useSession } from "../../features/auth/hooks/use-session";
@@ -26,6 +26,13 @@ export function SignInRoute() {
           <p className="text-body text-ink-soft">Accounts are made by an admin. If you do not have one, ask yours.</p>
         </div>
         <div className="rounded-lg border border-rule bg-white/60 p-6 shadow-[0_1px_0_var(--color-rule)]">
+          {session.isError && (
+            <div className="mb-4">
+              <Notice tone="alert" title="Ropewalk is not answering">
+                {session.error.message}
+              </Notice>
+            </div>
+          )}
           {params.get("next") && (
             <p className="mb-4 text-note text-seaglass">Sign in to continue where you were.</p>
           )}

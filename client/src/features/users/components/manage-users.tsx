@@ -7,8 +7,11 @@ import { useUpdateUser } from "../api/update-user";
 import { RoleEditor } from "./role-editor";
 import { UsersTable } from "./users-table";
 
-/** The user list with its row actions: change roles, deactivate, reactivate. */
-export function ManageUsers({ currentUserId }: { currentUserId: number }) {
+/**
+ * The user list with its row actions: change roles, deactivate, reactivate.
+ * `onChanged` hears about every saved change (the page uses it to refresh the session when you edit yourself).
+ */
+export function ManageUsers({ currentUserId, onChanged }: { currentUserId: number; onChanged?: (user: User) => void }) {
   const users = useQuery(usersQueries.list());
   const update = useUpdateUser();
   const [editing, setEditing] = useState<User | null>(null);
@@ -22,7 +25,10 @@ export function ManageUsers({ currentUserId }: { currentUserId: number }) {
     update.mutate(
       { id: user.id, changes: { active } },
       {
-        onSuccess: (u) => setMessage({ tone: "success", text: `${u.name} is ${u.active ? "active again" : "deactivated and can no longer sign in"}.` }),
+        onSuccess: (u) => {
+          onChanged?.(u);
+          setMessage({ tone: "success", text: `${u.name} is ${u.active ? "active again" : "deactivated and can no longer sign in"}.` });
+        },
         onError: (e) => setMessage({ tone: "alert", text: e.message }),
       },
     );
@@ -36,6 +42,7 @@ export function ManageUsers({ currentUserId }: { currentUserId: number }) {
           key={editing.id}
           user={editing}
           onDone={() => setEditing(null)}
+          onSaved={onChanged}
         />
       )}
       <UsersTable

@@ -11,7 +11,7 @@ import { RoleCheckboxes } from "./role-checkboxes";
 // Same rules for roles as when creating a user.
 const rolesSchema = createUserRequestSchema.pick({ roles: true });
 
-export function RoleEditor({ user, onDone }: { user: User; onDone: () => void }) {
+export function RoleEditor({ user, onDone, onSaved }: { user: User; onDone: () => void; onSaved?: (user: User) => void }) {
   const update = useUpdateUser();
   const [formError, setFormError] = useState<string | null>(null);
   const { register, handleSubmit, setError, formState } = useForm({
@@ -23,7 +23,13 @@ export function RoleEditor({ user, onDone }: { user: User; onDone: () => void })
     setFormError(null);
     update.mutate(
       { id: user.id, changes: { roles } },
-      { onSuccess: onDone, onError: (error) => setFormError(applyApiErrors(error, setError, ["roles"])) },
+      {
+        onSuccess: (saved) => {
+          onSaved?.(saved);
+          onDone();
+        },
+        onError: (error) => setFormError(applyApiErrors(error, setError, ["roles"])),
+      },
     );
   });
 
