@@ -112,6 +112,7 @@ describe("foundation screens in a browser", () => {
     await refusal.waitFor();
     await expect(refusal.textContent()).resolves.toContain("not allowed for your roles");
     await expect(page.getByRole("table").count()).resolves.toBe(0);
+    await screenshot(page, "not-allowed");
 
     await page.goto(`${server.url}/no-such-place`);
     await page.getByRole("heading", { name: "Page not found" }).waitFor();
