@@ -14,6 +14,8 @@ import { modelsRouter } from "./features/models/models.router";
 import { plansRouter } from "./features/plans/plans.router";
 import { tokensRouter } from "./features/tokens/tokens.router";
 import { auditRouter } from "./features/audit/audit.router";
+import { mailRouter } from "./features/mail/mail.router";
+import { acceleratorsRouter, budgetsRouter } from "./features/budgets/budgets.router";
 import { bearerAuth, unlessBearer } from "./http/bearer";
 
 export const JSON_LIMIT = "512kb";
@@ -45,6 +47,9 @@ export function createApp(deps: AppDeps) {
   api.use("/plans", plansRouter(deps));
   api.use("/tokens", tokensRouter(deps));
   api.use("/audit", auditRouter(deps));
+  api.use("/mail", mailRouter(deps));
+  api.use("/budgets", budgetsRouter(deps));
+  api.use("/accelerators", acceleratorsRouter(deps));
   api.use((_req, _res, next) => next(new NotFound("no such API route")));
   app.use("/api", api);
 

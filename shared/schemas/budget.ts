@@ -129,20 +129,25 @@ export const budgetStageRequestSchema = z
   })
   .transform((stage) => stage as StageRequest);
 
+/** Cluster size and training conventions: shared by the estimator and a plan's budget sheet. */
+export const budgetSettingsFields = {
+  accelerators: count(1_000_000),
+  /** Model FLOPs utilisation in (0, 1]. */
+  utilization: z.number().positive().max(1).optional(),
+  convention: z.enum(FLOP_CONVENTIONS).optional(),
+  recomputeFraction: z.number().min(0).max(1).optional(),
+  optimizerBytesPerParameter: amount(64).optional(),
+  /** Sequence-parallel degree for the reported training memory; default 1. */
+  sequenceSharding: count(1_000_000).optional(),
+  /** Sequences per micro-batch on one data-parallel rank; default 1. */
+  microBatchSequences: count(1_000_000).optional(),
+};
+
 export const budgetEstimateRequestSchema = z
   .object({
     model: budgetModelSchema,
     cluster: budgetClusterSchema,
-    accelerators: count(1_000_000),
-    /** Model FLOPs utilisation in (0, 1]. */
-    utilization: z.number().positive().max(1).optional(),
-    convention: z.enum(FLOP_CONVENTIONS).optional(),
-    recomputeFraction: z.number().min(0).max(1).optional(),
-    optimizerBytesPerParameter: amount(64).optional(),
-    /** Sequence-parallel degree for the reported training memory; default 1. */
-    sequenceSharding: count(1_000_000).optional(),
-    /** Sequences per micro-batch on one data-parallel rank; default 1. */
-    microBatchSequences: count(1_000_000).optional(),
+    ...budgetSettingsFields,
     /** Growth curve start; default the shortest stage length. */
     trainedContext: length.optional(),
     /** Growth curve runs to 4 × this; default the longest stage length. */

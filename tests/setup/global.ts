@@ -6,24 +6,39 @@ import { runMigrations } from "../../server/db/migrate";
 
 const root = path.resolve(import.meta.dirname, "../..");
 
-/** One loopback cluster (started or reused), a fresh test database built by migrations only. */
+/**
+ * One loopback cluster (started or reused) and a fresh database for this run, built by migrations only.
+ * Each run gets its own database (dropped at the end), so two runs on one machine never disturb each other.
+ */
 export default async function setup() {
-  const port = process.env.PGPORT ?? "54329";
-  let url = process.env.TEST_DATABASE_URL;
-  if (!url) {
-    execFileSync("bash", [path.join(root, "docker-free-db-scripts/start.sh"), "postgres"], {
-      stdio: ["ignore", "ignore", "inherit"],
-      env: { ...process.env, PGPORT: port },
-    });
-    const admin = new pg.Client({ connectionString: `postgres://app@127.0.0.1:${port}/postgres` });
-    await admin.connect();
-    await admin.query("DROP DATABASE IF EXISTS ropewalk_test WITH (FORCE)");
-    await admin.query("CREATE DATABASE ropewalk_test");
-    await admin.end();
-    url = `postgres://app@127.0.0.1:${port}/ropewalk_test`;
+  if (process.env.TEST_DATABASE_URL) {
+    const { pool, db } = createDb(process.env.TEST_DATABASE_URL, 1);
+    await runMigrations(db);
+    await pool.end();
+    return;
   }
+  const port = process.env.PGPORT ?? "54329";
+  execFileSync("bash", [path.join(root, "docker-free-db-scripts/start.sh"), "postgres"], {
+    stdio: ["ignore", "ignore", "inherit"],
+    env: { ...process.env, PGPORT: port },
+  });
+  const name = `ropewalk_test_${process.pid}`;
+  const adminUrl = `postgres://app@127.0.0.1:${port}/postgres`;
+  const admin = new pg.Client({ connectionString: adminUrl });
+  await admin.connect();
+  await admin.query(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`);
+  await admin.query(`CREATE DATABASE ${name}`);
+  await admin.end();
+  const url = `postgres://app@127.0.0.1:${port}/${name}`;
   const { pool, db } = createDb(url, 1);
   await runMigrations(db);
   await pool.end();
   process.env.TEST_DATABASE_URL = url;
+
+  return async () => {
+    const c = new pg.Client({ connectionString: adminUrl });
+    await c.connect();
+    await c.query(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`);
+    await c.end();
+  };
 }
