@@ -127,13 +127,21 @@ export const resolvedAnalysisRequestSchema = z.object({ model: modelShapeSchema,
   .superRefine((r, ctx) => modelDependentIssues(r.model, r.targetContext, r.methods).forEach((i) => ctx.addIssue({ code: "custom", ...i })));
 export type ResolvedAnalysisRequest = z.infer<typeof resolvedAnalysisRequestSchema>;
 
+export type ModelRef = z.infer<typeof modelRefSchema>;
+
 /**
- * The HTTP request: an inline model shape or a stored model's id. When the shape fails only on value checks,
- * zod reports the shape's own fields (model.headDim …); model-dependent rules for { modelId } run after lookup.
+ * An inline model shape or a stored model's id, chosen by the presence of `modelId`, so that every bad value
+ * is reported on its own field (model.ropeTheta …) rather than as one failed union.
  */
-const modelInputSchema = z.union([modelRefSchema, modelShapeSchema], {
-  error: "give { modelId } or a model shape { headDim, ropeTheta, trainedContext, partialRotaryFactor?, … }",
+export const modelInputSchema = z.unknown().transform((value, ctx): ModelRef | ModelShape => {
+  const byId = typeof value === "object" && value !== null && "modelId" in value;
+  const parsed = (byId ? modelRefSchema : modelShapeSchema).safeParse(value);
+  if (parsed.success) return parsed.data;
+  for (const issue of parsed.error.issues) ctx.addIssue({ code: "custom", path: issue.path, message: issue.message });
+  return z.NEVER;
 });
+
+/** The HTTP request. Model-dependent rules run here for an inline shape, and after lookup for { modelId }. */
 export const analysisRequestSchema = z.object({ model: modelInputSchema, ...requestFields })
   .superRefine((r, ctx) => {
     if ("modelId" in r.model) return;

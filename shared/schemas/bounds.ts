@@ -9,7 +9,7 @@ import { lengthSchema, MAX_LENGTH } from "./analysis";
 
 export const DEFAULT_SCAN_LIMIT = 2 ** 24;
 export const DEFAULT_GRID = { from: 1e3, to: 1e10, perDecade: 100 } as const;
-const MAX_CANDIDATES = 100_000;
+const MAX_CANDIDATES = 10_000;
 
 const rotaryDimSchema = z.number().int().positive().max(8192).refine((d) => d % 2 === 0, "the rotary dimension must be even");
 const baseValue = z.number().gt(1, "the base must exceed 1").max(1e15);
