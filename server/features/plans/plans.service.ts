@@ -5,7 +5,7 @@ import { recordAudit } from "../audit/audit.repo";
 import { findModelRow } from "../models/models.repo";
 import {
   revisionInputSchema,
-  type CreatePlanRequest, type RevisionValues, type SessionUser, type UpdateRevisionRequest, type planListQuerySchema,
+  type CreatePlanRequest, type RevisionValues, type SessionUser, type planListQuerySchema,
 } from "../../../shared/schemas";
 import type { z } from "zod";
 import * as repo from "./plans.repo";

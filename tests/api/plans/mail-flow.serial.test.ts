@@ -1,0 +1,70 @@
+// Serial: other files deliver every due row to their own sinks; alone, this file's sink sees its plan's mail.
+import net from "node:net";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { makeTestApp } from "../../setup/app";
+import { testDb } from "../../setup/db";
+import { createPlan, createProfile, post } from "../../setup/plans";
+import { deliverDueMail } from "../../../server/mail/outbox";
+import { startMailSink, type MailSink } from "../../../server/mail/sink";
+
+const { pool, db } = testDb();
+const freePort = () => new Promise<number>((resolve) => {
+  const s = net.createServer().listen(0, "127.0.0.1", () => {
+    const { port } = s.address() as net.AddressInfo;
+    s.close(() => resolve(port));
+  });
+});
+let port: number;
+let sink: MailSink | undefined;
+let app: ReturnType<typeof makeTestApp>;
+beforeAll(async () => {
+  port = await freePort();
+  app = makeTestApp({ smtpUrl: `smtp://127.0.0.1:${port}`, mailRetryBaseMs: 0 });
+});
+afterAll(async () => sink?.close());
+
+const received = async (address: string, subjectPart: string) =>
+  (await pool.query("SELECT subject, text FROM mail_sink_messages WHERE $1 = ANY(to_addresses) AND subject LIKE $2", [address, `%${subjectPart}%`])).rows;
+
+describe("plan workflow mail through the local SMTP sink", () => {
+  it("sink down during submit: the submit commits, the mail arrives once after the sink returns; every message type is sent", async () => {
+    const { agentAs } = app;
+    const researcher = await agentAs(["researcher"]);
+    const approver = await agentAs(["approver"]);
+    const infra = await agentAs(["infra"]);
+    const model = await createProfile(researcher);
+    const plan = await createPlan(researcher, model.id, { title: `Mail flow ${Date.now()}` });
+    const base = `/api/plans/${plan.id}/revisions/1`;
+
+    // No sink listening: the state change still commits.
+    await post(researcher, `${base}/submit`).expect(200);
+    const down = await deliverDueMail(app.deps);
+    expect(down.sent).toBe(0);
+    const pending = await pool.query("SELECT status, attempts, last_error FROM mail_outbox WHERE kind = 'plan.review_requested' AND $1 = ANY(to_addresses)", [approver.user!.email]);
+    expect(pending.rows).toHaveLength(1);
+    expect(pending.rows[0]).toMatchObject({ status: "pending", attempts: 1 });
+    expect(pending.rows[0].last_error).toBeTruthy();
+
+    sink = await startMailSink({ db, port });
+    await deliverDueMail(app.deps);
+    await deliverDueMail(app.deps);
+    const review = await received(approver.user!.email, "");
+    expect(review.filter((m) => m.text.includes(`/plans/${plan.id}`))).toHaveLength(1);
+
+    // Changes requested → author; then a new revision approved → author and infra.
+    await post(approver, `${base}/decisions`, { decision: "request_changes", comment: "raise stage 1 batch" }).expect(200);
+    await post(researcher, `/api/plans/${plan.id}/revisions`).expect(201);
+    await post(researcher, `/api/plans/${plan.id}/revisions/2/submit`).expect(200);
+    await post(approver, `/api/plans/${plan.id}/revisions/2/decisions`, { decision: "approve" }).expect(200);
+    await deliverDueMail(app.deps);
+    const toAuthor = (await received(researcher.user!.email, "")).filter((m) => m.text.includes(`/plans/${plan.id}`));
+    expect(toAuthor).toHaveLength(2);
+    expect(toAuthor.some((m) => m.text.includes("raise stage 1 batch"))).toBe(true);
+    const toInfra = (await received(infra.user!.email, "")).filter((m) => m.text.includes(`/plans/${plan.id}`));
+    expect(toInfra).toHaveLength(1);
+    expect(toInfra[0].text.replace(/\s+/g, " ")).toMatch(/long-context evaluations of the tuned model/i);
+    // Nothing is sent twice.
+    await deliverDueMail(app.deps);
+    expect((await received(approver.user!.email, "")).filter((m) => m.text.includes(`/plans/${plan.id}`))).toHaveLength(2); // review of r1 and r2
+  });
+});
