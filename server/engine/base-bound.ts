@@ -59,13 +59,18 @@ export function scanSupportedLength(invFreq: ArrayLike<number>, maxLength: numbe
   if (maxLength <= 0) return none;
   let K = 0;
   while (2 ** (K + 1) <= maxLength) K++;
+  // rotation tables by 2^k, filled only up to the largest jump used (short scans never pay for long jumps)
   const powCos = new Float64Array((K + 1) * n), powSin = new Float64Array((K + 1) * n);
-  for (let k = 0; k <= K; k++) {
-    for (let i = 0; i < n; i++) {
-      powCos[k * n + i] = Math.cos(2 ** k * invFreq[i]);
-      powSin[k * n + i] = Math.sin(2 ** k * invFreq[i]);
+  let builtK = -1;
+  const buildUpTo = (k: number) => {
+    for (; builtK < k; builtK++) {
+      const o = (builtK + 1) * n, h = 2 ** (builtK + 1);
+      for (let i = 0; i < n; i++) {
+        powCos[o + i] = Math.cos(h * invFreq[i]);
+        powSin[o + i] = Math.sin(h * invFreq[i]);
+      }
     }
-  }
+  };
   const tailSq = new Float64Array(n + 1); // Σ_{i≥p} θ_i²
   let sumTheta = 0;
   for (let i = n - 1; i >= 0; i--) {
@@ -94,6 +99,7 @@ export function scanSupportedLength(invFreq: ArrayLike<number>, maxLength: numbe
     const step = Math.floor(safe) + 1; // positions m+1 … m+step−1 are proven non-negative
     if (step >= maxLength - m) return none;
     const k = Math.min(K, 31 - Math.clz32(step));
+    if (k > builtK) buildUpTo(k);
     const o = k * n;
     for (let i = 0; i < n; i++) {
       const ci = c[i], si = s[i], a = powCos[o + i], b = powSin[o + i];

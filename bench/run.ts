@@ -1,0 +1,6 @@
+// `npm run bench`: each bench file exports one run function; add new ones to this list.
+import { runEngineBench } from "./engine.bench";
+import { runBudgetBench } from "./budget.bench";
+
+await runEngineBench();
+await runBudgetBench();
