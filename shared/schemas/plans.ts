@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { bandsSchema, configPatchSchema, lengthSchema, methodParamsSchema } from "./analysis";
+import { budgetClusterSchema, budgetSettingsFields } from "./budget";
 
 export const REVISION_STATES = ["draft", "in_review", "approved", "changes_requested", "superseded"] as const;
 export const revisionStateSchema = z.enum(REVISION_STATES);
@@ -31,6 +32,10 @@ export const acceptanceCriterionSchema = z.strictObject({
 });
 export type AcceptanceCriterion = z.infer<typeof acceptanceCriterionSchema>;
 
+/** A plan's budget sheet inputs; stages come from the plan's own stages, the model from its snapshot. */
+export const planBudgetSchema = z.strictObject({ cluster: budgetClusterSchema, ...budgetSettingsFields });
+export type PlanBudgetInput = z.input<typeof planBudgetSchema>;
+
 export const MAX_STAGES = 32;
 const revisionFields = {
   targetContext: lengthSchema,
@@ -39,6 +44,7 @@ const revisionFields = {
   stages: z.array(stageSchema).max(MAX_STAGES, `at most ${MAX_STAGES} stages`).default([]),
   acceptance: z.array(acceptanceCriterionSchema).max(50).default([]),
   notes: text(20_000).default(""),
+  budget: planBudgetSchema.optional(),
 };
 export const revisionInputSchema = z.strictObject(revisionFields);
 export type RevisionInput = z.input<typeof revisionInputSchema>;
@@ -62,6 +68,7 @@ export const updateRevisionRequestSchema = z.strictObject({
   stages: z.array(stageSchema).max(MAX_STAGES, `at most ${MAX_STAGES} stages`).optional(),
   acceptance: z.array(acceptanceCriterionSchema).max(50).optional(),
   notes: text(20_000).optional(),
+  budget: planBudgetSchema.nullable().optional(),
 });
 export type UpdateRevisionRequest = z.input<typeof updateRevisionRequestSchema>;
 

@@ -43,7 +43,27 @@ export function diffContents(a: RevisionContent, b: RevisionContent) {
   const flags: FlagChange[] = [];
   flagChanges("final", a.results.final, b.results.final, flags);
   a.results.stages.forEach((s, i) => flagChanges(`stages.${i}`, s, b.results.stages[i], flags));
-  const budget: FieldChange[] = [];
-  changesOf("budget", a.budget, b.budget, budget);
-  return { fields, stages, flags, budget };
+  return { fields, stages, flags, budget: budgetDiff(a, b) };
+}
+
+type Costed = { estimate: { stages: { cost: number; acceleratorHours: number; tokens: number }[]; totals: { cost: number; acceleratorHours: number } } };
+const costed = (c: RevisionContent) => (c.budget && "estimate" in c.budget ? (c.budget as Costed) : undefined);
+
+/** Which stage costs more, and by how much (b minus a). */
+function budgetDiff(a: RevisionContent, b: RevisionContent) {
+  const inputs: FieldChange[] = [];
+  changesOf("budget.inputs", a.budget?.inputs, b.budget?.inputs, inputs);
+  const ea = costed(a);
+  const eb = costed(b);
+  if (!ea || !eb) return { inputs, stages: [], totals: null };
+  const n = Math.max(ea.estimate.stages.length, eb.estimate.stages.length);
+  const stages = Array.from({ length: n }, (_, i) => {
+    const x = ea.estimate.stages[i];
+    const y = eb.estimate.stages[i];
+    return { index: i, costFrom: x?.cost ?? null, costTo: y?.cost ?? null, costDelta: (y?.cost ?? 0) - (x?.cost ?? 0), hoursDelta: (y?.acceleratorHours ?? 0) - (x?.acceleratorHours ?? 0) };
+  });
+  return {
+    inputs, stages,
+    totals: { costFrom: ea.estimate.totals.cost, costTo: eb.estimate.totals.cost, costDelta: eb.estimate.totals.cost - ea.estimate.totals.cost },
+  };
 }

@@ -11,6 +11,7 @@ import * as workflow from "./workflow.service";
 import { exportRevision, verifyRevision } from "./export.service";
 import { diffContents } from "./diff";
 import { renderReport } from "./report";
+import { budgetSection } from "./report-budget";
 import { reviewQueue } from "./plans.list";
 import { minRequiredApprovals } from "./plans.repo";
 import type { RevisionContent } from "./revision-content";
@@ -107,6 +108,7 @@ export function plansRouter(deps: AppDeps) {
     const html = renderReport({
       plan: { id, title: plan.title, purpose: plan.purpose, owner: plan.owner ?? undefined },
       revision: rev, content: rev.content as RevisionContent, verified: check.ok, decisions,
+      budgetHtml: budgetSection(rev.content as RevisionContent),
     });
     if (req.query.download) res.attachment(`ropewalk-plan-${id}-r${n}-report.html`);
     res.type("html").send(html);

@@ -10,7 +10,17 @@ import {
 import type { z } from "zod";
 import * as repo from "./plans.repo";
 import { listPlanPage } from "./plans.list";
-import { buildContent, hashContent, snapshotOf, type RevisionContent } from "./revision-content";
+import { buildContent, hashContent, snapshotOf, type ModelSnapshot, type RevisionContent } from "./revision-content";
+import { budgetPart } from "./budget-part";
+
+/** Engine results and budget figures for revision values; what gets hashed. */
+export async function makeContent(ex: Executor, model: ModelSnapshot, values: RevisionValues): Promise<RevisionContent> {
+  const content = buildContent(model, values);
+  const budget = await budgetPart(ex, model, values);
+  if (budget) content.budget = budget;
+  else delete content.budget;
+  return content;
+}
 
 export async function effectiveApprovals(ex: Executor, plan: repo.PlanRow) {
   return Math.max(plan.requiredApprovals, await repo.minRequiredApprovals(ex));
@@ -27,14 +37,15 @@ export async function mustRevision(ex: Executor, planId: number, n: number, lock
   return rev;
 }
 
-const revisionValues = (c: RevisionContent): RevisionValues => ({
+export const revisionValues = (c: RevisionContent): RevisionValues => ({
   targetContext: c.targetContext, method: c.method, bands: c.bands, stages: c.stages, acceptance: c.acceptance, notes: c.notes,
+  ...(c.budget ? { budget: (c.budget as { inputs: RevisionValues["budget"] }).inputs } : {}),
 });
 
 export async function createPlan(deps: AppDeps, actor: SessionUser, input: z.output<typeof import("../../../shared/schemas").createPlanRequestSchema>) {
   const model = await findModelRow(deps.db, input.modelId);
   if (!model) throw new Invalid("no such model profile", { modelId: "not found" });
-  const content = buildContent(snapshotOf(model), input.revision);
+  const content = await makeContent(deps.db, snapshotOf(model), input.revision);
   return deps.db.transaction(async (tx) => {
     const min = await repo.minRequiredApprovals(tx);
     const required = input.requiredApprovals ?? min;
@@ -62,7 +73,7 @@ export async function newRevision(deps: AppDeps, actor: SessionUser, planId: num
     const model = await findModelRow(tx, plan.modelId);
     if (!model) throw new Conflict("the plan's model profile is gone");
     // The new draft takes the latest content and the profile as it is now.
-    const content = buildContent(snapshotOf(model), revisionValues(latest.content as RevisionContent));
+    const content = await makeContent(tx, snapshotOf(model), revisionValues(latest.content as RevisionContent));
     const rev = await repo.insertRevision(tx, {
       planId, number: latest.number + 1, authorId: actor.id, content, contentHash: hashContent(content), engineVersion: content.engineVersion,
     });
@@ -83,8 +94,10 @@ export async function updateDraft(deps: AppDeps, actor: SessionUser, planId: num
     }
     const old = rev.content as RevisionContent;
     const { version: _v, ...changes } = input;
-    const values = revisionInputSchema.parse({ ...revisionValues(old), ...changes });
-    const content = buildContent(old.model, values);
+    const merged: Record<string, unknown> = { ...revisionValues(old), ...changes };
+    if (changes.budget === null) delete merged.budget;
+    const values = revisionInputSchema.parse(merged);
+    const content = await makeContent(tx, old.model, values);
     const row = await repo.updateRevision(tx, rev.id, { content, contentHash: hashContent(content), engineVersion: content.engineVersion, version: rev.version + 1 });
     await repo.touchPlan(tx, planId);
     await recordAudit(tx, { actorId: actor.id, action: "revision.edited", subjectType: "plan", subjectId: planId, detail: { revision: n, version: row.version, fields: Object.keys(changes) } });

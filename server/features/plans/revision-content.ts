@@ -7,6 +7,7 @@ import {
   type MethodParams, type ModelShape, type RevisionValues, type StageResult, type Bands,
 } from "../../../shared/schemas";
 import type { ModelRow } from "../models/models.repo";
+import type { BudgetPart } from "./budget-part";
 
 /** The profile values a revision freezes (later edits of the profile do not change a revision). */
 export type ModelSnapshot = {
@@ -21,7 +22,7 @@ export const snapshotOf = (m: ModelRow): ModelSnapshot => ({
   parameters: m.parameters, parametersTotal: m.parametersTotal, bytesPerElement: m.bytesPerElement,
 });
 
-export type RevisionContent = RevisionValues & {
+export type RevisionContent = Omit<RevisionValues, "budget"> & {
   engineVersion: string;
   model: ModelSnapshot;
   results: {
@@ -32,8 +33,8 @@ export type RevisionContent = RevisionValues & {
     final: StageResult;
     stages: StageResult[];
   };
-  /** Budget figures join here when the budget sheet is part of the plan. */
-  budget?: unknown;
+  /** The budget sheet's figures, frozen with the catalog numbers used. */
+  budget?: BudgetPart;
 };
 
 const engineShape = (m: ModelSnapshot): ModelShape => ({
@@ -81,8 +82,9 @@ function stageResult(model: ModelSnapshot, target: number, method: MethodParams,
 export function buildContent(model: ModelSnapshot, v: RevisionValues): RevisionContent {
   checkAgainstModel(model, v);
   const final = stageResult(model, v.targetContext, v.method, v.bands);
+  const { budget: _inputs, ...rest } = v;
   return {
-    ...v,
+    ...rest,
     engineVersion: ENGINE_VERSION,
     model,
     results: {

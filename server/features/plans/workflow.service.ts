@@ -4,7 +4,8 @@ import { hasRole } from "../../http/auth";
 import { recordAudit } from "../audit/audit.repo";
 import type { SessionUser } from "../../../shared/schemas";
 import * as repo from "./plans.repo";
-import { effectiveApprovals, mustPlan, mustRevision } from "./plans.service";
+import { effectiveApprovals, makeContent, mustPlan, mustRevision, revisionValues } from "./plans.service";
+import { hashContent, type RevisionContent } from "./revision-content";
 import { notify } from "./notify";
 
 const wrongState = (n: number, state: string, wanted: string) =>
@@ -17,7 +18,12 @@ export async function submit(deps: AppDeps, actor: SessionUser, planId: number, 
     const rev = await mustRevision(tx, planId, n, true);
     if (rev.authorId !== actor.id) throw new Forbidden("only the revision's author submits it");
     if (rev.state !== "draft") throw wrongState(n, rev.state, "draft");
-    const row = await repo.updateRevision(tx, rev.id, { state: "in_review", round: rev.round + 1, submittedAt: new Date() });
+    // The budget is frozen at submission with the catalog as it is now; the hash covers it.
+    let content = rev.content as RevisionContent;
+    if (content.budget) content = await makeContent(tx, content.model, revisionValues(content));
+    const row = await repo.updateRevision(tx, rev.id, {
+      state: "in_review", round: rev.round + 1, submittedAt: new Date(), content, contentHash: hashContent(content),
+    });
     await repo.touchPlan(tx, planId);
     await recordAudit(tx, { actorId: actor.id, action: "revision.submitted", subjectType: "plan", subjectId: planId, detail: { revision: n, hash: row.contentHash, round: row.round } });
     const approvers = (await repo.activeUsersWithRole(tx, "approver")).filter((u) => u.id !== actor.id);

@@ -38,7 +38,7 @@ describe("plan workflow mail through the local SMTP sink", () => {
 
     // No sink listening: the state change still commits.
     await post(researcher, `${base}/submit`).expect(200);
-    const down = await deliverDueMail(app.deps);
+    const down = await deliverDueMail(app.deps, { limit: 5000 });
     expect(down.sent).toBe(0);
     const pending = await pool.query("SELECT status, attempts, last_error FROM mail_outbox WHERE kind = 'plan.review_requested' AND $1 = ANY(to_addresses)", [approver.user!.email]);
     expect(pending.rows).toHaveLength(1);
@@ -46,8 +46,8 @@ describe("plan workflow mail through the local SMTP sink", () => {
     expect(pending.rows[0].last_error).toBeTruthy();
 
     sink = await startMailSink({ db, port });
-    await deliverDueMail(app.deps);
-    await deliverDueMail(app.deps);
+    await deliverDueMail(app.deps, { limit: 5000 });
+    await deliverDueMail(app.deps, { limit: 5000 });
     const review = await received(approver.user!.email, "");
     expect(review.filter((m) => m.text.includes(`/plans/${plan.id}`))).toHaveLength(1);
 
@@ -56,7 +56,7 @@ describe("plan workflow mail through the local SMTP sink", () => {
     await post(researcher, `/api/plans/${plan.id}/revisions`).expect(201);
     await post(researcher, `/api/plans/${plan.id}/revisions/2/submit`).expect(200);
     await post(approver, `/api/plans/${plan.id}/revisions/2/decisions`, { decision: "approve" }).expect(200);
-    await deliverDueMail(app.deps);
+    await deliverDueMail(app.deps, { limit: 5000 });
     const toAuthor = (await received(researcher.user!.email, "")).filter((m) => m.text.includes(`/plans/${plan.id}`));
     expect(toAuthor).toHaveLength(2);
     expect(toAuthor.some((m) => m.text.includes("raise stage 1 batch"))).toBe(true);
@@ -64,7 +64,7 @@ describe("plan workflow mail through the local SMTP sink", () => {
     expect(toInfra).toHaveLength(1);
     expect(toInfra[0].text.replace(/\s+/g, " ")).toMatch(/long-context evaluations of the tuned model/i);
     // Nothing is sent twice.
-    await deliverDueMail(app.deps);
+    await deliverDueMail(app.deps, { limit: 5000 });
     expect((await received(approver.user!.email, "")).filter((m) => m.text.includes(`/plans/${plan.id}`))).toHaveLength(2); // review of r1 and r2
   });
 });

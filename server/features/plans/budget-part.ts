@@ -1,0 +1,43 @@
+import type { Executor } from "../../db/client";
+import { resolveAndEstimate } from "../budgets/budgets.service";
+import { HttpError, Invalid } from "../../http/errors";
+import { parseOr400 } from "../../http/validate";
+import { budgetEstimateRequestSchema } from "../../../shared/schemas/budget";
+import type { RevisionValues } from "../../../shared/schemas";
+import type { ModelSnapshot } from "./revision-content";
+
+export type BudgetPart =
+  | { inputs: NonNullable<RevisionValues["budget"]>; cluster: { name: string | null; peakFlops: number; memoryBytes: number; pricePerHour: number }; estimate: Omit<Awaited<ReturnType<typeof resolveAndEstimate>>, "resolved"> }
+  | { inputs: NonNullable<RevisionValues["budget"]>; skipped: string };
+
+/**
+ * The budget figures of a revision: the plan's stages on the chosen cluster, with the catalog's numbers copied in,
+ * so a later price change in the catalog never alters a submitted revision.
+ */
+export async function budgetPart(ex: Executor, model: ModelSnapshot, v: RevisionValues): Promise<BudgetPart | undefined> {
+  if (!v.budget) return undefined;
+  if (!v.stages.length) return { inputs: v.budget, skipped: "the plan has no stages to cost" };
+  const request = {
+    ...v.budget,
+    model: {
+      parameters: Math.round(model.parameters), layers: model.layers, attentionHeads: model.attentionHeads, kvHeads: model.kvHeads,
+      headDim: model.headDim, hiddenSize: model.hiddenSize, bytesPerElement: model.bytesPerElement,
+    },
+    trainedContext: model.trainedContext,
+    targetContext: Math.max(v.targetContext, ...v.stages.map((s) => s.sequenceLength)),
+    stages: v.stages.map((s) => ({ sequenceLength: s.sequenceLength, steps: s.steps, globalBatch: s.globalBatch })),
+  };
+  let out;
+  try {
+    out = await resolveAndEstimate(ex, parseOr400(budgetEstimateRequestSchema, request, "budget"));
+  } catch (e) {
+    // Name the plan's fields: budget.cluster.acceleratorId, budget.sequenceSharding, stages.N.…
+    if (e instanceof HttpError && e.status === 400) {
+      const fields = Object.fromEntries(Object.entries(e.fields ?? {}).map(([k, m]) => [k.startsWith("stages.") ? k : `budget.${k}`, m]));
+      throw new Invalid(`the budget sheet is not valid: ${Object.keys(fields).join(", ")}`, fields);
+    }
+    throw e;
+  }
+  const { resolved, ...estimate } = out;
+  return { inputs: v.budget, cluster: { name: resolved.acceleratorName, ...resolved.cluster }, estimate };
+}
