@@ -15,6 +15,8 @@ import { plansRouter } from "./features/plans/plans.router";
 import { tokensRouter } from "./features/tokens/tokens.router";
 import { auditRouter } from "./features/audit/audit.router";
 import { mailRouter } from "./features/mail/mail.router";
+import { analysesRouter } from "./features/analyses/analyses.router";
+import { boundsRouter } from "./features/bounds/bounds.router";
 import { acceleratorsRouter, budgetsRouter } from "./features/budgets/budgets.router";
 import { bearerAuth, unlessBearer } from "./http/bearer";
 
@@ -44,6 +46,8 @@ export function createApp(deps: AppDeps) {
   api.use("/auth", authRouter(deps));
   api.use("/users", usersRouter(deps));
   api.use("/models", modelsRouter(deps));
+  api.use("/analyses", analysesRouter(deps));
+  api.use("/bounds", boundsRouter(deps));
   api.use("/plans", plansRouter(deps));
   api.use("/tokens", tokensRouter(deps));
   api.use("/audit", auditRouter(deps));
