@@ -13,6 +13,10 @@ export type NavEntry = { id: string; label: string; to: string; audience: Audien
 export const NAV = [
   { id: "home", label: "Home", to: routes.home, audience: "everyone" },
   { id: "users", label: "Users", to: routes.users, audience: ["admin"] },
+  { id: "plans", label: "Plans", to: routes.plans, audience: "everyone" },
+  { id: "review", label: "Review", to: routes.review, audience: ["approver"] },
+  { id: "audit", label: "Audit", to: routes.audit, audience: ["admin", "approver"] },
+  { id: "mail", label: "Mail", to: routes.mail, audience: ["admin"] },
   { id: "profile", label: "Profile", to: routes.profile, audience: "everyone" },
 ] as const satisfies readonly NavEntry[];
 

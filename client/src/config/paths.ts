@@ -6,6 +6,14 @@ export const routes = {
   signIn: "/sign-in",
   users: "/users",
   profile: "/profile",
+  plans: "/plans",
+  planNew: "/plans/new",
+  plan: "/plans/:id",
+  planEdit: "/plans/:id/revisions/:n/edit",
+  planDiff: "/plans/:id/diff",
+  review: "/review",
+  audit: "/audit",
+  mail: "/mail",
 } as const;
 
 /**
@@ -26,9 +34,27 @@ export const paths = {
       : routes.signIn,
   users: () => routes.users,
   profile: () => routes.profile,
+  plans: (search = "") => `${routes.plans}${search}`,
+  planNew: () => routes.planNew,
+  plan: (id: number, revision?: number) => `/plans/${id}${revision ? `?revision=${revision}` : ""}`,
+  planEdit: (id: number, n: number) => `/plans/${id}/revisions/${n}/edit`,
+  planDiff: (id: number, a: number, b: number) => `/plans/${id}/diff?a=${a}&b=${b}`,
+  review: () => routes.review,
+  audit: () => routes.audit,
+  mail: () => routes.mail,
 };
 
 const api = (path: string) => `${env.apiBase}/api${path}`;
+
+type QueryValues = Record<string, string | number | boolean | null | undefined>;
+/** `?a=1&b=x` from the set values only (empty string, null and undefined are left out). */
+function withQuery(path: string, query: QueryValues = {}) {
+  const params = new URLSearchParams();
+  for (const [k, v] of Object.entries(query)) if (v !== undefined && v !== null && v !== "") params.set(k, String(v));
+  const qs = params.toString();
+  return api(qs ? `${path}?${qs}` : path);
+}
+const rev = (id: number, n: number) => `/plans/${id}/revisions/${n}`;
 
 export const apiPaths = {
   session: () => api("/auth/session"),
@@ -37,4 +63,26 @@ export const apiPaths = {
   password: () => api("/auth/password"),
   users: () => api("/users"),
   user: (id: number) => api(`/users/${encodeURIComponent(String(id))}`),
+  // plans workflow, review, tokens, audit and mail
+  plans: (query?: QueryValues) => withQuery("/plans", query),
+  plan: (id: number) => api(`/plans/${id}`),
+  planSettings: () => api("/plans/settings"),
+  reviewQueue: () => api("/plans/review-queue"),
+  planRevisions: (id: number) => api(`/plans/${id}/revisions`),
+  revision: (id: number, n: number) => api(rev(id, n)),
+  revisionSubmit: (id: number, n: number) => api(`${rev(id, n)}/submit`),
+  revisionWithdraw: (id: number, n: number) => api(`${rev(id, n)}/withdraw`),
+  revisionDecisions: (id: number, n: number) => api(`${rev(id, n)}/decisions`),
+  revisionVerify: (id: number, n: number) => api(`${rev(id, n)}/verify`),
+  revisionDiff: (id: number, a: number, b: number) => api(`${rev(id, a)}/diff/${b}`),
+  revisionReport: (id: number, n: number, download = false) => withQuery(`${rev(id, n)}/report`, { download: download ? 1 : undefined }),
+  revisionExport: (id: number, n: number, download = false) => withQuery(`${rev(id, n)}/export`, { download: download ? 1 : undefined }),
+  approvedExport: (id: number, download = false) => withQuery(`/plans/${id}/approved/export`, { download: download ? 1 : undefined }),
+  planModelChoices: () => api("/models"),
+  planAnalysis: () => api("/analyses"),
+  tokens: () => api("/tokens"),
+  token: (id: number) => api(`/tokens/${id}`),
+  audit: (query?: QueryValues) => withQuery("/audit", query),
+  mail: (query?: QueryValues) => withQuery("/mail", query),
+  mailDeliver: () => api("/mail/deliver"),
 };
