@@ -33,7 +33,9 @@ type Method = "GET" | "POST" | "PATCH" | "PUT" | "DELETE";
 
 async function send(method: Method, url: string, body?: unknown, signal?: AbortSignal, retried = false): Promise<Response> {
   const headers: Record<string, string> = { Accept: "application/json" };
-  if (body !== undefined) headers["Content-Type"] = "application/json";
+  // A FormData body (file upload) sets its own multipart Content-Type with the boundary.
+  const isForm = typeof FormData !== "undefined" && body instanceof FormData;
+  if (body !== undefined && !isForm) headers["Content-Type"] = "application/json";
   if (method !== "GET" && csrfToken) headers["X-CSRF-Token"] = csrfToken;
   let res: Response;
   try {
@@ -41,7 +43,7 @@ async function send(method: Method, url: string, body?: unknown, signal?: AbortS
       method,
       headers,
       credentials: "same-origin",
-      body: body === undefined ? undefined : JSON.stringify(body),
+      body: body === undefined ? undefined : isForm ? body : JSON.stringify(body),
       signal,
     });
   } catch (e) {
@@ -95,6 +97,13 @@ export const apiClient = {
   /** A write whose response body is checked against `schema`. */
   async send<S extends z.ZodType>(method: Exclude<Method, "GET">, url: string, body: unknown, schema: S): Promise<z.output<S>> {
     return parseBody(await send(method, url, body), schema);
+  },
+  /**
+   * A POST whose answer is read as a stream (server-sent events). Same CSRF header, retry and error mapping
+   * as every other write; the caller reads `response.body` and aborts `signal` to cancel.
+   */
+  async openStream(url: string, body: unknown, signal: AbortSignal): Promise<Response> {
+    return send("POST", url, body, signal);
   },
   /** A write answered with 204 No Content. */
   async sendNoContent(method: Exclude<Method, "GET">, url: string, body?: unknown): Promise<void> {

@@ -1,0 +1,7 @@
+import { z } from "zod";
+import { modelProfileSchema } from "./models";
+
+/** Bodies of the model-profile routes (server/features/models/models.router.ts). */
+export const modelsListResponseSchema = z.object({ models: z.array(modelProfileSchema) });
+export const modelResponseSchema = z.object({ model: modelProfileSchema });
+export type ModelsListResponse = z.infer<typeof modelsListResponseSchema>;
