@@ -13,6 +13,8 @@ export type NavEntry = { id: string; label: string; to: string; audience: Audien
 export const NAV = [
   { id: "home", label: "Home", to: routes.home, audience: "everyone" },
   { id: "users", label: "Users", to: routes.users, audience: ["admin"] },
+  { id: "models", label: "Profiles", to: routes.models, audience: "everyone" },
+  { id: "workbench", label: "Workbench", to: routes.workbench, audience: "everyone" },
   { id: "plans", label: "Plans", to: routes.plans, audience: "everyone" },
   { id: "review", label: "Review", to: routes.review, audience: ["approver"] },
   { id: "audit", label: "Audit", to: routes.audit, audience: ["admin", "approver"] },

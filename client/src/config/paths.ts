@@ -14,6 +14,11 @@ export const routes = {
   review: "/review",
   audit: "/audit",
   mail: "/mail",
+  models: "/models",
+  modelNew: "/models/new",
+  modelImport: "/models/import",
+  model: "/models/:id",
+  workbench: "/workbench",
 } as const;
 
 /**
@@ -42,6 +47,12 @@ export const paths = {
   review: () => routes.review,
   audit: () => routes.audit,
   mail: () => routes.mail,
+  models: () => routes.models,
+  modelNew: () => routes.modelNew,
+  modelImport: () => routes.modelImport,
+  model: (id: number) => `/models/${id}`,
+  /** `search` is the workbench's own encoded state ("?model=3&target=…"), built by the workbench feature. */
+  workbench: (search = "") => `${routes.workbench}${search}`,
 };
 
 const api = (path: string) => `${env.apiBase}/api${path}`;
@@ -85,4 +96,12 @@ export const apiPaths = {
   audit: (query?: QueryValues) => withQuery("/audit", query),
   mail: (query?: QueryValues) => withQuery("/mail", query),
   mailDeliver: () => api("/mail/deliver"),
+  // model profiles, analyses and base bounds
+  models: () => api("/models"),
+  model: (id: number) => api(`/models/${id}`),
+  modelSource: (id: number) => api(`/models/${id}/source`),
+  modelImport: (save: boolean) => withQuery("/models/import", { save: save ? "true" : undefined }),
+  analyses: () => api("/analyses"),
+  baseBound: () => api("/bounds/base"),
+  baseBoundStream: () => api("/bounds/base/stream"),
 };
