@@ -267,3 +267,37 @@ export const budgetRecipeSchema = z.object({
   summary: z.string(),
 });
 export type BudgetRecipeResponse = z.infer<typeof budgetRecipeSchema>;
+
+// ---- response envelopes (as the routers send them) ----------------------------------------
+
+export const acceleratorListResponseSchema = z.object({ accelerators: z.array(acceleratorSchema) });
+export const acceleratorResponseSchema = z.object({ accelerator: acceleratorSchema });
+
+export const budgetRecipesResponseSchema = z.object({ recipes: z.array(budgetRecipeSchema), caution: z.string() });
+
+/** POST /api/budgets/estimate: the estimate plus the numbers that `modelId` / `acceleratorId` stood for. */
+export const budgetEstimateResultSchema = budgetEstimateSchema.extend({
+  resolved: z.object({
+    model: z.object(modelShapeFields),
+    cluster: clusterSpecSchema,
+    acceleratorName: z.string().nullable(),
+  }),
+});
+export type BudgetEstimateResult = z.infer<typeof budgetEstimateResultSchema>;
+
+/** A plan's budget inputs as stored in a revision (same fields as plans' planBudgetSchema). */
+const storedBudgetInputsSchema = z.object({ cluster: budgetClusterSchema, ...budgetSettingsFields });
+
+/**
+ * `content.budget` of a plan revision: the figures with the catalog numbers copied in at edit time,
+ * or why they were skipped (a plan with no stages).
+ */
+export const revisionBudgetSchema = z.union([
+  z.object({
+    inputs: storedBudgetInputsSchema,
+    cluster: z.object({ name: z.string().nullable(), ...clusterSpecFields }),
+    estimate: budgetEstimateSchema,
+  }),
+  z.object({ inputs: storedBudgetInputsSchema, skipped: z.string() }),
+]);
+export type RevisionBudget = z.infer<typeof revisionBudgetSchema>;

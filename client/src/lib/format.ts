@@ -23,3 +23,63 @@ export function formatDate(iso: string): string {
   const date = new Date(iso);
   return Number.isNaN(date.getTime()) ? iso : dateFormat.format(date);
 }
+
+// ---- figures: sensible precision with the unit beside the number ----
+
+const grouped = new Intl.NumberFormat("en-GB", { maximumFractionDigits: 0 });
+const SHORT_SCALE = [
+  { at: 1e15, suffix: "quadrillion" },
+  { at: 1e12, suffix: "trillion" },
+  { at: 1e9, suffix: "billion" },
+  { at: 1e6, suffix: "million" },
+] as const;
+
+/** Three significant figures, without a trailing ".0" ("1.25", "12.5", "125"). */
+export function sig3(value: number): string {
+  if (!Number.isFinite(value)) return String(value);
+  if (value === 0) return "0";
+  return String(Number(value.toPrecision(3)));
+}
+
+/** 1 234 567 → "1.23 million"; below a million, grouped whole numbers ("65,536"). */
+export function formatCount(value: number): string {
+  const abs = Math.abs(value);
+  for (const { at, suffix } of SHORT_SCALE) if (abs >= at) return `${sig3(value / at)} ${suffix}`;
+  return abs >= 1000 || Number.isInteger(value) ? grouped.format(value) : sig3(value);
+}
+
+/** Scientific notation with a superscript exponent: 3.12e21 → "3.12 × 10²¹". */
+export function formatScientific(value: number): string {
+  if (!Number.isFinite(value) || value === 0) return String(value);
+  const exponent = Math.floor(Math.log10(Math.abs(value)));
+  if (exponent >= -2 && exponent < 4) return sig3(value);
+  const mantissa = Number((value / 10 ** exponent).toPrecision(3));
+  // Rounding 9.995 up gives 10.0: carry into the exponent.
+  const [m, e] = Math.abs(mantissa) >= 10 ? [mantissa / 10, exponent + 1] : [mantissa, exponent];
+  const sup = String(e).replace(/[-0-9]/g, (c) => "⁻⁰¹²³⁴⁵⁶⁷⁸⁹"["-0123456789".indexOf(c)]);
+  return `${sig3(m)} × 10${sup}`;
+}
+
+export const GIB = 2 ** 30;
+/** Bytes as binary units: "74.5 GiB", "512 KiB". */
+export function formatBytes(bytes: number): string {
+  const units = ["bytes", "KiB", "MiB", "GiB", "TiB", "PiB"];
+  let value = bytes;
+  let unit = 0;
+  while (Math.abs(value) >= 1024 && unit < units.length - 1) {
+    value /= 1024;
+    unit += 1;
+  }
+  return unit === 0 ? `${grouped.format(value)} bytes` : `${sig3(value)} ${units[unit]}`;
+}
+
+/** Hours with sensible precision: "0.42 h", "12.3 h", "1,234 h". */
+export function formatHours(hours: number): string {
+  return `${hours >= 1000 ? grouped.format(hours) : sig3(hours)} h`;
+}
+
+/** An amount of money in the workspace's currency (no symbol: the catalog does not record one). */
+export function formatMoney(amount: number): string {
+  if (amount >= 100) return grouped.format(amount);
+  return amount.toFixed(2);
+}
