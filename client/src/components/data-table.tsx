@@ -19,12 +19,14 @@ type DataTableProps<T> = {
   getRowId?: (row: T) => string;
   initialSorting?: SortingState;
   emptyText?: string;
+  /** Placeholder of the filter box; say what the text columns hold. */
+  filterPlaceholder?: string;
 };
 
 const SORT_MARK = { asc: "▲", desc: "▼" } as const;
 
 /** Generic table: click a header to sort, type to filter across every text column. */
-export function DataTable<T>({ data, columns, caption, getRowId, initialSorting = [], emptyText = "Nothing here yet." }: DataTableProps<T>) {
+export function DataTable<T>({ data, columns, caption, getRowId, initialSorting = [], emptyText = "Nothing here yet.", filterPlaceholder = "Type a name, e-mail or role" }: DataTableProps<T>) {
   const [sorting, setSorting] = useState<SortingState>(initialSorting);
   const [filter, setFilter] = useState("");
   // eslint-disable-next-line react-hooks/incompatible-library -- TanStack Table returns fresh functions by design
@@ -50,7 +52,7 @@ export function DataTable<T>({ data, columns, caption, getRowId, initialSorting 
           type="search"
           value={filter}
           onChange={(e) => setFilter(e.target.value)}
-          placeholder="Type a name, e-mail or role"
+          placeholder={filterPlaceholder}
           className="rounded-md border border-rule-strong bg-white/70 px-3 py-2 text-body font-normal focus:border-seaglass focus:outline-2 focus:outline-seaglass/30"
         />
       </label>
