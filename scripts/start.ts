@@ -91,7 +91,7 @@ async function main() {
   const { pool, db } = createDb(config.databaseUrl, 2);
   await runMigrations(db);
   const seed = (process.env.RW_SEED ?? (config.env === "production" ? "false" : "true")) === "true";
-  if (seed) await seedDemo(db);
+  if (seed) await seedDemo({ config, pool, db });
   await pool.end();
   buildClientIfStale(config.clientDir);
 

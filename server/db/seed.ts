@@ -3,10 +3,13 @@ import { fileURLToPath } from "node:url";
 import bcrypt from "bcryptjs";
 import { sql } from "drizzle-orm";
 import type { Db } from "./client";
+import type { AppDeps } from "../deps";
 import { users } from "./schema";
 import { recordAudit } from "../features/audit/audit.repo";
 import type { Role } from "../../shared/schemas";
 import { seedModelProfiles } from "../features/models/models.seed";
+import { seedAccelerators } from "../features/budgets/accelerators.seed";
+import { seedPlans } from "../features/plans/plans.seed";
 
 /** The demo scenario: Saltmarsh Applied Language Lab, a fictional lab stretching its own fictional model families. */
 export const DEMO_PASSWORD = "ropewalk-demo";
@@ -20,9 +23,13 @@ export const DEMO_USERS: { email: string; name: string; roles: Role[] }[] = [
   { email: "viewer@ropewalk.test", name: "Jonah Pell", roles: ["viewer"] },
 ];
 
-export type SeedStep = (db: Db, people: Map<string, number>) => Promise<void>;
-/** Later features append their demo data here; every step must be idempotent. */
-export const SEED_STEPS: SeedStep[] = [seedModelProfiles];
+export type SeedStep = (deps: AppDeps, people: Map<string, number>) => Promise<void>;
+/** Each feature's demo data, in order; every step must be idempotent. */
+export const SEED_STEPS: SeedStep[] = [
+  (deps, people) => seedModelProfiles(deps.db, people),
+  (deps, people) => seedAccelerators(deps.db, people),
+  seedPlans,
+];
 
 async function seedUsers(db: Db) {
   const people = new Map<string, number>();
@@ -42,16 +49,17 @@ async function seedUsers(db: Db) {
   return people;
 }
 
-export async function seedDemo(db: Db) {
-  const people = await seedUsers(db);
-  for (const step of SEED_STEPS) await step(db, people);
+export async function seedDemo(deps: AppDeps) {
+  const people = await seedUsers(deps.db);
+  for (const step of SEED_STEPS) await step(deps, people);
 }
 
 if (process.argv[1] && fileURLToPath(import.meta.url) === path.resolve(process.argv[1])) {
   const { loadConfig } = await import("../config");
   const { createDb } = await import("./client");
-  const { pool, db } = createDb(loadConfig().databaseUrl, 2);
-  await seedDemo(db);
+  const config = loadConfig();
+  const { pool, db } = createDb(config.databaseUrl, 2);
+  await seedDemo({ config, pool, db });
   await pool.end();
   console.log("demo data seeded");
 }
