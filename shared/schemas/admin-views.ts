@@ -1,0 +1,44 @@
+import { z } from "zod";
+import { auditEventSchema } from "./audit";
+import { apiTokenSchema } from "./tokens";
+
+/*
+ * Response bodies that had no schema: GET /api/tokens (server/features/tokens/tokens.router.ts),
+ * GET /api/audit (server/features/audit/audit.router.ts) and the admin mail views (server/features/mail/mail.service.ts).
+ */
+
+export const tokenListResponseSchema = z.object({ tokens: z.array(apiTokenSchema) });
+
+export const auditPageSchema = z.object({
+  total: z.number(),
+  page: z.number(),
+  pageSize: z.number(),
+  events: z.array(auditEventSchema),
+});
+export type AuditPage = z.infer<typeof auditPageSchema>;
+
+export const sinkMessageSchema = z.object({
+  id: z.number(),
+  receivedAt: z.string(),
+  from: z.string(),
+  to: z.array(z.string()),
+  subject: z.string(),
+  text: z.string(),
+});
+export type SinkMessage = z.infer<typeof sinkMessageSchema>;
+
+export const outboxRowSchema = z.object({
+  id: z.number(),
+  kind: z.string(),
+  to: z.array(z.string()),
+  subject: z.string(),
+  status: z.string(),
+  attempts: z.number(),
+  lastError: z.string().nullable(),
+  createdAt: z.string(),
+  sentAt: z.string().nullable(),
+});
+export type OutboxRow = z.infer<typeof outboxRowSchema>;
+
+export const mailViewSchema = z.object({ messages: z.array(sinkMessageSchema), outbox: z.array(outboxRowSchema) });
+export const deliveryResultSchema = z.object({ sent: z.number(), failed: z.number() });

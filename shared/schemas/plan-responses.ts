@@ -1,0 +1,192 @@
+import { z } from "zod";
+import { bandsSchema, configPatchSchema, methodParamsSchema } from "./analysis";
+import { revisionBudgetSchema } from "./budget";
+import {
+  acceptanceCriterionSchema, decisionSchema, revisionStateSchema, stageResultSchema, stageSchema, userRefSchema,
+} from "./plans";
+
+/*
+ * Response bodies of /api/plans, as server/features/plans/{plans.router,plans.service,export.service,diff,workflow.service}.ts
+ * write them. Requests are in plans.ts.
+ */
+
+const ref = z.object({ id: z.number(), name: z.string() });
+
+export const planListItemSchema = z.object({
+  id: z.number(),
+  title: z.string(),
+  purpose: z.string(),
+  owner: ref,
+  model: ref,
+  requiredApprovals: z.number(),
+  state: revisionStateSchema,
+  latestRevision: z.number(),
+  approvedRevision: z.number().nullable(),
+  createdAt: z.string(),
+  updatedAt: z.string(),
+});
+export type PlanListItem = z.infer<typeof planListItemSchema>;
+
+export const planListResponseSchema = z.object({
+  total: z.number(),
+  page: z.number(),
+  pageSize: z.number(),
+  plans: z.array(planListItemSchema),
+});
+export type PlanListResponse = z.infer<typeof planListResponseSchema>;
+
+export const revisionSummarySchema = z.object({
+  number: z.number(),
+  state: revisionStateSchema,
+  version: z.number(),
+  round: z.number(),
+  contentHash: z.string(),
+  engineVersion: z.string(),
+  author: userRefSchema.nullable().optional(),
+  createdAt: z.string(),
+  submittedAt: z.string().nullable(),
+  decidedAt: z.string().nullable(),
+  /** Approvals in the revision's current round. */
+  approvals: z.number(),
+  decisions: z.array(decisionSchema),
+});
+export type RevisionSummary = z.infer<typeof revisionSummarySchema>;
+
+export const planDetailSchema = z.object({
+  id: z.number(),
+  title: z.string(),
+  purpose: z.string(),
+  owner: userRefSchema.nullable().optional(),
+  model: ref.nullable(),
+  requiredApprovals: z.number(),
+  /** The plan's own count or the lab-wide minimum, whichever is higher. */
+  effectiveRequiredApprovals: z.number(),
+  state: revisionStateSchema,
+  latestRevision: z.number(),
+  approvedRevision: z.number().nullable(),
+  createdAt: z.string(),
+  updatedAt: z.string(),
+  revisions: z.array(revisionSummarySchema),
+});
+export type PlanDetail = z.infer<typeof planDetailSchema>;
+
+/** The model profile's values frozen into a revision. */
+export const modelSnapshotSchema = z.object({
+  id: z.number(),
+  name: z.string(),
+  family: z.string(),
+  headDim: z.number(),
+  partialRotaryFactor: z.number(),
+  ropeTheta: z.number(),
+  trainedContext: z.number(),
+  layers: z.number(),
+  attentionHeads: z.number(),
+  kvHeads: z.number(),
+  hiddenSize: z.number(),
+  parameters: z.number(),
+  parametersTotal: z.number().nullable(),
+  bytesPerElement: z.number(),
+});
+export type ModelSnapshot = z.infer<typeof modelSnapshotSchema>;
+
+export const revisionContentSchema = z.object({
+  targetContext: z.number(),
+  method: methodParamsSchema,
+  bands: bandsSchema.optional(),
+  stages: z.array(stageSchema),
+  acceptance: z.array(acceptanceCriterionSchema),
+  notes: z.string(),
+  engineVersion: z.string(),
+  model: modelSnapshotSchema,
+  results: z.object({
+    rotaryDim: z.number(),
+    criticalDimension: z.number(),
+    criticalBase: z.number(),
+    baseSupport: z.object({ supportedLength: z.number().nullable(), checkedUpTo: z.number(), complete: z.boolean() }),
+    final: stageResultSchema,
+    stages: z.array(stageResultSchema),
+  }),
+  /** The budget sheet, frozen with the catalog numbers it used (schema owned by the budget contract). */
+  budget: revisionBudgetSchema.optional(),
+});
+export type RevisionContent = z.infer<typeof revisionContentSchema>;
+
+export const revisionResponseSchema = z.object({
+  number: z.number(),
+  state: revisionStateSchema,
+  version: z.number(),
+  round: z.number(),
+  contentHash: z.string(),
+  engineVersion: z.string(),
+  authorId: z.number(),
+  content: revisionContentSchema,
+});
+export type RevisionResponse = z.infer<typeof revisionResponseSchema>;
+
+/** PUT a draft. */
+export const draftSavedSchema = z.object({ number: z.number(), version: z.number(), contentHash: z.string() });
+/** POST …/revisions: the new draft. */
+export const newRevisionResponseSchema = z.object({ number: z.number(), version: z.number() });
+/** submit, withdraw and decisions answer the revision's new state (withdraw also its version, decisions the approvals). */
+export const transitionResponseSchema = z.object({
+  number: z.number(),
+  state: revisionStateSchema,
+  version: z.number().optional(),
+  approvals: z.number().optional(),
+});
+
+export const verifyResponseSchema = z.object({
+  number: z.number(),
+  ok: z.boolean(),
+  storedHash: z.string(),
+  computedHash: z.string(),
+  engineVersion: z.string(),
+});
+export type VerifyResponse = z.infer<typeof verifyResponseSchema>;
+
+const fieldChangeSchema = z.object({ path: z.string(), from: z.unknown(), to: z.unknown() });
+export type FieldChange = z.infer<typeof fieldChangeSchema>;
+
+export const diffResponseSchema = z.object({
+  a: z.object({ number: z.number(), contentHash: z.string() }),
+  b: z.object({ number: z.number(), contentHash: z.string() }),
+  fields: z.array(fieldChangeSchema),
+  stages: z.array(z.object({ index: z.number(), change: z.enum(["added", "removed", "changed"]), fields: z.array(fieldChangeSchema) })),
+  flags: z.array(z.object({ scope: z.string(), pair: z.number(), flag: z.string(), from: z.boolean(), to: z.boolean() })),
+  budget: z.object({
+    inputs: z.array(fieldChangeSchema),
+    stages: z.array(z.object({ index: z.number(), costFrom: z.number().nullable(), costTo: z.number().nullable(), costDelta: z.number(), hoursDelta: z.number() })),
+    totals: z.object({ costFrom: z.number(), costTo: z.number(), costDelta: z.number() }).nullable(),
+  }),
+});
+export type DiffResponse = z.infer<typeof diffResponseSchema>;
+
+/** GET …/export and /approved/export: the signed configuration patch with who signed it. */
+export const exportEnvelopeSchema = z.object({
+  plan: z.object({ id: z.number(), title: z.string() }),
+  revision: z.number(),
+  state: revisionStateSchema,
+  contentHash: z.string(),
+  engineVersion: z.string(),
+  model: z.object({ name: z.string(), trainedContext: z.number(), ropeTheta: z.number() }),
+  targetContext: z.number(),
+  method: methodParamsSchema,
+  config: configPatchSchema,
+  attentionFactor: z.number(),
+  signedBy: z.array(z.object({ name: z.string(), email: z.string(), signedHash: z.string(), at: z.string() })),
+  caution: z.string(),
+});
+export type ExportEnvelope = z.infer<typeof exportEnvelopeSchema>;
+
+export const reviewQueueItemSchema = z.object({
+  planId: z.number(),
+  title: z.string(),
+  revision: z.number(),
+  author: z.string(),
+  submittedAt: z.string(),
+  contentHash: z.string(),
+  approvals: z.number(),
+  requiredApprovals: z.number(),
+});
+export type ReviewQueueItem = z.infer<typeof reviewQueueItemSchema>;
+export const reviewQueueResponseSchema = z.object({ items: z.array(reviewQueueItemSchema) });
