@@ -83,3 +83,14 @@ export function formatMoney(amount: number): string {
   if (amount >= 100) return grouped.format(amount);
   return amount.toFixed(2);
 }
+
+const dateTimeFormat = new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "short", year: "numeric", hour: "2-digit", minute: "2-digit" });
+
+/** ISO timestamp → "3 Mar 2025, 14:05" (local time); anything unparseable is shown as given. */
+export function formatDateTime(iso: string): string {
+  const date = new Date(iso);
+  return Number.isNaN(date.getTime()) ? iso : dateTimeFormat.format(date);
+}
+
+/** The first 12 hex digits of a SHA-256, enough to tell revisions apart on screen; the full hash stays in a title. */
+export const shortHash = (hash: string) => `${hash.slice(0, 12)}…`;
