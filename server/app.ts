@@ -17,6 +17,7 @@ import { auditRouter } from "./features/audit/audit.router";
 import { mailRouter } from "./features/mail/mail.router";
 import { analysesRouter } from "./features/analyses/analyses.router";
 import { boundsRouter } from "./features/bounds/bounds.router";
+import { openApiDocument } from "./openapi";
 import { acceleratorsRouter, budgetsRouter } from "./features/budgets/budgets.router";
 import { bearerAuth, unlessBearer } from "./http/bearer";
 
@@ -38,6 +39,7 @@ export function createApp(deps: AppDeps) {
 
   const api = express.Router();
   api.use("/health", healthRouter(deps));
+  api.get("/openapi.json", (_req, res) => res.json(openApiDocument()));
   api.use(bearerAuth(deps));
   api.use(unlessBearer(sessionMiddleware(deps)));
   api.use(unlessBearer(loadUser(deps)));
