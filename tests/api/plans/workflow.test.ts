@@ -138,3 +138,15 @@ describe("bad plan input → 400 naming the field, nothing written", () => {
     });
   }
 });
+
+describe("profiles in use", () => {
+  it("deleting a profile a plan uses → 409 naming the plan", async () => {
+    const researcher = await agentAs(["researcher"]);
+    const model = await createProfile(researcher);
+    const plan = await createPlan(researcher, model.id, { title: "Keeps its profile" });
+    const r = await researcher.delete(`/api/models/${model.id}`).set("X-CSRF-Token", researcher.csrf);
+    expect(r.status).toBe(409);
+    expect(r.body.error.message).toContain(`#${plan.id} Keeps its profile`);
+    await researcher.get(`/api/models/${model.id}`).expect(200);
+  });
+});
