@@ -21,7 +21,13 @@ export function sessionMiddleware(deps: AppDeps) {
   return session({
     name: SESSION_COOKIE,
     secret: deps.config.sessionSecret,
-    store: new PgStore({ pool: deps.pool, tableName: "session", createTableIfMissing: false, pruneSessionInterval: false }),
+    store: new PgStore({
+      pool: deps.pool,
+      tableName: "session",
+      createTableIfMissing: false,
+      // Expired sessions are pruned every 15 minutes; tests build many apps and skip the timer.
+      pruneSessionInterval: deps.config.env === "test" ? false : 15 * 60,
+    }),
     resave: false,
     saveUninitialized: false,
     rolling: true,
