@@ -16,6 +16,8 @@ export const NAV = [
   { id: "models", label: "Profiles", to: routes.models, audience: "everyone" },
   { id: "workbench", label: "Workbench", to: routes.workbench, audience: "everyone" },
   { id: "plans", label: "Plans", to: routes.plans, audience: "everyone" },
+  { id: "estimator", label: "Estimator", to: routes.estimator, audience: "everyone" },
+  { id: "accelerators", label: "Accelerators", to: routes.accelerators, audience: "everyone" },
   { id: "review", label: "Review", to: routes.review, audience: ["approver"] },
   { id: "audit", label: "Audit", to: routes.audit, audience: ["admin", "approver"] },
   { id: "mail", label: "Mail", to: routes.mail, audience: ["admin"] },

@@ -3,11 +3,18 @@ import { RouteErrorBoundary } from "../components/error-view";
 import { paths, routes } from "../config/paths";
 import { AppLayout } from "./layout/app-layout";
 import { RoleGate } from "./layout/role-gate";
+import { AcceleratorsRoute } from "./routes/accelerators";
+import { EstimatorRoute } from "./routes/estimator";
 import { HomeRoute } from "./routes/home";
+import { ModelsRoute } from "./routes/models";
+import { ModelDetailRoute } from "./routes/models-detail";
+import { ModelImportRoute } from "./routes/models-import";
+import { ModelNewRoute } from "./routes/models-new";
 import { NotFoundRoute } from "./routes/not-found";
 import { ProfileRoute } from "./routes/profile";
 import { SignInRoute } from "./routes/sign-in";
 import { UsersRoute } from "./routes/users";
+import { WorkbenchRoute } from "./routes/workbench";
 
 // Each route has its own error boundary so one broken screen keeps the header and navigation.
 const routeError = <RouteErrorBoundary homeHref={paths.home()} />;
@@ -21,6 +28,13 @@ export const router = createBrowserRouter([
       { index: true, element: <HomeRoute />, errorElement: routeError },
       { path: routes.users, element: <RoleGate screen="users"><UsersRoute /></RoleGate>, errorElement: routeError },
       { path: routes.profile, element: <ProfileRoute />, errorElement: routeError },
+      { path: routes.models, element: <ModelsRoute />, errorElement: routeError },
+      { path: routes.modelNew, element: <ModelNewRoute />, errorElement: routeError },
+      { path: routes.modelImport, element: <ModelImportRoute />, errorElement: routeError },
+      { path: routes.model, element: <ModelDetailRoute />, errorElement: routeError },
+      { path: routes.workbench, element: <WorkbenchRoute />, errorElement: routeError },
+      { path: routes.estimator, element: <EstimatorRoute />, errorElement: routeError },
+      { path: routes.accelerators, element: <AcceleratorsRoute />, errorElement: routeError },
       { path: "*", element: <NotFoundRoute />, errorElement: routeError },
     ],
   },

@@ -61,6 +61,8 @@ export function formatScientific(value: number): string {
 }
 
 export const GIB = 2 ** 30;
+/** FLOP/s in one TFLOP/s. */
+export const TFLOPS = 1e12;
 /** Bytes as binary units: "74.5 GiB", "512 KiB". */
 export function formatBytes(bytes: number): string {
   const units = ["bytes", "KiB", "MiB", "GiB", "TiB", "PiB"];

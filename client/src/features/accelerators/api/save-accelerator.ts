@@ -1,0 +1,22 @@
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+import { acceleratorResponseSchema, type AcceleratorInput, type AcceleratorUpdate } from "../../../../../shared/schemas/budget";
+import { apiClient } from "../../../lib/api-client";
+import { apiPaths } from "../../../config/paths";
+import { acceleratorsKeys } from "./keys";
+
+export const createAccelerator = (body: AcceleratorInput) =>
+  apiClient.send("POST", apiPaths.accelerators(), body, acceleratorResponseSchema).then((r) => r.accelerator);
+
+export const updateAccelerator = ({ id, changes }: { id: number; changes: AcceleratorUpdate }) =>
+  apiClient.send("PUT", apiPaths.accelerator(id), changes, acceleratorResponseSchema).then((r) => r.accelerator);
+
+export const deleteAccelerator = (id: number) => apiClient.sendNoContent("DELETE", apiPaths.accelerator(id));
+
+function useCatalogMutation<A, R>(fn: (args: A) => Promise<R>) {
+  const queryClient = useQueryClient();
+  return useMutation({ mutationFn: fn, onSuccess: () => queryClient.invalidateQueries({ queryKey: acceleratorsKeys.all }) });
+}
+
+export const useCreateAccelerator = () => useCatalogMutation(createAccelerator);
+export const useUpdateAccelerator = () => useCatalogMutation(updateAccelerator);
+export const useDeleteAccelerator = () => useCatalogMutation(deleteAccelerator);

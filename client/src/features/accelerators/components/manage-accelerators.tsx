@@ -1,0 +1,74 @@
+import { useCallback, useState } from "react";
+import { useQuery } from "@tanstack/react-query";
+import type { Accelerator } from "../../../../../shared/schemas/budget";
+import { Button } from "../../../components/button";
+import { Loading, Notice } from "../../../components/notice";
+import { Panel } from "../../../components/page";
+import { acceleratorsQuery } from "../api/list-accelerators";
+import { useDeleteAccelerator } from "../api/save-accelerator";
+import { AcceleratorForm } from "./accelerator-form";
+import { AcceleratorsTable } from "./accelerators-table";
+
+type Message = { tone: "success" | "alert"; text: string };
+
+/** The catalog page's body: everyone reads; infra leads and admins add, edit and delete. */
+export function ManageAccelerators({ canEdit }: { canEdit: boolean }) {
+  const list = useQuery(acceleratorsQuery());
+  const remove = useDeleteAccelerator();
+  const [editing, setEditing] = useState<Accelerator | null>(null);
+  const [confirming, setConfirming] = useState<Accelerator | null>(null);
+  const [message, setMessage] = useState<Message | null>(null);
+  // Remounts the add form after a save so it starts empty again.
+  const [formKey, setFormKey] = useState(0);
+
+  const onEdit = useCallback((a: Accelerator) => {
+    setMessage(null);
+    setEditing(a);
+  }, []);
+  const onDelete = useCallback((a: Accelerator) => {
+    setMessage(null);
+    setConfirming(a);
+  }, []);
+
+  if (list.isPending) return <Loading label="Loading the catalog…" />;
+  if (list.isError) return <Notice tone="alert" title="Could not load the catalog">{list.error.message}</Notice>;
+
+  const done = (text: string) => {
+    setMessage({ tone: "success", text });
+    setEditing(null);
+    setFormKey((k) => k + 1);
+  };
+  const confirmDelete = (a: Accelerator) =>
+    remove.mutate(a.id, {
+      onSuccess: () => setMessage({ tone: "success", text: `Deleted ${a.name}. Plans already submitted keep the figures they were costed with.` }),
+      onError: (e) => setMessage({ tone: "alert", text: e.message }),
+      onSettled: () => setConfirming(null),
+    });
+
+  return (
+    <div className="flex flex-col gap-6">
+      {message && <Notice tone={message.tone}>{message.text}</Notice>}
+      {confirming && (
+        <Notice tone="alert" title={`Delete ${confirming.name}?`}>
+          <p>Drafts that use it will need another accelerator before they can be saved again.</p>
+          <div className="mt-3 flex gap-3">
+            <Button variant="danger" busy={remove.isPending} onClick={() => confirmDelete(confirming)}>
+              Delete {confirming.name}
+            </Button>
+            <Button variant="secondary" onClick={() => setConfirming(null)}>
+              Keep it
+            </Button>
+          </div>
+        </Notice>
+      )}
+      {canEdit && (
+        <Panel title={editing ? `Edit ${editing.name}` : "Add an accelerator"}>
+          <AcceleratorForm key={editing ? `edit-${editing.id}` : `new-${formKey}`} editing={editing ?? undefined} onDone={done} onCancel={editing ? () => setEditing(null) : undefined} />
+        </Panel>
+      )}
+      <Panel title="Catalog">
+        <AcceleratorsTable accelerators={list.data} canEdit={canEdit} busyId={remove.isPending ? (remove.variables ?? null) : null} onEdit={onEdit} onDelete={onDelete} />
+      </Panel>
+    </div>
+  );
+}

@@ -1,0 +1,116 @@
+import { useId } from "react";
+import type { Accelerator, BudgetEstimateResponse } from "../../../../../shared/schemas/budget";
+import { Field } from "../../../components/field";
+import { formatBytes, formatMoney, sig3, TFLOPS } from "../../../lib/format";
+import { type ClusterDraft, type Convention, type SettingsDraft } from "../lib/sheet-draft";
+import { SheetInput } from "./sheet-input";
+
+type Issues = Record<string, string>;
+type Props = {
+  cluster: ClusterDraft;
+  settings: SettingsDraft;
+  accelerators: Accelerator[];
+  assumptions: BudgetEstimateResponse["assumptions"] | undefined;
+  issues: Issues;
+  disabled?: boolean;
+  onCluster: (next: ClusterDraft) => void;
+  onSettings: (next: SettingsDraft) => void;
+};
+
+const CONVENTION_LABELS: Record<Convention, string> = {
+  causal: "Causal (attention counted for the tokens each position sees)",
+  full: "Full (every position attends to the whole sequence)",
+};
+
+/** Which accelerators, how many, and the conventions the figures rest on. */
+export function ClusterSettings({ cluster, settings, accelerators, assumptions, issues, disabled, onCluster, onSettings }: Props) {
+  const uid = useId();
+  const set = (field: keyof SettingsDraft) => (text: string) => onSettings({ ...settings, [field]: text });
+  const picked = accelerators.find((a) => String(a.id) === cluster.acceleratorId);
+  const convention = settings.convention || assumptions?.convention || "causal";
+  return (
+    <div className="flex flex-col gap-5">
+      <fieldset className="flex flex-col gap-3" disabled={disabled}>
+        <legend className="mb-2 text-body font-semibold">Accelerator</legend>
+        <div className="flex flex-wrap gap-4">
+          <Radio name={`${uid}-cluster`} checked={cluster.kind === "catalog"} onChange={() => onCluster({ ...cluster, kind: "catalog" })} label="From the catalog" />
+          <Radio name={`${uid}-cluster`} checked={cluster.kind === "custom"} onChange={() => onCluster({ ...cluster, kind: "custom" })} label="Custom figures" />
+        </div>
+        {cluster.kind === "catalog" ? (
+          <Field label="Catalog accelerator" error={issues["cluster.acceleratorId"]} hint={accelerators.length ? undefined : "The catalog is empty; an infra lead adds accelerators on the Accelerators page."}>
+            {({ id, describedBy, invalid }) => (
+              <select
+                id={id}
+                aria-describedby={describedBy}
+                aria-invalid={invalid}
+                value={cluster.acceleratorId}
+                onChange={(e) => onCluster({ ...cluster, acceleratorId: e.target.value })}
+                className="max-w-md rounded-md border border-rule-strong bg-white/70 px-3 py-2 text-body"
+              >
+                <option value="">Pick one…</option>
+                {accelerators.map((a) => (
+                  <option key={a.id} value={a.id}>
+                    {a.name}
+                  </option>
+                ))}
+              </select>
+            )}
+          </Field>
+        ) : (
+          <div className="grid gap-3 sm:grid-cols-3">
+            <SheetInput label="Dense peak" unit="TFLOP/s" value={cluster.peakTflops} onChange={(t) => onCluster({ ...cluster, peakTflops: t })} error={issues["cluster.peakFlops"]} hint="At the training precision, no sparsity" />
+            <SheetInput label="Memory per accelerator" unit="GiB" value={cluster.memoryGib} onChange={(t) => onCluster({ ...cluster, memoryGib: t })} error={issues["cluster.memoryBytes"]} />
+            <SheetInput label="Price per accelerator-hour" value={cluster.pricePerHour} onChange={(t) => onCluster({ ...cluster, pricePerHour: t })} error={issues["cluster.pricePerHour"]} hint="Workspace currency" />
+          </div>
+        )}
+        {cluster.kind === "catalog" && picked && (
+          <p className="text-note text-ink-soft" data-testid="picked-accelerator">
+            {picked.name}: {sig3(picked.peakFlops / TFLOPS)} TFLOP/s dense peak, {formatBytes(picked.memoryBytes)}, {formatMoney(picked.pricePerHour)} per hour
+            {picked.notes ? ` — ${picked.notes}` : ""}
+          </p>
+        )}
+        <div className="grid gap-3 sm:grid-cols-3">
+          <SheetInput label="Accelerators" value={settings.accelerators} onChange={set("accelerators")} error={issues.accelerators} hint="Across the whole run" />
+          <SheetInput
+            label="Model FLOPs utilisation"
+            value={settings.utilization}
+            onChange={set("utilization")}
+            error={issues.utilization}
+            placeholder="0.4"
+            hint="Blank: 0.4, an assumed figure (common practice, no source)"
+          />
+          <SheetInput label="Recomputed fraction of the forward pass" value={settings.recomputeFraction} onChange={set("recomputeFraction")} error={issues.recomputeFraction} placeholder="0" hint="0 to 1; blank: 0" />
+        </div>
+      </fieldset>
+
+      <fieldset className="flex flex-col gap-2" disabled={disabled}>
+        <legend className="mb-2 text-body font-semibold">FLOP convention</legend>
+        {(Object.keys(CONVENTION_LABELS) as Convention[]).map((c) => (
+          <Radio key={c} name={`${uid}-convention`} checked={convention === c} onChange={() => onSettings({ ...settings, convention: c })} label={CONVENTION_LABELS[c]} />
+        ))}
+        {assumptions && assumptions.convention === convention && (
+          <p className="text-note text-ink-soft" data-testid="convention-formula">
+            Training FLOPs per token = <span className="font-mono">{assumptions.conventionFormula}</span> — {assumptions.conventionSource}
+            {settings.convention === "" && " (the default)"}
+          </p>
+        )}
+      </fieldset>
+
+      <fieldset className="grid gap-3 sm:grid-cols-3" disabled={disabled}>
+        <legend className="mb-2 text-body font-semibold">Memory model</legend>
+        <SheetInput label="Optimizer bytes per parameter" value={settings.optimizerBytesPerParameter} onChange={set("optimizerBytesPerParameter")} error={issues.optimizerBytesPerParameter} placeholder="16" hint="Blank: 16 (bf16 weights and grads, fp32 master and Adam states)" />
+        <SheetInput label="Sequence sharding" value={settings.sequenceSharding} onChange={set("sequenceSharding")} error={issues.sequenceSharding} placeholder="1" hint="Accelerators sharing one sequence; blank: 1" />
+        <SheetInput label="Sequences per micro-batch" value={settings.microBatchSequences} onChange={set("microBatchSequences")} error={issues.microBatchSequences} placeholder="1" hint="Per data-parallel rank; blank: 1" />
+      </fieldset>
+    </div>
+  );
+}
+
+function Radio({ name, checked, onChange, label }: { name: string; checked: boolean; onChange: () => void; label: string }) {
+  return (
+    <label className="inline-flex cursor-pointer items-center gap-2 text-body">
+      <input type="radio" name={name} checked={checked} onChange={onChange} className="size-4 accent-hemp" />
+      {label}
+    </label>
+  );
+}

@@ -1,0 +1,71 @@
+import { useId } from "react";
+import { Field } from "../../../components/field";
+import { formatCount } from "../../../lib/format";
+import type { ModelChoice } from "../api/get-model-choices";
+import { emptyShape, type ModelDraft, type ShapeField } from "../lib/model-draft";
+import { SheetInput } from "./sheet-input";
+
+const SHAPE_LABELS: Record<ShapeField, { label: string; hint?: string }> = {
+  parameters: { label: "Parameters", hint: "Non-embedding count, for 6N and weight memory" },
+  layers: { label: "Layers" },
+  attentionHeads: { label: "Attention heads" },
+  kvHeads: { label: "KV heads", hint: "Must divide the attention heads" },
+  headDim: { label: "Head dimension" },
+  hiddenSize: { label: "Hidden size", hint: "Blank: heads × head dimension" },
+  bytesPerElement: { label: "Bytes per element", hint: "Blank: 2 (bf16)" },
+};
+
+type Props = { value: ModelDraft; onChange: (next: ModelDraft) => void; profiles: ModelChoice[]; issues: Record<string, string> };
+
+/** A stored profile, or a model shape typed by hand. */
+export function ModelPicker({ value, onChange, profiles, issues }: Props) {
+  const uid = useId();
+  const radio = (kind: ModelDraft["kind"], label: string) => (
+    <label className="inline-flex cursor-pointer items-center gap-2 text-body">
+      <input
+        type="radio"
+        name={`${uid}-model`}
+        checked={value.kind === kind}
+        onChange={() => onChange(kind === "profile" ? { kind: "profile", modelId: "" } : emptyShape())}
+        className="size-4 accent-hemp"
+      />
+      {label}
+    </label>
+  );
+  return (
+    <fieldset className="flex flex-col gap-3">
+      <legend className="sr-only">Model</legend>
+      <div className="flex flex-wrap gap-4">
+        {radio("profile", "A stored profile")}
+        {radio("shape", "Type a shape")}
+      </div>
+      {value.kind === "profile" ? (
+        <Field label="Model profile" error={issues["model.modelId"]} hint={profiles.length ? undefined : "No profiles yet; type a shape instead."}>
+          {({ id, describedBy, invalid }) => (
+            <select
+              id={id}
+              aria-describedby={describedBy}
+              aria-invalid={invalid}
+              value={value.modelId}
+              onChange={(e) => onChange({ kind: "profile", modelId: e.target.value })}
+              className="max-w-xl rounded-md border border-rule-strong bg-white/70 px-3 py-2 text-body"
+            >
+              <option value="">Pick a profile…</option>
+              {profiles.map((p) => (
+                <option key={p.id} value={p.id}>
+                  {p.name} ({p.family}): {formatCount(p.parameters)} parameters, trained at {p.trainedContext} tokens
+                </option>
+              ))}
+            </select>
+          )}
+        </Field>
+      ) : (
+        <div className="grid gap-3 sm:grid-cols-4">
+          {(Object.keys(SHAPE_LABELS) as ShapeField[]).map((f) => (
+            <SheetInput key={f} label={SHAPE_LABELS[f].label} hint={SHAPE_LABELS[f].hint} value={value[f]} error={issues[`model.${f}`]} onChange={(t) => onChange({ ...value, [f]: t })} />
+          ))}
+        </div>
+      )}
+    </fieldset>
+  );
+}

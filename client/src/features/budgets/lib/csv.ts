@@ -1,0 +1,58 @@
+import Papa from "papaparse";
+import type { BudgetEstimateResponse } from "../../../../../shared/schemas/budget";
+
+/**
+ * The stage table with its figures, one row per stage and a totals row, in base units (bytes, FLOPs, hours).
+ * Every row repeats the conventions used, so a pasted row still says what it assumed.
+ */
+export function stagesCsv(estimate: BudgetEstimateResponse, clusterLabel: string): string {
+  const a = estimate.assumptions;
+  const conventions = {
+    "FLOP convention": `${a.convention}: ${a.conventionFormula} (${a.conventionSource})`,
+    "model FLOPs utilisation": a.utilization,
+    "optimizer bytes per parameter": a.optimizerBytesPerParameter,
+    "bytes per element": a.bytesPerElement,
+    "sequence sharding": a.sequenceSharding,
+    cluster: clusterLabel,
+  };
+  const rows = estimate.stages.map((s) => ({
+    stage: s.index + 1,
+    "sequence length": s.sequenceLength,
+    "global batch (sequences)": s.globalBatch,
+    steps: s.steps,
+    "token target": s.tokenTarget ?? "",
+    tokens: s.tokens,
+    "cumulative tokens": s.cumulativeTokens,
+    "FLOPs per token": s.flopsPerToken,
+    FLOPs: s.flops,
+    "accelerator-hours": s.acceleratorHours,
+    "wall-clock hours": s.wallClockHours,
+    cost: s.cost,
+    "training memory per accelerator (bytes)": s.trainingMemoryPerAccelerator,
+    fits: s.fits ? "yes" : "no",
+    "smallest sequence sharding that fits": s.minSequenceSharding ?? "none",
+    "KV cache per token (bytes)": s.kvCacheBytesPerToken,
+    "KV cache per sequence (bytes)": s.kvCacheBytesPerSequence,
+    "serving sequences per accelerator": s.servingSequencesPerAccelerator,
+    warnings: s.warnings.join("; "),
+    ...conventions,
+  }));
+  const t = estimate.totals;
+  const totals = {
+    stage: "total", tokens: t.tokens, FLOPs: t.flops, "accelerator-hours": t.acceleratorHours,
+    "wall-clock hours": t.wallClockHours, cost: t.cost, ...conventions,
+  };
+  return Papa.unparse([...rows, totals], { columns: Object.keys(rows[0] ?? totals) });
+}
+
+/** Hands the text to the browser as a file download. */
+export function downloadText(text: string, fileName: string, type = "text/csv;charset=utf-8") {
+  const url = URL.createObjectURL(new Blob([text], { type }));
+  const link = document.createElement("a");
+  link.href = url;
+  link.download = fileName;
+  document.body.append(link);
+  link.click();
+  link.remove();
+  setTimeout(() => URL.revokeObjectURL(url), 0);
+}
