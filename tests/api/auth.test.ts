@@ -109,6 +109,14 @@ describe("sign-in and sessions", () => {
     await expect(signIn(a.user!)).rejects.toThrow(/401/);
   });
 
+  it("sets security headers (helmet) and never names the framework", async () => {
+    const r = await request(app).get("/api/health");
+    expect(r.headers["x-content-type-options"]).toBe("nosniff");
+    expect(r.headers["content-security-policy"]).toMatch(/default-src 'self'/);
+    expect(r.headers["x-frame-options"]).toBe("SAMEORIGIN");
+    expect(r.headers["x-powered-by"]).toBeUndefined();
+  });
+
   it("answers health with the database state", async () => {
     const r = await request(app).get("/api/health").expect(200);
     expect(r.body).toEqual({ ok: true, db: "up" });
