@@ -117,6 +117,16 @@ describe("sign-in and sessions", () => {
     expect(r.headers["x-powered-by"]).toBeUndefined();
   });
 
+  it("answers 503 on health when the database is down", async () => {
+    const { createApp } = await import("../../server/app");
+    const { createDb } = await import("../../server/db/client");
+    const dead = createDb("postgres://app@127.0.0.1:1/nowhere", 1);
+    const r = await request(createApp({ ...dead, config: deps.config })).get("/api/health");
+    expect(r.status).toBe(503);
+    expect(r.body).toEqual({ ok: false, db: "down" });
+    await dead.pool.end();
+  });
+
   it("answers health with the database state", async () => {
     const r = await request(app).get("/api/health").expect(200);
     expect(r.body).toEqual({ ok: true, db: "up" });
