@@ -1,0 +1,41 @@
+import { Link } from "react-router-dom";
+import { useQuery } from "@tanstack/react-query";
+import { Loading, Notice } from "../../components/notice";
+import { Page, Panel } from "../../components/page";
+import { paths } from "../../config/paths";
+import { useCurrentUser } from "../../features/auth/hooks/use-session";
+import { canEditProfiles, ModelsTable, modelsQueries } from "../../features/models";
+
+const linkButton = "inline-flex items-center rounded-md border px-4 py-2 text-body font-medium no-underline transition-colors";
+
+export function ModelsRoute() {
+  const user = useCurrentUser();
+  const models = useQuery(modelsQueries.list());
+  const canEdit = canEditProfiles(user.roles);
+  return (
+    <Page
+      title="Model profiles"
+      lead="The rotary shape of each model Ropewalk analyses: head dimension, rotary fraction, base and trained context, plus the size figures budgets need."
+    >
+      {canEdit && (
+        <div className="flex flex-wrap gap-3">
+          <Link to={paths.modelImport()} className={`${linkButton} border-hemp bg-hemp text-paper hover:bg-hemp-dark`}>
+            Import config.json
+          </Link>
+          <Link to={paths.modelNew()} className={`${linkButton} border-rule-strong bg-paper text-ink hover:border-hemp`}>
+            Type a profile in
+          </Link>
+        </div>
+      )}
+      <Panel title="All profiles">
+        {models.isPending ? (
+          <Loading label="Loading profiles…" />
+        ) : models.isError ? (
+          <Notice tone="alert" title="Could not load profiles">{models.error.message}</Notice>
+        ) : (
+          <ModelsTable models={models.data} />
+        )}
+      </Panel>
+    </Page>
+  );
+}

@@ -1,0 +1,39 @@
+import { useQuery } from "@tanstack/react-query";
+import { Loading, Notice } from "../../components/notice";
+import { Page } from "../../components/page";
+import { apiPaths } from "../../config/paths";
+import { ImportWarnings, modelsQueries } from "../../features/models";
+import { Workbench } from "../../features/workbench";
+
+/** The workbench, fed with the saved profiles; a profile imported from a file shows the warnings its import raised. */
+export function WorkbenchRoute() {
+  const models = useQuery(modelsQueries.list());
+  return (
+    <Page
+      title="Workbench"
+      lead="Pick a model and a target length, then compare rotary scaling methods pair by pair: what each does to every frequency, which pairs it puts at risk, and the config keys it needs."
+    >
+      {models.isPending ? (
+        <Loading label="Loading profiles…" />
+      ) : models.isError ? (
+        <Notice tone="alert" title="Could not load profiles">{models.error.message}</Notice>
+      ) : (
+        <Workbench
+          profiles={models.data}
+          profileNotes={(p) =>
+            p.sourceFileName ? (
+              <details className="rounded-md border border-hemp/30 bg-hemp-pale/30 px-3 py-2" open={p.importWarnings.length > 0}>
+                <summary className="cursor-pointer text-body font-medium text-hemp-dark">
+                  {p.importWarnings.length} import {p.importWarnings.length === 1 ? "warning" : "warnings"} for {p.name}
+                </summary>
+                <div className="mt-2">
+                  <ImportWarnings warnings={p.importWarnings} sourceHref={apiPaths.modelSource(p.id)} sourceFileName={p.sourceFileName} title="Raised when its config was imported" />
+                </div>
+              </details>
+            ) : null
+          }
+        />
+      )}
+    </Page>
+  );
+}

@@ -1,0 +1,20 @@
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+import type { ModelProfileValues } from "../../../../../shared/schemas/models";
+import { modelResponseSchema } from "../../../../../shared/schemas/model-responses";
+import { apiClient } from "../../../lib/api-client";
+import { apiPaths } from "../../../config/paths";
+import { modelsKeys } from "./keys";
+
+export const createModel = (body: ModelProfileValues) =>
+  apiClient.send("POST", apiPaths.models(), body, modelResponseSchema).then((r) => r.model);
+
+export function useCreateModel() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: createModel,
+    onSuccess: (model) => {
+      queryClient.setQueryData(modelsKeys.detail(model.id), model);
+      return queryClient.invalidateQueries({ queryKey: modelsKeys.list() });
+    },
+  });
+}

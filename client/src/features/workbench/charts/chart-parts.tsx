@@ -1,0 +1,85 @@
+import type { ReactNode } from "react";
+import { TooltipWithBounds } from "@visx/tooltip";
+import { FLAG_STYLE, INK_SOFT, RULE, type FlagId } from "./palette";
+
+export const MARGIN = { top: 16, right: 20, bottom: 48, left: 64 };
+
+/** Shared look of visx axes: ink-soft ticks in the body font. */
+export const axisProps = {
+  stroke: RULE,
+  tickStroke: RULE,
+  tickLabelProps: { fill: INK_SOFT, fontSize: 11, fontFamily: "IBM Plex Sans, sans-serif" },
+  labelProps: { fill: INK_SOFT, fontSize: 12, fontFamily: "IBM Plex Sans, sans-serif", textAnchor: "middle" as const },
+};
+
+/** One marker shape per flag, centred on (x, y). Legend swatches pass pair −1: no title, no test hooks. */
+export function FlagMarker({ flag, x, y, pair }: { flag: FlagId; x: number; y: number; pair: number }) {
+  const { colour, marker, label } = FLAG_STYLE[flag];
+  const onChart = pair >= 0;
+  const props = {
+    ...(onChart ? { "data-testid": "flag-marker", "data-flag": flag, "data-pair": pair } : {}),
+    stroke: colour,
+    strokeWidth: 1.5,
+  };
+  const title = onChart ? <title>{`Pair ${pair}: ${label}`}</title> : null;
+  if (marker === "ring") return <circle {...props} cx={x} cy={y} r={6} fill="none">{title}</circle>;
+  const d =
+    marker === "triangle"
+      ? `M${x},${y - 7} L${x + 6},${y + 4} L${x - 6},${y + 4} Z`
+      : `M${x},${y - 6} L${x + 5},${y} L${x},${y + 6} L${x - 5},${y} Z`;
+  return (
+    <path {...props} d={d} fill={marker === "triangle" ? colour : "white"} fillOpacity={marker === "triangle" ? 0.85 : 1}>
+      {title}
+    </path>
+  );
+}
+
+/** A swatch for the HTML legends: a line, a wash, or a flag's marker. */
+export function Swatch({ kind, colour, flag, dashed }: { kind: "line" | "wash" | "marker"; colour?: string; flag?: FlagId; dashed?: boolean }) {
+  return (
+    <svg width={18} height={14} aria-hidden className="shrink-0">
+      {kind === "line" && <line x1={1} x2={17} y1={7} y2={7} stroke={colour} strokeWidth={2.5} strokeDasharray={dashed ? "4 3" : undefined} />}
+      {kind === "wash" && <rect x={1} y={1} width={16} height={12} rx={2} fill={colour} stroke={RULE} />}
+      {kind === "marker" && flag && <FlagMarker flag={flag} x={9} y={7} pair={-1} />}
+    </svg>
+  );
+}
+
+export function Legend({ items }: { items: { key: string; swatch: ReactNode; label: ReactNode }[] }) {
+  return (
+    <ul className="flex flex-wrap gap-x-4 gap-y-1 text-note text-ink-soft" aria-label="Legend">
+      {items.map((i) => (
+        <li key={i.key} className="inline-flex items-center gap-1.5">
+          {i.swatch}
+          {i.label}
+        </li>
+      ))}
+    </ul>
+  );
+}
+
+export function ChartTooltip({ left, top, children }: { left: number; top: number; children: ReactNode }) {
+  return (
+    <TooltipWithBounds
+      left={left}
+      top={top}
+      unstyled
+      applyPositionStyle
+      className="pointer-events-none z-10 max-w-xs rounded-md border border-rule-strong bg-paper px-3 py-2 text-note text-ink shadow-md"
+    >
+      <div data-testid="chart-tooltip">{children}</div>
+    </TooltipWithBounds>
+  );
+}
+
+/** A horizontal reference line across the plot with its label at the right end. */
+export function ReferenceLine({ y, width, colour, label, dashed = "6 4" }: { y: number; width: number; colour: string; label: string; dashed?: string }) {
+  return (
+    <g>
+      <line x1={0} x2={width} y1={y} y2={y} stroke={colour} strokeWidth={1.25} strokeDasharray={dashed} />
+      <text x={width - 4} y={y - 4} textAnchor="end" fontSize={11} fill={colour} fontFamily="IBM Plex Sans, sans-serif">
+        {label}
+      </text>
+    </g>
+  );
+}

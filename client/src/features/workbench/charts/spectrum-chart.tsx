@@ -1,0 +1,121 @@
+import { useMemo, type PointerEvent } from "react";
+import { AxisBottom, AxisLeft } from "@visx/axis";
+import { localPoint } from "@visx/event";
+import { Group } from "@visx/group";
+import { scaleLinear, scaleLog } from "@visx/scale";
+import { LinePath } from "@visx/shape";
+import { useTooltip } from "@visx/tooltip";
+import type { AnalysisResponse, Band, PairResult } from "../../../../../shared/schemas/analysis";
+import { decades, shortTick, tokens } from "../figures";
+import { METHOD_LABELS } from "../state/method-fields";
+import { axisProps, ChartTooltip, FlagMarker, Legend, MARGIN, ReferenceLine, Swatch } from "./chart-parts";
+import { BAND_STYLE, FLAG_IDS, FLAG_STYLE, INK, methodColour, TARGET_LINE, TRAINED_LINE } from "./palette";
+import { PairTooltipBody } from "./pair-tooltip";
+import { useWidth } from "./use-width";
+
+type SpectrumChartProps = {
+  analysis: AnalysisResponse;
+  /** Which method of the analysis to draw against the original (index into analysis.methods). */
+  methodIndex: number;
+  height?: number;
+};
+
+/** Contiguous runs of one band along the pair index, for the background washes. */
+function bandRuns(pairs: PairResult[]) {
+  const runs: { band: Band; from: number; to: number }[] = [];
+  for (const p of pairs) {
+    const last = runs[runs.length - 1];
+    if (last && last.band === p.band) last.to = p.index;
+    else runs.push({ band: p.band, from: p.index, to: p.index });
+  }
+  return runs;
+}
+
+/**
+ * Wavelength of every pair on a log axis, original and after one method, with the trained and target lengths,
+ * the three bands as washes, and a marker on each flagged pair. Hover a pair for its exact values.
+ */
+export function SpectrumChart({ analysis, methodIndex, height = 340 }: SpectrumChartProps) {
+  const { ref, width } = useWidth<HTMLDivElement>();
+  const tip = useTooltip<PairResult>();
+  const index = Math.min(Math.max(methodIndex, 0), analysis.methods.length - 1);
+  const method = analysis.methods[index];
+  const pairs = method.pairs;
+  const L = analysis.model.trainedContext, target = analysis.targetContext;
+  const innerW = width - MARGIN.left - MARGIN.right, innerH = height - MARGIN.top - MARGIN.bottom;
+  const colour = methodColour(index);
+  const label = METHOD_LABELS[method.method];
+
+  const { x, y } = useMemo(() => {
+    const values = pairs.flatMap((p) => [p.wavelength, p.scaledWavelength]).concat([L, target]);
+    return {
+      x: scaleLinear({ domain: [-0.5, pairs.length - 0.5], range: [0, innerW] }),
+      y: scaleLog({ domain: [Math.min(...values) / 1.5, Math.max(...values) * 1.8], range: [innerH, 0] }),
+    };
+  }, [pairs, L, target, innerW, innerH]);
+
+  const onMove = (event: PointerEvent<SVGRectElement>) => {
+    const point = localPoint(event.currentTarget.ownerSVGElement ?? event.currentTarget, event);
+    if (!point) return;
+    const i = Math.round(x.invert(point.x - MARGIN.left));
+    const pair = pairs[Math.min(Math.max(i, 0), pairs.length - 1)];
+    tip.showTooltip({ tooltipData: pair, tooltipLeft: MARGIN.left + x(pair.index) + 12, tooltipTop: MARGIN.top + y(pair.scaledWavelength) });
+  };
+
+  return (
+    <div className="flex flex-col gap-2">
+      <div ref={ref} className="relative w-full" data-testid="spectrum-chart">
+        <svg width={width} height={height} role="img" aria-label={`Wavelength per pair, original and ${label}`}>
+          <Group left={MARGIN.left} top={MARGIN.top}>
+            {bandRuns(pairs).map((run) => (
+              <g key={`${run.band}-${run.from}`} data-band={run.band}>
+                <rect x={x(run.from - 0.5)} width={x(run.to + 0.5) - x(run.from - 0.5)} y={0} height={innerH} fill={BAND_STYLE[run.band].wash} />
+                {x(run.to + 0.5) - x(run.from - 0.5) > 60 && (
+                  <text x={x(run.from - 0.5) + 6} y={14} fontSize={11} fill={BAND_STYLE[run.band].text} fontFamily="IBM Plex Sans, sans-serif">
+                    {BAND_STYLE[run.band].label}
+                  </text>
+                )}
+              </g>
+            ))}
+            <ReferenceLine y={y(L)} width={innerW} colour={TRAINED_LINE} label={`trained L = ${tokens(L)}`} />
+            <ReferenceLine y={y(target)} width={innerW} colour={TARGET_LINE} label={`target L′ = ${tokens(target)}`} dashed="2 3" />
+            <LinePath data={pairs} x={(p) => x(p.index)} y={(p) => y(p.wavelength)} stroke={INK} strokeWidth={1.5} strokeDasharray="4 3" />
+            <LinePath data={pairs} x={(p) => x(p.index)} y={(p) => y(p.scaledWavelength)} stroke={colour} strokeWidth={2.25} />
+            {pairs.map((p) => (
+              <g key={p.index}>
+                <circle cx={x(p.index)} cy={y(p.wavelength)} r={2} fill={INK} />
+                <circle cx={x(p.index)} cy={y(p.scaledWavelength)} r={2.75} fill={colour} />
+                {p.exceedsTrainedWindow && <FlagMarker flag="exceedsTrainedWindow" pair={p.index} x={x(p.index)} y={y(p.wavelength)} />}
+                {p.unseenAngles && <FlagMarker flag="unseenAngles" pair={p.index} x={x(p.index)} y={y(p.scaledWavelength) - 10} />}
+                {p.compressedResolution && <FlagMarker flag="compressedResolution" pair={p.index} x={x(p.index)} y={y(p.scaledWavelength) + 10} />}
+              </g>
+            ))}
+            {tip.tooltipOpen && tip.tooltipData && (
+              <line x1={x(tip.tooltipData.index)} x2={x(tip.tooltipData.index)} y1={0} y2={innerH} stroke={INK} strokeOpacity={0.35} />
+            )}
+            <AxisLeft scale={y} tickValues={decades(y.domain()[0], y.domain()[1])} tickFormat={(v) => shortTick(Number(v))} label="wavelength λ (tokens, log scale)" labelOffset={40} {...axisProps} />
+            <AxisBottom top={innerH} scale={x} numTicks={Math.min(pairs.length, 16)} tickFormat={(v) => (Number.isInteger(Number(v)) ? String(v) : "")} label="pair index i (0 turns fastest)" {...axisProps} />
+            <rect width={innerW} height={innerH} fill="transparent" onPointerMove={onMove} onPointerLeave={tip.hideTooltip} data-testid="chart-hover" />
+          </Group>
+        </svg>
+        {tip.tooltipOpen && tip.tooltipData && (
+          <ChartTooltip left={tip.tooltipLeft ?? 0} top={tip.tooltipTop ?? 0}>
+            <PairTooltipBody pair={tip.tooltipData} methodLabel={label} />
+          </ChartTooltip>
+        )}
+      </div>
+      <Legend
+        items={[
+          { key: "orig", swatch: <Swatch kind="line" colour={INK} dashed />, label: "original λ" },
+          { key: "method", swatch: <Swatch kind="line" colour={colour} />, label: `λ′ after ${label}` },
+          ...(["spinning", "turning", "drifting"] as const).map((b) => ({
+            key: b,
+            swatch: <Swatch kind="wash" colour={BAND_STYLE[b].wash} />,
+            label: `${BAND_STYLE[b].label}: ${BAND_STYLE[b].plain}`,
+          })),
+          ...FLAG_IDS.map((f) => ({ key: f, swatch: <Swatch kind="marker" flag={f} />, label: FLAG_STYLE[f].label })),
+        ]}
+      />
+    </div>
+  );
+}

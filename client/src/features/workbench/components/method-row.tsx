@@ -1,0 +1,115 @@
+import { METHOD_IDS, type MethodId } from "../../../../../shared/schemas/analysis";
+import { Button } from "../../../components/button";
+import { Field, TextField } from "../../../components/field";
+import { methodColour } from "../charts/palette";
+import { sig } from "../figures";
+import { METHOD_FIELDS, METHOD_LABELS, type FieldContext, type MethodField } from "../state/method-fields";
+import type { MethodRow as Row } from "../state/inputs";
+import type { FieldErrors } from "../state/to-request";
+import { SelectField } from "./select-field";
+
+type MethodRowProps = {
+  index: number;
+  row: Row;
+  context: FieldContext;
+  errors: FieldErrors;
+  canRemove: boolean;
+  onChange: (row: Row) => void;
+  onRemove: () => void;
+};
+
+/** The list fields of LongRoPE: d/2 numbers; two buttons fill them with neutral starting values. */
+function ListField({ field, value, error, context, onChange }: { field: MethodField; value: string; error?: string; context: FieldContext; onChange: (v: string) => void }) {
+  const fill = (x: number) => onChange(Array.from({ length: context.pairs ?? 0 }, () => sig(x, 6)).join(", "));
+  return (
+    <div className="flex flex-col gap-1 sm:col-span-2">
+      <Field label={field.label} error={error} hint={field.placeholder(context)}>
+        {({ id, describedBy, invalid }) => (
+          <textarea
+            id={id}
+            rows={2}
+            value={value}
+            aria-describedby={describedBy}
+            aria-invalid={invalid}
+            placeholder="comma-separated"
+            onChange={(e) => onChange(e.target.value)}
+            className="w-full rounded-md border border-rule-strong bg-white/70 px-3 py-2 font-mono text-note focus:border-seaglass focus:outline-2 focus:outline-seaglass/30 aria-[invalid=true]:border-signal"
+          />
+        )}
+      </Field>
+      {context.pairs !== null && (
+        <div className="flex gap-2">
+          {field.key === "longFactor" && context.scale !== null && (
+            <Button variant="quiet" size="sm" onClick={() => fill(context.scale!)}>
+              Fill with s = {sig(context.scale, 4)}
+            </Button>
+          )}
+          <Button variant="quiet" size="sm" onClick={() => fill(1)}>
+            Fill with 1
+          </Button>
+        </div>
+      )}
+    </div>
+  );
+}
+
+/** One method to compare: pick the method, then only its own parameters; empty boxes use the default shown. */
+export function MethodRow({ index, row, context, errors, canRemove, onChange, onRemove }: MethodRowProps) {
+  const err = (key: string) => errors[`methods.${index}.${key}`];
+  const set = (key: string, value: string) => onChange({ ...row, params: { ...row.params, [key]: value } });
+  return (
+    <fieldset className="flex flex-col gap-3 rounded-md border border-rule bg-white/40 p-3" style={{ borderLeft: `4px solid ${methodColour(index)}` }} data-testid={`method-row-${index}`}>
+      <legend className="sr-only">Method {index + 1}</legend>
+      <div className="flex items-end gap-2">
+        <div className="flex-1">
+          <SelectField
+            label={`Method ${index + 1}`}
+            value={row.method}
+            error={errors[`methods.${index}`] ?? errors[`methods.${index}.method`]}
+            onChange={(e) => onChange({ method: e.target.value as MethodId, params: {} })}
+          >
+            {METHOD_IDS.map((m) => (
+              <option key={m} value={m}>
+                {METHOD_LABELS[m]}
+              </option>
+            ))}
+          </SelectField>
+        </div>
+        {canRemove && (
+          <Button variant="quiet" size="sm" onClick={onRemove} aria-label={`Remove method ${index + 1}`} className="mb-1">
+            Remove
+          </Button>
+        )}
+      </div>
+      {METHOD_FIELDS[row.method].length > 0 && (
+        <div className="grid gap-3 sm:grid-cols-2">
+          {METHOD_FIELDS[row.method].map((f) => {
+            const value = row.params[f.key] ?? "";
+            if (f.kind === "list") return <ListField key={f.key} field={f} value={value} error={err(f.key)} context={context} onChange={(v) => set(f.key, v)} />;
+            if (f.kind === "boolean") {
+              return (
+                <SelectField key={f.key} label={f.label} value={value} error={err(f.key)} onChange={(e) => set(f.key, e.target.value)}>
+                  <option value="">default ({f.placeholder(context)})</option>
+                  <option value="true">yes</option>
+                  <option value="false">no</option>
+                </SelectField>
+              );
+            }
+            return (
+              <TextField
+                key={f.key}
+                label={f.label}
+                inputMode="decimal"
+                value={value}
+                placeholder={f.placeholder(context)}
+                hint={f.hint}
+                error={err(f.key)}
+                onChange={(e) => set(f.key, e.target.value)}
+              />
+            );
+          })}
+        </div>
+      )}
+    </fieldset>
+  );
+}

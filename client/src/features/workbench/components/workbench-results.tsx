@@ -1,0 +1,80 @@
+import type { AnalysisResponse } from "../../../../../shared/schemas/analysis";
+import { Notice } from "../../../components/notice";
+import { Panel } from "../../../components/page";
+import { DecayChart } from "../charts/decay-chart";
+import { RatioChart } from "../charts/ratio-chart";
+import { SpectrumChart } from "../charts/spectrum-chart";
+import { CAUTION } from "../explain/topics";
+import { HowComputed } from "../explain/how-computed";
+import { METHOD_LABELS } from "../state/method-fields";
+import { BoundsPanel } from "./bounds-panel";
+import { MethodSummaries } from "./method-summaries";
+import { PairTable } from "./pair-table";
+import { SelectField } from "./select-field";
+
+type ResultsProps = {
+  analysis: AnalysisResponse;
+  view: number;
+  onView: (view: number) => void;
+  flaggedOnly: boolean;
+  onFlaggedOnly: (value: boolean) => void;
+};
+
+function MethodPicker({ analysis, view, onView }: Pick<ResultsProps, "analysis" | "view" | "onView">) {
+  return (
+    <div className="w-72">
+      <SelectField label="Method shown" value={String(view)} onChange={(e) => onView(Number(e.target.value))}>
+        {analysis.methods.map((m, i) => (
+          <option key={i} value={i}>
+            {i + 1}. {METHOD_LABELS[m.method]}
+          </option>
+        ))}
+      </SelectField>
+    </div>
+  );
+}
+
+/** The figures for one analysis; every panel has its explanation one click away. */
+export function WorkbenchResults({ analysis, view, onView, flaggedOnly, onFlaggedOnly }: ResultsProps) {
+  const shown = Math.min(view, analysis.methods.length - 1);
+  const methods = analysis.methods.map((m) => m.method);
+  return (
+    <div className="flex flex-col gap-6">
+      <Panel title="Wavelength per pair" aside={<MethodPicker analysis={analysis} view={shown} onView={onView} />}>
+        <div className="flex flex-col gap-3">
+          <SpectrumChart analysis={analysis} methodIndex={shown} />
+          <HowComputed topics={["wavelength", "rotations", "bands", "flags"]} methods={[analysis.methods[shown].method]} />
+        </div>
+      </Panel>
+      <div className="grid gap-6 xl:grid-cols-2">
+        <Panel title="Scale ratio θ′/θ per pair">
+          <div className="flex flex-col gap-3">
+            <RatioChart analysis={analysis} />
+            <HowComputed topics={["ratio"]} methods={methods} />
+          </div>
+        </Panel>
+        <Panel title="Long-term decay R(m)">
+          <div className="flex flex-col gap-3">
+            <DecayChart analysis={analysis} />
+            <HowComputed topics={["decay"]} />
+          </div>
+        </Panel>
+      </div>
+      <Panel title="Base bounds">
+        <BoundsPanel analysis={analysis} />
+      </Panel>
+      <Panel title="Pair by pair" aside={<MethodPicker analysis={analysis} view={shown} onView={onView} />}>
+        <div className="flex flex-col gap-3">
+          <PairTable method={analysis.methods[shown]} methodNumber={shown + 1} targetContext={analysis.targetContext} flaggedOnly={flaggedOnly} onFlaggedOnly={onFlaggedOnly} />
+          <HowComputed topics={["wavelength", "rotations", "bands", "flags", "ratio"]} />
+        </div>
+      </Panel>
+      <Panel title="Methods and their config keys">
+        <MethodSummaries analysis={analysis} />
+      </Panel>
+      <Notice tone="info" title="Estimates, not a verdict">
+        {CAUTION} Engine {analysis.engineVersion}.
+      </Notice>
+    </div>
+  );
+}
