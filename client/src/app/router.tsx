@@ -3,6 +3,8 @@ import { RouteErrorBoundary } from "../components/error-view";
 import { paths, routes } from "../config/paths";
 import { AppLayout } from "./layout/app-layout";
 import { RoleGate } from "./layout/role-gate";
+import { AcceleratorsRoute } from "./routes/accelerators";
+import { EstimatorRoute } from "./routes/estimator";
 import { HomeRoute } from "./routes/home";
 import { ModelsRoute } from "./routes/models";
 import { ModelDetailRoute } from "./routes/models-detail";
@@ -31,6 +33,8 @@ export const router = createBrowserRouter([
       { path: routes.modelImport, element: <ModelImportRoute />, errorElement: routeError },
       { path: routes.model, element: <ModelDetailRoute />, errorElement: routeError },
       { path: routes.workbench, element: <WorkbenchRoute />, errorElement: routeError },
+      { path: routes.estimator, element: <EstimatorRoute />, errorElement: routeError },
+      { path: routes.accelerators, element: <AcceleratorsRoute />, errorElement: routeError },
       { path: "*", element: <NotFoundRoute />, errorElement: routeError },
     ],
   },
