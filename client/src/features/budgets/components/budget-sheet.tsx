@@ -96,7 +96,7 @@ export function BudgetSheet({ mode, value, onChange, context, accelerators, rowL
       </Panel>
 
       <Panel title="Figures" aside={stale && data ? <span className="text-note text-ink-soft" role="status">Recomputing…</span> : undefined}>
-        {!context && <Notice>Pick a model profile or type a model shape to see figures.</Notice>}
+        {!context && <Notice>{mode === "plan" ? "Pick the model this plan extends to see figures." : "Pick a model profile or type a model shape to see figures."}</Notice>}
         {context && !built.request && <Notice tone="alert" title="Some inputs need fixing">The marked inputs are not valid yet; the figures wait for them.</Notice>}
         {estimate.error && !isApiError(estimate.error) && <Notice tone="alert">Could not compute the budget.</Notice>}
         {isApiError(estimate.error) && built.request && <Notice tone="alert" title="The server refused these inputs">{estimate.error.message}</Notice>}

@@ -7,8 +7,16 @@ import { draftFromPlanBudget, PLAN_STAGE_FIELDS, planBudgetFromDraft, stageDraft
 import { parseNumber, type SheetDraft, type StageDraft } from "../lib/sheet-draft";
 import { BudgetSheet } from "./budget-sheet";
 
-type PlanForm = { revision: RevisionInput };
-type Props = { model: ModelSnapshot; accelerators: Accelerator[]; disabled?: boolean };
+type PlanForm = { revision: RevisionInput; modelId?: number };
+/** The model fields the budget uses: a revision's frozen snapshot, or a profile. */
+export type PlanModelShape = Pick<ModelSnapshot, "parameters" | "layers" | "attentionHeads" | "kvHeads" | "headDim" | "hiddenSize" | "bytesPerElement" | "trainedContext">;
+type Props = {
+  /** The revision's model; or `models`, from which the form's own `modelId` picks (the new-plan form). */
+  model?: PlanModelShape;
+  models?: (PlanModelShape & { id: number })[];
+  accelerators: Accelerator[];
+  disabled?: boolean;
+};
 
 /** Form errors under `prefix` as flat "a.b.c" keys, renamed for the sheet (budget fields drop their prefix). */
 function flatErrors(errors: FieldErrors, prefix: string, rename: (key: string) => string, out: Record<string, string> = {}) {
@@ -28,8 +36,10 @@ function flatErrors(errors: FieldErrors, prefix: string, rename: (key: string) =
  * The rows are the plan's stages: lengths, batches and steps typed here are the plan's own fields. Cluster and
  * settings become `revision.budget`, saved with the draft by the editor's own save (with the version it read).
  */
-export function PlanBudgetSheet({ model, accelerators, disabled }: Props) {
+export function PlanBudgetSheet({ model: given, models, accelerators, disabled }: Props) {
   const { control, setValue, getValues, formState } = useFormContext<PlanForm>();
+  const modelId = useWatch({ control, name: "modelId" });
+  const model = given ?? models?.find((m) => m.id === modelId);
   const stages = (useWatch({ control, name: "revision.stages" }) ?? []) as PlanStageNumbers[];
   const target = useWatch({ control, name: "revision.targetContext" }) as number | undefined;
   const [settings, setSettings] = useState(() => draftFromPlanBudget(getValues("revision.budget")));
@@ -55,7 +65,7 @@ export function PlanBudgetSheet({ model, accelerators, disabled }: Props) {
   };
 
   const lengths = stages.map((s) => s.sequenceLength).filter((n): n is number => Number.isFinite(n));
-  const context = {
+  const context = model && {
     model: {
       parameters: Math.round(model.parameters), layers: model.layers, attentionHeads: model.attentionHeads, kvHeads: model.kvHeads,
       headDim: model.headDim, hiddenSize: model.hiddenSize, bytesPerElement: model.bytesPerElement,
@@ -75,7 +85,7 @@ export function PlanBudgetSheet({ model, accelerators, disabled }: Props) {
       mode="plan"
       value={value}
       onChange={onChange}
-      context={context}
+      context={context ?? null}
       accelerators={accelerators}
       rowLabels={stages.map((_, i) => `Stage ${i + 1}`)}
       extraIssues={issues}

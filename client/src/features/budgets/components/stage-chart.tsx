@@ -41,7 +41,7 @@ export function StageShareChart({ stages }: { stages: Stage[] }) {
             y={(r) => r.metric}
             xScale={xScale}
             yScale={yScale}
-            color={(_key, i) => stageColor(i)}
+            color={(key) => stageColor(keys.indexOf(key))}
           >
             {(stacks) =>
               stacks.map((stack, k) =>

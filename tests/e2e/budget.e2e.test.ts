@@ -1,0 +1,136 @@
+import fs from "node:fs";
+import path from "node:path";
+import Papa from "papaparse";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Browser, BrowserContext, Page } from "playwright-core";
+import { launchBrowser, screenshot } from "../setup/browser";
+import { makeTestApp, type Agent } from "../setup/app";
+import { createProfile } from "../setup/plans";
+import { startTestServer } from "../setup/server";
+import { createTestUser, type TestUser } from "../setup/users";
+
+// The browser works the real built client served by the real app; setup goes through the API on the same database.
+const builtClient = path.resolve(import.meta.dirname, "../../dist/client/index.html");
+const GIB = 2 ** 30;
+
+let server: Awaited<ReturnType<typeof startTestServer>>;
+let browser: Browser;
+let planner: TestUser;
+let api: Agent;
+let profile: { id: number; name: string };
+
+beforeAll(async () => {
+  if (!fs.existsSync(builtClient)) throw new Error("dist/client is missing: run `npm run build` before the browser tests");
+  // One person who both keeps the catalog and authors the plan: only a draft's author may edit it.
+  [server, browser, planner] = await Promise.all([startTestServer(), launchBrowser(), createTestUser(["researcher", "infra"], "Ines Infra-Researcher")]);
+  api = await makeTestApp().signIn(planner);
+  // Sample profile (tests/fixtures/profiles.ts): N = 6.5e9, 32 layers, 32 heads of 128, 8 KV heads, hidden 4096, 2 bytes.
+  profile = await createProfile(api);
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await server?.close();
+});
+
+async function signedInPage(context: BrowserContext, to: string, who: TestUser): Promise<{ page: Page; errors: string[] }> {
+  const page = await context.newPage();
+  const errors: string[] = [];
+  page.on("pageerror", (e) => errors.push(e.message));
+  page.on("console", (m) => {
+    if (m.type() === "error" && !m.text().startsWith("Failed to load resource")) errors.push(m.text());
+  });
+  await page.goto(`${server.url}${to}`);
+  await page.getByLabel("E-mail").fill(who.email);
+  await page.getByLabel("Password").fill(who.password);
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await page.waitForURL((u) => !u.pathname.startsWith("/sign-in"));
+  return { page, errors };
+}
+
+const totalText = (page: Page, name: string) => page.getByTestId(`total-${name}`).textContent();
+
+/** Waits until the figures are current (no "Recomputing…", not dimmed) and answers the tokens total. */
+async function settledTokens(page: Page): Promise<string | null> {
+  await page.waitForFunction(() => {
+    const figures = document.querySelector('[data-testid="estimate-figures"]');
+    return figures && figures.getAttribute("aria-busy") === null;
+  });
+  return totalText(page, "tokens");
+}
+
+describe("budget sheet in a browser", () => {
+  it("an infra lead adds an accelerator in the catalog; the estimator costs stages on it and downloads the table", async () => {
+    const context = await browser.newContext({ viewport: { width: 1280, height: 900 }, acceptDownloads: true });
+    const { page, errors } = await signedInPage(context, "/accelerators", planner);
+    await page.getByRole("heading", { level: 1, name: "Accelerators" }).waitFor();
+
+    const name = `Testbed-${Date.now().toString(36)}`;
+    const form = page.getByRole("form", { name: "Add an accelerator" });
+    // The shared schema speaks before the server is asked.
+    await form.getByRole("button", { name: "Add accelerator" }).click();
+    await expect(form.locator('[aria-invalid="true"]').count()).resolves.toBeGreaterThan(0);
+    await form.getByLabel("Name").fill(name);
+    await form.getByLabel("Memory (GiB)").fill("48");
+    await form.getByLabel("Dense peak (TFLOP/s)").fill("300");
+    await form.getByLabel("Price per accelerator-hour").fill("3");
+    await form.getByLabel("Notes").fill("invented test hardware");
+    await form.getByRole("button", { name: "Add accelerator" }).click();
+    await page.getByText(`Added ${name} to the catalog.`).waitFor();
+    const row = page.getByRole("table", { name: "Accelerators" }).locator("tbody tr").filter({ hasText: name });
+    await expect(row.textContent()).resolves.toMatch(/48.*300.*3\.00/);
+
+    // The API holds the figures in base units: 48 GiB in bytes, 300 TFLOP/s in FLOP/s.
+    const list = await api.get("/api/accelerators").expect(200);
+    const stored = list.body.accelerators.find((a: any) => a.name === name);
+    expect(stored).toMatchObject({ memoryBytes: 48 * GIB, peakFlops: 300e12, pricePerHour: 3 });
+    await screenshot(page, "accelerators");
+
+    // Estimator: stage 1 by steps, stage 2 by a token target; inputs come from the URL.
+    const search = new URLSearchParams([["model", String(profile.id)], ["acc", String(stored.id)], ["n", "8"], ["st", "16384_64_200"], ["st", "32768_32_t1e9"]]);
+    await page.goto(`${server.url}/estimator?${search}`);
+    await page.getByRole("heading", { level: 1, name: "Budget estimator" }).waitFor();
+    // Tokens = steps × global batch × sequence length (DOMAIN.md, Budget); a token target takes whole steps:
+    // ceil(1e9 / (32 × 32768)) = 954 steps → 1 000 341 504 tokens; plus 200 × 64 × 16384 = 209 715 200.
+    await expect(settledTokens(page)).resolves.toBe("1.21 billion");
+    await page.getByText("954 whole steps").waitFor();
+    await expect(page.getByTestId("convention-formula").textContent()).resolves.toContain("Kaplan et al. 2020");
+    await expect(page.getByTestId("assumption-line").first().textContent()).resolves.toContain("utilisation 0.4 (assumed)");
+    await page.getByText("These are estimates").first().waitFor();
+
+    const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: "Download the stage table (CSV)" }).click()]);
+    expect(download.suggestedFilename()).toBe("ropewalk-estimate.csv");
+    const csv = Papa.parse<Record<string, string>>(fs.readFileSync(await download.path(), "utf8"), { header: true, skipEmptyLines: true });
+    expect(csv.data.map((r) => r.stage)).toEqual(["1", "2", "total"]);
+    const [s1, s2, total] = csv.data;
+    expect(Number(s1.tokens)).toBe(200 * 64 * 16384);
+    expect(Number(s2.steps)).toBe(954);
+    expect(Number(total.tokens)).toBe(200 * 64 * 16384 + 954 * 32 * 32768);
+    // Kaplan et al. 2020, Eq. 2.2 with training ≈ 3 × forward: 6N + 6·n_layer·n_ctx·d_attn, d_attn = 32 × 128.
+    expect(Number(s1["FLOPs per token"])).toBeCloseTo(6 * 6.5e9 + 6 * 32 * 16384 * 4096, -3);
+    // Accelerator-hours = FLOPs / (peak × utilisation × 3600) with the default utilisation 0.4.
+    expect(Number(s1["accelerator-hours"])).toBeCloseTo(Number(s1.FLOPs) / (300e12 * 0.4 * 3600), 6);
+    expect(s1["FLOP convention"]).toContain("causal");
+
+    // Switching to the full count (PaLM, App. B) raises the attention term: 12·n_layer·n_heads·head_dim·n_ctx.
+    const before = await totalText(page, "compute");
+    // click, not check(): the choice goes through the URL, so the radio turns on a moment after the click.
+    await page.getByLabel(/^Full/).click();
+    await page.waitForFunction((b) => document.querySelector('[data-testid="total-compute"]')?.textContent !== b, before);
+    await expect(page.getByTestId("convention-formula").textContent()).resolves.toContain("Chowdhery et al. 2022");
+    expect(new URL(page.url()).searchParams.get("conv")).toBe("full");
+
+    // A published recipe adds a stage labelled as the paper's own run, with its source.
+    await page.getByText("Start from a published recipe").click();
+    await page.getByRole("button", { name: "Use YaRN fine-tune" }).click();
+    await expect(page.getByTestId("recipe-label-2").textContent()).resolves.toMatch(/As reported.*Peng.*2023.*not a prediction/);
+    await expect(page.getByLabel("Stage 3 sequence length").inputValue()).resolves.toBe("65536");
+    await page.getByTestId("stage-chart").waitFor();
+    await page.getByTestId("growth-chart").waitFor();
+    await settledTokens(page);
+    await screenshot(page, "estimator");
+
+    expect(errors).toEqual([]);
+    await context.close();
+  }, 90_000);
+});
