@@ -53,6 +53,7 @@ export function AcceleratorsTable({ accelerators, canEdit, busyId, onEdit, onDel
       getRowId={(a) => String(a.id)}
       initialSorting={[{ id: "name", desc: false }]}
       emptyText="The catalog is empty."
+      filterPlaceholder="Type a name or a note"
     />
   );
 }

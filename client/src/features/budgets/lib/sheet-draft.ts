@@ -134,7 +134,8 @@ export function issuesByPath(error: z.ZodError): Record<string, string> {
 function plainMessage(issue: z.core.$ZodIssue): string {
   if (issue.code === "invalid_type") {
     if (issue.expected === "int") return "must be a whole number";
-    return issue.input === undefined ? "required" : "not a number";
+    // zod 4 leaves the input out of issues unless asked; its message names what it received.
+    return /received undefined/.test(issue.message) ? "required" : "not a number";
   }
   if (issue.code === "too_small") return `must be ${issue.inclusive === false ? "above" : "at least"} ${Number(issue.minimum)}`;
   if (issue.code === "too_big") return `must be at most ${Number(issue.maximum).toLocaleString("en-GB")}`;
