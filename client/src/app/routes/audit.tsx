@@ -1,0 +1,37 @@
+import { useQuery } from "@tanstack/react-query";
+import { auditQuerySchema } from "../../../../shared/schemas/audit";
+import { Page, Panel } from "../../components/page";
+import { Loading, Notice } from "../../components/notice";
+import { useSearchState } from "../../lib/search-state";
+import { auditQueries } from "../../features/audit/api/queries";
+import { AuditFilters } from "../../features/audit/components/audit-filters";
+import { AuditTable } from "../../features/audit/components/audit-table";
+import { Pager } from "../../features/plans/components/pager";
+
+const DEFAULT_PAGE_SIZE = 50;
+
+export function AuditRoute() {
+  const { params, update } = useSearchState(auditQuerySchema);
+  const page = useQuery(auditQueries.page(params));
+  return (
+    <Page title="Audit" lead="Every recorded action, newest first: who did what to which plan, token or account. The trail is append-only.">
+      <Panel title="Filter">
+        <AuditFilters params={params} onChange={update} />
+        {params.actorId && <p className="mt-2 text-note text-ink-soft">Showing one person’s actions only (clear the filters to see everyone’s).</p>}
+      </Panel>
+      {page.isPending && <Loading label="Loading the trail…" />}
+      {page.isError && <Notice tone="alert" title="Could not load the audit trail">{page.error.message}</Notice>}
+      {page.data && (
+        <div className="flex flex-col gap-3">
+          <AuditTable
+            events={page.data.events}
+            busy={page.isPlaceholderData}
+            onActor={(actorId) => update({ actorId })}
+            onSubject={(subjectType, subjectId) => update({ subjectType, subjectId })}
+          />
+          <Pager page={page.data.page} pageSize={params.pageSize ?? DEFAULT_PAGE_SIZE} total={page.data.total} onPage={(p) => update({ page: p })} noun="Events" />
+        </div>
+      )}
+    </Page>
+  );
+}

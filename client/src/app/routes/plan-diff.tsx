@@ -1,0 +1,54 @@
+import { Link, useParams, useSearchParams } from "react-router-dom";
+import { useQuery } from "@tanstack/react-query";
+import { Field } from "../../components/field";
+import { Page } from "../../components/page";
+import { Loading, Notice } from "../../components/notice";
+import { paths } from "../../config/paths";
+import { plansQueries } from "../../features/plans/api/queries";
+import { DiffView } from "../../features/plans/components/diff-view";
+import { selectClass } from "../../features/plans/components/plan-filters";
+
+export function PlanDiffRoute() {
+  const id = Number(useParams().id);
+  const [search, setSearch] = useSearchParams();
+  const plan = useQuery(plansQueries.detail(id));
+  const latest = plan.data?.latestRevision ?? 1;
+  const b = Number(search.get("b")) || latest;
+  const a = Number(search.get("a")) || Math.max(1, b - 1);
+  const diff = useQuery({ ...plansQueries.diff(id, a, b), enabled: a > 0 && b > 0 && a !== b });
+  const pick = (key: "a" | "b", value: string) =>
+    setSearch((prev) => {
+      const next = new URLSearchParams(prev);
+      next.set("a", String(a));
+      next.set("b", String(b));
+      next.set(key, value);
+      return next;
+    });
+  const numbers = plan.data?.revisions.map((r) => r.number) ?? [];
+
+  return (
+    <Page
+      title={plan.data ? `${plan.data.title}: what changed` : "What changed"}
+      lead={<Link className="text-seaglass underline underline-offset-4" to={paths.plan(id)}>Back to the plan</Link>}
+    >
+      {plan.isError && <Notice tone="alert" title="Could not load the plan">{plan.error.message}</Notice>}
+      {plan.data && (
+        <div className="grid max-w-md grid-cols-2 gap-3">
+          {(["a", "b"] as const).map((key) => (
+            <Field key={key} label={key === "a" ? "From revision" : "To revision"}>
+              {({ id: inputId }) => (
+                <select id={inputId} className={selectClass} value={key === "a" ? a : b} onChange={(e) => pick(key, e.target.value)}>
+                  {numbers.map((n) => <option key={n} value={n}>Revision {n}</option>)}
+                </select>
+              )}
+            </Field>
+          ))}
+        </div>
+      )}
+      {a === b && <Notice>Pick two different revisions to compare.</Notice>}
+      {diff.isPending && a !== b && <Loading label="Comparing…" />}
+      {diff.isError && <Notice tone="alert" title="Could not compare">{diff.error.message}</Notice>}
+      {diff.data && <DiffView diff={diff.data} />}
+    </Page>
+  );
+}

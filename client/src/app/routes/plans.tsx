@@ -1,0 +1,61 @@
+import { Link } from "react-router-dom";
+import { useQuery } from "@tanstack/react-query";
+import { planListQuerySchema } from "../../../../shared/schemas/plans";
+import { Page, Panel } from "../../components/page";
+import { Loading, Notice } from "../../components/notice";
+import { paths } from "../../config/paths";
+import { useSearchState } from "../../lib/search-state";
+import { useCurrentUser } from "../../features/auth/hooks/use-session";
+import { plansQueries } from "../../features/plans/api/queries";
+import { PlanFilters } from "../../features/plans/components/plan-filters";
+import { PlansTable } from "../../features/plans/components/plans-table";
+import { Pager } from "../../features/plans/components/pager";
+
+const DEFAULT_PAGE_SIZE = 20;
+
+export function PlansRoute() {
+  const user = useCurrentUser();
+  const { params, update } = useSearchState(planListQuerySchema);
+  const list = useQuery(plansQueries.list(params));
+  const models = useQuery(plansQueries.modelChoices());
+
+  // Owners to filter by: yourself, whoever owns a plan on this page, and the one already chosen.
+  const owners = new Map<number, string>([[user.id, `${user.name} (you)`]]);
+  for (const p of list.data?.plans ?? []) if (!owners.has(p.owner.id)) owners.set(p.owner.id, p.owner.name);
+  if (params.ownerId && !owners.has(params.ownerId)) owners.set(params.ownerId, `Owner #${params.ownerId}`);
+
+  return (
+    <Page title="Plans" lead="Every staged extension plan, with the state of its latest revision. Signed revisions export the rope_scaling block.">
+      {user.roles.includes("researcher") && (
+        <div>
+          <Link to={paths.planNew()} className="inline-flex rounded-md border border-hemp bg-hemp px-4 py-2 text-body font-medium text-paper no-underline hover:bg-hemp-dark">
+            New plan
+          </Link>
+        </div>
+      )}
+      <Panel title="Find a plan">
+        <PlanFilters
+          params={params}
+          onChange={update}
+          models={(models.data ?? []).map((m) => ({ id: m.id, name: m.name }))}
+          owners={[...owners].map(([id, name]) => ({ id, name }))}
+        />
+      </Panel>
+      {list.isPending && <Loading label="Loading plans…" />}
+      {list.isError && <Notice tone="alert" title="Could not load plans">{list.error.message}</Notice>}
+      {list.data && (
+        <div className="flex flex-col gap-3">
+          <PlansTable
+            plans={list.data.plans}
+            total={list.data.total}
+            sort={params.sort ?? "updatedAt"}
+            dir={params.dir ?? "desc"}
+            onSort={(sort, dir) => update({ sort, dir })}
+            busy={list.isPlaceholderData}
+          />
+          <Pager page={list.data.page} pageSize={params.pageSize ?? DEFAULT_PAGE_SIZE} total={list.data.total} onPage={(page) => update({ page })} noun="Plans" />
+        </div>
+      )}
+    </Page>
+  );
+}

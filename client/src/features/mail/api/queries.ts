@@ -1,0 +1,6 @@
+import { mailViewQuery } from "./list-mail";
+
+/** The mail feature's query factory. */
+export const mailQueries = {
+  view: mailViewQuery,
+};

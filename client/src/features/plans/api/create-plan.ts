@@ -1,0 +1,19 @@
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+import type { CreatePlanRequest } from "../../../../../shared/schemas/plans";
+import { planDetailSchema } from "../../../../../shared/schemas/plan-responses";
+import { apiClient } from "../../../lib/api-client";
+import { apiPaths } from "../../../config/paths";
+import { plansKeys } from "./keys";
+
+export const createPlan = (body: CreatePlanRequest) => apiClient.send("POST", apiPaths.plans(), body, planDetailSchema);
+
+export function useCreatePlan() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: createPlan,
+    onSuccess: (plan) => {
+      queryClient.setQueryData(plansKeys.detail(plan.id), plan);
+      return queryClient.invalidateQueries({ queryKey: plansKeys.lists() });
+    },
+  });
+}

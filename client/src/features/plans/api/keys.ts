@@ -1,0 +1,17 @@
+import type { PlanListParams } from "./list-plans";
+import type { AnalysisRequest } from "../../../../../shared/schemas/analysis";
+
+/** Query keys for plans, general to specific: invalidating `detail(id)` refreshes its revisions, verify and diffs too. */
+export const plansKeys = {
+  all: ["plans"] as const,
+  lists: () => [...plansKeys.all, "list"] as const,
+  list: (query: PlanListParams) => [...plansKeys.lists(), query] as const,
+  details: () => [...plansKeys.all, "detail"] as const,
+  detail: (id: number) => [...plansKeys.details(), id] as const,
+  revision: (id: number, n: number) => [...plansKeys.detail(id), "revision", n] as const,
+  verify: (id: number, n: number) => [...plansKeys.detail(id), "verify", n] as const,
+  diff: (id: number, a: number, b: number) => [...plansKeys.detail(id), "diff", a, b] as const,
+  settings: () => [...plansKeys.all, "settings"] as const,
+  modelChoices: () => [...plansKeys.all, "model-choices"] as const,
+  analysis: (request: AnalysisRequest) => [...plansKeys.all, "analysis", request] as const,
+};

@@ -1,0 +1,20 @@
+import { diffQuery } from "./diff-revisions";
+import { planQuery } from "./get-plan";
+import { revisionQuery } from "./get-revision";
+import { listPlansQuery } from "./list-plans";
+import { modelChoicesQuery } from "./model-choices";
+import { planSettingsQuery } from "./plan-settings";
+import { analysisQuery } from "./run-analysis";
+import { verifyQuery } from "./verify-revision";
+
+/** The plans feature's query factory: `useQuery(plansQueries.detail(id))`. */
+export const plansQueries = {
+  list: listPlansQuery,
+  detail: planQuery,
+  revision: revisionQuery,
+  verify: verifyQuery,
+  diff: diffQuery,
+  settings: planSettingsQuery,
+  modelChoices: modelChoicesQuery,
+  analysis: analysisQuery,
+};

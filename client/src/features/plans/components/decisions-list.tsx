@@ -1,0 +1,31 @@
+import type { Decision } from "../../../../../shared/schemas/plans";
+import { formatDateTime } from "../../../lib/format";
+
+/** Each approver's decision with the exact content hash they signed; earlier rounds stay on record. */
+export function DecisionsList({ decisions, currentRound, contentHash }: { decisions: Decision[]; currentRound: number; contentHash: string }) {
+  if (decisions.length === 0) return <p className="text-body text-ink-soft">No decisions yet.</p>;
+  return (
+    <ul className="flex flex-col gap-2" aria-label="Decisions">
+      {decisions.map((d, i) => {
+        const approve = d.decision === "approve";
+        const matches = d.signedHash === contentHash;
+        return (
+          <li key={i} className={`rounded-md border px-3 py-2 ${approve ? "border-seaglass/40 bg-seaglass-pale/50" : "border-signal/40 bg-signal-pale/60"}`}>
+            <p className="text-body">
+              <span className="font-semibold">{approve ? "Approved" : "Changes requested"}</span> by {d.approver.name}{" "}
+              <span className="text-note text-ink-soft">
+                ({d.approver.email}) · {formatDateTime(d.at)} · round {d.round}
+                {d.round !== currentRound && " (earlier round)"}
+              </span>
+            </p>
+            {d.comment && <p className="mt-1 text-body whitespace-pre-wrap">“{d.comment}”</p>}
+            <p className="mt-1 text-note">
+              Signed hash <code className="rounded bg-white/70 px-1 break-all" data-testid="signed-hash">{d.signedHash}</code>
+              {!matches && <span className="ml-2 font-semibold text-signal-dark">does not match this revision’s stored hash</span>}
+            </p>
+          </li>
+        );
+      })}
+    </ul>
+  );
+}

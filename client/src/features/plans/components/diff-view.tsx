@@ -1,0 +1,104 @@
+import type { DiffResponse, FieldChange } from "../../../../../shared/schemas/plan-responses";
+import { formatMoney, formatHours, shortHash } from "../../../lib/format";
+import { formatPairRanges } from "../lib/pair-ranges";
+import { FLAG_INFO } from "./flags-summary";
+
+const show = (v: unknown) => (v === null || v === undefined ? "—" : typeof v === "object" ? JSON.stringify(v) : String(v));
+
+function ChangesTable({ changes, caption }: { changes: FieldChange[]; caption: string }) {
+  return (
+    <div className="overflow-x-auto rounded-md border border-rule">
+      <table className="w-full border-collapse text-left text-body">
+        <caption className="sr-only">{caption}</caption>
+        <thead className="bg-paper-deep text-note font-semibold tracking-wide text-ink-soft uppercase">
+          <tr>
+            <th scope="col" className="px-3 py-2">Field</th>
+            <th scope="col" className="px-3 py-2">Before</th>
+            <th scope="col" className="px-3 py-2">After</th>
+          </tr>
+        </thead>
+        <tbody>
+          {changes.map((c) => (
+            <tr key={c.path} className="border-t border-rule/70 align-top">
+              <th scope="row" className="px-3 py-2 font-mono text-note font-medium">{c.path}</th>
+              <td className="px-3 py-2 break-all text-signal-dark line-through decoration-signal/40">{show(c.from)}</td>
+              <td className="px-3 py-2 break-all text-seaglass-dark">{show(c.to)}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}
+
+const signed = (n: number, fmt: (v: number) => string) => `${n > 0 ? "+" : n < 0 ? "−" : "±"}${fmt(Math.abs(n))}`;
+
+/** Revision a → b: inputs, stages by position, pairs whose flags flipped, and what the budget moved. */
+export function DiffView({ diff }: { diff: DiffResponse }) {
+  const flagGroups = new Map<string, DiffResponse["flags"]>();
+  for (const f of diff.flags) {
+    const key = `${f.scope}|${f.flag}|${f.to}`;
+    flagGroups.set(key, [...(flagGroups.get(key) ?? []), f]);
+  }
+  return (
+    <div className="flex flex-col gap-6">
+      <p className="text-body">
+        From revision {diff.a.number} (<code title={diff.a.contentHash}>{shortHash(diff.a.contentHash)}</code>) to revision {diff.b.number} (
+        <code title={diff.b.contentHash}>{shortHash(diff.b.contentHash)}</code>).
+      </p>
+      <section className="flex flex-col gap-2" aria-label="Changed fields">
+        <h2 className="text-title font-semibold">Inputs</h2>
+        {diff.fields.length ? <ChangesTable changes={diff.fields} caption="Changed inputs" /> : <p className="text-body text-ink-soft">No input changed.</p>}
+      </section>
+      <section className="flex flex-col gap-2" aria-label="Changed stages">
+        <h2 className="text-title font-semibold">Stages</h2>
+        {diff.stages.length === 0 && <p className="text-body text-ink-soft">No stage changed.</p>}
+        {diff.stages.map((s) => (
+          <div key={s.index} className="flex flex-col gap-1">
+            <h3 className="font-semibold">
+              Stage {s.index + 1}: {s.change === "added" ? "added" : s.change === "removed" ? "removed" : `${s.fields.length} field${s.fields.length === 1 ? "" : "s"} changed`}
+            </h3>
+            {s.fields.length > 0 && <ChangesTable changes={s.fields} caption={`Stage ${s.index + 1} changes`} />}
+          </div>
+        ))}
+      </section>
+      <section className="flex flex-col gap-2" aria-label="Changed flags">
+        <h2 className="text-title font-semibold">Pairs whose flags changed</h2>
+        {diff.flags.length === 0 && <p className="text-body text-ink-soft">Every pair keeps its flags.</p>}
+        <ul className="flex flex-col gap-1 text-body">
+          {[...flagGroups.entries()].map(([key, items]) => {
+            const { scope, flag, to } = items[0];
+            const label = FLAG_INFO[flag as keyof typeof FLAG_INFO]?.label ?? flag;
+            return (
+              <li key={key}>
+                <span className="font-medium">{scope === "final" ? "Plan target" : `Stage ${Number(scope.split(".")[1]) + 1}`}</span>: {label}{" "}
+                {to ? <span className="text-signal-dark">now set</span> : <span className="text-seaglass-dark">now clear</span>} on pairs {formatPairRanges(items.map((i) => i.pair))}
+              </li>
+            );
+          })}
+        </ul>
+      </section>
+      <section className="flex flex-col gap-2" aria-label="Budget changes">
+        <h2 className="text-title font-semibold">Budget</h2>
+        {diff.budget.inputs.length > 0 && <ChangesTable changes={diff.budget.inputs} caption="Budget input changes" />}
+        {diff.budget.totals ? (
+          <>
+            <ul className="text-body">
+              {diff.budget.stages.map((s) => (
+                <li key={s.index}>
+                  Stage {s.index + 1}: cost {s.costFrom === null ? "—" : formatMoney(s.costFrom)} → {s.costTo === null ? "—" : formatMoney(s.costTo)} ({signed(s.costDelta, formatMoney)}),
+                  accelerator-hours {signed(s.hoursDelta, formatHours)}
+                </li>
+              ))}
+            </ul>
+            <p className="font-semibold">
+              Total cost {formatMoney(diff.budget.totals.costFrom)} → {formatMoney(diff.budget.totals.costTo)} ({signed(diff.budget.totals.costDelta, formatMoney)}), in the catalog’s currency; estimates.
+            </p>
+          </>
+        ) : (
+          <p className="text-body text-ink-soft">One or both revisions have no costed budget sheet.</p>
+        )}
+      </section>
+    </div>
+  );
+}

@@ -1,0 +1,74 @@
+import { useFormContext, useWatch, type FieldValues } from "react-hook-form";
+import { Field, TextInput } from "../../../../components/field";
+import { selectClass } from "../plan-filters";
+import { METHOD_TABLE, methodEntry, type ParamField } from "../../lib/method-table";
+import { toNumberList, toOptionalBoolean } from "../../lib/form-values";
+import { NumberField, useFieldError } from "./form-field";
+
+function ParamInput({ name, param }: { name: string; param: ParamField }) {
+  const { register } = useFormContext<FieldValues>();
+  const path = `${name}.${param.key}`;
+  const error = useFieldError(path);
+  const label = param.required ? param.label : `${param.label} (optional)`;
+  if (param.kind === "number" || param.kind === "integer") {
+    return <NumberField name={path} label={label} hint={param.hint} step={param.kind === "integer" ? "1" : "any"} />;
+  }
+  if (param.kind === "boolean") {
+    return (
+      <Field label={label} hint={param.hint} error={error}>
+        {({ id, describedBy, invalid }) => (
+          <select id={id} aria-describedby={describedBy} aria-invalid={invalid} className={selectClass} {...register(path, { setValueAs: toOptionalBoolean })}>
+            <option value="">Engine default</option>
+            <option value="true">Yes</option>
+            <option value="false">No</option>
+          </select>
+        )}
+      </Field>
+    );
+  }
+  return (
+    <Field label={label} hint={param.hint} error={error}>
+      {({ id, describedBy, invalid }) => <TextInput id={id} aria-describedby={describedBy} aria-invalid={invalid} {...register(path, { setValueAs: toNumberList })} />}
+    </Field>
+  );
+}
+
+/**
+ * A method and its own parameters at `name` (an object `{ method, ...params }`). Changing the method
+ * replaces the whole object, so parameters of the previous method never reach the strict schema.
+ */
+export function MethodFields({ name, label = "Method" }: { name: string; label?: string }) {
+  const { setValue, control } = useFormContext<FieldValues>();
+  const method = useWatch({ control, name: `${name}.method` }) as string;
+  const rootError = useFieldError(name);
+  const entry = methodEntry(method);
+  return (
+    <div className="flex flex-col gap-3">
+      <Field label={label} hint={entry?.summary} error={rootError}>
+        {({ id, describedBy, invalid }) => (
+          <select
+            id={id}
+            aria-describedby={describedBy}
+            aria-invalid={invalid}
+            className={selectClass}
+            value={method}
+            onChange={(e) => setValue(name, { method: e.target.value }, { shouldDirty: true, shouldValidate: false })}
+          >
+            {METHOD_TABLE.map((m) => (
+              <option key={m.id} value={m.id}>
+                {m.label}
+              </option>
+            ))}
+          </select>
+        )}
+      </Field>
+      {entry && entry.params.length > 0 && (
+        <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-3" key={entry.id}>
+          {entry.params.map((p) => (
+            <ParamInput key={p.key} name={name} param={p} />
+          ))}
+        </div>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,77 @@
+import { useState, type ReactNode } from "react";
+import { FormProvider, useForm, useWatch } from "react-hook-form";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { createPlanRequestSchema } from "../../../../../shared/schemas/plans";
+import type { PlanDetail } from "../../../../../shared/schemas/plan-responses";
+import type { ModelProfile } from "../../../../../shared/schemas/models";
+import { SubmitButton } from "../../../components/button";
+import { Field, TextField } from "../../../components/field";
+import { Notice } from "../../../components/notice";
+import { formatCount } from "../../../lib/format";
+import { useCreatePlan } from "../api/create-plan";
+import { blankRevision, toNumber } from "../lib/form-values";
+import { placeServerErrors } from "../lib/server-errors";
+import { RevisionFields } from "./form/revision-fields";
+import { selectClass } from "./plan-filters";
+
+type NewPlanFormProps = {
+  models: ModelProfile[];
+  /** The lab-wide minimum of approvals; the plan may ask for more, never fewer. */
+  minApprovals: number;
+  onCreated: (plan: PlanDetail) => void;
+  /** Rendered after the stages, inside the form (the budget sheet's place). */
+  afterStages?: ReactNode;
+};
+
+/** Title, model and approvals for a new plan, then its first revision; saved as a draft. */
+export function NewPlanForm({ models, minApprovals, onCreated, afterStages }: NewPlanFormProps) {
+  const create = useCreatePlan();
+  const [formError, setFormError] = useState<string | null>(null);
+  const form = useForm({
+    resolver: zodResolver(createPlanRequestSchema),
+    defaultValues: { title: "", purpose: "", modelId: undefined as unknown as number, requiredApprovals: minApprovals, revision: blankRevision() },
+  });
+  const { register, handleSubmit, setError, formState, control } = form;
+  const modelId = useWatch({ control, name: "modelId" });
+  const model = models.find((m) => m.id === modelId);
+
+  const onSubmit = handleSubmit((values) => {
+    setFormError(null);
+    create.mutate(values, { onSuccess: onCreated, onError: (e) => setFormError(placeServerErrors(e, setError)) });
+  });
+
+  return (
+    <FormProvider {...form}>
+      <form onSubmit={onSubmit} noValidate className="flex flex-col gap-6" aria-label="New plan">
+        {formError && <Notice tone="alert" title="Not saved">{formError}</Notice>}
+        <div className="grid gap-4 md:grid-cols-2">
+          <TextField label="Title" error={formState.errors.title?.message} {...register("title")} />
+          <Field label="Model" error={formState.errors.modelId?.message} hint={model ? `${model.family}; trained on ${formatCount(model.trainedContext)} tokens, base ${formatCount(model.ropeTheta)}` : "The profile this plan extends"}>
+            {({ id, describedBy, invalid }) => (
+              <select id={id} aria-describedby={describedBy} aria-invalid={invalid} className={selectClass} {...register("modelId", { setValueAs: toNumber })}>
+                <option value="">Pick a model profile</option>
+                {models.map((m) => (
+                  <option key={m.id} value={m.id}>{m.name}</option>
+                ))}
+              </select>
+            )}
+          </Field>
+          <TextField label="Purpose" hint="Why this extension, in a sentence" error={formState.errors.purpose?.message} {...register("purpose")} />
+          <Field label="Approvals required" error={formState.errors.requiredApprovals?.message} hint={`The lab asks for at least ${minApprovals}.`}>
+            {({ id, describedBy, invalid }) => (
+              <select id={id} aria-describedby={describedBy} aria-invalid={invalid} className={selectClass} {...register("requiredApprovals", { setValueAs: toNumber })}>
+                {[1, 2, 3].filter((n) => n >= minApprovals).map((n) => (
+                  <option key={n} value={n}>{n}</option>
+                ))}
+              </select>
+            )}
+          </Field>
+        </div>
+        <RevisionFields model={model ? { modelId: model.id } : null} afterStages={afterStages} />
+        <div className="border-t border-rule pt-4">
+          <SubmitButton busy={create.isPending} busyLabel="Saving draft…">Save draft</SubmitButton>
+        </div>
+      </form>
+    </FormProvider>
+  );
+}

@@ -1,0 +1,127 @@
+import { Link } from "react-router-dom";
+import { createColumnHelper, flexRender, getCoreRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
+import type { PlanListItem } from "../../../../../shared/schemas/plan-responses";
+import { paths } from "../../../config/paths";
+import { formatDate } from "../../../lib/format";
+import { StateBadge } from "./state-badge";
+
+export type PlanSort = "updatedAt" | "createdAt" | "title" | "state" | "owner" | "model";
+
+type PlansTableProps = {
+  plans: PlanListItem[];
+  total: number;
+  sort: PlanSort;
+  dir: "asc" | "desc";
+  onSort: (sort: PlanSort, dir: "asc" | "desc") => void;
+  busy?: boolean;
+};
+
+const column = createColumnHelper<PlanListItem>();
+const SORT_MARK = { asc: "▲", desc: "▼" } as const;
+
+const columns = [
+  column.accessor("title", {
+    header: "Plan",
+    cell: ({ row: { original: p } }) => (
+      <span className="flex flex-col">
+        <Link to={paths.plan(p.id)} className="font-medium text-ink underline decoration-rule-strong underline-offset-4 hover:text-hemp-dark">
+          {p.title}
+        </Link>
+        {p.purpose && <span className="line-clamp-1 text-note text-ink-soft">{p.purpose}</span>}
+      </span>
+    ),
+  }),
+  column.accessor("state", { header: "State", cell: (c) => <StateBadge state={c.getValue()} /> }),
+  column.accessor((p) => p.owner.name, { id: "owner", header: "Owner" }),
+  column.accessor((p) => p.model.name, { id: "model", header: "Model" }),
+  column.display({
+    id: "revision",
+    header: "Revision",
+    cell: ({ row: { original: p } }) => (
+      <span className="whitespace-nowrap text-note">
+        r{p.latestRevision}
+        {p.approvedRevision !== null && <span className="text-ink-soft"> · signed r{p.approvedRevision}</span>}
+      </span>
+    ),
+  }),
+  column.accessor("updatedAt", { header: "Updated", cell: (c) => <span className="whitespace-nowrap">{formatDate(c.getValue())}</span> }),
+  column.accessor("createdAt", { header: "Created", cell: (c) => <span className="whitespace-nowrap">{formatDate(c.getValue())}</span> }),
+];
+
+/**
+ * Plans as the server sorted and paged them: TanStack Table in manual mode, so a header click
+ * asks the server for a new order instead of sorting the rows on this page.
+ */
+export function PlansTable({ plans, total, sort, dir, onSort, busy = false }: PlansTableProps) {
+  const sorting: SortingState = [{ id: sort, desc: dir === "desc" }];
+  // eslint-disable-next-line react-hooks/incompatible-library -- TanStack Table returns fresh functions by design
+  const table = useReactTable({
+    data: plans,
+    columns,
+    getRowId: (p) => String(p.id),
+    state: { sorting },
+    manualSorting: true,
+    manualPagination: true,
+    rowCount: total,
+    enableSortingRemoval: false,
+    onSortingChange: (updater) => {
+      const next = typeof updater === "function" ? updater(sorting) : updater;
+      const first = next[0];
+      if (first) onSort(first.id as PlanSort, first.desc ? "desc" : "asc");
+    },
+    getCoreRowModel: getCoreRowModel(),
+  });
+
+  return (
+    <div className="overflow-x-auto rounded-md border border-rule" aria-busy={busy || undefined}>
+      <table className={`w-full border-collapse text-left text-body ${busy ? "opacity-70" : ""}`}>
+        <caption className="sr-only">Plans</caption>
+        <thead className="bg-paper-deep">
+          {table.getHeaderGroups().map((group) => (
+            <tr key={group.id}>
+              {group.headers.map((header) => {
+                const sorted = header.column.getIsSorted();
+                const label = flexRender(header.column.columnDef.header, header.getContext());
+                return (
+                  <th
+                    key={header.id}
+                    scope="col"
+                    aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : undefined}
+                    className="border-b border-rule px-3 py-2 text-note font-semibold tracking-wide text-ink-soft uppercase"
+                  >
+                    {header.column.getCanSort() ? (
+                      <button type="button" onClick={header.column.getToggleSortingHandler()} className="inline-flex items-center gap-1 uppercase hover:text-hemp-dark">
+                        {label}
+                        <span aria-hidden className="text-[10px]">{sorted ? SORT_MARK[sorted] : "↕"}</span>
+                      </button>
+                    ) : (
+                      label
+                    )}
+                  </th>
+                );
+              })}
+            </tr>
+          ))}
+        </thead>
+        <tbody>
+          {table.getRowModel().rows.map((row) => (
+            <tr key={row.id} className="border-b border-rule/70 last:border-b-0 hover:bg-hemp-pale/40">
+              {row.getVisibleCells().map((cell) => (
+                <td key={cell.id} className="px-3 py-2 align-middle">
+                  {flexRender(cell.column.columnDef.cell, cell.getContext())}
+                </td>
+              ))}
+            </tr>
+          ))}
+          {plans.length === 0 && (
+            <tr>
+              <td colSpan={columns.length} className="px-3 py-6 text-center text-ink-soft">
+                No plans match these filters.
+              </td>
+            </tr>
+          )}
+        </tbody>
+      </table>
+    </div>
+  );
+}

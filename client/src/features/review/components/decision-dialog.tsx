@@ -1,0 +1,97 @@
+import { useEffect, useRef, useState } from "react";
+import { useForm, useWatch } from "react-hook-form";
+import { zodResolver } from "@hookform/resolvers/zod";
+import { decisionRequestSchema } from "../../../../../shared/schemas/plans";
+import { Button, SubmitButton } from "../../../components/button";
+import { Field } from "../../../components/field";
+import { Notice } from "../../../components/notice";
+import { isApiError } from "../../../lib/api-client";
+import { useDecide } from "../api/decide";
+
+export type DecisionTarget = { planId: number; title: string; revision: number; contentHash: string; approvals: number; requiredApprovals: number };
+
+// Sending a revision back without saying why leaves its author guessing; the server allows it, this form does not.
+const decisionFormSchema = decisionRequestSchema.refine((d) => d.decision === "approve" || d.comment.trim().length > 0, {
+  path: ["comment"],
+  message: "say what should change",
+});
+
+type DecisionDialogProps = { target: DecisionTarget; onClose: () => void; onDecided: (state: string) => void };
+
+/** Approve or send back one revision; shows the exact hash the decision signs. */
+export function DecisionDialog({ target, onClose, onDecided }: DecisionDialogProps) {
+  const ref = useRef<HTMLDialogElement>(null);
+  const decide = useDecide();
+  const [error, setError] = useState<string | null>(null);
+  const { register, handleSubmit, control, formState } = useForm({
+    resolver: zodResolver(decisionFormSchema),
+    defaultValues: { decision: "approve" as const, comment: "" },
+  });
+  const decision = useWatch({ control, name: "decision" });
+
+  useEffect(() => {
+    const dialog = ref.current;
+    // Removing the element on unmount ends the modal state; closing here would fire onClose during StrictMode's re-run.
+    if (dialog && !dialog.open) dialog.showModal();
+  }, []);
+
+  const onSubmit = handleSubmit((body) => {
+    setError(null);
+    decide.mutate(
+      { planId: target.planId, n: target.revision, body },
+      {
+        onSuccess: (r) => onDecided(r.state),
+        onError: (e) => {
+          if (isApiError(e) && e.status === 409 && e.fields?.state) setError(`Not recorded: the revision is now ${e.fields.state.replace("_", " ")}. ${e.message}.`);
+          else setError(isApiError(e) ? e.message : "Something went wrong. Try again.");
+        },
+      },
+    );
+  });
+
+  return (
+    <dialog
+      ref={ref}
+      onClose={onClose}
+      aria-labelledby="decision-title"
+      className="m-auto w-[min(40rem,calc(100vw-2rem))] rounded-lg border border-rule bg-paper p-0 text-ink shadow-xl backdrop:bg-ink/40"
+    >
+      <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4 p-6" aria-label="Decision">
+        <h2 id="decision-title" className="text-title font-semibold">
+          Decide on {target.title}, revision {target.revision}
+        </h2>
+        <div className="rounded-md border border-hemp/40 bg-hemp-pale/50 px-3 py-2">
+          <p className="text-note font-semibold tracking-wide text-hemp-dark uppercase">You are signing this content hash</p>
+          <code className="block text-body break-all" data-testid="hash-to-sign">{target.contentHash}</code>
+          <p className="mt-1 text-note text-ink-soft">SHA-256 of the revision’s canonical content: every input, the engine’s figures and the budget sheet. Approvals so far: {target.approvals} of {target.requiredApprovals}.</p>
+        </div>
+        {error && <Notice tone="alert">{error}</Notice>}
+        <fieldset className="flex flex-col gap-2">
+          <legend className="mb-1 text-note font-semibold">Decision</legend>
+          <label className="inline-flex items-center gap-2 text-body">
+            <input type="radio" value="approve" className="size-4 accent-hemp" {...register("decision")} /> Approve: this plan is ready for a tuning run
+          </label>
+          <label className="inline-flex items-center gap-2 text-body">
+            <input type="radio" value="request_changes" className="size-4 accent-hemp" {...register("decision")} /> Request changes: send it back to its author
+          </label>
+        </fieldset>
+        <Field label={decision === "approve" ? "Comment (optional)" : "What should change"} error={formState.errors.comment?.message}>
+          {({ id, describedBy, invalid }) => (
+            <textarea
+              id={id}
+              rows={4}
+              aria-describedby={describedBy}
+              aria-invalid={invalid}
+              className="w-full rounded-md border border-rule-strong bg-white/70 px-3 py-2 text-body focus:border-seaglass focus:outline-2 focus:outline-seaglass/30"
+              {...register("comment")}
+            />
+          )}
+        </Field>
+        <div className="flex flex-wrap justify-end gap-2">
+          <Button variant="secondary" onClick={() => ref.current?.close()}>Cancel</Button>
+          <SubmitButton busy={decide.isPending} busyLabel="Recording…">{decision === "approve" ? "Sign and approve" : "Send back for changes"}</SubmitButton>
+        </div>
+      </form>
+    </dialog>
+  );
+}
