@@ -4,6 +4,14 @@ import { paths, routes } from "../config/paths";
 import { AppLayout } from "./layout/app-layout";
 import { RoleGate } from "./layout/role-gate";
 import { AcceleratorsRoute } from "./routes/accelerators";
+import { AuditRoute } from "./routes/audit";
+import { MailRoute } from "./routes/mail";
+import { PlanRoute } from "./routes/plan";
+import { PlanDiffRoute } from "./routes/plan-diff";
+import { PlanEditRoute } from "./routes/plan-edit";
+import { PlanNewRoute } from "./routes/plan-new";
+import { PlansRoute } from "./routes/plans";
+import { ReviewRoute } from "./routes/review";
 import { EstimatorRoute } from "./routes/estimator";
 import { HomeRoute } from "./routes/home";
 import { ModelsRoute } from "./routes/models";
@@ -35,6 +43,14 @@ export const router = createBrowserRouter([
       { path: routes.workbench, element: <WorkbenchRoute />, errorElement: routeError },
       { path: routes.estimator, element: <EstimatorRoute />, errorElement: routeError },
       { path: routes.accelerators, element: <AcceleratorsRoute />, errorElement: routeError },
+      { path: routes.plans, element: <PlansRoute />, errorElement: routeError },
+      { path: routes.planNew, element: <PlanNewRoute />, errorElement: routeError },
+      { path: routes.plan, element: <PlanRoute />, errorElement: routeError },
+      { path: routes.planEdit, element: <PlanEditRoute />, errorElement: routeError },
+      { path: routes.planDiff, element: <PlanDiffRoute />, errorElement: routeError },
+      { path: routes.review, element: <RoleGate screen="review"><ReviewRoute /></RoleGate>, errorElement: routeError },
+      { path: routes.audit, element: <RoleGate screen="audit"><AuditRoute /></RoleGate>, errorElement: routeError },
+      { path: routes.mail, element: <RoleGate screen="mail"><MailRoute /></RoleGate>, errorElement: routeError },
       { path: "*", element: <NotFoundRoute />, errorElement: routeError },
     ],
   },
