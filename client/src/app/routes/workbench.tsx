@@ -24,10 +24,10 @@ export function WorkbenchRoute() {
             p.sourceFileName ? (
               <details className="rounded-md border border-hemp/30 bg-hemp-pale/30 px-3 py-2" open={p.importWarnings.length > 0}>
                 <summary className="cursor-pointer text-body font-medium text-hemp-dark">
-                  {p.importWarnings.length} import {p.importWarnings.length === 1 ? "warning" : "warnings"} for {p.name}
+                  {p.importWarnings.length} {p.importWarnings.length === 1 ? "warning was" : "warnings were"} raised when the config of {p.name} was imported
                 </summary>
                 <div className="mt-2">
-                  <ImportWarnings warnings={p.importWarnings} sourceHref={apiPaths.modelSource(p.id)} sourceFileName={p.sourceFileName} title="Raised when its config was imported" />
+                  <ImportWarnings warnings={p.importWarnings} sourceHref={apiPaths.modelSource(p.id)} sourceFileName={p.sourceFileName} title={null} columns={2} />
                 </div>
               </details>
             ) : null

@@ -4,6 +4,7 @@ import {
   boundProgressEventSchema, smallestBaseResponseSchema, type BoundProgress, type SmallestBaseResponse,
 } from "../../../../../shared/schemas/bounds";
 import { ApiError, apiClient } from "../../../lib/api-client";
+import { busyDelay, retryWhileBusy } from "./busy-retry";
 import { apiPaths } from "../../../config/paths";
 import { workbenchKeys } from "./keys";
 import { readServerEvents } from "./server-events";
@@ -45,5 +46,6 @@ export const smallestBaseQuery = (rotaryDim: number, targetContext: number, onPr
     queryKey: workbenchKeys.smallestBase(rotaryDim, targetContext),
     queryFn: ({ signal }) => streamSmallestBase({ rotaryDim, targetContext }, signal, onProgress),
     staleTime: Infinity,
-    retry: false,
+    retry: retryWhileBusy,
+    retryDelay: busyDelay,
   });

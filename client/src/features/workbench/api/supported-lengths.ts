@@ -2,6 +2,7 @@ import { queryOptions } from "@tanstack/react-query";
 import { supportedLengthResponseSchema, type SupportedLengthResponse } from "../../../../../shared/schemas/bounds";
 import { apiClient } from "../../../lib/api-client";
 import { apiPaths } from "../../../config/paths";
+import { busyDelay, retryWhileBusy } from "./busy-retry";
 import { workbenchKeys } from "./keys";
 
 export type SupportedLength = SupportedLengthResponse & { base: number };
@@ -22,4 +23,6 @@ export const supportedLengthsQuery = (rotaryDim: number, bases: number[]) =>
       return out;
     },
     staleTime: Infinity,
+    retry: retryWhileBusy,
+    retryDelay: busyDelay,
   });

@@ -72,12 +72,24 @@ export function ChartTooltip({ left, top, children }: { left: number; top: numbe
   );
 }
 
-/** A horizontal reference line across the plot with its label at the right end. */
-export function ReferenceLine({ y, width, colour, label, dashed = "6 4" }: { y: number; width: number; colour: string; label: string; dashed?: string }) {
+type ReferenceLineProps = { y: number; width: number; colour: string; label: string; dashed?: string; labelAt?: "start" | "end" };
+
+/** A horizontal reference line across the plot, labelled at whichever end the data leaves free. */
+export function ReferenceLine({ y, width, colour, label, dashed = "6 4", labelAt = "end" }: ReferenceLineProps) {
   return (
     <g>
       <line x1={0} x2={width} y1={y} y2={y} stroke={colour} strokeWidth={1.25} strokeDasharray={dashed} />
-      <text x={width - 4} y={y - 4} textAnchor="end" fontSize={11} fill={colour} fontFamily="IBM Plex Sans, sans-serif">
+      <text
+        x={labelAt === "end" ? width - 4 : 4}
+        y={y - 4}
+        textAnchor={labelAt}
+        fontSize={11}
+        fill={colour}
+        fontFamily="IBM Plex Sans, sans-serif"
+        paintOrder="stroke"
+        stroke="white"
+        strokeWidth={3}
+      >
         {label}
       </text>
     </g>

@@ -6,7 +6,7 @@ import { scaleLinear, scaleLog } from "@visx/scale";
 import { LinePath } from "@visx/shape";
 import { useTooltip } from "@visx/tooltip";
 import type { AnalysisResponse } from "../../../../../shared/schemas/analysis";
-import { sig } from "../figures";
+import { oneTwoFive, sig } from "../figures";
 import { METHOD_LABELS } from "../state/method-fields";
 import { axisProps, ChartTooltip, Legend, MARGIN, ReferenceLine, Swatch } from "./chart-parts";
 import { INK, INK_SOFT, methodColour } from "./palette";
@@ -30,7 +30,7 @@ export function RatioChart({ analysis, height = 280 }: { analysis: AnalysisRespo
       y: scaleLog({ domain: [lo / 1.3, hi * 1.3], range: [innerH, 0] }),
     };
   }, [series, analysis.scale, n, innerW, innerH]);
-  const ticks = y.ticks(6);
+  const ticks = oneTwoFive(y.domain()[0], y.domain()[1]);
 
   const onMove = (event: PointerEvent<SVGRectElement>) => {
     const point = localPoint(event.currentTarget.ownerSVGElement ?? event.currentTarget, event);
@@ -45,7 +45,7 @@ export function RatioChart({ analysis, height = 280 }: { analysis: AnalysisRespo
         <svg width={width} height={height} role="img" aria-label="Scale ratio θ′/θ per pair, one line per method">
           <Group left={MARGIN.left} top={MARGIN.top}>
             <ReferenceLine y={y(1)} width={innerW} colour={INK} label="1: kept as trained" />
-            {analysis.scale > 1 && <ReferenceLine y={y(1 / analysis.scale)} width={innerW} colour={INK_SOFT} label={`1/s = 1/${sig(analysis.scale, 4)}`} dashed="2 3" />}
+            {analysis.scale > 1 && <ReferenceLine y={y(1 / analysis.scale)} width={innerW} colour={INK_SOFT} label={`1/s = 1/${sig(analysis.scale, 4)}`} dashed="2 3" labelAt="start" />}
             {series.map((data, k) => (
               <LinePath key={k} data={data} x={(d) => x(d.i)} y={(d) => y(d.ratio)} stroke={methodColour(k)} strokeWidth={2.25} data-method={analysis.methods[k].method} />
             ))}

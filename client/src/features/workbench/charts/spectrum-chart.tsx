@@ -20,6 +20,9 @@ type SpectrumChartProps = {
   height?: number;
 };
 
+// Room above the plot for the band names, so they never sit on the data.
+const M = { ...MARGIN, top: 30 };
+
 /** Contiguous runs of one band along the pair index, for the background washes. */
 function bandRuns(pairs: PairResult[]) {
   const runs: { band: Band; from: number; to: number }[] = [];
@@ -42,7 +45,7 @@ export function SpectrumChart({ analysis, methodIndex, height = 340 }: SpectrumC
   const method = analysis.methods[index];
   const pairs = method.pairs;
   const L = analysis.model.trainedContext, target = analysis.targetContext;
-  const innerW = width - MARGIN.left - MARGIN.right, innerH = height - MARGIN.top - MARGIN.bottom;
+  const innerW = width - M.left - M.right, innerH = height - M.top - M.bottom;
   const colour = methodColour(index);
   const label = METHOD_LABELS[method.method];
 
@@ -57,28 +60,28 @@ export function SpectrumChart({ analysis, methodIndex, height = 340 }: SpectrumC
   const onMove = (event: PointerEvent<SVGRectElement>) => {
     const point = localPoint(event.currentTarget.ownerSVGElement ?? event.currentTarget, event);
     if (!point) return;
-    const i = Math.round(x.invert(point.x - MARGIN.left));
+    const i = Math.round(x.invert(point.x - M.left));
     const pair = pairs[Math.min(Math.max(i, 0), pairs.length - 1)];
-    tip.showTooltip({ tooltipData: pair, tooltipLeft: MARGIN.left + x(pair.index) + 12, tooltipTop: MARGIN.top + y(pair.scaledWavelength) });
+    tip.showTooltip({ tooltipData: pair, tooltipLeft: M.left + x(pair.index) + 12, tooltipTop: M.top + y(pair.scaledWavelength) });
   };
 
   return (
     <div className="flex flex-col gap-2">
       <div ref={ref} className="relative w-full" data-testid="spectrum-chart">
         <svg width={width} height={height} role="img" aria-label={`Wavelength per pair, original and ${label}`}>
-          <Group left={MARGIN.left} top={MARGIN.top}>
+          <Group left={M.left} top={M.top}>
             {bandRuns(pairs).map((run) => (
               <g key={`${run.band}-${run.from}`} data-band={run.band}>
                 <rect x={x(run.from - 0.5)} width={x(run.to + 0.5) - x(run.from - 0.5)} y={0} height={innerH} fill={BAND_STYLE[run.band].wash} />
-                {x(run.to + 0.5) - x(run.from - 0.5) > 60 && (
-                  <text x={x(run.from - 0.5) + 6} y={14} fontSize={11} fill={BAND_STYLE[run.band].text} fontFamily="IBM Plex Sans, sans-serif">
+                {x(run.to + 0.5) - x(run.from - 0.5) > 36 && (
+                  <text x={(x(run.from - 0.5) + x(run.to + 0.5)) / 2} y={-8} textAnchor="middle" fontSize={11} fontWeight={500} fill={BAND_STYLE[run.band].text} fontFamily="IBM Plex Sans, sans-serif">
                     {BAND_STYLE[run.band].label}
                   </text>
                 )}
               </g>
             ))}
-            <ReferenceLine y={y(L)} width={innerW} colour={TRAINED_LINE} label={`trained L = ${tokens(L)}`} />
-            <ReferenceLine y={y(target)} width={innerW} colour={TARGET_LINE} label={`target L′ = ${tokens(target)}`} dashed="2 3" />
+            <ReferenceLine y={y(L)} width={innerW} colour={TRAINED_LINE} label={`trained L = ${tokens(L)}`} labelAt="start" />
+            <ReferenceLine y={y(target)} width={innerW} colour={TARGET_LINE} label={`target L′ = ${tokens(target)}`} dashed="2 3" labelAt="start" />
             <LinePath data={pairs} x={(p) => x(p.index)} y={(p) => y(p.wavelength)} stroke={INK} strokeWidth={1.5} strokeDasharray="4 3" />
             <LinePath data={pairs} x={(p) => x(p.index)} y={(p) => y(p.scaledWavelength)} stroke={colour} strokeWidth={2.25} />
             {pairs.map((p) => (

@@ -47,13 +47,13 @@ export function WorkbenchInputs({ inputs, onChange, profiles, chosen, trainedCon
             errors={errors}
             onChange={(patch) => onChange({ ...inputs, ...patch })}
           />
-          {profileNotes}
         </div>
         <div className="flex flex-col gap-2">
           <h3 className="text-note font-semibold tracking-wide text-ink-soft uppercase">Methods to compare</h3>
           <MethodRows rows={inputs.methods} context={context} errors={errors} onChange={(methods) => onChange({ ...inputs, methods, view: Math.min(inputs.view, methods.length - 1) })} />
         </div>
       </div>
+      {profileNotes && <div className="mt-5">{profileNotes}</div>}
     </Panel>
   );
 }

@@ -1,0 +1,237 @@
+import fs from "node:fs";
+import path from "node:path";
+import Papa from "papaparse";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Browser, Page } from "playwright-core";
+import { launchBrowser, screenshot } from "../setup/browser";
+import { startTestServer } from "../setup/server";
+import { createTestUser, type TestUser } from "../setup/users";
+import { createEventParser, type ServerEvent } from "../../client/src/features/workbench/api/server-events";
+import { inputsToParams, parseInputs } from "../../client/src/features/workbench/state/url-codec";
+import { toRequest } from "../../client/src/features/workbench/state/to-request";
+import type { WorkbenchInputs } from "../../client/src/features/workbench/state/inputs";
+
+const builtClient = path.resolve(import.meta.dirname, "../../dist/client/index.html");
+const fixturePath = path.resolve(import.meta.dirname, "../fixtures/configs/every-warning.json");
+
+let server: Awaited<ReturnType<typeof startTestServer>>;
+let browser: Browser;
+let researcher: TestUser;
+
+beforeAll(async () => {
+  if (!fs.existsSync(builtClient)) throw new Error("dist/client is missing: run `npm run build` before the browser tests");
+  [server, browser, researcher] = await Promise.all([startTestServer(), launchBrowser(), createTestUser(["researcher"], "Rosa Researcher")]);
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await server?.close();
+});
+
+async function signIn(page: Page, who: { email: string; password: string }) {
+  await page.getByLabel("E-mail").fill(who.email);
+  await page.getByLabel("Password").fill(who.password);
+  await page.getByRole("button", { name: "Sign in" }).click();
+}
+
+/** The analysis the page asked for last, once it has answered with the given target. */
+const analysisFor = (page: Page, target: number) =>
+  page.waitForResponse((r) => r.url().endsWith("/api/analyses") && r.request().method() === "POST" && JSON.parse(r.request().postData() ?? "{}").targetContext === target);
+
+/** Inputs a person sets on the workbench, read back from the screen. */
+async function readInputs(page: Page) {
+  return {
+    model: await page.getByLabel("Model", { exact: true }).inputValue(),
+    target: await page.getByLabel("Target length L′ (tokens)").inputValue(),
+    method1: await page.getByLabel("Method 1", { exact: true }).inputValue(),
+    method2: await page.getByLabel("Method 2", { exact: true }).inputValue(),
+    shown: await page.getByLabel("Method shown").first().inputValue(),
+    flaggedOnly: await page.getByLabel("Flagged pairs only").isChecked(),
+  };
+}
+
+describe("workbench in a browser", () => {
+  it("imports a troubled config, saves it, compares two methods, filters and downloads the pairs, and reproduces the view from its URL", async () => {
+    const context = await browser.newContext({ viewport: { width: 1360, height: 900 }, acceptDownloads: true });
+    const page = await context.newPage();
+    const pageErrors: string[] = [];
+    page.on("pageerror", (e) => pageErrors.push(e.message));
+    page.on("console", (m) => {
+      if (m.type() === "error" && !m.text().startsWith("Failed to load resource")) pageErrors.push(m.text());
+    });
+
+    await page.goto(`${server.url}/models/import`);
+    await page.waitForURL(/\/sign-in/);
+    await signIn(page, researcher);
+    await page.getByRole("heading", { level: 1, name: "Import a config.json" }).waitFor();
+    expect(await page.getByRole("navigation", { name: "Main" }).getByRole("link").allTextContents()).toEqual(
+      expect.arrayContaining(["Profiles", "Workbench"]),
+    );
+
+    // Upload: the preview is parse-only; every warning the server raised is on screen with its fix.
+    const previewed = page.waitForResponse((r) => r.url().includes("/api/models/import") && !r.url().includes("save=true"));
+    await page.getByLabel("config.json to import").setInputFiles(fixturePath);
+    const preview = await (await previewed).json();
+    expect(preview.saved).toBeNull();
+    const warningsBox = page.getByTestId("import-warnings");
+    await warningsBox.waitFor();
+    const items = warningsBox.locator("li");
+    await expect(items.count()).resolves.toBe(preview.warnings.length);
+    for (const w of preview.warnings) {
+      const item = warningsBox.locator(`li[data-code="${w.code}"]`).first();
+      await expect(item.textContent()).resolves.toContain(w.message);
+      await expect(item.textContent()).resolves.toContain(w.fix);
+    }
+    // The fixture carries each mistake of the domain notes' import list that applies to a yarn block.
+    const codes = preview.warnings.map((w: { code: string }) => w.code);
+    for (const code of ["missing_original_length", "head_dim_differs", "partial_rotation", "unknown_scaling_key", "attention_factor_twice"]) {
+      expect(codes).toContain(code);
+    }
+    // d = head_dim 256 × partial_rotary_factor 0.5 = 128, shown before saving.
+    await expect(page.getByTestId("rotary-summary").textContent()).resolves.toContain("d = 128");
+    await screenshot(page, "workbench-import-preview");
+
+    const name = `Troubled ${Date.now().toString(36)}`;
+    const form = page.getByRole("form", { name: "Imported profile" });
+    await form.getByLabel("Name", { exact: true }).fill(name);
+    const saving = page.waitForResponse((r) => r.url().includes("/api/models/import?save=true"));
+    await form.getByRole("button", { name: "Save profile" }).click();
+    const saved = await saving;
+    expect(saved.status()).toBe(201);
+    const savedModel = (await saved.json()).saved;
+    // The edit is saved on top of what the file said; the rest is as previewed, and the warnings are kept.
+    expect(savedModel).toMatchObject({ name, trainedContext: preview.profile.trainedContext, headDim: 256, rotaryDim: 128, sourceFileName: "every-warning.json" });
+    expect(savedModel.importWarnings).toEqual(preview.warnings);
+    await page.waitForURL(`${server.url}/models/${savedModel.id}`);
+    await page.getByRole("heading", { level: 1, name }).waitFor();
+    await expect(page.getByTestId("import-warnings").locator("li").count()).resolves.toBe(preview.warnings.length);
+    const sourceLink = page.getByRole("link", { name: /Download the original/ });
+    const source = await page.request.get(new URL((await sourceLink.getAttribute("href"))!, server.url).toString());
+    expect(await source.text()).toBe(fs.readFileSync(fixturePath, "utf8"));
+    await screenshot(page, "workbench-profile");
+
+    // Workbench with the saved profile: linear against NTK-aware at 8× the trained length.
+    const L = savedModel.trainedContext as number;
+    const target = 8 * L;
+    await page.getByRole("link", { name: "Open in the workbench" }).click();
+    await page.waitForURL(/\/workbench\?/);
+    await page.getByLabel("Method 1", { exact: true }).waitFor();
+    expect(await page.getByLabel("Model", { exact: true }).inputValue()).toBe(String(savedModel.id));
+    const answered = analysisFor(page, target);
+    await page.getByLabel("Method 2", { exact: true }).selectOption("ntk");
+    await page.getByLabel("Target length L′ (tokens)").fill(String(target));
+    const analysis = await (await answered).json();
+    expect(analysis.methods.map((m: { method: string }) => m.method)).toEqual(["linear", "ntk"]);
+    await page.getByTestId("analysis-status").getByText(`L′ = ${target}`).waitFor();
+
+    // Flags on the chart, one marker per flagged pair and flag.
+    const chart = page.getByTestId("spectrum-chart");
+    const markers = (flag: string) => chart.locator(`[data-testid="flag-marker"][data-flag="${flag}"]`);
+    const [linear, ntk] = analysis.methods;
+    // λ_i = 2π·b^(2i/d) > L, counted straight from the definition (RoFormer, Su et al. 2021), not from the engine.
+    const d = 128, b = 10_000;
+    const beyond = Array.from({ length: d / 2 }, (_v, i) => 2 * Math.PI * b ** ((2 * i) / d)).filter((lambda) => lambda > L).length;
+    expect(beyond).toBeGreaterThan(0);
+    await expect(markers("exceedsTrainedWindow").count()).resolves.toBe(beyond);
+    await expect(markers("compressedResolution").count()).resolves.toBe(linear.summary.compressedResolutionPairs);
+    expect(linear.summary.compressedResolutionPairs).toBeGreaterThan(0);
+    // Position interpolation never reaches unseen angles (Chen et al. 2023; DOMAIN flag rule).
+    await expect(markers("unseenAngles").count()).resolves.toBe(0);
+
+    await page.getByLabel("Method shown").first().selectOption("1");
+    await expect(markers("unseenAngles").count()).resolves.toBe(ntk.summary.unseenAnglesPairs);
+    // NTK-aware scaling extrapolates some low-frequency pairs (Peng et al. 2023 §3.1).
+    expect(ntk.summary.unseenAnglesPairs).toBeGreaterThan(0);
+    const hover = chart.getByTestId("chart-hover");
+    const box = (await hover.boundingBox())!;
+    await hover.hover({ position: { x: box.width * 0.995, y: box.height / 2 } });
+    await expect(page.getByTestId("chart-tooltip").textContent()).resolves.toMatch(new RegExp(`Pair ${d / 2 - 1} `));
+    await page.getByTestId("smallest-base").getByText(/Smallest base that supports|No base on the grid/).waitFor({ timeout: 20_000 });
+    await page.getByTestId("supported-lengths").getByText("scanning…").waitFor({ state: "detached", timeout: 20_000 });
+    await page.mouse.move(0, 0);
+    await screenshot(page, "workbench-charts");
+
+    // The table: all 64 pairs, then only flagged ones; the CSV holds exactly the rows and columns shown.
+    const table = page.getByRole("table", { name: /^Pairs of/ });
+    const rows = table.locator("tbody tr");
+    await expect(rows.count()).resolves.toBe(d / 2);
+    await page.getByLabel("Flagged pairs only").check();
+    const flagged = ntk.pairs.filter((p: Record<string, boolean>) => p.exceedsTrainedWindow || p.unseenAngles || p.compressedResolution).length;
+    expect(flagged).toBeLessThan(d / 2);
+    await page.getByTestId("pair-count").getByText(`${flagged} of ${d / 2} pairs shown`).waitFor();
+    await expect(rows.count()).resolves.toBe(flagged);
+
+    const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: "Download CSV" }).click()]);
+    const csv = Papa.parse<string[]>(fs.readFileSync((await download.path())!, "utf8").trim());
+    const headers = (await table.locator("thead th").allTextContents()).map((t) => t.replace(/[▲▼↕]/g, "").trim());
+    expect(csv.data[0]).toEqual(headers);
+    expect(csv.data.length - 1).toBe(await rows.count());
+    const firstShown = (await rows.first().locator("td").first().textContent())!.trim();
+    expect(csv.data[1][0]).toBe(firstShown);
+    await table.scrollIntoViewIfNeeded();
+    await screenshot(page, "workbench-table");
+
+    // The URL alone reproduces the view.
+    const before = await readInputs(page);
+    expect(before).toMatchObject({ target: String(target), method1: "linear", method2: "ntk", shown: "1", flaggedOnly: true });
+    const url = page.url();
+    const reloaded = analysisFor(page, target);
+    await page.reload();
+    await reloaded;
+    await page.getByLabel("Method 2", { exact: true }).waitFor();
+    expect(await readInputs(page)).toEqual(before);
+    expect(page.url()).toBe(url);
+    await expect(rows.count()).resolves.toBe(flagged);
+
+    expect(pageErrors).toEqual([]);
+    await context.close();
+  }, 90_000);
+});
+
+// Pure pieces of the workbench, checked without a browser.
+describe("workbench state", () => {
+  it("URL params round-trip the inputs, half-typed values included", () => {
+    const inputs: WorkbenchInputs = {
+      model: { kind: "shape", headDim: "128", ropeTheta: "10000", trainedContext: "40", partialRotaryFactor: "" },
+      target: "32768",
+      alpha: "",
+      beta: "16",
+      methods: [
+        { method: "yarn", params: { betaFast: "24", truncate: "false" } },
+        { method: "longrope", params: { longFactor: "1, 2, 3" } },
+      ],
+      view: 1,
+      flaggedOnly: true,
+    };
+    expect(parseInputs(new URLSearchParams(inputsToParams(inputs).toString()))).toEqual(inputs);
+    // A mangled methods param falls back to the defaults instead of breaking the page.
+    expect(parseInputs(new URLSearchParams("methods=%5B%5B%22bogus%22%5D%5D")).methods.map((m) => m.method)).toEqual(["linear", "yarn"]);
+  });
+
+  it("turns typed inputs into the shared analysis contract, naming each bad field like the API does", () => {
+    const base: WorkbenchInputs = {
+      model: { kind: "shape", headDim: "128", ropeTheta: "10000", trainedContext: "4096", partialRotaryFactor: "" },
+      target: "32768", alpha: "", beta: "", methods: [{ method: "yarn", params: { factor: "8" } }], view: 0, flaggedOnly: false,
+    };
+    expect(toRequest(base, null).request).toEqual({
+      model: { headDim: 128, ropeTheta: 10000, trainedContext: 4096 }, targetContext: 32768, methods: [{ method: "yarn", factor: 8 }],
+    });
+    const bad = toRequest({ ...base, target: "2048", methods: [{ method: "yarn", params: { factor: "x" } }] }, null);
+    expect(bad.request).toBeNull();
+    expect(bad.errors["methods.0.factor"]).toBe("enter a number");
+    const short = toRequest({ ...base, target: "2048" }, null);
+    expect(Object.keys(short.errors)).toEqual(["targetContext"]);
+  });
+
+  it("reads server-sent events split anywhere across chunks", () => {
+    const seen: ServerEvent[] = [];
+    const parser = createEventParser((e) => seen.push(e));
+    const text = 'event: progress\ndata: {"candidatesExamined":1,"total":9}\n\n: comment\nevent: result\r\ndata: {"a":\ndata: 1}\n\n';
+    for (let i = 0; i < text.length; i += 7) parser.push(text.slice(i, i + 7));
+    parser.end();
+    expect(seen).toEqual([
+      { event: "progress", data: '{"candidatesExamined":1,"total":9}' },
+      { event: "result", data: '{"a":\n1}' },
+    ]);
+  });
+});
