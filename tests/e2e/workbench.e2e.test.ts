@@ -6,6 +6,9 @@ import type { Browser, Page } from "playwright-core";
 import { launchBrowser, screenshot } from "../setup/browser";
 import { startTestServer } from "../setup/server";
 import { createTestUser, type TestUser } from "../setup/users";
+import { makeTestApp } from "../setup/app";
+import { createPlan, createProfile } from "../setup/plans";
+import { activeBoundSearches } from "../../server/features/bounds/bounds.service";
 import { createEventParser, type ServerEvent } from "../../client/src/features/workbench/api/server-events";
 import { inputsToParams, parseInputs } from "../../client/src/features/workbench/state/url-codec";
 import { toRequest } from "../../client/src/features/workbench/state/to-request";
@@ -186,6 +189,73 @@ describe("workbench in a browser", () => {
     expect(pageErrors).toEqual([]);
     await context.close();
   }, 90_000);
+});
+
+/** Polls a condition the page cannot show (server state), a short step at a time. */
+async function eventually(check: () => boolean, ms = 10_000) {
+  const end = Date.now() + ms;
+  while (!check()) {
+    if (Date.now() > end) throw new Error("condition not met in time");
+    await new Promise((r) => setTimeout(r, 50));
+  }
+}
+
+describe("profiles and bounds in a browser", () => {
+  it("a profile that a plan uses is not deleted, and the refusal names the plan; a viewer sees no edit controls", async () => {
+    const { agentAs } = makeTestApp();
+    const author = await agentAs(["researcher"]);
+    const profile = await createProfile(author);
+    const plan = await createPlan(author, profile.id);
+    const viewer = await createTestUser(["viewer"], "Vic Viewer");
+
+    const context = await browser.newContext({ viewport: { width: 1280, height: 860 } });
+    const page = await context.newPage();
+    await page.goto(`${server.url}/models/${profile.id}`);
+    await signIn(page, researcher);
+    await page.getByRole("heading", { level: 1, name: profile.name }).waitFor();
+    await page.getByRole("button", { name: "Delete profile" }).click();
+    const refused = page.waitForResponse((r) => r.url().endsWith(`/api/models/${profile.id}`) && r.request().method() === "DELETE");
+    await page.getByRole("button", { name: "Yes, delete it" }).click();
+    expect((await refused).status()).toBe(409);
+    const notice = page.getByRole("alert").filter({ hasText: "still in use" });
+    await expect(notice.textContent()).resolves.toContain(`#${plan.id}`);
+    expect(new URL(page.url()).pathname).toBe(`/models/${profile.id}`);
+    await screenshot(page, "workbench-profile-in-use");
+    await page.getByRole("button", { name: "Sign out" }).click();
+    await page.waitForURL(/\/sign-in/);
+
+    await page.goto(`${server.url}/models`);
+    await signIn(page, viewer);
+    await page.getByRole("heading", { level: 1, name: "Model profiles" }).waitFor();
+    const table = page.getByRole("table", { name: "Model profiles" });
+    await page.getByLabel("Filter model profiles").fill(profile.name);
+    await table.getByRole("link", { name: profile.name }).waitFor();
+    await expect(page.getByRole("link", { name: "Import config.json" }).count()).resolves.toBe(0);
+    await table.getByRole("link", { name: profile.name }).click();
+    await page.getByTestId("profile-facts").waitFor();
+    await expect(page.getByRole("button", { name: "Delete profile" }).count()).resolves.toBe(0);
+    await expect(page.getByRole("form", { name: "Edit profile" }).count()).resolves.toBe(0);
+    await context.close();
+  }, 60_000);
+
+  it("cancelling the smallest-base search stops the server's search", async () => {
+    const context = await browser.newContext({ viewport: { width: 1280, height: 860 } });
+    const page = await context.newPage();
+    // A typed-in shape and a target of 2^30 tokens: the grid search then runs for a long time.
+    const methods = encodeURIComponent(JSON.stringify([["linear", {}]]));
+    await page.goto(`${server.url}/workbench?shape=128,10000,4096,1&target=${2 ** 30}&methods=${methods}`);
+    await signIn(page, researcher);
+    await page.getByLabel("Head dimension").waitFor();
+    expect(await page.getByLabel("Model", { exact: true }).inputValue()).toBe("shape");
+    const search = page.getByTestId("smallest-base");
+    await search.getByText(/bases tried/).waitFor({ timeout: 20_000 });
+    await eventually(() => activeBoundSearches() > 0);
+    await search.getByRole("button", { name: "Cancel" }).click();
+    await search.getByText("Search cancelled").waitFor();
+    await eventually(() => activeBoundSearches() === 0);
+    await search.getByRole("button", { name: "Search again" }).waitFor();
+    await context.close();
+  }, 60_000);
 });
 
 // Pure pieces of the workbench, checked without a browser.
