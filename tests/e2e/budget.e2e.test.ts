@@ -3,9 +3,9 @@ import path from "node:path";
 import Papa from "papaparse";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, BrowserContext, Page } from "playwright-core";
-import { launchBrowser, screenshot } from "../setup/browser";
+import { launchBrowser, screenshot, SCREENSHOT_DIR } from "../setup/browser";
 import { makeTestApp, type Agent } from "../setup/app";
-import { createProfile } from "../setup/plans";
+import { createPlan, createProfile, post, put } from "../setup/plans";
 import { startTestServer } from "../setup/server";
 import { createTestUser, type TestUser } from "../setup/users";
 import { formatScientific } from "../../client/src/lib/format";
@@ -133,6 +133,77 @@ describe("budget sheet in a browser", () => {
     await page.getByTestId("growth-chart").waitFor();
     await settledTokens(page);
     await screenshot(page, "estimator");
+
+    expect(errors).toEqual([]);
+    await context.close();
+  }, 90_000);
+
+  it("the plan's author costs the draft on that accelerator, sees a stage not fit, fixes it and saves", async () => {
+    // Its own catalog entry through the API (the form is exercised above), so this test also runs alone.
+    const acceleratorName = `Plan-bed-${Date.now().toString(36)}`;
+    await post(api, "/api/accelerators", { name: acceleratorName, memoryBytes: 48 * GIB, peakFlops: 300e12, pricePerHour: 3 }).expect(201);
+    const yarn = { method: "yarn" as const };
+    const stage = (targetContext: number, sequenceLength: number, globalBatch: number) => ({ targetContext, method: yarn, steps: 100, globalBatch, sequenceLength, learningRate: 2e-5, dataMix: "books" });
+    const created = await createPlan(api, profile.id, {
+      revision: {
+        targetContext: 262144, method: yarn, stages: [stage(65536, 65536, 64), stage(262144, 131072, 32)], notes: "budget browser test",
+        acceptance: [{ evaluation: "passkey retrieval", contextLength: 262144, metric: "accuracy", comparison: ">=", threshold: 0.9 }],
+      },
+    });
+    const editUrl = `/plans/${created.id}/revisions/1/edit`;
+    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const { page, errors } = await signedInPage(context, editUrl, planner);
+    const sheet = page.getByRole("region", { name: "Budget sheet" });
+    await sheet.getByText("Pick an accelerator to cost this plan").waitFor();
+
+    await sheet.getByLabel("Catalog accelerator").selectOption({ label: acceleratorName });
+    await sheet.getByLabel("Accelerators", { exact: true }).fill("32");
+    // 100 × 64 × 65536 + 100 × 32 × 131072 = 838 860 800 tokens.
+    await expect(settledTokens(page)).resolves.toBe("839 million");
+    await expect(sheet.getByText("does not fit in accelerator memory").count()).resolves.toBe(0);
+
+    // Memory model (assumptions.memoryModel): 6.5e9 × 16 B ÷ 32 ranks = 3.03 GiB of model states, plus activations
+    // 32 layers × 262144 × 4096 × 2 B = 64 GiB: 67 GiB > 48 GiB. Sharding each sequence over 2 halves the activations
+    // but also the ranks: 6.05 + 32 = 38 GiB, which fits.
+    await sheet.getByLabel("Stage 2 sequence length", { exact: true }).fill("262144");
+    await expect(settledTokens(page)).resolves.toBe("1.26 billion");
+    const misfit = sheet.getByRole("alert").filter({ hasText: "Stage 2 does not fit in accelerator memory" });
+    await misfit.waitFor();
+    await expect(misfit.textContent()).resolves.toMatch(/67(\.\d)? GiB.*48 GiB.*over 2 accelerators/);
+    // The sheet edits the plan's own stage: the stage field above shows the new length.
+    await expect(page.getByRole("group", { name: "Stage 2" }).getByLabel("Sequence length (tokens)").inputValue()).resolves.toBe("262144");
+    await screenshot(page, "plan-budget-misfit");
+    // The sheet alone, for a person checking the warning and the figures without scrolling the whole editor.
+    await sheet.screenshot({ path: path.join(SCREENSHOT_DIR, "plan-budget-sheet-misfit.png"), animations: "disabled" });
+
+    await sheet.getByLabel("Sequence sharding", { exact: true }).fill("2");
+    await misfit.waitFor({ state: "detached" });
+    await settledTokens(page);
+    await page.getByRole("button", { name: "Save draft" }).click();
+    // The editor starts again from the saved version (it is keyed by version).
+    await page.getByText("Editing version 2 of revision 1").waitFor();
+
+    // The server computed and stored the figures from what the sheet saved.
+    const saved = (await api.get(`/api/plans/${created.id}/revisions/1`).expect(200)).body;
+    const acc = (await api.get("/api/accelerators").expect(200)).body.accelerators.find((a: any) => a.name === acceleratorName);
+    expect(saved.content.budget.inputs).toEqual({ cluster: { acceleratorId: acc.id }, accelerators: 32, sequenceSharding: 2 });
+    expect(saved.content.stages[1].sequenceLength).toBe(262144);
+    expect(saved.content.budget.cluster).toMatchObject({ name: acceleratorName, memoryBytes: 48 * GIB });
+    expect(saved.content.budget.estimate.totals.tokens).toBe(100 * 64 * 65536 + 100 * 32 * 262144);
+    expect(saved.content.budget.estimate.stages.map((x: any) => x.fits)).toEqual([true, true]);
+
+    // Someone saves in between (another tab): this page's version is stale, and it says so.
+    await put(api, `/api/plans/${created.id}/revisions/1`, { version: 2, notes: "edited elsewhere" }).expect(200);
+    await sheet.getByLabel("Stage 1 steps", { exact: true }).fill("120");
+    await page.getByRole("button", { name: "Save draft" }).click();
+    await page.getByText("Changed since you read it — reload").waitFor();
+    await page.getByRole("button", { name: "Reload the saved draft" }).click();
+    await page.getByText("Editing version 3 of revision 1").waitFor();
+    // The reloaded sheet starts from the stored budget block.
+    await expect(page.getByRole("region", { name: "Budget sheet" }).getByLabel("Sequence sharding", { exact: true }).inputValue()).resolves.toBe("2");
+    await expect(page.getByRole("region", { name: "Budget sheet" }).getByLabel("Stage 1 steps", { exact: true }).inputValue()).resolves.toBe("100");
+    await settledTokens(page);
+    await screenshot(page, "plan-budget");
 
     expect(errors).toEqual([]);
     await context.close();

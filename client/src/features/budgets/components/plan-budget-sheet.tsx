@@ -79,8 +79,7 @@ export function PlanBudgetSheet({ model: given, models, accelerators, disabled }
     ...flatErrors(formState.errors, "revision.stages", (k) => `stages.${k}`),
   };
 
-  if (stages.length === 0) return <p className="text-body text-ink-soft">Add a stage to cost this plan: the budget sheet works from the plan's stages.</p>;
-  return (
+  const sheet = (
     <BudgetSheet
       mode="plan"
       value={value}
@@ -99,5 +98,16 @@ export function PlanBudgetSheet({ model: given, models, accelerators, disabled }
         </p>
       }
     />
+  );
+  return (
+    <section className="flex flex-col gap-3" aria-label="Budget sheet">
+      <header>
+        <h2 className="text-title font-semibold">Budget</h2>
+        <p className="text-body text-ink-soft">
+          What the stages cost on the chosen accelerators, and whether each fits in memory. Lengths, batches and steps typed here are the stages' own.
+        </p>
+      </header>
+      {stages.length === 0 ? <p className="text-body text-ink-soft">Add a stage to cost this plan: the budget sheet works from the plan's stages.</p> : sheet}
+    </section>
   );
 }
