@@ -208,6 +208,33 @@ describe("budget sheet in a browser", () => {
     expect(errors).toEqual([]);
     await context.close();
   }, 90_000);
+
+  it("a new plan is costed before its first save; the plan page shows the stored figures", async () => {
+    const acceleratorName = `New-bed-${Date.now().toString(36)}`;
+    await post(api, "/api/accelerators", { name: acceleratorName, memoryBytes: 48 * GIB, peakFlops: 300e12, pricePerHour: 3 }).expect(201);
+    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const { page, errors } = await signedInPage(context, "/plans/new", planner);
+    const form = page.getByRole("form", { name: "New plan" });
+    await form.getByLabel("Title").fill("Costed from the start");
+    await form.getByLabel("Model", { exact: true }).selectOption({ label: profile.name });
+    const sheet = page.getByRole("region", { name: "Budget sheet" });
+    await sheet.getByText("Add a stage to cost this plan").waitFor();
+    await form.getByRole("button", { name: "Add stage" }).click();
+    await sheet.getByLabel("Catalog accelerator").selectOption({ label: acceleratorName });
+    // The editor's new stage: 400 steps × 64 sequences × 32768 tokens = 838 860 800.
+    await expect(settledTokens(page)).resolves.toBe("839 million");
+    await form.getByRole("button", { name: "Save draft" }).click();
+    await page.waitForURL(/\/plans\/\d+$/);
+    const id = Number(new URL(page.url()).pathname.split("/").pop());
+    await page.getByTestId("budget-panel").waitFor();
+    await expect(page.getByTestId("budget-panel").textContent()).resolves.toContain(acceleratorName);
+    const rev = (await api.get(`/api/plans/${id}/revisions/1`).expect(200)).body;
+    expect(rev.content.budget.inputs).toMatchObject({ accelerators: 8 });
+    expect(rev.content.budget.cluster.name).toBe(acceleratorName);
+    expect(rev.content.budget.estimate.totals.tokens).toBe(400 * 64 * 32768);
+    expect(errors).toEqual([]);
+    await context.close();
+  }, 60_000);
 });
 
 // The sheet's conversions, checked on their own: identities that must hold, no browser needed.

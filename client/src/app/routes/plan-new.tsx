@@ -4,7 +4,9 @@ import { ErrorView } from "../../components/error-view";
 import { Page } from "../../components/page";
 import { Loading, Notice } from "../../components/notice";
 import { paths } from "../../config/paths";
+import { acceleratorsQuery } from "../../features/accelerators/api/list-accelerators";
 import { useCurrentUser } from "../../features/auth/hooks/use-session";
+import { PlanBudgetSheet } from "../../features/budgets/components/plan-budget-sheet";
 import { plansQueries } from "../../features/plans/api/queries";
 import { NewPlanForm } from "../../features/plans/components/new-plan-form";
 
@@ -13,6 +15,7 @@ export function PlanNewRoute() {
   const navigate = useNavigate();
   const models = useQuery(plansQueries.modelChoices());
   const settings = useQuery(plansQueries.settings());
+  const accelerators = useQuery(acceleratorsQuery());
 
   if (!user.roles.includes("researcher")) {
     return (
@@ -38,7 +41,7 @@ export function PlanNewRoute() {
           minApprovals={settings.data.minRequiredApprovals}
           onCreated={(plan) => navigate(paths.plan(plan.id))}
           // budget sheet: the budget engineer may pass a BudgetSheet here as well (it renders inside the form)
-          afterStages={null}
+          afterStages={<PlanBudgetSheet models={models.data} accelerators={accelerators.data ?? []} />}
         />
       )}
     </Page>
