@@ -1,19 +1,11 @@
-import { useState } from "react";
 import type { ConfigPatch } from "../../../../../shared/schemas/analysis";
 import { Button } from "../../../components/button";
+import { useCopyText } from "../../../lib/use-copy-text";
 
 /** The config.json keys a method needs (rope_scaling and friends), ready to paste, with a copy button. */
 export function ExportBlock({ patch, label }: { patch: ConfigPatch; label: string }) {
   const text = JSON.stringify(patch, null, 2);
-  const [copied, setCopied] = useState<"yes" | "failed" | null>(null);
-  const copy = async () => {
-    try {
-      await navigator.clipboard.writeText(text);
-      setCopied("yes");
-    } catch {
-      setCopied("failed");
-    }
-  };
+  const { copied, copy } = useCopyText();
   return (
     <div className="flex flex-col gap-1">
       <div className="flex items-center justify-between gap-2">
@@ -21,7 +13,7 @@ export function ExportBlock({ patch, label }: { patch: ConfigPatch; label: strin
         <span className="flex items-center gap-2">
           {copied === "yes" && <span className="text-note text-seaglass-dark" role="status">Copied</span>}
           {copied === "failed" && <span className="text-note text-signal" role="status">The browser refused; select the text instead</span>}
-          <Button variant="secondary" size="sm" onClick={copy} aria-label={`Copy the config keys of ${label}`}>
+          <Button variant="secondary" size="sm" onClick={() => copy(text)} aria-label={`Copy the config keys of ${label}`}>
             Copy
           </Button>
         </span>

@@ -5,7 +5,8 @@ import { Button } from "../../../components/button";
 import { Checkbox } from "../../../components/field";
 import { TableView } from "../../../components/table-view";
 import { METHOD_LABELS } from "../state/method-fields";
-import { downloadText, tableToCsv } from "./csv-download";
+import { downloadText } from "../../../lib/download";
+import { tableToCsv } from "./csv-download";
 import { anyFlag, PAIR_COLUMNS } from "./pair-columns";
 
 type PairTableProps = {
