@@ -88,6 +88,25 @@ describe("budget sheet in a browser", () => {
     const list = await api.get("/api/accelerators").expect(200);
     const stored = list.body.accelerators.find((a: any) => a.name === name);
     expect(stored).toMatchObject({ memoryBytes: 48 * GIB, peakFlops: 300e12, pricePerHour: 3 });
+
+    // Edit: the form opens with the stored figures in GiB and TFLOP/s; a new price is saved.
+    await page.getByRole("button", { name: `Edit ${name}` }).click();
+    const edit = page.getByRole("form", { name: `Edit ${name}` });
+    await expect(edit.getByLabel("Memory (GiB)").inputValue()).resolves.toBe("48");
+    await expect(edit.getByLabel("Dense peak (TFLOP/s)").inputValue()).resolves.toBe("300");
+    await edit.getByLabel("Price per accelerator-hour").fill("3.5");
+    await edit.getByRole("button", { name: "Save changes" }).click();
+    await page.getByText(`Saved ${name}.`).waitFor();
+    await expect(row.textContent()).resolves.toContain("3.50");
+
+    // Delete asks first, then the row goes.
+    const spare = `Spare-${Date.now().toString(36)}`;
+    await post(api, "/api/accelerators", { name: spare, memoryBytes: 16 * GIB, peakFlops: 50e12, pricePerHour: 1 }).expect(201);
+    await page.reload();
+    await page.getByRole("button", { name: `Delete ${spare}` }).click();
+    await page.getByRole("alert").getByRole("button", { name: `Delete ${spare}` }).click();
+    await page.getByText(`Deleted ${spare}.`).waitFor();
+    await expect(page.getByRole("table", { name: "Accelerators" }).locator("tbody tr").filter({ hasText: spare }).count()).resolves.toBe(0);
     await screenshot(page, "accelerators");
 
     // Estimator: stage 1 by steps, stage 2 by a token target; inputs come from the URL.
@@ -235,6 +254,18 @@ describe("budget sheet in a browser", () => {
     expect(errors).toEqual([]);
     await context.close();
   }, 60_000);
+
+  it("a viewer reads the catalog but gets no way to change it", async () => {
+    const viewer = await createTestUser(["viewer"], "Vi Viewer");
+    const context = await browser.newContext();
+    const { page, errors } = await signedInPage(context, "/accelerators", viewer);
+    await page.getByRole("table", { name: "Accelerators" }).waitFor();
+    await expect(page.getByRole("form").count()).resolves.toBe(0);
+    await expect(page.getByRole("button", { name: /^(Edit|Delete) / }).count()).resolves.toBe(0);
+    await page.getByText("Infra leads and admins keep this list.").waitFor();
+    expect(errors).toEqual([]);
+    await context.close();
+  });
 });
 
 // The sheet's conversions, checked on their own: identities that must hold, no browser needed.
