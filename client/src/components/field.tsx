@@ -55,6 +55,27 @@ export function TextField({ label, error, hint, ...input }: TextFieldProps) {
   );
 }
 
+type TextAreaFieldProps = ComponentProps<"textarea"> & { label: string; error?: string; hint?: string };
+
+/** A labelled multi-line input in the same frame as TextField; spread `register(name)` into it. */
+export function TextAreaField({ label, error, hint, className = "", rows = 3, ...area }: TextAreaFieldProps) {
+  return (
+    <Field label={label} error={error} hint={hint}>
+      {({ id, describedBy, invalid }) => (
+        <textarea
+          id={id}
+          rows={rows}
+          aria-describedby={describedBy}
+          aria-invalid={invalid}
+          className={`w-full rounded-md border border-rule-strong bg-white/70 px-3 py-2 text-body text-ink placeholder:text-ink-soft/70
+            focus:border-seaglass focus:outline-2 focus:outline-seaglass/30 aria-[invalid=true]:border-signal ${className}`}
+          {...area}
+        />
+      )}
+    </Field>
+  );
+}
+
 type CheckboxProps = ComponentProps<"input"> & { label: ReactNode };
 
 export function Checkbox({ label, className = "", ...rest }: CheckboxProps) {

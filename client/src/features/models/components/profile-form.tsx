@@ -3,7 +3,7 @@ import { useForm, useWatch, type FieldNamesMarkedBoolean } from "react-hook-form
 import { zodResolver } from "@hookform/resolvers/zod";
 import { modelProfileInputSchema, type ModelProfileInput, type ModelProfileValues } from "../../../../../shared/schemas/models";
 import { SubmitButton } from "../../../components/button";
-import { Field, TextField } from "../../../components/field";
+import { TextAreaField, TextField } from "../../../components/field";
 import { Notice } from "../../../components/notice";
 import { applyApiErrors } from "../../../lib/form-errors";
 import { PROFILE_FIELD_NAMES, PROFILE_SECTIONS, toNumber } from "./profile-fields";
@@ -26,7 +26,6 @@ export type ProfileFormProps = {
   busy: boolean;
   /** Reject with the API error to have its fields shown beside the inputs. */
   onSubmit: (values: ModelProfileValues, edited: Partial<ModelProfileInput>) => Promise<unknown>;
-  readOnly?: boolean;
   ariaLabel: string;
 };
 
@@ -38,7 +37,7 @@ function editedValues(values: ModelProfileValues, dirty: Partial<FieldNamesMarke
 }
 
 /** Create, edit, or confirm an imported profile: one form, validated by the shared contract. */
-export function ProfileForm({ defaultValues, submitLabel, busyLabel, busy, onSubmit, readOnly = false, ariaLabel }: ProfileFormProps) {
+export function ProfileForm({ defaultValues, submitLabel, busyLabel, busy, onSubmit, ariaLabel }: ProfileFormProps) {
   const [formError, setFormError] = useState<string | null>(null);
   const { register, handleSubmit, setError, control, formState } = useForm<ModelProfileInput, unknown, ModelProfileValues>({
     resolver: zodResolver(modelProfileInputSchema, friendlyErrors),
@@ -59,7 +58,7 @@ export function ProfileForm({ defaultValues, submitLabel, busyLabel, busy, onSub
   return (
     <form onSubmit={submit} noValidate aria-label={ariaLabel} className="flex flex-col gap-5">
       {formError && <Notice tone="alert">{formError}</Notice>}
-      <fieldset disabled={readOnly} className="flex flex-col gap-5">
+      <div className="flex flex-col gap-5">
         {PROFILE_SECTIONS.map((section) => (
           <div key={section.title} className="flex flex-col gap-3">
             <h3 className="text-note font-semibold tracking-wide text-ink-soft uppercase">{section.title}</h3>
@@ -69,18 +68,7 @@ export function ProfileForm({ defaultValues, submitLabel, busyLabel, busy, onSub
                 if (f.kind === "long-text") {
                   return (
                     <div key={f.name} className="sm:col-span-2 lg:col-span-3">
-                      <Field label={f.label} error={error} hint={f.hint}>
-                        {({ id, describedBy, invalid }) => (
-                          <textarea
-                            id={id}
-                            rows={2}
-                            aria-describedby={describedBy}
-                            aria-invalid={invalid}
-                            className="w-full rounded-md border border-rule-strong bg-white/70 px-3 py-2 text-body focus:border-seaglass focus:outline-2 focus:outline-seaglass/30"
-                            {...register(f.name)}
-                          />
-                        )}
-                      </Field>
+                      <TextAreaField label={f.label} error={error} hint={f.hint} rows={2} {...register(f.name)} />
                     </div>
                   );
                 }
@@ -102,14 +90,12 @@ export function ProfileForm({ defaultValues, submitLabel, busyLabel, busy, onSub
             {section.title === "Rotary shape" && <RotaryShapeSummary headDim={headDim} partialRotaryFactor={partialRotaryFactor} />}
           </div>
         ))}
-      </fieldset>
-      {!readOnly && (
-        <div>
-          <SubmitButton busy={busy} busyLabel={busyLabel}>
-            {submitLabel}
-          </SubmitButton>
-        </div>
-      )}
+      </div>
+      <div>
+        <SubmitButton busy={busy} busyLabel={busyLabel}>
+          {submitLabel}
+        </SubmitButton>
+      </div>
     </form>
   );
 }

@@ -1,6 +1,6 @@
 import { METHOD_IDS, type MethodId } from "../../../../../shared/schemas/analysis";
 import { Button } from "../../../components/button";
-import { Field, TextField } from "../../../components/field";
+import { TextAreaField, TextField } from "../../../components/field";
 import { methodColour } from "../charts/palette";
 import { sig } from "../figures";
 import { METHOD_FIELDS, METHOD_LABELS, type FieldContext, type MethodField } from "../state/method-fields";
@@ -23,20 +23,16 @@ function ListField({ field, value, error, context, onChange }: { field: MethodFi
   const fill = (x: number) => onChange(Array.from({ length: context.pairs ?? 0 }, () => sig(x, 6)).join(", "));
   return (
     <div className="flex flex-col gap-1 sm:col-span-2">
-      <Field label={field.label} error={error} hint={field.placeholder(context)}>
-        {({ id, describedBy, invalid }) => (
-          <textarea
-            id={id}
-            rows={2}
-            value={value}
-            aria-describedby={describedBy}
-            aria-invalid={invalid}
-            placeholder="comma-separated"
-            onChange={(e) => onChange(e.target.value)}
-            className="w-full rounded-md border border-rule-strong bg-white/70 px-3 py-2 font-mono text-note focus:border-seaglass focus:outline-2 focus:outline-seaglass/30 aria-[invalid=true]:border-signal"
-          />
-        )}
-      </Field>
+      <TextAreaField
+        label={field.label}
+        error={error}
+        hint={field.placeholder(context)}
+        rows={2}
+        value={value}
+        placeholder="comma-separated"
+        onChange={(e) => onChange(e.target.value)}
+        className="font-mono text-note"
+      />
       {context.pairs !== null && (
         <div className="flex gap-2">
           {field.key === "longFactor" && context.scale !== null && (
