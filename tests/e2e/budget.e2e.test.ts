@@ -52,6 +52,13 @@ async function signedInPage(context: BrowserContext, to: string, who: TestUser):
   return { page, errors };
 }
 
+/** A catalog entry through the API: 48 GiB, 300 TFLOP/s dense peak, 3 per hour unless told otherwise. */
+async function catalogEntry(prefix: string, over: Record<string, unknown> = {}): Promise<string> {
+  const name = `${prefix}-${Date.now().toString(36)}`;
+  await post(api, "/api/accelerators", { name, memoryBytes: 48 * GIB, peakFlops: 300e12, pricePerHour: 3, ...over }).expect(201);
+  return name;
+}
+
 const totalText = (page: Page, name: string) => page.getByTestId(`total-${name}`).textContent();
 
 /** Waits until the figures are current (no "Recomputing…", not dimmed) and answers the tokens total. */
@@ -100,8 +107,7 @@ describe("budget sheet in a browser", () => {
     await expect(row.textContent()).resolves.toContain("3.50");
 
     // Delete asks first, then the row goes.
-    const spare = `Spare-${Date.now().toString(36)}`;
-    await post(api, "/api/accelerators", { name: spare, memoryBytes: 16 * GIB, peakFlops: 50e12, pricePerHour: 1 }).expect(201);
+    const spare = await catalogEntry("Spare", { memoryBytes: 16 * GIB });
     await page.reload();
     await page.getByRole("button", { name: `Delete ${spare}` }).click();
     await page.getByRole("alert").getByRole("button", { name: `Delete ${spare}` }).click();
@@ -159,8 +165,7 @@ describe("budget sheet in a browser", () => {
 
   it("the plan's author costs the draft on that accelerator, sees a stage not fit, fixes it and saves", async () => {
     // Its own catalog entry through the API (the form is exercised above), so this test also runs alone.
-    const acceleratorName = `Plan-bed-${Date.now().toString(36)}`;
-    await post(api, "/api/accelerators", { name: acceleratorName, memoryBytes: 48 * GIB, peakFlops: 300e12, pricePerHour: 3 }).expect(201);
+    const acceleratorName = await catalogEntry("Plan-bed");
     const yarn = { method: "yarn" as const };
     const stage = (targetContext: number, sequenceLength: number, globalBatch: number) => ({ targetContext, method: yarn, steps: 100, globalBatch, sequenceLength, learningRate: 2e-5, dataMix: "books" });
     const created = await createPlan(api, profile.id, {
@@ -229,8 +234,7 @@ describe("budget sheet in a browser", () => {
   }, 90_000);
 
   it("a new plan is costed before its first save; the plan page shows the stored figures", async () => {
-    const acceleratorName = `New-bed-${Date.now().toString(36)}`;
-    await post(api, "/api/accelerators", { name: acceleratorName, memoryBytes: 48 * GIB, peakFlops: 300e12, pricePerHour: 3 }).expect(201);
+    const acceleratorName = await catalogEntry("New-bed");
     const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
     const { page, errors } = await signedInPage(context, "/plans/new", planner);
     const form = page.getByRole("form", { name: "New plan" });

@@ -1,5 +1,5 @@
 import { useState } from "react";
-import { Field, TextInput } from "../../../components/field";
+import { TextField } from "../../../components/field";
 import { sig3 } from "../../../lib/format";
 
 type Props = {
@@ -21,24 +21,20 @@ type Props = {
 export function UnitNumberInput({ label, unit, scale, value, onChange, onBlur, error, hint }: Props) {
   const [text, setText] = useState(value === undefined ? "" : sig3(value / scale));
   return (
-    <Field label={`${label} (${unit})`} error={error} hint={hint}>
-      {({ id, describedBy, invalid }) => (
-        <TextInput
-          id={id}
-          aria-describedby={describedBy}
-          aria-invalid={invalid}
-          inputMode="decimal"
-          autoComplete="off"
-          value={text}
-          onBlur={onBlur}
-          onChange={(e) => {
-            setText(e.target.value);
-            const t = e.target.value.trim().replace(/[,_\s]/g, "");
-            // Whole base units: the contract wants an integer byte count (NaN stays NaN for the schema to name).
-            onChange(t === "" ? undefined : Math.round(Number(t) * scale));
-          }}
-        />
-      )}
-    </Field>
+    <TextField
+      label={`${label} (${unit})`}
+      error={error}
+      hint={hint}
+      inputMode="decimal"
+      autoComplete="off"
+      value={text}
+      onBlur={onBlur}
+      onChange={(e) => {
+        setText(e.target.value);
+        const t = e.target.value.trim().replace(/[,_\s]/g, "");
+        // Whole base units: the contract wants an integer byte count (NaN stays NaN for the schema to name).
+        onChange(t === "" ? undefined : Math.round(Number(t) * scale));
+      }}
+    />
   );
 }

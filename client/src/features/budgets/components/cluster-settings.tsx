@@ -3,6 +3,7 @@ import type { Accelerator, BudgetEstimateResponse } from "../../../../../shared/
 import { Field } from "../../../components/field";
 import { formatBytes, formatMoney, sig3, TFLOPS } from "../../../lib/format";
 import { type ClusterDraft, type Convention, type SettingsDraft } from "../lib/sheet-draft";
+import { Radio } from "./radio";
 import { SheetInput } from "./sheet-input";
 
 type Issues = Record<string, string>;
@@ -103,14 +104,5 @@ export function ClusterSettings({ cluster, settings, accelerators, assumptions, 
         <SheetInput label="Sequences per micro-batch" value={settings.microBatchSequences} onChange={set("microBatchSequences")} error={issues.microBatchSequences} placeholder="1" hint="Per data-parallel rank; blank: 1" />
       </fieldset>
     </div>
-  );
-}
-
-function Radio({ name, checked, onChange, label }: { name: string; checked: boolean; onChange: () => void; label: string }) {
-  return (
-    <label className="inline-flex cursor-pointer items-center gap-2 text-body">
-      <input type="radio" name={name} checked={checked} onChange={onChange} className="size-4 accent-hemp" />
-      {label}
-    </label>
   );
 }

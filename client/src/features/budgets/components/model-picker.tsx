@@ -3,6 +3,7 @@ import { Field } from "../../../components/field";
 import { formatCount } from "../../../lib/format";
 import type { ModelChoice } from "../api/get-model-choices";
 import { emptyShape, type ModelDraft, type ShapeField } from "../lib/model-draft";
+import { Radio } from "./radio";
 import { SheetInput } from "./sheet-input";
 
 const SHAPE_LABELS: Record<ShapeField, { label: string; hint?: string }> = {
@@ -21,16 +22,7 @@ type Props = { value: ModelDraft; onChange: (next: ModelDraft) => void; profiles
 export function ModelPicker({ value, onChange, profiles, issues }: Props) {
   const uid = useId();
   const radio = (kind: ModelDraft["kind"], label: string) => (
-    <label className="inline-flex cursor-pointer items-center gap-2 text-body">
-      <input
-        type="radio"
-        name={`${uid}-model`}
-        checked={value.kind === kind}
-        onChange={() => onChange(kind === "profile" ? { kind: "profile", modelId: "" } : emptyShape())}
-        className="size-4 accent-hemp"
-      />
-      {label}
-    </label>
+    <Radio name={`${uid}-model`} checked={value.kind === kind} onChange={() => onChange(kind === "profile" ? { kind: "profile", modelId: "" } : emptyShape())} label={label} />
   );
   return (
     <fieldset className="flex flex-col gap-3">

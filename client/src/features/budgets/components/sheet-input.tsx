@@ -1,5 +1,4 @@
-import type { ReactNode } from "react";
-import { Field, TextInput } from "../../../components/field";
+import { TextField, TextInput } from "../../../components/field";
 
 type SheetInputProps = {
   label: string;
@@ -8,7 +7,7 @@ type SheetInputProps = {
   error?: string;
   /** Shown under the input: the default that applies when it is left blank, or the unit. */
   hint?: string;
-  unit?: ReactNode;
+  unit?: string;
   placeholder?: string;
   disabled?: boolean;
 };
@@ -16,24 +15,17 @@ type SheetInputProps = {
 /** A labelled number box that keeps the text as typed; the sheet parses it when it builds the request. */
 export function SheetInput({ label, value, onChange, error, hint, unit, placeholder, disabled }: SheetInputProps) {
   return (
-    <Field label={label} error={error} hint={hint}>
-      {({ id, describedBy, invalid }) => (
-        <div className="flex items-center gap-2">
-          <TextInput
-            id={id}
-            aria-describedby={describedBy}
-            aria-invalid={invalid}
-            inputMode="decimal"
-            autoComplete="off"
-            value={value}
-            placeholder={placeholder}
-            disabled={disabled}
-            onChange={(e) => onChange(e.target.value)}
-          />
-          {unit && <span className="shrink-0 text-note text-ink-soft">{unit}</span>}
-        </div>
-      )}
-    </Field>
+    <TextField
+      label={unit ? `${label} (${unit})` : label}
+      error={error}
+      hint={hint}
+      inputMode="decimal"
+      autoComplete="off"
+      value={value}
+      placeholder={placeholder}
+      disabled={disabled}
+      onChange={(e) => onChange(e.target.value)}
+    />
   );
 }
 

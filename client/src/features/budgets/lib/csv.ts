@@ -44,15 +44,3 @@ export function stagesCsv(estimate: BudgetEstimateResponse, clusterLabel: string
   };
   return Papa.unparse([...rows, totals], { columns: Object.keys(rows[0] ?? totals) });
 }
-
-/** Hands the text to the browser as a file download. */
-export function downloadText(text: string, fileName: string, type = "text/csv;charset=utf-8") {
-  const url = URL.createObjectURL(new Blob([text], { type }));
-  const link = document.createElement("a");
-  link.href = url;
-  link.download = fileName;
-  document.body.append(link);
-  link.click();
-  link.remove();
-  setTimeout(() => URL.revokeObjectURL(url), 0);
-}
