@@ -1,10 +1,9 @@
 import { useId } from "react";
 import type { Accelerator, BudgetEstimateResponse } from "../../../../../shared/schemas/budget";
-import { Field } from "../../../components/field";
 import { formatBytes, formatMoney, sig3, TFLOPS } from "../../../lib/format";
 import { type ClusterDraft, type Convention, type SettingsDraft } from "../lib/sheet-draft";
 import { Radio } from "./radio";
-import { SheetInput } from "./sheet-input";
+import { SheetInput, SheetSelect } from "./sheet-input";
 
 type Issues = Record<string, string>;
 type Props = {
@@ -38,25 +37,15 @@ export function ClusterSettings({ cluster, settings, accelerators, assumptions, 
           <Radio name={`${uid}-cluster`} checked={cluster.kind === "custom"} onChange={() => onCluster({ ...cluster, kind: "custom" })} label="Custom figures" />
         </div>
         {cluster.kind === "catalog" ? (
-          <Field label="Catalog accelerator" error={issues["cluster.acceleratorId"]} hint={accelerators.length ? undefined : "The catalog is empty; an infra lead adds accelerators on the Accelerators page."}>
-            {({ id, describedBy, invalid }) => (
-              <select
-                id={id}
-                aria-describedby={describedBy}
-                aria-invalid={invalid}
-                value={cluster.acceleratorId}
-                onChange={(e) => onCluster({ ...cluster, acceleratorId: e.target.value })}
-                className="max-w-md rounded-md border border-rule-strong bg-white/70 px-3 py-2 text-body"
-              >
-                <option value="">Pick one…</option>
-                {accelerators.map((a) => (
-                  <option key={a.id} value={a.id}>
-                    {a.name}
-                  </option>
-                ))}
-              </select>
-            )}
-          </Field>
+          <SheetSelect
+            label="Catalog accelerator"
+            value={cluster.acceleratorId}
+            onChange={(acceleratorId) => onCluster({ ...cluster, acceleratorId })}
+            prompt="Pick one…"
+            options={accelerators.map((a) => ({ value: String(a.id), label: a.name }))}
+            error={issues["cluster.acceleratorId"]}
+            hint={accelerators.length ? undefined : "The catalog is empty; an infra lead adds accelerators on the Accelerators page."}
+          />
         ) : (
           <div className="grid gap-3 sm:grid-cols-3">
             <SheetInput label="Dense peak" unit="TFLOP/s" value={cluster.peakTflops} onChange={(t) => onCluster({ ...cluster, peakTflops: t })} error={issues["cluster.peakFlops"]} hint="At the training precision, no sparsity" />

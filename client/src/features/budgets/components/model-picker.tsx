@@ -1,10 +1,9 @@
 import { useId } from "react";
-import { Field } from "../../../components/field";
 import { formatCount } from "../../../lib/format";
 import type { ModelChoice } from "../api/get-model-choices";
 import { emptyShape, type ModelDraft, type ShapeField } from "../lib/model-draft";
 import { Radio } from "./radio";
-import { SheetInput } from "./sheet-input";
+import { SheetInput, SheetSelect } from "./sheet-input";
 
 const SHAPE_LABELS: Record<ShapeField, { label: string; hint?: string }> = {
   parameters: { label: "Parameters", hint: "Non-embedding count, for 6N and weight memory" },
@@ -32,25 +31,15 @@ export function ModelPicker({ value, onChange, profiles, issues }: Props) {
         {radio("shape", "Type a shape")}
       </div>
       {value.kind === "profile" ? (
-        <Field label="Model profile" error={issues["model.modelId"]} hint={profiles.length ? undefined : "No profiles yet; type a shape instead."}>
-          {({ id, describedBy, invalid }) => (
-            <select
-              id={id}
-              aria-describedby={describedBy}
-              aria-invalid={invalid}
-              value={value.modelId}
-              onChange={(e) => onChange({ kind: "profile", modelId: e.target.value })}
-              className="max-w-xl rounded-md border border-rule-strong bg-white/70 px-3 py-2 text-body"
-            >
-              <option value="">Pick a profile…</option>
-              {profiles.map((p) => (
-                <option key={p.id} value={p.id}>
-                  {p.name} ({p.family}): {formatCount(p.parameters)} parameters, trained at {p.trainedContext} tokens
-                </option>
-              ))}
-            </select>
-          )}
-        </Field>
+        <SheetSelect
+          label="Model profile"
+          value={value.modelId}
+          onChange={(modelId) => onChange({ kind: "profile", modelId })}
+          prompt="Pick a profile…"
+          options={profiles.map((p) => ({ value: String(p.id), label: `${p.name} (${p.family}): ${formatCount(p.parameters)} parameters, trained at ${p.trainedContext} tokens` }))}
+          error={issues["model.modelId"]}
+          hint={profiles.length ? undefined : "No profiles yet; type a shape instead."}
+        />
       ) : (
         <div className="grid gap-3 sm:grid-cols-4">
           {(Object.keys(SHAPE_LABELS) as ShapeField[]).map((f) => (
