@@ -1,3 +1,4 @@
+import { useState } from "react";
 import { Link, useParams } from "react-router-dom";
 import { useQuery, useQueryClient } from "@tanstack/react-query";
 import { ErrorView } from "../../components/error-view";
@@ -17,6 +18,8 @@ export function PlanEditRoute() {
   const n = Number(params.n);
   const user = useCurrentUser();
   const queryClient = useQueryClient();
+  const [generation, setGeneration] = useState(0);
+  const [reloading, setReloading] = useState(false);
   const plan = useQuery(plansQueries.detail(id));
   const revision = useQuery(plansQueries.revision(id, n));
   const accelerators = useQuery(acceleratorsQuery());
@@ -34,16 +37,21 @@ export function PlanEditRoute() {
     return <ErrorView eyebrow="Laid and fixed" title="This revision is not a draft" message={<p>Revision {n} is “{STATE_LABELS[r.state]}”; only drafts change. Start a new revision to change the plan.</p>} action={back} />;
   }
 
-  // After a 409, re-read the saved draft; the editor is keyed by version so it starts again from it.
-  const reload = () => void queryClient.invalidateQueries({ queryKey: plansQueries.revision(id, n).queryKey });
+  // After a 409, re-read the saved draft and start the editor again from it (a save of our own keeps the editor as it is).
+  const reload = async () => {
+    setReloading(true);
+    await queryClient.refetchQueries({ queryKey: plansQueries.revision(id, n).queryKey });
+    setReloading(false);
+    setGeneration((g) => g + 1);
+  };
   return (
     <Page title={`Edit ${plan.data.title}, revision ${n}`} lead={<>Changes are checked by the engine as you type and saved when you choose. {back}</>}>
-      {revision.isFetching && <Notice>Reloading the saved draft…</Notice>}
+      {reloading && <Notice>Reloading the saved draft…</Notice>}
       <DraftEditor
-        key={r.version}
+        key={generation}
         planId={id}
         revision={r}
-        onReload={reload}
+        onReload={() => void reload()}
         afterStages={
           <>
             {/* budget sheet */}

@@ -9,7 +9,7 @@ import { shortHash } from "../../../lib/format";
 import { useUpdateRevision } from "../api/update-revision";
 import { actionErrorText } from "../lib/action-error";
 import { editRevisionFormSchema, revisionValuesOf } from "../lib/form-values";
-import { placeServerErrors } from "../lib/server-errors";
+import { invalidSummary, placeServerErrors } from "../lib/server-errors";
 import { shapeOf } from "../lib/model-shape";
 import { RevisionFields } from "./form/revision-fields";
 
@@ -62,6 +62,9 @@ export function DraftEditor({ planId, revision, onReload, onSaved, afterStages }
         },
       },
     );
+  }, (errors) => {
+    setSaved(null);
+    setProblem({ kind: "refused", text: invalidSummary(errors) });
   });
 
   return (

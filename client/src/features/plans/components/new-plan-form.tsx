@@ -10,7 +10,7 @@ import { Notice } from "../../../components/notice";
 import { formatCount } from "../../../lib/format";
 import { useCreatePlan } from "../api/create-plan";
 import { blankRevision, toNumber } from "../lib/form-values";
-import { placeServerErrors } from "../lib/server-errors";
+import { invalidSummary, placeServerErrors } from "../lib/server-errors";
 import { RevisionFields } from "./form/revision-fields";
 import { selectClass } from "./plan-filters";
 
@@ -38,7 +38,7 @@ export function NewPlanForm({ models, minApprovals, onCreated, afterStages }: Ne
   const onSubmit = handleSubmit((values) => {
     setFormError(null);
     create.mutate(values, { onSuccess: onCreated, onError: (e) => setFormError(placeServerErrors(e, setError)) });
-  });
+  }, (errors) => setFormError(invalidSummary(errors)));
 
   return (
     <FormProvider {...form}>

@@ -23,3 +23,21 @@ export function placeServerErrors<T extends FieldValues>(error: unknown, setErro
   if (leftover.length) return `${error.message} (${leftover.join("; ")})`;
   return placed ? null : error.message;
 }
+
+/** Dotted paths of every message in a react-hook-form error tree ("revision.stages.1.steps"). */
+export function errorPaths(errors: object, prefix = ""): string[] {
+  const out: string[] = [];
+  for (const [key, value] of Object.entries(errors)) {
+    if (!value || typeof value !== "object" || key === "ref") continue;
+    const path = prefix ? `${prefix}.${key}` : key;
+    if (typeof (value as { message?: unknown }).message === "string") out.push(path);
+    out.push(...errorPaths(value as object, path).filter((p) => p !== path));
+  }
+  return [...new Set(out)];
+}
+
+/** The line above a form that did not pass its own checks, so a mark further down the page is not missed. */
+export const invalidSummary = (errors: object) => {
+  const paths = errorPaths(errors).map((p) => p.replace(/^revision\./, ""));
+  return `Nothing was saved: ${paths.length} value${paths.length === 1 ? " needs" : "s need"} fixing (${paths.join(", ")}); each is marked beside its field.`;
+};

@@ -1,0 +1,271 @@
+import fs from "node:fs";
+import path from "node:path";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Browser, BrowserContext, Page } from "playwright-core";
+import { launchBrowser, screenshot } from "../setup/browser";
+import { makeTestApp } from "../setup/app";
+import { createProfile } from "../setup/plans";
+import { startTestServer } from "../setup/server";
+import { createTestUser, type TestUser } from "../setup/users";
+import { testDb } from "../setup/db";
+import { deliverDueMail } from "../../server/mail/outbox";
+import { startMailSink, type MailSink } from "../../server/mail/sink";
+
+// The browser clicks through the real built client served by the real app; only the model profile is made through the API.
+const builtClient = path.resolve(import.meta.dirname, "../../dist/client/index.html");
+const PLAN_MAIL = ["plan.review_requested", "plan.changes_requested", "plan.approved", "plan.ready"];
+
+let server: Awaited<ReturnType<typeof startTestServer>>;
+let browser: Browser;
+let sink: MailSink;
+let researcher: TestUser;
+let approverA: TestUser;
+let approverB: TestUser;
+let admin: TestUser;
+let profile: { id: number; name: string };
+const title = `Gannet to 32k ${Date.now().toString(36)}`;
+let planId = 0;
+let signedHash = "";
+const contexts: BrowserContext[] = [];
+const errors: string[] = [];
+
+beforeAll(async () => {
+  if (!fs.existsSync(builtClient)) throw new Error("dist/client is missing: run `npm run build` before the browser tests");
+  [server, browser, sink, researcher, approverA, approverB, admin] = await Promise.all([
+    startTestServer(),
+    launchBrowser(),
+    startMailSink({ db: testDb().db, port: 0 }),
+    createTestUser(["researcher"], "Rhea Researcher"),
+    createTestUser(["approver"], "Abel Approver"),
+    createTestUser(["approver"], "Bea Approver"),
+    createTestUser(["admin"], "Ada Admin"),
+  ]);
+  // Sample profile (tests/fixtures/profiles.ts): 128-dim heads, base 10 000, trained on 4096 tokens.
+  const api = await makeTestApp().agentAs(["researcher"]);
+  profile = await createProfile(api);
+});
+
+afterAll(async () => {
+  for (const c of contexts) await c.close().catch(() => undefined);
+  await browser?.close();
+  await sink?.close();
+  await server?.close();
+});
+
+/** A fresh browser session for one person, signed in and on `to`; page errors and console errors are collected. */
+async function signedIn(who: TestUser, to: string): Promise<Page> {
+  const context = await browser.newContext({ viewport: { width: 1280, height: 900 }, acceptDownloads: true });
+  contexts.push(context);
+  const page = await context.newPage();
+  page.on("pageerror", (e) => errors.push(`${who.name}: ${e.message}`));
+  // The browser's own line for an expected 409 or 403 is not an application error.
+  page.on("console", (m) => {
+    if (m.type() === "error" && !m.text().startsWith("Failed to load resource")) errors.push(`${who.name}: ${m.text()}`);
+  });
+  await page.goto(`${server.url}${to}`);
+  await page.getByLabel("E-mail").fill(who.email);
+  await page.getByLabel("Password").fill(who.password);
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await page.waitForURL((u) => !u.pathname.startsWith("/sign-in"));
+  return page;
+}
+
+const stage = (page: Page, n: number) => page.getByRole("group", { name: `Stage ${n}`, exact: true });
+
+async function approveFromQueue(who: TestUser, expectNotice: string) {
+  const page = await signedIn(who, "/review");
+  await page.getByRole("heading", { level: 1, name: "Review" }).waitFor();
+  await page.getByRole("button", { name: `Decide on ${title} revision 1` }).click();
+  const dialog = page.getByRole("dialog");
+  await dialog.waitFor();
+  // The dialog names the exact hash the decision signs: the one the plan page showed.
+  expect(await dialog.getByTestId("hash-to-sign").textContent()).toBe(signedHash);
+  if (who === approverA) await screenshot(page, "plans-decision-dialog");
+  await dialog.getByLabel("Comment (optional)").fill(`Checked by ${who.name}.`);
+  await dialog.getByRole("button", { name: "Sign and approve" }).click();
+  await page.getByText(expectNotice).waitFor();
+  await dialog.waitFor({ state: "detached" });
+  return page;
+}
+
+describe("plan workflow in a browser", () => {
+  it("a researcher drafts a two-stage plan through the form and submits it", async () => {
+    const page = await signedIn(researcher, "/plans");
+    await page.getByRole("heading", { level: 1, name: "Plans" }).waitFor();
+    await page.getByRole("link", { name: "New plan" }).click();
+    const form = page.getByRole("form", { name: "New plan" });
+    await form.waitFor();
+
+    // The shared schema speaks before the server is asked.
+    await form.getByRole("button", { name: "Save draft" }).click();
+    await form.getByText("Too small: expected string to have >=1 characters").waitFor();
+
+    await form.getByLabel("Title").fill(title);
+    await form.getByLabel("Model", { exact: true }).selectOption({ label: profile.name });
+    await form.getByLabel("Purpose").fill("Long documents for the support assistant");
+    await form.getByLabel("Approvals required").selectOption("2");
+    await form.getByLabel("Target context (tokens)").first().fill("32768");
+    await form.getByLabel("Method", { exact: true }).selectOption("yarn");
+
+    // The live check answers for 4096 → 32768 (s = 8) before anything is saved.
+    const live = page.getByTestId("live-flags");
+    await live.waitFor();
+    await expect(live.textContent()).resolves.toContain("×8 the trained window");
+
+    await form.getByRole("button", { name: "Add stage" }).click();
+    await form.getByRole("button", { name: "Add stage" }).click();
+    await stage(page, 1).getByLabel("Target context (tokens)").fill("16384");
+    await stage(page, 1).getByLabel("Sequence length (tokens)").fill("16384");
+    await stage(page, 1).getByLabel("Steps").fill("200");
+    await stage(page, 1).getByLabel("Data mix").fill("books 60%, code 40%");
+    await stage(page, 2).getByLabel("Steps").fill("200");
+    await stage(page, 2).getByLabel("Global batch (sequences)").fill("32");
+    // 200 steps × 32 sequences × 32 768 tokens, shown beside the stage as it is typed.
+    await stage(page, 2).getByText("Tokens trained: 210 million").waitFor();
+    await form.getByRole("button", { name: "Add acceptance criterion" }).click();
+    await page.getByRole("group", { name: "Criterion 1" }).getByLabel("Evaluation").fill("passkey retrieval");
+
+    await form.getByRole("button", { name: "Save draft" }).click();
+    await page.waitForURL(/\/plans\/\d+$/);
+    planId = Number(new URL(page.url()).pathname.split("/").pop());
+    await page.getByRole("heading", { level: 1, name: title }).waitFor();
+    const view = page.getByTestId("revision-view");
+    await view.getByRole("table", { name: "Stages" }).waitFor();
+    await expect(view.getByRole("table", { name: "Stages" }).locator("tbody tr").count()).resolves.toBe(2);
+    await expect(page.getByText("Approvals needed").locator("xpath=following-sibling::dd[1]").textContent()).resolves.toContain("2");
+
+    await page.getByRole("button", { name: "Submit for review" }).click();
+    await page.getByRole("group", { name: "Revision actions" }).getByRole("button", { name: "Withdraw to draft" }).waitFor();
+    await expect(page.getByRole("list", { name: "Revisions" }).textContent()).resolves.toContain("In review");
+    signedHash = (await page.getByTestId("content-hash").textContent()) ?? "";
+    expect(signedHash).toMatch(/^[0-9a-f]{64}$/);
+    await page.getByTestId("verify-status").and(page.locator('[data-ok="true"]')).waitFor();
+    await page.getByTestId("revision-charts").locator("svg").first().waitFor();
+    await screenshot(page, "plans-plan-in-review");
+
+    await page.goto(`${server.url}/plans?q=${encodeURIComponent(title)}`);
+    await page.getByRole("table", { name: "Plans" }).getByRole("link", { name: title }).waitFor();
+    await screenshot(page, "plans-list");
+  }, 90_000);
+
+  it("two approvers approve from the review queue; the plan is approved", async () => {
+    expect(planId).toBeGreaterThan(0);
+    await approveFromQueue(approverA, "approved by you; it waits for more approvals");
+    const second = await approveFromQueue(approverB, "approved and signed; its export is ready");
+    // Decided revisions leave the queue.
+    await expect(second.getByRole("button", { name: `Decide on ${title} revision 1` }).count()).resolves.toBe(0);
+  }, 60_000);
+
+  it("the researcher sees Approved and downloads the export and the report", async () => {
+    const page = await signedIn(researcher, `/plans/${planId}`);
+    await page.getByRole("heading", { level: 1, name: title }).waitFor();
+    await expect(page.getByRole("list", { name: "Revisions" }).textContent()).resolves.toContain("Approved");
+    await page.getByTestId("verify-status").and(page.locator('[data-ok="true"]')).waitFor();
+    await expect(page.getByRole("list", { name: "Decisions" }).getByTestId("signed-hash").allTextContents()).resolves.toEqual([signedHash, signedHash]);
+    await screenshot(page, "plans-plan-approved");
+
+    const [exported] = await Promise.all([page.waitForEvent("download"), page.getByRole("link", { name: "Download export (config patch JSON)" }).click()]);
+    const envelope = JSON.parse(fs.readFileSync(await exported.path(), "utf8"));
+    expect(envelope.config.rope_scaling.rope_type).toBe("yarn");
+    // YaRN with the default factor: target ÷ trained = 32768 ÷ 4096.
+    expect(envelope.config.rope_scaling.factor).toBe(8);
+    expect(envelope.config.rope_scaling.original_max_position_embeddings).toBe(4096);
+    expect(envelope.contentHash).toBe(signedHash);
+    expect(envelope.signedBy.map((s: { name: string }) => s.name).sort()).toEqual(["Abel Approver", "Bea Approver"]);
+
+    const [report] = await Promise.all([page.waitForEvent("download"), page.getByRole("link", { name: "Download report" }).click()]);
+    const html = fs.readFileSync(await report.path(), "utf8");
+    expect(html).toContain(title);
+    expect(html.split(signedHash).length - 1).toBeGreaterThanOrEqual(2);
+  }, 60_000);
+
+  it("a new revision is edited (a stale save is refused plainly) and compared with the signed one", async () => {
+    const page = await signedIn(researcher, `/plans/${planId}`);
+    await page.getByRole("button", { name: "Start new revision" }).click();
+    await page.waitForURL(new RegExp(`/plans/${planId}/revisions/2/edit$`));
+    const form = page.getByRole("form", { name: "Edit revision 2" });
+    await form.waitFor();
+
+    // A second tab reads the same draft, then the first one saves: the second's version is now stale.
+    const other = await page.context().newPage();
+    await other.goto(`${server.url}/plans/${planId}/revisions/2/edit`);
+    const otherForm = other.getByRole("form", { name: "Edit revision 2" });
+    await otherForm.waitFor();
+
+    await stage(page, 2).getByLabel("Steps").fill("300");
+    await form.getByLabel("Notes for reviewers").fill("Longer second stage after the first review.");
+    await form.getByRole("button", { name: "Save draft" }).click();
+    await page.getByText("Saved as version 2").waitFor();
+
+    await otherForm.getByLabel("Notes for reviewers").fill("A competing edit.");
+    await otherForm.getByRole("button", { name: "Save draft" }).click();
+    await other.getByText("Changed since you read it — reload").waitFor();
+    await other.getByRole("button", { name: "Reload the saved draft" }).click();
+    await other.waitForFunction(() => (document.querySelector("textarea") as HTMLTextAreaElement | null)?.value.startsWith("Longer second stage"));
+    await other.close();
+
+    await page.goto(`${server.url}/plans/${planId}/diff?a=1&b=2`);
+    const stages = page.getByRole("region", { name: "Changed stages" });
+    await stages.getByText("Stage 2: 1 field changed").waitFor();
+    await expect(stages.getByRole("table", { name: "Stage 2 changes" }).textContent()).resolves.toMatch(/steps.*200.*300/);
+    await expect(page.getByRole("region", { name: "Changed fields" }).textContent()).resolves.toContain("notes");
+    await screenshot(page, "plans-diff");
+  }, 60_000);
+
+  it("an approver reads the plan's audit trail", async () => {
+    const page = await signedIn(approverA, `/audit?subjectType=plan&subjectId=${planId}`);
+    const table = page.getByRole("table", { name: "Audit trail" });
+    await table.getByText("revision.approved").waitFor();
+    const actions = await table.locator("tbody tr td:nth-child(3)").allTextContents();
+    for (const a of ["plan.created", "revision.submitted", "decision.approved", "revision.approved", "revision.exported", "revision.created", "revision.edited"]) {
+      expect(actions).toContain(a);
+    }
+    expect(actions.filter((a) => a === "decision.approved")).toHaveLength(2);
+    await screenshot(page, "plans-audit");
+  }, 60_000);
+
+  it("an admin sees the workflow's mail after delivery", async () => {
+    // Delivered here to this file's sink (plan kinds only, so other files' test mail is left alone).
+    const deps = { db: testDb().db, config: { smtpUrl: `smtp://127.0.0.1:${sink.port}`, mailFrom: "ropewalk@ropewalk.test", mailRetryBaseMs: 0 } };
+    await deliverDueMail(deps, { kinds: PLAN_MAIL, limit: 5000 });
+    const page = await signedIn(admin, "/mail");
+    await page.getByLabel("Search received mail").fill(title);
+    const received = page.getByRole("list", { name: "Received messages" });
+    await received.getByText(approverA.email, { exact: false }).first().waitFor();
+    // Review requested (to the approvers) and approved (to the author); "ready" goes to infra leads, if any.
+    const subjects = await received.locator("li button span:first-child").allTextContents();
+    expect(subjects).toContain(`Review requested: "${title}" rev. 1`);
+    expect(subjects).toContain(`Approved: "${title}" rev. 1`);
+    await received.getByRole("button", { name: new RegExp(`^Approved: "${title}"`) }).click();
+    await expect(page.getByRole("article", { name: "Message" }).textContent()).resolves.toContain(`/plans/${planId}`);
+    await screenshot(page, "plans-mail");
+  }, 60_000);
+
+  it("a researcher makes an API token, reads the signed export with it, and revokes it", async () => {
+    const page = await signedIn(researcher, "/profile");
+    const form = page.getByRole("form", { name: "New API token" });
+    await form.getByLabel("Token name").fill("cluster export");
+    await form.getByRole("button", { name: "Create token" }).click();
+    const secret = (await page.getByTestId("new-token-secret").textContent()) ?? "";
+    expect(secret).toMatch(/^rw_/);
+    const table = page.getByRole("table", { name: "API tokens" });
+    await table.getByText("cluster export").waitFor();
+    await screenshot(page, "plans-tokens");
+
+    const withToken = () => fetch(`${server.url}/api/plans/${planId}/approved/export`, { headers: { Authorization: `Bearer ${secret}` } });
+    const ok = await withToken();
+    expect(ok.status).toBe(200);
+    expect((await ok.json()).config.rope_scaling.rope_type).toBe("yarn");
+
+    await page.getByRole("button", { name: "I have stored it" }).click();
+    await expect(page.getByTestId("new-token-secret").count()).resolves.toBe(0);
+    await page.getByRole("button", { name: "Revoke cluster export" }).click();
+    await page.getByText("cluster export is revoked").waitFor();
+    await expect(table.locator("tbody tr").first().textContent()).resolves.toContain("Revoked");
+    expect((await withToken()).status).toBe(401);
+  }, 60_000);
+
+  it("no page error or console error along the way", () => {
+    expect(errors).toEqual([]);
+  });
+});
