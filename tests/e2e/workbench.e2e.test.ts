@@ -3,7 +3,7 @@ import path from "node:path";
 import Papa from "papaparse";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
-import { launchBrowser, screenshot } from "../setup/browser";
+import { launchBrowser, screenshot, SCREENSHOT_DIR } from "../setup/browser";
 import { startTestServer } from "../setup/server";
 import { createTestUser, type TestUser } from "../setup/users";
 import { makeTestApp } from "../setup/app";
@@ -152,6 +152,12 @@ describe("workbench in a browser", () => {
     await page.getByTestId("smallest-base").getByText(/Smallest base that supports|No base on the grid/).waitFor({ timeout: 20_000 });
     await page.getByTestId("supported-lengths").getByText("scanning…").waitFor({ state: "detached", timeout: 20_000 });
     await page.mouse.move(0, 0);
+    // Each figure's explanation is one click away, with its published source and the caution.
+    const spectrumPanel = page.getByRole("heading", { name: "Wavelength per pair" }).locator("xpath=ancestor::section[1]");
+    await spectrumPanel.getByText("How is this computed?").click();
+    const explained = spectrumPanel.locator("details[open]");
+    await expect(explained.textContent()).resolves.toContain("RoFormer, Su et al. 2021");
+    await expect(explained.textContent()).resolves.toContain("confirmed only by long-context evaluations of the tuned model");
     await screenshot(page, "workbench-charts");
 
     // The table: all 64 pairs, then only flagged ones; the CSV holds exactly the rows and columns shown.
@@ -171,8 +177,8 @@ describe("workbench in a browser", () => {
     expect(csv.data.length - 1).toBe(await rows.count());
     const firstShown = (await rows.first().locator("td").first().textContent())!.trim();
     expect(csv.data[1][0]).toBe(firstShown);
-    await table.scrollIntoViewIfNeeded();
-    await screenshot(page, "workbench-table");
+    // The table's own panel, at reading size (the full page is in workbench-charts).
+    await page.getByRole("heading", { name: "Pair by pair" }).locator("xpath=ancestor::section[1]").screenshot({ path: path.join(SCREENSHOT_DIR, "workbench-table.png") });
 
     // The URL alone reproduces the view.
     const before = await readInputs(page);
