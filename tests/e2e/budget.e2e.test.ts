@@ -115,6 +115,11 @@ describe("budget sheet in a browser", () => {
     await expect(page.getByRole("table", { name: "Accelerators" }).locator("tbody tr").filter({ hasText: spare }).count()).resolves.toBe(0);
     await screenshot(page, "accelerators");
 
+    // A bare visit: example cluster figures, said to be examples, and no figures until a model is chosen.
+    await page.goto(`${server.url}/estimator`);
+    await page.getByTestId("example-figures").waitFor();
+    await page.getByText("Pick a model profile or type a model shape to see figures.").waitFor();
+
     // Estimator: stage 1 by steps, stage 2 by a token target; inputs come from the URL.
     const search = new URLSearchParams([["model", String(profile.id)], ["acc", String(stored.id)], ["n", "8"], ["st", "16384_64_200"], ["st", "32768_32_t1e9"]]);
     await page.goto(`${server.url}/estimator?${search}`);

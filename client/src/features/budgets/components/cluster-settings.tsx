@@ -1,7 +1,7 @@
 import { useId } from "react";
 import type { Accelerator, BudgetEstimateResponse } from "../../../../../shared/schemas/budget";
 import { formatBytes, formatMoney, sig3, TFLOPS } from "../../../lib/format";
-import { type ClusterDraft, type Convention, type SettingsDraft } from "../lib/sheet-draft";
+import { EXAMPLE_CLUSTER, type ClusterDraft, type Convention, type SettingsDraft } from "../lib/sheet-draft";
 import { Radio } from "./radio";
 import { SheetInput, SheetSelect } from "./sheet-input";
 
@@ -52,6 +52,11 @@ export function ClusterSettings({ cluster, settings, accelerators, assumptions, 
             <SheetInput label="Memory per accelerator" unit="GiB" value={cluster.memoryGib} onChange={(t) => onCluster({ ...cluster, memoryGib: t })} error={issues["cluster.memoryBytes"]} />
             <SheetInput label="Price per accelerator-hour" value={cluster.pricePerHour} onChange={(t) => onCluster({ ...cluster, pricePerHour: t })} error={issues["cluster.pricePerHour"]} hint="Workspace currency" />
           </div>
+        )}
+        {cluster.kind === "custom" && (["peakTflops", "memoryGib", "pricePerHour"] as const).every((k) => cluster[k] === EXAMPLE_CLUSTER[k]) && (
+          <p className="text-note text-hemp-dark" data-testid="example-figures">
+            Example figures, not any real accelerator's: type your hardware's, or pick one from the catalog.
+          </p>
         )}
         {cluster.kind === "catalog" && picked && (
           <p className="text-note text-ink-soft" data-testid="picked-accelerator">
