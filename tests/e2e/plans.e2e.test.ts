@@ -143,9 +143,22 @@ describe("plan workflow in a browser", () => {
     await page.getByTestId("revision-charts").locator("svg").first().waitFor();
     await screenshot(page, "plans-plan-in-review");
 
-    await page.goto(`${server.url}/plans?q=${encodeURIComponent(title)}`);
-    await page.getByRole("table", { name: "Plans" }).getByRole("link", { name: title }).waitFor();
+    // The list: filters and sort live in the URL and are applied by the server.
+    await page.goto(`${server.url}/plans`);
+    const plans = page.getByRole("table", { name: "Plans" });
+    await plans.getByRole("link", { name: title }).waitFor();
     await screenshot(page, "plans-list");
+    await page.getByLabel("Search plans").fill(title);
+    await page.waitForURL((u) => u.searchParams.get("q") === title);
+    await page.getByLabel("State").selectOption("approved");
+    await page.waitForURL((u) => u.searchParams.get("state") === "approved");
+    await plans.getByText("No plans match these filters.").waitFor();
+    await page.getByLabel("State").selectOption("in_review");
+    await plans.getByRole("link", { name: title }).waitFor();
+    await plans.getByRole("button", { name: "Plan" }).click();
+    await page.waitForURL((u) => u.searchParams.get("sort") === "title" && u.searchParams.get("dir") === "asc");
+    await plans.locator('th[aria-sort="ascending"]', { hasText: "Plan" }).waitFor();
+    await expect(plans.locator("tbody tr").count()).resolves.toBe(1);
   }, 90_000);
 
   it("two approvers approve from the review queue; the plan is approved", async () => {
@@ -221,6 +234,9 @@ describe("plan workflow in a browser", () => {
       expect(actions).toContain(a);
     }
     expect(actions.filter((a) => a === "decision.approved")).toHaveLength(2);
+    // The editor sends only what was edited, so the trail names exactly those fields.
+    const edited = await table.locator("tbody tr", { hasText: "revision.edited" }).textContent();
+    expect(edited).toContain('["stages","notes"]');
     await screenshot(page, "plans-audit");
   }, 60_000);
 

@@ -41,7 +41,7 @@ export function AuditTable({ events, onActor, onSubject, busy = false }: AuditTa
               <td className="px-3 py-2 whitespace-nowrap">{formatDateTime(e.at)}</td>
               <td className="px-3 py-2">
                 {e.actor ? (
-                  <Button variant="quiet" size="sm" onClick={() => onActor(e.actor!.id)} title="Only this person’s actions">
+                  <Button variant="quiet" size="sm" className="justify-start text-left" onClick={() => onActor(e.actor!.id)} title="Only this person’s actions">
                     {e.actor.name}
                   </Button>
                 ) : (
@@ -51,7 +51,7 @@ export function AuditTable({ events, onActor, onSubject, busy = false }: AuditTa
               <td className="px-3 py-2 font-mono text-note">{e.action}</td>
               <td className="px-3 py-2">
                 {e.subjectId ? (
-                  <Button variant="quiet" size="sm" onClick={() => onSubject(e.subjectType, e.subjectId!)} title="Only this subject">
+                  <Button variant="quiet" size="sm" className="whitespace-nowrap" onClick={() => onSubject(e.subjectType, e.subjectId!)} title="Only this subject">
                     {e.subjectType} {e.subjectId}
                   </Button>
                 ) : (

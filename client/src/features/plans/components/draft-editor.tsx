@@ -2,6 +2,7 @@ import { useState, type ReactNode } from "react";
 import { FormProvider, useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import type { RevisionResponse } from "../../../../../shared/schemas/plan-responses";
+import type { RevisionValues, UpdateRevisionRequest } from "../../../../../shared/schemas/plans";
 import { Button, SubmitButton } from "../../../components/button";
 import { Notice } from "../../../components/notice";
 import { isApiError } from "../../../lib/api-client";
@@ -23,6 +24,16 @@ type DraftEditorProps = {
   afterStages?: ReactNode;
 };
 
+/**
+ * Only the fields edited since the last save go in the PUT (the audit trail then names them). A budget sheet
+ * cleared back to "no accelerator" is sent as null, which is how the server removes it.
+ */
+function changedFields(values: RevisionValues, dirty: Partial<Record<keyof RevisionValues, unknown>> | undefined): Omit<UpdateRevisionRequest, "version"> {
+  const out: Record<string, unknown> = {};
+  for (const key of Object.keys(dirty ?? {}) as (keyof RevisionValues)[]) out[key] = values[key] ?? (key === "budget" ? null : undefined);
+  return out as Omit<UpdateRevisionRequest, "version">;
+}
+
 type Problem = { kind: "stale" | "refused"; text: string };
 
 /**
@@ -35,14 +46,21 @@ export function DraftEditor({ planId, revision, onReload, onSaved, afterStages }
   const [problem, setProblem] = useState<Problem | null>(null);
   const [saved, setSaved] = useState<string | null>(null);
   const form = useForm({ resolver: zodResolver(editRevisionFormSchema), defaultValues: { revision: revisionValuesOf(revision.content) } });
+  // Read during render so react-hook-form keeps dirtyFields up to date (its form state is a subscription proxy).
+  const { dirtyFields } = form.formState;
   const m = revision.content.model;
   const model = shapeOf(m);
 
   const onSubmit = form.handleSubmit(({ revision: values }) => {
     setProblem(null);
     setSaved(null);
+    const changes = changedFields(values, dirtyFields.revision);
+    if (Object.keys(changes).length === 0) {
+      setSaved("Nothing changed since the last save.");
+      return;
+    }
     update.mutate(
-      { id: planId, n: revision.number, changes: { version, ...values } },
+      { id: planId, n: revision.number, changes: { version, ...changes } },
       {
         onSuccess: (r) => {
           setVersion(r.version);

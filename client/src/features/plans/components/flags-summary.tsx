@@ -1,6 +1,6 @@
 import type { StageResult } from "../../../../../shared/schemas/plans";
 import { formatCount, sig3 } from "../../../lib/format";
-import { methodLabel } from "../lib/method-table";
+import { methodShort } from "../lib/method-table";
 import { formatPairRanges } from "../lib/pair-ranges";
 
 type FlagKey = keyof StageResult["flags"];
@@ -48,7 +48,7 @@ export function FlagsSummary({ rows, pairs }: { rows: Row[]; pairs: number }) {
               <tr key={scope} className="border-t border-rule/70 align-top">
                 <th scope="row" className="px-3 py-2 font-medium">{scope}</th>
                 <td className="px-3 py-2">{formatCount(result.targetContext)}</td>
-                <td className="px-3 py-2">{methodLabel(result.method)}</td>
+                <td className="px-3 py-2">{methodShort(result.method)}</td>
                 <td className="px-3 py-2">×{sig3(result.attentionFactor)}</td>
                 {FLAGS.map((f) => (
                   <td key={f} className="px-3 py-2" data-flag={f}>

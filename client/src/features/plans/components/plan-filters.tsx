@@ -25,8 +25,8 @@ export function PlanFilters({ params, onChange, models, owners }: PlanFiltersPro
   const filtered = params.state || params.ownerId || params.modelId || params.q;
   return (
     <form role="search" aria-label="Filter plans" className="grid gap-3 sm:grid-cols-2 lg:grid-cols-[2fr_1fr_1fr_1fr_auto] lg:items-end" onSubmit={(e) => e.preventDefault()}>
-      <Field label="Search plans" hint="Title, purpose, model or owner">
-        {({ id, describedBy }) => <TextInput id={id} aria-describedby={describedBy} type="search" value={text} onChange={(e) => setText(e.target.value)} />}
+      <Field label="Search plans">
+        {({ id }) => <TextInput id={id} type="search" placeholder="Title, purpose, model or owner" value={text} onChange={(e) => setText(e.target.value)} />}
       </Field>
       <Field label="State">
         {({ id }) => (

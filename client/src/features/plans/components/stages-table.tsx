@@ -1,6 +1,6 @@
 import type { Stage } from "../../../../../shared/schemas/plans";
 import { formatCount, formatScientific } from "../../../lib/format";
-import { describeParams, methodLabel } from "../lib/method-table";
+import { describeParams, methodShort } from "../lib/method-table";
 
 /** Tokens trained in one stage: steps × global batch (sequences) × sequence length (DOMAIN notes, Budget). */
 export const stageTokens = (s: Pick<Stage, "steps" | "globalBatch" | "sequenceLength">) => s.steps * s.globalBatch * s.sequenceLength;
@@ -31,7 +31,7 @@ export function StagesTable({ stages }: { stages: Stage[] }) {
                 <th scope="row" className="px-3 py-2 font-medium">{i + 1}</th>
                 <td className="px-3 py-2">{formatCount(s.targetContext)}</td>
                 <td className="px-3 py-2">
-                  {methodLabel(s.method.method)}
+                  {methodShort(s.method.method)}
                   <span className="block text-note text-ink-soft">{describeParams(s.method)}</span>
                 </td>
                 <td className="px-3 py-2">{formatCount(s.steps)}</td>
