@@ -4,7 +4,8 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, BrowserContext, Page } from "playwright-core";
 import { launchBrowser, screenshot } from "../setup/browser";
 import { makeTestApp } from "../setup/app";
-import { createProfile } from "../setup/plans";
+import { createPlan, createProfile, twoStageRevision } from "../setup/plans";
+import type { Agent } from "../setup/app";
 import { startTestServer } from "../setup/server";
 import { createTestUser, type TestUser } from "../setup/users";
 import { testDb } from "../setup/db";
@@ -23,6 +24,7 @@ let approverA: TestUser;
 let approverB: TestUser;
 let admin: TestUser;
 let profile: { id: number; name: string };
+let api: Agent;
 const title = `Gannet to 32k ${Date.now().toString(36)}`;
 let planId = 0;
 let signedHash = "";
@@ -41,7 +43,7 @@ beforeAll(async () => {
     createTestUser(["admin"], "Ada Admin"),
   ]);
   // Sample profile (tests/fixtures/profiles.ts): 128-dim heads, base 10 000, trained on 4096 tokens.
-  const api = await makeTestApp().agentAs(["researcher"]);
+  api = await makeTestApp().agentAs(["researcher"]);
   profile = await createProfile(api);
 });
 
@@ -279,6 +281,22 @@ describe("plan workflow in a browser", () => {
     await page.getByText("cluster export is revoked").waitFor();
     await expect(table.locator("tbody tr").first().textContent()).resolves.toContain("Revoked");
     expect((await withToken()).status).toBe(401);
+  }, 60_000);
+
+  it("a plan with a budget sheet shows its frozen per-stage figures", async () => {
+    // An invented cluster given inline: 1 PFLOP/s peak, 80 GiB, 2.5 per accelerator-hour, 64 of them.
+    const budget = { cluster: { peakFlops: 1e15, memoryBytes: 80 * 2 ** 30, pricePerHour: 2.5 }, accelerators: 64 };
+    const plan = await createPlan(api, profile.id, { title: `${title} costed`, revision: { ...twoStageRevision(), budget } });
+    const page = await signedIn(approverA, `/plans/${plan.id}`);
+    const panel = page.getByTestId("budget-panel");
+    await panel.waitFor();
+    const rows = panel.getByRole("table", { name: "Budget per stage" }).locator("tbody tr");
+    await expect(rows.count()).resolves.toBe(2);
+    // Tokens = steps × global batch × sequence length: 200 × 64 × 16 384 and 200 × 32 × 32 768, 419 430 400 in all.
+    await expect(rows.nth(0).locator("td").first().textContent()).resolves.toBe("210 million");
+    await expect(panel.locator("tfoot td").first().textContent()).resolves.toBe("419 million");
+    await expect(panel.textContent()).resolves.toContain("64 × custom accelerator");
+    await screenshot(page, "plans-budget");
   }, 60_000);
 
   it("no page error or console error along the way", () => {
