@@ -23,7 +23,7 @@ let researcher: TestUser;
 
 beforeAll(async () => {
   if (!fs.existsSync(builtClient)) throw new Error("dist/client is missing: run `npm run build` before the browser tests");
-  [server, browser, researcher] = await Promise.all([startTestServer(), launchBrowser(), createTestUser(["researcher"], "Rosa Researcher")]);
+  [server, browser, researcher] = await Promise.all([startTestServer(), launchBrowser(), createTestUser(["researcher"], "Wren Workbench")]);
 });
 
 afterAll(async () => {
@@ -212,7 +212,7 @@ describe("profiles and bounds in a browser", () => {
     const author = await agentAs(["researcher"]);
     const profile = await createProfile(author);
     const plan = await createPlan(author, profile.id);
-    const viewer = await createTestUser(["viewer"], "Vic Viewer");
+    const viewer = await createTestUser(["viewer"], "Vale Reader");
 
     const context = await browser.newContext({ viewport: { width: 1280, height: 860 } });
     const page = await context.newPage();
