@@ -35,13 +35,18 @@ export const planListResponseSchema = z.object({
 });
 export type PlanListResponse = z.infer<typeof planListResponseSchema>;
 
-export const revisionSummarySchema = z.object({
+/** What every revision answer starts with: its number, state, edit version, decision round and hash. */
+const revisionHead = {
   number: z.number(),
   state: revisionStateSchema,
   version: z.number(),
   round: z.number(),
   contentHash: z.string(),
   engineVersion: z.string(),
+};
+
+export const revisionSummarySchema = z.object({
+  ...revisionHead,
   author: userRefSchema.nullable().optional(),
   createdAt: z.string(),
   submittedAt: z.string().nullable(),
@@ -112,12 +117,7 @@ export const revisionContentSchema = z.object({
 export type RevisionContent = z.infer<typeof revisionContentSchema>;
 
 export const revisionResponseSchema = z.object({
-  number: z.number(),
-  state: revisionStateSchema,
-  version: z.number(),
-  round: z.number(),
-  contentHash: z.string(),
-  engineVersion: z.string(),
+  ...revisionHead,
   authorId: z.number(),
   content: revisionContentSchema,
 });

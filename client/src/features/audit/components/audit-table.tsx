@@ -1,5 +1,7 @@
+import { createColumnHelper, getCoreRowModel, useReactTable } from "@tanstack/react-table";
 import type { AuditEvent } from "../../../../../shared/schemas/audit";
 import { Button } from "../../../components/button";
+import { TableView } from "../../../components/table-view";
 import { formatDateTime } from "../../../lib/format";
 
 /** One line per detail key; hashes and long values wrap instead of widening the table. */
@@ -20,54 +22,44 @@ function Detail({ detail }: { detail: Record<string, unknown> }) {
 
 type AuditTableProps = { events: AuditEvent[]; onActor: (actorId: number) => void; onSubject: (type: string, id: string) => void; busy?: boolean };
 
-/** The trail as the server paged it, newest first; a name or subject narrows the trail to it. */
+const column = createColumnHelper<AuditEvent>();
+
+/** The trail as the server paged it, newest first (no sorting here); a name or subject narrows the trail to it. */
 export function AuditTable({ events, onActor, onSubject, busy = false }: AuditTableProps) {
+  const columns = [
+    column.accessor("at", { header: "When", cell: (c) => <span className="whitespace-nowrap">{formatDateTime(c.getValue())}</span> }),
+    column.display({
+      id: "actor",
+      header: "Who",
+      cell: ({ row: { original: e } }) =>
+        e.actor ? (
+          <Button variant="quiet" size="sm" className="justify-start text-left" onClick={() => onActor(e.actor!.id)} title="Only this person’s actions">
+            {e.actor.name}
+          </Button>
+        ) : (
+          <span className="text-ink-soft">system</span>
+        ),
+    }),
+    column.accessor("action", { header: "Action", cell: (c) => <span className="font-mono text-note">{c.getValue()}</span> }),
+    column.display({
+      id: "subject",
+      header: "Subject",
+      cell: ({ row: { original: e } }) =>
+        e.subjectId ? (
+          <Button variant="quiet" size="sm" className="whitespace-nowrap" onClick={() => onSubject(e.subjectType, e.subjectId!)} title="Only this subject">
+            {e.subjectType} {e.subjectId}
+          </Button>
+        ) : (
+          e.subjectType
+        ),
+    }),
+    column.display({ id: "detail", header: "Detail", cell: ({ row: { original: e } }) => <Detail detail={e.detail} /> }),
+  ];
+  // eslint-disable-next-line react-hooks/incompatible-library -- TanStack Table returns fresh functions by design
+  const table = useReactTable({ data: events, columns, getRowId: (e) => String(e.id), getCoreRowModel: getCoreRowModel(), enableSorting: false });
   return (
-    <div className="overflow-x-auto rounded-md border border-rule" aria-busy={busy || undefined}>
-      <table className={`w-full border-collapse text-left text-body ${busy ? "opacity-70" : ""}`}>
-        <caption className="sr-only">Audit trail</caption>
-        <thead className="bg-paper-deep text-note font-semibold tracking-wide text-ink-soft uppercase">
-          <tr>
-            <th scope="col" className="px-3 py-2">When</th>
-            <th scope="col" className="px-3 py-2">Who</th>
-            <th scope="col" className="px-3 py-2">Action</th>
-            <th scope="col" className="px-3 py-2">Subject</th>
-            <th scope="col" className="px-3 py-2">Detail</th>
-          </tr>
-        </thead>
-        <tbody>
-          {events.map((e) => (
-            <tr key={e.id} className="border-t border-rule/70 align-top">
-              <td className="px-3 py-2 whitespace-nowrap">{formatDateTime(e.at)}</td>
-              <td className="px-3 py-2">
-                {e.actor ? (
-                  <Button variant="quiet" size="sm" className="justify-start text-left" onClick={() => onActor(e.actor!.id)} title="Only this person’s actions">
-                    {e.actor.name}
-                  </Button>
-                ) : (
-                  <span className="text-ink-soft">system</span>
-                )}
-              </td>
-              <td className="px-3 py-2 font-mono text-note">{e.action}</td>
-              <td className="px-3 py-2">
-                {e.subjectId ? (
-                  <Button variant="quiet" size="sm" className="whitespace-nowrap" onClick={() => onSubject(e.subjectType, e.subjectId!)} title="Only this subject">
-                    {e.subjectType} {e.subjectId}
-                  </Button>
-                ) : (
-                  e.subjectType
-                )}
-              </td>
-              <td className="px-3 py-2"><Detail detail={e.detail} /></td>
-            </tr>
-          ))}
-          {events.length === 0 && (
-            <tr>
-              <td colSpan={5} className="px-3 py-6 text-center text-ink-soft">No events match these filters.</td>
-            </tr>
-          )}
-        </tbody>
-      </table>
+    <div aria-busy={busy || undefined} className={busy ? "opacity-70" : ""}>
+      <TableView table={table} caption="Audit trail" emptyText="No events match these filters." dense />
     </div>
   );
 }

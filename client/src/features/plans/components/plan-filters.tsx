@@ -17,6 +17,25 @@ export const selectClass =
   "w-full rounded-md border border-rule-strong bg-white/70 px-3 py-2 text-body text-ink focus:border-seaglass focus:outline-2 focus:outline-seaglass/30 aria-[invalid=true]:border-signal";
 
 const numberOrUndefined = (v: string) => (v === "" ? undefined : Number(v));
+const asOptions = (items: Option[]) => items.map((o) => ({ value: String(o.id), label: o.name }));
+
+type ChoiceFilterProps = { label: string; anyLabel: string; value: string; options: { value: string; label: string }[]; onChange: (value: string) => void };
+
+/** A labelled select whose empty choice means "no filter". */
+function ChoiceFilter({ label, anyLabel, value, options, onChange }: ChoiceFilterProps) {
+  return (
+    <Field label={label}>
+      {({ id }) => (
+        <select id={id} className={selectClass} value={value} onChange={(e) => onChange(e.target.value)}>
+          <option value="">{anyLabel}</option>
+          {options.map((o) => (
+            <option key={o.value} value={o.value}>{o.label}</option>
+          ))}
+        </select>
+      )}
+    </Field>
+  );
+}
 
 /** State, owner, model and free text; every change lands in the URL through `onChange`. */
 export function PlanFilters({ params, onChange, models, owners }: PlanFiltersProps) {
@@ -28,42 +47,15 @@ export function PlanFilters({ params, onChange, models, owners }: PlanFiltersPro
       <Field label="Search plans">
         {({ id }) => <TextInput id={id} type="search" placeholder="Title, purpose, model or owner" value={text} onChange={(e) => setText(e.target.value)} />}
       </Field>
-      <Field label="State">
-        {({ id }) => (
-          <select id={id} className={selectClass} value={params.state ?? ""} onChange={(e) => onChange({ state: (e.target.value || undefined) as RevisionState | undefined })}>
-            <option value="">Any state</option>
-            {REVISION_STATES.map((s) => (
-              <option key={s} value={s}>
-                {STATE_LABELS[s]}
-              </option>
-            ))}
-          </select>
-        )}
-      </Field>
-      <Field label="Owner">
-        {({ id }) => (
-          <select id={id} className={selectClass} value={params.ownerId ?? ""} onChange={(e) => onChange({ ownerId: numberOrUndefined(e.target.value) })}>
-            <option value="">Anyone</option>
-            {owners.map((o) => (
-              <option key={o.id} value={o.id}>
-                {o.name}
-              </option>
-            ))}
-          </select>
-        )}
-      </Field>
-      <Field label="Model">
-        {({ id }) => (
-          <select id={id} className={selectClass} value={params.modelId ?? ""} onChange={(e) => onChange({ modelId: numberOrUndefined(e.target.value) })}>
-            <option value="">Any model</option>
-            {models.map((m) => (
-              <option key={m.id} value={m.id}>
-                {m.name}
-              </option>
-            ))}
-          </select>
-        )}
-      </Field>
+      <ChoiceFilter
+        label="State"
+        anyLabel="Any state"
+        value={params.state ?? ""}
+        options={REVISION_STATES.map((st) => ({ value: st, label: STATE_LABELS[st] }))}
+        onChange={(v) => onChange({ state: (v || undefined) as RevisionState | undefined })}
+      />
+      <ChoiceFilter label="Owner" anyLabel="Anyone" value={String(params.ownerId ?? "")} options={asOptions(owners)} onChange={(v) => onChange({ ownerId: numberOrUndefined(v) })} />
+      <ChoiceFilter label="Model" anyLabel="Any model" value={String(params.modelId ?? "")} options={asOptions(models)} onChange={(v) => onChange({ modelId: numberOrUndefined(v) })} />
       <div className="pb-0.5">
         <Button
           variant="quiet"

@@ -1,5 +1,6 @@
 import { Link } from "react-router-dom";
-import { createColumnHelper, flexRender, getCoreRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
+import { createColumnHelper, getCoreRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
+import { TableView } from "../../../components/table-view";
 import type { PlanListItem } from "../../../../../shared/schemas/plan-responses";
 import { paths } from "../../../config/paths";
 import { formatDate } from "../../../lib/format";
@@ -17,7 +18,6 @@ type PlansTableProps = {
 };
 
 const column = createColumnHelper<PlanListItem>();
-const SORT_MARK = { asc: "▲", desc: "▼" } as const;
 
 const columns = [
   column.accessor("title", {
@@ -73,55 +73,8 @@ export function PlansTable({ plans, total, sort, dir, onSort, busy = false }: Pl
   });
 
   return (
-    <div className="overflow-x-auto rounded-md border border-rule" aria-busy={busy || undefined}>
-      <table className={`w-full border-collapse text-left text-body ${busy ? "opacity-70" : ""}`}>
-        <caption className="sr-only">Plans</caption>
-        <thead className="bg-paper-deep">
-          {table.getHeaderGroups().map((group) => (
-            <tr key={group.id}>
-              {group.headers.map((header) => {
-                const sorted = header.column.getIsSorted();
-                const label = flexRender(header.column.columnDef.header, header.getContext());
-                return (
-                  <th
-                    key={header.id}
-                    scope="col"
-                    aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : undefined}
-                    className="border-b border-rule px-3 py-2 text-note font-semibold tracking-wide text-ink-soft uppercase"
-                  >
-                    {header.column.getCanSort() ? (
-                      <button type="button" onClick={header.column.getToggleSortingHandler()} className="inline-flex items-center gap-1 uppercase hover:text-hemp-dark">
-                        {label}
-                        <span aria-hidden className="text-[10px]">{sorted ? SORT_MARK[sorted] : "↕"}</span>
-                      </button>
-                    ) : (
-                      label
-                    )}
-                  </th>
-                );
-              })}
-            </tr>
-          ))}
-        </thead>
-        <tbody>
-          {table.getRowModel().rows.map((row) => (
-            <tr key={row.id} className="border-b border-rule/70 last:border-b-0 hover:bg-hemp-pale/40">
-              {row.getVisibleCells().map((cell) => (
-                <td key={cell.id} className="px-3 py-2 align-middle">
-                  {flexRender(cell.column.columnDef.cell, cell.getContext())}
-                </td>
-              ))}
-            </tr>
-          ))}
-          {plans.length === 0 && (
-            <tr>
-              <td colSpan={columns.length} className="px-3 py-6 text-center text-ink-soft">
-                No plans match these filters.
-              </td>
-            </tr>
-          )}
-        </tbody>
-      </table>
+    <div aria-busy={busy || undefined} className={busy ? "opacity-70" : ""}>
+      <TableView table={table} caption="Plans" emptyText="No plans match these filters." />
     </div>
   );
 }
