@@ -8,13 +8,13 @@ import { useCurrentUser } from "../../features/auth/hooks/use-session";
 
 type Pointer = { text: string; link?: { to: string; label: string } };
 
-/** What each role does here. Screens that do not exist yet are named without a link. */
+/** What each role does here, with the screen to start from. */
 const POINTERS: Record<Role, Pointer> = {
   admin: { text: "Add colleagues, give them roles, and deactivate accounts that should no longer sign in.", link: { to: paths.users(), label: "Manage users" } },
-  researcher: { text: "Import a model's configuration, compare rescaling methods pair by pair, and draft a plan for review. The workbench arrives next." },
-  infra: { text: "Set compute budgets and describe the accelerators a plan may use, so every plan carries a cost you can trust." },
-  approver: { text: "Review submitted plans, question the figures, and sign the ones ready for a tuning run." },
-  viewer: { text: "Read signed plans and the reasoning behind them." },
+  researcher: { text: "Import a model's configuration, compare rescaling methods pair by pair in the workbench, and draft a staged plan for review.", link: { to: paths.modelImport(), label: "Import a config.json" } },
+  infra: { text: "Keep the accelerator catalog, and size the tokens, hours, cost and memory of each stage before anyone signs.", link: { to: paths.estimator(), label: "Open the estimator" } },
+  approver: { text: "Review submitted plans, question the figures, and sign the exact revision (its hash) that is ready for a tuning run.", link: { to: paths.review(), label: "Open the review queue" } },
+  viewer: { text: "Read plans, their figures and who signed them.", link: { to: paths.plans(), label: "Browse plans" } },
 };
 
 export function HomeRoute() {
