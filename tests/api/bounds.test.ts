@@ -155,3 +155,13 @@ describe("POST /api/bounds/base/stream", () => {
     expect(s.events.some((e) => e.event === "result")).toBe(false);
   });
 });
+
+describe("more searches than workers", () => {
+  it("queue for a worker instead of failing: six at once all answer, each with the plain scan's result", async () => {
+    const a = await agentAs(["viewer"]);
+    const bases = [10_000, 20_000, 40_000, 80_000, 160_000, 320_000];
+    const answers = await Promise.all(bases.map((base) => post(a, { rotaryDim: 64, base, maxLength: 20_000 })));
+    expect(answers.map((r) => r.status)).toEqual(bases.map(() => 200));
+    answers.forEach((r, i) => expect(r.body.supportedLength).toBe(supportedLengthNaive(inverseFrequencies(64, bases[i]), 20_000)));
+  });
+});

@@ -19,6 +19,43 @@ let liveWorkers = 0;
 /** Workers spawned and not yet exited (tests use it to see that a cancelled search really stopped). */
 export const activeBoundSearches = () => liveWorkers;
 
+// Searches beyond the worker limit wait their turn (a short queue) instead of failing at once.
+export const QUEUE_WAIT_MS = 15_000;
+const MAX_QUEUED = 32;
+const waiting: (() => void)[] = [];
+function releaseSlot() {
+  liveWorkers--;
+  waiting.shift()?.();
+}
+function takeSlot(signal?: AbortSignal): Promise<void> {
+  if (liveWorkers < MAX_WORKERS) {
+    liveWorkers++;
+    return Promise.resolve();
+  }
+  if (waiting.length >= MAX_QUEUED) return Promise.reject(new HttpError(503, "busy", "all bound searches are busy; try again shortly"));
+  return new Promise((resolve, reject) => {
+    const go = () => {
+      clearTimeout(timer);
+      signal?.removeEventListener("abort", cancel);
+      liveWorkers++;
+      resolve();
+    };
+    const leave = (e: Error) => {
+      const i = waiting.indexOf(go);
+      if (i >= 0) waiting.splice(i, 1);
+      signal?.removeEventListener("abort", cancel);
+      reject(e);
+    };
+    const cancel = () => {
+      clearTimeout(timer);
+      leave(new SearchCancelled());
+    };
+    const timer = setTimeout(() => leave(new HttpError(503, "busy", "all bound searches are busy; try again shortly")), QUEUE_WAIT_MS);
+    signal?.addEventListener("abort", cancel, { once: true });
+    waiting.push(go);
+  });
+}
+
 export interface SearchOptions {
   onProgress?: (p: BoundProgress) => void;
   signal?: AbortSignal;
@@ -27,14 +64,19 @@ export interface SearchOptions {
 
 /**
  * Runs one base-bound query in its own worker thread so the event loop keeps serving requests.
- * The capacity check throws synchronously, before any response has started.
+ * When every worker is busy the query waits in a short queue (up to QUEUE_WAIT_MS), then answers 503.
  */
-export function runBaseBound(query: BaseBoundQuery, opts: SearchOptions = {}): Promise<BaseBoundResponse> {
-  if (liveWorkers >= MAX_WORKERS) throw new HttpError(503, "busy", "all bound searches are busy; try again shortly");
-  if (opts.signal?.aborted) return Promise.reject(new SearchCancelled());
-  const worker = new Worker(WORKER_URL, { workerData: query });
-  liveWorkers++;
-  worker.once("exit", () => liveWorkers--);
+export async function runBaseBound(query: BaseBoundQuery, opts: SearchOptions = {}): Promise<BaseBoundResponse> {
+  if (opts.signal?.aborted) throw new SearchCancelled();
+  await takeSlot(opts.signal);
+  let worker: Worker;
+  try {
+    worker = new Worker(WORKER_URL, { workerData: query });
+  } catch (e) {
+    releaseSlot();
+    throw e;
+  }
+  worker.once("exit", releaseSlot);
 
   return new Promise((resolve, reject) => {
     let settled = false;
