@@ -299,6 +299,18 @@ describe("plan workflow in a browser", () => {
     await screenshot(page, "plans-budget");
   }, 60_000);
 
+  it("a revision whose stored content was altered is flagged, and its export is not offered", async () => {
+    // Tampering behind the application's back: the stored hash no longer matches the content.
+    await testDb().pool.query(`UPDATE plan_revisions SET content = jsonb_set(content, '{notes}', '"edited in the database"') WHERE plan_id = $1 AND number = 1`, [planId]);
+    const page = await signedIn(researcher, `/plans/${planId}?revision=1`);
+    const status = page.getByTestId("verify-status");
+    await status.and(page.locator('[data-ok="false"]')).waitFor();
+    await expect(status.textContent()).resolves.toContain("Integrity failure");
+    await expect(page.getByRole("button", { name: "Download export (config patch JSON)" }).isDisabled()).resolves.toBe(true);
+    await expect(page.getByRole("link", { name: "Download export (config patch JSON)" }).count()).resolves.toBe(0);
+    await screenshot(page, "plans-integrity-failure");
+  }, 60_000);
+
   it("no page error or console error along the way", () => {
     expect(errors).toEqual([]);
   });
