@@ -106,8 +106,17 @@ describe("plan workflow in a browser", () => {
     await form.getByLabel("Model", { exact: true }).selectOption({ label: profile.name });
     await form.getByLabel("Purpose").fill("Long documents for the support assistant");
     await form.getByLabel("Approvals required").selectOption("2");
-    await form.getByLabel("Target context (tokens)").first().fill("32768");
     await form.getByLabel("Method", { exact: true }).selectOption("yarn");
+
+    // A target inside the trained window passes the form's own schema; the server's model check names the field.
+    const target = form.getByLabel("Target context (tokens)").first();
+    await target.fill("2048");
+    await form.getByRole("button", { name: "Save draft" }).click();
+    await expect.poll(() => target.getAttribute("aria-invalid")).toBe("true");
+    // The message is the one wired to that input (the live check above may say the same in its own box).
+    const errorId = (await target.getAttribute("aria-describedby"))?.split(" ").find((id) => id.endsWith("-error"));
+    expect(await page.locator(`[id="${errorId}"]`).textContent()).toBe("must exceed the trained context (4096) for method yarn");
+    await target.fill("32768");
 
     // The live check answers for 4096 → 32768 (s = 8) before anything is saved.
     const live = page.getByTestId("live-flags");
@@ -127,6 +136,7 @@ describe("plan workflow in a browser", () => {
     await form.getByRole("button", { name: "Add acceptance criterion" }).click();
     await page.getByRole("group", { name: "Criterion 1" }).getByLabel("Evaluation").fill("passkey retrieval");
 
+    await screenshot(page, "plans-new-form");
     await form.getByRole("button", { name: "Save draft" }).click();
     await page.waitForURL(/\/plans\/\d+$/);
     planId = Number(new URL(page.url()).pathname.split("/").pop());

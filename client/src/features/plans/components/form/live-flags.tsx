@@ -3,6 +3,7 @@ import { useQuery } from "@tanstack/react-query";
 import { useFormContext, useWatch } from "react-hook-form";
 import { lengthSchema, methodParamsSchema, bandsSchema, type AnalysisRequest } from "../../../../../../shared/schemas/analysis";
 import { Notice } from "../../../../components/notice";
+import { isApiError } from "../../../../lib/api-client";
 import { formatCount, sig3 } from "../../../../lib/format";
 import { plansQueries } from "../../api/queries";
 import type { RevisionForm } from "../../lib/form-values";
@@ -45,7 +46,13 @@ export function LiveFlags({ model }: { model: AnalysisModel | null }) {
       <h3 className="text-body font-semibold">Live check at the plan target</h3>
       {!model && <p className="text-note text-ink-soft">Pick a model to see the engine’s figures.</p>}
       {model && !current && <p className="text-note text-ink-soft">Waiting for a valid target and method…</p>}
-      {analysis.isError && <Notice tone="alert" title="The engine refused these values">{analysis.error.message}</Notice>}
+      {analysis.isError && (
+        <Notice tone="alert" title="The engine refused these values">
+          {isApiError(analysis.error) && analysis.error.fields
+            ? Object.entries(analysis.error.fields).map(([field, message]) => <p key={field}>{field.replace(/^methods\.0\./, "method ")}: {message}</p>)
+            : analysis.error.message}
+        </Notice>
+      )}
       {analysis.data && current && (
         <div className={`flex flex-col gap-2 ${analysis.isFetching || key !== JSON.stringify(settled) ? "opacity-60" : ""}`} data-testid="live-flags">
           <p className="text-body">
