@@ -1,4 +1,4 @@
-import { useFormContext, useWatch, type FieldValues } from "react-hook-form";
+import { get, useFormContext, useWatch, type FieldValues } from "react-hook-form";
 import { Field, TextInput } from "../../../../components/field";
 import { selectClass } from "../plan-filters";
 import { METHOD_TABLE, methodEntry, type ParamField } from "../../lib/method-table";
@@ -36,12 +36,23 @@ function ParamInput({ name, param }: { name: string; param: ParamField }) {
 /**
  * A method and its own parameters at `name` (an object `{ method, ...params }`). Changing the method
  * replaces the whole object, so parameters of the previous method never reach the strict schema.
+ * `collapsed` folds the parameters away (stages repeat the plan's method more often than not).
  */
-export function MethodFields({ name, label = "Method" }: { name: string; label?: string }) {
-  const { setValue, control } = useFormContext<FieldValues>();
+export function MethodFields({ name, label = "Method", collapsed = false }: { name: string; label?: string; collapsed?: boolean }) {
+  const { setValue, control, getValues, formState } = useFormContext<FieldValues>();
   const method = useWatch({ control, name: `${name}.method` }) as string;
+  // Folded parameters open by themselves when the method already sets one, or when one of them is marked wrong.
+  const hasParams = Object.entries((getValues(name) as object | undefined) ?? {}).some(([k, v]) => k !== "method" && v !== undefined);
+  const marked = get(formState.errors, name) !== undefined;
   const rootError = useFieldError(name);
   const entry = methodEntry(method);
+  const params = entry && (
+    <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-3" key={entry.id}>
+      {entry.params.map((p) => (
+        <ParamInput key={p.key} name={name} param={p} />
+      ))}
+    </div>
+  );
   return (
     <div className="flex flex-col gap-3">
       <Field label={label} hint={entry?.summary} error={rootError}>
@@ -62,13 +73,12 @@ export function MethodFields({ name, label = "Method" }: { name: string; label?:
           </select>
         )}
       </Field>
-      {entry && entry.params.length > 0 && (
-        <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-3" key={entry.id}>
-          {entry.params.map((p) => (
-            <ParamInput key={p.key} name={name} param={p} />
-          ))}
-        </div>
-      )}
+      {entry && entry.params.length > 0 && (collapsed ? (
+        <details className="rounded-md border border-rule px-3 py-2" open={hasParams || marked || undefined}>
+          <summary className="cursor-pointer text-note font-medium">{entry.short} parameters{hasParams ? "" : " (engine defaults)"}</summary>
+          <div className="pt-3">{params}</div>
+        </details>
+      ) : params)}
     </div>
   );
 }

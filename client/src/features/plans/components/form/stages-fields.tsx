@@ -38,7 +38,7 @@ export function StagesFields() {
             <NumberField name={`revision.stages.${i}.learningRate`} label="Learning rate" hint="For example 2e-5" />
             <TextFormField name={`revision.stages.${i}.dataMix`} label="Data mix" hint="Sources and shares, in words" />
           </div>
-          <MethodFields name={`revision.stages.${i}.method`} label="Stage method" />
+          <MethodFields name={`revision.stages.${i}.method`} label="Stage method" collapsed />
           <StageTokens index={i} />
           <div className="flex flex-wrap gap-2">
             <Button variant="secondary" size="sm" disabled={i === 0} onClick={() => move(i, i - 1)}>Move up</Button>
