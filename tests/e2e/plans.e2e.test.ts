@@ -82,7 +82,7 @@ async function approveFromQueue(who: TestUser, expectNotice: string) {
   await dialog.waitFor();
   // The dialog names the exact hash the decision signs: the one the plan page showed.
   expect(await dialog.getByTestId("hash-to-sign").textContent()).toBe(signedHash);
-  if (who === approverA) await screenshot(page, "plans-decision-dialog");
+  await screenshot(page, "plans-decision-dialog");
   await dialog.getByLabel("Comment (optional)").fill(`Checked by ${who.name}.`);
   await dialog.getByRole("button", { name: "Sign and approve" }).click();
   await page.getByText(expectNotice).waitFor();
@@ -176,9 +176,20 @@ describe("plan workflow in a browser", () => {
   it("two approvers approve from the review queue; the plan is approved", async () => {
     expect(planId).toBeGreaterThan(0);
     await approveFromQueue(approverA, "approved by you; it waits for more approvals");
-    const second = await approveFromQueue(approverB, "approved and signed; its export is ready");
+    // The second approver decides from the plan page itself.
+    const page = await signedIn(approverB, `/plans/${planId}`);
+    await page.getByRole("button", { name: "Decide on revision 1" }).click();
+    const dialog = page.getByRole("dialog");
+    expect(await dialog.getByTestId("hash-to-sign").textContent()).toBe(signedHash);
+    await expect(dialog.textContent()).resolves.toContain("Approvals so far: 1 of 2");
+    await dialog.getByLabel("Comment (optional)").fill(`Checked by ${approverB.name}.`);
+    await dialog.getByRole("button", { name: "Sign and approve" }).click();
+    await page.getByText("Revision 1 is approved and signed.").waitFor();
+    await expect(page.getByRole("list", { name: "Revisions" }).textContent()).resolves.toContain("Approved");
     // Decided revisions leave the queue.
-    await expect(second.getByRole("button", { name: `Decide on ${title} revision 1` }).count()).resolves.toBe(0);
+    await page.goto(`${server.url}/review`);
+    await page.getByRole("table", { name: "Review queue" }).waitFor();
+    await expect(page.getByRole("button", { name: `Decide on ${title} revision 1` }).count()).resolves.toBe(0);
   }, 60_000);
 
   it("the researcher sees Approved and downloads the export and the report", async () => {
