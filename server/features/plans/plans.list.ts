@@ -44,7 +44,8 @@ export async function listPlanPage(ex: Executor, q: Query) {
 /** Revisions waiting for a decision that this approver has not yet made (and did not author). */
 export async function reviewQueue(ex: Executor, approverId: number) {
   const res = await ex.execute<{ plan_id: number; title: string; number: number; author_name: string; submitted_at: Date; content_hash: string; required_approvals: number; approvals: number }>(sql`
-    SELECT p.id AS plan_id, p.title, r.number, a.name AS author_name, r.submitted_at, r.content_hash, p.required_approvals,
+    SELECT p.id AS plan_id, p.title, r.number, a.name AS author_name, r.submitted_at, r.content_hash,
+           GREATEST(p.required_approvals, COALESCE((SELECT (value #>> '{}')::int FROM settings WHERE key = 'minRequiredApprovals'), 1)) AS required_approvals,
            (SELECT count(*)::int FROM plan_decisions d WHERE d.revision_id = r.id AND d.round = r.round AND d.decision = 'approve') AS approvals
     FROM plan_revisions r JOIN plans p ON p.id = r.plan_id JOIN users a ON a.id = r.author_id
     WHERE r.state = 'in_review' AND r.author_id <> ${approverId}
