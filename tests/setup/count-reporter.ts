@@ -2,7 +2,7 @@ import type { Reporter, TestModule } from "vitest/node";
 
 /** Prints the plain closing line CI reads: `N passed, N failed[, N skipped]`. */
 export default class CountReporter implements Reporter {
-  onTestRunEnd(modules: ReadonlyArray<TestModule>, errors: ReadonlyArray<unknown>) {
+  onTestRunEnd(modules: ReadonlyArray<TestModule>, errors: ReadonlyArray<unknown>, reason?: string) {
     let passed = 0;
     let failed = 0;
     let skipped = 0;
@@ -17,6 +17,8 @@ export default class CountReporter implements Reporter {
       if (m.state() === "failed" && [...m.children.allTests()].length === 0) failed++;
     }
     failed += errors.length;
+    // A run that failed before any test (setup, database) must not read as green.
+    if (reason === "failed" && failed === 0) failed = 1;
     const tail = skipped ? `, ${skipped} skipped` : "";
     process.stdout.write(`\n${passed} passed, ${failed} failed${tail}\n`);
   }
