@@ -104,7 +104,7 @@ describe("budget sheet in a browser", () => {
     await edit.getByLabel("Price per accelerator-hour").fill("3.5");
     await edit.getByRole("button", { name: "Save changes" }).click();
     await page.getByText(`Saved ${name}.`).waitFor();
-    await expect(row.textContent()).resolves.toContain("3.50");
+    await expect.poll(() => row.textContent(), { timeout: 15_000 }).toContain("3.50");
 
     // Delete asks first, then the row goes.
     const spare = await catalogEntry("Spare", { memoryBytes: 16 * GIB });
@@ -128,8 +128,8 @@ describe("budget sheet in a browser", () => {
     // ceil(1e9 / (32 × 32768)) = 954 steps → 1 000 341 504 tokens; plus 200 × 64 × 16384 = 209 715 200.
     await expect(settledTokens(page)).resolves.toBe("1.21 billion");
     await page.getByText("954 whole steps").waitFor();
-    await expect(page.getByTestId("convention-formula").textContent()).resolves.toContain("Kaplan et al. 2020");
-    await expect(page.getByTestId("assumption-line").first().textContent()).resolves.toContain("utilisation 0.4 (assumed)");
+    await expect.poll(() => page.getByTestId("convention-formula").textContent(), { timeout: 15_000 }).toContain("Kaplan et al. 2020");
+    await expect.poll(() => page.getByTestId("assumption-line").first().textContent(), { timeout: 15_000 }).toContain("utilisation 0.4 (assumed)");
     await page.getByText("These are estimates").first().waitFor();
 
     const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: "Download the stage table (CSV)" }).click()]);
@@ -151,7 +151,7 @@ describe("budget sheet in a browser", () => {
     // click, not check(): the choice goes through the URL, so the radio turns on a moment after the click.
     await page.getByLabel(/^Full/).click();
     await page.waitForFunction((b) => document.querySelector('[data-testid="total-compute"]')?.textContent !== b, before);
-    await expect(page.getByTestId("convention-formula").textContent()).resolves.toContain("Chowdhery et al. 2022");
+    await expect.poll(() => page.getByTestId("convention-formula").textContent(), { timeout: 15_000 }).toContain("Chowdhery et al. 2022");
     expect(new URL(page.url()).searchParams.get("conv")).toBe("full");
 
     // A published recipe adds a stage labelled as the paper's own run, with its source.
@@ -255,7 +255,7 @@ describe("budget sheet in a browser", () => {
     await page.waitForURL(/\/plans\/\d+$/);
     const id = Number(new URL(page.url()).pathname.split("/").pop());
     await page.getByTestId("budget-panel").waitFor();
-    await expect(page.getByTestId("budget-panel").textContent()).resolves.toContain(acceleratorName);
+    await expect.poll(() => page.getByTestId("budget-panel").textContent(), { timeout: 15_000 }).toContain(acceleratorName);
     const rev = (await api.get(`/api/plans/${id}/revisions/1`).expect(200)).body;
     expect(rev.content.budget.inputs).toMatchObject({ accelerators: 8 });
     expect(rev.content.budget.cluster.name).toBe(acceleratorName);

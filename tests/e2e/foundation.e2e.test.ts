@@ -122,7 +122,7 @@ describe("foundation screens in a browser", () => {
     await page.goto(`${server.url}/users`);
     const refusal = page.getByTestId("not-allowed");
     await refusal.waitFor();
-    await expect(refusal.textContent()).resolves.toContain("not allowed for your roles");
+    await expect.poll(() => refusal.textContent(), { timeout: 15_000 }).toContain("not allowed for your roles");
     await expect(page.getByRole("table").count()).resolves.toBe(0);
     await screenshot(page, "not-allowed");
 
@@ -200,7 +200,7 @@ describe("foundation screens in a browser", () => {
 
     await page.getByRole("button", { name: "Deactivate Vera Viewer" }).click();
     await page.getByText("Vera Viewer is deactivated").waitFor();
-    await expect(row.textContent()).resolves.toContain("Deactivated");
+    await expect.poll(() => row.textContent(), { timeout: 15_000 }).toContain("Deactivated");
 
     // A deactivated account cannot sign in.
     const other = await browser.newContext();

@@ -121,7 +121,7 @@ describe("plan workflow in a browser", () => {
     // The live check answers for 4096 → 32768 (s = 8) before anything is saved.
     const live = page.getByTestId("live-flags");
     await live.waitFor();
-    await expect(live.textContent()).resolves.toContain("×8 the trained window");
+    await expect.poll(() => live.textContent(), { timeout: 15_000 }).toContain("×8 the trained window");
 
     await form.getByRole("button", { name: "Add stage" }).click();
     await form.getByRole("button", { name: "Add stage" }).click();
@@ -144,11 +144,11 @@ describe("plan workflow in a browser", () => {
     const view = page.getByTestId("revision-view");
     await view.getByRole("table", { name: "Stages" }).waitFor();
     await expect(view.getByRole("table", { name: "Stages" }).locator("tbody tr").count()).resolves.toBe(2);
-    await expect(page.getByText("Approvals needed").locator("xpath=following-sibling::dd[1]").textContent()).resolves.toContain("2");
+    await expect.poll(() => page.getByText("Approvals needed").locator("xpath=following-sibling::dd[1]").textContent(), { timeout: 15_000 }).toContain("2");
 
     await page.getByRole("button", { name: "Submit for review" }).click();
     await page.getByRole("group", { name: "Revision actions" }).getByRole("button", { name: "Withdraw to draft" }).waitFor();
-    await expect(page.getByRole("list", { name: "Revisions" }).textContent()).resolves.toContain("In review");
+    await expect.poll(() => page.getByRole("list", { name: "Revisions" }).textContent(), { timeout: 15_000 }).toContain("In review");
     signedHash = (await page.getByTestId("content-hash").textContent()) ?? "";
     expect(signedHash).toMatch(/^[0-9a-f]{64}$/);
     await page.getByTestId("verify-status").and(page.locator('[data-ok="true"]')).waitFor();
@@ -181,11 +181,11 @@ describe("plan workflow in a browser", () => {
     await page.getByRole("button", { name: "Decide on revision 1" }).click();
     const dialog = page.getByRole("dialog");
     expect(await dialog.getByTestId("hash-to-sign").textContent()).toBe(signedHash);
-    await expect(dialog.textContent()).resolves.toContain("Approvals so far: 1 of 2");
+    await expect.poll(() => dialog.textContent(), { timeout: 15_000 }).toContain("Approvals so far: 1 of 2");
     await dialog.getByLabel("Comment (optional)").fill(`Checked by ${approverB.name}.`);
     await dialog.getByRole("button", { name: "Sign and approve" }).click();
     await page.getByText("Revision 1 is approved and signed.").waitFor();
-    await expect(page.getByRole("list", { name: "Revisions" }).textContent()).resolves.toContain("Approved");
+    await expect.poll(() => page.getByRole("list", { name: "Revisions" }).textContent(), { timeout: 15_000 }).toContain("Approved");
     // Decided revisions leave the queue.
     await page.goto(`${server.url}/review`);
     await page.getByRole("table", { name: "Review queue" }).waitFor();
@@ -195,7 +195,7 @@ describe("plan workflow in a browser", () => {
   it("the researcher sees Approved and downloads the export and the report", async () => {
     const page = await signedIn(researcher, `/plans/${planId}`);
     await page.getByRole("heading", { level: 1, name: title }).waitFor();
-    await expect(page.getByRole("list", { name: "Revisions" }).textContent()).resolves.toContain("Approved");
+    await expect.poll(() => page.getByRole("list", { name: "Revisions" }).textContent(), { timeout: 15_000 }).toContain("Approved");
     await page.getByTestId("verify-status").and(page.locator('[data-ok="true"]')).waitFor();
     await expect(page.getByRole("list", { name: "Decisions" }).getByTestId("signed-hash").allTextContents()).resolves.toEqual([signedHash, signedHash]);
     await screenshot(page, "plans-plan-approved");
@@ -244,7 +244,7 @@ describe("plan workflow in a browser", () => {
     const stages = page.getByRole("region", { name: "Changed stages" });
     await stages.getByText("Stage 2: 1 field changed").waitFor();
     await expect(stages.getByRole("table", { name: "Stage 2 changes" }).textContent()).resolves.toMatch(/steps.*200.*300/);
-    await expect(page.getByRole("region", { name: "Changed fields" }).textContent()).resolves.toContain("notes");
+    await expect.poll(() => page.getByRole("region", { name: "Changed fields" }).textContent(), { timeout: 15_000 }).toContain("notes");
     await screenshot(page, "plans-diff");
   }, 60_000);
 
@@ -276,7 +276,7 @@ describe("plan workflow in a browser", () => {
     expect(subjects).toContain(`Review requested: "${title}" rev. 1`);
     expect(subjects).toContain(`Approved: "${title}" rev. 1`);
     await received.getByRole("button", { name: new RegExp(`^Approved: "${title}"`) }).click();
-    await expect(page.getByRole("article", { name: "Message" }).textContent()).resolves.toContain(`/plans/${planId}`);
+    await expect.poll(() => page.getByRole("article", { name: "Message" }).textContent(), { timeout: 15_000 }).toContain(`/plans/${planId}`);
     await screenshot(page, "plans-mail");
   }, 60_000);
 
@@ -300,7 +300,7 @@ describe("plan workflow in a browser", () => {
     await expect(page.getByTestId("new-token-secret").count()).resolves.toBe(0);
     await page.getByRole("button", { name: "Revoke cluster export" }).click();
     await page.getByText("cluster export is revoked").waitFor();
-    await expect(table.locator("tbody tr").first().textContent()).resolves.toContain("Revoked");
+    await expect.poll(() => table.locator("tbody tr").first().textContent(), { timeout: 15_000 }).toContain("Revoked");
     expect((await withToken()).status).toBe(401);
   }, 60_000);
 
@@ -316,7 +316,7 @@ describe("plan workflow in a browser", () => {
     // Tokens = steps × global batch × sequence length: 200 × 64 × 16 384 and 200 × 32 × 32 768, 419 430 400 in all.
     await expect(rows.nth(0).locator("td").first().textContent()).resolves.toBe("210 million");
     await expect(panel.locator("tfoot td").first().textContent()).resolves.toBe("419 million");
-    await expect(panel.textContent()).resolves.toContain("64 × custom accelerator");
+    await expect.poll(() => panel.textContent(), { timeout: 15_000 }).toContain("64 × custom accelerator");
     await screenshot(page, "plans-budget");
   }, 60_000);
 
@@ -326,7 +326,7 @@ describe("plan workflow in a browser", () => {
     const page = await signedIn(researcher, `/plans/${planId}?revision=1`);
     const status = page.getByTestId("verify-status");
     await status.and(page.locator('[data-ok="false"]')).waitFor();
-    await expect(status.textContent()).resolves.toContain("Integrity failure");
+    await expect.poll(() => status.textContent(), { timeout: 15_000 }).toContain("Integrity failure");
     await expect(page.getByRole("button", { name: "Download export (config patch JSON)" }).isDisabled()).resolves.toBe(true);
     await expect(page.getByRole("link", { name: "Download export (config patch JSON)" }).count()).resolves.toBe(0);
     await screenshot(page, "plans-integrity-failure");

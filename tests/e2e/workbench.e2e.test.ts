@@ -82,8 +82,8 @@ describe("workbench in a browser", () => {
     await expect(items.count()).resolves.toBe(preview.warnings.length);
     for (const w of preview.warnings) {
       const item = warningsBox.locator(`li[data-code="${w.code}"]`).first();
-      await expect(item.textContent()).resolves.toContain(w.message);
-      await expect(item.textContent()).resolves.toContain(w.fix);
+      await expect.poll(() => item.textContent(), { timeout: 15_000 }).toContain(w.message);
+      await expect.poll(() => item.textContent(), { timeout: 15_000 }).toContain(w.fix);
     }
     // The fixture carries each mistake of the domain notes' import list that applies to a yarn block.
     const codes = preview.warnings.map((w: { code: string }) => w.code);
@@ -91,7 +91,7 @@ describe("workbench in a browser", () => {
       expect(codes).toContain(code);
     }
     // d = head_dim 256 × partial_rotary_factor 0.5 = 128, shown before saving.
-    await expect(page.getByTestId("rotary-summary").textContent()).resolves.toContain("d = 128");
+    await expect.poll(() => page.getByTestId("rotary-summary").textContent(), { timeout: 15_000 }).toContain("d = 128");
     await screenshot(page, "workbench-import-preview");
 
     const name = `Troubled ${Date.now().toString(36)}`;
@@ -156,8 +156,8 @@ describe("workbench in a browser", () => {
     const spectrumPanel = page.getByRole("heading", { name: "Wavelength per pair" }).locator("xpath=ancestor::section[1]");
     await spectrumPanel.getByText("How is this computed?").click();
     const explained = spectrumPanel.locator("details[open]");
-    await expect(explained.textContent()).resolves.toContain("RoFormer, Su et al. 2021");
-    await expect(explained.textContent()).resolves.toContain("confirmed only by long-context evaluations of the tuned model");
+    await expect.poll(() => explained.textContent(), { timeout: 15_000 }).toContain("RoFormer, Su et al. 2021");
+    await expect.poll(() => explained.textContent(), { timeout: 15_000 }).toContain("confirmed only by long-context evaluations of the tuned model");
     await screenshot(page, "workbench-charts");
 
     // The table: all 64 pairs, then only flagged ones; the CSV holds exactly the rows and columns shown.
@@ -224,7 +224,7 @@ describe("profiles and bounds in a browser", () => {
     await page.getByRole("button", { name: "Yes, delete it" }).click();
     expect((await refused).status()).toBe(409);
     const notice = page.getByRole("alert").filter({ hasText: "still in use" });
-    await expect(notice.textContent()).resolves.toContain(`#${plan.id}`);
+    await expect.poll(() => notice.textContent(), { timeout: 15_000 }).toContain(`#${plan.id}`);
     expect(new URL(page.url()).pathname).toBe(`/models/${profile.id}`);
     await screenshot(page, "workbench-profile-in-use");
     await page.getByRole("button", { name: "Sign out" }).click();
