@@ -9,8 +9,8 @@ import { scanSupportedLength } from "./base-bound";
 import { decayCurve, decayPositions } from "./decay";
 
 export const ENGINE_VERSION = "rw-engine/1.0.0";
-/** Keeps the in-request scan to a few milliseconds even for huge bases or targets (an evaluation costs about 0.5 µs at d = 256). */
-export const ANALYSIS_SCAN_EVALUATIONS = 8_000;
+/** Keeps the in-request scan near 4 ms even for huge bases or targets (an evaluation costs about 1 µs at d = 256); POST /api/bounds/base gives the full answer. */
+export const ANALYSIS_SCAN_EVALUATIONS = 4_000;
 export { METHODS, runMethod };
 export type { MethodContext, MethodFn, MethodOutput, MethodTable } from "./types";
 
