@@ -113,6 +113,18 @@ describe("budget inside a plan revision", () => {
     expect(report.text).toContain("Budget");
   });
 
+  it("budget: null removes the sheet from a draft", async () => {
+    const infra = await agentAs(["infra"]);
+    const acc = await makeAccelerator(infra);
+    const researcher = await agentAs(["researcher"]);
+    const plan = await createPlan(researcher, (await createProfile(researcher)).id);
+    const base = `/api/plans/${plan.id}/revisions/1`;
+    await put(researcher, base, { version: 1, budget: { cluster: { acceleratorId: acc.id }, accelerators: 8 } }).expect(200);
+    expect((await researcher.get(base)).body.content.budget).toBeDefined();
+    await put(researcher, base, { version: 2, budget: null }).expect(200);
+    expect((await researcher.get(base)).body.content.budget).toBeUndefined();
+  });
+
   it("a bad budget sheet names the plan's field", async () => {
     const researcher = await agentAs(["researcher"]);
     const model = await createProfile(researcher);
