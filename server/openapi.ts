@@ -34,6 +34,7 @@ export const ROUTES: Route[] = [
   { method: "post", path: "/api/plans", summary: "Create a plan with revision 1 as a draft", tag: "plans", body: s.createPlanRequestSchema, status: 201 },
   { method: "get", path: "/api/plans/settings", summary: "Lab-wide plan settings", tag: "plans" },
   { method: "put", path: "/api/plans/settings", summary: "Set the lab-wide minimum of approvals (admin)", tag: "plans", body: s.planSettingsSchema },
+  { method: "get", path: "/api/plans/owners", summary: "People who own plans (for filters)", tag: "plans" },
   { method: "get", path: "/api/plans/review-queue", summary: "Revisions awaiting my decision (approver)", tag: "plans" },
   { method: "get", path: "/api/plans/{id}", summary: "A plan with its revisions and decisions", tag: "plans" },
   { method: "get", path: "/api/plans/{id}/approved/export", summary: "Configuration patch of the latest approved revision (bearer token accepted)", tag: "export" },

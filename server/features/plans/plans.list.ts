@@ -53,3 +53,10 @@ export async function reviewQueue(ex: Executor, approverId: number) {
     ORDER BY r.submitted_at ASC`);
   return res.rows;
 }
+
+/** People who own at least one plan, for the list's owner filter (readable by everyone signed in). */
+export async function planOwners(ex: Executor) {
+  const res = await ex.execute<{ id: number; name: string }>(sql`
+    SELECT DISTINCT u.id, u.name FROM plans p JOIN users u ON u.id = p.owner_id ORDER BY u.name`);
+  return res.rows;
+}

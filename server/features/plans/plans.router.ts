@@ -12,7 +12,7 @@ import { exportRevision, verifyRevision } from "./export.service";
 import { diffContents } from "./diff";
 import { renderReport } from "./report";
 import { budgetSection } from "./report-budget";
-import { reviewQueue } from "./plans.list";
+import { planOwners, reviewQueue } from "./plans.list";
 import { minRequiredApprovals } from "./plans.repo";
 import type { RevisionContent } from "./revision-content";
 import "./plans.usage";
@@ -41,6 +41,10 @@ export function plansRouter(deps: AppDeps) {
   r.put("/settings", requireRole("admin"), async (req, res) => {
     const { minRequiredApprovals: min } = parseBody(planSettingsSchema, req);
     res.json(await plans.updatePlanSettings(deps, currentUser(res), min));
+  });
+
+  r.get("/owners", async (_req, res) => {
+    res.json({ owners: await planOwners(deps.db) });
   });
 
   r.get("/review-queue", requireRole("approver"), async (_req, res) => {

@@ -150,3 +150,15 @@ describe("profiles in use", () => {
     await researcher.get(`/api/models/${model.id}`).expect(200);
   });
 });
+
+describe("plan owners for the list filter", () => {
+  it("lists each owner once, for every signed-in role", async () => {
+    const researcher = await agentAs(["researcher"]);
+    const model = await createProfile(researcher);
+    await createPlan(researcher, model.id);
+    await createPlan(researcher, model.id);
+    const viewer = await agentAs(["viewer"]);
+    const r = await viewer.get("/api/plans/owners").expect(200);
+    expect(r.body.owners.filter((o: { id: number }) => o.id === researcher.user!.id)).toEqual([{ id: researcher.user!.id, name: researcher.user!.name }]);
+  });
+});
