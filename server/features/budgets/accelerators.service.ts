@@ -6,10 +6,10 @@ import { Conflict, NotFound } from "../../http/errors";
 import { recordAudit } from "../audit/audit.repo";
 import type { SessionUser } from "../../../shared/schemas";
 import type { AcceleratorInput, AcceleratorUpdate } from "../../../shared/schemas/budget";
+import { isUniqueViolation } from "../../db/errors";
 
 type Row = typeof accelerators.$inferSelect;
 const view = (r: Row) => ({ id: r.id, name: r.name, memoryBytes: r.memoryBytes, peakFlops: r.peakFlops, pricePerHour: r.pricePerHour, notes: r.notes });
-const isUnique = (e: unknown) => (e as { cause?: { code?: string } })?.cause?.code === "23505";
 const taken = () => new Conflict("an accelerator with this name exists", { name: "already taken" });
 
 export const listAccelerators = async (deps: AppDeps) => (await deps.db.select().from(accelerators).orderBy(asc(accelerators.name))).map(view);
@@ -27,7 +27,7 @@ export async function createAccelerator(deps: AppDeps, actor: SessionUser, input
       return view(row);
     });
   } catch (e) {
-    if (isUnique(e)) throw taken();
+    if (isUniqueViolation(e)) throw taken();
     throw e;
   }
 }
@@ -42,7 +42,7 @@ export async function updateAccelerator(deps: AppDeps, actor: SessionUser, id: n
       return view(row);
     });
   } catch (e) {
-    if (isUnique(e)) throw taken();
+    if (isUniqueViolation(e)) throw taken();
     throw e;
   }
 }

@@ -8,6 +8,7 @@ import {
 } from "../../../shared/schemas";
 import { ConfigImportError, parseModelConfig } from "./config-import";
 import * as repo from "./models.repo";
+import { isUniqueViolation } from "../../db/errors";
 
 export function toModelProfile(row: repo.ModelRow): ModelProfile {
   const { sourceConfig: _omit, ...rest } = row;
@@ -23,7 +24,6 @@ export function toModelProfile(row: repo.ModelRow): ModelProfile {
   };
 }
 
-const isUnique = (e: unknown) => (e as { cause?: { code?: string } })?.cause?.code === "23505";
 const nameTaken = () => new Conflict("a profile with this name already exists", { name: "already taken" });
 
 export const listModels = async (deps: AppDeps) => (await repo.listModelRows(deps.db)).map(toModelProfile);
@@ -65,7 +65,7 @@ export async function createModel(
       return toModelProfile(row);
     });
   } catch (e) {
-    if (isUnique(e)) throw nameTaken();
+    if (isUniqueViolation(e)) throw nameTaken();
     throw e;
   }
 }
@@ -79,7 +79,7 @@ export async function updateModel(deps: AppDeps, actor: SessionUser, id: number,
       return toModelProfile(row);
     });
   } catch (e) {
-    if (isUnique(e)) throw nameTaken();
+    if (isUniqueViolation(e)) throw nameTaken();
     throw e;
   }
 }

@@ -4,6 +4,7 @@ import { Conflict, Invalid, NotFound } from "../../http/errors";
 import { recordAudit } from "../audit/audit.repo";
 import * as repo from "./users.repo";
 import type { CreateUserRequest, Role, SessionUser, UpdateUserRequest, User } from "../../../shared/schemas";
+import { isUniqueViolation } from "../../db/errors";
 
 export function toUser(row: repo.UserRow): User {
   return {
@@ -23,8 +24,6 @@ export const toSessionUser = (row: repo.UserRow): SessionUser => ({
   roles: row.roles as Role[],
 });
 
-const isUniqueViolation = (e: unknown) =>
-  (e as { cause?: { code?: string } })?.cause?.code === "23505" || (e as { code?: string })?.code === "23505";
 
 export async function listUsers(deps: AppDeps) {
   return (await repo.listUsers(deps.db)).map(toUser);
