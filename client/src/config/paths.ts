@@ -88,6 +88,7 @@ export const apiPaths = {
   plans: (query?: QueryValues) => withQuery("/plans", query),
   plan: (id: number) => api(`/plans/${id}`),
   planSettings: () => api("/plans/settings"),
+  planOwners: () => api("/plans/owners"),
   reviewQueue: () => api("/plans/review-queue"),
   planRevisions: (id: number) => api(`/plans/${id}/revisions`),
   revision: (id: number, n: number) => api(rev(id, n)),
