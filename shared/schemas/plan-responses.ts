@@ -190,3 +190,7 @@ export const reviewQueueItemSchema = z.object({
 });
 export type ReviewQueueItem = z.infer<typeof reviewQueueItemSchema>;
 export const reviewQueueResponseSchema = z.object({ items: z.array(reviewQueueItemSchema) });
+
+/** GET /api/plans/owners: everyone who owns at least one plan, by name (plans.list.ts planOwners). */
+export const planOwnersResponseSchema = z.object({ owners: z.array(ref) });
+export type PlanOwner = z.infer<typeof ref>;

@@ -2,7 +2,7 @@ import fs from "node:fs";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, BrowserContext, Page } from "playwright-core";
-import { launchBrowser, screenshot } from "../setup/browser";
+import { launchBrowser, screenshot, signIn } from "../setup/browser";
 import { makeTestApp } from "../setup/app";
 import { createPlan, createProfile, twoStageRevision } from "../setup/plans";
 import type { Agent } from "../setup/app";
@@ -23,6 +23,7 @@ let researcher: TestUser;
 let approverA: TestUser;
 let approverB: TestUser;
 let admin: TestUser;
+let otherOwner: TestUser;
 let profile: { id: number; name: string };
 let api: Agent;
 const title = `Gannet to 32k ${Date.now().toString(36)}`;
@@ -33,7 +34,7 @@ const errors: string[] = [];
 
 beforeAll(async () => {
   if (!fs.existsSync(builtClient)) throw new Error("dist/client is missing: run `npm run build` before the browser tests");
-  [server, browser, sink, researcher, approverA, approverB, admin] = await Promise.all([
+  [server, browser, sink, researcher, approverA, approverB, admin, otherOwner] = await Promise.all([
     startTestServer(),
     launchBrowser(),
     startMailSink({ db: testDb().db, port: 0 }),
@@ -41,10 +42,13 @@ beforeAll(async () => {
     createTestUser(["approver"], "Abel Approver"),
     createTestUser(["approver"], "Bea Approver"),
     createTestUser(["admin"], "Ada Admin"),
+    createTestUser(["researcher"], `Otto Owner ${Date.now().toString(36)}`),
   ]);
   // Sample profile (tests/fixtures/profiles.ts): 128-dim heads, base 10 000, trained on 4096 tokens.
   api = await makeTestApp().agentAs(["researcher"]);
   profile = await createProfile(api);
+  // Someone else's plan, never on the filtered page, so the owner filter must learn of Otto from the server.
+  await createPlan(await makeTestApp().signIn(otherOwner), profile.id, { title: `Osprey ${Date.now().toString(36)}` });
 });
 
 afterAll(async () => {
@@ -65,10 +69,7 @@ async function signedIn(who: TestUser, to: string): Promise<Page> {
     if (m.type() === "error" && !m.text().startsWith("Failed to load resource")) errors.push(`${who.name}: ${m.text()}`);
   });
   await page.goto(`${server.url}${to}`);
-  await page.getByLabel("E-mail").fill(who.email);
-  await page.getByLabel("Password").fill(who.password);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL((u) => !u.pathname.startsWith("/sign-in"));
+  await signIn(page, who);
   return page;
 }
 
@@ -166,6 +167,15 @@ describe("plan workflow in a browser", () => {
     await page.waitForURL((u) => u.searchParams.get("state") === "approved");
     await plans.getByText("No plans match these filters.").waitFor();
     await page.getByLabel("State").selectOption("in_review");
+    await plans.getByRole("link", { name: title }).waitFor();
+    // The owner filter lists every plan owner (GET /api/plans/owners), not only those on this page.
+    const owner = page.getByLabel("Owner", { exact: true });
+    await expect.poll(() => owner.locator("option").allTextContents(), { timeout: 15_000 }).toContain(otherOwner.name);
+    await owner.selectOption({ label: otherOwner.name });
+    await page.waitForURL((u) => u.searchParams.get("ownerId") === String(otherOwner.id));
+    await plans.getByText("No plans match these filters.").waitFor();
+    await owner.selectOption({ label: `${researcher.name} (you)` });
+    await page.waitForURL((u) => u.searchParams.get("ownerId") === String(researcher.id));
     await plans.getByRole("link", { name: title }).waitFor();
     await plans.getByRole("button", { name: "Plan" }).click();
     await page.waitForURL((u) => u.searchParams.get("sort") === "title" && u.searchParams.get("dir") === "asc");

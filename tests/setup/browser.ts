@@ -27,3 +27,11 @@ export async function screenshot(page: Page, name: string): Promise<string> {
   await page.screenshot({ path: file, fullPage: true, animations: "disabled" });
   return file;
 }
+
+/** Fills the sign-in form the page is showing and waits until the app has moved past it. */
+export async function signIn(page: Page, who: { email: string; password: string }): Promise<void> {
+  await page.getByLabel("E-mail").fill(who.email);
+  await page.getByLabel("Password").fill(who.password);
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await page.waitForURL((u) => !u.pathname.startsWith("/sign-in"));
+}

@@ -19,10 +19,11 @@ export function PlansRoute() {
   const list = useQuery(plansQueries.list(params));
   const models = useQuery(plansQueries.modelChoices());
 
-  // Owners to filter by: yourself, whoever owns a plan on this page, and the one already chosen.
-  const owners = new Map<number, string>([[user.id, `${user.name} (you)`]]);
-  for (const p of list.data?.plans ?? []) if (!owners.has(p.owner.id)) owners.set(p.owner.id, p.owner.name);
-  if (params.ownerId && !owners.has(params.ownerId)) owners.set(params.ownerId, `Owner #${params.ownerId}`);
+  const ownerList = useQuery(plansQueries.owners());
+
+  // Everyone who owns a plan, you marked; an owner chosen in the URL but not (yet) listed stays selectable.
+  const owners = (ownerList.data ?? []).map((o) => (o.id === user.id ? { ...o, name: `${o.name} (you)` } : o));
+  if (params.ownerId && !owners.some((o) => o.id === params.ownerId)) owners.push({ id: params.ownerId, name: `Owner #${params.ownerId}` });
 
   return (
     <Page title="Plans" lead="Every staged extension plan, with the state of its latest revision. Signed revisions export the rope_scaling block.">
@@ -38,7 +39,7 @@ export function PlansRoute() {
           params={params}
           onChange={update}
           models={(models.data ?? []).map((m) => ({ id: m.id, name: m.name }))}
-          owners={[...owners].map(([id, name]) => ({ id, name }))}
+          owners={owners}
         />
       </Panel>
       {list.isPending && <Loading label="Loading plans…" />}

@@ -13,7 +13,8 @@ export function useCreatePlan() {
     mutationFn: createPlan,
     onSuccess: (plan) => {
       queryClient.setQueryData(plansKeys.detail(plan.id), plan);
-      return queryClient.invalidateQueries({ queryKey: plansKeys.lists() });
+      // A first plan makes its author an owner the list can filter by.
+      return Promise.all([queryClient.invalidateQueries({ queryKey: plansKeys.lists() }), queryClient.invalidateQueries({ queryKey: plansKeys.owners() })]);
     },
   });
 }

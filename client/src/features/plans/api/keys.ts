@@ -12,6 +12,7 @@ export const plansKeys = {
   verify: (id: number, n: number) => [...plansKeys.detail(id), "verify", n] as const,
   diff: (id: number, a: number, b: number) => [...plansKeys.detail(id), "diff", a, b] as const,
   settings: () => [...plansKeys.all, "settings"] as const,
+  owners: () => [...plansKeys.all, "owners"] as const,
   modelChoices: () => [...plansKeys.all, "model-choices"] as const,
   analysis: (request: AnalysisRequest) => [...plansKeys.all, "analysis", request] as const,
 };

@@ -2,6 +2,7 @@ import { diffQuery } from "./diff-revisions";
 import { planQuery } from "./get-plan";
 import { revisionQuery } from "./get-revision";
 import { listPlansQuery } from "./list-plans";
+import { planOwnersQuery } from "./list-owners";
 import { modelChoicesQuery } from "./model-choices";
 import { planSettingsQuery } from "./plan-settings";
 import { analysisQuery } from "./run-analysis";
@@ -15,6 +16,7 @@ export const plansQueries = {
   verify: verifyQuery,
   diff: diffQuery,
   settings: planSettingsQuery,
+  owners: planOwnersQuery,
   modelChoices: modelChoicesQuery,
   analysis: analysisQuery,
 };

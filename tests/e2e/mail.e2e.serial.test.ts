@@ -1,0 +1,86 @@
+// Serial: it delivers every due row in the shared outbox, which would race other files' mail tests.
+import crypto from "node:crypto";
+import fs from "node:fs";
+import path from "node:path";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Browser, Page } from "playwright-core";
+import { launchBrowser, screenshot, signIn } from "../setup/browser";
+import { testConfig } from "../setup/app";
+import { testDb } from "../setup/db";
+import { startTestServer } from "../setup/server";
+import { createTestUser, type TestUser } from "../setup/users";
+import { deliverDueMail, enqueueMail } from "../../server/mail/outbox";
+import { startMailSink, type MailSink } from "../../server/mail/sink";
+
+const builtClient = path.resolve(import.meta.dirname, "../../dist/client/index.html");
+const { pool, db } = testDb();
+const tag = crypto.randomBytes(5).toString("hex");
+const subject = `Sink check ${tag}`;
+const to = `${tag}@example.test`;
+
+let sink: MailSink;
+let server: Awaited<ReturnType<typeof startTestServer>>;
+let browser: Browser;
+let admin: TestUser;
+const errors: string[] = [];
+
+beforeAll(async () => {
+  if (!fs.existsSync(builtClient)) throw new Error("dist/client is missing: run `npm run build` before the browser tests");
+  sink = await startMailSink({ db, port: 0 });
+  const overrides = { smtpUrl: `smtp://127.0.0.1:${sink.port}`, mailRetryBaseMs: 0 };
+  [server, browser, admin] = await Promise.all([startTestServer(overrides), launchBrowser(), createTestUser(["admin"], "Ada Admin")]);
+  // Other files leave pending rows; sent now, they cannot stand before this file's row in the button's batches.
+  await deliverDueMail({ db, config: testConfig(overrides) }, { limit: 100_000 });
+  await enqueueMail(db, { kind: `test.${tag}`, to: [to], subject, body: `Delivered by the Mail page's button (${tag}).` });
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await sink?.close();
+  await server?.close();
+});
+
+const outboxRow = async () => (await pool.query("SELECT status, attempts, sent_at FROM mail_outbox WHERE kind = $1", [`test.${tag}`])).rows;
+
+async function signedIn(who: TestUser, to: string): Promise<Page> {
+  const page = await (await browser.newContext({ viewport: { width: 1280, height: 900 } })).newPage();
+  page.on("pageerror", (e) => errors.push(e.message));
+  page.on("console", (m) => {
+    if (m.type() === "error") errors.push(m.text());
+  });
+  await page.goto(`${server.url}${to}`);
+  await signIn(page, who);
+  return page;
+}
+
+describe("Mail page in a browser", () => {
+  it("an admin delivers due mail now; the message reaches the sink and its outbox row is sent", async () => {
+    expect(await outboxRow()).toMatchObject([{ status: "pending", attempts: 0, sent_at: null }]);
+    const page = await signedIn(admin, "/mail");
+    await page.getByRole("heading", { level: 1, name: "Mail" }).waitFor();
+    const outbox = page.getByRole("table", { name: "Outbox" });
+    await page.getByLabel("Filter outbox").fill(tag);
+    await expect.poll(() => outbox.locator("tbody tr").allTextContents(), { timeout: 15_000 }).toEqual([expect.stringContaining("pending")]);
+    await page.getByLabel("Search received mail").fill(tag);
+    const received = page.getByRole("list", { name: "Received messages" });
+    await page.getByText("No messages received.").waitFor();
+
+    await page.getByRole("button", { name: "Deliver due mail now" }).click();
+    // After the drain only this row (and any retry that fell due meanwhile) was due; none may fail.
+    await page.getByText(/^Sent [1-9]\d*\.$/).waitFor();
+
+    await received.getByRole("button", { name: new RegExp(subject) }).waitFor();
+    await expect(received.locator("li button span:first-child").allTextContents()).resolves.toEqual([subject]);
+    await expect.poll(() => page.getByRole("article", { name: "Message" }).textContent(), { timeout: 15_000 }).toContain(to);
+    await expect.poll(() => outbox.locator("tbody tr").allTextContents(), { timeout: 15_000 }).toEqual([expect.stringContaining("sent")]);
+
+    const [row] = await outboxRow();
+    expect(row).toMatchObject({ status: "sent", attempts: 1 });
+    expect(row.sent_at).toBeInstanceOf(Date);
+    await screenshot(page, "mail-delivered");
+  }, 60_000);
+
+  it("no page error or console error along the way", () => {
+    expect(errors).toEqual([]);
+  });
+});
