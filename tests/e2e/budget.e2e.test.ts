@@ -3,7 +3,7 @@ import path from "node:path";
 import Papa from "papaparse";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, BrowserContext, Page } from "playwright-core";
-import { launchBrowser, screenshot, SCREENSHOT_DIR } from "../setup/browser";
+import { launchBrowser, screenshot, SCREENSHOT_DIR, requireBuiltClient, signIn } from "../setup/browser";
 import { makeTestApp, type Agent } from "../setup/app";
 import { createPlan, createProfile, post, put } from "../setup/plans";
 import { startTestServer } from "../setup/server";
@@ -14,7 +14,6 @@ import { buildRequest } from "../../client/src/features/budgets/lib/sheet-draft"
 import { modelFromSearch, sheetFromSearch, toSearch } from "../../client/src/features/budgets/lib/url-state";
 
 // The browser works the real built client served by the real app; setup goes through the API on the same database.
-const builtClient = path.resolve(import.meta.dirname, "../../dist/client/index.html");
 const GIB = 2 ** 30;
 
 let server: Awaited<ReturnType<typeof startTestServer>>;
@@ -24,7 +23,7 @@ let api: Agent;
 let profile: { id: number; name: string };
 
 beforeAll(async () => {
-  if (!fs.existsSync(builtClient)) throw new Error("dist/client is missing: run `npm run build` before the browser tests");
+  requireBuiltClient();
   // One person who both keeps the catalog and authors the plan: only a draft's author may edit it.
   [server, browser, planner] = await Promise.all([startTestServer(), launchBrowser(), createTestUser(["researcher", "infra"], "Ines Infra-Researcher")]);
   api = await makeTestApp().signIn(planner);
@@ -45,10 +44,7 @@ async function signedInPage(context: BrowserContext, to: string, who: TestUser):
     if (m.type() === "error" && !m.text().startsWith("Failed to load resource")) errors.push(m.text());
   });
   await page.goto(`${server.url}${to}`);
-  await page.getByLabel("E-mail").fill(who.email);
-  await page.getByLabel("Password").fill(who.password);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL((u) => !u.pathname.startsWith("/sign-in"));
+  await signIn(page, who);
   return { page, errors };
 }
 

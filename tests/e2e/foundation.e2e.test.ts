@@ -1,20 +1,16 @@
-import fs from "node:fs";
-import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
-import { launchBrowser, screenshot } from "../setup/browser";
+import { launchBrowser, screenshot, requireBuiltClient, submitSignIn } from "../setup/browser";
 import { startTestServer } from "../setup/server";
 import { createTestUser, type TestUser } from "../setup/users";
 
-// The browser clicks through the real built client served by the real app.
-const builtClient = path.resolve(import.meta.dirname, "../../dist/client/index.html");
 
 let server: Awaited<ReturnType<typeof startTestServer>>;
 let browser: Browser;
 let admin: TestUser;
 
 beforeAll(async () => {
-  if (!fs.existsSync(builtClient)) throw new Error("dist/client is missing: run `npm run build` before the browser tests");
+  requireBuiltClient();
   [server, browser, admin] = await Promise.all([startTestServer(), launchBrowser(), createTestUser(["admin"], "Ada Admin")]);
 });
 
@@ -23,11 +19,6 @@ afterAll(async () => {
   await server?.close();
 });
 
-async function signIn(page: Page, who: { email: string; password: string }) {
-  await page.getByLabel("E-mail").fill(who.email);
-  await page.getByLabel("Password").fill(who.password);
-  await page.getByRole("button", { name: "Sign in" }).click();
-}
 
 const navLabels = (page: Page) => page.getByRole("navigation", { name: "Main" }).getByRole("link").allTextContents();
 
@@ -54,11 +45,11 @@ describe("foundation screens in a browser", () => {
     await screenshot(page, "sign-in");
 
     // A wrong password is refused with a message and no navigation.
-    await signIn(page, { email: admin.email, password: "not-the-password" });
+    await submitSignIn(page, { email: admin.email, password: "not-the-password" });
     await page.getByText("do not match an active account").waitFor();
     expect(new URL(page.url()).pathname).toBe("/sign-in");
 
-    await signIn(page, admin);
+    await submitSignIn(page, admin);
     await page.waitForURL(`${server.url}/users`);
     await page.getByRole("heading", { level: 1, name: "Users" }).waitFor();
     const adminNav = await navLabels(page);
@@ -105,7 +96,7 @@ describe("foundation screens in a browser", () => {
     await page.waitForURL(`${server.url}/sign-in`);
 
     // The new user: only what researcher + approver allow, and a plain refusal at /users.
-    await signIn(page, { email, password });
+    await submitSignIn(page, { email, password });
     await page.waitForURL(`${server.url}/`);
     await page.getByRole("heading", { name: "Good to see you, Rosa Researcher" }).waitFor();
     // Researcher + approver: the review queue and the audit trail, never the admin screens.
@@ -138,7 +129,7 @@ describe("foundation screens in a browser", () => {
     const context = await browser.newContext();
     const page = await context.newPage();
     await page.goto(`${server.url}/profile`);
-    await signIn(page, viewer);
+    await submitSignIn(page, viewer);
     await page.waitForURL(`${server.url}/profile`);
     const form = page.getByRole("form", { name: "Change password" });
     const newPassword = "a-brand-new-rope-77";
@@ -168,9 +159,9 @@ describe("foundation screens in a browser", () => {
     // The new password is the one that works now.
     await page.getByRole("button", { name: "Sign out" }).click();
     await page.waitForURL(`${server.url}/sign-in`);
-    await signIn(page, viewer);
+    await submitSignIn(page, viewer);
     await page.getByText("do not match an active account").waitFor();
-    await signIn(page, { email: viewer.email, password: newPassword });
+    await submitSignIn(page, { email: viewer.email, password: newPassword });
     await page.waitForURL(`${server.url}/`);
     await context.close();
   }, 60_000);
@@ -180,7 +171,7 @@ describe("foundation screens in a browser", () => {
     const adminContext = await browser.newContext({ viewport: { width: 1280, height: 860 } });
     const page = await adminContext.newPage();
     await page.goto(`${server.url}/users`);
-    await signIn(page, admin);
+    await submitSignIn(page, admin);
     await page.getByRole("heading", { level: 1, name: "Users" }).waitFor();
 
     const table = page.getByRole("table", { name: "Users" });
@@ -206,7 +197,7 @@ describe("foundation screens in a browser", () => {
     const other = await browser.newContext();
     const second = await other.newPage();
     await second.goto(`${server.url}/sign-in`);
-    await signIn(second, target);
+    await submitSignIn(second, target);
     await second.getByText("do not match an active account").waitFor();
     await other.close();
 

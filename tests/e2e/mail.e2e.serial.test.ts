@@ -1,10 +1,8 @@
 // Serial: it delivers every due row in the shared outbox, which would race other files' mail tests.
 import crypto from "node:crypto";
-import fs from "node:fs";
-import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
-import { launchBrowser, screenshot, signIn } from "../setup/browser";
+import { launchBrowser, screenshot, signIn, requireBuiltClient } from "../setup/browser";
 import { testConfig } from "../setup/app";
 import { testDb } from "../setup/db";
 import { startTestServer } from "../setup/server";
@@ -12,7 +10,6 @@ import { createTestUser, type TestUser } from "../setup/users";
 import { deliverDueMail, enqueueMail } from "../../server/mail/outbox";
 import { startMailSink, type MailSink } from "../../server/mail/sink";
 
-const builtClient = path.resolve(import.meta.dirname, "../../dist/client/index.html");
 const { pool, db } = testDb();
 const tag = crypto.randomBytes(5).toString("hex");
 const subject = `Sink check ${tag}`;
@@ -25,7 +22,7 @@ let admin: TestUser;
 const errors: string[] = [];
 
 beforeAll(async () => {
-  if (!fs.existsSync(builtClient)) throw new Error("dist/client is missing: run `npm run build` before the browser tests");
+  requireBuiltClient();
   sink = await startMailSink({ db, port: 0 });
   const overrides = { smtpUrl: `smtp://127.0.0.1:${sink.port}`, mailRetryBaseMs: 0 };
   [server, browser, admin] = await Promise.all([startTestServer(overrides), launchBrowser(), createTestUser(["admin"], "Ada Admin")]);

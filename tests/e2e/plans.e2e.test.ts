@@ -1,8 +1,7 @@
 import fs from "node:fs";
-import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, BrowserContext, Page } from "playwright-core";
-import { launchBrowser, screenshot, signIn } from "../setup/browser";
+import { launchBrowser, screenshot, signIn, requireBuiltClient } from "../setup/browser";
 import { makeTestApp } from "../setup/app";
 import { createPlan, createProfile, twoStageRevision } from "../setup/plans";
 import type { Agent } from "../setup/app";
@@ -13,7 +12,6 @@ import { deliverDueMail } from "../../server/mail/outbox";
 import { startMailSink, type MailSink } from "../../server/mail/sink";
 
 // The browser clicks through the real built client served by the real app; only the model profile is made through the API.
-const builtClient = path.resolve(import.meta.dirname, "../../dist/client/index.html");
 const PLAN_MAIL = ["plan.review_requested", "plan.changes_requested", "plan.approved", "plan.ready"];
 
 let server: Awaited<ReturnType<typeof startTestServer>>;
@@ -33,7 +31,7 @@ const contexts: BrowserContext[] = [];
 const errors: string[] = [];
 
 beforeAll(async () => {
-  if (!fs.existsSync(builtClient)) throw new Error("dist/client is missing: run `npm run build` before the browser tests");
+  requireBuiltClient();
   [server, browser, sink, researcher, approverA, approverB, admin, otherOwner] = await Promise.all([
     startTestServer(),
     launchBrowser(),

@@ -3,7 +3,7 @@ import path from "node:path";
 import Papa from "papaparse";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
-import { launchBrowser, screenshot, SCREENSHOT_DIR } from "../setup/browser";
+import { launchBrowser, screenshot, SCREENSHOT_DIR, requireBuiltClient, signIn } from "../setup/browser";
 import { startTestServer } from "../setup/server";
 import { createTestUser, type TestUser } from "../setup/users";
 import { makeTestApp } from "../setup/app";
@@ -14,7 +14,6 @@ import { inputsToParams, parseInputs } from "../../client/src/features/workbench
 import { toRequest } from "../../client/src/features/workbench/state/to-request";
 import type { WorkbenchInputs } from "../../client/src/features/workbench/state/inputs";
 
-const builtClient = path.resolve(import.meta.dirname, "../../dist/client/index.html");
 const fixturePath = path.resolve(import.meta.dirname, "../fixtures/configs/every-warning.json");
 
 let server: Awaited<ReturnType<typeof startTestServer>>;
@@ -22,7 +21,7 @@ let browser: Browser;
 let researcher: TestUser;
 
 beforeAll(async () => {
-  if (!fs.existsSync(builtClient)) throw new Error("dist/client is missing: run `npm run build` before the browser tests");
+  requireBuiltClient();
   [server, browser, researcher] = await Promise.all([startTestServer(), launchBrowser(), createTestUser(["researcher"], "Wren Workbench")]);
 });
 
@@ -31,11 +30,6 @@ afterAll(async () => {
   await server?.close();
 });
 
-async function signIn(page: Page, who: { email: string; password: string }) {
-  await page.getByLabel("E-mail").fill(who.email);
-  await page.getByLabel("Password").fill(who.password);
-  await page.getByRole("button", { name: "Sign in" }).click();
-}
 
 /** The analysis the page asked for last, once it has answered with the given target. */
 const analysisFor = (page: Page, target: number) =>

@@ -28,10 +28,21 @@ export async function screenshot(page: Page, name: string): Promise<string> {
   return file;
 }
 
-/** Fills the sign-in form the page is showing and waits until the app has moved past it. */
-export async function signIn(page: Page, who: { email: string; password: string }): Promise<void> {
+/** Fills and sends the sign-in form the page is showing (for attempts that may be refused). */
+export async function submitSignIn(page: Page, who: { email: string; password: string }): Promise<void> {
   await page.getByLabel("E-mail").fill(who.email);
   await page.getByLabel("Password").fill(who.password);
   await page.getByRole("button", { name: "Sign in" }).click();
+}
+
+/** Signs in through the form the page is showing and waits until the app has moved past it. */
+export async function signIn(page: Page, who: { email: string; password: string }): Promise<void> {
+  await submitSignIn(page, who);
   await page.waitForURL((u) => !u.pathname.startsWith("/sign-in"));
+}
+
+const BUILT_CLIENT = path.join(root, "dist/client/index.html");
+/** Browser tests click through the built client; say so plainly when it is missing. */
+export function requireBuiltClient() {
+  if (!fs.existsSync(BUILT_CLIENT)) throw new Error("dist/client is missing: run `npm run build` before the browser tests");
 }
