@@ -44,6 +44,50 @@ export function TextInput({ className = "", ...rest }: ComponentProps<"input">) 
   );
 }
 
+const SELECT_CLASS =
+  "w-full rounded-md border border-rule-strong bg-white/70 px-3 py-2 text-body text-ink focus:border-seaglass focus:outline-2 focus:outline-seaglass/30 aria-[invalid=true]:border-signal";
+
+export function SelectInput({ className = "", ...rest }: ComponentProps<"select">) {
+  return <select className={`${SELECT_CLASS} ${className}`} {...rest} />;
+}
+
+type SelectFieldProps = ComponentProps<"select"> & { label: string; error?: string; hint?: string };
+
+/** A labelled select in the same frame as TextField; spread `register(name)` into it or control it. */
+export function SelectField({ label, error, hint, ...select }: SelectFieldProps) {
+  return (
+    <Field label={label} error={error} hint={hint}>
+      {({ id, describedBy, invalid }) => <SelectInput id={id} aria-describedby={describedBy} aria-invalid={invalid} {...select} />}
+    </Field>
+  );
+}
+
+type ChoiceFieldProps = {
+  label: string;
+  value: string;
+  onChange: (value: string) => void;
+  /** The first, empty choice: what it means ("Anyone", "Pick one…"). */
+  emptyLabel: string;
+  options: { value: string; label: string }[];
+  error?: string;
+  hint?: string;
+  className?: string;
+};
+
+/** A controlled select whose first option is the empty choice. */
+export function ChoiceField({ emptyLabel, options, onChange, ...rest }: ChoiceFieldProps) {
+  return (
+    <SelectField {...rest} onChange={(e) => onChange(e.target.value)}>
+      <option value="">{emptyLabel}</option>
+      {options.map((o) => (
+        <option key={o.value} value={o.value}>
+          {o.label}
+        </option>
+      ))}
+    </SelectField>
+  );
+}
+
 type TextFieldProps = ComponentProps<"input"> & { label: string; error?: string; hint?: string };
 
 /** A labelled text input with hint and error; spread react-hook-form's `register(name)` into it. */

@@ -1,12 +1,11 @@
 import { Link, useParams, useSearchParams } from "react-router-dom";
 import { useQuery } from "@tanstack/react-query";
-import { Field } from "../../components/field";
+import { SelectField } from "../../components/field";
 import { Page } from "../../components/page";
 import { Loading, Notice } from "../../components/notice";
 import { paths } from "../../config/paths";
 import { plansQueries } from "../../features/plans/api/queries";
 import { DiffView } from "../../features/plans/components/diff-view";
-import { selectClass } from "../../features/plans/components/plan-filters";
 
 export function PlanDiffRoute() {
   const id = Number(useParams().id);
@@ -35,13 +34,9 @@ export function PlanDiffRoute() {
       {plan.data && (
         <div className="grid max-w-md grid-cols-2 gap-3">
           {(["a", "b"] as const).map((key) => (
-            <Field key={key} label={key === "a" ? "From revision" : "To revision"}>
-              {({ id: inputId }) => (
-                <select id={inputId} className={selectClass} value={key === "a" ? a : b} onChange={(e) => pick(key, e.target.value)}>
-                  {numbers.map((n) => <option key={n} value={n}>Revision {n}</option>)}
-                </select>
-              )}
-            </Field>
+            <SelectField key={key} label={key === "a" ? "From revision" : "To revision"} value={key === "a" ? a : b} onChange={(e) => pick(key, e.target.value)}>
+              {numbers.map((n) => <option key={n} value={n}>Revision {n}</option>)}
+            </SelectField>
           ))}
         </div>
       )}

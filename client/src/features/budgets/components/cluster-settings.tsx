@@ -3,7 +3,8 @@ import type { Accelerator, BudgetEstimateResponse } from "../../../../../shared/
 import { formatBytes, formatMoney, sig3, TFLOPS } from "../../../lib/format";
 import { EXAMPLE_CLUSTER, type ClusterDraft, type Convention, type SettingsDraft } from "../lib/sheet-draft";
 import { Radio } from "./radio";
-import { SheetInput, SheetSelect } from "./sheet-input";
+import { SheetInput } from "./sheet-input";
+import { ChoiceField } from "../../../components/field";
 
 type Issues = Record<string, string>;
 type Props = {
@@ -37,11 +38,11 @@ export function ClusterSettings({ cluster, settings, accelerators, assumptions, 
           <Radio name={`${uid}-cluster`} checked={cluster.kind === "custom"} onChange={() => onCluster({ ...cluster, kind: "custom" })} label="Custom figures" />
         </div>
         {cluster.kind === "catalog" ? (
-          <SheetSelect
+          <ChoiceField className="max-w-xl"
             label="Catalog accelerator"
             value={cluster.acceleratorId}
             onChange={(acceleratorId) => onCluster({ ...cluster, acceleratorId })}
-            prompt="Pick one…"
+            emptyLabel="Pick one…"
             options={accelerators.map((a) => ({ value: String(a.id), label: a.name }))}
             error={issues["cluster.acceleratorId"]}
             hint={accelerators.length ? undefined : "The catalog is empty; an infra lead adds accelerators on the Accelerators page."}

@@ -3,7 +3,8 @@ import { formatCount } from "../../../lib/format";
 import type { ModelChoice } from "../api/get-model-choices";
 import { emptyShape, type ModelDraft, type ShapeField } from "../lib/model-draft";
 import { Radio } from "./radio";
-import { SheetInput, SheetSelect } from "./sheet-input";
+import { SheetInput } from "./sheet-input";
+import { ChoiceField } from "../../../components/field";
 
 const SHAPE_LABELS: Record<ShapeField, { label: string; hint?: string }> = {
   parameters: { label: "Parameters", hint: "Non-embedding count, for 6N and weight memory" },
@@ -31,11 +32,11 @@ export function ModelPicker({ value, onChange, profiles, issues }: Props) {
         {radio("shape", "Type a shape")}
       </div>
       {value.kind === "profile" ? (
-        <SheetSelect
+        <ChoiceField className="max-w-xl"
           label="Model profile"
           value={value.modelId}
           onChange={(modelId) => onChange({ kind: "profile", modelId })}
-          prompt="Pick a profile…"
+          emptyLabel="Pick a profile…"
           options={profiles.map((p) => ({ value: String(p.id), label: `${p.name} (${p.family}): ${formatCount(p.parameters)} parameters, trained at ${p.trainedContext} tokens` }))}
           error={issues["model.modelId"]}
           hint={profiles.length ? undefined : "No profiles yet; type a shape instead."}

@@ -1,4 +1,4 @@
-import { Field, TextField, TextInput } from "../../../components/field";
+import { TextField, TextInput } from "../../../components/field";
 
 type SheetInputProps = {
   label: string;
@@ -46,41 +46,5 @@ export function CellInput({ label, value, onChange, error, disabled }: Omit<Shee
       />
       {error && <span className="text-note text-signal">{error}</span>}
     </div>
-  );
-}
-
-type SheetSelectProps = {
-  label: string;
-  value: string;
-  onChange: (value: string) => void;
-  /** The first, empty choice: what to do ("Pick one…"). */
-  prompt: string;
-  options: { value: string; label: string }[];
-  error?: string;
-  hint?: string;
-};
-
-/** A labelled choice with an empty first option, in the sheet's style. */
-export function SheetSelect({ label, value, onChange, prompt, options, error, hint }: SheetSelectProps) {
-  return (
-    <Field label={label} error={error} hint={hint}>
-      {({ id, describedBy, invalid }) => (
-        <select
-          id={id}
-          aria-describedby={describedBy}
-          aria-invalid={invalid}
-          value={value}
-          onChange={(e) => onChange(e.target.value)}
-          className="max-w-xl rounded-md border border-rule-strong bg-white/70 px-3 py-2 text-body"
-        >
-          <option value="">{prompt}</option>
-          {options.map((o) => (
-            <option key={o.value} value={o.value}>
-              {o.label}
-            </option>
-          ))}
-        </select>
-      )}
-    </Field>
   );
 }

@@ -5,14 +5,13 @@ import { createPlanRequestSchema } from "../../../../../shared/schemas/plans";
 import type { PlanDetail } from "../../../../../shared/schemas/plan-responses";
 import type { ModelProfile } from "../../../../../shared/schemas/models";
 import { SubmitButton } from "../../../components/button";
-import { Field, TextField } from "../../../components/field";
+import { SelectField, TextField } from "../../../components/field";
 import { Notice } from "../../../components/notice";
 import { formatCount } from "../../../lib/format";
 import { useCreatePlan } from "../api/create-plan";
 import { blankRevision, toNumber } from "../lib/form-values";
 import { invalidSummary, placeServerErrors } from "../lib/server-errors";
 import { RevisionFields } from "./form/revision-fields";
-import { selectClass } from "./plan-filters";
 
 type NewPlanFormProps = {
   models: ModelProfile[];
@@ -46,26 +45,28 @@ export function NewPlanForm({ models, minApprovals, onCreated, afterStages }: Ne
         {formError && <Notice tone="alert" title="Not saved">{formError}</Notice>}
         <div className="grid gap-4 md:grid-cols-2">
           <TextField label="Title" error={formState.errors.title?.message} {...register("title")} />
-          <Field label="Model" error={formState.errors.modelId?.message} hint={model ? `${model.family}; trained on ${formatCount(model.trainedContext)} tokens, base ${formatCount(model.ropeTheta)}` : "The profile this plan extends"}>
-            {({ id, describedBy, invalid }) => (
-              <select id={id} aria-describedby={describedBy} aria-invalid={invalid} className={selectClass} {...register("modelId", { setValueAs: toNumber })}>
-                <option value="">Pick a model profile</option>
-                {models.map((m) => (
-                  <option key={m.id} value={m.id}>{m.name}</option>
-                ))}
-              </select>
-            )}
-          </Field>
+          <SelectField
+            label="Model"
+            error={formState.errors.modelId?.message}
+            hint={model ? `${model.family}; trained on ${formatCount(model.trainedContext)} tokens, base ${formatCount(model.ropeTheta)}` : "The profile this plan extends"}
+            {...register("modelId", { setValueAs: toNumber })}
+          >
+            <option value="">Pick a model profile</option>
+            {models.map((m) => (
+              <option key={m.id} value={m.id}>{m.name}</option>
+            ))}
+          </SelectField>
           <TextField label="Purpose" hint="Why this extension, in a sentence" error={formState.errors.purpose?.message} {...register("purpose")} />
-          <Field label="Approvals required" error={formState.errors.requiredApprovals?.message} hint={`The lab asks for at least ${minApprovals}.`}>
-            {({ id, describedBy, invalid }) => (
-              <select id={id} aria-describedby={describedBy} aria-invalid={invalid} className={selectClass} {...register("requiredApprovals", { setValueAs: toNumber })}>
-                {[1, 2, 3].filter((n) => n >= minApprovals).map((n) => (
-                  <option key={n} value={n}>{n}</option>
-                ))}
-              </select>
-            )}
-          </Field>
+          <SelectField
+            label="Approvals required"
+            error={formState.errors.requiredApprovals?.message}
+            hint={`The lab asks for at least ${minApprovals}.`}
+            {...register("requiredApprovals", { setValueAs: toNumber })}
+          >
+            {[1, 2, 3].filter((n) => n >= minApprovals).map((n) => (
+              <option key={n} value={n}>{n}</option>
+            ))}
+          </SelectField>
         </div>
         <RevisionFields model={model ? { modelId: model.id } : null} afterStages={afterStages} />
         <div className="border-t border-rule pt-4">

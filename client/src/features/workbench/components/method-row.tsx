@@ -1,12 +1,11 @@
 import { METHOD_IDS, type MethodId } from "../../../../../shared/schemas/analysis";
 import { Button } from "../../../components/button";
-import { TextAreaField, TextField } from "../../../components/field";
+import { TextAreaField, TextField, SelectField } from "../../../components/field";
 import { methodColour } from "../charts/palette";
 import { sig } from "../figures";
 import { METHOD_FIELDS, METHOD_LABELS, type FieldContext, type MethodField } from "../state/method-fields";
 import type { MethodRow as Row } from "../state/inputs";
 import type { FieldErrors } from "../state/to-request";
-import { SelectField } from "./select-field";
 
 type MethodRowProps = {
   index: number;

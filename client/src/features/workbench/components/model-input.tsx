@@ -1,10 +1,9 @@
 import type { ReactNode } from "react";
 import type { ModelProfile } from "../../../../../shared/schemas/models";
-import { TextField } from "../../../components/field";
+import { TextField, SelectField } from "../../../components/field";
 import { tokens } from "../figures";
 import { EMPTY_SHAPE, type ModelChoice } from "../state/inputs";
 import type { FieldErrors } from "../state/to-request";
-import { SelectField } from "./select-field";
 
 type ModelInputProps = {
   choice: ModelChoice;

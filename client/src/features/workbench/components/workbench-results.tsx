@@ -10,7 +10,7 @@ import { METHOD_LABELS } from "../state/method-fields";
 import { BoundsPanel } from "./bounds-panel";
 import { MethodSummaries } from "./method-summaries";
 import { PairTable } from "./pair-table";
-import { SelectField } from "./select-field";
+import { SelectField } from "../../../components/field";
 
 type ResultsProps = {
   analysis: AnalysisResponse;

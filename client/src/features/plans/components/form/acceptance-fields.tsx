@@ -1,8 +1,7 @@
 import { useFieldArray, useFormContext } from "react-hook-form";
 import { COMPARISONS } from "../../../../../../shared/schemas/plans";
 import { Button } from "../../../../components/button";
-import { Field } from "../../../../components/field";
-import { selectClass } from "../plan-filters";
+import { SelectField } from "../../../../components/field";
 import type { RevisionForm } from "../../lib/form-values";
 import { NumberField, TextFormField, useFieldError } from "./form-field";
 
@@ -11,15 +10,11 @@ function ComparisonField({ index }: { index: number }) {
   const name = `revision.acceptance.${index}.comparison` as const;
   const error = useFieldError(name);
   return (
-    <Field label="Comparison" error={error}>
-      {({ id, describedBy, invalid }) => (
-        <select id={id} aria-describedby={describedBy} aria-invalid={invalid} className={selectClass} {...register(name)}>
-          {COMPARISONS.map((c) => (
-            <option key={c} value={c}>{c}</option>
-          ))}
-        </select>
-      )}
-    </Field>
+    <SelectField label="Comparison" error={error} {...register(name)}>
+      {COMPARISONS.map((c) => (
+        <option key={c} value={c}>{c}</option>
+      ))}
+    </SelectField>
   );
 }
 

@@ -1,6 +1,5 @@
 import { get, useFormContext, useWatch, type FieldValues } from "react-hook-form";
-import { Field, TextInput } from "../../../../components/field";
-import { selectClass } from "../plan-filters";
+import { Field, SelectField, TextInput } from "../../../../components/field";
 import { METHOD_TABLE, methodEntry, type ParamField } from "../../lib/method-table";
 import { toNumberList, toOptionalBoolean } from "../../lib/form-values";
 import { NumberField, useFieldError } from "./form-field";
@@ -15,15 +14,11 @@ function ParamInput({ name, param }: { name: string; param: ParamField }) {
   }
   if (param.kind === "boolean") {
     return (
-      <Field label={label} hint={param.hint} error={error}>
-        {({ id, describedBy, invalid }) => (
-          <select id={id} aria-describedby={describedBy} aria-invalid={invalid} className={selectClass} {...register(path, { setValueAs: toOptionalBoolean })}>
-            <option value="">Engine default</option>
-            <option value="true">Yes</option>
-            <option value="false">No</option>
-          </select>
-        )}
-      </Field>
+      <SelectField label={label} hint={param.hint} error={error} {...register(path, { setValueAs: toOptionalBoolean })}>
+        <option value="">Engine default</option>
+        <option value="true">Yes</option>
+        <option value="false">No</option>
+      </SelectField>
     );
   }
   return (
@@ -55,24 +50,19 @@ export function MethodFields({ name, label = "Method", collapsed = false }: { na
   );
   return (
     <div className="flex flex-col gap-3">
-      <Field label={label} hint={entry?.summary} error={rootError}>
-        {({ id, describedBy, invalid }) => (
-          <select
-            id={id}
-            aria-describedby={describedBy}
-            aria-invalid={invalid}
-            className={selectClass}
-            value={method}
-            onChange={(e) => setValue(name, { method: e.target.value }, { shouldDirty: true, shouldValidate: false })}
-          >
-            {METHOD_TABLE.map((m) => (
-              <option key={m.id} value={m.id}>
-                {m.label}
-              </option>
-            ))}
-          </select>
-        )}
-      </Field>
+      <SelectField
+        label={label}
+        hint={entry?.summary}
+        error={rootError}
+        value={method}
+        onChange={(e) => setValue(name, { method: e.target.value }, { shouldDirty: true, shouldValidate: false })}
+      >
+        {METHOD_TABLE.map((m) => (
+          <option key={m.id} value={m.id}>
+            {m.label}
+          </option>
+        ))}
+      </SelectField>
       {entry && entry.params.length > 0 && (collapsed ? (
         <details className="rounded-md border border-rule px-3 py-2" open={hasParams || marked || undefined}>
           <summary className="cursor-pointer text-note font-medium">{entry.short} parameters{hasParams ? "" : " (engine defaults)"}</summary>
