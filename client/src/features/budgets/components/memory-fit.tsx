@@ -1,9 +1,9 @@
 import type { BudgetEstimateResponse } from "../../../../../shared/schemas/budget";
 import { Notice } from "../../../components/notice";
 import { formatBytes, formatCount } from "../../../lib/format";
+import { FramedTable } from "../../../components/framed-table";
 
 type Stage = BudgetEstimateResponse["stages"][number];
-const TH = "border-b border-rule px-2 py-2 text-left text-note font-semibold tracking-wide text-ink-soft uppercase";
 
 /** Whether each stage's training state fits one accelerator, the smallest sequence sharding that does, and the serving view. */
 export function MemoryFit({ stages, memoryBytes, sequenceSharding }: { stages: Stage[]; memoryBytes: number; sequenceSharding: number }) {
@@ -20,51 +20,48 @@ export function MemoryFit({ stages, memoryBytes, sequenceSharding }: { stages: S
           </p>
         </Notice>
       ))}
-      <div className="overflow-x-auto rounded-md border border-rule">
-        <table className="w-full border-collapse text-body">
-          <caption className="sr-only">Memory per stage</caption>
-          <thead className="bg-paper-deep">
-            <tr>
-              <th scope="col" className={TH}>Stage</th>
-              <th scope="col" className={TH}>Training memory per accelerator</th>
-              <th scope="col" className={TH}>Fits {formatBytes(memoryBytes)}?</th>
-              <th scope="col" className={TH}>Smallest sequence sharding that fits</th>
-              <th scope="col" className={TH}>KV cache per token / per sequence</th>
-              <th scope="col" className={TH}>Serving sequences per accelerator</th>
-            </tr>
-          </thead>
-          <tbody>
-            {stages.map((s) => (
-              <tr key={s.index} className="border-b border-rule/70 align-top last:border-b-0">
-                <th scope="row" className="px-2 py-2 text-left font-medium">
-                  Stage {s.index + 1} <span className="font-normal text-ink-soft">({formatCount(s.sequenceLength)} tokens)</span>
-                </th>
-                <td className="px-2 py-2 tabular-nums">
-                  {formatBytes(s.trainingMemory.total)}
-                  <span className="block text-note text-ink-soft">
-                    model states {formatBytes(s.trainingMemory.modelStates)} + activations {formatBytes(s.trainingMemory.activations)}
+      <FramedTable
+        caption="Memory per stage"
+        head={
+          <>
+            <th scope="col">Stage</th>
+            <th scope="col">Training memory per accelerator</th>
+            <th scope="col">Fits {formatBytes(memoryBytes)}?</th>
+            <th scope="col">Smallest sequence sharding that fits</th>
+            <th scope="col">KV cache per token / per sequence</th>
+            <th scope="col">Serving sequences per accelerator</th>
+          </>
+        }
+      >
+        {stages.map((s) => (
+          <tr key={s.index} className="border-b border-rule/70 align-top last:border-b-0">
+            <th scope="row" className="px-2 py-2 text-left font-medium">
+              Stage {s.index + 1} <span className="font-normal text-ink-soft">({formatCount(s.sequenceLength)} tokens)</span>
+            </th>
+            <td className="px-2 py-2 tabular-nums">
+              {formatBytes(s.trainingMemory.total)}
+              <span className="block text-note text-ink-soft">
+                model states {formatBytes(s.trainingMemory.modelStates)} + activations {formatBytes(s.trainingMemory.activations)}
+              </span>
+            </td>
+            <td className={`px-2 py-2 font-medium ${s.fits ? "text-seaglass-dark" : "text-signal"}`}>{s.fits ? "fits" : "does not fit"}</td>
+            <td className="px-2 py-2">{s.minSequenceSharding ?? "none up to the cluster size"}</td>
+            <td className="px-2 py-2 tabular-nums">
+              {formatBytes(s.kvCacheBytesPerToken)} / {formatBytes(s.kvCacheBytesPerSequence)}
+            </td>
+            <td className="px-2 py-2 tabular-nums">
+              {formatCount(s.servingSequencesPerAccelerator)}
+              {s.warnings
+                .filter((w) => w.includes("serving"))
+                .map((w) => (
+                  <span key={w} className="block text-note text-signal">
+                    {w}
                   </span>
-                </td>
-                <td className={`px-2 py-2 font-medium ${s.fits ? "text-seaglass-dark" : "text-signal"}`}>{s.fits ? "fits" : "does not fit"}</td>
-                <td className="px-2 py-2">{s.minSequenceSharding ?? "none up to the cluster size"}</td>
-                <td className="px-2 py-2 tabular-nums">
-                  {formatBytes(s.kvCacheBytesPerToken)} / {formatBytes(s.kvCacheBytesPerSequence)}
-                </td>
-                <td className="px-2 py-2 tabular-nums">
-                  {formatCount(s.servingSequencesPerAccelerator)}
-                  {s.warnings
-                    .filter((w) => w.includes("serving"))
-                    .map((w) => (
-                      <span key={w} className="block text-note text-signal">
-                        {w}
-                      </span>
-                    ))}
-                </td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </div>
+                ))}
+            </td>
+          </tr>
+        ))}
+      </FramedTable>
     </div>
   );
 }

@@ -6,6 +6,7 @@ import { formatCount, formatHours, formatMoney } from "../../../lib/format";
 import { citation, stillAsReported } from "../lib/recipes";
 import { emptyStage, type StageDraft } from "../lib/sheet-draft";
 import { CellInput } from "./sheet-input";
+import { FramedTable } from "../../../components/framed-table";
 
 type Props = {
   stages: StageDraft[];
@@ -20,7 +21,6 @@ type Props = {
   onChange: (stages: StageDraft[]) => void;
 };
 
-const TH = "border-b border-rule px-2 py-2 text-left text-note font-semibold tracking-wide text-ink-soft uppercase";
 
 export function StageTable({ stages, figures, issues, recipes, fixedRows, rowLabels, disabled, onChange }: Props) {
   const update = (i: number, patch: Partial<StageDraft>) => onChange(stages.map((s, k) => (k === i ? { ...s, ...patch } : s)));
@@ -33,81 +33,78 @@ export function StageTable({ stages, figures, issues, recipes, fixedRows, rowLab
 
   return (
     <div className="flex flex-col gap-3">
-      <div className="overflow-x-auto rounded-md border border-rule">
-        <table className="w-full border-collapse text-body">
-          <caption className="sr-only">Stages</caption>
-          <thead className="bg-paper-deep">
-            <tr>
-              <th scope="col" className={TH}>Stage</th>
-              <th scope="col" className={TH}>Sequence length (tokens)</th>
-              <th scope="col" className={TH}>Global batch (sequences)</th>
-              <th scope="col" className={TH}>{fixedRows ? "Steps" : "Steps or token target"}</th>
-              <th scope="col" className={TH}>Tokens trained</th>
-              <th scope="col" className={TH}>Accelerator-hours</th>
-              <th scope="col" className={TH}>Cost</th>
-              {!fixedRows && <th scope="col" className={TH}><span className="sr-only">Remove</span></th>}
-            </tr>
-          </thead>
-          <tbody>
-            {stages.map((s, i) => {
-              const name = rowLabels?.[i] ?? `Stage ${i + 1}`;
-              const f = figures?.[i];
-              const recipe = s.recipeId ? recipes.find((r) => r.id === s.recipeId) : undefined;
-              return (
-                <tr key={i} className="border-b border-rule/70 align-top last:border-b-0">
-                  <th scope="row" className="px-2 py-2 text-left font-medium">
-                    {name}
-                    {recipe && (
-                      <div className="mt-1 max-w-56 text-note font-normal" data-testid={`recipe-label-${i}`}>
-                        <Chip tone="seaglass">{stillAsReported(s, recipe) ? "As reported" : "Edited from"}</Chip>{" "}
-                        {recipe.name}, {citation(recipe)}: the paper's own run, not a prediction
-                      </div>
-                    )}
-                  </th>
-                  <td className="px-2 py-2">
-                    <CellInput label={`${name} sequence length`} value={s.sequenceLength} onChange={(t) => update(i, { sequenceLength: t })} error={issue(i, "sequenceLength")} disabled={disabled} />
-                  </td>
-                  <td className="px-2 py-2">
-                    <CellInput label={`${name} global batch`} value={s.globalBatch} onChange={(t) => update(i, { globalBatch: t })} error={issue(i, "globalBatch")} disabled={disabled} />
-                  </td>
-                  <td className="px-2 py-2">
-                    <div className="flex items-start gap-1">
-                      {!fixedRows && (
-                        <select
-                          aria-label={`${name} given by`}
-                          value={s.by}
-                          disabled={disabled}
-                          onChange={(e) => update(i, { by: e.target.value as StageDraft["by"] })}
-                          className="rounded-md border border-rule-strong bg-white/70 px-1 py-1 text-note"
-                        >
-                          <option value="steps">steps</option>
-                          <option value="tokens">tokens</option>
-                        </select>
-                      )}
-                      {s.by === "steps" ? (
-                        <CellInput label={`${name} steps`} value={s.steps} onChange={(t) => update(i, { steps: t })} error={issue(i, "steps")} disabled={disabled} />
-                      ) : (
-                        <CellInput label={`${name} token target`} value={s.tokens} onChange={(t) => update(i, { tokens: t })} error={issue(i, "tokens")} disabled={disabled} />
-                      )}
-                    </div>
-                    {f && s.by === "tokens" && <p className="mt-1 text-note text-ink-soft">{formatCount(f.steps)} whole steps</p>}
-                  </td>
-                  <td className="px-2 py-2 tabular-nums">{f ? formatCount(f.tokens) : "—"}</td>
-                  <td className="px-2 py-2 tabular-nums">{f ? formatHours(f.acceleratorHours) : "—"}</td>
-                  <td className="px-2 py-2 tabular-nums">{f ? formatMoney(f.cost) : "—"}</td>
+      <FramedTable
+        caption="Stages"
+        head={
+          <>
+            <th scope="col">Stage</th>
+            <th scope="col">Sequence length (tokens)</th>
+            <th scope="col">Global batch (sequences)</th>
+            <th scope="col">{fixedRows ? "Steps" : "Steps or token target"}</th>
+            <th scope="col">Tokens trained</th>
+            <th scope="col">Accelerator-hours</th>
+            <th scope="col">Cost</th>
+            {!fixedRows && <th scope="col"><span className="sr-only">Remove</span></th>}
+          </>
+        }
+      >
+        {stages.map((s, i) => {
+          const name = rowLabels?.[i] ?? `Stage ${i + 1}`;
+          const f = figures?.[i];
+          const recipe = s.recipeId ? recipes.find((r) => r.id === s.recipeId) : undefined;
+          return (
+            <tr key={i} className="border-b border-rule/70 align-top last:border-b-0">
+              <th scope="row" className="px-2 py-2 text-left font-medium">
+                {name}
+                {recipe && (
+                  <div className="mt-1 max-w-56 text-note font-normal" data-testid={`recipe-label-${i}`}>
+                    <Chip tone="seaglass">{stillAsReported(s, recipe) ? "As reported" : "Edited from"}</Chip>{" "}
+                    {recipe.name}, {citation(recipe)}: the paper's own run, not a prediction
+                  </div>
+                )}
+              </th>
+              <td className="px-2 py-2">
+                <CellInput label={`${name} sequence length`} value={s.sequenceLength} onChange={(t) => update(i, { sequenceLength: t })} error={issue(i, "sequenceLength")} disabled={disabled} />
+              </td>
+              <td className="px-2 py-2">
+                <CellInput label={`${name} global batch`} value={s.globalBatch} onChange={(t) => update(i, { globalBatch: t })} error={issue(i, "globalBatch")} disabled={disabled} />
+              </td>
+              <td className="px-2 py-2">
+                <div className="flex items-start gap-1">
                   {!fixedRows && (
-                    <td className="px-2 py-2">
-                      <Button variant="quiet" size="sm" onClick={() => remove(i)} disabled={disabled || stages.length <= 1} aria-label={`Remove ${name}`}>
-                        Remove
-                      </Button>
-                    </td>
+                    <select
+                      aria-label={`${name} given by`}
+                      value={s.by}
+                      disabled={disabled}
+                      onChange={(e) => update(i, { by: e.target.value as StageDraft["by"] })}
+                      className="rounded-md border border-rule-strong bg-white/70 px-1 py-1 text-note"
+                    >
+                      <option value="steps">steps</option>
+                      <option value="tokens">tokens</option>
+                    </select>
                   )}
-                </tr>
-              );
-            })}
-          </tbody>
-        </table>
-      </div>
+                  {s.by === "steps" ? (
+                    <CellInput label={`${name} steps`} value={s.steps} onChange={(t) => update(i, { steps: t })} error={issue(i, "steps")} disabled={disabled} />
+                  ) : (
+                    <CellInput label={`${name} token target`} value={s.tokens} onChange={(t) => update(i, { tokens: t })} error={issue(i, "tokens")} disabled={disabled} />
+                  )}
+                </div>
+                {f && s.by === "tokens" && <p className="mt-1 text-note text-ink-soft">{formatCount(f.steps)} whole steps</p>}
+              </td>
+              <td className="px-2 py-2 tabular-nums">{f ? formatCount(f.tokens) : "—"}</td>
+              <td className="px-2 py-2 tabular-nums">{f ? formatHours(f.acceleratorHours) : "—"}</td>
+              <td className="px-2 py-2 tabular-nums">{f ? formatMoney(f.cost) : "—"}</td>
+              {!fixedRows && (
+                <td className="px-2 py-2">
+                  <Button variant="quiet" size="sm" onClick={() => remove(i)} disabled={disabled || stages.length <= 1} aria-label={`Remove ${name}`}>
+                    Remove
+                  </Button>
+                </td>
+              )}
+            </tr>
+          );
+        })}
+      </FramedTable>
       {!fixedRows && (
         <div>
           <Button variant="secondary" size="sm" onClick={add} disabled={disabled || stages.length >= MAX_BUDGET_STAGES}>

@@ -1,8 +1,9 @@
 import type { RevisionBudget } from "../../../../../shared/schemas/budget";
 import { Notice } from "../../../components/notice";
 import { formatBytes, formatCount, formatHours, formatMoney, formatScientific, sig3 } from "../../../lib/format";
+import { FramedTable } from "../../../components/framed-table";
 
-const th = "px-3 py-2";
+const cell = "px-3 py-2";
 
 /** The revision's frozen budget: per-stage cost and memory, totals, and the assumptions beside them. */
 export function BudgetPanel({ budget }: { budget: RevisionBudget }) {
@@ -17,51 +18,49 @@ export function BudgetPanel({ budget }: { budget: RevisionBudget }) {
         {formatBytes(cluster.memoryBytes)}, {formatMoney(cluster.pricePerHour)} per accelerator-hour), catalog figures as frozen in this revision.
       </p>
       {!allFit && <Notice tone="alert" title="Does not fit">At least one stage needs more memory per accelerator than the cluster has; see the stage rows.</Notice>}
-      <div className="overflow-x-auto rounded-md border border-rule">
-        <table className="w-full border-collapse text-left text-body">
-          <caption className="sr-only">Budget per stage</caption>
-          <thead className="bg-paper-deep text-note font-semibold tracking-wide text-ink-soft uppercase">
-            <tr>
-              <th scope="col" className={th}>Stage</th>
-              <th scope="col" className={th}>Tokens</th>
-              <th scope="col" className={th}>FLOPs</th>
-              <th scope="col" className={th}>Accelerator-hours</th>
-              <th scope="col" className={th}>Wall clock</th>
-              <th scope="col" className={th}>Cost</th>
-              <th scope="col" className={th}>Memory per accelerator</th>
-              <th scope="col" className={th}>Fits</th>
-            </tr>
-          </thead>
-          <tbody>
-            {estimate.stages.map((s) => (
-              <tr key={s.index} className="border-t border-rule/70 align-top">
-                <th scope="row" className={`${th} font-medium`}>{s.index + 1}</th>
-                <td className={th}>{formatCount(s.tokens)}</td>
-                <td className={th}>{formatScientific(s.flops)}</td>
-                <td className={th}>{formatHours(s.acceleratorHours)}</td>
-                <td className={th}>{formatHours(s.wallClockHours)}</td>
-                <td className={th}>{formatMoney(s.cost)}</td>
-                <td className={th}>{formatBytes(s.trainingMemoryPerAccelerator)}</td>
-                <td className={th}>
-                  {s.fits ? <span className="text-seaglass-dark">fits</span> : <span className="font-semibold text-signal-dark">does not fit</span>}
-                  {!s.fits && s.minSequenceSharding !== null && <span className="block text-note">needs sequence sharding ≥ {s.minSequenceSharding}</span>}
-                </td>
-              </tr>
-            ))}
-          </tbody>
-          <tfoot className="border-t-2 border-rule-strong font-semibold">
-            <tr>
-              <th scope="row" className={th}>Total</th>
-              <td className={th}>{formatCount(estimate.totals.tokens)}</td>
-              <td className={th}>{formatScientific(estimate.totals.flops)}</td>
-              <td className={th}>{formatHours(estimate.totals.acceleratorHours)}</td>
-              <td className={th}>{formatHours(estimate.totals.wallClockHours)}</td>
-              <td className={th}>{formatMoney(estimate.totals.cost)}</td>
-              <td className={th} colSpan={2} />
-            </tr>
-          </tfoot>
-        </table>
-      </div>
+      <FramedTable
+        caption="Budget per stage"
+        head={
+          <>
+            <th scope="col">Stage</th>
+            <th scope="col">Tokens</th>
+            <th scope="col">FLOPs</th>
+            <th scope="col">Accelerator-hours</th>
+            <th scope="col">Wall clock</th>
+            <th scope="col">Cost</th>
+            <th scope="col">Memory per accelerator</th>
+            <th scope="col">Fits</th>
+          </>
+        }
+        foot={
+          <tr>
+            <th scope="row" className={cell}>Total</th>
+            <td className={cell}>{formatCount(estimate.totals.tokens)}</td>
+            <td className={cell}>{formatScientific(estimate.totals.flops)}</td>
+            <td className={cell}>{formatHours(estimate.totals.acceleratorHours)}</td>
+            <td className={cell}>{formatHours(estimate.totals.wallClockHours)}</td>
+            <td className={cell}>{formatMoney(estimate.totals.cost)}</td>
+            <td className={cell} colSpan={2} />
+          </tr>
+        }
+      >
+        {estimate.stages.map((s) => (
+          <tr key={s.index} className="border-t border-rule/70 align-top">
+            <th scope="row" className={`${cell} font-medium`}>{s.index + 1}</th>
+            <td className={cell}>{formatCount(s.tokens)}</td>
+            <td className={cell}>{formatScientific(s.flops)}</td>
+            <td className={cell}>{formatHours(s.acceleratorHours)}</td>
+            <td className={cell}>{formatHours(s.wallClockHours)}</td>
+            <td className={cell}>{formatMoney(s.cost)}</td>
+            <td className={cell}>{formatBytes(s.trainingMemoryPerAccelerator)}</td>
+            <td className={cell}>
+              {s.fits ? <span className="text-seaglass-dark">fits</span> : <span className="font-semibold text-signal-dark">does not fit</span>}
+              {!s.fits && s.minSequenceSharding !== null && <span className="block text-note">needs sequence sharding ≥ {s.minSequenceSharding}</span>}
+            </td>
+          </tr>
+        ))}
+      
+      </FramedTable>
       <ul className="text-note text-ink-soft">
         <li>FLOPs per token: {a.conventionFormula} ({a.convention} attention; {a.conventionSource}).</li>
         <li>Utilisation {sig3(a.utilization * 100)}% of peak ({a.utilizationSource}); cost = accelerator-hours × price, in the catalog’s currency.</li>

@@ -2,32 +2,30 @@ import type { DiffResponse, FieldChange } from "../../../../../shared/schemas/pl
 import { formatMoney, formatHours, shortHash } from "../../../lib/format";
 import { formatPairRanges } from "../lib/pair-ranges";
 import { FLAG_INFO } from "./flags-summary";
+import { FramedTable } from "../../../components/framed-table";
 
 const show = (v: unknown) => (v === null || v === undefined ? "—" : typeof v === "object" ? JSON.stringify(v) : String(v));
 
 function ChangesTable({ changes, caption }: { changes: FieldChange[]; caption: string }) {
   return (
-    <div className="overflow-x-auto rounded-md border border-rule">
-      <table className="w-full border-collapse text-left text-body">
-        <caption className="sr-only">{caption}</caption>
-        <thead className="bg-paper-deep text-note font-semibold tracking-wide text-ink-soft uppercase">
-          <tr>
-            <th scope="col" className="px-3 py-2">Field</th>
-            <th scope="col" className="px-3 py-2">Before</th>
-            <th scope="col" className="px-3 py-2">After</th>
-          </tr>
-        </thead>
-        <tbody>
-          {changes.map((c) => (
-            <tr key={c.path} className="border-t border-rule/70 align-top">
-              <th scope="row" className="px-3 py-2 font-mono text-note font-medium">{c.path}</th>
-              <td className="px-3 py-2 break-all text-signal-dark line-through decoration-signal/40">{show(c.from)}</td>
-              <td className="px-3 py-2 break-all text-seaglass-dark">{show(c.to)}</td>
-            </tr>
-          ))}
-        </tbody>
-      </table>
-    </div>
+    <FramedTable
+      caption={caption}
+      head={
+        <>
+          <th scope="col">Field</th>
+          <th scope="col">Before</th>
+          <th scope="col">After</th>
+        </>
+      }
+    >
+      {changes.map((c) => (
+        <tr key={c.path} className="border-t border-rule/70 align-top">
+          <th scope="row" className="px-3 py-2 font-mono text-note font-medium">{c.path}</th>
+          <td className="px-3 py-2 break-all text-signal-dark line-through decoration-signal/40">{show(c.from)}</td>
+          <td className="px-3 py-2 break-all text-seaglass-dark">{show(c.to)}</td>
+        </tr>
+      ))}
+    </FramedTable>
   );
 }
 

@@ -2,6 +2,7 @@ import type { StageResult } from "../../../../../shared/schemas/plans";
 import { formatCount, sig3 } from "../../../lib/format";
 import { methodShort } from "../lib/method-table";
 import { formatPairRanges } from "../lib/pair-ranges";
+import { FramedTable } from "../../../components/framed-table";
 
 type FlagKey = keyof StageResult["flags"];
 
@@ -29,37 +30,34 @@ function FlagCell({ pairs }: { pairs: number[] }) {
 export function FlagsSummary({ rows, pairs }: { rows: Row[]; pairs: number }) {
   return (
     <div className="flex flex-col gap-2">
-      <div className="overflow-x-auto rounded-md border border-rule">
-        <table className="w-full border-collapse text-left text-body">
-          <caption className="sr-only">Pair flags per stage</caption>
-          <thead className="bg-paper-deep text-note font-semibold tracking-wide text-ink-soft uppercase">
-            <tr>
-              <th scope="col" className="px-3 py-2">Where</th>
-              <th scope="col" className="px-3 py-2">Target (tokens)</th>
-              <th scope="col" className="px-3 py-2">Method</th>
-              <th scope="col" className="px-3 py-2">Attention factor</th>
-              {FLAGS.map((f) => (
-                <th key={f} scope="col" className="px-3 py-2">{FLAG_INFO[f].label}</th>
-              ))}
-            </tr>
-          </thead>
-          <tbody>
-            {rows.map(({ scope, result }) => (
-              <tr key={scope} className="border-t border-rule/70 align-top">
-                <th scope="row" className="px-3 py-2 font-medium">{scope}</th>
-                <td className="px-3 py-2">{formatCount(result.targetContext)}</td>
-                <td className="px-3 py-2">{methodShort(result.method)}</td>
-                <td className="px-3 py-2">×{sig3(result.attentionFactor)}</td>
-                {FLAGS.map((f) => (
-                  <td key={f} className="px-3 py-2" data-flag={f}>
-                    <FlagCell pairs={result.flags[f]} />
-                  </td>
-                ))}
-              </tr>
+      <FramedTable
+        caption="Pair flags per stage"
+        head={
+          <>
+            <th scope="col">Where</th>
+            <th scope="col">Target (tokens)</th>
+            <th scope="col">Method</th>
+            <th scope="col">Attention factor</th>
+            {FLAGS.map((f) => (
+            <th key={f} scope="col">{FLAG_INFO[f].label}</th>
             ))}
-          </tbody>
-        </table>
-      </div>
+          </>
+        }
+      >
+        {rows.map(({ scope, result }) => (
+          <tr key={scope} className="border-t border-rule/70 align-top">
+            <th scope="row" className="px-3 py-2 font-medium">{scope}</th>
+            <td className="px-3 py-2">{formatCount(result.targetContext)}</td>
+            <td className="px-3 py-2">{methodShort(result.method)}</td>
+            <td className="px-3 py-2">×{sig3(result.attentionFactor)}</td>
+            {FLAGS.map((f) => (
+              <td key={f} className="px-3 py-2" data-flag={f}>
+                <FlagCell pairs={result.flags[f]} />
+              </td>
+            ))}
+          </tr>
+        ))}
+      </FramedTable>
       <ul className="text-note text-ink-soft">
         {FLAGS.map((f) => (
           <li key={f}>
