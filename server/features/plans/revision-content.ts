@@ -7,14 +7,11 @@ import {
   type MethodParams, type ModelShape, type RevisionValues, type StageResult, type Bands,
 } from "../../../shared/schemas";
 import type { ModelRow } from "../models/models.repo";
+import type { ModelSnapshot } from "../../../shared/schemas/plan-responses";
 import type { BudgetPart } from "./budget-part";
 
-/** The profile values a revision freezes (later edits of the profile do not change a revision). */
-export type ModelSnapshot = {
-  id: number; name: string; family: string; headDim: number; partialRotaryFactor: number; ropeTheta: number; trainedContext: number;
-  layers: number; attentionHeads: number; kvHeads: number; hiddenSize: number; parameters: number; parametersTotal: number | null;
-  bytesPerElement: number;
-};
+/** The profile values a revision freezes (later edits of the profile do not change a revision); contract in shared/. */
+export type { ModelSnapshot };
 
 export const snapshotOf = (m: ModelRow): ModelSnapshot => ({
   id: m.id, name: m.name, family: m.family, headDim: m.headDim, partialRotaryFactor: m.partialRotaryFactor, ropeTheta: m.ropeTheta,
