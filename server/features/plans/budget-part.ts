@@ -1,5 +1,5 @@
 import type { Executor } from "../../db/client";
-import { resolveAndEstimate } from "../budgets/budgets.service";
+import { budgetModelOf, resolveAndEstimate } from "../budgets/budgets.service";
 import { HttpError, Invalid } from "../../http/errors";
 import { parseOr400 } from "../../http/validate";
 import { budgetEstimateRequestSchema } from "../../../shared/schemas/budget";
@@ -19,10 +19,7 @@ export async function budgetPart(ex: Executor, model: ModelSnapshot, v: Revision
   if (!v.stages.length) return { inputs: v.budget, skipped: "the plan has no stages to cost" };
   const request = {
     ...v.budget,
-    model: {
-      parameters: Math.round(model.parameters), layers: model.layers, attentionHeads: model.attentionHeads, kvHeads: model.kvHeads,
-      headDim: model.headDim, hiddenSize: model.hiddenSize, bytesPerElement: model.bytesPerElement,
-    },
+    model: budgetModelOf(model),
     trainedContext: model.trainedContext,
     targetContext: Math.max(v.targetContext, ...v.stages.map((s) => s.sequenceLength)),
     stages: v.stages.map((s) => ({ sequenceLength: s.sequenceLength, steps: s.steps, globalBatch: s.globalBatch })),
