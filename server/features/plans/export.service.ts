@@ -3,7 +3,9 @@ import { Conflict } from "../../http/errors";
 import { recordAudit } from "../audit/audit.repo";
 import type { SessionUser } from "../../../shared/schemas";
 import * as repo from "./plans.repo";
-import { mustPlan, mustRevision } from "./plans.service";
+import { getPlan, getRevision, mustPlan, mustRevision } from "./plans.service";
+import { renderReport } from "./report";
+import { budgetSection } from "./report-budget";
 import { hashContent, type RevisionContent } from "./revision-content";
 
 export const EXPORT_CAUTION =
@@ -29,9 +31,9 @@ export async function exportRevision(deps: AppDeps, actor: SessionUser, planId: 
   if (rev.state !== "approved" && rev.state !== "superseded") {
     throw new Conflict(`revision ${number} is ${rev.state}; only signed revisions export`, { state: rev.state });
   }
-  const check = await verifyRevision(deps, planId, number);
-  if (!check.ok) {
-    throw new Conflict(`revision ${number} fails its integrity check (stored ${check.storedHash.slice(0, 12)}…, computed ${check.computedHash.slice(0, 12)}…); export refused`, { contentHash: "mismatch" });
+  const computed = hashContent(rev.content);
+  if (computed !== rev.contentHash) {
+    throw new Conflict(`revision ${number} fails its integrity check (stored ${rev.contentHash.slice(0, 12)}…, computed ${computed.slice(0, 12)}…); export refused`, { contentHash: "mismatch" });
   }
   const content = rev.content as RevisionContent;
   const decisions = (await repo.decisionsOf(deps.db, [rev.id])).filter((d) => d.d.decision === "approve" && d.d.round === rev.round);
@@ -50,4 +52,18 @@ export async function exportRevision(deps: AppDeps, actor: SessionUser, planId: 
     signedBy: decisions.map((d) => ({ name: d.name, email: d.email, signedHash: d.d.signedHash, at: d.d.at.toISOString() })),
     caution: EXPORT_CAUTION,
   };
+}
+
+/** The printable report of one revision; its integrity line comes from the content it prints. */
+export async function revisionReport(deps: AppDeps, planId: number, n: number) {
+  const [plan, rev] = await Promise.all([getPlan(deps, planId), getRevision(deps, planId, n)]);
+  const content = rev.content as RevisionContent;
+  return renderReport({
+    plan: { id: planId, title: plan.title, purpose: plan.purpose, owner: plan.owner ?? undefined },
+    revision: rev,
+    content,
+    verified: hashContent(content) === rev.contentHash,
+    decisions: plan.revisions.find((x) => x.number === n)?.decisions ?? [],
+    budgetHtml: budgetSection(content),
+  });
 }

@@ -8,13 +8,10 @@ import {
 } from "../../../shared/schemas";
 import * as plans from "./plans.service";
 import * as workflow from "./workflow.service";
-import { exportRevision, verifyRevision } from "./export.service";
+import { exportRevision, revisionReport, verifyRevision } from "./export.service";
 import { diffContents } from "./diff";
-import { renderReport } from "./report";
-import { budgetSection } from "./report-budget";
 import { planOwners, reviewQueue } from "./plans.list";
 import { minRequiredApprovals } from "./plans.repo";
-import type { RevisionContent } from "./revision-content";
 import "./plans.usage";
 
 const planParams = z.object({ id: z.coerce.number().int().positive() });
@@ -107,13 +104,7 @@ export function plansRouter(deps: AppDeps) {
   });
   r.get("/:id/revisions/:n/report", async (req, res) => {
     const { id, n } = parseParams(revParams, req);
-    const [plan, rev, check] = await Promise.all([plans.getPlan(deps, id), plans.getRevision(deps, id, n), verifyRevision(deps, id, n)]);
-    const decisions = plan.revisions.find((x) => x.number === n)?.decisions ?? [];
-    const html = renderReport({
-      plan: { id, title: plan.title, purpose: plan.purpose, owner: plan.owner ?? undefined },
-      revision: rev, content: rev.content as RevisionContent, verified: check.ok, decisions,
-      budgetHtml: budgetSection(rev.content as RevisionContent),
-    });
+    const html = await revisionReport(deps, id, n);
     if (req.query.download) res.attachment(`ropewalk-plan-${id}-r${n}-report.html`);
     res.type("html").send(html);
   });
