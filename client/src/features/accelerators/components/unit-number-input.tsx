@@ -1,6 +1,7 @@
 import { useState } from "react";
 import { TextField } from "../../../components/field";
 import { sig3 } from "../../../lib/format";
+import { parseNumberText } from "../../../lib/number-text";
 
 type Props = {
   label: string;
@@ -31,9 +32,9 @@ export function UnitNumberInput({ label, unit, scale, value, onChange, onBlur, e
       onBlur={onBlur}
       onChange={(e) => {
         setText(e.target.value);
-        const t = e.target.value.trim().replace(/[,_\s]/g, "");
+        const typed = parseNumberText(e.target.value);
         // Whole base units: the contract wants an integer byte count (NaN stays NaN for the schema to name).
-        onChange(t === "" ? undefined : Math.round(Number(t) * scale));
+        onChange(typed === undefined ? undefined : Math.round(typed * scale));
       }}
     />
   );

@@ -11,11 +11,12 @@ import { recipesQuery } from "../api/get-recipes";
 import { clusterLabel } from "../lib/cluster-label";
 import { stagesCsv } from "../lib/csv";
 import { recipeStageDraft } from "../lib/recipes";
-import { buildRequest, parseNumber, type SheetContext, type SheetDraft } from "../lib/sheet-draft";
+import { buildRequest, type SheetContext, type SheetDraft } from "../lib/sheet-draft";
 import { ClusterSettings } from "./cluster-settings";
 import { EstimateFigures } from "./estimate-figures";
 import { RecipeMenu } from "./recipe-menu";
 import { StageTable } from "./stage-table";
+import { parseNumberText } from "../../../lib/number-text";
 
 export type BudgetSheetProps = {
   /** "plan": the rows are the plan's stages (edit lengths, batches and steps; no adding or removing). */
@@ -49,14 +50,14 @@ export function BudgetSheet({ mode, value, onChange, context, accelerators, rowL
 
   const pickRecipe = (recipe: BudgetRecipeResponse, target: number | null) => {
     if (target === null) {
-      const lengths = value.stages.map((s) => parseNumber(s.sequenceLength) ?? 0);
+      const lengths = value.stages.map((s) => parseNumberText(s.sequenceLength) ?? 0);
       const targetLength = context?.targetContext ?? Math.max(4096, ...lengths);
-      const batch = parseNumber(value.stages[value.stages.length - 1]?.globalBatch ?? "") ?? 64;
+      const batch = parseNumberText(value.stages[value.stages.length - 1]?.globalBatch ?? "") ?? 64;
       onChange({ ...value, stages: [...value.stages, recipeStageDraft(recipe, targetLength, batch)] });
       return;
     }
     const row = value.stages[target];
-    const next = recipeStageDraft(recipe, parseNumber(row.sequenceLength) ?? 4096, parseNumber(row.globalBatch) ?? 64, true);
+    const next = recipeStageDraft(recipe, parseNumberText(row.sequenceLength) ?? 4096, parseNumberText(row.globalBatch) ?? 64, true);
     onChange({ ...value, stages: value.stages.map((s, k) => (k === target ? next : s)) });
   };
 
@@ -106,7 +107,7 @@ export function BudgetSheet({ mode, value, onChange, context, accelerators, rowL
           <EstimateFigures
             estimate={data}
             memoryBytes={data.resolved.cluster.memoryBytes}
-            accelerators={parseNumber(value.settings.accelerators) ?? 0}
+            accelerators={parseNumberText(value.settings.accelerators) ?? 0}
             stale={stale}
             actions={
               <div>

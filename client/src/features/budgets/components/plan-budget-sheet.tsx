@@ -4,8 +4,9 @@ import type { Accelerator } from "../../../../../shared/schemas/budget";
 import type { ModelSnapshot } from "../../../../../shared/schemas/plan-responses";
 import type { RevisionInput } from "../../../../../shared/schemas/plans";
 import { draftFromPlanBudget, PLAN_STAGE_FIELDS, planBudgetFromDraft, stageDraftsFromPlan, type PlanStageNumbers } from "../lib/plan-draft";
-import { parseNumber, type SheetDraft, type StageDraft } from "../lib/sheet-draft";
+import { type SheetDraft, type StageDraft } from "../lib/sheet-draft";
 import { BudgetSheet } from "./budget-sheet";
+import { parseNumberText } from "../../../lib/number-text";
 
 type PlanForm = { revision: RevisionInput; modelId?: number };
 /** The model fields the budget uses: a revision's frozen snapshot, or a profile. */
@@ -57,7 +58,7 @@ export function PlanBudgetSheet({ model: given, models, accelerators, disabled }
       for (const field of PLAN_STAGE_FIELDS) {
         if (s[field] === value.stages[i]?.[field]) continue;
         changedTyping[`${i}.${field}`] = s[field];
-        setValue(`revision.stages.${i}.${field}`, parseNumber(s[field]) as number, { shouldDirty: true });
+        setValue(`revision.stages.${i}.${field}`, parseNumberText(s[field]) as number, { shouldDirty: true });
       }
     });
     if (Object.keys(changedTyping).length) setTyped((t) => ({ ...t, ...changedTyping }));

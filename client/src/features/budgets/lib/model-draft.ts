@@ -1,5 +1,5 @@
 import type { ModelRequest } from "../../../../../shared/schemas/budget";
-import { parseNumber } from "./sheet-draft";
+import { parseNumberText } from "../../../lib/number-text";
 
 /** The estimator's model: a stored profile, or a shape typed by hand (text as typed, like the sheet). */
 export type ModelDraft =
@@ -16,12 +16,12 @@ export const emptyShape = (): Extract<ModelDraft, { kind: "shape" }> => ({
 /** The request's `model`, or null when a profile is not picked yet. Field checks are left to the shared schema. */
 export function modelRequest(draft: ModelDraft): ModelRequest | null {
   if (draft.kind === "profile") {
-    const id = parseNumber(draft.modelId);
+    const id = parseNumberText(draft.modelId);
     return id === undefined ? null : { modelId: id };
   }
   const shape: Record<string, number> = {};
   for (const field of SHAPE_FIELDS) {
-    const v = parseNumber(draft[field]);
+    const v = parseNumberText(draft[field]);
     if (v !== undefined) shape[field] = v;
   }
   return shape as ModelRequest;

@@ -1,6 +1,7 @@
 import type { PlanBudgetInput } from "../../../../../shared/schemas/plans";
+import { parseNumberText } from "../../../lib/number-text";
 import { GIB, TFLOPS } from "../../../lib/format";
-import { defaultSettings, parseNumber, settingsRequest, type ClusterDraft, type SettingsDraft, type StageDraft } from "./sheet-draft";
+import { defaultSettings, settingsRequest, type ClusterDraft, type SettingsDraft, type StageDraft } from "./sheet-draft";
 
 /** The plan fields the sheet edits; the rest of a stage (target, method, rate, data mix) belongs to the plan editor. */
 export const PLAN_STAGE_FIELDS = ["sequenceLength", "globalBatch", "steps"] as const;
@@ -50,7 +51,7 @@ export function stageDraftsFromPlan(stages: PlanStageNumbers[], typed: Record<st
   return stages.map((s, i) => {
     const cell = (field: PlanStageField) => {
       const t = typed[`${i}.${field}`];
-      if (t !== undefined && same(parseNumber(t), s[field])) return t;
+      if (t !== undefined && same(parseNumberText(t), s[field])) return t;
       return s[field] === undefined || Number.isNaN(s[field]) ? (t ?? "") : String(s[field]);
     };
     const recipeId = recipes[i];

@@ -1,5 +1,6 @@
 import type { BudgetRecipeResponse } from "../../../../../shared/schemas/budget";
-import { parseNumber, type StageDraft } from "./sheet-draft";
+import { parseNumberText } from "../../../lib/number-text";
+import type { StageDraft } from "./sheet-draft";
 
 /**
  * A stage from what a paper reported, as the server's recipeStage does: the paper's length when it gave one,
@@ -19,7 +20,7 @@ export function recipeStageDraft(recipe: BudgetRecipeResponse, targetLength: num
 /** True while the row still holds exactly what the paper reported (a length or batch it did not report may be anything). */
 export function stillAsReported(stage: StageDraft, recipe: BudgetRecipeResponse): boolean {
   const r = recipe.reported;
-  const same = (text: string, reported: number | undefined) => reported === undefined || parseNumber(text) === reported;
+  const same = (text: string, reported: number | undefined) => reported === undefined || parseNumberText(text) === reported;
   if (!same(stage.sequenceLength, r.sequenceLength) || !same(stage.globalBatch, r.globalBatch)) return false;
   if (r.steps !== undefined) return stage.by === "steps" && same(stage.steps, r.steps);
   return stage.by === "tokens" && same(stage.tokens, r.tokens);

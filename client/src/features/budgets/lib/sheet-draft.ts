@@ -7,6 +7,7 @@ import {
   type ModelRequest,
 } from "../../../../../shared/schemas/budget";
 import { GIB, TFLOPS } from "../../../lib/format";
+import { parseNumberText } from "../../../lib/number-text";
 
 export type RecipeId = (typeof BUDGET_RECIPE_IDS)[number];
 export type Convention = (typeof FLOP_CONVENTIONS)[number];
@@ -58,19 +59,14 @@ export const defaultSettings = (): SettingsDraft => ({
   sequenceSharding: "", microBatchSequences: "",
 });
 
-/** Text → number; blank is "not given". Digit group separators (",", "_", spaces) are allowed. */
-export function parseNumber(text: string): number | undefined {
-  const t = text.trim().replace(/[,_\s]/g, "");
-  return t === "" ? undefined : Number(t);
-}
 
 function clusterRequest(c: ClusterDraft): BudgetEstimateRequest["cluster"] {
-  if (c.kind === "catalog") return { acceleratorId: parseNumber(c.acceleratorId) as number };
+  if (c.kind === "catalog") return { acceleratorId: parseNumberText(c.acceleratorId) as number };
   const scaled = (text: string, unit: number) => {
-    const v = parseNumber(text);
+    const v = parseNumberText(text);
     return v === undefined ? undefined : Math.round(v * unit);
   };
-  return { peakFlops: scaled(c.peakTflops, TFLOPS), memoryBytes: scaled(c.memoryGib, GIB), pricePerHour: parseNumber(c.pricePerHour) } as BudgetEstimateRequest["cluster"];
+  return { peakFlops: scaled(c.peakTflops, TFLOPS), memoryBytes: scaled(c.memoryGib, GIB), pricePerHour: parseNumberText(c.pricePerHour) } as BudgetEstimateRequest["cluster"];
 }
 
 /** Cluster and settings as the plan's budget block and the estimate request both carry them. */
@@ -78,19 +74,19 @@ export function settingsRequest(draft: Pick<SheetDraft, "cluster" | "settings">)
   const s = draft.settings;
   return {
     cluster: clusterRequest(draft.cluster),
-    accelerators: parseNumber(s.accelerators) as number,
-    utilization: parseNumber(s.utilization),
+    accelerators: parseNumberText(s.accelerators) as number,
+    utilization: parseNumberText(s.utilization),
     convention: s.convention || undefined,
-    recomputeFraction: parseNumber(s.recomputeFraction),
-    optimizerBytesPerParameter: parseNumber(s.optimizerBytesPerParameter),
-    sequenceSharding: parseNumber(s.sequenceSharding),
-    microBatchSequences: parseNumber(s.microBatchSequences),
+    recomputeFraction: parseNumberText(s.recomputeFraction),
+    optimizerBytesPerParameter: parseNumberText(s.optimizerBytesPerParameter),
+    sequenceSharding: parseNumberText(s.sequenceSharding),
+    microBatchSequences: parseNumberText(s.microBatchSequences),
   };
 }
 
 function stageRequest(s: StageDraft): BudgetEstimateRequest["stages"][number] {
-  const common = { sequenceLength: parseNumber(s.sequenceLength) as number, globalBatch: parseNumber(s.globalBatch) as number };
-  return s.by === "steps" ? { ...common, steps: parseNumber(s.steps) as number } : { ...common, tokens: parseNumber(s.tokens) as number };
+  const common = { sequenceLength: parseNumberText(s.sequenceLength) as number, globalBatch: parseNumberText(s.globalBatch) as number };
+  return s.by === "steps" ? { ...common, steps: parseNumberText(s.steps) as number } : { ...common, tokens: parseNumberText(s.tokens) as number };
 }
 
 /** Drops keys whose value is undefined, so JSON and the query key stay small and stable. */
