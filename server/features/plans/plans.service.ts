@@ -134,8 +134,8 @@ export async function getPlan(deps: AppDeps, id: number) {
     repo.userRef(deps.db, plan.ownerId), findModelRow(deps.db, plan.modelId), repo.revisionsOf(deps.db, id), effectiveApprovals(deps.db, plan),
   ]);
   const decisions = await repo.decisionsOf(deps.db, revs.map((r) => r.id));
-  const authors = new Map<number, Awaited<ReturnType<typeof repo.userRef>>>();
-  for (const r of revs) if (!authors.has(r.authorId)) authors.set(r.authorId, await repo.userRef(deps.db, r.authorId));
+  const authorIds = [...new Set(revs.map((r) => r.authorId))];
+  const authors = new Map(await Promise.all(authorIds.map(async (a) => [a, await repo.userRef(deps.db, a)] as const)));
   const latest = revs[revs.length - 1];
   const approved = [...revs].reverse().find((r) => r.state === "approved");
   return {
