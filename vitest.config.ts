@@ -1,20 +1,38 @@
 import { defineConfig } from "vitest/config";
 
-const common = {
-  globalSetup: ["tests/setup/global.ts"],
-  testTimeout: 30_000,
-  hookTimeout: 60_000,
-  pool: "forks" as const,
-  env: { NODE_ENV: "test" },
-};
+/*
+ * Three layers, assigned by folder so a new test file lands in the right one without touching this file:
+ *   unit  tests/unit             no PostgreSQL, no Chromium (no global setup at all): `npm run test:unit`
+ *   api   tests/api, tests/scripts   a migrated PostgreSQL database made for the run: `npm run test:api`
+ *   e2e   tests/e2e              PostgreSQL and Chromium, the built client in dist/: `npm run test:e2e`
+ * Files ending in .serial.test.ts change lab-wide state; each layer keeps them in its own "-serial"
+ * project, which runs one file at a time after every other project (sequence.groupOrder).
+ */
+const SERIAL = "**/*.serial.test.ts";
+const base = { testTimeout: 30_000, hookTimeout: 60_000, pool: "forks" as const, env: { NODE_ENV: "test" } };
+const DB = "tests/setup/global-db.ts";
+const BROWSER = "tests/setup/global-browser.ts";
+
+function layer(name: string, folders: string[], globalSetup: string[], serialOrder: number) {
+  const include = folders.map((f) => `${f}/**/*.test.ts`);
+  return [
+    { test: { ...base, name, include, exclude: [SERIAL], globalSetup } },
+    {
+      test: {
+        ...base, name: `${name}-serial`, include: folders.map((f) => `${f}/${SERIAL}`), globalSetup,
+        fileParallelism: false, sequence: { groupOrder: serialOrder },
+      },
+    },
+  ];
+}
 
 export default defineConfig({
   test: {
     reporters: ["default", "./tests/setup/count-reporter.ts"],
     projects: [
-      { test: { ...common, name: "main", include: ["tests/**/*.test.ts"], exclude: ["tests/**/*.serial.test.ts"] } },
-      // Files that change lab-wide state run alone, after everything else.
-      { test: { ...common, name: "serial", include: ["tests/**/*.serial.test.ts"], fileParallelism: false, sequence: { groupOrder: 1 } } },
+      ...layer("unit", ["tests/unit"], [], 1),
+      ...layer("api", ["tests/api", "tests/scripts"], [DB], 2),
+      ...layer("e2e", ["tests/e2e"], [DB, BROWSER], 3),
     ],
   },
 });
