@@ -15,6 +15,16 @@ export const findUserById = async (ex: Executor, id: number) =>
 export const lockUserById = async (ex: Executor, id: number) =>
   (await ex.select().from(users).where(eq(users.id, id)).for("update").limit(1))[0];
 
+/**
+ * Locks every active admin's row, always in id order so two callers cannot deadlock. Taken before any other
+ * user row by changes that may remove an admin: the second of two such changes waits, then counts afresh.
+ */
+export async function lockActiveAdmins(ex: Executor) {
+  await ex.select({ id: users.id }).from(users)
+    .where(sql`${users.active} AND 'admin' = ANY(${users.roles})`)
+    .orderBy(asc(users.id)).for("update");
+}
+
 export const listUsers = (ex: Executor) => ex.select().from(users).orderBy(asc(users.id));
 
 export async function insertUser(

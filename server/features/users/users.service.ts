@@ -52,6 +52,9 @@ export async function createUser(deps: AppDeps, actor: SessionUser | null, input
 /** Role and activity changes; the last active admin cannot be demoted or deactivated. */
 export async function updateUser(deps: AppDeps, actor: SessionUser, id: number, input: UpdateUserRequest) {
   return deps.db.transaction(async (tx) => {
+    // Two last admins removing each other at once would both count two admins and leave none:
+    // serialise every change that may remove an admin on the set of active admins.
+    if (input.roles !== undefined || input.active === false) await repo.lockActiveAdmins(tx);
     const before = await repo.lockUserById(tx, id);
     if (!before) throw new NotFound("no such user");
     const losesAdmin =
