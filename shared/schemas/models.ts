@@ -67,8 +67,23 @@ export const modelProfileSchema = profileFields.extend({
 });
 export type ModelProfile = z.infer<typeof modelProfileSchema>;
 
+/**
+ * What an import read from a file, before the author corrects it: any field may be missing (headDim when the file's
+ * head shape is not a whole number) and numbers are only checked to be finite, so every preview renders; the
+ * warnings say what to fix, and saving applies modelProfileInputSchema.
+ */
+export const importPreviewProfileSchema = profileFields
+  .extend({
+    headDim: finite(), partialRotaryFactor: finite(), ropeTheta: finite(), trainedContext: finite(),
+    maxPositionEmbeddings: finite().nullable(), layers: finite(), attentionHeads: finite(), kvHeads: finite(),
+    hiddenSize: finite(), parameters: finite(), parametersTotal: finite().nullable(), bytesPerElement: finite(),
+    name: z.string(), family: z.string(), provenance: z.string(),
+  })
+  .partial();
+export type ImportPreviewProfile = z.infer<typeof importPreviewProfileSchema>;
+
 export const importResponseSchema = z.object({
-  profile: profileFields.partial(),
+  profile: importPreviewProfileSchema,
   warnings: z.array(importWarningSchema),
   saved: modelProfileSchema.nullable(),
 });

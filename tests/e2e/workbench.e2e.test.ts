@@ -238,6 +238,45 @@ describe("profiles and bounds in a browser", () => {
     await context.close();
   }, 60_000);
 
+  it("a config with 30 heads over hidden_size 4096 previews with warnings and saves once head_dim is given", async () => {
+    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const page = await context.newPage();
+    const pageErrors: string[] = [];
+    page.on("pageerror", (e) => pageErrors.push(e.message));
+    await page.goto(`${server.url}/models/import`);
+    await signIn(page, researcher);
+    await page.getByRole("heading", { level: 1, name: "Import a config.json" }).waitFor();
+    await page.getByLabel("config.json to import").setInputFiles(path.resolve(import.meta.dirname, "../fixtures/configs/thirty-heads.json"));
+    const warningsBox = page.getByTestId("import-warnings");
+    await warningsBox.waitFor();
+    // Before the fix the page said "the server sent a response this page does not understand" here.
+    expect(await page.getByText("does not understand").count()).toBe(0);
+    await expect.poll(() => warningsBox.locator('li[data-code="head_dim_not_integer"]').textContent(), { timeout: 15_000 }).toContain("136.53");
+    await expect.poll(() => warningsBox.locator('li[data-code="kv_heads_not_divisor"]').textContent(), { timeout: 15_000 }).toContain("1, 2, 3, 5, 6, 10, 15 or 30");
+    const form = page.getByRole("form", { name: "Imported profile" });
+    expect(await form.getByLabel("Head dimension (head_dim)").inputValue()).toBe("");
+    await screenshot(page, "workbench-import-odd-heads");
+
+    // Save is held until head_dim is given and the key/value heads divide the query heads; nothing is sent before.
+    let posted = 0;
+    page.on("request", (r) => { if (r.url().includes("save=true")) posted += 1; });
+    await form.getByRole("button", { name: "Save profile" }).click();
+    await expect.poll(() => form.getByText("required").count(), { timeout: 15_000 }).toBeGreaterThan(0);
+    await form.getByLabel("Name", { exact: true }).fill(`Odd heads ${Date.now().toString(36)}`);
+    await form.getByLabel("Head dimension (head_dim)").fill("128");
+    await form.getByRole("button", { name: "Save profile" }).click();
+    await expect.poll(() => form.getByText("attentionHeads must be a multiple of kvHeads").count(), { timeout: 15_000 }).toBe(1);
+    expect(posted).toBe(0);
+    await form.getByLabel("KV heads (num_key_value_heads)").fill("6");
+    const saving = page.waitForResponse((r) => r.url().includes("/api/models/import?save=true"));
+    await form.getByRole("button", { name: "Save profile" }).click();
+    const saved = await saving;
+    expect(saved.status()).toBe(201);
+    expect((await saved.json()).saved).toMatchObject({ headDim: 128, kvHeads: 6, attentionHeads: 30 });
+    expect(pageErrors).toEqual([]);
+    await context.close();
+  }, 60_000);
+
   it("cancelling the smallest-base search stops the server's search", async () => {
     const context = await browser.newContext({ viewport: { width: 1280, height: 860 } });
     const page = await context.newPage();

@@ -2,10 +2,11 @@
  * Reads a model's config.json (the open model-configuration keys) into a profile draft plus plain-words warnings.
  * Pure: no I/O. The warnings follow the "what practitioners get wrong" list of the domain notes.
  */
-import type { CurrentScaling, ImportWarning, ModelProfileInput } from "../../../shared/schemas";
+import type { CurrentScaling, ImportPreviewProfile, ImportWarning } from "../../../shared/schemas";
 import { ropeScalingKnownKeys, suggestKey } from "./rope-scaling-keys";
 import { scalingWarnings } from "./scaling-warnings";
 import { isObj, num, type Json, type Warn } from "./config-values";
+import { checkKvHeads, readHeadDim } from "./head-shape";
 
 export class ConfigImportError extends Error {
   constructor(message: string, readonly fields: Record<string, string>) {
@@ -52,14 +53,16 @@ function readJson(text: string): Json {
   return c;
 }
 
-export function parseModelConfig(text: string, fileName = "config.json"): { profile: ModelProfileInput; warnings: ImportWarning[] } {
+export function parseModelConfig(text: string, fileName = "config.json"): { profile: ImportPreviewProfile; warnings: ImportWarning[] } {
   const cfg = readJson(text);
   const warnings: ImportWarning[] = [];
   const warn: Warn = (code, message, fix) => warnings.push({ code, message, fix });
 
   const missing: Record<string, string> = {};
   for (const key of ["hidden_size", "num_attention_heads", "num_hidden_layers", "max_position_embeddings"]) {
-    if (num(cfg[key]) === undefined) missing[key] = "missing or not a number";
+    const v = num(cfg[key]);
+    if (v === undefined) missing[key] = "missing or not a number";
+    else if (!Number.isInteger(v) || v <= 0) missing[key] = "must be a positive whole number";
   }
   if (Object.keys(missing).length) {
     throw new ConfigImportError(`the config lacks keys the engine needs: ${Object.keys(missing).join(", ")}`, missing);
@@ -67,12 +70,9 @@ export function parseModelConfig(text: string, fileName = "config.json"): { prof
   const hidden = num(cfg.hidden_size)!;
   const heads = num(cfg.num_attention_heads)!;
   const kvHeads = num(cfg.num_key_value_heads) ?? heads;
-  const ratio = hidden / heads;
-  const headDim = num(cfg.head_dim) ?? ratio;
-  if (num(cfg.head_dim) !== undefined && headDim !== ratio) {
-    warn("head_dim_differs", `head_dim is ${headDim}, but hidden_size / num_attention_heads is ${ratio}.`,
-      `Use head_dim (${headDim}) for every rotary figure; tools that derive it from hidden_size compute the wrong frequencies.`);
-  }
+  // An odd head shape is a warning, never a refusal: the preview always renders, and saving waits for head_dim.
+  const headDim = readHeadDim(hidden, heads, num(cfg.head_dim), warn);
+  checkKvHeads(heads, kvHeads, warn);
   const ropeParams = isObj(cfg.rope_parameters) ? cfg.rope_parameters : undefined;
   let ropeTheta = num(cfg.rope_theta) ?? num(ropeParams?.rope_theta);
   if (ropeTheta === undefined) {
@@ -87,7 +87,7 @@ export function parseModelConfig(text: string, fileName = "config.json"): { prof
       "Ropewalk reads it as partial_rotary_factor; keep both keys consistent if you edit the config.");
   }
   prf ??= 1;
-  if (prf < 1) {
+  if (prf < 1 && headDim !== undefined) {
     warn("partial_rotation", `Only ${prf * 100}% of each head rotates (partial_rotary_factor ${prf}): the rotary dimension is ${headDim * prf}, not ${headDim}.`,
       `Every pair count, band and bound here uses d = ${headDim * prf}; make sure your own scripts do too.`);
   }
@@ -118,7 +118,8 @@ export function parseModelConfig(text: string, fileName = "config.json"): { prof
   }
   const dtype = String(cfg.torch_dtype ?? cfg.dtype ?? "");
   const name = String(cfg._name_or_path ?? "").split("/").pop() || fileName.replace(/\.json$/i, "");
-  const parameters = estimateNonEmbeddingParameters(cfg, headDim, heads, kvHeads);
+  // Without a trusted head_dim the estimate uses hidden_size / heads; it is replaced once the author gives head_dim.
+  const parameters = estimateNonEmbeddingParameters(cfg, headDim ?? hidden / heads, heads, kvHeads);
   warn("parameters_estimated", `The config carries no parameter count; ${(parameters / 1e9).toFixed(2)} B non-embedding parameters were estimated from its shape.`,
     "Replace it with the published count if you have one: it drives every FLOP figure of the budget.");
 
