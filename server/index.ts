@@ -6,7 +6,7 @@ import { startOutboxWorker } from "./mail/worker";
 
 /** Starts the HTTP server; resolves once it listens. Used by `npm start` and production. */
 export async function startServer(config = loadConfig()) {
-  const { pool, db } = createDb(config.databaseUrl);
+  const { pool, db } = createDb(config.databaseUrl, 10, config.db);
   const app = createApp({ config, pool, db });
   const server: Server = await new Promise((resolve, reject) => {
     const s = app.listen(config.port, config.host, () => resolve(s));

@@ -2,6 +2,7 @@ import type { NextFunction, Request, Response } from "express";
 import { ZodError } from "zod";
 import { HttpError } from "./errors";
 import { issuesToFields } from "./validate";
+import { isDatabaseUnavailable } from "../db/errors";
 
 type BodyParserError = Error & { type?: string; status?: number };
 type MulterLike = Error & { code?: string; field?: string; name: string };
@@ -28,6 +29,12 @@ export function errorMiddleware(err: unknown, req: Request, res: Response, _next
   }
   if (typeof bp?.status === "number" && bp.status >= 400 && bp.status < 500) return send(bp.status, "bad_request", bp.message);
 
+  if (isDatabaseUnavailable(err)) {
+    // Logged without the error object: driver errors can carry query parameters and connection details.
+    console.error(`[db] ${req.method} ${req.path}: database unavailable (${(err as Error).message})`);
+    res.set("Retry-After", "5");
+    return send(503, "database_unavailable", "the database is unavailable right now; try again in a few seconds");
+  }
   console.error(`[error] ${req.method} ${req.originalUrl}:`, err);
   return send(500, "internal", "something went wrong on our side; it has been logged");
 }

@@ -13,7 +13,17 @@ export function boundsRouter(_deps: AppDeps) {
 
   r.post("/base", async (req, res) => {
     const query = parseBody(baseBoundRequestSchema, req);
-    res.json(await runBaseBound(query));
+    const abort = new AbortController();
+    // As for the stream: the connection closing before we answered means nobody waits for the result.
+    res.on("close", () => {
+      if (!res.writableEnded) abort.abort();
+    });
+    try {
+      res.json(await runBaseBound(query, { signal: abort.signal }));
+    } catch (e) {
+      if (e instanceof SearchCancelled) return;
+      throw e;
+    }
   });
 
   r.post("/base/stream", async (req, res) => {
