@@ -72,9 +72,14 @@ export const updateRevisionRequestSchema = z.strictObject({
 });
 export type UpdateRevisionRequest = z.input<typeof updateRevisionRequestSchema>;
 
+/** SHA-256 hex, as the server computes content hashes. */
+export const contentHashSchema = z.string().regex(/^[0-9a-f]{64}$/, "a SHA-256 content hash: 64 lowercase hex characters");
+
+/** `contentHash` is the hash the approver read; a decision on any other content is refused (409 hash_mismatch). */
 export const decisionRequestSchema = z.strictObject({
   decision: z.enum(DECISIONS),
   comment: text(4000).default(""),
+  contentHash: contentHashSchema,
 });
 
 export const planSettingsSchema = z.strictObject({ minRequiredApprovals: z.number().int().min(1).max(3) });

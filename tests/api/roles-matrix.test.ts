@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { ROLES, type Role } from "../../shared/schemas";
 import { makeTestApp, type Agent } from "../setup/app";
-import { createPlan, createProfile, post, put } from "../setup/plans";
+import { createPlan, createProfile, decide, post, put } from "../setup/plans";
 
 const { agentAs } = makeTestApp();
 
@@ -21,7 +21,7 @@ async function world(role: Role): Promise<World> {
   await post(author, `/api/plans/${review.id}/revisions/1/submit`).expect(200);
   const approved = await createPlan(author, model.id);
   await post(author, `/api/plans/${approved.id}/revisions/1/submit`).expect(200);
-  await post(other, `/api/plans/${approved.id}/revisions/1/decisions`, { decision: "approve" }).expect(200);
+  await decide(other, `/api/plans/${approved.id}/revisions/1/decisions`, { decision: "approve" }).expect(200);
   return { me, planId: draft.id, draft: `/api/plans/${draft.id}/revisions/1`, inReview: `/api/plans/${review.id}/revisions/1`, approvedPlan: approved.id };
 }
 
@@ -44,7 +44,7 @@ const CASES: Case[] = [
   ["PUT draft", (w) => put(w.me, w.draft, { version: 1, notes: "x" }), ["researcher"], 200],
   ["POST submit", (w) => post(w.me, `${w.draft}/submit`), ["researcher"], 200],
   ["POST withdraw", (w) => post(w.me, `${w.inReview}/withdraw`), ["researcher"], 200],
-  ["POST decisions", (w) => post(w.me, `${w.inReview}/decisions`, { decision: "approve" }), ["approver"], 200],
+  ["POST decisions", (w) => decide(w.me, `${w.inReview}/decisions`, { decision: "approve" }), ["approver"], 200],
   ["POST new revision", (w) => post(w.me, `/api/plans/${w.approvedPlan}/revisions`), ["researcher"], 201],
   ["GET verify", (w) => w.me.get(`${w.draft}/verify`), all, 200],
   ["GET diff", (w) => w.me.get(`/api/plans/${w.planId}/revisions/1/diff/1`), all, 200],

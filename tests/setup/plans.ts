@@ -29,3 +29,18 @@ export async function createPlan(researcher: Agent, modelId: number, over: Recor
 
 export const post = (a: Agent, url: string, body: object = {}) => a.post(url).set("X-CSRF-Token", a.csrf).send(body);
 export const put = (a: Agent, url: string, body: object = {}) => a.put(url).set("X-CSRF-Token", a.csrf).send(body);
+
+/**
+ * Posts a decision the way the review dialog does: it reads the revision first and sends the content hash it shows.
+ * `decisionsUrl` is `/api/plans/:id/revisions/:n/decisions`. Like supertest, `.expect(status)` checks the answer.
+ */
+export function decide(a: Agent, decisionsUrl: string, body: { decision: string; comment?: string }) {
+  const sent = a.get(decisionsUrl.replace(/\/decisions$/, "")).then((rev) =>
+    post(a, decisionsUrl, { contentHash: typeof rev.body.contentHash === "string" ? rev.body.contentHash : "0".repeat(64), ...body }));
+  const expectStatus = async (status: number) => {
+    const r = await sent;
+    if (r.status !== status) throw new Error(`expected ${status}, got ${r.status} ${JSON.stringify(r.body)}`);
+    return r;
+  };
+  return Object.assign(sent, { expect: expectStatus });
+}

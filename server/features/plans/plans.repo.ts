@@ -44,6 +44,13 @@ export const decisionsOf = (ex: Executor, revisionIds: number[]) =>
         .where(sql`${planDecisions.revisionId} IN ${revisionIds}`).orderBy(asc(planDecisions.at), asc(planDecisions.id))
     : Promise.resolve([]);
 
+/** A revision of the plan sent back for changes on exactly this content, if any (the latest such). */
+export const sentBackWithHash = async (ex: Executor, planId: number, hash: string) =>
+  (await ex.select({ number: planRevisions.number, round: planDecisions.round }).from(planDecisions)
+    .innerJoin(planRevisions, eq(planRevisions.id, planDecisions.revisionId))
+    .where(and(eq(planRevisions.planId, planId), eq(planDecisions.decision, "request_changes"), eq(planDecisions.signedHash, hash)))
+    .orderBy(desc(planDecisions.at)).limit(1))[0];
+
 export async function insertDecision(ex: Executor, v: typeof planDecisions.$inferInsert) {
   const [row] = await ex.insert(planDecisions).values(v).returning();
   return row;

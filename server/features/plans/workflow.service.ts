@@ -1,5 +1,5 @@
 import type { AppDeps } from "../../deps";
-import { Conflict, Forbidden } from "../../http/errors";
+import { Conflict, Forbidden, HttpError } from "../../http/errors";
 import { hasRole } from "../../http/auth";
 import { recordAudit } from "../audit/audit.repo";
 import type { SessionUser } from "../../../shared/schemas";
@@ -21,8 +21,16 @@ export async function submit(deps: AppDeps, actor: SessionUser, planId: number, 
     // The budget is frozen at submission with the catalog as it is now; the hash covers it.
     let content = rev.content as RevisionContent;
     if (content.budget) content = await makeContent(tx, content.model, revisionValues(content));
+    const contentHash = hashContent(content);
+    const sentBack = await repo.sentBackWithHash(tx, planId, contentHash);
+    if (sentBack) {
+      throw new Conflict(
+        `nothing changed since revision ${sentBack.number} was sent back for changes (round ${sentBack.round}, content ${contentHash.slice(0, 12)}…); change what was asked for before submitting again`,
+        { contentHash: "same as the content sent back" },
+      );
+    }
     const row = await repo.updateRevision(tx, rev.id, {
-      state: "in_review", round: rev.round + 1, submittedAt: new Date(), content, contentHash: hashContent(content),
+      state: "in_review", round: rev.round + 1, submittedAt: new Date(), content, contentHash,
     });
     await repo.touchPlan(tx, planId);
     await recordAudit(tx, { actorId: actor.id, action: "revision.submitted", subjectType: "plan", subjectId: planId, detail: { revision: n, hash: row.contentHash, round: row.round } });
@@ -50,7 +58,8 @@ export async function withdraw(deps: AppDeps, actor: SessionUser, planId: number
  * the state change and superseding the earlier approval happen at once, so concurrent decisions cannot overshoot.
  */
 export async function decide(
-  deps: AppDeps, actor: SessionUser, planId: number, n: number, input: { decision: "approve" | "request_changes"; comment: string },
+  deps: AppDeps, actor: SessionUser, planId: number, n: number,
+  input: { decision: "approve" | "request_changes"; comment: string; contentHash: string },
 ) {
   if (!hasRole(actor, "approver")) throw new Forbidden("only approvers decide");
   return deps.db.transaction(async (tx) => {
@@ -58,6 +67,12 @@ export async function decide(
     const rev = await mustRevision(tx, planId, n, true);
     if (rev.authorId === actor.id) throw new Forbidden("nobody decides on a revision they authored");
     if (rev.state !== "in_review") throw wrongState(n, rev.state, "in_review");
+    // The approver signs what they read; content changed since (withdraw, edit, resubmit) is not what they saw.
+    if (input.contentHash !== rev.contentHash) {
+      throw new HttpError(409, "hash_mismatch",
+        `revision ${n} changed since you read it: you saw ${input.contentHash.slice(0, 12)}…, it is now ${rev.contentHash.slice(0, 12)}…; reopen it and read it again`,
+        { contentHash: `current is ${rev.contentHash}` });
+    }
     const already = (await repo.decisionsOf(tx, [rev.id])).some((d) => d.d.round === rev.round && d.d.approverId === actor.id);
     if (already) throw new Conflict("you already decided on this revision", { decision: "already recorded" });
     await repo.insertDecision(tx, { revisionId: rev.id, round: rev.round, approverId: actor.id, decision: input.decision, comment: input.comment, signedHash: rev.contentHash });

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { makeTestApp } from "../../setup/app";
 import { testDb } from "../../setup/db";
-import { createPlan, createProfile, post, put } from "../../setup/plans";
+import { createPlan, createProfile, decide, post, put } from "../../setup/plans";
 
 const { agentAs } = makeTestApp();
 const q = (sql: string, args: unknown[]) => testDb().pool.query(sql, args);
@@ -19,7 +19,7 @@ describe("concurrent transitions", () => {
     for (let trial = 0; trial < 3; trial++) {
       const { plan, base } = await submitted(1);
       const [a, b] = [await agentAs(["approver"]), await agentAs(["approver"])];
-      const results = await Promise.all([post(a, `${base}/decisions`, { decision: "approve" }), post(b, `${base}/decisions`, { decision: "approve" })]);
+      const results = await Promise.all([decide(a, `${base}/decisions`, { decision: "approve" }), decide(b, `${base}/decisions`, { decision: "approve" })]);
       expect(results.map((r) => r.status).sort()).toEqual([200, 409]);
       const rows = await q("SELECT count(*)::int AS n FROM plan_decisions d JOIN plan_revisions r ON r.id = d.revision_id WHERE r.plan_id = $1", [plan.id]);
       expect(rows.rows[0].n).toBe(1);
@@ -45,7 +45,7 @@ describe("concurrent transitions", () => {
     for (let trial = 0; trial < 4; trial++) {
       const { researcher, plan, base } = await submitted(1);
       const ap = await agentAs(["approver"]);
-      const [w, d] = await Promise.all([post(researcher, `${base}/withdraw`), post(ap, `${base}/decisions`, { decision: "approve" })]);
+      const [w, d] = await Promise.all([post(researcher, `${base}/withdraw`), decide(ap, `${base}/decisions`, { decision: "approve" })]);
       const state = (await q("SELECT state, round FROM plan_revisions WHERE plan_id = $1", [plan.id])).rows[0];
       const decisions = (await q("SELECT count(*)::int AS n FROM plan_decisions d JOIN plan_revisions r ON r.id = d.revision_id WHERE r.plan_id = $1", [plan.id])).rows[0].n;
       if (w.status === 200) {
@@ -66,7 +66,7 @@ describe("integrity", () => {
   it("content tampered in the database → verify reports it and export refuses", async () => {
     const { plan, base } = await submitted(1);
     const ap = await agentAs(["approver"]);
-    await post(ap, `${base}/decisions`, { decision: "approve" }).expect(200);
+    await decide(ap, `${base}/decisions`, { decision: "approve" }).expect(200);
     const ok = await ap.get(`${base}/verify`).expect(200);
     expect(ok.body.ok).toBe(true);
     await ap.get(`/api/plans/${plan.id}/approved/export`).expect(200);

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { makeTestApp } from "../../setup/app";
-import { createPlan, createProfile, post, put } from "../../setup/plans";
+import { createPlan, createProfile, decide, post, put } from "../../setup/plans";
 
 const { agentAs } = makeTestApp();
 
@@ -19,9 +19,9 @@ describe("plan lifecycle", () => {
     expect(rev.body.content.model.name).toBe(model.name);
 
     await post(researcher, `${base}/submit`).expect(200);
-    const d1 = await post(ap1, `${base}/decisions`, { decision: "approve", comment: "bands look right" }).expect(200);
+    const d1 = await decide(ap1, `${base}/decisions`, { decision: "approve", comment: "bands look right" }).expect(200);
     expect(d1.body).toMatchObject({ state: "in_review", approvals: 1 });
-    const d2 = await post(ap2, `${base}/decisions`, { decision: "approve", comment: "" }).expect(200);
+    const d2 = await decide(ap2, `${base}/decisions`, { decision: "approve", comment: "" }).expect(200);
     expect(d2.body).toMatchObject({ state: "approved", approvals: 2 });
 
     const detail = await researcher.get(`/api/plans/${plan.id}`).expect(200);
@@ -37,8 +37,8 @@ describe("plan lifecycle", () => {
     const edited = await put(researcher, `/api/plans/${plan.id}/revisions/2`, { version: 1, method: { method: "linear" } }).expect(200);
     expect(edited.body.version).toBe(2);
     await post(researcher, `/api/plans/${plan.id}/revisions/2/submit`).expect(200);
-    await post(ap1, `/api/plans/${plan.id}/revisions/2/decisions`, { decision: "approve" }).expect(200);
-    await post(ap2, `/api/plans/${plan.id}/revisions/2/decisions`, { decision: "approve" }).expect(200);
+    await decide(ap1, `/api/plans/${plan.id}/revisions/2/decisions`, { decision: "approve" }).expect(200);
+    await decide(ap2, `/api/plans/${plan.id}/revisions/2/decisions`, { decision: "approve" }).expect(200);
     const after = await researcher.get(`/api/plans/${plan.id}`).expect(200);
     expect(after.body.revisions.map((r: { state: string }) => r.state)).toEqual(["superseded", "approved"]);
     const exp2 = await researcher.get(`/api/plans/${plan.id}/approved/export`).expect(200);

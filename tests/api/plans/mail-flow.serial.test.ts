@@ -3,7 +3,7 @@ import net from "node:net";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { makeTestApp } from "../../setup/app";
 import { testDb } from "../../setup/db";
-import { createPlan, createProfile, post } from "../../setup/plans";
+import { createPlan, createProfile, decide, post } from "../../setup/plans";
 import { deliverDueMail } from "../../../server/mail/outbox";
 import { startMailSink, type MailSink } from "../../../server/mail/sink";
 
@@ -52,10 +52,10 @@ describe("plan workflow mail through the local SMTP sink", () => {
     expect(review.filter((m) => m.text.includes(`/plans/${plan.id}`))).toHaveLength(1);
 
     // Changes requested → author; then a new revision approved → author and infra.
-    await post(approver, `${base}/decisions`, { decision: "request_changes", comment: "raise stage 1 batch" }).expect(200);
+    await decide(approver, `${base}/decisions`, { decision: "request_changes", comment: "raise stage 1 batch" }).expect(200);
     await post(researcher, `/api/plans/${plan.id}/revisions`).expect(201);
     await post(researcher, `/api/plans/${plan.id}/revisions/2/submit`).expect(200);
-    await post(approver, `/api/plans/${plan.id}/revisions/2/decisions`, { decision: "approve" }).expect(200);
+    await decide(approver, `/api/plans/${plan.id}/revisions/2/decisions`, { decision: "approve" }).expect(200);
     await deliverDueMail(app.deps, { limit: 5000 });
     const toAuthor = (await received(researcher.user!.email, "")).filter((m) => m.text.includes(`/plans/${plan.id}`));
     expect(toAuthor).toHaveLength(2);

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { makeTestApp } from "../../setup/app";
-import { createProfile, post, put } from "../../setup/plans";
+import { createProfile, decide, post, put } from "../../setup/plans";
 
 const { agentAs } = makeTestApp();
 
@@ -19,7 +19,7 @@ describe("lab-wide approvals minimum", () => {
       const approver = await agentAs(["approver"]);
       const queue = await approver.get("/api/plans/review-queue").expect(200);
       expect(queue.body.items.find((i: { planId: number }) => i.planId === early.body.id).requiredApprovals).toBe(2);
-      const first = await post(approver, `/api/plans/${early.body.id}/revisions/1/decisions`, { decision: "approve" }).expect(200);
+      const first = await decide(approver, `/api/plans/${early.body.id}/revisions/1/decisions`, { decision: "approve" }).expect(200);
       expect(first.body.state).toBe("in_review");
       const low = await post(researcher, "/api/plans", { title: "t", modelId: model.id, requiredApprovals: 1, revision: { targetContext: 8192, method: { method: "linear" } } });
       expect(low.status).toBe(400);

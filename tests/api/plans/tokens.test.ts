@@ -2,7 +2,7 @@ import request from "supertest";
 import { describe, expect, it } from "vitest";
 import { makeTestApp } from "../../setup/app";
 import { testDb } from "../../setup/db";
-import { createPlan, createProfile, post } from "../../setup/plans";
+import { createPlan, createProfile, decide, post } from "../../setup/plans";
 
 const { app, agentAs } = makeTestApp();
 
@@ -12,7 +12,7 @@ async function approvedPlan() {
   const plan = await createPlan(researcher, model.id);
   await post(researcher, `/api/plans/${plan.id}/revisions/1/submit`).expect(200);
   const ap = await agentAs(["approver"]);
-  await post(ap, `/api/plans/${plan.id}/revisions/1/decisions`, { decision: "approve" }).expect(200);
+  await decide(ap, `/api/plans/${plan.id}/revisions/1/decisions`, { decision: "approve" }).expect(200);
   return plan;
 }
 

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { makeTestApp } from "../../setup/app";
 import { testDb } from "../../setup/db";
-import { createPlan, createProfile, post, put } from "../../setup/plans";
+import { createPlan, createProfile, decide, post, put } from "../../setup/plans";
 
 const { agentAs } = makeTestApp();
 
@@ -24,7 +24,7 @@ describe("sign-off rules", () => {
     const infra = await agentAs(["infra"]);
     expect((await post(infra, `${base}/submit`)).status).toBe(403);
     const approver = await agentAs(["approver"]);
-    const early = await post(approver, `${base}/decisions`, { decision: "approve" });
+    const early = await decide(approver, `${base}/decisions`, { decision: "approve" });
     expect(early.status).toBe(409);
     expect(early.body.error.message).toContain("draft");
     await post(researcher, `${base}/submit`).expect(200);
@@ -33,7 +33,7 @@ describe("sign-off rules", () => {
     expect(again.body.error.fields.state).toBe("in_review");
     for (const role of ["researcher", "infra", "viewer", "admin"] as const) {
       const a = await agentAs([role]);
-      expect((await post(a, `${base}/decisions`, { decision: "approve" })).status).toBe(403);
+      expect((await decide(a, `${base}/decisions`, { decision: "approve" })).status).toBe(403);
     }
   });
 
@@ -43,11 +43,11 @@ describe("sign-off rules", () => {
     const plan = await createPlan(author, model.id, { requiredApprovals: 2 });
     const base = `/api/plans/${plan.id}/revisions/1`;
     await post(author, `${base}/submit`).expect(200);
-    const self = await post(author, `${base}/decisions`, { decision: "approve" });
+    const self = await decide(author, `${base}/decisions`, { decision: "approve" });
     expect(self.status).toBe(403);
     const ap = await agentAs(["approver"]);
-    await post(ap, `${base}/decisions`, { decision: "approve" }).expect(200);
-    const twice = await post(ap, `${base}/decisions`, { decision: "approve" });
+    await decide(ap, `${base}/decisions`, { decision: "approve" }).expect(200);
+    const twice = await decide(ap, `${base}/decisions`, { decision: "approve" });
     expect(twice.status).toBe(409);
     const rows = await testDb().pool.query("SELECT count(*)::int AS n FROM plan_decisions d JOIN plan_revisions r ON r.id = d.revision_id WHERE r.plan_id = $1", [plan.id]);
     expect(rows.rows[0].n).toBe(1);
@@ -56,11 +56,11 @@ describe("sign-off rules", () => {
   it("changes requested ends the revision; the author starts a new draft from it", async () => {
     const { researcher, plan, base } = await submittedPlan(2);
     const ap = await agentAs(["approver"]);
-    const r = await post(ap, `${base}/decisions`, { decision: "request_changes", comment: "stage 2 batch too small" }).expect(200);
+    const r = await decide(ap, `${base}/decisions`, { decision: "request_changes", comment: "stage 2 batch too small" }).expect(200);
     expect(r.body.state).toBe("changes_requested");
     expect((await put(researcher, base, { version: 1, notes: "late edit" })).status).toBe(409);
     const ap2 = await agentAs(["approver"]);
-    expect((await post(ap2, `${base}/decisions`, { decision: "approve" })).status).toBe(409);
+    expect((await decide(ap2, `${base}/decisions`, { decision: "approve" })).status).toBe(409);
     const r2 = await post(researcher, `/api/plans/${plan.id}/revisions`).expect(201);
     expect(r2.body.number).toBe(2);
     const rev2 = await researcher.get(`/api/plans/${plan.id}/revisions/2`).expect(200);
@@ -73,16 +73,16 @@ describe("sign-off rules", () => {
   it("withdraw returns a revision to draft; approvals of the closed round no longer count", async () => {
     const { researcher, plan, base } = await submittedPlan(2);
     const ap1 = await agentAs(["approver"]);
-    await post(ap1, `${base}/decisions`, { decision: "approve" }).expect(200);
+    await decide(ap1, `${base}/decisions`, { decision: "approve" }).expect(200);
     const w = await post(researcher, `${base}/withdraw`).expect(200);
     expect(w.body).toMatchObject({ state: "draft", version: 2 });
     await put(researcher, base, { version: 2, notes: "tightened acceptance" }).expect(200);
     await post(researcher, `${base}/submit`).expect(200);
     const ap2 = await agentAs(["approver"]);
-    const d = await post(ap2, `${base}/decisions`, { decision: "approve" }).expect(200);
+    const d = await decide(ap2, `${base}/decisions`, { decision: "approve" }).expect(200);
     expect(d.body).toMatchObject({ state: "in_review", approvals: 1 });
     // ap1 may decide again in the new round, on the new hash.
-    const d2 = await post(ap1, `${base}/decisions`, { decision: "approve" }).expect(200);
+    const d2 = await decide(ap1, `${base}/decisions`, { decision: "approve" }).expect(200);
     expect(d2.body.state).toBe("approved");
     const detail = await researcher.get(`/api/plans/${plan.id}`).expect(200);
     const decisions = detail.body.revisions[0].decisions;

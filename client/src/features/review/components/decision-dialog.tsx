@@ -11,7 +11,7 @@ import { useDecide } from "../api/decide";
 export type DecisionTarget = { planId: number; title: string; revision: number; contentHash: string; approvals: number; requiredApprovals: number };
 
 // Sending a revision back without saying why leaves its author guessing; the server allows it, this form does not.
-const decisionFormSchema = decisionRequestSchema.refine((d) => d.decision === "approve" || d.comment.trim().length > 0, {
+const decisionFormSchema = decisionRequestSchema.omit({ contentHash: true }).refine((d) => d.decision === "approve" || d.comment.trim().length > 0, {
   path: ["comment"],
   message: "say what should change",
 });
@@ -23,6 +23,8 @@ export function DecisionDialog({ target, onClose, onDecided }: DecisionDialogPro
   const ref = useRef<HTMLDialogElement>(null);
   const decide = useDecide();
   const [error, setError] = useState<string | null>(null);
+  // The hash shown when the dialog opened is the one signed, even if the page refreshes underneath.
+  const [shownHash] = useState(target.contentHash);
   const { register, handleSubmit, control, formState } = useForm({
     resolver: zodResolver(decisionFormSchema),
     defaultValues: { decision: "approve" as const, comment: "" },
@@ -38,11 +40,12 @@ export function DecisionDialog({ target, onClose, onDecided }: DecisionDialogPro
   const onSubmit = handleSubmit((body) => {
     setError(null);
     decide.mutate(
-      { planId: target.planId, n: target.revision, body },
+      { planId: target.planId, n: target.revision, body: { ...body, contentHash: shownHash } },
       {
         onSuccess: (r) => onDecided(r.state),
         onError: (e) => {
-          if (isApiError(e) && e.status === 409 && e.fields?.state) setError(`Not recorded: the revision is now ${e.fields.state.replace("_", " ")}. ${e.message}.`);
+          if (isApiError(e) && e.code === "hash_mismatch") setError(`Not recorded: the revision changed after you opened it, so the hash above is no longer its content. Close this, read the revision again and decide on what it says now.`);
+          else if (isApiError(e) && e.status === 409 && e.fields?.state) setError(`Not recorded: the revision is now ${e.fields.state.replace("_", " ")}. ${e.message}.`);
           else setError(isApiError(e) ? e.message : "Something went wrong. Try again.");
         },
       },
@@ -62,7 +65,7 @@ export function DecisionDialog({ target, onClose, onDecided }: DecisionDialogPro
         </h2>
         <div className="rounded-md border border-hemp/40 bg-hemp-pale/50 px-3 py-2">
           <p className="text-note font-semibold tracking-wide text-hemp-dark uppercase">You are signing this content hash</p>
-          <code className="block text-body break-all" data-testid="hash-to-sign">{target.contentHash}</code>
+          <code className="block text-body break-all" data-testid="hash-to-sign">{shownHash}</code>
           <p className="mt-1 text-note text-ink-soft">SHA-256 of the revision’s canonical content: every input, the engine’s figures and the budget sheet. Approvals so far: {target.approvals} of {target.requiredApprovals}.</p>
         </div>
         {error && <Notice tone="alert">{error}</Notice>}
