@@ -1,5 +1,6 @@
 import { z } from "zod";
 import path from "node:path";
+import { DEFAULT_DB_TIMEOUTS, type DbTimeouts } from "./db/client";
 
 const bool = z.enum(["true", "false", "1", "0"]).transform((v) => v === "true" || v === "1");
 
@@ -20,6 +21,8 @@ const envSchema = z.object({
   LOGIN_LIMIT_PER_ACCOUNT: z.coerce.number().int().positive().default(10),
   LOGIN_LIMIT_PER_ADDRESS: z.coerce.number().int().positive().default(100),
   LOGIN_WINDOW_MINUTES: z.coerce.number().positive().default(15),
+  DB_CONNECT_TIMEOUT_MS: z.coerce.number().int().min(100).max(600_000).default(DEFAULT_DB_TIMEOUTS.connectMs),
+  DB_STATEMENT_TIMEOUT_MS: z.coerce.number().int().min(100).max(3_600_000).default(DEFAULT_DB_TIMEOUTS.statementMs),
 });
 
 export interface Config {
@@ -39,6 +42,8 @@ export interface Config {
   clientDir: string;
   login: { perAccount: number; perAddress: number; windowMs: number };
   bcryptCost: number;
+  /** PostgreSQL connection and statement timeouts (DB_CONNECT_TIMEOUT_MS, DB_STATEMENT_TIMEOUT_MS). */
+  db: DbTimeouts;
 }
 
 /** Parses the environment once; a bad value stops the process with the variable named. */
@@ -74,6 +79,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
     // 12 is common practice for interactive sign-in (no source); 4 is the least bcrypt accepts (Provos & Mazières 1999,
     // cost = log2 of the key-expansion rounds). Tests sign in about a hundred times, so they use the least.
     bcryptCost: e.NODE_ENV === "test" ? 4 : 12,
+    db: { connectMs: e.DB_CONNECT_TIMEOUT_MS, statementMs: e.DB_STATEMENT_TIMEOUT_MS },
     ...overrides,
   };
 }
