@@ -1,0 +1,147 @@
+// PostgreSQL stopped and restarted under a running Ropewalk process. The test owns everything it touches:
+// its own cluster (free port, folders under <repo>/.tmp/, started with docker-free-db-scripts) and its own
+// server process (`node --import tsx server/index.ts`), so the shared test cluster is never disturbed.
+import { execFile, spawn, type ChildProcess } from "node:child_process";
+import { mkdirSync, mkdtempSync, rmSync } from "node:fs";
+import { createServer } from "node:net";
+import { dirname, join, resolve } from "node:path";
+import { fileURLToPath } from "node:url";
+import bcrypt from "bcryptjs";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { createDb } from "../../server/db/client";
+import { runMigrations } from "../../server/db/migrate";
+import { insertUser } from "../../server/features/users/users.repo";
+
+const repo = resolve(dirname(fileURLToPath(import.meta.url)), "../..");
+const LONG = 180_000;
+const PASSWORD = "outage-test-password";
+const EMAIL = "outage-admin@example.test";
+
+function script(name: string, args: string[], env: Record<string, string>) {
+  return new Promise<string>((done, fail) =>
+    execFile("bash", [join(repo, "docker-free-db-scripts", name), ...args], { env: { ...process.env, ...env } }, (err, stdout, stderr) =>
+      err ? fail(new Error(`${name} failed: ${stderr}`)) : done(stdout)));
+}
+
+async function freePort(): Promise<number> {
+  return new Promise((done, fail) => {
+    const s = createServer();
+    s.once("error", fail);
+    s.listen(0, "127.0.0.1", () => {
+      const addr = s.address();
+      s.close(() => done(typeof addr === "object" && addr ? addr.port : 0));
+    });
+  });
+}
+
+const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
+
+describe("PostgreSQL stops and returns under a running app", { timeout: LONG }, () => {
+  let tmp = "";
+  let env: Record<string, string> = {};
+  let base = "";
+  let server: ChildProcess | undefined;
+  let log = "";
+  let cookie = "";
+
+  const call = async (path: string, init: RequestInit = {}) => {
+    const started = performance.now();
+    const r = await fetch(base + path, { ...init, headers: { cookie, ...init.headers }, signal: AbortSignal.timeout(30_000) });
+    const body = r.headers.get("content-type")?.includes("json") ? await r.json() : await r.text();
+    return { status: r.status, body, ms: performance.now() - started, headers: r.headers };
+  };
+  /** Polls `path` until it answers `status`; returns the time it took and the slowest single answer. */
+  const until = async (path: string, status: number, limitMs = 60_000) => {
+    const t0 = performance.now();
+    let slowest = 0;
+    for (;;) {
+      const r = await call(path);
+      slowest = Math.max(slowest, r.ms);
+      if (r.status === status) return { afterMs: performance.now() - t0, slowest, last: r };
+      if (performance.now() - t0 > limitMs) throw new Error(`${path} never answered ${status}; last ${r.status} ${JSON.stringify(r.body)}`);
+      await sleep(100);
+    }
+  };
+
+  beforeAll(async () => {
+    mkdirSync(join(repo, ".tmp"), { recursive: true });
+    tmp = mkdtempSync(join(repo, ".tmp", "db-outage-"));
+    env = { PGPORT: String(await freePort()), RW_PGDATA: join(tmp, "data"), RW_PGRUN: join(tmp, "run") };
+    const out = await script("start.sh", ["rw_outage"], env);
+    const url = /DATABASE_URL=(\S+)/.exec(out)![1];
+    const { pool, db } = createDb(url, 1);
+    await runMigrations(db);
+    // A low bcrypt cost is enough here: this test is about the database, not about password hashing.
+    await insertUser(db, { email: EMAIL, name: "Outage Admin", roles: ["admin"], passwordHash: await bcrypt.hash(PASSWORD, 4) });
+    await pool.end();
+
+    const port = await freePort();
+    base = `http://127.0.0.1:${port}`;
+    server = spawn(process.execPath, ["--import", "tsx", join(repo, "server/index.ts")], {
+      cwd: repo,
+      env: {
+        ...process.env, NODE_ENV: "test", DATABASE_URL: url, HOST: "127.0.0.1", PORT: String(port), PUBLIC_URL: base,
+        CLIENT_DIR: join(tmp, "no-client"), SMTP_URL: "smtp://127.0.0.1:9", DB_CONNECT_TIMEOUT_MS: "2000", DB_STATEMENT_TIMEOUT_MS: "3000",
+      },
+      stdio: ["ignore", "pipe", "pipe"],
+    });
+    server.stdout!.on("data", (c) => (log += c));
+    server.stderr!.on("data", (c) => (log += c));
+    for (let i = 0; ; i++) {
+      if (server.exitCode !== null) throw new Error(`server exited at start:\n${log}`);
+      const up = await fetch(`${base}/api/health`).then((r) => r.status === 200, () => false);
+      if (up) break;
+      if (i > 600) throw new Error(`server did not start:\n${log}`);
+      await sleep(100);
+    }
+    const anon = await fetch(`${base}/api/auth/session`);
+    cookie = (anon.headers.get("set-cookie") ?? "").split(";")[0];
+    const { csrfToken } = (await anon.json()) as { csrfToken: string };
+    const login = await fetch(`${base}/api/auth/login`, {
+      method: "POST",
+      headers: { cookie, origin: base, "content-type": "application/json", "x-csrf-token": csrfToken },
+      body: JSON.stringify({ email: EMAIL, password: PASSWORD }),
+    });
+    expect(login.status).toBe(200);
+    cookie = (login.headers.get("set-cookie") ?? "").split(";")[0];
+  }, LONG);
+
+  afterAll(async () => {
+    if (server && server.exitCode === null) {
+      const exited = new Promise((r) => server!.once("exit", r));
+      server.kill("SIGTERM");
+      await exited;
+    }
+    if (tmp) {
+      await script("stop.sh", [], env).catch(() => undefined);
+      rmSync(tmp, { recursive: true, force: true });
+    }
+  }, LONG);
+
+  it("answers 503 while it is down, stays alive, and recovers without a restart", async () => {
+    expect((await call("/api/users")).status).toBe(200);
+
+    await script("stop.sh", [], env);
+    const down = await until("/api/health", 503);
+    expect(down.last.body).toEqual({ ok: false, db: "down" });
+    expect(down.slowest).toBeLessThan(5000); // the issue's requirement: health answers 503 within 5 s
+
+    const users = await call("/api/users");
+    expect(users.status).toBe(503);
+    expect(users.body.error.code).toBe("database_unavailable");
+    expect(users.headers.get("retry-after")).toBe("5");
+    const models = await call("/api/models");
+    expect([models.status, models.body.error?.code]).toEqual([503, "database_unavailable"]);
+    expect(server!.exitCode).toBeNull();
+
+    await script("start.sh", ["rw_outage"], env);
+    const back = await until("/api/health", 200);
+    const again = await call("/api/users");
+    expect(again.status).toBe(200); // same session: it was stored in the database and survives the outage
+    expect(server!.exitCode).toBeNull();
+    // Connection internals (the cancel key, the client object) never reach the log.
+    expect(log).not.toMatch(/secretKey|processID|_ending/);
+    console.log(`[db outage] health 503 after ${Math.round(down.afterMs)} ms (slowest answer ${Math.round(down.slowest)} ms); ` +
+      `back to 200 ${Math.round(back.afterMs)} ms after PostgreSQL was started again`);
+  });
+});
