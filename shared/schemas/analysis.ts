@@ -1,26 +1,18 @@
 import { z } from "zod";
+import { EXPORT_ROPE_TYPES, METHOD_IDS, METHOD_SCHEMAS, METHODS_NEEDING_EXTENSION, type MethodId } from "../methods";
+import { lengthSchema, MAX_HEAD_DIM, positive } from "../methods/params";
 
 /**
  * Contract of POST /api/analyses: which rotary scaling methods to compare on one model.
- * The engine (server/engine) and the client forms both use these schemas.
+ * The engine (server/engine) and the client forms both use these schemas; each method's own member,
+ * names and defaults live in its catalog entry (shared/methods/catalog.ts).
  */
 
-export const METHOD_IDS = ["default", "linear", "ntk", "dynamic", "yarn", "llama3", "longrope", "base"] as const;
+export { METHOD_IDS, METHODS_NEEDING_EXTENSION, type MethodId };
 export const methodIdSchema = z.enum(METHOD_IDS);
-export type MethodId = z.infer<typeof methodIdSchema>;
 
-/** Methods whose factor defaults to targetContext / trainedContext and that only make sense when it exceeds 1. */
-export const METHODS_NEEDING_EXTENSION: readonly MethodId[] = ["linear", "ntk", "dynamic", "yarn", "llama3"];
-
-export const MAX_LENGTH = 2 ** 31;
+export { MAX_LENGTH, lengthSchema } from "../methods/params";
 export const MAX_METHODS = 16;
-const MAX_HEAD_DIM = 8192;
-
-/** A token count: whole, positive, at most 2^31. zod's number() already refuses NaN and ±Infinity. */
-export const lengthSchema = z.number().int("must be a whole number of tokens").positive().max(MAX_LENGTH, "at most 2^31 tokens");
-const positive = z.number().positive().max(1e12);
-const factorSchema = z.number().min(1, "factor must be at least 1").max(MAX_LENGTH).optional();
-const factorListSchema = z.array(z.number().positive("every factor must be positive").max(1e12)).min(1).max(MAX_HEAD_DIM / 2);
 
 export const modelShapeSchema = z.strictObject({
   headDim: z.number().int().positive().max(MAX_HEAD_DIM),
@@ -43,44 +35,8 @@ export function rotaryDimension(model: Pick<ModelShape, "headDim" | "partialRota
   return d;
 }
 
-/** Cross-field rule "a > b" on two optional parameters with defaults; the issue names the field the caller set. */
-function ordered(hiName: string, loName: string, hiDefault: number, loDefault: number) {
-  return (v: Record<string, unknown>, ctx: z.RefinementCtx) => {
-    const hi = (v[hiName] as number | undefined) ?? hiDefault;
-    const lo = (v[loName] as number | undefined) ?? loDefault;
-    if (!(hi > lo)) {
-      const path = v[hiName] !== undefined ? hiName : loName;
-      ctx.addIssue({ code: "custom", path: [path], message: `${hiName} (${hi}) must exceed ${loName} (${lo})` });
-    }
-  };
-}
-
-/** One member per method: the validation table. Optional fields get their defaults in the engine. */
-export const methodParamsSchema = z.discriminatedUnion("method", [
-  z.strictObject({ method: z.literal("default") }),
-  z.strictObject({ method: z.literal("linear"), factor: factorSchema }),
-  z.strictObject({ method: z.literal("ntk"), factor: factorSchema }),
-  z.strictObject({ method: z.literal("dynamic"), factor: factorSchema, sequenceLength: lengthSchema.optional() }),
-  z.strictObject({
-    method: z.literal("yarn"),
-    factor: factorSchema,
-    betaFast: positive.optional(),
-    betaSlow: positive.optional(),
-    truncate: z.boolean().optional(),
-    attentionFactor: positive.optional(),
-    // 0 is accepted because configs carry it; like the loaders, the engine treats 0 as "not set".
-    mscale: z.number().min(0).max(1e6).optional(),
-    mscaleAllDim: z.number().min(0).max(1e6).optional(),
-  }).superRefine(ordered("betaFast", "betaSlow", 32, 1)),
-  z.strictObject({
-    method: z.literal("llama3"),
-    factor: factorSchema,
-    lowFreqFactor: positive.optional(),
-    highFreqFactor: positive.optional(),
-  }).superRefine(ordered("highFreqFactor", "lowFreqFactor", 4, 1)),
-  z.strictObject({ method: z.literal("longrope"), longFactor: factorListSchema, shortFactor: factorListSchema }),
-  z.strictObject({ method: z.literal("base"), base: z.number().gt(1, "the base must exceed 1").max(1e15) }),
-]);
+/** One member per method (the catalog entries' schemas): the validation table. Optional fields get their defaults in the engine. */
+export const methodParamsSchema = z.discriminatedUnion("method", METHOD_SCHEMAS);
 export type MethodParams = z.infer<typeof methodParamsSchema>;
 export type ParamsOf<K extends MethodId> = Extract<MethodParams, { method: K }>;
 
@@ -179,7 +135,7 @@ export type PairResult = z.infer<typeof pairResultSchema>;
 
 /** `rope_scaling` in the open model-configuration convention (snake_case keys, as loaders read them). */
 export const ropeScalingBlockSchema = z.object({
-  rope_type: z.enum(["linear", "dynamic", "yarn", "llama3", "longrope"]),
+  rope_type: z.enum(EXPORT_ROPE_TYPES),
   factor: num,
   original_max_position_embeddings: z.number().int(),
   beta_fast: num.optional(),

@@ -9,7 +9,10 @@ import { llama3Method } from "./llama3";
 import { longropeMethod } from "./longrope";
 import { baseMethod } from "./base";
 
-/** The table of rotary methods, keyed by id; adding a method = one file here + one union member in the schema. */
+/**
+ * The formulas, keyed by method id. The mapped type makes a catalog entry (shared/methods/catalog.ts) without
+ * its function here, or a function taking another method's parameters, a type error.
+ */
 export const METHODS = {
   default: defaultMethod,
   linear: linearMethod,

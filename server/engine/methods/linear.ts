@@ -1,5 +1,6 @@
 import type { MethodFn } from "../types";
 import { inverseFrequencies } from "../frequencies";
+import { METHOD_CATALOG } from "../../../shared/methods";
 import { patchWithScaling, resolveFactor } from "./common";
 
 /** Position interpolation (Chen et al. 2023): every θ_i divided by s, a = 1. */
@@ -9,7 +10,7 @@ export const linearMethod: MethodFn<"linear"> = (ctx, params) => {
     invFreq: inverseFrequencies(ctx.d, ctx.base).map((t) => t / factor),
     attentionFactor: 1,
     params: { method: "linear", factor },
-    ropeScaling: patchWithScaling(ctx, { rope_type: "linear", factor }),
+    ropeScaling: patchWithScaling(ctx, { rope_type: METHOD_CATALOG.linear.exportType, factor }),
     effectiveBase: null,
     notes: [],
   };

@@ -1,8 +1,9 @@
 import type { MethodFn } from "../types";
 import { inverseFrequencies, wavelength } from "../frequencies";
 import { patchWithScaling, resolveFactor } from "./common";
+import { LLAMA3_DEFAULTS, METHOD_CATALOG } from "../../../shared/methods";
 
-export const LLAMA3_DEFAULTS = { lowFreqFactor: 1, highFreqFactor: 4 } as const;
+export { LLAMA3_DEFAULTS };
 
 /**
  * Band-smoothed scaling published with the Llama 3.1 models (Meta, 2024). λ_low = L/lowFreqFactor,
@@ -27,7 +28,7 @@ export const llama3Method: MethodFn<"llama3"> = (ctx, params) => {
     invFreq,
     attentionFactor: 1,
     params: { method: "llama3", factor, lowFreqFactor, highFreqFactor },
-    ropeScaling: patchWithScaling(ctx, { rope_type: "llama3", factor, low_freq_factor: lowFreqFactor, high_freq_factor: highFreqFactor }),
+    ropeScaling: patchWithScaling(ctx, { rope_type: METHOD_CATALOG.llama3.exportType, factor, low_freq_factor: lowFreqFactor, high_freq_factor: highFreqFactor }),
     effectiveBase: null,
     notes: [],
   };

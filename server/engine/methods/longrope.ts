@@ -1,5 +1,6 @@
 import type { MethodFn } from "../types";
 import { inverseFrequencies } from "../frequencies";
+import { METHOD_CATALOG } from "../../../shared/methods";
 import { contextRatio, patchWithScaling } from "./common";
 
 /** a = sqrt(1 + ln s / ln L) for s > 1, else 1 (Ding et al. 2024, LongRoPE). */
@@ -15,7 +16,7 @@ export const longropeMethod: MethodFn<"longrope"> = (ctx, params) => {
     invFreq,
     attentionFactor: longropeAttentionFactor(s, ctx.trainedContext),
     params: { method: "longrope", longFactor: params.longFactor, shortFactor: params.shortFactor },
-    ropeScaling: patchWithScaling(ctx, { rope_type: "longrope", factor: s, long_factor: params.longFactor, short_factor: params.shortFactor }),
+    ropeScaling: patchWithScaling(ctx, { rope_type: METHOD_CATALOG.longrope.exportType, factor: s, long_factor: params.longFactor, short_factor: params.shortFactor }),
     effectiveBase: null,
     notes: [
       `using the ${extended ? "long" : "short"} factors for the whole target window`,

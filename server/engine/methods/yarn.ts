@@ -1,12 +1,11 @@
 import type { RopeScalingBlock } from "../../../shared/schemas/analysis";
+import { METHOD_CATALOG, YARN_DEFAULTS, yarnMscale } from "../../../shared/methods";
 import type { MethodFn } from "../types";
 import { inverseFrequencies } from "../frequencies";
 import { factorMismatchNote, patchWithScaling, resolveFactor } from "./common";
 
-export const YARN_DEFAULTS = { betaFast: 32, betaSlow: 1, truncate: true } as const;
-
-/** Eq. 22 of Peng et al. 2023: g(s, m) = 0.1·m·ln s + 1 for s > 1, else 1. */
-export const yarnMscale = (s: number, m = 1) => (s <= 1 ? 1 : 0.1 * m * Math.log(s) + 1);
+/** Defaults and g(s, m) (Peng et al. 2023, Eq. 22) live in the catalog so the forms show the same numbers. */
+export { YARN_DEFAULTS, yarnMscale };
 
 /**
  * Attention factor: explicit wins; else both mscale and mscaleAllDim (non-zero, as loaders test them) give
@@ -53,7 +52,7 @@ export const yarnMethod: MethodFn<"yarn"> = (ctx, params) => {
   });
   const attentionFactor = yarnAttentionFactor(factor, params);
 
-  const block: Omit<RopeScalingBlock, "original_max_position_embeddings"> = { rope_type: "yarn", factor, beta_fast: betaFast, beta_slow: betaSlow };
+  const block: Omit<RopeScalingBlock, "original_max_position_embeddings"> = { rope_type: METHOD_CATALOG.yarn.exportType, factor, beta_fast: betaFast, beta_slow: betaSlow };
   if (!truncate) block.truncate = false;
   if (params.attentionFactor !== undefined) block.attention_factor = params.attentionFactor;
   if (params.mscale !== undefined) block.mscale = params.mscale;

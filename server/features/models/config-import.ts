@@ -3,6 +3,7 @@
  * Pure: no I/O. The warnings follow the "what practitioners get wrong" list of the domain notes.
  */
 import type { CurrentScaling, ImportPreviewProfile, ImportWarning } from "../../../shared/schemas";
+import { COMMON_SCALING_KEYS, methodForRopeType } from "../../../shared/methods";
 import { ropeScalingKnownKeys, suggestKey } from "./rope-scaling-keys";
 import { scalingWarnings } from "./scaling-warnings";
 import { isObj, num, type Json, type Warn } from "./config-values";
@@ -17,11 +18,8 @@ export class ConfigImportError extends Error {
 
 const DTYPE_BYTES: Record<string, number> = { bfloat16: 2, float16: 2, float32: 4, float8_e4m3fn: 1, int8: 1 };
 
-/** Our method ids for the convention's rope_type values. */
-const TYPE_TO_METHOD: Record<string, string> = {
-  default: "default", linear: "linear", dynamic: "dynamic", yarn: "yarn", longrope: "longrope", llama3: "llama3",
-  su: "longrope", // older name of the per-dimension factors
-};
+/** rope_scaling keys that place the method rather than parametrise it: left out of the imported parameters. */
+const NOT_PARAMETERS: readonly string[] = COMMON_SCALING_KEYS.filter((k) => k !== "factor");
 
 const camel = (k: string) => k.replace(/_([a-z])/g, (_m, c: string) => c.toUpperCase());
 
@@ -100,6 +98,7 @@ export function parseModelConfig(text: string, fileName = "config.json"): { prof
     const type = String(rs.rope_type ?? rs.type ?? "default");
     const original = num(rs.original_max_position_embeddings) ?? num(cfg.original_max_position_embeddings);
     if (original !== undefined) trainedContext = original;
+    const method = methodForRopeType(type)?.id;
     const known = ropeScalingKnownKeys(type);
     for (const key of Object.keys(rs)) {
       if (known && !known.includes(key)) {
@@ -109,12 +108,12 @@ export function parseModelConfig(text: string, fileName = "config.json"): { prof
       }
     }
     if (!known) warn("unknown_rope_type", `rope_type "${type}" is not one Ropewalk knows.`, "Analyse with one of the known methods and compare.");
-    scalingWarnings(type, rs, maxPos, original, warn);
+    scalingWarnings(method, type, rs, maxPos, original, warn);
     const params: Record<string, unknown> = {};
     for (const [k, v] of Object.entries(rs)) {
-      if (!["rope_type", "type", "original_max_position_embeddings", "rope_theta", "partial_rotary_factor"].includes(k)) params[camel(k)] = v;
+      if (!NOT_PARAMETERS.includes(k)) params[camel(k)] = v;
     }
-    currentScaling = { method: TYPE_TO_METHOD[type] ?? type, params, raw: rs };
+    currentScaling = { method: method ?? type, params, raw: rs };
   }
   const dtype = String(cfg.torch_dtype ?? cfg.dtype ?? "");
   const name = String(cfg._name_or_path ?? "").split("/").pop() || fileName.replace(/\.json$/i, "");

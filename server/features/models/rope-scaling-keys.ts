@@ -1,16 +1,14 @@
-/** Keys each rope_type of the open model-configuration convention reads (from memory of the common loaders). */
-const COMMON = ["rope_type", "type", "factor", "original_max_position_embeddings", "rope_theta", "partial_rotary_factor"];
-const BY_TYPE: Record<string, string[]> = {
-  default: COMMON,
-  linear: COMMON,
-  dynamic: COMMON,
-  yarn: [...COMMON, "attention_factor", "beta_fast", "beta_slow", "mscale", "mscale_all_dim", "truncate"],
-  longrope: [...COMMON, "attention_factor", "long_factor", "short_factor", "long_mscale", "short_mscale"],
-  su: [...COMMON, "attention_factor", "long_factor", "short_factor", "long_mscale", "short_mscale"],
-  llama3: [...COMMON, "low_freq_factor", "high_freq_factor"],
-};
+import { COMMON_SCALING_KEYS, methodForRopeType } from "../../../shared/methods";
 
-export const ropeScalingKnownKeys = (type: string): string[] | undefined => BY_TYPE[type];
+/**
+ * The rope_scaling keys loaders read for a rope_type (current or older spelling), from the method catalog where
+ * their source is cited; undefined for a rope_type no method answers to. The look-up is a Map, so names such as
+ * "constructor" or "__proto__" are simply unknown.
+ */
+export function ropeScalingKnownKeys(type: string): string[] | undefined {
+  const entry = methodForRopeType(type);
+  return entry && [...COMMON_SCALING_KEYS, ...entry.configKeys];
+}
 
 function editDistance(a: string, b: string) {
   const row = Array.from({ length: b.length + 1 }, (_, j) => j);

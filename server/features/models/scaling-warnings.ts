@@ -1,9 +1,15 @@
+import type { MethodId } from "../../../shared/methods";
 import { num, type Warn } from "./config-values";
 
-/** Warnings about an existing rope_scaling block: lengths, factor, cache consistency, attention temperature. */
-export function scalingWarnings(type: string, rs: Record<string, unknown>, maxPos: number, original: number | undefined, warn: Warn) {
+/**
+ * Warnings about an existing rope_scaling block: lengths, factor, cache consistency, attention temperature.
+ * `method` is the catalog's reading of `type` (undefined for a rope_type no method answers to).
+ */
+export function scalingWarnings(
+  method: MethodId | undefined, type: string, rs: Record<string, unknown>, maxPos: number, original: number | undefined, warn: Warn,
+) {
   const factor = num(rs.factor);
-  if (original === undefined && type !== "default") {
+  if (original === undefined && method !== "default") {
     warn("missing_original_length",
       `rope_scaling (${type}) is present but original_max_position_embeddings is missing, so max_position_embeddings (${maxPos}) may already be the extended length.`,
       factor
@@ -21,11 +27,11 @@ export function scalingWarnings(type: string, rs: Record<string, unknown>, maxPo
         "Decide which length is true: the factor sets the frequencies, max_position_embeddings only the advertised limit. Make them agree before export.");
     }
   }
-  if (type === "dynamic") {
+  if (method === "dynamic") {
     warn("dynamic_kv_cache", "Dynamic scaling changes the base as the sequence grows; keys already in the KV cache were rotated with an older base.",
       "Serve with the cache recomputed when the base changes, or pick a static method for cached generation.");
   }
-  if ((type === "longrope" || type === "su") && Array.isArray(rs.long_factor) && Array.isArray(rs.short_factor)) {
+  if (method === "longrope" && Array.isArray(rs.long_factor) && Array.isArray(rs.short_factor)) {
     warn("factor_switching", "Per-dimension factors switch from short to long once a sequence passes the original length; keys cached before the switch were rotated with the other set.",
       "Re-rotate or recompute the cache at the switch, or serve with the long factors only.");
   }
@@ -34,7 +40,7 @@ export function scalingWarnings(type: string, rs: Record<string, unknown>, maxPo
   if (hasExplicit && hasMscale) {
     warn("attention_factor_twice", "Both attention_factor and mscale / mscale_all_dim are set: two sources for the same temperature.",
       "Keep one. Apply the attention factor once — to cos/sin (logits scale by its square) — and not again in the softmax scale.");
-  } else if (type === "yarn" && num(rs.mscale) !== undefined && num(rs.mscale) === num(rs.mscale_all_dim)) {
+  } else if (method === "yarn" && num(rs.mscale) !== undefined && num(rs.mscale) === num(rs.mscale_all_dim)) {
     warn("attention_factor_cancels", "mscale equals mscale_all_dim, so the YaRN attention factor cancels to 1: the temperature is applied to neither cos/sin nor the softmax.",
       "If the model was tuned with a temperature, check where your attention code applies it.");
   }

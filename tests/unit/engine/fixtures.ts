@@ -1,30 +1,14 @@
 import type { MethodId, ParamsOf } from "../../../shared/schemas/analysis";
+import { METHOD_CATALOG, METHOD_IDS } from "../../../shared/methods";
 import type { MethodContext } from "../../../server/engine";
 
 /** A Llama-2-like shape (d = 128, b = 10 000, L = 4096) extended 8×. */
 export const CTX: MethodContext = { d: 128, base: 10_000, trainedContext: 4096, targetContext: 32_768 };
 
-/** One sample per method id; the mapped type makes a new method without a sample a type error. */
-export const SAMPLE: { [K in MethodId]: ParamsOf<K> } = {
-  default: { method: "default" },
-  linear: { method: "linear" },
-  ntk: { method: "ntk" },
-  dynamic: { method: "dynamic" },
-  yarn: { method: "yarn" },
-  llama3: { method: "llama3" },
-  longrope: {
-    method: "longrope",
-    longFactor: Array.from({ length: 64 }, (_, i) => 1 + (7 * i) / 63),
-    shortFactor: Array.from({ length: 64 }, () => 1),
-  },
-  base: { method: "base", base: 500_000 },
-};
+type Samples = { [K in MethodId]: ParamsOf<K> };
 
-export const samplesFor = (d: number): { [K in MethodId]: ParamsOf<K> } => ({
-  ...SAMPLE,
-  longrope: {
-    method: "longrope",
-    longFactor: Array.from({ length: d / 2 }, (_, i) => 1 + (7 * i) / Math.max(1, d / 2 - 1)),
-    shortFactor: Array.from({ length: d / 2 }, () => 1),
-  },
-});
+/** One sample per method, the catalog entry's example for d/2 pairs: a new entry brings its sample with it. */
+export const samplesFor = (d: number): Samples =>
+  Object.fromEntries(METHOD_IDS.map((id) => [id, METHOD_CATALOG[id].example(d / 2)])) as Samples;
+
+export const SAMPLE: Samples = samplesFor(CTX.d);
