@@ -18,9 +18,11 @@ const envSchema = z.object({
   PUBLIC_URL: z.string().optional(),
   CLIENT_DIR: z.string().optional(),
   TRUST_PROXY: bool.optional(),
-  LOGIN_LIMIT_PER_ACCOUNT: z.coerce.number().int().positive().default(10),
+  LOGIN_LIMIT_PER_ACCOUNT_ADDRESS: z.coerce.number().int().positive().default(10),
   LOGIN_LIMIT_PER_ADDRESS: z.coerce.number().int().positive().default(100),
   LOGIN_WINDOW_MINUTES: z.coerce.number().positive().default(15),
+  LOGIN_LIMIT_PER_ACCOUNT: z.coerce.number().int().positive().default(50),
+  LOGIN_ACCOUNT_WINDOW_MINUTES: z.coerce.number().positive().default(60),
   DB_CONNECT_TIMEOUT_MS: z.coerce.number().int().min(100).max(600_000).default(DEFAULT_DB_TIMEOUTS.connectMs),
   DB_STATEMENT_TIMEOUT_MS: z.coerce.number().int().min(100).max(3_600_000).default(DEFAULT_DB_TIMEOUTS.statementMs),
 });
@@ -40,7 +42,11 @@ export interface Config {
   mailRetryBaseMs: number;
   publicUrl: string;
   clientDir: string;
-  login: { perAccount: number; perAddress: number; windowMs: number };
+  /**
+   * Failed sign-ins allowed per window: per account+address (tight), per address, and per account across all
+   * addresses (a higher ceiling over a longer window, so strangers cannot lock the owner out quickly).
+   */
+  login: { perAccountAddress: number; perAddress: number; windowMs: number; perAccount: number; accountWindowMs: number };
   bcryptCost: number;
   /** PostgreSQL connection and statement timeouts (DB_CONNECT_TIMEOUT_MS, DB_STATEMENT_TIMEOUT_MS). */
   db: DbTimeouts;
@@ -72,9 +78,11 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
     publicUrl: e.PUBLIC_URL ?? `http://${e.HOST}:${e.PORT}`,
     clientDir: path.resolve(e.CLIENT_DIR ?? "dist/client"),
     login: {
-      perAccount: e.LOGIN_LIMIT_PER_ACCOUNT,
+      perAccountAddress: e.LOGIN_LIMIT_PER_ACCOUNT_ADDRESS,
       perAddress: e.LOGIN_LIMIT_PER_ADDRESS,
       windowMs: e.LOGIN_WINDOW_MINUTES * 60_000,
+      perAccount: e.LOGIN_LIMIT_PER_ACCOUNT,
+      accountWindowMs: e.LOGIN_ACCOUNT_WINDOW_MINUTES * 60_000,
     },
     // 12 is common practice for interactive sign-in (no source); 4 is the least bcrypt accepts (Provos & Mazières 1999,
     // cost = log2 of the key-expansion rounds). Tests sign in about a hundred times, so they use the least.

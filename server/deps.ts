@@ -1,4 +1,5 @@
 import type pg from "pg";
+import type { Store } from "express-rate-limit";
 import type { Db } from "./db/client";
 import type { Config } from "./config";
 
@@ -7,4 +8,6 @@ export interface AppDeps {
   config: Config;
   pool: pg.Pool;
   db: Db;
+  /** Shared store for the sign-in limiters (one per limiter name); unset = in-process memory. */
+  limiterStore?: (name: string) => Store | undefined;
 }

@@ -13,8 +13,14 @@ const SAFE = new Set(["GET", "HEAD"]);
  */
 export function bearerAuth(deps: AppDeps) {
   return async (req: Request, res: Response, next: NextFunction) => {
-    const m = /^Bearer\s+(\S+)$/i.exec(req.get("authorization") ?? "");
-    if (!m) return next();
+    const header = req.get("authorization");
+    if (header === undefined || !/^Bearer\b/i.test(header)) return next();
+    // A header that claims a token but is malformed ("Bearer a b", "Bearer") is refused outright, never ignored:
+    // ignoring it used to leave a cookie-authenticated request that skipped the CSRF check.
+    const m = /^Bearer +([A-Za-z0-9_\-.~+/]+=*) *$/i.exec(header);
+    if (!m) {
+      return next(new HttpError(401, "unauthorized", "the Authorization header is malformed", { authorization: "expected \"Bearer <token>\"" }));
+    }
     const userId = await userIdForToken(deps, m[1]);
     const row = userId ? await findUserById(deps.db, userId) : undefined;
     if (!row || !row.active) return next(new Unauthorized("the API token is unknown, revoked or its owner is deactivated"));

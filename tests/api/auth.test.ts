@@ -60,8 +60,8 @@ describe("sign-in and sessions", () => {
     expect(wrong.status).toBe(403);
   });
 
-  it("rate-limits sign-in per account (429)", async () => {
-    const limited = makeTestApp({ login: { perAccount: 3, perAddress: 1000, windowMs: 60_000 } });
+  it("rate-limits sign-in per account and address (429)", async () => {
+    const limited = makeTestApp({ login: { perAccountAddress: 3, perAddress: 1000, windowMs: 60_000, perAccount: 1000, accountWindowMs: 60_000 } });
     const user = await createTestUser(["viewer"]);
     const a = await limited.agent();
     const statuses: number[] = [];
@@ -76,7 +76,7 @@ describe("sign-in and sessions", () => {
   });
 
   it("rate-limits sign-in per address across accounts (429)", async () => {
-    const limited = makeTestApp({ login: { perAccount: 1000, perAddress: 2, windowMs: 60_000 } });
+    const limited = makeTestApp({ login: { perAccountAddress: 1000, perAddress: 2, windowMs: 60_000, perAccount: 1000, accountWindowMs: 60_000 } });
     const a = await limited.agent();
     const codes = [];
     for (const email of ["a1@example.test", "a2@example.test", "a3@example.test"]) {

@@ -1,43 +1,34 @@
-import { Router, type Request } from "express";
-import { rateLimit, ipKeyGenerator } from "express-rate-limit";
+import { Router } from "express";
 import type { AppDeps } from "../../deps";
-import { HttpError } from "../../http/errors";
 import { currentUser, optionalUser, requireAuth } from "../../http/auth";
 import { parseBody } from "../../http/validate";
 import { destroySession, newCsrfToken, regenerate, saveSession, SESSION_COOKIE } from "../../http/session";
 import { changePasswordRequestSchema, loginRequestSchema } from "../../../shared/schemas";
 import { changePassword } from "../users/users.service";
 import { recordSignOut, verifyCredentials } from "./auth.service";
-
-const tooMany = () => new HttpError(429, "rate_limited", "too many sign-in attempts; wait a few minutes and try again");
-
-function loginLimiters(deps: AppDeps) {
-  const { perAccount, perAddress, windowMs } = deps.config.login;
-  const common = {
-    windowMs,
-    standardHeaders: "draft-8" as const,
-    legacyHeaders: false,
-    skipSuccessfulRequests: true,
-    handler: (_req: Request, _res: unknown, next: (e: unknown) => void) => next(tooMany()),
-  };
-  const byAddress = rateLimit({ ...common, limit: perAddress, keyGenerator: (req) => `ip:${ipKeyGenerator(req.ip ?? "")}` });
-  const byAccount = rateLimit({
-    ...common,
-    limit: perAccount,
-    keyGenerator: (req) => `acct:${String(req.body?.email ?? "").trim().toLowerCase()}`,
-  });
-  return [byAddress, byAccount];
-}
+import { loginLimiters, passwordChangeLimiter } from "./auth.limits";
+import { clearCookieToken, issueCookieToken } from "../../http/csrf-cookie";
 
 export function authRouter(deps: AppDeps) {
   const r = Router();
+  const secure = deps.config.cookieSecure;
+  // Answers carry CSRF tokens and user details: no browser or proxy cache may keep them.
+  r.use((_req, res, next) => {
+    res.set("Cache-Control", "no-store");
+    next();
+  });
 
+  // Signed in: the session's synchronizer token. Anonymous: a signed cookie token, so no session row is stored.
   r.get("/session", async (req, res) => {
-    if (!req.session.csrfToken) {
-      req.session.csrfToken = newCsrfToken();
-      await saveSession(req);
+    const user = optionalUser(res) ?? null;
+    if (user && req.session.userId) {
+      if (!req.session.csrfToken) {
+        req.session.csrfToken = newCsrfToken();
+        await saveSession(req);
+      }
+      return res.json({ user, csrfToken: req.session.csrfToken });
     }
-    res.json({ user: optionalUser(res) ?? null, csrfToken: req.session.csrfToken });
+    res.json({ user: null, csrfToken: issueCookieToken(req, res, secure) });
   });
 
   r.post("/login", ...loginLimiters(deps), async (req, res) => {
@@ -48,6 +39,7 @@ export function authRouter(deps: AppDeps) {
     req.session.userId = user.id;
     req.session.csrfToken = newCsrfToken();
     await saveSession(req);
+    clearCookieToken(res, secure);
     res.json({ user, csrfToken: req.session.csrfToken });
   });
 
@@ -55,13 +47,21 @@ export function authRouter(deps: AppDeps) {
     const user = optionalUser(res);
     await destroySession(req);
     if (user) await recordSignOut(deps, user.id);
-    res.clearCookie(SESSION_COOKIE, { httpOnly: true, sameSite: "lax", secure: deps.config.cookieSecure });
+    res.clearCookie(SESSION_COOKIE, { httpOnly: true, sameSite: "lax", secure });
     res.status(204).end();
   });
 
-  r.post("/password", requireAuth, async (req, res) => {
+  r.post("/password", requireAuth, passwordChangeLimiter(deps), async (req, res) => {
     const input = parseBody(changePasswordRequestSchema, req);
-    await changePassword(deps, currentUser(res), req.sessionID, input);
+    const user = currentUser(res);
+    await changePassword(deps, user, input);
+    // Every stored session of the user was ended; this one continues under a new id (a copied cookie is now
+    // worthless) and keeps its CSRF token, so the page that changed the password goes on working.
+    const csrfToken = req.session.csrfToken;
+    await regenerate(req);
+    req.session.userId = user.id;
+    req.session.csrfToken = csrfToken;
+    await saveSession(req);
     res.status(204).end();
   });
 

@@ -8,6 +8,11 @@ import { createToken, listTokens, revokeToken } from "./tokens.service";
 export function tokensRouter(deps: AppDeps) {
   const r = Router();
   r.use(requireAuth);
+  // A created token's secret appears in exactly one answer; nothing may cache it.
+  r.use((_req, res, next) => {
+    res.set("Cache-Control", "no-store");
+    next();
+  });
   r.get("/", async (_req, res) => {
     res.json({ tokens: await listTokens(deps, currentUser(res)) });
   });

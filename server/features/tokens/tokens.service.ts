@@ -1,6 +1,7 @@
 import crypto from "node:crypto";
 import { and, desc, eq, isNull, sql } from "drizzle-orm";
 import type { AppDeps } from "../../deps";
+import type { Executor } from "../../db/client";
 import { apiTokens } from "../../db/schema";
 import { NotFound } from "../../http/errors";
 import { recordAudit } from "../audit/audit.repo";
@@ -44,4 +45,14 @@ export async function userIdForToken(deps: AppDeps, secret: string) {
   await deps.db.update(apiTokens).set({ lastUsedAt: new Date() })
     .where(and(eq(apiTokens.id, row.id), sql`(${apiTokens.lastUsedAt} IS NULL OR ${apiTokens.lastUsedAt} < now() - interval '1 minute')`));
   return row.userId;
+}
+
+/**
+ * Revokes every live token of a user (password change, deactivation). Revoked stays revoked: reactivating the
+ * account does not bring a token back. Returns how many were revoked, for the caller's audit entry.
+ */
+export async function revokeAllTokensOfUser(ex: Executor, userId: number) {
+  const rows = await ex.update(apiTokens).set({ revokedAt: new Date() })
+    .where(and(eq(apiTokens.userId, userId), isNull(apiTokens.revokedAt))).returning({ id: apiTokens.id });
+  return rows.length;
 }

@@ -5,6 +5,7 @@ import { recordAudit } from "../audit/audit.repo";
 import * as repo from "./users.repo";
 import type { CreateUserRequest, Role, SessionUser, UpdateUserRequest, User } from "../../../shared/schemas";
 import { isUniqueViolation } from "../../db/errors";
+import { revokeAllTokensOfUser } from "../tokens/tokens.service";
 
 export function toUser(row: repo.UserRow): User {
   return {
@@ -67,8 +68,12 @@ export async function updateUser(deps: AppDeps, actor: SessionUser, id: number, 
       });
     }
     const row = await repo.updateUser(tx, id, input);
-    if (input.active === false) await repo.deleteSessionsOfUser(tx, id);
     const changes: Record<string, unknown> = {};
+    if (input.active === false) {
+      await repo.deleteSessionsOfUser(tx, id);
+      // For good: a token must not come back to life when the account is reactivated.
+      changes.tokensRevoked = await revokeAllTokensOfUser(tx, id);
+    }
     if (input.roles) changes.roles = { from: before.roles, to: row.roles };
     if (input.active !== undefined && input.active !== before.active) changes.active = { from: before.active, to: row.active };
     if (input.name && input.name !== before.name) changes.name = { from: before.name, to: row.name };
@@ -78,12 +83,8 @@ export async function updateUser(deps: AppDeps, actor: SessionUser, id: number, 
   });
 }
 
-export async function changePassword(
-  deps: AppDeps,
-  actor: SessionUser,
-  currentSid: string,
-  input: { currentPassword: string; newPassword: string },
-) {
+/** Ends every stored session and revokes every API token of the user; the router re-issues the caller's session. */
+export async function changePassword(deps: AppDeps, actor: SessionUser, input: { currentPassword: string; newPassword: string }) {
   const row = await repo.findUserById(deps.db, actor.id);
   if (!row || !(await bcrypt.compare(input.currentPassword, row.passwordHash))) {
     throw new Invalid("the current password is wrong", { currentPassword: "does not match" });
@@ -94,8 +95,8 @@ export async function changePassword(
   const passwordHash = await bcrypt.hash(input.newPassword, deps.config.bcryptCost);
   await deps.db.transaction(async (tx) => {
     await repo.updateUser(tx, actor.id, { passwordHash });
-    // Other sessions of this user end; the one that changed the password stays.
-    await repo.deleteSessionsOfUser(tx, actor.id, currentSid);
-    await recordAudit(tx, { actorId: actor.id, action: "user.password_changed", subjectType: "user", subjectId: actor.id });
+    await repo.deleteSessionsOfUser(tx, actor.id);
+    const tokensRevoked = await revokeAllTokensOfUser(tx, actor.id);
+    await recordAudit(tx, { actorId: actor.id, action: "user.password_changed", subjectType: "user", subjectId: actor.id, detail: { tokensRevoked } });
   });
 }
