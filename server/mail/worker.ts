@@ -1,6 +1,16 @@
 import type { AppDeps } from "../deps";
 import { DEFAULT_BATCH, deliverDueMail } from "./outbox";
 
+/** Where the worker schedules its runs; tests pass a hand-driven one and step the worker tick by tick. */
+export interface WorkerClock {
+  setTimeout(run: () => void, ms: number): { unref(): unknown };
+  clearTimeout(handle: { unref(): unknown } | undefined): void;
+}
+const realClock: WorkerClock = {
+  setTimeout: (run, ms) => setTimeout(run, ms),
+  clearTimeout: (handle) => clearTimeout(handle as NodeJS.Timeout | undefined),
+};
+
 export interface OutboxWorker {
   /** Stops polling and waits for a delivery in progress to finish. */
   stop(): Promise<void>;
@@ -10,9 +20,9 @@ export interface OutboxWorker {
  * Polls the outbox every intervalMs. Runs never overlap (the next one is scheduled when the last ends);
  * a full batch sent without failures is followed at once by the next. Errors are logged, never thrown.
  */
-export function startOutboxWorker(deps: Pick<AppDeps, "db" | "config">, intervalMs = 1000): OutboxWorker {
+export function startOutboxWorker(deps: Pick<AppDeps, "db" | "config">, intervalMs = 1000, clock = realClock): OutboxWorker {
   let stopped = false;
-  let timer: NodeJS.Timeout | undefined;
+  let timer: { unref(): unknown } | undefined;
   let running: Promise<void> | undefined;
   // Log state changes only, so a mail server that stays down does not fill the log every second.
   let lastProblem = "";
@@ -38,7 +48,7 @@ export function startOutboxWorker(deps: Pick<AppDeps, "db" | "config">, interval
 
   const schedule = (ms: number) => {
     if (stopped) return;
-    timer = setTimeout(() => {
+    timer = clock.setTimeout(() => {
       running = tick().then((more) => {
         running = undefined;
         schedule(more ? 0 : intervalMs);
@@ -51,7 +61,7 @@ export function startOutboxWorker(deps: Pick<AppDeps, "db" | "config">, interval
   return {
     async stop() {
       stopped = true;
-      clearTimeout(timer);
+      clock.clearTimeout(timer);
       await running;
     },
   };

@@ -7,7 +7,7 @@ import { makeTestApp } from "../setup/app";
 import { testDb } from "../setup/db";
 import { deliverDueMail, enqueueMail, outboxMessageId } from "../../server/mail/outbox";
 import { startMailSink, type MailSink } from "../../server/mail/sink";
-import { startOutboxWorker } from "../../server/mail/worker";
+import { startOutboxWorker, type WorkerClock } from "../../server/mail/worker";
 import { approvedMail, changesRequestedMail, planReadyMail, reviewRequestedMail } from "../../server/mail/messages";
 import type { AppDeps } from "../../server/deps";
 
@@ -145,20 +145,49 @@ describe("outbox delivery through the local sink", () => {
   });
 });
 
+/** Holds the worker's next scheduled run; `step()` runs it and resolves once the worker has scheduled the one after. */
+function handClock() {
+  let next: (() => void) | undefined;
+  let rescheduled: (() => void) | undefined;
+  const clock: WorkerClock = {
+    setTimeout(run) {
+      next = run;
+      rescheduled?.();
+      return { unref: () => undefined };
+    },
+    clearTimeout() {
+      next = undefined;
+    },
+  };
+  const step = () => new Promise<void>((resolve) => {
+    const run = next;
+    if (!run) throw new Error("the worker has no run scheduled");
+    next = undefined;
+    rescheduled = resolve;
+    run();
+  });
+  return { clock, step, pending: () => next !== undefined };
+}
+
 describe("outbox worker and missing SMTP", () => {
   it("the worker delivers on its own, and after stop() it sends nothing more", async () => {
     const { kind, to } = tagged();
     await drain(); // other files' queued mail would otherwise stand before this test's row
-    const worker = startOutboxWorker(app.deps, 50);
+    const hand = handClock();
+    const worker = startOutboxWorker(app.deps, 50, hand.clock);
     try {
+      expect(hand.pending()).toBe(true); // the first run is scheduled at start
       await enqueueMail(db, { kind, to: [to[0]], subject: "by the worker", body: "x" });
-      for (let i = 0; i < 100 && (await sinkFor(to[0])).length === 0; i++) await new Promise((r) => setTimeout(r, 50));
+      // each step is one whole delivery run (other files' mail may share the outbox, so allow a few)
+      for (let i = 0; i < 5 && (await sinkFor(to[0])).length === 0; i++) await hand.step();
       expect(await sinkFor(to[0])).toHaveLength(1);
+      expect(hand.pending()).toBe(true); // and it keeps polling
     } finally {
       await worker.stop();
     }
+    // stop() cancelled the next run and schedules none: no run can ever send what comes after
+    expect(hand.pending()).toBe(false);
     await enqueueMail(db, { kind, to: [to[1]], subject: "after stop", body: "x" });
-    await new Promise((r) => setTimeout(r, 300));
     expect(await sinkFor(to[1])).toHaveLength(0);
     expect((await outboxRows(kind)).map((r) => r.status)).toEqual(["sent", "pending"]);
   });

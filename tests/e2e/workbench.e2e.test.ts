@@ -9,10 +9,6 @@ import { createTestUser, type TestUser } from "../setup/users";
 import { makeTestApp } from "../setup/app";
 import { createPlan, createProfile } from "../setup/plans";
 import { activeBoundSearches } from "../../server/features/bounds/bounds.service";
-import { createEventParser, type ServerEvent } from "../../client/src/features/workbench/api/server-events";
-import { inputsToParams, parseInputs } from "../../client/src/features/workbench/state/url-codec";
-import { toRequest } from "../../client/src/features/workbench/state/to-request";
-import type { WorkbenchInputs } from "../../client/src/features/workbench/state/inputs";
 
 const fixturePath = path.resolve(import.meta.dirname, "../fixtures/configs/every-warning.json");
 
@@ -295,52 +291,4 @@ describe("profiles and bounds in a browser", () => {
     await search.getByRole("button", { name: "Search again" }).waitFor();
     await context.close();
   }, 60_000);
-});
-
-// Pure pieces of the workbench, checked without a browser.
-describe("workbench state", () => {
-  it("URL params round-trip the inputs, half-typed values included", () => {
-    const inputs: WorkbenchInputs = {
-      model: { kind: "shape", headDim: "128", ropeTheta: "10000", trainedContext: "40", partialRotaryFactor: "" },
-      target: "32768",
-      alpha: "",
-      beta: "16",
-      methods: [
-        { method: "yarn", params: { betaFast: "24", truncate: "false" } },
-        { method: "longrope", params: { longFactor: "1, 2, 3" } },
-      ],
-      view: 1,
-      flaggedOnly: true,
-    };
-    expect(parseInputs(new URLSearchParams(inputsToParams(inputs).toString()))).toEqual(inputs);
-    // A mangled methods param falls back to the defaults instead of breaking the page.
-    expect(parseInputs(new URLSearchParams("methods=%5B%5B%22bogus%22%5D%5D")).methods.map((m) => m.method)).toEqual(["linear", "yarn"]);
-  });
-
-  it("turns typed inputs into the shared analysis contract, naming each bad field like the API does", () => {
-    const base: WorkbenchInputs = {
-      model: { kind: "shape", headDim: "128", ropeTheta: "10000", trainedContext: "4096", partialRotaryFactor: "" },
-      target: "32768", alpha: "", beta: "", methods: [{ method: "yarn", params: { factor: "8" } }], view: 0, flaggedOnly: false,
-    };
-    expect(toRequest(base, null).request).toEqual({
-      model: { headDim: 128, ropeTheta: 10000, trainedContext: 4096 }, targetContext: 32768, methods: [{ method: "yarn", factor: 8 }],
-    });
-    const bad = toRequest({ ...base, target: "2048", methods: [{ method: "yarn", params: { factor: "x" } }] }, null);
-    expect(bad.request).toBeNull();
-    expect(bad.errors["methods.0.factor"]).toBe("enter a number");
-    const short = toRequest({ ...base, target: "2048" }, null);
-    expect(Object.keys(short.errors)).toEqual(["targetContext"]);
-  });
-
-  it("reads server-sent events split anywhere across chunks", () => {
-    const seen: ServerEvent[] = [];
-    const parser = createEventParser((e) => seen.push(e));
-    const text = 'event: progress\ndata: {"candidatesExamined":1,"total":9}\n\n: comment\nevent: result\r\ndata: {"a":\ndata: 1}\n\n';
-    for (let i = 0; i < text.length; i += 7) parser.push(text.slice(i, i + 7));
-    parser.end();
-    expect(seen).toEqual([
-      { event: "progress", data: '{"candidatesExamined":1,"total":9}' },
-      { event: "result", data: '{"a":\n1}' },
-    ]);
-  });
 });

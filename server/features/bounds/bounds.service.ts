@@ -1,3 +1,4 @@
+import { EventEmitter } from "node:events";
 import os from "node:os";
 import { Worker } from "node:worker_threads";
 import { HttpError } from "../../http/errors";
@@ -18,6 +19,8 @@ const WORKER_URL = new URL("./bounds.worker-boot.mjs", import.meta.url);
 let liveWorkers = 0;
 /** Workers spawned and not yet exited (tests use it to see that a cancelled search really stopped). */
 export const activeBoundSearches = () => liveWorkers;
+/** "start" once a search's worker thread exists, "exit" once it has exited: tests wait on these, never on the clock. */
+export const boundSearchEvents = new EventEmitter<{ start: []; exit: [] }>();
 
 // Searches beyond the worker limit wait their turn (a short queue) instead of failing at once.
 export const QUEUE_WAIT_MS = 15_000;
@@ -76,7 +79,11 @@ export async function runBaseBound(query: BaseBoundQuery, opts: SearchOptions = 
     releaseSlot();
     throw e;
   }
-  worker.once("exit", releaseSlot);
+  worker.once("exit", () => {
+    releaseSlot();
+    boundSearchEvents.emit("exit");
+  });
+  boundSearchEvents.emit("start");
 
   return new Promise((resolve, reject) => {
     let settled = false;
