@@ -145,12 +145,16 @@ describe("POST /api/bounds/base when the client goes away", () => {
   it("terminates the worker: the active-search count falls back to zero", async () => {
     const a = await agentAs(["viewer"]);
     // d = 8192 up to 2^31 over 10 000 grid candidates: left alone, it would hold its worker until SEARCH_TIMEOUT_MS.
+    const started = once(boundSearchEvents, "start");
     const req = post(a, { rotaryDim: 8192, targetContext: 2 ** 31, grid: { from: 1e3, to: 1e13, perDecade: 1000 } });
     req.end(() => undefined); // an aborted request never calls back
-    expect(await waitFor(() => activeBoundSearches() === 1, 20_000)).toBe(true);
+    await started;
+    expect(activeBoundSearches()).toBe(1);
+    const exited = once(boundSearchEvents, "exit");
     req.abort();
-    // Count-based: the worker is gone long before the search could finish or time out on its own.
-    expect(await waitFor(() => activeBoundSearches() === 0, 20_000)).toBe(true);
+    // The worker's own "exit" event: it is gone long before the search could finish or time out on its own.
+    await exited;
+    expect(activeBoundSearches()).toBe(0);
   }, 60_000);
 });
 
