@@ -1,6 +1,6 @@
 import type { NextFunction, Request, Response } from "express";
 import { ZodError } from "zod";
-import { HttpError } from "./errors";
+import { HttpError, TooManyRequests } from "./errors";
 import { issuesToFields } from "./validate";
 import { isDatabaseUnavailable } from "../db/errors";
 
@@ -13,6 +13,7 @@ export function errorMiddleware(err: unknown, req: Request, res: Response, _next
   const send = (status: number, code: string, message: string, fields?: Record<string, string>) =>
     res.status(status).json({ error: fields ? { code, message, fields } : { code, message } });
 
+  if (err instanceof TooManyRequests) res.set("Retry-After", String(err.retryAfterSeconds));
   if (err instanceof HttpError) return send(err.status, err.code, err.message, err.fields);
   if (err instanceof ZodError) {
     const fields = issuesToFields(err);

@@ -34,3 +34,13 @@ export class Conflict extends HttpError {
     super(409, "conflict", message, fields);
   }
 }
+/** 429 with a Retry-After header (seconds): the caller should wait before trying again. */
+export class TooManyRequests extends HttpError {
+  constructor(
+    message: string,
+    readonly retryAfterSeconds: number,
+    code = "too_many_requests",
+  ) {
+    super(429, code, message);
+  }
+}

@@ -11,11 +11,20 @@ import { lengthSchema, MAX_HEAD_DIM, positive } from "../methods/params";
 export { METHOD_IDS, METHODS_NEEDING_EXTENSION, type MethodId };
 export const methodIdSchema = z.enum(METHOD_IDS);
 
-export { MAX_LENGTH, lengthSchema } from "../methods/params";
-export const MAX_METHODS = 16;
+export { MAX_LENGTH, MAX_HEAD_DIM, MAX_FACTOR_LIST, lengthSchema } from "../methods/params";
+/**
+ * Request limits of POST /api/analyses, so one request cannot ask for tens of megabytes of pair tables:
+ * head dim at most MAX_HEAD_DIM (1024), longrope factor lists at most MAX_FACTOR_LIST (512) entries
+ * (both in shared/methods/params.ts), and at most 12 methods per request: one of each kind (8 today) with room
+ * for more, or several settings of a few. At these limits a response is about 2 MB (it was 20 MB at head dim
+ * 8192, 16 methods and 4096 factors); analyses above ANALYSIS_INLINE_WORK run off the event loop.
+ */
+export const MAX_METHODS = 12;
+/** Pairs × methods up to which an analysis is computed in the request itself (a few milliseconds). */
+export const ANALYSIS_INLINE_WORK = 512;
 
 export const modelShapeSchema = z.strictObject({
-  headDim: z.number().int().positive().max(MAX_HEAD_DIM),
+  headDim: z.number().int().positive().max(MAX_HEAD_DIM, `at most ${MAX_HEAD_DIM}`),
   ropeTheta: z.number().gt(1, "the base must exceed 1").max(1e15),
   trainedContext: lengthSchema,
   partialRotaryFactor: z.number().gt(0, "must be above 0").max(1, "must be at most 1").optional(),

@@ -1,7 +1,9 @@
 import { analyse } from "../../engine";
 import { Invalid } from "../../http/errors";
+import { analyseOffThread } from "./analyses.pool";
+import { takeHeavySlot } from "./analyses.limits";
 import {
-  modelDependentIssues, modelShapeSchema,
+  ANALYSIS_INLINE_WORK, modelDependentIssues, modelShapeSchema, rotaryDimension,
   type AnalysisRequest, type AnalysisResponse, type ModelShape,
 } from "../../../shared/schemas/analysis";
 
@@ -22,13 +24,33 @@ function toModelShape(stored: Partial<Record<keyof ModelShape, unknown>>): Model
   return parsed.data;
 }
 
-/** Stateless comparison: resolves { modelId }, applies the rules that need the model, runs the engine. */
-export async function analyseRequest(input: AnalysisRequest, resolveModel: ResolveModel): Promise<AnalysisResponse> {
+export interface AnalyseOptions {
+  /** Who asks: large analyses are capped per user. */
+  userId: number;
+  /** Aborted when the client goes away; a large analysis in a pool thread is then dropped. */
+  signal?: AbortSignal;
+}
+
+/** Rotary pairs × methods: what the engine's cost and the response size grow with. */
+export const analysisWork = (model: ModelShape, methods: number) => ((rotaryDimension(model) ?? 0) / 2) * methods;
+
+/**
+ * Stateless comparison: resolves { modelId }, applies the rules that need the model, runs the engine —
+ * in the request for small analyses, in a pool thread (at most HEAVY_ANALYSES_PER_USER at once per user) for large ones.
+ */
+export async function analyseRequest(input: AnalysisRequest, resolveModel: ResolveModel, opts: AnalyseOptions): Promise<AnalysisResponse> {
   const model = "modelId" in input.model ? toModelShape(await resolveModel(input.model.modelId)) : input.model;
   const issues = modelDependentIssues(model, input.targetContext, input.methods);
   if (issues.length) {
     const fields = Object.fromEntries(issues.map((i) => [i.path.join("."), i.message]));
     throw new Invalid(`invalid body: ${Object.keys(fields).join(", ")}`, fields);
   }
-  return analyse({ model, targetContext: input.targetContext, bands: input.bands, methods: input.methods });
+  const request = { model, targetContext: input.targetContext, bands: input.bands, methods: input.methods };
+  if (analysisWork(model, input.methods.length) <= ANALYSIS_INLINE_WORK) return analyse(request);
+  const release = takeHeavySlot(opts.userId);
+  try {
+    return await analyseOffThread(request, opts.signal);
+  } finally {
+    release();
+  }
 }
