@@ -31,7 +31,7 @@ export const SEED_STEPS: SeedStep[] = [
   seedPlans,
 ];
 
-async function seedUsers(db: Db) {
+async function seedUsers(db: Db, bcryptCost: number) {
   const people = new Map<string, number>();
   for (const u of DEMO_USERS) {
     const existing = await db.execute<{ id: number }>(sql`SELECT id FROM users WHERE email = ${u.email}`);
@@ -39,7 +39,7 @@ async function seedUsers(db: Db) {
       people.set(u.email, existing.rows[0].id);
       continue;
     }
-    const passwordHash = await bcrypt.hash(DEMO_PASSWORD, 12);
+    const passwordHash = await bcrypt.hash(DEMO_PASSWORD, bcryptCost);
     const [row] = await db.insert(users).values({ ...u, passwordHash }).onConflictDoNothing().returning();
     if (row) {
       people.set(u.email, row.id);
@@ -50,7 +50,7 @@ async function seedUsers(db: Db) {
 }
 
 export async function seedDemo(deps: AppDeps) {
-  const people = await seedUsers(deps.db);
+  const people = await seedUsers(deps.db, deps.config.bcryptCost);
   for (const step of SEED_STEPS) await step(deps, people);
 }
 

@@ -5,8 +5,14 @@ import { recordAudit } from "../audit/audit.repo";
 import { findUserByEmail } from "../users/users.repo";
 import { toSessionUser } from "../users/users.service";
 
-// Compared against when the e-mail is unknown, so both failures cost the same time.
-const DUMMY_HASH = bcrypt.hashSync("ropewalk-no-such-user", 12);
+// Compared against when the e-mail is unknown, so both failures cost the same time. Made once per process at the
+// configured cost (not at import, which every test worker and script would pay for at cost 12).
+const dummyHashes = new Map<number, Promise<string>>();
+function dummyHash(cost: number): Promise<string> {
+  let hash = dummyHashes.get(cost);
+  if (!hash) dummyHashes.set(cost, (hash = bcrypt.hash("ropewalk-no-such-user", cost)));
+  return hash;
+}
 
 export class InvalidCredentials extends HttpError {
   constructor() {
@@ -17,7 +23,7 @@ export class InvalidCredentials extends HttpError {
 /** Same answer for an unknown e-mail, a wrong password and a deactivated account. */
 export async function verifyCredentials(deps: AppDeps, email: string, password: string, address: string) {
   const row = await findUserByEmail(deps.db, email);
-  const ok = await bcrypt.compare(password, row?.passwordHash ?? DUMMY_HASH);
+  const ok = await bcrypt.compare(password, row?.passwordHash ?? (await dummyHash(deps.config.bcryptCost)));
   if (!row || !ok || !row.active) {
     await recordAudit(deps.db, {
       actorId: row?.id ?? null,
