@@ -21,6 +21,7 @@ import { boundsRouter } from "./features/bounds/bounds.router";
 import { openApiDocument } from "./openapi";
 import { acceleratorsRouter, budgetsRouter } from "./features/budgets/budgets.router";
 import { bearerAuth, unlessBearer } from "./http/bearer";
+import { rejectHostileInput } from "./http/hostile";
 
 export const JSON_LIMIT = "512kb";
 
@@ -47,6 +48,7 @@ export function createApp(deps: AppDeps) {
   api.use(unlessBearer(loadUser(deps)));
   api.use(csrfProtection(deps.config.publicUrl));
   api.use(express.json({ limit: JSON_LIMIT }));
+  api.use(rejectHostileInput);
   api.use("/auth", authRouter(deps));
   api.use("/users", usersRouter(deps));
   api.use("/models", modelsRouter(deps));

@@ -1,6 +1,7 @@
 import type { Request } from "express";
 import { z } from "zod";
 import { Invalid } from "./errors";
+import { assertNotHostile } from "./hostile";
 
 /** Turns zod issues into { "a.b.0": "message" } so every bad field is named. */
 export function issuesToFields(error: z.ZodError): Record<string, string> {
@@ -13,6 +14,8 @@ export function issuesToFields(error: z.ZodError): Record<string, string> {
 }
 
 export function parseOr400<S extends z.ZodType>(schema: S, value: unknown, what = "request"): z.infer<S> {
+  // NUL characters and runaway nesting are refused before zod (and then PostgreSQL) sees them.
+  assertNotHostile(value, what);
   const result = schema.safeParse(value);
   if (!result.success) {
     const fields = issuesToFields(result.error);

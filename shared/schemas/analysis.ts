@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { EXPORT_ROPE_TYPES, METHOD_IDS, METHOD_SCHEMAS, METHODS_NEEDING_EXTENSION, type MethodId } from "../methods";
 import { lengthSchema, MAX_HEAD_DIM, positive } from "../methods/params";
+import { dbIdSchema } from "./common";
 
 /**
  * Contract of POST /api/analyses: which rotary scaling methods to compare on one model.
@@ -34,7 +35,7 @@ export const modelShapeSchema = z.strictObject({
   hiddenSize: z.number().int().positive().max(1_000_000).optional(),
 });
 export type ModelShape = z.infer<typeof modelShapeSchema>;
-export const modelRefSchema = z.strictObject({ modelId: z.number().int().positive() });
+export const modelRefSchema = z.strictObject({ modelId: dbIdSchema });
 
 /** Rotary dimension d = headDim × partialRotaryFactor; null unless it is a positive even integer. */
 export function rotaryDimension(model: Pick<ModelShape, "headDim" | "partialRotaryFactor">): number | null {

@@ -1,10 +1,11 @@
 import { z } from "zod";
+import { dbIdParam, MAX_DB_ID } from "./common";
 
 export const auditQuerySchema = z.object({
-  page: z.coerce.number().int().min(1).default(1),
+  page: z.coerce.number().int().min(1).max(MAX_DB_ID).default(1),
   pageSize: z.coerce.number().int().min(1).max(200).default(50),
   action: z.string().max(80).optional(),
-  actorId: z.coerce.number().int().positive().optional(),
+  actorId: dbIdParam.optional(),
   subjectType: z.string().max(40).optional(),
   subjectId: z.string().max(40).optional(),
   from: z.iso.datetime({ offset: true }).optional(),

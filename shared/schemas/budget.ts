@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { dbIdSchema } from "./common";
 
 /*
  * Budget contract: POST /api/budgets/estimate and the accelerator catalog.
@@ -13,7 +14,15 @@ export const BUDGET_RECIPE_IDS = ["position-interpolation", "yarn", "adjusted-ba
 
 const count = (max: number) => z.number().int().positive().max(max);
 const amount = (max: number) => z.number().positive().max(max);
-const id = z.number().int().positive();
+/*
+ * Lower bounds on the divisors of the estimate, so a denormal (5e-324) cannot make an hour, a cost or a KV-cache
+ * count infinite (and the revision's canonical hash then refuses it). Each is far below any real value:
+ * 1 GFLOP/s peak, 0.1 % utilisation, 1 bit per element.
+ */
+export const MIN_PEAK_FLOPS = 1e9;
+export const MIN_UTILIZATION = 1e-3;
+export const MIN_BYTES_PER_ELEMENT = 0.125;
+const id = dbIdSchema;
 const length = count(MAX_SEQUENCE_LENGTH);
 
 // ---- accelerator catalog ----------------------------------------------------------------
@@ -22,7 +31,7 @@ const acceleratorFields = {
   name: z.string().trim().min(1).max(100),
   memoryBytes: count(1e15),
   /** Dense peak FLOP/s at the training precision (no sparsity figure). */
-  peakFlops: amount(1e18),
+  peakFlops: amount(1e18).min(MIN_PEAK_FLOPS, `at least ${MIN_PEAK_FLOPS} FLOP/s`),
   /** Price per accelerator-hour, in the workspace's currency. */
   pricePerHour: z.number().nonnegative().max(1e6),
 };
@@ -51,7 +60,7 @@ const modelShapeFields = {
   /** Residual width; default attentionHeads × headDim. */
   hiddenSize: count(1_000_000).optional(),
   /** Bytes per stored element of weights, activations and KV cache; default 2 (bf16/fp16). */
-  bytesPerElement: amount(16).optional(),
+  bytesPerElement: amount(16).min(MIN_BYTES_PER_ELEMENT, "at least 0.125 (one bit)").optional(),
 };
 const REQUIRED_MODEL_FIELDS = ["parameters", "layers", "attentionHeads", "kvHeads", "headDim"] as const;
 
@@ -133,7 +142,7 @@ export const budgetStageRequestSchema = z
 export const budgetSettingsFields = {
   accelerators: count(1_000_000),
   /** Model FLOPs utilisation in (0, 1]. */
-  utilization: z.number().positive().max(1).optional(),
+  utilization: z.number().positive().min(MIN_UTILIZATION, "at least 0.001").max(1).optional(),
   convention: z.enum(FLOP_CONVENTIONS).optional(),
   recomputeFraction: z.number().min(0).max(1).optional(),
   optimizerBytesPerParameter: amount(64).optional(),

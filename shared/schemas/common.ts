@@ -14,4 +14,12 @@ export const ROLES = ["admin", "researcher", "infra", "approver", "viewer"] as c
 export const roleSchema = z.enum(ROLES);
 export type Role = z.infer<typeof roleSchema>;
 
-export const idParamSchema = z.object({ id: z.coerce.number().int().positive() });
+/**
+ * Ids are PostgreSQL `integer` (int4) columns: 1 … 2^31 − 1. A larger id can name no row, and PostgreSQL refuses it
+ * outright ("out of range for type integer"), so it is a 400 on the field here, never a query.
+ */
+export const MAX_DB_ID = 2 ** 31 - 1;
+export const dbIdSchema = z.number().int().positive().max(MAX_DB_ID, `ids are at most ${MAX_DB_ID}`);
+/** The same id as it arrives in a path or query string. */
+export const dbIdParam = z.coerce.number().int().positive().max(MAX_DB_ID, `ids are at most ${MAX_DB_ID}`);
+export const idParamSchema = z.object({ id: dbIdParam });

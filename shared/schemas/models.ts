@@ -1,6 +1,8 @@
 import { z } from "zod";
+import { MAX_DB_ID } from "./common";
 
-const MAX_LEN = 2 ** 31;
+/** Lengths are stored in PostgreSQL integer columns, so at most 2^31 − 1. */
+const MAX_LEN = MAX_DB_ID;
 const finite = () => z.number().finite();
 const posInt = (max = MAX_LEN) => z.number().int().positive().max(max);
 
@@ -26,7 +28,8 @@ const profileFields = z.object({
   hiddenSize: posInt(1_000_000),
   parameters: finite().positive().max(1e15).describe("non-embedding parameter count"),
   parametersTotal: finite().positive().max(1e15).nullable().optional(),
-  bytesPerElement: finite().positive().max(16).default(2),
+  // At least one bit per element: a denormal here would make every memory figure derived from it meaningless.
+  bytesPerElement: finite().positive().min(0.125, "at least 0.125 (one bit)").max(16).default(2),
   provenance: z.string().max(4000).default(""),
   currentScaling: currentScalingSchema.nullable().optional(),
 });

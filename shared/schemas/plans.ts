@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { bandsSchema, configPatchSchema, lengthSchema, methodParamsSchema } from "./analysis";
 import { budgetClusterSchema, budgetSettingsFields } from "./budget";
+import { dbIdParam, dbIdSchema, MAX_DB_ID } from "./common";
 
 export const REVISION_STATES = ["draft", "in_review", "approved", "changes_requested", "superseded"] as const;
 export const revisionStateSchema = z.enum(REVISION_STATES);
@@ -53,7 +54,7 @@ export type RevisionValues = z.output<typeof revisionInputSchema>;
 export const createPlanRequestSchema = z.strictObject({
   title: z.string().trim().min(1).max(200),
   purpose: text(4000).default(""),
-  modelId: z.number().int().positive(),
+  modelId: dbIdSchema,
   requiredApprovals: z.number().int().min(1).max(3).optional(),
   revision: revisionInputSchema,
 });
@@ -61,7 +62,7 @@ export type CreatePlanRequest = z.input<typeof createPlanRequestSchema>;
 
 /** PUT a draft: any subset of the revision fields plus the version read last. */
 export const updateRevisionRequestSchema = z.strictObject({
-  version: z.number().int().positive(),
+  version: dbIdSchema,
   targetContext: revisionFields.targetContext.optional(),
   method: methodParamsSchema.optional(),
   bands: bandsSchema.optional(),
@@ -85,13 +86,13 @@ export const decisionRequestSchema = z.strictObject({
 export const planSettingsSchema = z.strictObject({ minRequiredApprovals: z.number().int().min(1).max(3) });
 
 export const planListQuerySchema = z.object({
-  page: z.coerce.number().int().min(1).default(1),
+  page: z.coerce.number().int().min(1).max(MAX_DB_ID).default(1),
   pageSize: z.coerce.number().int().min(1).max(100).default(20),
   sort: z.enum(["updatedAt", "createdAt", "title", "state", "owner", "model"]).default("updatedAt"),
   dir: z.enum(["asc", "desc"]).default("desc"),
   state: revisionStateSchema.optional(),
-  ownerId: z.coerce.number().int().positive().optional(),
-  modelId: z.coerce.number().int().positive().optional(),
+  ownerId: dbIdParam.optional(),
+  modelId: dbIdParam.optional(),
   q: z.string().max(200).optional(),
 });
 export type PlanListQuery = z.input<typeof planListQuerySchema>;

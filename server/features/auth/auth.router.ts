@@ -20,6 +20,12 @@ export function authRouter(deps: AppDeps) {
 
   // Signed in: the session's synchronizer token. Anonymous: a signed cookie token, so no session row is stored.
   r.get("/session", async (req, res) => {
+    // A bearer-token request has no session (bearerAuth skips the session middleware), so there is none to describe.
+    if (res.locals.viaToken) {
+      throw new HttpError(400, "no_session", "API tokens carry no session; this route is for browser sign-in", {
+        authorization: "send no bearer token here",
+      });
+    }
     const user = optionalUser(res) ?? null;
     if (user && req.session.userId) {
       if (!req.session.csrfToken) {

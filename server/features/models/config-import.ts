@@ -8,6 +8,7 @@ import { ropeScalingKnownKeys, suggestKey } from "./rope-scaling-keys";
 import { scalingWarnings } from "./scaling-warnings";
 import { isObj, num, type Json, type Warn } from "./config-values";
 import { checkKvHeads, readHeadDim } from "./head-shape";
+import { findHostile } from "../../http/hostile";
 
 export class ConfigImportError extends Error {
   constructor(message: string, readonly fields: Record<string, string>) {
@@ -20,6 +21,9 @@ const DTYPE_BYTES: Record<string, number> = { bfloat16: 2, float16: 2, float32: 
 
 /** rope_scaling keys that place the method rather than parametrise it: left out of the imported parameters. */
 const NOT_PARAMETERS: readonly string[] = COMMON_SCALING_KEYS.filter((k) => k !== "factor");
+
+/** A table lookup by untrusted text: own keys only, so "constructor" or "__proto__" finds nothing. */
+const lookup = <T>(table: Record<string, T>, key: string): T | undefined => (Object.hasOwn(table, key) ? table[key] : undefined);
 
 const camel = (k: string) => k.replace(/_([a-z])/g, (_m, c: string) => c.toUpperCase());
 
@@ -41,10 +45,13 @@ export function estimateNonEmbeddingParameters(c: Json, headDim: number, heads: 
 function readJson(text: string): Json {
   let c: unknown;
   try {
-    c = JSON.parse(text);
+    // A UTF-8 byte-order mark is legal at the start of a file (RFC 8259 §8.1 lets parsers ignore it); JSON.parse is not.
+    c = JSON.parse(text.replace(/^\uFEFF/, ""));
   } catch (e) {
     throw new ConfigImportError("the file is not JSON", { file: `not valid JSON: ${(e as Error).message}` });
   }
+  const hostile = findHostile(c);
+  if (hostile) throw new ConfigImportError(`the file is not a usable config: ${hostile.message}`, { file: `${hostile.path.join(".") || "(file)"}: ${hostile.message}` });
   if (!isObj(c)) throw new ConfigImportError("the file is JSON but not an object", { file: "expected a JSON object of configuration keys" });
   // Multimodal configs nest the language model's keys.
   if (num(c.hidden_size) === undefined && isObj(c.text_config)) return { ...c.text_config, _name_or_path: c._name_or_path };
@@ -126,7 +133,7 @@ export function parseModelConfig(text: string, fileName = "config.json"): { prof
     profile: {
       name, family: String(cfg.model_type ?? "unknown"), headDim, partialRotaryFactor: prf, ropeTheta, trainedContext,
       maxPositionEmbeddings: maxPos, layers: num(cfg.num_hidden_layers)!, attentionHeads: heads, kvHeads, hiddenSize: hidden,
-      parameters, parametersTotal: null, bytesPerElement: DTYPE_BYTES[dtype] ?? 2,
+      parameters, parametersTotal: null, bytesPerElement: lookup(DTYPE_BYTES, dtype) ?? 2,
       provenance: `imported from ${fileName}`, currentScaling,
     },
     warnings,

@@ -5,6 +5,7 @@ import type { AppDeps } from "../../deps";
 import { currentUser, requireAuth, requireRole } from "../../http/auth";
 import { Invalid } from "../../http/errors";
 import { parseBody, parseOr400, parseParams } from "../../http/validate";
+import { assertNotHostile } from "../../http/hostile";
 import { idParamSchema, modelProfileInputSchema } from "../../../shared/schemas";
 import * as service from "./models.service";
 
@@ -36,15 +37,19 @@ export function modelsRouter(deps: AppDeps) {
 
   r.post("/import", editors, upload.single("file"), async (req, res) => {
     const flags = parseOr400(importFlags, { ...req.body, ...req.query }, "form");
-    let overrides = {};
+    let overrides: unknown = {};
     if (flags.overrides) {
       try {
         overrides = JSON.parse(flags.overrides);
       } catch {
         throw new Invalid("overrides must be JSON", { overrides: "not valid JSON" });
       }
+      assertNotHostile(overrides, "form", ["overrides"]);
+      if (typeof overrides !== "object" || overrides === null || Array.isArray(overrides)) {
+        throw new Invalid("overrides must be a JSON object of profile fields", { overrides: "not a JSON object" });
+      }
     }
-    const result = await service.importConfig(deps, currentUser(res), req.file, flags.save === "true", overrides);
+    const result = await service.importConfig(deps, currentUser(res), req.file, flags.save === "true", overrides as Record<string, unknown>);
     res.status(result.saved ? 201 : 200).json(result);
   });
 

@@ -4,7 +4,7 @@ import type { AppDeps } from "../../deps";
 import { currentUser, requireAuth, requireRole } from "../../http/auth";
 import { parseBody, parseParams, parseQuery } from "../../http/validate";
 import {
-  createPlanRequestSchema, decisionRequestSchema, planListQuerySchema, planSettingsSchema, updateRevisionRequestSchema,
+  createPlanRequestSchema, dbIdParam, decisionRequestSchema, planListQuerySchema, planSettingsSchema, updateRevisionRequestSchema,
 } from "../../../shared/schemas";
 import * as plans from "./plans.service";
 import * as workflow from "./workflow.service";
@@ -14,9 +14,9 @@ import { planOwners, reviewQueue } from "./plans.list";
 import { minRequiredApprovals } from "./plans.repo";
 import "./plans.usage";
 
-const planParams = z.object({ id: z.coerce.number().int().positive() });
-const revParams = planParams.extend({ n: z.coerce.number().int().positive() });
-const diffParams = planParams.extend({ a: z.coerce.number().int().positive(), b: z.coerce.number().int().positive() });
+const planParams = z.object({ id: dbIdParam });
+const revParams = planParams.extend({ n: dbIdParam });
+const diffParams = planParams.extend({ a: dbIdParam, b: dbIdParam });
 
 export function plansRouter(deps: AppDeps) {
   const r = Router();

@@ -1,0 +1,115 @@
+/**
+ * Hostile input never reaches a 500: every documented route (server/openapi.ts ROUTES) gets hostile values in each
+ * path parameter, each documented query parameter and each body field (one at a time, the rest valid), and
+ * must answer below 500; a 400 must name the field. Serial: the valid remainder of a body changes lab-wide rows.
+ */
+import crypto from "node:crypto";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Response } from "supertest";
+import { ROUTES } from "../../server/openapi";
+import { makeTestApp, type Agent } from "../setup/app";
+import { createTestUser } from "../setup/users";
+import { createPlan, createProfile, post } from "../setup/plans";
+import { HOSTILE_IDS, mutations, namesField, NUL, type Path } from "../setup/fuzz";
+import { fuzzBases, fuzzParams, VERSION_MARK, type FuzzIds } from "./fuzz-bases";
+
+const { agent, agentAs } = makeTestApp();
+let admin: Agent;
+let anon: Agent;
+let ids: FuzzIds;
+
+/** Extra query parameters of routes whose query schema is not in ROUTES. */
+const EXTRA_QUERY: Record<string, string[]> = { "/api/mail": ["q"] };
+
+const STATEFUL = new Set(["/api/plans/{id}/revisions/{n}", "/api/plans/{id}/revisions/{n}/decisions"]);
+
+interface Finding { what: string; status: number; body: string }
+const findings: Finding[] = [];
+let sent = 0;
+
+/** Records a 5xx, or a 400 that does not name the field; answers the response for further checks. */
+function judge(what: string, r: Response, field: Path | null, plain = false) {
+  sent++;
+  const body = JSON.stringify(r.body ?? r.text).slice(0, 300);
+  if (r.status >= 500) findings.push({ what, status: r.status, body });
+  else if (r.status === 400 && field && !(plain ? Object.keys(r.body?.error?.fields ?? {}).length : namesField(r.body?.error?.fields, field))) findings.push({ what: `${what} (400 without the field)`, status: 400, body });
+  return r;
+}
+
+function send(a: Agent, method: string, url: string, json?: string) {
+  const req = (a as unknown as Record<string, (u: string) => ReturnType<Agent["get"]>>)[method](url).set("X-CSRF-Token", a.csrf);
+  return json === undefined ? req : req.set("Content-Type", "application/json").send(json);
+}
+
+/** The draft's current version, followed from each successful edit. */
+let draftVersion = 1;
+function fresh(json: string) {
+  return json.replaceAll("@@U@@", crypto.randomBytes(4).toString("hex")).replace(`"version":${VERSION_MARK}`, `"version":${draftVersion}`);
+}
+
+beforeAll(async () => {
+  admin = await agentAs(["admin", "researcher", "infra", "approver"]);
+  anon = await agent();
+  const researcher = await agentAs(["researcher"]);
+  const model = await createProfile(admin);
+  const acc = await post(admin, "/api/accelerators", { name: `Skiff-${crypto.randomBytes(4).toString("hex")}`, memoryBytes: 80e9, peakFlops: 1e15, pricePerHour: 2 });
+  const token = await post(admin, "/api/tokens", { name: "fuzz" });
+  const draft = await createPlan(admin, model.id);
+  const review = await createPlan(researcher, model.id);
+  await post(researcher, `/api/plans/${review.id}/revisions/1/submit`).expect(200);
+  const user = await createTestUser(["viewer"]);
+  ids = {
+    user: user.id, model: model.id, accelerator: acc.body.accelerator.id, token: token.body.id,
+    draftPlan: draft.id, reviewPlan: review.id, reviewHash: review.revisions[0].contentHash,
+  };
+});
+
+describe("hostile input on every documented route", () => {
+  for (const route of ROUTES) {
+    const key = `${route.method} ${route.path}`;
+    it(key, async () => {
+      const before = findings.length;
+      const params = fuzzParams(route.path, ids);
+      const url = route.path.replace(/\{(\w+)\}/g, (_m, k: string) => params[k]);
+      const names = [...route.path.matchAll(/\{(\w+)\}/g)].map((m) => m[1]);
+      const routeBases = fuzzBases(ids)[key] ?? [];
+      const firstBody = routeBases[0] ? fresh(JSON.stringify(routeBases[0])) : route.method === "get" || route.method === "delete" ? undefined : "{}";
+      const who = route.path === "/api/auth/login" ? anon : admin;
+
+      const jobs: (() => Promise<unknown>)[] = [];
+      for (const name of names) {
+        for (const bad of HOSTILE_IDS) {
+          const badUrl = route.path.replace(/\{(\w+)\}/g, (_m, k: string) => (k === name ? bad : params[k]));
+          jobs.push(async () => judge(`${key} path ${name}=${bad}`, await send(who, route.method, badUrl, firstBody), [name]));
+        }
+      }
+      const queryKeys = [...Object.keys(route.query?.shape ?? {}), ...(EXTRA_QUERY[route.path] ?? [])];
+      for (const q of queryKeys) {
+        for (const bad of [...HOSTILE_IDS, encodeURIComponent(NUL)]) {
+          jobs.push(async () => judge(`${key} query ${q}=${bad}`, await send(who, route.method, `${url}?${q}=${bad}`), [q]));
+        }
+      }
+      for (const m of routeBases.flatMap((base) => mutations(base))) {
+        jobs.push(async () => {
+          const r = await send(who, route.method, url, fresh(m.json));
+          if (r.status === 200 && typeof r.body?.version === "number" && route.path === "/api/plans/{id}/revisions/{n}") draftVersion = r.body.version;
+          judge(`${key} body ${m.path.join(".") || "(root)"} = ${m.label}`, r, m.path, m.plain);
+        });
+      }
+      // Routes whose state moves on (draft versions, decisions) go one request at a time; the rest a few at once.
+      const width = STATEFUL.has(route.path) ? 1 : 6;
+      for (let i = 0; i < jobs.length; i += width) await Promise.all(jobs.slice(i, i + width).map((job) => job()));
+      expect(findings.slice(before).map((f) => `${f.status} ${f.what}: ${f.body}`)).toEqual([]);
+    });
+  }
+
+  it("lists every profile afterwards (no stored profile breaks GET /api/models)", async () => {
+    const r = await admin.get("/api/models");
+    expect(r.status, JSON.stringify(r.body).slice(0, 300)).toBe(200);
+  });
+});
+
+afterAll(() => {
+  const byStatus = findings.reduce<Record<number, number>>((acc, f) => ({ ...acc, [f.status]: (acc[f.status] ?? 0) + 1 }), {});
+  console.info(`fuzz: ${sent} requests, ${findings.length} findings ${JSON.stringify(byStatus)}`);
+});
