@@ -1,6 +1,7 @@
 import { Router } from "express";
 import type { AppDeps } from "../../deps";
 import { currentUser, optionalUser, requireAuth } from "../../http/auth";
+import { HttpError } from "../../http/errors";
 import { parseBody } from "../../http/validate";
 import { destroySession, newCsrfToken, regenerate, saveSession, SESSION_COOKIE } from "../../http/session";
 import { changePasswordRequestSchema, loginRequestSchema } from "../../../shared/schemas";
