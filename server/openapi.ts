@@ -49,7 +49,7 @@ export const ROUTES: Route[] = [
   { method: "get", path: "/api/plans/{id}/revisions/{a}/diff/{b}", summary: "Differences between two revisions", tag: "plans" },
   { method: "get", path: "/api/plans/{id}/revisions/{n}/report", summary: "Printable HTML report", tag: "export" },
   { method: "get", path: "/api/tokens", summary: "My API tokens", tag: "tokens" },
-  { method: "post", path: "/api/tokens", summary: "Create a read-only API token (secret shown once)", tag: "tokens", body: s.createTokenRequestSchema, status: 201 },
+  { method: "post", path: "/api/tokens", summary: "Create an API token with scopes, default export:read (secret shown once)", tag: "tokens", body: s.createTokenRequestSchema, status: 201 },
   { method: "delete", path: "/api/tokens/{id}", summary: "Revoke a token", tag: "tokens", status: 204 },
   { method: "get", path: "/api/audit", summary: "Audit trail (admin, approver)", tag: "audit", query: s.auditQuerySchema },
   { method: "get", path: "/api/mail", summary: "Local mail sink and outbox (admin)", tag: "mail" },

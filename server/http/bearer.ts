@@ -3,13 +3,12 @@ import type { AppDeps } from "../deps";
 import { HttpError, Unauthorized } from "./errors";
 import { findUserById } from "../features/users/users.repo";
 import { toSessionUser } from "../features/users/users.service";
-import { userIdForToken } from "../features/tokens/tokens.service";
-
-const SAFE = new Set(["GET", "HEAD"]);
+import { liveToken } from "../features/tokens/tokens.service";
+import { onlyReads, scopesAllow } from "./token-scopes";
 
 /**
- * `Authorization: Bearer <token>`: a personal read-only API token. Such requests carry no session (and so need no
- * CSRF token); anything but GET/HEAD is refused.
+ * `Authorization: Bearer <token>`: a personal API token. Such requests carry no session (and so need no CSRF token)
+ * and reach only what the token's scopes grant (server/http/token-scopes.ts).
  */
 export function bearerAuth(deps: AppDeps) {
   return async (req: Request, res: Response, next: NextFunction) => {
@@ -21,10 +20,15 @@ export function bearerAuth(deps: AppDeps) {
     if (!m) {
       return next(new HttpError(401, "unauthorized", "the Authorization header is malformed", { authorization: "expected \"Bearer <token>\"" }));
     }
-    const userId = await userIdForToken(deps, m[1]);
-    const row = userId ? await findUserById(deps.db, userId) : undefined;
-    if (!row || !row.active) return next(new Unauthorized("the API token is unknown, revoked or its owner is deactivated"));
-    if (!SAFE.has(req.method)) return next(new HttpError(403, "read_only_token", "API tokens are read-only"));
+    const token = await liveToken(deps, m[1]);
+    const row = token ? await findUserById(deps.db, token.userId) : undefined;
+    if (!token || !row || !row.active) return next(new Unauthorized("the API token is unknown, revoked or its owner is deactivated"));
+    if (!scopesAllow(token.scopes, req.method, req.path)) {
+      if (onlyReads(token.scopes) && req.method !== "GET" && req.method !== "HEAD") {
+        return next(new HttpError(403, "read_only_token", "this API token is read-only"));
+      }
+      return next(new HttpError(403, "token_scope", `this API token's scopes (${token.scopes.join(", ")}) do not allow ${req.method} /api${req.path}`));
+    }
     res.locals.user = toSessionUser(row);
     res.locals.viaToken = true;
     next();

@@ -292,11 +292,14 @@ describe("plan workflow in a browser", () => {
     const page = await signedIn(researcher, "/profile");
     const form = page.getByRole("form", { name: "New API token" });
     await form.getByLabel("Token name").fill("cluster export");
+    // The one scope today is offered and ticked by default; the table shows it on the new row.
+    expect(await form.getByRole("checkbox", { name: /export:read/ }).isChecked()).toBe(true);
     await form.getByRole("button", { name: "Create token" }).click();
     const secret = (await page.getByTestId("new-token-secret").textContent()) ?? "";
     expect(secret).toMatch(/^rw_/);
     const table = page.getByRole("table", { name: "API tokens" });
     await table.getByText("cluster export").waitFor();
+    expect(await table.locator("tbody tr").first().textContent()).toContain("export:read");
     await screenshot(page, "plans-tokens");
 
     const withToken = () => fetch(`${server.url}/api/plans/${planId}/approved/export`, { headers: { Authorization: `Bearer ${secret}` } });

@@ -1,3 +1,4 @@
+import { sql } from "drizzle-orm";
 import { index, integer, jsonb, pgTable, serial, text, timestamp, uniqueIndex } from "drizzle-orm/pg-core";
 import { users } from "./users";
 import { modelProfiles } from "./models";
@@ -59,13 +60,15 @@ export const planDecisions = pgTable(
   (t) => [uniqueIndex("plan_decisions_once").on(t.revisionId, t.round, t.approverId)],
 );
 
-/** Personal read-only API tokens; only the SHA-256 of the secret is stored. */
+/** Personal API tokens; only the SHA-256 of the secret is stored. Scopes are checked against shared/schemas/tokens.ts. */
 export const apiTokens = pgTable("api_tokens", {
   id: serial("id").primaryKey(),
   userId: integer("user_id").notNull().references(() => users.id),
   name: text("name").notNull(),
   tokenHash: text("token_hash").notNull().unique(),
   prefix: text("prefix").notNull(),
+  // Tokens made before scopes existed keep their old meaning: read-only export.
+  scopes: text("scopes").array().notNull().default(sql`ARRAY['export:read']::text[]`),
   createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
   lastUsedAt: timestamp("last_used_at", { withTimezone: true }),
   revokedAt: timestamp("revoked_at", { withTimezone: true }),

@@ -17,8 +17,8 @@ export function tokensRouter(deps: AppDeps) {
     res.json({ tokens: await listTokens(deps, currentUser(res)) });
   });
   r.post("/", async (req, res) => {
-    const { name } = parseBody(createTokenRequestSchema, req);
-    res.status(201).json(await createToken(deps, currentUser(res), name));
+    const { name, scopes } = parseBody(createTokenRequestSchema, req);
+    res.status(201).json(await createToken(deps, currentUser(res), name, scopes));
   });
   r.delete("/:id", async (req, res) => {
     await revokeToken(deps, currentUser(res), parseParams(idParamSchema, req).id);

@@ -1,0 +1,1 @@
+ALTER TABLE "api_tokens" ADD COLUMN "scopes" text[] DEFAULT ARRAY['export:read']::text[] NOT NULL;
