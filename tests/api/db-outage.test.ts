@@ -2,7 +2,8 @@
 // its own cluster (free port, folders under <repo>/.tmp/, started with docker-free-db-scripts) and its own
 // server process (`node --import tsx server/index.ts`), so the shared test cluster is never disturbed.
 import { execFile, spawn, type ChildProcess } from "node:child_process";
-import { mkdirSync, mkdtempSync, rmSync } from "node:fs";
+import { execFileSync } from "node:child_process";
+import { mkdirSync, mkdtempSync, readFileSync, rmSync } from "node:fs";
 import { createServer } from "node:net";
 import { dirname, join, resolve } from "node:path";
 import { fileURLToPath } from "node:url";
@@ -35,6 +36,23 @@ async function freePort(): Promise<number> {
 }
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
+
+/** Every Set-Cookie of a response as one Cookie header, merged over what the jar already held. */
+function mergeCookies(jar: string, res: Response) {
+  const map = new Map(jar.split("; ").filter(Boolean).map((c) => [c.split("=")[0], c] as const));
+  for (const line of res.headers.getSetCookie()) {
+    const pair = line.split(";")[0];
+    map.set(pair.split("=")[0], pair);
+  }
+  return [...map.values()].join("; ");
+}
+
+/** The postmaster of our own cluster and its children (backends, checkpointer, ...), by process id. */
+function clusterPids(dataDir: string): number[] {
+  const postmaster = Number(readFileSync(join(dataDir, "postmaster.pid"), "utf8").split("\n")[0]);
+  const children = execFileSync("pgrep", ["-P", String(postmaster)], { encoding: "utf8" }).split("\n").filter(Boolean).map(Number);
+  return [postmaster, ...children];
+}
 
 describe("PostgreSQL stops and returns under a running app", { timeout: LONG }, () => {
   let tmp = "";
@@ -95,7 +113,7 @@ describe("PostgreSQL stops and returns under a running app", { timeout: LONG }, 
       await sleep(100);
     }
     const anon = await fetch(`${base}/api/auth/session`);
-    cookie = (anon.headers.get("set-cookie") ?? "").split(";")[0];
+    cookie = mergeCookies("", anon);
     const { csrfToken } = (await anon.json()) as { csrfToken: string };
     const login = await fetch(`${base}/api/auth/login`, {
       method: "POST",
@@ -103,7 +121,7 @@ describe("PostgreSQL stops and returns under a running app", { timeout: LONG }, 
       body: JSON.stringify({ email: EMAIL, password: PASSWORD }),
     });
     expect(login.status).toBe(200);
-    cookie = (login.headers.get("set-cookie") ?? "").split(";")[0];
+    cookie = mergeCookies(cookie, login);
   }, LONG);
 
   afterAll(async () => {
@@ -143,5 +161,27 @@ describe("PostgreSQL stops and returns under a running app", { timeout: LONG }, 
     expect(log).not.toMatch(/secretKey|processID|_ending/);
     console.log(`[db outage] health 503 after ${Math.round(down.afterMs)} ms (slowest answer ${Math.round(down.slowest)} ms); ` +
       `back to 200 ${Math.round(back.afterMs)} ms after PostgreSQL was started again`);
+  });
+
+  it("a hung PostgreSQL (its processes stopped) gives 503s within seconds, not long hangs, and recovers", async () => {
+    expect((await call("/api/users")).status).toBe(200);
+    const pids = clusterPids(env.RW_PGDATA);
+    for (const pid of pids) process.kill(pid, "SIGSTOP");
+    let health, users;
+    try {
+      health = await call("/api/health");
+      users = await call("/api/users");
+    } finally {
+      for (const pid of pids) process.kill(pid, "SIGCONT");
+    }
+    expect(health.status).toBe(503);
+    expect(health.ms).toBeLessThan(5000);
+    expect([users.status, users.body.error?.code]).toEqual([503, "database_unavailable"]);
+    // statement timeout 3 s plus the client's one-second read margin (DB_STATEMENT_TIMEOUT_MS in the server's env)
+    expect(users.ms).toBeLessThan(10_000);
+    const back = await until("/api/users", 200);
+    expect(server!.exitCode).toBeNull();
+    console.log(`[db hung] health 503 in ${Math.round(health.ms)} ms, /api/users 503 in ${Math.round(users.ms)} ms; ` +
+      `served again ${Math.round(back.afterMs)} ms after the processes were resumed`);
   });
 });
