@@ -10,11 +10,13 @@ export type Executor = Db | Tx;
 export interface DbTimeouts {
   /** How long to wait for a new connection before giving up (a stopped or unreachable server). */
   connectMs: number;
-  /** Server-side cap per statement; the client-side read timeout is a little longer, for a server that hangs. */
+  /** Server-side cap per statement; the client-side read timeout is a little longer, for a server that hangs. 0: none. */
   statementMs: number;
 }
 /** A few seconds each: a database that is down or hung gives 503s quickly instead of 20-second hangs. */
 export const DEFAULT_DB_TIMEOUTS: DbTimeouts = { connectMs: 3000, statementMs: 5000 };
+/** For migrations: a schema change on a large table may rightly take longer than any request should. */
+export const MIGRATION_DB_TIMEOUTS: DbTimeouts = { connectMs: DEFAULT_DB_TIMEOUTS.connectMs, statementMs: 0 };
 
 /**
  * Every pool gets an `error` listener: without one, an idle client losing its connection (PostgreSQL stopped
@@ -26,8 +28,7 @@ export function createDb(databaseUrl: string, max = 10, timeouts: DbTimeouts = D
     connectionString: databaseUrl,
     max,
     connectionTimeoutMillis: timeouts.connectMs,
-    statement_timeout: timeouts.statementMs,
-    query_timeout: timeouts.statementMs + 1000,
+    ...(timeouts.statementMs > 0 ? { statement_timeout: timeouts.statementMs, query_timeout: timeouts.statementMs + 1000 } : {}),
   });
   watchPool(pool);
   const db = drizzle(pool, { schema });
