@@ -13,7 +13,7 @@ import { baseSchema, factorListSchema, factorSchema, lengthSchema, ordered, posi
  */
 
 const factor: ParamField<"factor"> = {
-  key: "factor", label: "Factor s", kind: "number", hint: "Default: target ÷ trained length.",
+  key: "factor", label: "Factor s", kind: "number", hint: "How far the trained length is stretched.",
   fallback: (c) => c.scale, fallbackText: "target ÷ trained length",
 };
 
@@ -24,6 +24,10 @@ const RAW_CATALOG = {
   default: defineMethod({
     id: "default", label: "No rescaling (plain RoPE)", short: "No rescaling",
     summary: "The trained frequencies as they are; past the trained length they simply extrapolate.",
+    explanation: {
+      text: "`θᵢ = b^(−2i/d)`, attention factor 1: no scaling at all, the baseline.",
+      source: "RoFormer, Su et al. 2021",
+    },
     schema: z.strictObject({ method: z.literal("default") }),
     extends: false, defaults: {}, fields: [],
     exportType: null, ropeTypes: ["default"], configKeys: [],
@@ -32,6 +36,10 @@ const RAW_CATALOG = {
   linear: defineMethod({
     id: "linear", label: "Position interpolation (every pair divided)", short: "Position interpolation",
     summary: "Every pair slowed by the factor.",
+    explanation: {
+      text: "Every pair is divided by the factor: `θ′ᵢ = θᵢ/s`, attention factor 1. Positions are squeezed into the trained range.",
+      source: "Position Interpolation, Chen et al. 2023",
+    },
     schema: z.strictObject({ method: z.literal("linear"), factor: factorSchema }),
     extends: true, defaults: {}, fields: [factor],
     exportType: "linear", ropeTypes: ["linear"], configKeys: [],
@@ -40,6 +48,10 @@ const RAW_CATALOG = {
   ntk: defineMethod({
     id: "ntk", label: "NTK-aware base change", short: "NTK-aware base",
     summary: "A larger base: slow pairs stretch most.",
+    explanation: {
+      text: "A new base `b′ = b·s^(d/(d−2))`, then plain RoPE with it. Fast pairs barely change; the slowest pair ends up divided by exactly `s`.",
+      source: "As defined in YaRN, Peng et al. 2023, §3.1, Eq. 16",
+    },
     schema: z.strictObject({ method: z.literal("ntk"), factor: factorSchema }),
     extends: true, defaults: {}, fields: [factor],
     // The convention has no static NTK-aware rope_type: the export is a new rope_theta.
@@ -49,6 +61,10 @@ const RAW_CATALOG = {
   dynamic: defineMethod({
     id: "dynamic", label: "Dynamic base change (at inference length)", short: "Dynamic base",
     summary: "The base grows with the sequence at inference.",
+    explanation: {
+      text: "The base grows with the running length `l`: `l* = max(l, L)`, `b′ = b·(f·l*/L − (f − 1))^(d/(d−2))`. Keys already in a cache were turned with an older base.",
+      source: "YaRN, Peng et al. 2023, §3.3, in the form open model libraries run",
+    },
     schema: z.strictObject({ method: z.literal("dynamic"), factor: factorSchema, sequenceLength: lengthSchema.optional() }),
     extends: true, defaults: {},
     fields: [factor, {
@@ -61,6 +77,10 @@ const RAW_CATALOG = {
   yarn: defineMethod({
     id: "yarn", label: "YaRN (ramped per pair, with attention factor)", short: "YaRN",
     summary: "Keeps fast pairs, interpolates slow ones, ramps between.",
+    explanation: {
+      text: "Pairs with more than `β_fast` turns in the window are kept, pairs with fewer than `β_slow` are divided by `s`, and a ramp in the pair index blends between (the form implementations run, linear in the index rather than in `r` as the paper writes it). The attention factor is `0.1·ln s + 1` unless set.",
+      source: "YaRN, Peng et al. 2023, Eqs. 17-22",
+    },
     schema: z.strictObject({
       method: z.literal("yarn"),
       factor: factorSchema,
@@ -82,8 +102,8 @@ const RAW_CATALOG = {
         key: "attentionFactor", label: "Attention factor", kind: "number", hint: "Overrides the formula and mscale.",
         fallback: (c) => (c.scale === null ? null : yarnMscale(c.scale)), fallbackText: "0.1·ln s + 1, or from mscale",
       },
-      { key: "mscale", label: "mscale", kind: "number", hint: "Counts only together with mscale_all_dim.", fallbackText: "unset" },
-      { key: "mscaleAllDim", label: "mscale_all_dim", kind: "number", fallbackText: "unset" },
+      { key: "mscale", label: "mscale", kind: "number", hint: "Counts only together with mscale_all_dim.", fallbackText: "not set" },
+      { key: "mscaleAllDim", label: "mscale_all_dim", kind: "number", fallbackText: "not set" },
     ],
     exportType: "yarn", ropeTypes: ["yarn"],
     configKeys: ["attention_factor", "beta_fast", "beta_slow", "mscale", "mscale_all_dim", "truncate"],
@@ -92,6 +112,10 @@ const RAW_CATALOG = {
   llama3: defineMethod({
     id: "llama3", label: "Band-smoothed (llama3 rule)", short: "Band-smoothed",
     summary: "Fast pairs kept, slow pairs divided, a smooth band between.",
+    explanation: {
+      text: "With `λ_low = L/lowFreqFactor` and `λ_high = L/highFreqFactor`: pairs shorter than `λ_high` are kept, pairs longer than `λ_low` are divided by `f`, and in between `θ′ = (1−σ)·θ/f + σ·θ` with `σ = (L/λ − low)/(high − low)`.",
+      source: "The rule published with the Llama 3.1 models, Meta 2024",
+    },
     schema: z.strictObject({
       method: z.literal("llama3"),
       factor: factorSchema,
@@ -110,6 +134,10 @@ const RAW_CATALOG = {
   longrope: defineMethod({
     id: "longrope", label: "Per-pair factors (LongRoPE)", short: "Per-pair factors",
     summary: "One factor per pair, searched offline.",
+    explanation: {
+      text: "Each pair has its own divisor: `θ′ᵢ = θᵢ/eᵢ`, with the long factors when `L′ > L`, else the short ones; attention factor `√(1 + ln s / ln L)`.",
+      source: "LongRoPE, Ding et al. 2024",
+    },
     schema: z.strictObject({ method: z.literal("longrope"), longFactor: factorListSchema, shortFactor: factorListSchema }),
     extends: false, defaults: {},
     fields: [
@@ -128,6 +156,10 @@ const RAW_CATALOG = {
   base: defineMethod({
     id: "base", label: "Adjusted base (new rope_theta)", short: "Adjusted base",
     summary: "Default rotation with a new base.",
+    explanation: {
+      text: "Plain RoPE with a new base `b′` chosen by hand (for example 10 000 → 500 000).",
+      source: "Xiong et al. 2023 (adjusted base frequency); Rozière et al. 2023 (base 1 000 000)",
+    },
     schema: z.strictObject({ method: z.literal("base"), base: baseSchema }),
     extends: false, defaults: {},
     fields: [{ key: "base", label: "New base b′", kind: "number", required: true, hint: "For example 500000 or 1000000." }],

@@ -33,6 +33,8 @@ export interface MethodEntry<K extends string = string, S extends z.ZodObject = 
   short: string;
   /** One line under the picker. */
   summary: string;
+  /** How it computes, in our words for "How is this computed?": formulas between backticks, and the work it follows. */
+  explanation: { text: string; source: string };
   /** The request member (`method: id` plus its parameters); methodParamsSchema is the union of these. */
   schema: S;
   /** Factor defaults to L′/L, so the target must exceed the trained length. */

@@ -1,6 +1,6 @@
 import type { z } from "zod";
 import { METHOD_CATALOG } from "./catalog";
-import type { MethodEntry } from "./entry";
+import type { FieldContext, MethodEntry, ParamField } from "./entry";
 
 export { LLAMA3_DEFAULTS, METHOD_CATALOG, YARN_DEFAULTS } from "./catalog";
 export { COMMON_SCALING_KEYS, type FieldContext, type MethodEntry, type ParamField, type ParamKind } from "./entry";
@@ -38,3 +38,15 @@ export const findMethod = (id: string): AnyMethodEntry | undefined => BY_ID.get(
 /** The method a config's rope_type (current or older spelling) names, or undefined. */
 export const methodForRopeType = (ropeType: string): AnyMethodEntry | undefined => BY_ROPE_TYPE.get(ropeType);
 export const isMethodId = (id: string): id is MethodId => BY_ID.has(id);
+
+const sixDigits = (x: number) => String(Number(x.toPrecision(6)));
+/**
+ * A field's default as both forms show it: the engine's value for what the form knows (six significant digits,
+ * "yes"/"no" for switches), else the default in words; "" for a required field.
+ */
+export function defaultText(field: ParamField, c: FieldContext): string {
+  const value = field.fallback?.(c);
+  if (typeof value === "boolean") return value ? "yes" : "no";
+  if (typeof value === "number") return sixDigits(value);
+  return field.fallbackText ?? "";
+}

@@ -4,6 +4,7 @@ import { makeTestApp } from "../setup/app";
 import { testDb } from "../setup/db";
 import { createPlan, createProfile, post, put } from "../setup/plans";
 import type { Agent } from "../setup/app";
+import { METHOD_CATALOG } from "../../shared/methods";
 
 const { agentAs } = makeTestApp();
 const uniq = () => Math.random().toString(36).slice(2, 8);
@@ -111,6 +112,9 @@ describe("budget inside a plan revision", () => {
     expect((await researcher.get(`${base}/verify`)).body.ok).toBe(true);
     const report = await researcher.get(`${base}/report`).expect(200);
     expect(report.text).toContain("Budget");
+    // Method names come from the catalog, as on the plan screens (the plan and its stages use YaRN).
+    expect(report.text).toContain(`<td>${METHOD_CATALOG.yarn.label} `);
+    expect(report.text).toContain(`<td>${METHOD_CATALOG.yarn.short} `);
   });
 
   it("budget: null removes the sheet from a draft", async () => {

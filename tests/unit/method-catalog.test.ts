@@ -64,6 +64,11 @@ describe("the method catalog, entry by entry", () => {
         }
       });
 
+      it("its explanation closes every formula it opens and names a source", () => {
+        expect(entry.explanation.text.split("`").length % 2).toBe(1);
+        expect(entry.explanation.source.length).toBeGreaterThan(5);
+      });
+
       it("each rope_type it answers to leads back to it", () => {
         for (const t of entry.ropeTypes) expect(methodForRopeType(t)?.id).toBe(id);
         expect(findMethod(id)?.id).toBe(id);

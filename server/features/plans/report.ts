@@ -1,4 +1,5 @@
 import type { RevisionContent } from "./revision-content";
+import { findMethod } from "../../../shared/methods";
 
 const esc = (v: unknown) =>
   String(v ?? "").replace(/[&<>"']/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[c]!);
@@ -37,7 +38,7 @@ export function renderReport({ plan, revision, content: c, verified, decisions, 
   const params = (p: object) => Object.entries(p).filter(([k]) => k !== "method").map(([k, v]) => `${k}=${Array.isArray(v) ? `[${v.length} values]` : v}`).join(", ");
   const stageRows = c.stages.map((s, i) => {
     const r = c.results.stages[i];
-    return row([i + 1, n(s.targetContext), `${s.method.method} ${params(s.method)}`, n(s.steps), n(s.globalBatch), n(s.sequenceLength), s.learningRate, s.dataMix,
+    return row([i + 1, n(s.targetContext), `${findMethod(s.method.method)?.short ?? s.method.method} ${params(s.method)}`, n(s.steps), n(s.globalBatch), n(s.sequenceLength), s.learningRate, s.dataMix,
       `${r?.summary.unseenAnglesPairs ?? "–"} / ${r?.summary.compressedResolutionPairs ?? "–"} / ${r?.summary.exceedsTrainedWindowPairs ?? "–"}`]);
   }).join("");
   const f = c.results.final;
@@ -54,7 +55,7 @@ td,th{border:1px solid #d9cfbd;padding:3px 6px;text-align:left;vertical-align:to
 ${verified ? '<span class="ok">verified: the stored content matches its hash</span>' : '<span class="bad">INTEGRITY CHECK FAILED: the stored content does not match its hash</span>'}</p>
 <p>${esc(plan.purpose)}</p>
 <h2>Inputs</h2><table>${head(["model", "d", "base", "trained", "target", "method"])}
-${row([`${c.model.name} (${c.model.family})`, c.results.rotaryDim, n(c.model.ropeTheta), n(c.model.trainedContext), n(c.targetContext), `${c.method.method} ${params(c.method)}`])}</table>
+${row([`${c.model.name} (${c.model.family})`, c.results.rotaryDim, n(c.model.ropeTheta), n(c.model.trainedContext), n(c.targetContext), `${findMethod(c.method.method)?.label ?? c.method.method} ${params(c.method)}`])}</table>
 <h2>Result at the target</h2>
 <p>Attention factor ${n(f.attentionFactor)}; pairs reaching unseen angles ${f.summary.unseenAnglesPairs}, with compressed resolution ${f.summary.compressedResolutionPairs},
 longer than the trained window ${f.summary.exceedsTrainedWindowPairs}. Critical dimension ${c.results.criticalDimension} (Liu et al. 2023).</p>

@@ -3,7 +3,7 @@ import { Button } from "../../../components/button";
 import { TextAreaField, TextField, SelectField } from "../../../components/field";
 import { methodColour } from "../charts/palette";
 import { sig } from "../figures";
-import { METHOD_FIELDS, METHOD_LABELS, type FieldContext, type MethodField } from "../state/method-fields";
+import { defaultText, METHOD_LABELS, methodEntry, type FieldContext, type MethodField } from "../state/method-fields";
 import type { MethodRow as Row } from "../state/inputs";
 import type { FieldErrors } from "../state/to-request";
 
@@ -25,7 +25,7 @@ function ListField({ field, value, error, context, onChange }: { field: MethodFi
       <TextAreaField
         label={field.label}
         error={error}
-        hint={field.placeholder(context)}
+        hint={context.pairs === null ? field.hint : `${context.pairs} numbers. ${field.hint ?? ""}`}
         rows={2}
         value={value}
         placeholder="comma-separated"
@@ -52,6 +52,7 @@ function ListField({ field, value, error, context, onChange }: { field: MethodFi
 export function MethodRow({ index, row, context, errors, canRemove, onChange, onRemove }: MethodRowProps) {
   const err = (key: string) => errors[`methods.${index}.${key}`];
   const set = (key: string, value: string) => onChange({ ...row, params: { ...row.params, [key]: value } });
+  const fields = methodEntry(row.method).fields;
   return (
     <fieldset className="flex flex-col gap-3 rounded-md border border-rule bg-white/40 p-3" style={{ borderLeft: `4px solid ${methodColour(index)}` }} data-testid={`method-row-${index}`}>
       <legend className="sr-only">Method {index + 1}</legend>
@@ -76,15 +77,15 @@ export function MethodRow({ index, row, context, errors, canRemove, onChange, on
           </Button>
         )}
       </div>
-      {METHOD_FIELDS[row.method].length > 0 && (
+      {fields.length > 0 && (
         <div className="grid gap-3 sm:grid-cols-2">
-          {METHOD_FIELDS[row.method].map((f) => {
+          {fields.map((f) => {
             const value = row.params[f.key] ?? "";
             if (f.kind === "list") return <ListField key={f.key} field={f} value={value} error={err(f.key)} context={context} onChange={(v) => set(f.key, v)} />;
             if (f.kind === "boolean") {
               return (
                 <SelectField key={f.key} label={f.label} value={value} error={err(f.key)} onChange={(e) => set(f.key, e.target.value)}>
-                  <option value="">default ({f.placeholder(context)})</option>
+                  <option value="">default ({defaultText(f, context)})</option>
                   <option value="true">yes</option>
                   <option value="false">no</option>
                 </SelectField>
@@ -96,7 +97,7 @@ export function MethodRow({ index, row, context, errors, canRemove, onChange, on
                 label={f.label}
                 inputMode="decimal"
                 value={value}
-                placeholder={f.placeholder(context)}
+                placeholder={f.required ? "required" : defaultText(f, context)}
                 hint={f.hint}
                 error={err(f.key)}
                 onChange={(e) => set(f.key, e.target.value)}

@@ -1,5 +1,5 @@
 import type { ReactNode } from "react";
-import type { MethodId } from "../../../../../shared/schemas/analysis";
+import { METHOD_CATALOG, METHOD_IDS, type MethodId } from "../../../../../shared/methods";
 
 export type Topic = { title: string; body: ReactNode; source: string };
 
@@ -119,65 +119,18 @@ export const TOPICS = {
 
 export type TopicId = keyof typeof TOPICS;
 
-export const METHOD_TOPICS: Record<MethodId, Topic> = {
-  default: { title: "Plain RoPE", body: <><F>θᵢ = b^(−2i/d)</F>, attention factor 1: no scaling at all, the baseline.</>, source: "RoFormer, Su et al. 2021" },
-  linear: {
-    title: "Position interpolation",
-    body: <>Every pair is divided by the factor: <F>θ′ᵢ = θᵢ/s</F>, attention factor 1. Positions are squeezed into the trained range.</>,
-    source: "Position Interpolation, Chen et al. 2023",
-  },
-  ntk: {
-    title: "NTK-aware base change",
-    body: <>A new base <F>b′ = b·s^(d/(d−2))</F>, then plain RoPE with it. Fast pairs barely change; the slowest pair ends up divided by exactly <F>s</F>.</>,
-    source: "As defined in YaRN, Peng et al. 2023, §3.1, Eq. 16",
-  },
-  dynamic: {
-    title: "Dynamic NTK",
-    body: (
-      <>
-        The base grows with the running length <F>l</F>: <F>l* = max(l, L)</F>, <F>b′ = b·(f·l*/L − (f − 1))^(d/(d−2))</F>. Keys already in a cache
-        were turned with an older base.
-      </>
-    ),
-    source: "YaRN, Peng et al. 2023, §3.3, in the form open model libraries run",
-  },
-  yarn: {
-    title: "YaRN",
-    body: (
-      <>
-        Pairs with more than <F>β_fast</F> turns in the window are kept, pairs with fewer than <F>β_slow</F> are divided by <F>s</F>, and a ramp
-        in the pair index blends between (the form implementations run, linear in the index rather than in <F>r</F> as the paper writes it). The
-        attention factor is <F>0.1·ln s + 1</F> unless set.
-      </>
-    ),
-    source: "YaRN, Peng et al. 2023, Eqs. 17-22",
-  },
-  llama3: {
-    title: "Band-smoothed (Llama 3.1 rule)",
-    body: (
-      <>
-        With <F>λ_low = L/lowFreqFactor</F> and <F>λ_high = L/highFreqFactor</F>: pairs shorter than <F>λ_high</F> are kept, pairs longer than{" "}
-        <F>λ_low</F> are divided by <F>f</F>, and in between <F>θ′ = (1−σ)·θ/f + σ·θ</F> with <F>σ = (L/λ − low)/(high − low)</F>.
-      </>
-    ),
-    source: "The rule published with the Llama 3.1 models, Meta 2024",
-  },
-  longrope: {
-    title: "Per-pair factors (LongRoPE)",
-    body: (
-      <>
-        Each pair has its own divisor: <F>θ′ᵢ = θᵢ/eᵢ</F>, with the long factors when <F>L′ &gt; L</F>, else the short ones; attention factor{" "}
-        <F>√(1 + ln s / ln L)</F>.
-      </>
-    ),
-    source: "LongRoPE, Ding et al. 2024",
-  },
-  base: {
-    title: "Adjusted base",
-    body: <>Plain RoPE with a new base <F>b′</F> chosen by hand (for example 10 000 → 500 000).</>,
-    source: "Xiong et al. 2023 (adjusted base frequency); Rozière et al. 2023 (base 1 000 000)",
-  },
-};
+/** "text `formula` text" from the catalog, with each formula set like the topics above. */
+function withFormulas(text: string): ReactNode {
+  return text.split("`").map((part, i) => (i % 2 === 1 ? <F key={i}>{part}</F> : part));
+}
+
+/** How each method computes, from its catalog entry; the title is the name the pickers show. */
+export const METHOD_TOPICS = Object.fromEntries(
+  METHOD_IDS.map((id) => {
+    const { label, explanation } = METHOD_CATALOG[id];
+    return [id, { title: label, body: <>{withFormulas(explanation.text)}</>, source: explanation.source }];
+  }),
+) as Record<MethodId, Topic>;
 
 export const CAUTION =
   "These figures are estimates from the rotary frequencies alone. Whether a scaled model really works at the target length is confirmed only by long-context evaluations of the tuned model.";

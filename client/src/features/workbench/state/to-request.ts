@@ -3,7 +3,7 @@ import {
   type AnalysisRequest, type MethodParams, type ModelShape,
 } from "../../../../../shared/schemas/analysis";
 import type { MethodRow, WorkbenchInputs } from "./inputs";
-import { METHOD_FIELDS } from "./method-fields";
+import { methodEntry } from "./method-fields";
 
 /** Errors keyed like the API's `fields`: "targetContext", "bands.beta", "methods.1.factor", "model.headDim". */
 export type FieldErrors = Record<string, string>;
@@ -13,7 +13,7 @@ const toList = (raw: string) => (raw.trim() === "" ? undefined : raw.split(/[\s,
 
 function methodBody(row: MethodRow): Record<string, unknown> {
   const body: Record<string, unknown> = { method: row.method };
-  for (const field of METHOD_FIELDS[row.method]) {
+  for (const field of methodEntry(row.method).fields) {
     const raw = row.params[field.key] ?? "";
     const value = field.kind === "list" ? toList(raw) : field.kind === "boolean" ? (raw === "" ? undefined : raw === "true") : toNumber(raw);
     if (value !== undefined) body[field.key] = value;

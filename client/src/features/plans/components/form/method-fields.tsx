@@ -1,5 +1,6 @@
 import { get, useFormContext, useWatch, type FieldValues } from "react-hook-form";
 import { Field, SelectField, TextInput } from "../../../../components/field";
+import { defaultText } from "../../../../../../shared/methods";
 import { METHOD_TABLE, methodEntry, type ParamField } from "../../lib/method-table";
 import { toNumberList, toOptionalBoolean } from "../../lib/form-values";
 import { NumberField, useFieldError } from "./form-field";
@@ -9,12 +10,15 @@ function ParamInput({ name, param }: { name: string; param: ParamField }) {
   const path = `${name}.${param.key}`;
   const error = useFieldError(path);
   const label = param.required ? param.label : `${param.label} (optional)`;
+  // The plan form has no model context here, so model-dependent defaults are given in words.
+  const fallback = defaultText(param, { scale: null, targetContext: null, pairs: null });
+  const hint = [param.hint, fallback && `Left empty: ${fallback}.`].filter(Boolean).join(" ");
   if (param.kind === "number" || param.kind === "integer") {
-    return <NumberField name={path} label={label} hint={param.hint} step={param.kind === "integer" ? "1" : "any"} />;
+    return <NumberField name={path} label={label} hint={hint} step={param.kind === "integer" ? "1" : "any"} />;
   }
   if (param.kind === "boolean") {
     return (
-      <SelectField label={label} hint={param.hint} error={error} {...register(path, { setValueAs: toOptionalBoolean })}>
+      <SelectField label={label} hint={hint} error={error} {...register(path, { setValueAs: toOptionalBoolean })}>
         <option value="">Engine default</option>
         <option value="true">Yes</option>
         <option value="false">No</option>
@@ -22,7 +26,7 @@ function ParamInput({ name, param }: { name: string; param: ParamField }) {
     );
   }
   return (
-    <Field label={label} hint={param.hint} error={error}>
+    <Field label={label} hint={hint} error={error}>
       {({ id, describedBy, invalid }) => <TextInput id={id} aria-describedby={describedBy} aria-invalid={invalid} {...register(path, { setValueAs: toNumberList })} />}
     </Field>
   );
@@ -43,7 +47,7 @@ export function MethodFields({ name, label = "Method", collapsed = false }: { na
   const entry = methodEntry(method);
   const params = entry && (
     <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-3" key={entry.id}>
-      {entry.params.map((p) => (
+      {entry.fields.map((p) => (
         <ParamInput key={p.key} name={name} param={p} />
       ))}
     </div>
@@ -63,7 +67,7 @@ export function MethodFields({ name, label = "Method", collapsed = false }: { na
           </option>
         ))}
       </SelectField>
-      {entry && entry.params.length > 0 && (collapsed ? (
+      {entry && entry.fields.length > 0 && (collapsed ? (
         <details className="rounded-md border border-rule px-3 py-2" open={hasParams || marked || undefined}>
           <summary className="cursor-pointer text-note font-medium">{entry.short} parameters{hasParams ? "" : " (engine defaults)"}</summary>
           <div className="pt-3">{params}</div>
