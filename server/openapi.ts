@@ -25,7 +25,9 @@ export const ROUTES: Route[] = [
   { method: "post", path: "/api/models/import", summary: "Parse (and optionally save) a config.json upload (multipart field 'file')", tag: "models", response: s.importResponseSchema },
   { method: "get", path: "/api/models/{id}", summary: "One model profile", tag: "models" },
   { method: "put", path: "/api/models/{id}", summary: "Replace a model profile", tag: "models", body: s.modelProfileInputSchema },
-  { method: "delete", path: "/api/models/{id}", summary: "Delete a profile no plan uses", tag: "models", status: 204 },
+  { method: "delete", path: "/api/models/{id}", summary: "Delete a profile no plan uses (204); one that plans use is retired instead (200)", tag: "models", status: 204 },
+  { method: "post", path: "/api/models/{id}/retire", summary: "Hide a profile from pickers; plans on it keep working", tag: "models" },
+  { method: "post", path: "/api/models/{id}/restore", summary: "Offer a retired profile again", tag: "models" },
   { method: "get", path: "/api/models/{id}/source", summary: "The uploaded config.json", tag: "models" },
   { method: "post", path: "/api/analyses", summary: "Compare scaling methods pair by pair (stateless)", tag: "engine", body: s.analysisRequestSchema, response: s.analysisResponseSchema },
   { method: "post", path: "/api/bounds/base", summary: "Supported length of a base, or smallest supporting base (worker thread)", tag: "engine", body: baseBoundRequestSchema, response: baseBoundResponseSchema },
@@ -59,7 +61,9 @@ export const ROUTES: Route[] = [
   { method: "get", path: "/api/accelerators", summary: "Accelerator catalog", tag: "budgets" },
   { method: "post", path: "/api/accelerators", summary: "Add an accelerator type (infra, admin)", tag: "budgets", body: acceleratorInputSchema, status: 201 },
   { method: "put", path: "/api/accelerators/{id}", summary: "Change an accelerator type (infra, admin)", tag: "budgets", body: acceleratorUpdateSchema },
-  { method: "delete", path: "/api/accelerators/{id}", summary: "Remove an accelerator type (infra, admin)", tag: "budgets", status: 204 },
+  { method: "delete", path: "/api/accelerators/{id}", summary: "Remove an accelerator type no plan was costed on (204); one that plans use is retired instead (200) (infra, admin)", tag: "budgets", status: 204 },
+  { method: "post", path: "/api/accelerators/{id}/retire", summary: "Hide an accelerator from pickers; budgets on it keep their figures (infra, admin)", tag: "budgets" },
+  { method: "post", path: "/api/accelerators/{id}/restore", summary: "Offer a retired accelerator again (infra, admin)", tag: "budgets" },
 ];
 
 const errorResponse = { description: "Error: { error: { code, message, fields? } }", content: { "application/json": { schema: s.apiErrorSchema } } };

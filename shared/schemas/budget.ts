@@ -38,7 +38,8 @@ const acceleratorFields = {
 
 export const acceleratorInputSchema = z.object({ ...acceleratorFields, notes: z.string().max(2000).optional() });
 export const acceleratorUpdateSchema = acceleratorInputSchema.partial();
-export const acceleratorSchema = z.object({ id, ...acceleratorFields, notes: z.string() });
+/** `retiredAt`: when a used accelerator left the pickers (ISO time), or null while it is offered. */
+export const acceleratorSchema = z.object({ id, ...acceleratorFields, notes: z.string(), retiredAt: z.string().nullable() });
 export type AcceleratorInput = z.infer<typeof acceleratorInputSchema>;
 export type AcceleratorUpdate = z.infer<typeof acceleratorUpdateSchema>;
 export type Accelerator = z.infer<typeof acceleratorSchema>;
@@ -281,6 +282,10 @@ export type BudgetRecipeResponse = z.infer<typeof budgetRecipeSchema>;
 
 export const acceleratorListResponseSchema = z.object({ accelerators: z.array(acceleratorSchema) });
 export const acceleratorResponseSchema = z.object({ accelerator: acceleratorSchema });
+/** DELETE /api/accelerators/:id on an accelerator plans were costed on: retired instead, with those plans. */
+export const acceleratorRetiredResponseSchema = z.object({
+  retired: z.literal(true), accelerator: acceleratorSchema, usedBy: z.array(z.object({ id, title: z.string() })),
+});
 
 export const budgetRecipesResponseSchema = z.object({ recipes: z.array(budgetRecipeSchema), caution: z.string() });
 

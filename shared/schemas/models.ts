@@ -63,6 +63,8 @@ export const modelProfileSchema = profileFields.extend({
   rotaryDim: z.number().int(),
   pairs: z.number().int(),
   sourceFileName: z.string().nullable(),
+  /** When a profile that plans use left the pickers (ISO time), or null while it is offered. */
+  retiredAt: z.string().nullable(),
   importWarnings: z.array(importWarningSchema),
   createdBy: z.number().int().nullable(),
   createdAt: z.string(),

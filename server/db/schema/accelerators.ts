@@ -12,4 +12,6 @@ export const accelerators = pgTable("accelerators", {
   createdBy: integer("created_by").references(() => users.id),
   createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
   updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+  /** Set when an accelerator that plans were costed on is taken out of the catalog: hidden from pickers, never deleted. */
+  retiredAt: timestamp("retired_at", { withTimezone: true }),
 });

@@ -25,4 +25,6 @@ export const modelProfiles = pgTable("model_profiles", {
   createdBy: integer("created_by").references(() => users.id),
   createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
   updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+  /** Set when a profile that plans use is taken out of the pickers; the plans keep working on it. */
+  retiredAt: timestamp("retired_at", { withTimezone: true }),
 });

@@ -34,9 +34,17 @@ export function acceleratorsRouter(deps: AppDeps) {
     const { id } = parseParams(idParamSchema, req);
     res.json({ accelerator: await acc.updateAccelerator(deps, currentUser(res), id, parseBody(acceleratorUpdateSchema, req)) });
   });
+  // 204 when deleted; 200 with the retired accelerator and the plans that use it when it was retired instead.
   r.delete("/:id", keepers, async (req, res) => {
-    await acc.deleteAccelerator(deps, currentUser(res), parseParams(idParamSchema, req).id);
-    res.status(204).end();
+    const out = await acc.deleteAccelerator(deps, currentUser(res), parseParams(idParamSchema, req).id);
+    if (out.deleted) res.status(204).end();
+    else res.json({ retired: true, accelerator: out.accelerator, usedBy: out.usedBy });
+  });
+  r.post("/:id/retire", keepers, async (req, res) => {
+    res.json({ accelerator: await acc.retireAccelerator(deps, currentUser(res), parseParams(idParamSchema, req).id) });
+  });
+  r.post("/:id/restore", keepers, async (req, res) => {
+    res.json({ accelerator: await acc.restoreAccelerator(deps, currentUser(res), parseParams(idParamSchema, req).id) });
   });
   return r;
 }

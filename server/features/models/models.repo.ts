@@ -10,6 +10,9 @@ export const listModelRows = (ex: Executor) => ex.select().from(modelProfiles).o
 export const findModelRow = async (ex: Executor, id: number) =>
   (await ex.select().from(modelProfiles).where(eq(modelProfiles.id, id)).limit(1))[0];
 
+export const lockModelRow = async (ex: Executor, id: number) =>
+  (await ex.select().from(modelProfiles).where(eq(modelProfiles.id, id)).for("update"))[0];
+
 export async function insertModelRow(ex: Executor, v: ModelInsert) {
   const [row] = await ex.insert(modelProfiles).values(v).returning();
   return row;

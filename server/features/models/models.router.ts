@@ -73,9 +73,19 @@ export function modelsRouter(deps: AppDeps) {
     res.json({ model: await service.updateModel(deps, currentUser(res), id, input) });
   });
 
+  // 204 when deleted; 200 with the retired profile and the plans that use it when it was retired instead.
   r.delete("/:id", editors, async (req, res) => {
-    await service.deleteModel(deps, currentUser(res), parseParams(idParamSchema, req).id);
-    res.status(204).end();
+    const out = await service.deleteModel(deps, currentUser(res), parseParams(idParamSchema, req).id);
+    if (out.deleted) res.status(204).end();
+    else res.json({ retired: true, model: out.model, usedBy: out.usedBy });
+  });
+
+  r.post("/:id/retire", editors, async (req, res) => {
+    res.json({ model: await service.retireModel(deps, currentUser(res), parseParams(idParamSchema, req).id) });
+  });
+
+  r.post("/:id/restore", editors, async (req, res) => {
+    res.json({ model: await service.restoreModel(deps, currentUser(res), parseParams(idParamSchema, req).id) });
   });
 
   return r;

@@ -1,4 +1,5 @@
 import type { AppDeps } from "../../deps";
+import type { Executor } from "../../db/client";
 import { Conflict, Invalid, NotFound } from "../../http/errors";
 import { parseOr400 } from "../../http/validate";
 import { recordAudit } from "../audit/audit.repo";
@@ -17,6 +18,7 @@ export function toModelProfile(row: repo.ModelRow): ModelProfile {
     ...rest,
     currentScaling: (row.currentScaling as ModelProfile["currentScaling"]) ?? null,
     importWarnings: (row.importWarnings as ImportWarning[]) ?? [],
+    retiredAt: row.retiredAt?.toISOString() ?? null,
     rotaryDim: d,
     pairs: d / 2,
     createdAt: row.createdAt.toISOString(),
@@ -84,16 +86,49 @@ export async function updateModel(deps: AppDeps, actor: SessionUser, id: number,
   }
 }
 
+async function setRetired(tx: Executor, actor: SessionUser, id: number, retired: boolean, usedBy: { id: number }[] = []) {
+  const row = await repo.updateModelRow(tx, id, { retiredAt: retired ? new Date() : null });
+  await recordAudit(tx, {
+    actorId: actor.id, action: retired ? "model.retired" : "model.restored", subjectType: "model", subjectId: id,
+    detail: { name: row.name, ...(retired ? { usedBy: usedBy.map((p) => p.id) } : {}) },
+  });
+  return toModelProfile(row);
+}
+
+async function mustLock(tx: Executor, id: number) {
+  const row = await repo.lockModelRow(tx, id);
+  if (!row) throw new NotFound("no such model profile");
+  return row;
+}
+
+/** Deletes a profile no plan uses; one that plans use is retired instead (hidden from pickers, the plans keep working). */
 export async function deleteModel(deps: AppDeps, actor: SessionUser, id: number) {
-  await deps.db.transaction(async (tx) => {
-    const row = await repo.findModelRow(tx, id);
-    if (!row) throw new NotFound("no such model profile");
-    const plans = await repo.modelUsage(tx, id);
-    if (plans.length) {
-      throw new Conflict(`plans use this profile: ${plans.map((p) => `#${p.id} ${p.title}`).join("; ")}`, { id: "in use by plans" });
+  return deps.db.transaction(async (tx) => {
+    const row = await mustLock(tx, id);
+    const usedBy = await repo.modelUsage(tx, id);
+    if (usedBy.length) {
+      const model = row.retiredAt ? toModelProfile(row) : await setRetired(tx, actor, id, true, usedBy);
+      return { deleted: false as const, model, usedBy };
     }
     await repo.deleteModelRow(tx, id);
     await recordAudit(tx, { actorId: actor.id, action: "model.deleted", subjectType: "model", subjectId: id, detail: { name: row.name } });
+    return { deleted: true as const };
+  });
+}
+
+export async function retireModel(deps: AppDeps, actor: SessionUser, id: number) {
+  return deps.db.transaction(async (tx) => {
+    const row = await mustLock(tx, id);
+    if (row.retiredAt) throw new Conflict(`${row.name} is already retired`, { id: "already retired" });
+    return setRetired(tx, actor, id, true, await repo.modelUsage(tx, id));
+  });
+}
+
+export async function restoreModel(deps: AppDeps, actor: SessionUser, id: number) {
+  return deps.db.transaction(async (tx) => {
+    const row = await mustLock(tx, id);
+    if (!row.retiredAt) throw new Conflict(`${row.name} is not retired`, { id: "not retired" });
+    return setRetired(tx, actor, id, false);
   });
 }
 

@@ -1,6 +1,7 @@
 import type { Executor } from "../../db/client";
 import { budgetModelOf, resolveAndEstimate } from "../budgets/budgets.service";
-import { HttpError, Invalid } from "../../http/errors";
+import { Conflict, HttpError, Invalid } from "../../http/errors";
+import { findAccelerator } from "../budgets/accelerators.service";
 import { parseOr400 } from "../../http/validate";
 import { budgetEstimateRequestSchema } from "../../../shared/schemas/budget";
 import type { RevisionValues } from "../../../shared/schemas";
@@ -38,3 +39,24 @@ export async function budgetPart(ex: Executor, model: ModelSnapshot, v: Revision
   const { resolved, ...estimate } = out;
   return { inputs: v.budget, cluster: { name: resolved.acceleratorName, ...resolved.cluster }, estimate };
 }
+
+const catalogId = (inputs: RevisionValues["budget"] | undefined) => {
+  const c = inputs?.cluster as { acceleratorId?: number } | undefined;
+  return c?.acceleratorId;
+};
+
+/**
+ * A retired accelerator is refused as a new choice (400 naming the field) and at submission (409), but a draft that
+ * already names one still saves, so its author can edit anything while deciding which accelerator to pick instead.
+ * `kept` is the accelerator the draft carried before this change.
+ */
+export async function refuseRetiredAccelerator(ex: Executor, inputs: RevisionValues["budget"] | undefined, when: "choose" | "submit", kept?: number) {
+  const id = catalogId(inputs);
+  if (id === undefined || (when === "choose" && id === kept)) return;
+  const a = await findAccelerator(ex, id);
+  if (!a?.retiredAt) return;
+  const fields = { "budget.cluster.acceleratorId": `${a.name} is retired; pick another accelerator` };
+  if (when === "submit") throw new Conflict(`the budget is costed on ${a.name}, which is retired from the catalog; pick another accelerator before submitting`, fields);
+  throw new Invalid(`${a.name} is retired from the catalog; pick another accelerator`, fields);
+}
+export const keptAcceleratorOf = catalogId;

@@ -11,7 +11,7 @@ import type { z } from "zod";
 import * as repo from "./plans.repo";
 import { listPlanPage } from "./plans.list";
 import { buildContent, hashContent, snapshotOf, type ModelSnapshot, type RevisionContent } from "./revision-content";
-import { budgetPart } from "./budget-part";
+import { budgetPart, keptAcceleratorOf, refuseRetiredAccelerator } from "./budget-part";
 
 /** Engine results and budget figures for revision values; what gets hashed. */
 export async function makeContent(ex: Executor, model: ModelSnapshot, values: RevisionValues): Promise<RevisionContent> {
@@ -45,6 +45,8 @@ export const revisionValues = (c: RevisionContent): RevisionValues => ({
 export async function createPlan(deps: AppDeps, actor: SessionUser, input: z.output<typeof import("../../../shared/schemas").createPlanRequestSchema>) {
   const model = await findModelRow(deps.db, input.modelId);
   if (!model) throw new Invalid("no such model profile", { modelId: "not found" });
+  if (model.retiredAt) throw new Invalid(`${model.name} is retired; pick another model profile`, { modelId: "retired" });
+  await refuseRetiredAccelerator(deps.db, input.revision.budget, "choose");
   const content = await makeContent(deps.db, snapshotOf(model), input.revision);
   return deps.db.transaction(async (tx) => {
     const min = await repo.minRequiredApprovals(tx);
@@ -97,6 +99,7 @@ export async function updateDraft(deps: AppDeps, actor: SessionUser, planId: num
     const merged: Record<string, unknown> = { ...revisionValues(old), ...changes };
     if (changes.budget === null) delete merged.budget;
     const values = revisionInputSchema.parse(merged);
+    await refuseRetiredAccelerator(tx, values.budget, "choose", keptAcceleratorOf(old.budget?.inputs));
     const content = await makeContent(tx, old.model, values);
     const row = await repo.updateRevision(tx, rev.id, { content, contentHash: hashContent(content), engineVersion: content.engineVersion, version: rev.version + 1 });
     await repo.touchPlan(tx, planId);

@@ -7,6 +7,7 @@ import * as repo from "./plans.repo";
 import { effectiveApprovals, makeContent, mustPlan, mustRevision, revisionValues } from "./plans.service";
 import { hashContent, type RevisionContent } from "./revision-content";
 import { notify } from "./notify";
+import { refuseRetiredAccelerator } from "./budget-part";
 
 const wrongState = (n: number, state: string, wanted: string) =>
   new Conflict(`revision ${n} is ${state}; this needs it ${wanted}`, { state });
@@ -20,6 +21,7 @@ export async function submit(deps: AppDeps, actor: SessionUser, planId: number, 
     if (rev.state !== "draft") throw wrongState(n, rev.state, "draft");
     // The budget is frozen at submission with the catalog as it is now; the hash covers it.
     let content = rev.content as RevisionContent;
+    await refuseRetiredAccelerator(tx, content.budget?.inputs, "submit");
     if (content.budget) content = await makeContent(tx, content.model, revisionValues(content));
     const contentHash = hashContent(content);
     const sentBack = await repo.sentBackWithHash(tx, planId, contentHash);

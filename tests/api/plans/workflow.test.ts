@@ -140,14 +140,15 @@ describe("bad plan input → 400 naming the field, nothing written", () => {
 });
 
 describe("profiles in use", () => {
-  it("deleting a profile a plan uses → 409 naming the plan", async () => {
+  // Retired, not refused: see tests/api/retire.test.ts for the rest of the rule.
+  it("deleting a profile a plan uses retires it and names the plan", async () => {
     const researcher = await agentAs(["researcher"]);
     const model = await createProfile(researcher);
     const plan = await createPlan(researcher, model.id, { title: "Keeps its profile" });
     const r = await researcher.delete(`/api/models/${model.id}`).set("X-CSRF-Token", researcher.csrf);
-    expect(r.status).toBe(409);
-    expect(r.body.error.message).toContain(`#${plan.id} Keeps its profile`);
-    await researcher.get(`/api/models/${model.id}`).expect(200);
+    expect(r.status).toBe(200);
+    expect(r.body.usedBy).toEqual([{ id: plan.id, title: "Keeps its profile" }]);
+    expect((await researcher.get(`/api/models/${model.id}`).expect(200)).body.model.retiredAt).toEqual(expect.any(String));
   });
 });
 
