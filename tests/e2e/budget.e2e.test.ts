@@ -230,6 +230,48 @@ describe("budget sheet in a browser", () => {
     await context.close();
   }, 90_000);
 
+  it("an accelerator retired under a plan: a new draft names it and asks for another; an estimator link still loads with a notice", async () => {
+    const acceleratorName = await catalogEntry("Retired-bed");
+    const acc = (await api.get("/api/accelerators").expect(200)).body.accelerators.find((a: { name: string }) => a.name === acceleratorName);
+    const created = await createPlan(api, profile.id);
+    const base = `/api/plans/${created.id}/revisions/1`;
+    await put(api, base, { version: 1, budget: { cluster: { acceleratorId: acc.id }, accelerators: 64 } }).expect(200);
+    await post(api, `${base}/submit`).expect(200);
+    // An approver sends it back, so the owner may start revision 2 (the hash goes along when the contract asks for it).
+    const approver = await makeTestApp().agentAs(["approver"]);
+    const hash = (await api.get(base).expect(200)).body.contentHash;
+    let sent = await post(approver, `${base}/decisions`, { decision: "request_changes", comment: "cheaper hardware" });
+    if (sent.status === 400 && sent.body.error?.fields?.contentHash) sent = await post(approver, `${base}/decisions`, { decision: "request_changes", comment: "cheaper hardware", contentHash: hash });
+    expect(sent.status).toBe(200);
+    // Deleting it retires it: the plan was costed on it.
+    const del = await api.delete(`/api/accelerators/${acc.id}`).set("X-CSRF-Token", api.csrf);
+    expect(del.status).toBe(200);
+
+    const other = await catalogEntry("Live-bed");
+
+    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const { page, errors } = await signedInPage(context, `/plans/${created.id}`, planner);
+    await page.getByRole("button", { name: "Start new revision" }).click();
+    await page.waitForURL(new RegExp(`/plans/${created.id}/revisions/2/edit`));
+    const sheet = page.getByRole("region", { name: "Budget sheet" });
+    const notice = sheet.getByTestId("retired-accelerator");
+    await expect.poll(() => notice.textContent(), { timeout: 15_000 }).toContain(`${acceleratorName} is retired`);
+    await expect(sheet.getByLabel("Catalog accelerator").locator("option:checked").textContent()).resolves.toBe(`${acceleratorName} (retired)`);
+    await settledTokens(page);
+    await screenshot(page, "plan-budget-retired-accelerator");
+    // Once another is picked, the retired one leaves the picker.
+    await sheet.getByLabel("Catalog accelerator").selectOption({ label: other });
+    await notice.waitFor({ state: "detached" });
+    await expect(sheet.getByLabel("Catalog accelerator").locator("option").allTextContents()).resolves.not.toContain(`${acceleratorName} (retired)`);
+
+    // An estimator link to the retired accelerator still loads its figures, with the notice.
+    await page.goto(`${server.url}/estimator?model=${profile.id}&acc=${acc.id}`);
+    await expect.poll(() => page.getByTestId("retired-accelerator").textContent(), { timeout: 15_000 }).toContain(acceleratorName);
+    await expect(settledTokens(page)).resolves.toBeTruthy();
+    expect(errors).toEqual([]);
+    await context.close();
+  }, 90_000);
+
   it("a new plan is costed before its first save; the plan page shows the stored figures", async () => {
     const acceleratorName = await catalogEntry("New-bed");
     const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });

@@ -197,7 +197,7 @@ async function eventually(check: () => boolean, ms = 10_000) {
 }
 
 describe("profiles and bounds in a browser", () => {
-  it("a profile that a plan uses is not deleted, and the refusal names the plan; a viewer sees no edit controls", async () => {
+  it("a profile that a plan uses is retired, not deleted, naming the plan, and can be restored; a viewer sees no edit controls", async () => {
     const { agentAs } = makeTestApp();
     const author = await agentAs(["researcher"]);
     const profile = await createProfile(author);
@@ -210,13 +210,21 @@ describe("profiles and bounds in a browser", () => {
     await signIn(page, researcher);
     await page.getByRole("heading", { level: 1, name: profile.name }).waitFor();
     await page.getByRole("button", { name: "Delete profile" }).click();
-    const refused = page.waitForResponse((r) => r.url().endsWith(`/api/models/${profile.id}`) && r.request().method() === "DELETE");
+    const retired = page.waitForResponse((r) => r.url().endsWith(`/api/models/${profile.id}`) && r.request().method() === "DELETE");
     await page.getByRole("button", { name: "Yes, delete it" }).click();
-    expect((await refused).status()).toBe(409);
-    const notice = page.getByRole("alert").filter({ hasText: "still in use" });
+    expect((await retired).status()).toBe(200);
+    const notice = page.getByRole("status").filter({ hasText: "Retired, not deleted" });
     await expect.poll(() => notice.textContent(), { timeout: 15_000 }).toContain(`#${plan.id}`);
     expect(new URL(page.url()).pathname).toBe(`/models/${profile.id}`);
+    await page.getByText("This profile is retired").waitFor();
     await screenshot(page, "workbench-profile-in-use");
+    // Gone from the new-plan picker; the list marks it retired.
+    await page.goto(`${server.url}/plans/new`);
+    await page.getByLabel("Model", { exact: true }).waitFor();
+    await expect.poll(() => page.getByLabel("Model", { exact: true }).locator("option").allTextContents(), { timeout: 15_000 }).not.toContain(profile.name);
+    await page.goto(`${server.url}/models/${profile.id}`);
+    await page.getByRole("button", { name: "Restore profile" }).click();
+    await page.getByRole("button", { name: "Delete profile" }).waitFor();
     await page.getByRole("button", { name: "Sign out" }).click();
     await page.waitForURL(/\/sign-in/);
 

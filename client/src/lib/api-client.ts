@@ -105,6 +105,11 @@ export const apiClient = {
   async openStream(url: string, body: unknown, signal: AbortSignal): Promise<Response> {
     return send("POST", url, body, signal);
   },
+  /** A write answered with 204 No Content (undefined), or with a body checked against `schema`. */
+  async sendMaybeContent<S extends z.ZodType>(method: Exclude<Method, "GET">, url: string, schema: S, body?: unknown): Promise<z.output<S> | undefined> {
+    const res = await send(method, url, body);
+    return res.status === 204 ? undefined : parseBody(res, schema);
+  },
   /** A write answered with 204 No Content. */
   async sendNoContent(method: Exclude<Method, "GET">, url: string, body?: unknown): Promise<void> {
     await send(method, url, body);

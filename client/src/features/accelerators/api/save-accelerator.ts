@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import { acceleratorResponseSchema, type AcceleratorInput, type AcceleratorUpdate } from "../../../../../shared/schemas/budget";
+import { acceleratorResponseSchema, acceleratorRetiredResponseSchema, type AcceleratorInput, type AcceleratorUpdate } from "../../../../../shared/schemas/budget";
 import { apiClient } from "../../../lib/api-client";
 import { apiPaths } from "../../../config/paths";
 import { acceleratorsKeys } from "./keys";
@@ -10,7 +10,14 @@ export const createAccelerator = (body: AcceleratorInput) =>
 export const updateAccelerator = ({ id, changes }: { id: number; changes: AcceleratorUpdate }) =>
   apiClient.send("PUT", apiPaths.accelerator(id), changes, acceleratorResponseSchema).then((r) => r.accelerator);
 
-export const deleteAccelerator = (id: number) => apiClient.sendNoContent("DELETE", apiPaths.accelerator(id));
+/** null when deleted; the retired accelerator and the plans that use it when the server retired it instead. */
+export async function deleteAccelerator(id: number) {
+  const res = await apiClient.sendMaybeContent("DELETE", apiPaths.accelerator(id), acceleratorRetiredResponseSchema);
+  return res ?? null;
+}
+
+export const restoreAccelerator = (id: number) =>
+  apiClient.send("POST", `${apiPaths.accelerator(id)}/restore`, undefined, acceleratorResponseSchema).then((r) => r.accelerator);
 
 function useCatalogMutation<A, R>(fn: (args: A) => Promise<R>) {
   const queryClient = useQueryClient();
@@ -20,3 +27,4 @@ function useCatalogMutation<A, R>(fn: (args: A) => Promise<R>) {
 export const useCreateAccelerator = () => useCatalogMutation(createAccelerator);
 export const useUpdateAccelerator = () => useCatalogMutation(updateAccelerator);
 export const useDeleteAccelerator = () => useCatalogMutation(deleteAccelerator);
+export const useRestoreAccelerator = () => useCatalogMutation(restoreAccelerator);

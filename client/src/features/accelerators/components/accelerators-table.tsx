@@ -13,10 +13,12 @@ type Props = {
   busyId: number | null;
   onEdit: (a: Accelerator) => void;
   onDelete: (a: Accelerator) => void;
+  /** Set for the retired list: its rows offer Restore instead of Edit and Delete. */
+  onRestore?: (a: Accelerator) => void;
 };
 
 /** The catalog: what each accelerator offers a training run, in the units the budget sheet uses. */
-export function AcceleratorsTable({ accelerators, canEdit, busyId, onEdit, onDelete }: Props) {
+export function AcceleratorsTable({ accelerators, canEdit, busyId, onEdit, onDelete, onRestore }: Props) {
   const columns = useMemo(
     () => [
       col.accessor("name", { header: "Name" }),
@@ -29,7 +31,11 @@ export function AcceleratorsTable({ accelerators, canEdit, busyId, onEdit, onDel
             col.display({
               id: "actions",
               header: () => <span className="sr-only">Actions</span>,
-              cell: ({ row }) => (
+              cell: ({ row }) => onRestore ? (
+                <Button size="sm" variant="secondary" busy={busyId === row.original.id} onClick={() => onRestore(row.original)} aria-label={`Restore ${row.original.name}`}>
+                  Restore
+                </Button>
+              ) : (
                 <div className="flex gap-2">
                   <Button size="sm" variant="secondary" onClick={() => onEdit(row.original)} aria-label={`Edit ${row.original.name}`}>
                     Edit
@@ -43,13 +49,13 @@ export function AcceleratorsTable({ accelerators, canEdit, busyId, onEdit, onDel
           ]
         : []),
     ],
-    [canEdit, busyId, onEdit, onDelete],
+    [canEdit, busyId, onEdit, onDelete, onRestore],
   );
   return (
     <DataTable
       data={accelerators}
       columns={columns}
-      caption="Accelerators"
+      caption={onRestore ? "Retired accelerators" : "Accelerators"}
       getRowId={(a) => String(a.id)}
       initialSorting={[{ id: "name", desc: false }]}
       emptyText="The catalog is empty."

@@ -5,7 +5,7 @@ import { Button } from "../../../components/button";
 import { Loading, Notice } from "../../../components/notice";
 import { Panel } from "../../../components/page";
 import { acceleratorsQuery } from "../api/list-accelerators";
-import { useDeleteAccelerator } from "../api/save-accelerator";
+import { useDeleteAccelerator, useRestoreAccelerator } from "../api/save-accelerator";
 import { AcceleratorForm } from "./accelerator-form";
 import { AcceleratorsTable } from "./accelerators-table";
 
@@ -15,6 +15,7 @@ type Message = { tone: "success" | "alert"; text: string };
 export function ManageAccelerators({ canEdit }: { canEdit: boolean }) {
   const list = useQuery(acceleratorsQuery());
   const remove = useDeleteAccelerator();
+  const restore = useRestoreAccelerator();
   const [editing, setEditing] = useState<Accelerator | null>(null);
   const [confirming, setConfirming] = useState<Accelerator | null>(null);
   const [message, setMessage] = useState<Message | null>(null);
@@ -30,6 +31,12 @@ export function ManageAccelerators({ canEdit }: { canEdit: boolean }) {
     setConfirming(a);
   }, []);
 
+  const onRestore = (a: Accelerator) =>
+    restore.mutate(a.id, {
+      onSuccess: () => setMessage({ tone: "success", text: `${a.name} is back in the catalog and the pickers.` }),
+      onError: (e) => setMessage({ tone: "alert", text: e.message }),
+    });
+
   if (list.isPending) return <Loading label="Loading the catalog…" />;
   if (list.isError) return <Notice tone="alert" title="Could not load the catalog">{list.error.message}</Notice>;
 
@@ -40,7 +47,13 @@ export function ManageAccelerators({ canEdit }: { canEdit: boolean }) {
   };
   const confirmDelete = (a: Accelerator) =>
     remove.mutate(a.id, {
-      onSuccess: () => setMessage({ tone: "success", text: `Deleted ${a.name}. Plans already submitted keep the figures they were costed with.` }),
+      onSuccess: (retired) =>
+        setMessage({
+          tone: "success",
+          text: retired
+            ? `${a.name} is retired, not deleted: ${retired.usedBy.map((p) => `#${p.id} ${p.title}`).join("; ")} ${retired.usedBy.length === 1 ? "was" : "were"} costed on it. It leaves the pickers; those plans keep their figures, and a new draft from them asks for another accelerator.`
+            : `Deleted ${a.name}.`,
+        }),
       onError: (e) => setMessage({ tone: "alert", text: e.message }),
       onSettled: () => setConfirming(null),
     });
@@ -50,7 +63,7 @@ export function ManageAccelerators({ canEdit }: { canEdit: boolean }) {
       {message && <Notice tone={message.tone}>{message.text}</Notice>}
       {confirming && (
         <Notice tone="alert" title={`Delete ${confirming.name}?`}>
-          <p>Drafts that use it will need another accelerator before they can be saved again.</p>
+          <p>If any plan was costed on it, it is retired instead of deleted: it leaves the pickers and every plan keeps its figures.</p>
           <div className="mt-3 flex gap-3">
             <Button variant="danger" busy={remove.isPending} onClick={() => confirmDelete(confirming)}>
               Delete {confirming.name}
@@ -67,8 +80,14 @@ export function ManageAccelerators({ canEdit }: { canEdit: boolean }) {
         </Panel>
       )}
       <Panel title="Catalog">
-        <AcceleratorsTable accelerators={list.data} canEdit={canEdit} busyId={remove.isPending ? (remove.variables ?? null) : null} onEdit={onEdit} onDelete={onDelete} />
+        <AcceleratorsTable accelerators={list.data.filter((a) => !a.retiredAt)} canEdit={canEdit} busyId={remove.isPending ? (remove.variables ?? null) : null} onEdit={onEdit} onDelete={onDelete} />
       </Panel>
+      {list.data.some((a) => a.retiredAt) && (
+        <Panel title="Retired">
+          <p className="mb-3 text-body text-ink-soft">Plans were costed on these; they are no longer offered for new budgets, and the plans keep their figures.</p>
+          <AcceleratorsTable accelerators={list.data.filter((a) => a.retiredAt)} canEdit={canEdit} busyId={restore.isPending ? (restore.variables ?? null) : null} onEdit={onEdit} onDelete={onDelete} onRestore={onRestore} />
+        </Panel>
+      )}
     </div>
   );
 }

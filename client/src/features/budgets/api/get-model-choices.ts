@@ -8,7 +8,7 @@ import { budgetsKeys } from "./keys";
 /** Only the fields the estimator uses; the rest of each profile is dropped. */
 export const modelChoiceSchema = modelProfileSchema.pick({
   id: true, name: true, family: true, parameters: true, layers: true, attentionHeads: true, kvHeads: true,
-  headDim: true, hiddenSize: true, bytesPerElement: true, trainedContext: true,
+  headDim: true, hiddenSize: true, bytesPerElement: true, trainedContext: true, retiredAt: true,
 });
 export type ModelChoice = z.infer<typeof modelChoiceSchema>;
 const responseSchema = z.object({ models: z.array(modelChoiceSchema) });

@@ -28,6 +28,8 @@ export function ClusterSettings({ cluster, settings, accelerators, assumptions, 
   const uid = useId();
   const set = (field: keyof SettingsDraft) => (text: string) => onSettings({ ...settings, [field]: text });
   const picked = accelerators.find((a) => String(a.id) === cluster.acceleratorId);
+  // Retired accelerators leave the picker, except the one already chosen, so a link or a draft still names it.
+  const offered = accelerators.filter((a) => !a.retiredAt || a === picked);
   const convention = settings.convention || assumptions?.convention || "causal";
   return (
     <div className="flex flex-col gap-5">
@@ -43,9 +45,9 @@ export function ClusterSettings({ cluster, settings, accelerators, assumptions, 
             value={cluster.acceleratorId}
             onChange={(acceleratorId) => onCluster({ ...cluster, acceleratorId })}
             emptyLabel="Pick one…"
-            options={accelerators.map((a) => ({ value: String(a.id), label: a.name }))}
+            options={offered.map((a) => ({ value: String(a.id), label: a.retiredAt ? `${a.name} (retired)` : a.name }))}
             error={issues["cluster.acceleratorId"]}
-            hint={accelerators.length ? undefined : "The catalog is empty; an infra lead adds accelerators on the Accelerators page."}
+            hint={offered.length ? undefined : "The catalog is empty; an infra lead adds accelerators on the Accelerators page."}
           />
         ) : (
           <div className="grid gap-3 sm:grid-cols-3">
@@ -57,6 +59,11 @@ export function ClusterSettings({ cluster, settings, accelerators, assumptions, 
         {cluster.kind === "custom" && (["peakTflops", "memoryGib", "pricePerHour"] as const).every((k) => cluster[k] === EXAMPLE_CLUSTER[k]) && (
           <p className="text-note text-hemp-dark" data-testid="example-figures">
             Example figures, not any real accelerator's: type your hardware's, or pick one from the catalog.
+          </p>
+        )}
+        {cluster.kind === "catalog" && picked?.retiredAt && (
+          <p role="status" className="rounded-md border border-l-4 border-hemp/30 border-l-hemp bg-hemp-pale/40 px-4 py-2 text-body" data-testid="retired-accelerator">
+            {picked.name} is retired from the catalog. These figures use its last catalog numbers; pick another accelerator for new work (a plan draft cannot be submitted on it).
           </p>
         )}
         {cluster.kind === "catalog" && picked && (

@@ -37,7 +37,9 @@ export function ModelPicker({ value, onChange, profiles, issues }: Props) {
           value={value.modelId}
           onChange={(modelId) => onChange({ kind: "profile", modelId })}
           emptyLabel="Pick a profile…"
-          options={profiles.map((p) => ({ value: String(p.id), label: `${p.name} (${p.family}): ${formatCount(p.parameters)} parameters, trained at ${p.trainedContext} tokens` }))}
+          options={profiles
+            .filter((p) => !p.retiredAt || String(p.id) === value.modelId)
+            .map((p) => ({ value: String(p.id), label: `${p.name} (${p.family}): ${formatCount(p.parameters)} parameters, trained at ${p.trainedContext} tokens${p.retiredAt ? " (retired)" : ""}` }))}
           error={issues["model.modelId"]}
           hint={profiles.length ? undefined : "No profiles yet; type a shape instead."}
         />

@@ -16,7 +16,7 @@ export const BLANK_PROFILE: Partial<ModelProfileInput> = {
 /** The editable part of a stored profile. */
 export function profileInput(m: ModelProfile): ModelProfileInput {
   const {
-    id: _id, rotaryDim: _d, pairs: _p, sourceFileName: _f, importWarnings: _w, createdBy: _c, createdAt: _ca, updatedAt: _u, ...input
+    id: _id, rotaryDim: _d, pairs: _p, sourceFileName: _f, importWarnings: _w, createdBy: _c, createdAt: _ca, updatedAt: _u, retiredAt: _r, ...input
   } = m;
   return input;
 }

@@ -23,9 +23,12 @@ const columns = [
   column.accessor("name", {
     header: "Name",
     cell: (c) => (
-      <Link to={paths.model(c.row.original.id)} className="font-medium underline-offset-4 hover:underline">
-        {c.getValue()}
-      </Link>
+      <span className="flex flex-wrap items-center gap-1">
+        <Link to={paths.model(c.row.original.id)} className="font-medium underline-offset-4 hover:underline">
+          {c.getValue()}
+        </Link>
+        {c.row.original.retiredAt && <Chip tone="muted">retired</Chip>}
+      </span>
     ),
   }),
   column.accessor("family", { header: "Family" }),

@@ -25,6 +25,11 @@ export function ProfileDetail({ model, canEdit, onDeleted, actions }: ProfileDet
   const [saved, setSaved] = useState(false);
   return (
     <div className="flex flex-col gap-6">
+      {model.retiredAt && (
+        <Notice title="This profile is retired">
+          Plans that use it keep working and the workbench still opens it, but it is no longer offered where a profile is picked.
+        </Notice>
+      )}
       <Panel title="At a glance" aside={actions}>
         <ProfileFacts model={model} />
       </Panel>
@@ -62,7 +67,7 @@ export function ProfileDetail({ model, canEdit, onDeleted, actions }: ProfileDet
         </Panel>
       )}
       {canEdit && (
-        <Panel title="Delete">
+        <Panel title={model.retiredAt ? "Retired" : "Delete"}>
           <DeleteProfile model={model} onDeleted={onDeleted} />
         </Panel>
       )}

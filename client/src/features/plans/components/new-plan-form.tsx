@@ -52,7 +52,7 @@ export function NewPlanForm({ models, minApprovals, onCreated, afterStages }: Ne
             {...register("modelId", { setValueAs: toNumber })}
           >
             <option value="">Pick a model profile</option>
-            {models.map((m) => (
+            {models.filter((m) => !m.retiredAt).map((m) => (
               <option key={m.id} value={m.id}>{m.name}</option>
             ))}
           </SelectField>

@@ -33,9 +33,10 @@ export function ModelInput({ choice, profiles, onChange, errors }: ModelInputPro
         onChange={(e) => onChange(e.target.value === "shape" ? EMPTY_SHAPE : { kind: "saved", id: e.target.value ? Number(e.target.value) : null })}
       >
         <option value="">Pick a saved profile…</option>
-        {profiles.map((p) => (
+        {/* Retired profiles leave the picker, except the one a link already names. */}
+        {profiles.filter((p) => !p.retiredAt || String(p.id) === value).map((p) => (
           <option key={p.id} value={p.id}>
-            {describe(p)}
+            {describe(p)}{p.retiredAt ? " (retired)" : ""}
           </option>
         ))}
         <option value="shape">Type a shape in…</option>
