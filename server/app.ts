@@ -22,6 +22,8 @@ import { openApiDocument } from "./openapi";
 import { acceleratorsRouter, budgetsRouter } from "./features/budgets/budgets.router";
 import { bearerAuth, unlessBearer } from "./http/bearer";
 import { rejectHostileInput } from "./http/hostile";
+import { requestLog } from "./http/request-log";
+import { createLogger } from "./logger";
 
 export const JSON_LIMIT = "512kb";
 
@@ -29,6 +31,8 @@ export const JSON_LIMIT = "512kb";
 export function createApp(deps: AppDeps) {
   const app = express();
   app.disable("x-powered-by");
+  const logger = deps.logger ?? createLogger({ level: deps.config.logLevel });
+  app.use(requestLog(logger));
   app.set("trust proxy", deps.config.trustProxy);
   app.use(
     helmet({

@@ -18,6 +18,7 @@ const envSchema = z.object({
   PUBLIC_URL: z.string().optional(),
   CLIENT_DIR: z.string().optional(),
   TRUST_PROXY: bool.optional(),
+  LOG_LEVEL: z.enum(["fatal", "error", "warn", "info", "debug", "trace", "silent"]).optional(),
   LOGIN_LIMIT_PER_ACCOUNT_ADDRESS: z.coerce.number().int().positive().default(10),
   LOGIN_LIMIT_PER_ADDRESS: z.coerce.number().int().positive().default(100),
   LOGIN_WINDOW_MINUTES: z.coerce.number().positive().default(15),
@@ -48,6 +49,8 @@ export interface Config {
    */
   login: { perAccountAddress: number; perAddress: number; windowMs: number; perAccount: number; accountWindowMs: number };
   bcryptCost: number;
+  /** pino level (LOG_LEVEL); tests are silent unless LOG_LEVEL says otherwise. */
+  logLevel: string;
   /** PostgreSQL connection and statement timeouts (DB_CONNECT_TIMEOUT_MS, DB_STATEMENT_TIMEOUT_MS). */
   db: DbTimeouts;
 }
@@ -71,6 +74,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
     sessionSecret: e.SESSION_SECRET ?? "ropewalk-local-development-secret",
     cookieSecure: production,
     trustProxy: e.TRUST_PROXY ?? false,
+    logLevel: e.LOG_LEVEL ?? (e.NODE_ENV === "test" ? "silent" : "info"),
     smtpUrl: e.SMTP_URL ?? (production ? undefined : `smtp://127.0.0.1:${e.MAIL_SINK_PORT}`),
     mailFrom: e.MAIL_FROM,
     mailSinkPort: e.MAIL_SINK_PORT,

@@ -2,6 +2,7 @@ import type pg from "pg";
 import type { Store } from "express-rate-limit";
 import type { Db } from "./db/client";
 import type { Config } from "./config";
+import type { Logger } from "./logger";
 
 /** What createApp needs; tests build their own with a test database. */
 export interface AppDeps {
@@ -9,5 +10,7 @@ export interface AppDeps {
   pool: pg.Pool;
   db: Db;
   /** Shared store for the sign-in limiters (one per limiter name); unset = in-process memory. */
+  /** Structured logger; createApp makes one from config.logLevel when unset. */
+  logger?: Logger;
   limiterStore?: (name: string) => Store | undefined;
 }

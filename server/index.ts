@@ -3,11 +3,13 @@ import { loadConfig } from "./config";
 import { createDb } from "./db/client";
 import { createApp } from "./app";
 import { startOutboxWorker } from "./mail/worker";
+import { createLogger } from "./logger";
 
 /** Starts the HTTP server; resolves once it listens. Used by `npm start` and production. */
 export async function startServer(config = loadConfig()) {
   const { pool, db } = createDb(config.databaseUrl, 10, config.db);
-  const app = createApp({ config, pool, db });
+  const logger = createLogger({ level: config.logLevel });
+  const app = createApp({ config, pool, db, logger });
   const server: Server = await new Promise((resolve, reject) => {
     const s = app.listen(config.port, config.host, () => resolve(s));
     s.on("error", reject);
@@ -27,7 +29,7 @@ export async function startServer(config = loadConfig()) {
   };
   process.on("SIGTERM", () => void shutdown("SIGTERM"));
   process.on("SIGINT", () => void shutdown("SIGINT"));
-  process.on("unhandledRejection", (reason) => console.error("[unhandledRejection]", reason));
+  process.on("unhandledRejection", (reason) => logger.error({ err: reason }, "unhandled promise rejection"));
   return { server, pool, db, config };
 }
 

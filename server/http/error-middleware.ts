@@ -32,10 +32,11 @@ export function errorMiddleware(err: unknown, req: Request, res: Response, _next
 
   if (isDatabaseUnavailable(err)) {
     // Logged without the error object: driver errors can carry query parameters and connection details.
-    console.error(`[db] ${req.method} ${req.path}: database unavailable (${(err as Error).message})`);
+    req.log.warn({ err }, "database unavailable");
     res.set("Retry-After", "5");
     return send(503, "database_unavailable", "the database is unavailable right now; try again in a few seconds");
   }
-  console.error(`[error] ${req.method} ${req.originalUrl}:`, err);
+  // The logger's error serializer (server/log-errors.ts) keeps query parameters and driver internals out.
+  req.log.error({ err }, "unhandled error");
   return send(500, "internal", "something went wrong on our side; it has been logged");
 }
