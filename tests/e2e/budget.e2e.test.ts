@@ -1,9 +1,8 @@
-import fs from "node:fs";
 import path from "node:path";
 import Papa from "papaparse";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, BrowserContext, Page } from "playwright-core";
-import { launchBrowser, screenshot, SCREENSHOT_DIR, requireBuiltClient, signIn } from "../setup/browser";
+import { launchBrowser, screenshot, SCREENSHOT_DIR, requireBuiltClient, signIn, downloadedText } from "../setup/browser";
 import { makeTestApp, type Agent } from "../setup/app";
 import { createPlan, createProfile, post, put } from "../setup/plans";
 import { startTestServer } from "../setup/server";
@@ -126,7 +125,7 @@ describe("budget sheet in a browser", () => {
 
     const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: "Download the stage table (CSV)" }).click()]);
     expect(download.suggestedFilename()).toBe("ropewalk-estimate.csv");
-    const csv = Papa.parse<Record<string, string>>(fs.readFileSync(await download.path(), "utf8"), { header: true, skipEmptyLines: true });
+    const csv = Papa.parse<Record<string, string>>(await downloadedText(download), { header: true, skipEmptyLines: true });
     expect(csv.data.map((r) => r.stage)).toEqual(["1", "2", "total"]);
     const [s1, s2, total] = csv.data;
     expect(Number(s1.tokens)).toBe(200 * 64 * 16384);

@@ -1,7 +1,6 @@
-import fs from "node:fs";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, BrowserContext, Page } from "playwright-core";
-import { launchBrowser, screenshot, signIn, requireBuiltClient } from "../setup/browser";
+import { launchBrowser, screenshot, signIn, requireBuiltClient, downloadedText } from "../setup/browser";
 import { makeTestApp } from "../setup/app";
 import { createPlan, createProfile, twoStageRevision } from "../setup/plans";
 import type { Agent } from "../setup/app";
@@ -209,7 +208,7 @@ describe("plan workflow in a browser", () => {
     await screenshot(page, "plans-plan-approved");
 
     const [exported] = await Promise.all([page.waitForEvent("download"), page.getByRole("link", { name: "Download export (config patch JSON)" }).click()]);
-    const envelope = JSON.parse(fs.readFileSync(await exported.path(), "utf8"));
+    const envelope = JSON.parse(await downloadedText(exported));
     expect(envelope.config.rope_scaling.rope_type).toBe("yarn");
     // YaRN with the default factor: target ÷ trained = 32768 ÷ 4096.
     expect(envelope.config.rope_scaling.factor).toBe(8);
@@ -218,7 +217,7 @@ describe("plan workflow in a browser", () => {
     expect(envelope.signedBy.map((s: { name: string }) => s.name).sort()).toEqual(["Abel Approver", "Bea Approver"]);
 
     const [report] = await Promise.all([page.waitForEvent("download"), page.getByRole("link", { name: "Download report" }).click()]);
-    const html = fs.readFileSync(await report.path(), "utf8");
+    const html = await downloadedText(report);
     expect(html).toContain(title);
     expect(html.split(signedHash).length - 1).toBeGreaterThanOrEqual(2);
   }, 60_000);

@@ -3,7 +3,7 @@ import path from "node:path";
 import Papa from "papaparse";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
-import { launchBrowser, screenshot, SCREENSHOT_DIR, requireBuiltClient, signIn } from "../setup/browser";
+import { launchBrowser, screenshot, SCREENSHOT_DIR, requireBuiltClient, signIn, downloadedText } from "../setup/browser";
 import { startTestServer } from "../setup/server";
 import { createTestUser, type TestUser } from "../setup/users";
 import { makeTestApp } from "../setup/app";
@@ -161,7 +161,7 @@ describe("workbench in a browser", () => {
     await expect(rows.count()).resolves.toBe(flagged);
 
     const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: "Download CSV" }).click()]);
-    const csv = Papa.parse<string[]>(fs.readFileSync((await download.path())!, "utf8").trim());
+    const csv = Papa.parse<string[]>((await downloadedText(download)).trim());
     const headers = (await table.locator("thead th").allTextContents()).map((t) => t.replace(/[▲▼↕]/g, "").trim());
     expect(csv.data[0]).toEqual(headers);
     expect(csv.data.length - 1).toBe(await rows.count());

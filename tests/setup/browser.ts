@@ -1,6 +1,6 @@
 import fs from "node:fs";
 import path from "node:path";
-import { chromium, type Browser, type Page } from "playwright-core";
+import { chromium, type Browser, type Download, type Page } from "playwright-core";
 
 const root = path.resolve(import.meta.dirname, "../..");
 export const SCREENSHOT_DIR = path.join(root, "artifacts/screenshots");
@@ -11,12 +11,29 @@ function chromiumPath(): string {
   return fs.existsSync("/usr/lib/chromium/chromium") ? "/usr/lib/chromium/chromium" : "/usr/bin/chromium";
 }
 
+export const LAUNCH_OPTIONS = {
+  executablePath: chromiumPath(),
+  headless: true,
+  args: ["--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
+};
+/** Set by tests/setup/global-browser.ts: the one Chromium the e2e files share for the run. */
+export const BROWSER_ENDPOINT_ENV = "ROPEWALK_TEST_BROWSER_WS";
+
+/**
+ * Connects to the run's shared Chromium (a few hundred milliseconds instead of seconds per file for a launch
+ * and a close); launches one of its own when run outside the e2e project. Each file still works in its own
+ * contexts, and `close()` on a connected browser closes only those.
+ */
 export function launchBrowser(): Promise<Browser> {
-  return chromium.launch({
-    executablePath: chromiumPath(),
-    headless: true,
-    args: ["--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
-  });
+  const shared = process.env[BROWSER_ENDPOINT_ENV];
+  return shared ? chromium.connect(shared) : chromium.launch(LAUNCH_OPTIONS);
+}
+
+/** The text of a finished download; `download.path()` is unavailable on a connected browser, so it is streamed. */
+export async function downloadedText(download: Download): Promise<string> {
+  const chunks: Buffer[] = [];
+  for await (const chunk of await download.createReadStream()) chunks.push(chunk as Buffer);
+  return Buffer.concat(chunks).toString("utf8");
 }
 
 /** Full-page picture of the current screen, kept in artifacts/ (git-ignored) for people to look at. */

@@ -1,11 +1,13 @@
 import fs from "node:fs";
 import { spawnSync } from "node:child_process";
+import { chromium } from "playwright-core";
+import { BROWSER_ENDPOINT_ENV, LAUNCH_OPTIONS } from "./browser";
 
 /**
  * The browser tests drive Debian's Chromium; on a fresh machine the e2e project installs it the way `npm start`
  * installs PostgreSQL (root with apt-get), or says plainly what is missing. Only the e2e projects list this file.
  */
-export default function ensureChromium() {
+function ensureChromium() {
   if (process.env.CHROMIUM_PATH || fs.existsSync("/usr/lib/chromium/chromium") || fs.existsSync("/usr/bin/chromium")) return;
   const asRoot = process.getuid?.() === 0;
   const hasApt = spawnSync("sh", ["-c", "command -v apt-get"]).status === 0;
@@ -20,4 +22,19 @@ export default function ensureChromium() {
     spawnSync("apt-get", ["update"], { stdio: ["ignore", "ignore", "inherit"], env });
     if (!tryInstall()) console.error("apt-get install -y chromium failed; the browser tests will fail until Chromium is installed.");
   }
+}
+
+/** One Chromium for the whole e2e run: files connect to it (`launchBrowser()`) instead of each starting and stopping one. */
+export default async function setup() {
+  ensureChromium();
+  let server;
+  try {
+    server = await chromium.launchServer(LAUNCH_OPTIONS);
+  } catch (e) {
+    // Each file then tries its own launch and fails with the reason beside the test.
+    console.error(`Chromium did not start for the browser tests: ${(e as Error).message}`);
+    return;
+  }
+  process.env[BROWSER_ENDPOINT_ENV] = server.wsEndpoint();
+  return () => server.close();
 }
