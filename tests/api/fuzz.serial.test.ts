@@ -103,6 +103,34 @@ describe("hostile input on every documented route", () => {
     });
   }
 
+  it("post /api/models/import (multipart: the file and its overrides field)", async () => {
+    const before = findings.length;
+    const config = {
+      _name_or_path: "fuzz/heron-@@U@@", model_type: "heron", hidden_size: 2048, num_attention_heads: 16, num_key_value_heads: 4,
+      num_hidden_layers: 22, max_position_embeddings: 8192, rope_theta: 10000, torch_dtype: "bfloat16",
+      rope_scaling: { rope_type: "yarn", factor: 2, original_max_position_embeddings: 4096 },
+    };
+    const overrides = { name: "Fuzz-@@U@@", currentScaling: { method: "yarn", params: { factor: 2 }, raw: { rope_type: "yarn" } } };
+    const upload = (file: string, extra?: string) => {
+      const req = admin.post("/api/models/import?save=true").set("X-CSRF-Token", admin.csrf);
+      if (extra !== undefined) req.field("overrides", extra);
+      return req.attach("file", Buffer.from(file, "utf8"), "config.json");
+    };
+    // NUL and runaway nesting must be blamed on the field that holds them; other values may fail a profile rule instead.
+    const strict = (label: string) => label.includes("NUL") || label.includes("deep") || label === JSON.stringify(NUL);
+    const jobs = [
+      ...mutations(config).map((m) => async () =>
+        judge(`import file ${m.path.join(".") || "(root)"} = ${m.label}`, await upload(fresh(m.json)), ["file"], !strict(m.label))),
+      ...mutations(overrides).map((m) => async () => {
+        const r = await upload(fresh(JSON.stringify(config)), fresh(m.json));
+        const named = namesField(r.body?.error?.fields, ["overrides", ...m.path]) || namesField(r.body?.error?.fields, m.path);
+        judge(`import overrides ${m.path.join(".") || "(root)"} = ${m.label}`, r, named ? null : ["overrides", ...m.path], !strict(m.label));
+      }),
+    ];
+    for (let i = 0; i < jobs.length; i += 4) await Promise.all(jobs.slice(i, i + 4).map((job) => job()));
+    expect(findings.slice(before).map((f) => `${f.status} ${f.what}: ${f.body}`)).toEqual([]);
+  });
+
   it("lists every profile afterwards (no stored profile breaks GET /api/models)", async () => {
     const r = await admin.get("/api/models");
     expect(r.status, JSON.stringify(r.body).slice(0, 300)).toBe(200);

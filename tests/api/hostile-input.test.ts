@@ -58,6 +58,18 @@ describe("JSON nested deeper than the limit", () => {
     expect((await a.get("/api/models")).status).toBe(200);
   });
 
+  it("a too-deep scaling block stored before the limit existed no longer breaks GET /api/models", async () => {
+    const a = await agentAs(["researcher"]);
+    const model = await createProfile(a);
+    await testDb().pool.query("UPDATE model_profiles SET current_scaling = $1::jsonb WHERE id = $2", [deepJson(), model.id]);
+    const list = await a.get("/api/models");
+    expect(list.status, JSON.stringify(list.body).slice(0, 300)).toBe(200);
+    const stored = list.body.models.find((m: { id: number }) => m.id === model.id);
+    expect(stored.currentScaling).toBeNull();
+    expect(stored.importWarnings.map((w: { code: string }) => w.code)).toContain("scaling_unreadable");
+    expect((await a.get(`/api/models/${model.id}`)).status).toBe(200);
+  });
+
   it("accepts nesting up to the limit", async () => {
     const a = await agentAs(["researcher"]);
     // The body is level 1 and currentScaling level 2, so raw may hold MAX_JSON_DEPTH − 2 levels of objects.

@@ -2,6 +2,7 @@ import type { AppDeps } from "../../deps";
 import type { Executor } from "../../db/client";
 import { Conflict, Invalid, NotFound } from "../../http/errors";
 import { parseOr400 } from "../../http/validate";
+import { findHostile, MAX_JSON_DEPTH } from "../../http/hostile";
 import { recordAudit } from "../audit/audit.repo";
 import {
   modelProfileInputSchema, rotaryDimOf,
@@ -11,13 +12,25 @@ import { ConfigImportError, parseModelConfig } from "./config-import";
 import * as repo from "./models.repo";
 import { isUniqueViolation } from "../../db/errors";
 
+/**
+ * A profile stored before the nesting limit existed may hold a scaling block too deep to serialise, which broke
+ * every reader of the list; such a block reads as none, with a warning saying so.
+ */
+const UNREADABLE_SCALING: ImportWarning = {
+  code: "scaling_unreadable",
+  message: `The stored rope_scaling block is nested deeper than ${MAX_JSON_DEPTH} levels and cannot be shown.`,
+  fix: "Import the config again, or enter the current scaling by hand.",
+};
+
 export function toModelProfile(row: repo.ModelRow): ModelProfile {
   const { sourceConfig: _omit, ...rest } = row;
   const d = rotaryDimOf(row);
+  const unreadable = row.currentScaling != null && findHostile(row.currentScaling) !== undefined;
+  const warnings = (row.importWarnings as ImportWarning[]) ?? [];
   return {
     ...rest,
-    currentScaling: (row.currentScaling as ModelProfile["currentScaling"]) ?? null,
-    importWarnings: (row.importWarnings as ImportWarning[]) ?? [],
+    currentScaling: unreadable ? null : ((row.currentScaling as ModelProfile["currentScaling"]) ?? null),
+    importWarnings: unreadable ? [...warnings, UNREADABLE_SCALING] : warnings,
     retiredAt: row.retiredAt?.toISOString() ?? null,
     rotaryDim: d,
     pairs: d / 2,
