@@ -55,7 +55,7 @@ export function AcceleratorsTable({ accelerators, canEdit, busyId, onEdit, onDel
     <DataTable
       data={accelerators}
       columns={columns}
-      caption={onRestore ? "Retired accelerators" : "Accelerators"}
+      caption={onRestore ? "Retired from the catalog" : "Accelerators"}
       getRowId={(a) => String(a.id)}
       initialSorting={[{ id: "name", desc: false }]}
       emptyText="The catalog is empty."
