@@ -24,6 +24,7 @@ import { bearerAuth, unlessBearer } from "./http/bearer";
 import { rejectHostileInput } from "./http/hostile";
 import { requestLog } from "./http/request-log";
 import { createLogger } from "./logger";
+import { signingKeyRouter } from "./features/plans/signing-key.router";
 
 export const JSON_LIMIT = "512kb";
 
@@ -46,6 +47,7 @@ export function createApp(deps: AppDeps) {
   const api = express.Router();
   api.use("/health", healthRouter(deps));
   api.get("/openapi.json", (_req, res) => res.json(openApiDocument()));
+  api.use("/signing-key", signingKeyRouter(deps));
   api.use(bearerAuth(deps));
   api.use(unlessBearer(cookieParser(deps.config.sessionSecret)));
   api.use(unlessBearer(sessionMiddleware(deps)));

@@ -17,6 +17,7 @@ const envSchema = z.object({
   MAIL_RETRY_BASE_MS: z.coerce.number().int().min(0).default(5000),
   PUBLIC_URL: z.string().optional(),
   CLIENT_DIR: z.string().optional(),
+  SIGNING_KEY_FILE: z.string().min(1).optional(),
   TRUST_PROXY: bool.optional(),
   LOG_LEVEL: z.enum(["fatal", "error", "warn", "info", "debug", "trace", "silent"]).optional(),
   LOGIN_LIMIT_PER_ACCOUNT_ADDRESS: z.coerce.number().int().positive().default(10),
@@ -48,6 +49,8 @@ export interface Config {
    * addresses (a higher ceiling over a longer window, so strangers cannot lock the owner out quickly).
    */
   login: { perAccountAddress: number; perAddress: number; windowMs: number; perAccount: number; accountWindowMs: number };
+  /** Ed25519 private key (PKCS#8 PEM, mode 0600) that signs decisions; created at first start when missing. */
+  signingKeyFile: string;
   bcryptCost: number;
   /** pino level (LOG_LEVEL); tests are silent unless LOG_LEVEL says otherwise. */
   logLevel: string;
@@ -81,6 +84,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
     mailRetryBaseMs: e.MAIL_RETRY_BASE_MS,
     publicUrl: e.PUBLIC_URL ?? `http://${e.HOST}:${e.PORT}`,
     clientDir: path.resolve(e.CLIENT_DIR ?? "dist/client"),
+    // Outside the database on purpose: whoever can rewrite rows must not also be able to re-sign them.
+    signingKeyFile: path.resolve(e.SIGNING_KEY_FILE ?? ".data/signing-key.pem"),
     login: {
       perAccountAddress: e.LOGIN_LIMIT_PER_ACCOUNT_ADDRESS,
       perAddress: e.LOGIN_LIMIT_PER_ADDRESS,

@@ -4,9 +4,12 @@ import { createDb } from "./db/client";
 import { createApp } from "./app";
 import { startOutboxWorker } from "./mail/worker";
 import { createLogger } from "./logger";
+import { signingKey } from "./features/plans/signing";
 
 /** Starts the HTTP server; resolves once it listens. Used by `npm start` and production. */
 export async function startServer(config = loadConfig()) {
+  // Created at first start (mode 0600); a bad key file stops the start here rather than at the first decision.
+  signingKey(config.signingKeyFile);
   const { pool, db } = createDb(config.databaseUrl, 10, config.db);
   const logger = createLogger({ level: config.logLevel });
   const app = createApp({ config, pool, db, logger });

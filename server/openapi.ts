@@ -3,6 +3,7 @@ import { z } from "zod";
 import * as s from "../shared/schemas";
 import { acceleratorInputSchema, acceleratorUpdateSchema, budgetEstimateRequestSchema, budgetEstimateSchema } from "../shared/schemas/budget";
 import { baseBoundRequestSchema, baseBoundResponseSchema } from "../shared/schemas/bounds";
+import { signingKeyResponseSchema, verifyResponseSchema } from "../shared/schemas/plan-responses";
 
 type Method = "get" | "post" | "put" | "patch" | "delete";
 interface Route { method: Method; path: string; summary: string; tag: string; body?: z.ZodType; query?: z.ZodObject; response?: z.ZodType; status?: number }
@@ -46,7 +47,8 @@ export const ROUTES: Route[] = [
   { method: "post", path: "/api/plans/{id}/revisions/{n}/submit", summary: "Submit a draft for review", tag: "workflow" },
   { method: "post", path: "/api/plans/{id}/revisions/{n}/withdraw", summary: "Withdraw a revision from review", tag: "workflow" },
   { method: "post", path: "/api/plans/{id}/revisions/{n}/decisions", summary: "Approve or request changes (approver)", tag: "workflow", body: s.decisionRequestSchema },
-  { method: "get", path: "/api/plans/{id}/revisions/{n}/verify", summary: "Recompute the content hash", tag: "export" },
+  { method: "get", path: "/api/plans/{id}/revisions/{n}/verify", summary: "Recompute the content hash; check each decision's signed hash and signature", tag: "export", response: verifyResponseSchema },
+  { method: "get", path: "/api/signing-key", summary: "Public Ed25519 key (PEM) and key id that check decision signatures (no sign-in)", tag: "export", response: signingKeyResponseSchema },
   { method: "get", path: "/api/plans/{id}/revisions/{n}/export", summary: "Configuration patch of a signed revision", tag: "export" },
   { method: "get", path: "/api/plans/{id}/revisions/{a}/diff/{b}", summary: "Differences between two revisions", tag: "plans" },
   { method: "get", path: "/api/plans/{id}/revisions/{n}/report", summary: "Printable HTML report", tag: "export" },

@@ -135,12 +135,19 @@ export const transitionResponseSchema = z.object({
   approvals: z.number().optional(),
 });
 
+/** ok = hash intact, every approval of the current round signed it, every decision's signature verifies. */
 export const verifyResponseSchema = z.object({
   number: z.number(),
   ok: z.boolean(),
   storedHash: z.string(),
   computedHash: z.string(),
   engineVersion: z.string(),
+  hashIntact: z.boolean(),
+  /** The server's current signing key id (GET /api/signing-key). */
+  keyId: z.string(),
+  /** One plain sentence per failed check; empty when ok. */
+  problems: z.array(z.string()),
+  decisions: z.array(decisionSchema.omit({ comment: true })),
 });
 export type VerifyResponse = z.infer<typeof verifyResponseSchema>;
 
@@ -173,7 +180,15 @@ export const exportEnvelopeSchema = z.object({
   method: methodParamsSchema,
   config: configPatchSchema,
   attentionFactor: z.number(),
-  signedBy: z.array(z.object({ name: z.string(), email: z.string(), signedHash: z.string(), at: z.string() })),
+  /** The key that signed the decisions below (GET /api/signing-key serves its public half). */
+  keyId: z.string(),
+  /** Each approval of the exported round: `signature` is base64 Ed25519 over the RFC 8785 canonical JSON of `payload`. */
+  signedBy: z.array(z.object({
+    name: z.string(), email: z.string(), signedHash: z.string(), at: z.string(), keyId: z.string(), signature: z.string(),
+    payload: z.object({
+      planId: z.number(), revision: z.number(), contentHash: z.string(), approverId: z.number(), decision: z.string(), round: z.number(), time: z.string(),
+    }),
+  })),
   caution: z.string(),
 });
 export type ExportEnvelope = z.infer<typeof exportEnvelopeSchema>;
@@ -190,6 +205,10 @@ export const reviewQueueItemSchema = z.object({
 });
 export type ReviewQueueItem = z.infer<typeof reviewQueueItemSchema>;
 export const reviewQueueResponseSchema = z.object({ items: z.array(reviewQueueItemSchema) });
+
+/** GET /api/signing-key: the public half of the key that signs decisions. */
+export const signingKeyResponseSchema = z.object({ algorithm: z.literal("Ed25519"), keyId: z.string(), publicKeyPem: z.string() });
+export type SigningKeyResponse = z.infer<typeof signingKeyResponseSchema>;
 
 /** GET /api/plans/owners: everyone who owns at least one plan, by name (plans.list.ts planOwners). */
 export const planOwnersResponseSchema = z.object({ owners: z.array(ref) });

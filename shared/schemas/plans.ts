@@ -7,6 +7,8 @@ export const REVISION_STATES = ["draft", "in_review", "approved", "changes_reque
 export const revisionStateSchema = z.enum(REVISION_STATES);
 export type RevisionState = z.infer<typeof revisionStateSchema>;
 export const DECISIONS = ["approve", "request_changes"] as const;
+/** valid; invalid (does not verify); missing (recorded before signing); unknown_key (signed by a key this server does not hold). */
+export const SIGNATURE_STATUSES = ["valid", "invalid", "missing", "unknown_key"] as const;
 
 const text = (max: number) => z.string().max(max);
 
@@ -121,5 +123,9 @@ export const decisionSchema = z.object({
   signedHash: z.string(),
   round: z.number(),
   at: z.string(),
+  /** Which server key signed it (SHA-256 of the public key's DER SubjectPublicKeyInfo, hex); null before signing existed. */
+  keyId: z.string().nullable(),
+  /** The server's Ed25519 signature over this decision, checked against the current key when read. */
+  signatureStatus: z.enum(SIGNATURE_STATUSES),
 });
 export type Decision = z.infer<typeof decisionSchema>;

@@ -205,6 +205,10 @@ describe("plan workflow in a browser", () => {
     await expect.poll(() => page.getByRole("list", { name: "Revisions" }).textContent(), { timeout: 15_000 }).toContain("Approved");
     await page.getByTestId("verify-status").and(page.locator('[data-ok="true"]')).waitFor();
     await expect(page.getByRole("list", { name: "Decisions" }).getByTestId("signed-hash").allTextContents()).resolves.toEqual([signedHash, signedHash]);
+    // Each decision says that the server's signature on it holds.
+    const seals = page.getByRole("list", { name: "Decisions" }).getByTestId("signature-status");
+    await expect(seals.evaluateAll((els) => els.map((e) => e.getAttribute("data-status")))).resolves.toEqual(["valid", "valid"]);
+    await expect(seals.first().textContent()).resolves.toMatch(/Server signature holds · key [0-9a-f]/);
     await screenshot(page, "plans-plan-approved");
 
     const [exported] = await Promise.all([page.waitForEvent("download"), page.getByRole("link", { name: "Download export (config patch JSON)" }).click()]);

@@ -1,3 +1,6 @@
+import crypto from "node:crypto";
+import os from "node:os";
+import path from "node:path";
 import request from "supertest";
 import type { Express } from "express";
 import { createApp } from "../../server/app";
@@ -9,9 +12,16 @@ import { createTestUser, type TestUser } from "./users";
 
 export type Agent = ReturnType<typeof request.agent> & { csrf: string; user?: TestUser };
 
+/**
+ * One signing key per test database, in the system temp folder (never the repo's .data): every worker of a run signs
+ * and verifies with the same key, and two runs never share one.
+ */
+export const testSigningKeyFile = () =>
+  path.join(os.tmpdir(), "ropewalk-test-keys", `${crypto.createHash("sha256").update(process.env.TEST_DATABASE_URL ?? "none").digest("hex").slice(0, 16)}.pem`);
+
 export function testConfig(overrides: Partial<Config> = {}): Config {
   return loadConfig(
-    { NODE_ENV: "test", DATABASE_URL: process.env.TEST_DATABASE_URL, LOGIN_LIMIT_PER_ADDRESS: "100000" },
+    { NODE_ENV: "test", DATABASE_URL: process.env.TEST_DATABASE_URL, LOGIN_LIMIT_PER_ADDRESS: "100000", SIGNING_KEY_FILE: testSigningKeyFile() },
     overrides,
   );
 }

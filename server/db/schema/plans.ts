@@ -56,6 +56,10 @@ export const planDecisions = pgTable(
     comment: text("comment").notNull().default(""),
     signedHash: text("signed_hash").notNull(),
     at: timestamp("at", { withTimezone: true }).notNull().defaultNow(),
+    /** Base64 Ed25519 signature by the server key over {planId, revision, contentHash, approverId, decision, round, time}; null only for rows older than signing. */
+    signature: text("signature"),
+    /** SHA-256 of the signing public key (DER SubjectPublicKeyInfo), hex. */
+    keyId: text("key_id"),
   },
   (t) => [uniqueIndex("plan_decisions_once").on(t.revisionId, t.round, t.approverId)],
 );

@@ -3,22 +3,34 @@ import { Conflict } from "../../http/errors";
 import { recordAudit } from "../audit/audit.repo";
 import type { SessionUser } from "../../../shared/schemas";
 import * as repo from "./plans.repo";
-import { getPlan, getRevision, mustPlan, mustRevision } from "./plans.service";
+import { getPlan, mustPlan, mustRevision } from "./plans.service";
 import { renderReport } from "./report";
 import { budgetSection } from "./report-budget";
-import { hashContent, type RevisionContent } from "./revision-content";
+import type { RevisionContent } from "./revision-content";
+import { checkRevision } from "./integrity";
+import { signingKey } from "./signing";
 
 export const EXPORT_CAUTION =
   "Estimates, not guarantees: this patch is what was signed; the extension is confirmed only by long-context evaluations of the tuned model.";
 
+const check = async (deps: AppDeps, planId: number, rev: repo.RevisionRow) =>
+  checkRevision(signingKey(deps.config.signingKeyFile), planId, rev, await repo.decisionsOf(deps.db, [rev.id]));
+
+/** Recomputes the content hash and checks every decision's signed hash and signature (integrity.ts). */
 export async function verifyRevision(deps: AppDeps, planId: number, n: number) {
   await mustPlan(deps.db, planId);
   const rev = await mustRevision(deps.db, planId, n);
-  const computed = hashContent(rev.content);
-  return { number: n, ok: computed === rev.contentHash, storedHash: rev.contentHash, computedHash: computed, engineVersion: rev.engineVersion };
+  const c = await check(deps, planId, rev);
+  return {
+    number: n, ok: c.ok, storedHash: rev.contentHash, computedHash: c.computedHash, engineVersion: rev.engineVersion,
+    hashIntact: c.hashIntact, keyId: c.keyId, problems: c.problems,
+    decisions: c.decisions.map((d) => ({
+      approver: d.approver, decision: d.decision, round: d.round, signedHash: d.signedHash, at: d.at, keyId: d.keyId, signatureStatus: d.signatureStatus,
+    })),
+  };
 }
 
-/** The signed configuration patch; refused when the stored content no longer matches its hash. */
+/** The signed configuration patch; refused (409) when any integrity check fails. */
 export async function exportRevision(deps: AppDeps, actor: SessionUser, planId: number, n: number | "approved", via: "session" | "token") {
   const plan = await mustPlan(deps.db, planId);
   let number: number;
@@ -31,12 +43,12 @@ export async function exportRevision(deps: AppDeps, actor: SessionUser, planId: 
   if (rev.state !== "approved" && rev.state !== "superseded") {
     throw new Conflict(`revision ${number} is ${rev.state}; only signed revisions export`, { state: rev.state });
   }
-  const computed = hashContent(rev.content);
-  if (computed !== rev.contentHash) {
-    throw new Conflict(`revision ${number} fails its integrity check (stored ${rev.contentHash.slice(0, 12)}…, computed ${computed.slice(0, 12)}…); export refused`, { contentHash: "mismatch" });
+  const c = await check(deps, planId, rev);
+  if (!c.ok) {
+    throw new Conflict(`revision ${number} fails its integrity check (${c.problems.join("; ")}); export refused`, c.hashIntact ? { signatures: "do not hold" } : { contentHash: "mismatch" });
   }
   const content = rev.content as RevisionContent;
-  const decisions = (await repo.decisionsOf(deps.db, [rev.id])).filter((d) => d.d.decision === "approve" && d.d.round === rev.round);
+  const decisions = c.decisions.filter((d) => d.decision === "approve" && d.round === rev.round);
   await recordAudit(deps.db, { actorId: actor.id, action: "revision.exported", subjectType: "plan", subjectId: planId, detail: { revision: number, via, hash: rev.contentHash } });
   return {
     plan: { id: plan.id, title: plan.title },
@@ -49,20 +61,26 @@ export async function exportRevision(deps: AppDeps, actor: SessionUser, planId: 
     method: content.method,
     config: content.results.final.patch,
     attentionFactor: content.results.final.attentionFactor,
-    signedBy: decisions.map((d) => ({ name: d.name, email: d.email, signedHash: d.d.signedHash, at: d.d.at.toISOString() })),
+    keyId: c.keyId,
+    // Each signature covers the RFC 8785 canonical JSON of its payload; README "Verifying an export offline".
+    signedBy: decisions.map((d) => ({
+      name: d.approver.name, email: d.approver.email, signedHash: d.signedHash, at: d.at, keyId: d.keyId!, signature: d.signature!, payload: d.payload,
+    })),
     caution: EXPORT_CAUTION,
   };
 }
 
-/** The printable report of one revision; its integrity line comes from the content it prints. */
+/** The printable report of one revision; its integrity line comes from the same checks as verify and export. */
 export async function revisionReport(deps: AppDeps, planId: number, n: number) {
-  const [plan, rev] = await Promise.all([getPlan(deps, planId), getRevision(deps, planId, n)]);
+  const [plan, rev] = await Promise.all([getPlan(deps, planId), mustRevision(deps.db, planId, n)]);
   const content = rev.content as RevisionContent;
+  const c = await check(deps, planId, rev);
   return renderReport({
     plan: { id: planId, title: plan.title, purpose: plan.purpose, owner: plan.owner ?? undefined },
     revision: rev,
     content,
-    verified: hashContent(content) === rev.contentHash,
+    verified: c.ok,
+    problems: c.problems,
     decisions: plan.revisions.find((x) => x.number === n)?.decisions ?? [],
     budgetHtml: budgetSection(content),
   });

@@ -12,6 +12,8 @@ import * as repo from "./plans.repo";
 import { listPlanPage } from "./plans.list";
 import { buildContent, hashContent, snapshotOf, type ModelSnapshot, type RevisionContent } from "./revision-content";
 import { budgetPart, keptAcceleratorOf, refuseRetiredAccelerator } from "./budget-part";
+import { signatureStatus, signingKey } from "./signing";
+import { decisionPayload } from "./integrity";
 
 /** Engine results and budget figures for revision values; what gets hashed. */
 export async function makeContent(ex: Executor, model: ModelSnapshot, values: RevisionValues): Promise<RevisionContent> {
@@ -139,6 +141,7 @@ export async function getPlan(deps: AppDeps, id: number) {
   const decisions = await repo.decisionsOf(deps.db, revs.map((r) => r.id));
   const authorIds = [...new Set(revs.map((r) => r.authorId))];
   const authors = new Map(await Promise.all(authorIds.map(async (a) => [a, await repo.userRef(deps.db, a)] as const)));
+  const key = signingKey(deps.config.signingKeyFile);
   const latest = revs[revs.length - 1];
   const approved = [...revs].reverse().find((r) => r.state === "approved");
   return {
@@ -156,6 +159,7 @@ export async function getPlan(deps: AppDeps, id: number) {
         decisions: mine.map((d) => ({
           approver: { id: d.d.approverId, name: d.name, email: d.email }, decision: d.d.decision, comment: d.d.comment,
           signedHash: d.d.signedHash, round: d.d.round, at: d.d.at.toISOString(),
+          keyId: d.d.keyId, signatureStatus: signatureStatus(key, decisionPayload(id, r.number, d.d), d.d.signature, d.d.keyId),
         })),
       };
     }),

@@ -28,11 +28,13 @@ export interface ReportInput {
   revision: { number: number; state: string; contentHash: string; engineVersion: string };
   content: RevisionContent;
   verified: boolean;
+  /** What failed when not verified (hash, signed hashes, signatures). */
+  problems?: string[];
   decisions: { approver: { name: string }; decision: string; comment: string; signedHash: string; at: string }[];
   budgetHtml?: string;
 }
 
-export function renderReport({ plan, revision, content: c, verified, decisions, budgetHtml }: ReportInput) {
+export function renderReport({ plan, revision, content: c, verified, problems = [], decisions, budgetHtml }: ReportInput) {
   const row = (cells: unknown[]) => `<tr>${cells.map((v) => `<td>${esc(v)}</td>`).join("")}</tr>`;
   const head = (cells: string[]) => `<tr>${cells.map((v) => `<th>${esc(v)}</th>`).join("")}</tr>`;
   const params = (p: object) => Object.entries(p).filter(([k]) => k !== "method").map(([k, v]) => `${k}=${Array.isArray(v) ? `[${v.length} values]` : v}`).join(", ");
@@ -52,7 +54,7 @@ td,th{border:1px solid #d9cfbd;padding:3px 6px;text-align:left;vertical-align:to
 <h1>${esc(plan.title)}</h1>
 <p>Plan #${plan.id}, revision ${revision.number} (${esc(revision.state)}) · owner ${esc(plan.owner?.name)} · engine ${esc(revision.engineVersion)}</p>
 <p>Content hash (SHA-256 of RFC 8785 canonical JSON): <code>${esc(revision.contentHash)}</code> —
-${verified ? '<span class="ok">verified: the stored content matches its hash</span>' : '<span class="bad">INTEGRITY CHECK FAILED: the stored content does not match its hash</span>'}</p>
+${verified ? '<span class="ok">verified: the stored content matches its hash and every decision\'s server signature holds</span>' : `<span class="bad">INTEGRITY CHECK FAILED: ${esc(problems.join("; ") || "the stored content does not match its hash")}</span>`}</p>
 <p>${esc(plan.purpose)}</p>
 <h2>Inputs</h2><table>${head(["model", "d", "base", "trained", "target", "method"])}
 ${row([`${c.model.name} (${c.model.family})`, c.results.rotaryDim, n(c.model.ropeTheta), n(c.model.trainedContext), n(c.targetContext), `${findMethod(c.method.method)?.label ?? c.method.method} ${params(c.method)}`])}</table>

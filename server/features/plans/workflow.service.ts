@@ -8,6 +8,7 @@ import { effectiveApprovals, makeContent, mustPlan, mustRevision, revisionValues
 import { hashContent, type RevisionContent } from "./revision-content";
 import { notify } from "./notify";
 import { refuseRetiredAccelerator } from "./budget-part";
+import { signingKey, signPayload } from "./signing";
 
 const wrongState = (n: number, state: string, wanted: string) =>
   new Conflict(`revision ${n} is ${state}; this needs it ${wanted}`, { state });
@@ -77,10 +78,19 @@ export async function decide(
     }
     const already = (await repo.decisionsOf(tx, [rev.id])).some((d) => d.d.round === rev.round && d.d.approverId === actor.id);
     if (already) throw new Conflict("you already decided on this revision", { decision: "already recorded" });
-    await repo.insertDecision(tx, { revisionId: rev.id, round: rev.round, approverId: actor.id, decision: input.decision, comment: input.comment, signedHash: rev.contentHash });
+    // The signed time is the stored one (timestamptz keeps microseconds, a JS Date milliseconds: it round-trips).
+    const at = new Date();
+    const key = signingKey(deps.config.signingKeyFile);
+    const signature = signPayload(key, {
+      planId, revision: n, contentHash: rev.contentHash, approverId: actor.id, decision: input.decision, round: rev.round, time: at.toISOString(),
+    });
+    await repo.insertDecision(tx, {
+      revisionId: rev.id, round: rev.round, approverId: actor.id, decision: input.decision, comment: input.comment, signedHash: rev.contentHash,
+      at, signature, keyId: key.keyId,
+    });
     await recordAudit(tx, {
       actorId: actor.id, action: input.decision === "approve" ? "decision.approved" : "decision.changes_requested",
-      subjectType: "plan", subjectId: planId, detail: { revision: n, signedHash: rev.contentHash, comment: input.comment, round: rev.round },
+      subjectType: "plan", subjectId: planId, detail: { revision: n, signedHash: rev.contentHash, comment: input.comment, round: rev.round, keyId: key.keyId },
     });
     const author = (await repo.userRef(tx, rev.authorId))!;
     if (input.decision === "request_changes") {

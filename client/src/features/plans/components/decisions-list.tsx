@@ -1,7 +1,19 @@
 import type { Decision } from "../../../../../shared/schemas/plans";
-import { formatDateTime } from "../../../lib/format";
+import { formatDateTime, shortHash } from "../../../lib/format";
 
-/** Each approver's decision with the exact content hash they signed; earlier rounds stay on record. */
+/** The server's signature on one decision, checked when the plan was read (docs/signing.md). */
+function SignatureLine({ d }: { d: Decision }) {
+  const key = d.keyId ? shortHash(d.keyId) : "";
+  const text = {
+    valid: <span className="text-seaglass-dark">Server signature holds · key <code title={d.keyId ?? ""}>{key}</code></span>,
+    invalid: <span className="font-semibold text-signal-dark">Server signature does not hold: this record changed after it was signed</span>,
+    missing: <span className="font-semibold text-signal-dark">No server signature on this decision</span>,
+    unknown_key: <span className="font-semibold text-signal-dark">Signed with key <code title={d.keyId ?? ""}>{key}</code>, which this server does not hold</span>,
+  }[d.signatureStatus];
+  return <p className="mt-1 text-note" data-testid="signature-status" data-status={d.signatureStatus}>{text}</p>;
+}
+
+/** Each approver's decision with the exact content hash they signed and whether the server's signature holds; earlier rounds stay on record. */
 export function DecisionsList({ decisions, currentRound, contentHash }: { decisions: Decision[]; currentRound: number; contentHash: string }) {
   if (decisions.length === 0) return <p className="text-body text-ink-soft">No decisions yet.</p>;
   return (
@@ -23,6 +35,7 @@ export function DecisionsList({ decisions, currentRound, contentHash }: { decisi
               Signed hash <code className="rounded bg-white/70 px-1 break-all" data-testid="signed-hash">{d.signedHash}</code>
               {!matches && <span className="ml-2 font-semibold text-signal-dark">does not match this revision’s stored hash</span>}
             </p>
+            <SignatureLine d={d} />
           </li>
         );
       })}
