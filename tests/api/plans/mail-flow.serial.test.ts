@@ -3,7 +3,7 @@ import net from "node:net";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { makeTestApp } from "../../setup/app";
 import { testDb } from "../../setup/db";
-import { createPlan, createProfile, decide, post } from "../../setup/plans";
+import { createPlan, createProfile, decide, post, put } from "../../setup/plans";
 import { deliverDueMail } from "../../../server/mail/outbox";
 import { startMailSink, type MailSink } from "../../../server/mail/sink";
 
@@ -54,6 +54,8 @@ describe("plan workflow mail through the local SMTP sink", () => {
     // Changes requested → author; then a new revision approved → author and infra.
     await decide(approver, `${base}/decisions`, { decision: "request_changes", comment: "raise stage 1 batch" }).expect(200);
     await post(researcher, `/api/plans/${plan.id}/revisions`).expect(201);
+    // Content sent back cannot return unchanged, so the author does what was asked.
+    await put(researcher, `/api/plans/${plan.id}/revisions/2`, { version: 1, notes: "stage 1 batch raised" }).expect(200);
     await post(researcher, `/api/plans/${plan.id}/revisions/2/submit`).expect(200);
     await decide(approver, `/api/plans/${plan.id}/revisions/2/decisions`, { decision: "approve" }).expect(200);
     await deliverDueMail(app.deps, { limit: 5000 });
