@@ -5,9 +5,9 @@ import { performance } from "node:perf_hooks";
 import bcrypt from "bcryptjs";
 import pg from "pg";
 import { createApp } from "../server/app";
-import { loadConfig } from "../server/config";
+import { LOCAL_APP_ROLE, LOCAL_OWNER_ROLE, loadConfig } from "../server/config";
 import { createDb } from "../server/db/client";
-import { runMigrations } from "../server/db/migrate";
+import { migrateDatabase } from "../server/db/migrate";
 import { insertUser } from "../server/features/users/users.repo";
 import { METHOD_IDS } from "../shared/schemas/analysis";
 
@@ -21,14 +21,14 @@ const quantile = (xs: number[], p: number) => [...xs].sort((a, b) => a - b)[Math
 export async function runApiBench() {
   const port = process.env.PGPORT ?? "54329";
   execFileSync("bash", [path.join(root, "docker-free-db-scripts/start.sh"), "postgres"], { stdio: ["ignore", "ignore", "inherit"] });
-  const admin = new pg.Client({ connectionString: `postgres://app@127.0.0.1:${port}/postgres` });
+  const admin = new pg.Client({ connectionString: `postgres://${LOCAL_OWNER_ROLE}@127.0.0.1:${port}/postgres` });
   await admin.connect();
   await admin.query("DROP DATABASE IF EXISTS ropewalk_bench WITH (FORCE)");
   await admin.query("CREATE DATABASE ropewalk_bench");
   await admin.end();
-  const config = loadConfig({ NODE_ENV: "test", DATABASE_URL: `postgres://app@127.0.0.1:${port}/ropewalk_bench`, LOGIN_LIMIT_PER_ADDRESS: "100000" });
+  const config = loadConfig({ NODE_ENV: "test", DATABASE_URL: `postgres://${LOCAL_APP_ROLE}@127.0.0.1:${port}/ropewalk_bench`, LOGIN_LIMIT_PER_ADDRESS: "100000" });
+  await migrateDatabase(`postgres://${LOCAL_OWNER_ROLE}@127.0.0.1:${port}/ropewalk_bench`, config.databaseUrl);
   const { pool, db } = createDb(config.databaseUrl, 10);
-  await runMigrations(db);
   await insertUser(db, { email: "bench@example.test", name: "Bench", roles: ["researcher"], passwordHash: await bcrypt.hash("bench-password-1", 12) });
   const server = createApp({ config, pool, db }).listen(0, "127.0.0.1");
   await new Promise((r) => server.once("listening", r));

@@ -1,10 +1,15 @@
 # Shared logic for the local PostgreSQL cluster scripts (start/stop/status/reset).
 # Sourced, not run. Human messages go to stderr; only results go to stdout.
 #
-# Security note: the cluster uses trust authentication (no password for role
-# "app"). That is acceptable ONLY because the server listens on 127.0.0.1 and
-# on a unix socket in a folder we own, never on an outside address. It is a
-# development/test cluster; a deployment points DATABASE_URL elsewhere.
+# Security note: the cluster uses trust authentication (no passwords). That is
+# acceptable ONLY because the server listens on 127.0.0.1 and on a unix socket
+# in a folder we own, never on an outside address. It is a development/test
+# cluster; a deployment points DATABASE_URL elsewhere.
+#
+# Roles: the cluster's superuser is used by these scripts only. Migrations run
+# as ropewalk_owner (owns the databases and every table, may create databases);
+# the app connects as ropewalk_app, which owns nothing and only gets the
+# privileges server/db/grants.ts hands it.
 
 set -euo pipefail
 
@@ -12,7 +17,12 @@ RW_ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 RW_PORT="${PGPORT:-54329}"
 RW_DATA="${RW_PGDATA:-$RW_ROOT/.data/postgres}"
 RW_RUN="${RW_PGRUN:-$RW_ROOT/.data/postgres-run}"
-RW_USER_DB=app
+# Clusters made before the two roles existed have superuser "app"; new ones
+# name it "postgres" and record that in the marker (see rw_superuser).
+RW_LEGACY_SUPERUSER=app
+RW_FRESH_SUPERUSER=postgres
+RW_ROLE_OWNER=ropewalk_owner
+RW_ROLE_APP=ropewalk_app
 RW_MARKER_NAME=.ropewalk-cluster
 
 rw_say() { printf 'db: %s\n' "$*" >&2; }
@@ -28,6 +38,13 @@ RW_LOG="$RW_RUN/postgres.log"
 [[ "$RW_PORT" =~ ^[0-9]+$ ]] && ((RW_PORT >= 1 && RW_PORT <= 65535)) ||
   rw_die "PGPORT must be a TCP port number (1-65535), got '$RW_PORT'"
 case "$RW_DATA$RW_RUN" in *[\'\",]*) rw_die "RW_PGDATA/RW_PGRUN must not contain quotes or commas" ;; esac
+
+# The superuser of our cluster: the marker's "superuser=" line, else the legacy name.
+rw_superuser() {
+  local name
+  name="$(sed -n 's/^superuser=//p' "$RW_MARKER" 2>/dev/null | head -n 1)"
+  printf '%s' "${name:-$RW_LEGACY_SUPERUSER}"
+}
 
 rw_is_root() { [[ "$(id -u)" -eq 0 ]]; }
 

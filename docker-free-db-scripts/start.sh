@@ -1,7 +1,9 @@
 #!/usr/bin/env bash
 # Start (creating if needed) the local Ropewalk PostgreSQL cluster and make
 # sure each database named in the arguments exists (default: ropewalk).
-# stdout: one DATABASE_URL=... line per database; everything else on stderr.
+# stdout: per database a DATABASE_URL=... line (the app role) and a
+# MIGRATION_DATABASE_URL=... line (the owner role); everything else on stderr.
+# The database "postgres" is only reported, never adopted by the owner role.
 # Env: PGPORT (54329), RW_PGDATA (<repo>/.data/postgres), RW_PGRUN (<repo>/.data/postgres-run).
 source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
 
@@ -73,13 +75,14 @@ prepare_folders() {
 }
 
 create_cluster() {
-  rw_say "creating cluster in $RW_DATA (user $RW_USER_DB, trust auth, loopback only)"
+  rw_say "creating cluster in $RW_DATA (superuser $RW_FRESH_SUPERUSER, trust auth, loopback only)"
   # --no-sync: a throwaway dev/test cluster; skipping fsync makes creation fast.
-  rw_as_owner "$RW_BIN/initdb" -D "$RW_DATA" -U "$RW_USER_DB" --auth=trust \
+  rw_as_owner "$RW_BIN/initdb" -D "$RW_DATA" -U "$RW_FRESH_SUPERUSER" --auth=trust \
     --encoding=UTF8 --locale=C.UTF-8 --no-sync >"$RW_RUN/initdb.log" 2>&1 ||
     { cat "$RW_RUN/initdb.log" >&2; rw_die "initdb failed (log above)"; }
-  rw_as_owner bash -c 'printf "%s\n" "$1" >"$2"' _ \
-    "PostgreSQL cluster created by Ropewalk docker-free-db-scripts on $(date -u +%FT%TZ)" "$RW_MARKER"
+  rw_as_owner bash -c 'printf "%s\nsuperuser=%s\n" "$1" "$2" >"$3"' _ \
+    "PostgreSQL cluster created by Ropewalk docker-free-db-scripts on $(date -u +%FT%TZ)" \
+    "$RW_FRESH_SUPERUSER" "$RW_MARKER"
 }
 
 start_server() {
@@ -92,15 +95,67 @@ start_server() {
   fi
 }
 
+rw_psql() {
+  local db="$1"; shift
+  "$RW_BIN/psql" -X -q -v ON_ERROR_STOP=1 -h 127.0.0.1 -p "$RW_PORT" -U "$RW_SUPER" -d "$db" "$@"
+}
+
+# Both roles, idempotently on every start (clusters made before they existed get them too).
+# The owner is a member of the app role only so it may end the app's sessions (DROP DATABASE ... FORCE).
+ensure_roles() {
+  rw_psql postgres -c "SET client_min_messages = warning" -c "
+    DO \$\$ BEGIN
+      IF NOT EXISTS (SELECT 1 FROM pg_roles WHERE rolname = '$RW_ROLE_OWNER') THEN
+        CREATE ROLE $RW_ROLE_OWNER LOGIN CREATEDB;
+      END IF;
+      IF NOT EXISTS (SELECT 1 FROM pg_roles WHERE rolname = '$RW_ROLE_APP') THEN
+        CREATE ROLE $RW_ROLE_APP LOGIN;
+      END IF;
+    END \$\$;
+    GRANT $RW_ROLE_APP TO $RW_ROLE_OWNER;" || rw_die "could not create roles $RW_ROLE_OWNER and $RW_ROLE_APP"
+}
+
+# A database made before the roles existed belongs to the superuser: hand it and
+# every object our migrations made in it to the owner role (again harmless).
+adopt_database() {
+  rw_psql "$1" -c "SET client_min_messages = warning" -c "
+    ALTER DATABASE $1 OWNER TO $RW_ROLE_OWNER;
+    DO \$\$ DECLARE r record; su oid := (SELECT oid FROM pg_roles WHERE rolname = current_user);
+    BEGIN
+      FOR r IN SELECT nspname FROM pg_namespace WHERE nspowner = su
+          AND nspname NOT LIKE 'pg\\_%' AND nspname NOT IN ('information_schema', 'public') LOOP
+        EXECUTE format('ALTER SCHEMA %I OWNER TO $RW_ROLE_OWNER', r.nspname);
+      END LOOP;
+      -- Tables, views and free sequences; a serial's sequence follows its table.
+      FOR r IN SELECT c.oid::regclass AS rel FROM pg_class c JOIN pg_namespace n ON n.oid = c.relnamespace
+          WHERE c.relowner = su AND c.relkind IN ('r', 'p', 'v', 'm', 'f', 'S')
+            AND n.nspname NOT LIKE 'pg\\_%' AND n.nspname <> 'information_schema'
+            AND NOT EXISTS (SELECT 1 FROM pg_depend d WHERE d.classid = 'pg_class'::regclass AND d.objid = c.oid
+                            AND d.refclassid = 'pg_class'::regclass AND d.deptype IN ('a', 'i')) LOOP
+        EXECUTE format('ALTER TABLE %s OWNER TO $RW_ROLE_OWNER', r.rel);
+      END LOOP;
+      FOR r IN SELECT p.oid::regprocedure AS fn FROM pg_proc p JOIN pg_namespace n ON n.oid = p.pronamespace
+          WHERE p.proowner = su AND n.nspname NOT LIKE 'pg\\_%' AND n.nspname <> 'information_schema' LOOP
+        EXECUTE format('ALTER ROUTINE %s OWNER TO $RW_ROLE_OWNER', r.fn);
+      END LOOP;
+      FOR r IN SELECT t.oid::regtype AS ty FROM pg_type t JOIN pg_namespace n ON n.oid = t.typnamespace
+          WHERE t.typowner = su AND t.typtype IN ('e', 'd') AND n.nspname NOT LIKE 'pg\\_%' AND n.nspname <> 'information_schema' LOOP
+        EXECUTE format('ALTER TYPE %s OWNER TO $RW_ROLE_OWNER', r.ty);
+      END LOOP;
+    END \$\$;" || rw_die "could not hand database $1 to $RW_ROLE_OWNER"
+}
+
 ensure_database() {
   local found
-  found="$("$RW_BIN/psql" -X -h 127.0.0.1 -p "$RW_PORT" -U "$RW_USER_DB" -d postgres -tAq \
-    -c "select 1 from pg_database where datname = '$1'")" ||
+  [[ "$1" != postgres ]] || return 0
+  found="$(rw_psql postgres -tA -c "select 1 from pg_database where datname = '$1'")" ||
     rw_die "could not query databases on 127.0.0.1:$RW_PORT"
   if [[ "$found" != 1 ]]; then
-    rw_say "creating database $1"
-    "$RW_BIN/createdb" -h 127.0.0.1 -p "$RW_PORT" -U "$RW_USER_DB" "$1" ||
+    rw_say "creating database $1 (owner $RW_ROLE_OWNER)"
+    "$RW_BIN/createdb" -h 127.0.0.1 -p "$RW_PORT" -U "$RW_SUPER" -O "$RW_ROLE_OWNER" "$1" ||
       rw_die "createdb $1 failed"
+  else
+    adopt_database "$1"
   fi
 }
 
@@ -126,7 +181,10 @@ else
   start_server
 fi
 
+RW_SUPER="$(rw_superuser)"
+ensure_roles
 for db in "${dbs[@]}"; do
   ensure_database "$db"
-  printf 'DATABASE_URL=postgres://%s@127.0.0.1:%s/%s\n' "$RW_USER_DB" "$RW_PORT" "$db"
+  printf 'DATABASE_URL=postgres://%s@127.0.0.1:%s/%s\n' "$RW_ROLE_APP" "$RW_PORT" "$db"
+  printf 'MIGRATION_DATABASE_URL=postgres://%s@127.0.0.1:%s/%s\n' "$RW_ROLE_OWNER" "$RW_PORT" "$db"
 done

@@ -6,7 +6,7 @@ import readline from "node:readline/promises";
 import { parseArgs } from "node:util";
 import { loadConfig } from "../server/config";
 import { createDb } from "../server/db/client";
-import { runMigrations } from "../server/db/migrate";
+import { migrateDatabase, migrationUrl } from "../server/db/migrate";
 import { createUser } from "../server/features/users/users.service";
 import { createUserRequestSchema } from "../shared/schemas";
 
@@ -24,7 +24,7 @@ async function ask(question: string) {
 const config = loadConfig();
 const { pool, db } = createDb(config.databaseUrl, 2);
 try {
-  await runMigrations(db);
+  await migrateDatabase(migrationUrl(config), config.databaseUrl);
   const input = createUserRequestSchema.safeParse({
     email: values.email ?? (await ask("E-mail: ")),
     name: values.name ?? (await ask("Name: ")),

@@ -7,7 +7,7 @@ import net from "node:net";
 import path from "node:path";
 import { loadConfig } from "../server/config";
 import { createDb } from "../server/db/client";
-import { runMigrations } from "../server/db/migrate";
+import { migrateDatabase, migrationUrl } from "../server/db/migrate";
 import { DEMO_LAB, DEMO_PASSWORD, DEMO_USERS, seedDemo } from "../server/db/seed";
 import { startServer } from "../server/index";
 import { startMailSink } from "../server/mail/sink";
@@ -85,11 +85,13 @@ async function main() {
     process.exit(1);
   }
   if (!process.env.DATABASE_URL) {
-    // Our own loopback cluster; the script prints DATABASE_URL lines on stdout and explains problems on stderr.
+    // Our own loopback cluster; the script creates the owner and app roles, prints the URLs on stdout and explains
+    // problems on stderr. The config's defaults name the same roles and database.
     execFileSync("bash", [path.join(root, "docker-free-db-scripts/start.sh"), "ropewalk"], { stdio: ["ignore", "ignore", "inherit"] });
   }
+  await migrateDatabase(migrationUrl(config), config.databaseUrl);
+  // Seeding is plain inserts, so it runs as the app role like everything after it.
   const { pool, db } = createDb(config.databaseUrl, 2);
-  await runMigrations(db);
   const seed = (process.env.RW_SEED ?? (config.env === "production" ? "false" : "true")) === "true";
   if (seed) await seedDemo({ config, pool, db });
   await pool.end();

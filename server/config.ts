@@ -10,6 +10,7 @@ const envSchema = z.object({
   PORT: z.coerce.number().int().min(0).max(65535).default(3000),
   PGPORT: z.coerce.number().int().min(1).max(65535).default(54329),
   DATABASE_URL: z.string().optional(),
+  MIGRATION_DATABASE_URL: z.string().optional(),
   SESSION_SECRET: z.string().min(16).optional(),
   SMTP_URL: z.string().optional(),
   MAIL_FROM: z.string().default("Ropewalk <ropewalk@ropewalk.test>"),
@@ -29,11 +30,23 @@ const envSchema = z.object({
   DB_STATEMENT_TIMEOUT_MS: z.coerce.number().int().min(100).max(3_600_000).default(DEFAULT_DB_TIMEOUTS.statementMs),
 });
 
+/** The roles docker-free-db-scripts/start.sh creates on the loopback cluster. */
+export const LOCAL_APP_ROLE = "ropewalk_app";
+export const LOCAL_OWNER_ROLE = "ropewalk_owner";
+const localDatabaseUrl = (role: string, port: number) => `postgres://${role}@127.0.0.1:${port}/ropewalk`;
+
 export interface Config {
   env: "development" | "test" | "production";
   host: string;
   port: number;
+  /** The app role: owns nothing, gets only the privileges server/db/grants.ts hands it. */
   databaseUrl: string;
+  /**
+   * The owner role that runs migrations. Null in production when MIGRATION_DATABASE_URL is missing (the server
+   * itself does not need it; the migration commands refuse to run). Outside production it falls back to
+   * DATABASE_URL, i.e. one role for both, when only that is given.
+   */
+  migrationDatabaseUrl: string | null;
   sessionSecret: string;
   cookieSecure: boolean;
   trustProxy: boolean;
@@ -73,7 +86,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
     env: e.NODE_ENV,
     host: e.HOST,
     port: e.PORT,
-    databaseUrl: e.DATABASE_URL ?? `postgres://app@127.0.0.1:${e.PGPORT}/ropewalk`,
+    databaseUrl: e.DATABASE_URL ?? localDatabaseUrl(LOCAL_APP_ROLE, e.PGPORT),
+    migrationDatabaseUrl: e.MIGRATION_DATABASE_URL ?? (e.DATABASE_URL ? (production ? null : e.DATABASE_URL) : localDatabaseUrl(LOCAL_OWNER_ROLE, e.PGPORT)),
     sessionSecret: e.SESSION_SECRET ?? "ropewalk-local-development-secret",
     cookieSecure: production,
     trustProxy: e.TRUST_PROXY ?? false,

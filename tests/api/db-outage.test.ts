@@ -10,7 +10,7 @@ import { fileURLToPath } from "node:url";
 import bcrypt from "bcryptjs";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createDb } from "../../server/db/client";
-import { runMigrations } from "../../server/db/migrate";
+import { migrateDatabase } from "../../server/db/migrate";
 import { insertUser } from "../../server/features/users/users.repo";
 
 const repo = resolve(dirname(fileURLToPath(import.meta.url)), "../..");
@@ -86,9 +86,10 @@ describe("PostgreSQL stops and returns under a running app", { timeout: LONG }, 
     tmp = mkdtempSync(join(repo, ".tmp", "db-outage-"));
     env = { PGPORT: String(await freePort()), RW_PGDATA: join(tmp, "data"), RW_PGRUN: join(tmp, "run") };
     const out = await script("start.sh", ["rw_outage"], env);
-    const url = /DATABASE_URL=(\S+)/.exec(out)![1];
+    const url = /^DATABASE_URL=(\S+)/m.exec(out)![1];
+    // Migrations as the owner role, the rest as the app role, as in production.
+    await migrateDatabase(/^MIGRATION_DATABASE_URL=(\S+)/m.exec(out)![1], url);
     const { pool, db } = createDb(url, 1);
-    await runMigrations(db);
     // A low bcrypt cost is enough here: this test is about the database, not about password hashing.
     await insertUser(db, { email: EMAIL, name: "Outage Admin", roles: ["admin"], passwordHash: await bcrypt.hash(PASSWORD, 4) });
     await pool.end();

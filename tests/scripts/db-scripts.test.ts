@@ -78,6 +78,8 @@ describe("docker-free-db-scripts", { timeout: LONG }, () => {
   let port = 0;
   let env: Record<string, string> = {};
   let url = "";
+  let ownerUrl = "";
+  const urls = (db: string) => `DATABASE_URL=postgres://ropewalk_app@127.0.0.1:${port}/${db}\nMIGRATION_DATABASE_URL=postgres://ropewalk_owner@127.0.0.1:${port}/${db}\n`;
   const heldServers: Server[] = [];
 
   beforeAll(async () => {
@@ -85,7 +87,8 @@ describe("docker-free-db-scripts", { timeout: LONG }, () => {
     tmp = mkdtempSync(join(repo, ".tmp", "db-scripts-"));
     port = await freePort();
     env = { PGPORT: String(port), RW_PGDATA: join(tmp, "data"), RW_PGRUN: join(tmp, "run") };
-    url = `postgres://app@127.0.0.1:${port}/${DB}`;
+    url = `postgres://ropewalk_app@127.0.0.1:${port}/${DB}`;
+    ownerUrl = `postgres://ropewalk_owner@127.0.0.1:${port}/${DB}`;
   });
 
   afterAll(async () => {
@@ -101,11 +104,18 @@ describe("docker-free-db-scripts", { timeout: LONG }, () => {
     const r = await run("start.sh", [DB], env);
     expect(r.stderr).not.toBe(""); // progress goes to stderr...
     expect(r.code).toBe(0);
-    expect(r.stdout).toBe(`DATABASE_URL=${url}\n`); // ...and only the URL to stdout
+    expect(r.stdout).toBe(urls(DB)); // ...and only the URLs to stdout
     expect(existsSync(join(env.RW_PGDATA, ".ropewalk-cluster"))).toBe(true);
 
     const rows = await query(url, "select current_user as u, current_database() as d");
-    expect(rows[0]).toEqual({ u: "app", d: DB });
+    expect(rows[0]).toEqual({ u: "ropewalk_app", d: DB });
+    // The app role is no superuser and owns nothing; the owner role owns the database and may create others.
+    const roles = await query(url, "select rolname, rolsuper, rolcreatedb, rolcreaterole from pg_roles where rolname like 'ropewalk_%' order by 1");
+    expect(roles).toEqual([
+      { rolname: "ropewalk_app", rolsuper: false, rolcreatedb: false, rolcreaterole: false },
+      { rolname: "ropewalk_owner", rolsuper: false, rolcreatedb: true, rolcreaterole: false },
+    ]);
+    expect((await query(url, "select pg_get_userbyid(datdba) as o from pg_database where datname = current_database()"))[0]).toEqual({ o: "ropewalk_owner" });
     expect((await query(url, "show listen_addresses"))[0].listen_addresses).toBe("127.0.0.1");
     expect((await query(url, "show unix_socket_directories"))[0].unix_socket_directories).toBe(env.RW_PGRUN);
     expect(readdirSync(env.RW_PGRUN)).toContain(`.s.PGSQL.${port}`);
@@ -114,13 +124,29 @@ describe("docker-free-db-scripts", { timeout: LONG }, () => {
     const outside = outsideAddress();
     if (outside) expect(await canConnect(outside, port)).toBe(false);
 
-    await query(url, "create table kept (v int); insert into kept values (42)");
+    await query(ownerUrl, "create table kept (v int); insert into kept values (42)");
+  });
+
+  it("hands a database made before the roles existed (owned by the superuser) to the owner role", async () => {
+    const su = `postgres://postgres@127.0.0.1:${port}`;
+    await query(`${su}/postgres`, "create database rw_legacy");
+    await query(`${su}/rw_legacy`, `create schema drizzle; create table drizzle.m (id serial primary key);
+      create table t (id bigserial primary key, v int); create function f() returns int language sql as 'select 1'`);
+    const r = await run("start.sh", ["rw_legacy"], env);
+    expect(r.code).toBe(0);
+    const owners = await query(`${su}/rw_legacy`, `select c.relname as name, pg_get_userbyid(c.relowner) as owner from pg_class c
+      join pg_namespace n on n.oid = c.relnamespace where n.nspname in ('public', 'drizzle') and c.relkind in ('r', 'S')
+      union all select 'f', pg_get_userbyid(proowner) from pg_proc where proname = 'f'
+      union all select 'drizzle', pg_get_userbyid(nspowner) from pg_namespace where nspname = 'drizzle'
+      union all select 'db', pg_get_userbyid(datdba) from pg_database where datname = 'rw_legacy' order by 1`);
+    expect(owners.every((o) => o.owner === "ropewalk_owner"), JSON.stringify(owners)).toBe(true);
+    expect(owners.map((o) => o.name)).toEqual(["db", "drizzle", "f", "m", "m_id_seq", "t", "t_id_seq"]);
   });
 
   it("start again is idempotent: same output, same cluster and data", async () => {
     const r = await run("start.sh", [DB], env);
     expect(r.code).toBe(0);
-    expect(r.stdout).toBe(`DATABASE_URL=${url}\n`);
+    expect(r.stdout).toBe(urls(DB));
     expect(r.stderr).toMatch(/already running/);
     // A re-created cluster would have lost this row.
     expect((await query(url, "select v from kept"))[0]).toEqual({ v: 42 });
@@ -129,13 +155,10 @@ describe("docker-free-db-scripts", { timeout: LONG }, () => {
   it("start with no arguments creates the default database, with several one URL each", async () => {
     const r = await run("start.sh", [], env);
     expect(r.code).toBe(0);
-    expect(r.stdout).toBe(`DATABASE_URL=postgres://app@127.0.0.1:${port}/ropewalk\n`);
+    expect(r.stdout).toBe(urls("ropewalk"));
     const two = await run("start.sh", ["rw_a", "rw_b"], env);
-    expect(two.stdout.trim().split("\n")).toEqual([
-      `DATABASE_URL=postgres://app@127.0.0.1:${port}/rw_a`,
-      `DATABASE_URL=postgres://app@127.0.0.1:${port}/rw_b`,
-    ]);
-    expect((await query(`postgres://app@127.0.0.1:${port}/rw_b`, "select 1 as one"))[0]).toEqual({ one: 1 });
+    expect(two.stdout).toBe(urls("rw_a") + urls("rw_b"));
+    expect((await query(`postgres://ropewalk_app@127.0.0.1:${port}/rw_b`, "select 1 as one"))[0]).toEqual({ one: 1 });
   });
 
   it("status is running (0), then stop, then status is stopped (3)", async () => {

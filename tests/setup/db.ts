@@ -9,3 +9,13 @@ export function testDb() {
   shared ??= createDb(url, 5);
   return shared;
 }
+
+let owner: ReturnType<typeof createDb> | undefined;
+
+/** The owner role's pool on the test database: for tests that play a database administrator (never the app). */
+export function ownerTestDb() {
+  const url = process.env.TEST_MIGRATION_DATABASE_URL;
+  if (!url) throw new Error("TEST_MIGRATION_DATABASE_URL is not set; run tests through vitest (globalSetup)");
+  owner ??= createDb(url, 2);
+  return owner;
+}

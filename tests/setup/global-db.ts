@@ -1,8 +1,8 @@
 import { execFileSync } from "node:child_process";
 import path from "node:path";
 import pg from "pg";
-import { createDb } from "../../server/db/client";
-import { runMigrations } from "../../server/db/migrate";
+import { LOCAL_APP_ROLE, LOCAL_OWNER_ROLE } from "../../server/config";
+import { migrateDatabase } from "../../server/db/migrate";
 
 const root = path.resolve(import.meta.dirname, "../..");
 
@@ -12,8 +12,9 @@ const ONCE = Symbol.for("ropewalk.test-database");
 type Once = { [ONCE]?: Promise<(() => Promise<void>) | undefined> };
 
 /**
- * One loopback cluster (started or reused) and a fresh database for this run, built by migrations only.
- * Each run gets its own database (dropped at the end), so two runs on one machine never disturb each other.
+ * One loopback cluster (started or reused) and a fresh database for this run, built by migrations only, as the
+ * owner role; tests connect as the app role (TEST_DATABASE_URL) like the server does, and reach the owner through
+ * TEST_MIGRATION_DATABASE_URL. Each run gets its own database (dropped at the end), so two runs never collide.
  * Only the projects that need PostgreSQL list this file; `npm run test:unit` never reaches it.
  */
 export default async function setup() {
@@ -28,9 +29,8 @@ export default async function setup() {
 
 async function makeDatabase() {
   if (process.env.TEST_DATABASE_URL) {
-    const { pool, db } = createDb(process.env.TEST_DATABASE_URL, 1);
-    await runMigrations(db);
-    await pool.end();
+    process.env.TEST_MIGRATION_DATABASE_URL ??= process.env.TEST_DATABASE_URL;
+    await migrateDatabase(process.env.TEST_MIGRATION_DATABASE_URL, process.env.TEST_DATABASE_URL);
     return undefined;
   }
   const port = process.env.PGPORT ?? "54329";
@@ -39,20 +39,21 @@ async function makeDatabase() {
     env: { ...process.env, PGPORT: port },
   });
   const name = `ropewalk_test_${process.pid}`;
-  const adminUrl = `postgres://app@127.0.0.1:${port}/postgres`;
-  const admin = new pg.Client({ connectionString: adminUrl });
+  // The owner role may create databases, and end the app role's sessions for DROP ... WITH (FORCE).
+  const maintenanceUrl = `postgres://${LOCAL_OWNER_ROLE}@127.0.0.1:${port}/postgres`;
+  const admin = new pg.Client({ connectionString: maintenanceUrl });
   await admin.connect();
   await admin.query(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`);
   await admin.query(`CREATE DATABASE ${name}`);
   await admin.end();
-  const url = `postgres://app@127.0.0.1:${port}/${name}`;
-  const { pool, db } = createDb(url, 1);
-  await runMigrations(db);
-  await pool.end();
-  process.env.TEST_DATABASE_URL = url;
+  const ownerUrl = `postgres://${LOCAL_OWNER_ROLE}@127.0.0.1:${port}/${name}`;
+  const appUrl = `postgres://${LOCAL_APP_ROLE}@127.0.0.1:${port}/${name}`;
+  await migrateDatabase(ownerUrl, appUrl);
+  process.env.TEST_DATABASE_URL = appUrl;
+  process.env.TEST_MIGRATION_DATABASE_URL = ownerUrl;
 
   return async () => {
-    const c = new pg.Client({ connectionString: adminUrl });
+    const c = new pg.Client({ connectionString: maintenanceUrl });
     await c.connect();
     await c.query(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`);
     await c.end();
