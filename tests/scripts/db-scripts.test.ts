@@ -116,8 +116,10 @@ describe("docker-free-db-scripts", { timeout: LONG }, () => {
       { rolname: "ropewalk_owner", rolsuper: false, rolcreatedb: true, rolcreaterole: false },
     ]);
     expect((await query(url, "select pg_get_userbyid(datdba) as o from pg_database where datname = current_database()"))[0]).toEqual({ o: "ropewalk_owner" });
-    expect((await query(url, "show listen_addresses"))[0].listen_addresses).toBe("127.0.0.1");
-    expect((await query(url, "show unix_socket_directories"))[0].unix_socket_directories).toBe(env.RW_PGRUN);
+    // Server settings are read as the cluster's superuser (fresh clusters name it "postgres").
+    const su = `postgres://postgres@127.0.0.1:${port}/${DB}`;
+    expect((await query(su, "show listen_addresses"))[0].listen_addresses).toBe("127.0.0.1");
+    expect((await query(su, "show unix_socket_directories"))[0].unix_socket_directories).toBe(env.RW_PGRUN);
     expect(readdirSync(env.RW_PGRUN)).toContain(`.s.PGSQL.${port}`);
 
     // Checked from outside the server too: nothing answers on a non-loopback address.
@@ -149,7 +151,7 @@ describe("docker-free-db-scripts", { timeout: LONG }, () => {
     expect(r.stdout).toBe(urls(DB));
     expect(r.stderr).toMatch(/already running/);
     // A re-created cluster would have lost this row.
-    expect((await query(url, "select v from kept"))[0]).toEqual({ v: 42 });
+    expect((await query(ownerUrl, "select v from kept"))[0]).toEqual({ v: 42 });
   });
 
   it("start with no arguments creates the default database, with several one URL each", async () => {
