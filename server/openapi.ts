@@ -56,6 +56,7 @@ export const ROUTES: Route[] = [
   { method: "post", path: "/api/tokens", summary: "Create an API token with scopes, default export:read (secret shown once)", tag: "tokens", body: s.createTokenRequestSchema, status: 201 },
   { method: "delete", path: "/api/tokens/{id}", summary: "Revoke a token", tag: "tokens", status: 204 },
   { method: "get", path: "/api/audit", summary: "Audit trail (admin, approver)", tag: "audit", query: s.auditQuerySchema },
+  { method: "get", path: "/api/audit/verify", summary: "Check the audit hash chain; names the first broken link (admin)", tag: "audit", response: s.auditChainReportSchema },
   { method: "get", path: "/api/mail", summary: "Local mail sink and outbox (admin)", tag: "mail" },
   { method: "post", path: "/api/mail/deliver", summary: "Deliver due mail now (admin)", tag: "mail" },
   { method: "post", path: "/api/budgets/estimate", summary: "Tokens, FLOPs, hours, cost and memory per stage", tag: "budgets", body: budgetEstimateRequestSchema, response: budgetEstimateSchema },

@@ -18,3 +18,18 @@ export const auditEventSchema = z.object({
   action: z.string(), subjectType: z.string(), subjectId: z.string().nullable(), detail: z.record(z.string(), z.unknown()),
 });
 export type AuditEvent = z.infer<typeof auditEventSchema>;
+
+/** GET /api/audit/verify: the whole hash chain checked, or the first link that does not hold. */
+export const auditChainReportSchema = z.object({
+  ok: z.boolean(),
+  /** Rows checked and found linked, up to (not including) the first broken one. */
+  count: z.number().int(),
+  brokenAt: z.object({
+    id: z.number().int(),
+    /** previous_hash_mismatch: a row before it was removed or replaced; hash_mismatch: this row was changed. */
+    reason: z.enum(["previous_hash_mismatch", "hash_mismatch"]),
+    /** The last row that still links, or null when the break is at the start. */
+    previousId: z.number().int().nullable(),
+  }).optional(),
+});
+export type AuditChainReport = z.infer<typeof auditChainReportSchema>;

@@ -105,6 +105,7 @@ export const apiPaths = {
   tokens: () => api("/tokens"),
   token: (id: number) => api(`/tokens/${id}`),
   audit: (query?: QueryValues) => withQuery("/audit", query),
+  auditVerify: () => api("/audit/verify"),
   mail: (query?: QueryValues) => withQuery("/mail", query),
   mailDeliver: () => api("/mail/deliver"),
   // model profiles, analyses and base bounds

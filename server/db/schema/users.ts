@@ -33,6 +33,9 @@ export const auditEvents = pgTable(
     subjectType: text("subject_type").notNull(),
     subjectId: text("subject_id"),
     detail: jsonb("detail").notNull().default({}),
+    /** Hash chain (server/features/audit/audit-chain.ts): the predecessor's hash, and this row's own. */
+    prevHash: text("prev_hash").notNull(),
+    hash: text("hash").notNull(),
   },
   (t) => [index("audit_events_at_idx").on(t.at), index("audit_events_subject_idx").on(t.subjectType, t.subjectId)],
 );

@@ -5,6 +5,7 @@ import { requireRole } from "../../http/auth";
 import { parseQuery } from "../../http/validate";
 import { auditEvents, users } from "../../db/schema";
 import { auditQuerySchema } from "../../../shared/schemas";
+import { verifyAuditChain } from "./audit-chain";
 
 /** Browse the append-only trail (admins and approvers), newest first, filtered. */
 export function auditRouter(deps: AppDeps) {
@@ -30,6 +31,11 @@ export function auditRouter(deps: AppDeps) {
         action: e.action, subjectType: e.subjectType, subjectId: e.subjectId, detail: e.detail as Record<string, unknown>,
       })),
     });
+  });
+  // Admins only: the answer says whether anyone with database rights rewrote the trail, and where.
+  // One snapshot for the whole walk, so rows appended meanwhile neither count nor confuse it.
+  r.get("/verify", requireRole("admin"), async (_req, res) => {
+    res.json(await deps.db.transaction((tx) => verifyAuditChain(tx), { isolationLevel: "repeatable read", accessMode: "read only" }));
   });
   return r;
 }

@@ -4,7 +4,9 @@ import { Page, Panel } from "../../components/page";
 import { Loading, Notice } from "../../components/notice";
 import { useSearchState } from "../../lib/search-state";
 import { auditQueries } from "../../features/audit/api/queries";
+import { useCurrentUser } from "../../features/auth/hooks/use-session";
 import { AuditFilters } from "../../features/audit/components/audit-filters";
+import { ChainStatus } from "../../features/audit/components/chain-status";
 import { AuditTable } from "../../features/audit/components/audit-table";
 import { Pager } from "../../features/plans/components/pager";
 
@@ -13,8 +15,14 @@ const DEFAULT_PAGE_SIZE = 50;
 export function AuditRoute() {
   const { params, update } = useSearchState(auditQuerySchema);
   const page = useQuery(auditQueries.page(params));
+  const user = useCurrentUser();
   return (
     <Page title="Audit" lead="Every recorded action, newest first: who did what to which plan, token or account. The trail is append-only.">
+      {user.roles.includes("admin") && (
+        <Panel title="Seals">
+          <ChainStatus />
+        </Panel>
+      )}
       <Panel title="Filter">
         <AuditFilters params={params} onChange={update} />
         {params.actorId && <p className="mt-2 text-note text-ink-soft">Showing one person’s actions only (clear the filters to see everyone’s).</p>}

@@ -4,4 +4,5 @@ import type { AuditParams } from "./list-audit";
 export const auditKeys = {
   all: ["audit"] as const,
   page: (params: AuditParams) => [...auditKeys.all, "page", params] as const,
+  chain: () => [...auditKeys.all, "chain"] as const,
 };
