@@ -3,6 +3,7 @@ import path from "node:path";
 import pg from "pg";
 import { LOCAL_APP_ROLE, LOCAL_OWNER_ROLE } from "../../server/config";
 import { migrateDatabase } from "../../server/db/migrate";
+import { dropDatabase } from "./drop-database";
 
 const root = path.resolve(import.meta.dirname, "../..");
 
@@ -39,11 +40,11 @@ async function makeDatabase() {
     env: { ...process.env, PGPORT: port },
   });
   const name = `ropewalk_test_${process.pid}`;
-  // The owner role may create databases, and end the app role's sessions for DROP ... WITH (FORCE).
+  // The owner role may create and drop databases.
   const maintenanceUrl = `postgres://${LOCAL_OWNER_ROLE}@127.0.0.1:${port}/postgres`;
+  await dropDatabase(maintenanceUrl, name);
   const admin = new pg.Client({ connectionString: maintenanceUrl });
   await admin.connect();
-  await admin.query(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`);
   await admin.query(`CREATE DATABASE ${name}`);
   await admin.end();
   const ownerUrl = `postgres://${LOCAL_OWNER_ROLE}@127.0.0.1:${port}/${name}`;
@@ -52,10 +53,5 @@ async function makeDatabase() {
   process.env.TEST_DATABASE_URL = appUrl;
   process.env.TEST_MIGRATION_DATABASE_URL = ownerUrl;
 
-  return async () => {
-    const c = new pg.Client({ connectionString: maintenanceUrl });
-    await c.connect();
-    await c.query(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`);
-    await c.end();
-  };
+  return () => dropDatabase(maintenanceUrl, name);
 }

@@ -3,6 +3,7 @@ import pg from "pg";
 import { createDb } from "../../server/db/client";
 import { grantAppRole, roleOfUrl } from "../../server/db/grants";
 import { runMigrations } from "../../server/db/migrate";
+import { dropDatabase } from "./drop-database";
 
 /**
  * A database of its own on the test cluster, for tests that tamper with what every other test shares (as the owner
@@ -30,10 +31,7 @@ export async function scratchDatabase() {
     },
     async drop() {
       await Promise.all([ownerDb.pool.end(), appDb.pool.end()]);
-      const d = new pg.Client({ connectionString: maintenance });
-      await d.connect();
-      await d.query(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`);
-      await d.end();
+      await dropDatabase(maintenance, name);
     },
   };
 }
