@@ -4,6 +4,7 @@ import { defineConfig } from "eslint/config";
 import tseslint from "typescript-eslint";
 import reactHooks from "eslint-plugin-react-hooks";
 import boundaries from "eslint-plugin-boundaries";
+import pluginQuery from "@tanstack/eslint-plugin-query";
 
 /** Where each kind of code lives. More specific folders first: the first match names the element. */
 const ELEMENTS = [
@@ -52,6 +53,21 @@ export default defineConfig(
     files: ["client/**/*.{ts,tsx}"],
     plugins: { "react-hooks": reactHooks },
     rules: { ...reactHooks.configs.recommended.rules },
+  },
+  // TanStack Query's own checks (exhaustive keys, stable clients, no rest-destructuring of results).
+  ...pluginQuery.configs["flat/recommended"].map((config) => ({ ...config, files: ["client/**/*.{ts,tsx}"] })),
+  // One cache per resource: query keys are written only by the query factories beside their fetchers
+  // (features/<f>/api, lib/api); everywhere else a key comes from a factory, so two names can never split one cache.
+  {
+    files: ["client/**/*.{ts,tsx}"],
+    ignores: ["client/src/features/*/api/**", "client/src/lib/api/**"],
+    rules: {
+      "no-restricted-syntax": [
+        "error",
+        { selector: "Property[key.name='queryKey'] > ArrayExpression", message: "take query keys from the resource's query factory (features/<f>/api or lib/api)" },
+        { selector: "CallExpression[callee.property.name=/QueryData$/] > ArrayExpression", message: "take query keys from the resource's query factory (features/<f>/api or lib/api)" },
+      ],
+    },
   },
   {
     files: ["client/**/*.{ts,tsx}", "server/**/*.ts", "shared/**/*.ts"],

@@ -81,9 +81,9 @@ export const apiPaths = {
   // budget sheet, estimator and accelerator catalog
   budgetEstimate: () => api("/budgets/estimate"),
   budgetRecipes: () => api("/budgets/recipes"),
-  budgetModelChoices: () => api("/models"),
   accelerators: () => api("/accelerators"),
   accelerator: (id: number) => api(`/accelerators/${encodeURIComponent(String(id))}`),
+  acceleratorRestore: (id: number) => api(`/accelerators/${encodeURIComponent(String(id))}/restore`),
   // plans workflow, review, tokens, audit and mail
   plans: (query?: QueryValues) => withQuery("/plans", query),
   plan: (id: number) => api(`/plans/${id}`),
@@ -100,8 +100,6 @@ export const apiPaths = {
   revisionReport: (id: number, n: number, download = false) => withQuery(`${rev(id, n)}/report`, { download: download ? 1 : undefined }),
   revisionExport: (id: number, n: number, download = false) => withQuery(`${rev(id, n)}/export`, { download: download ? 1 : undefined }),
   approvedExport: (id: number, download = false) => withQuery(`/plans/${id}/approved/export`, { download: download ? 1 : undefined }),
-  planModelChoices: () => api("/models"),
-  planAnalysis: () => api("/analyses"),
   tokens: () => api("/tokens"),
   token: (id: number) => api(`/tokens/${id}`),
   audit: (query?: QueryValues) => withQuery("/audit", query),
@@ -111,6 +109,7 @@ export const apiPaths = {
   // model profiles, analyses and base bounds
   models: () => api("/models"),
   model: (id: number) => api(`/models/${id}`),
+  modelRestore: (id: number) => api(`/models/${id}/restore`),
   modelSource: (id: number) => api(`/models/${id}/source`),
   modelImport: (save: boolean) => withQuery("/models/import", { save: save ? "true" : undefined }),
   analyses: () => api("/analyses"),

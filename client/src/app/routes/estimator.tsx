@@ -1,8 +1,8 @@
 import { useQuery } from "@tanstack/react-query";
 import { useSearchParams } from "react-router-dom";
 import { Page } from "../../components/page";
+import { modelsQueries } from "../../lib/api/models";
 import { acceleratorsQuery } from "../../features/accelerators/api/list-accelerators";
-import { modelChoicesQuery } from "../../features/budgets/api/get-model-choices";
 import { BudgetSheet } from "../../features/budgets/components/budget-sheet";
 import { ModelPicker } from "../../features/budgets/components/model-picker";
 import { estimatorContext } from "../../features/budgets/lib/estimator-context";
@@ -14,7 +14,7 @@ import { modelFromSearch, sheetFromSearch, toSearch } from "../../features/budge
 export function EstimatorRoute() {
   const [params, setParams] = useSearchParams();
   const accelerators = useQuery(acceleratorsQuery());
-  const profiles = useQuery(modelChoicesQuery());
+  const profiles = useQuery(modelsQueries.list());
   const model = modelFromSearch(params);
   const sheet = sheetFromSearch(params);
   const write = (m: ModelDraft, s: SheetDraft) => setParams(toSearch(m, s), { replace: true });

@@ -6,7 +6,8 @@ import { Page } from "../../components/page";
 import { paths } from "../../config/paths";
 import { isApiError } from "../../lib/api-client";
 import { useCurrentUser } from "../../features/auth/hooks/use-session";
-import { canEditProfiles, modelsQueries, ProfileDetail } from "../../features/models";
+import { canEditProfiles, ProfileDetail } from "../../features/models";
+import { modelsQueries } from "../../lib/api/models";
 import { workbenchSearch } from "../../features/workbench";
 
 export function ModelDetailRoute() {

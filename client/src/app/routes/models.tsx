@@ -4,7 +4,8 @@ import { Loading, Notice } from "../../components/notice";
 import { Page, Panel } from "../../components/page";
 import { paths } from "../../config/paths";
 import { useCurrentUser } from "../../features/auth/hooks/use-session";
-import { canEditProfiles, ModelsTable, modelsQueries } from "../../features/models";
+import { canEditProfiles, ModelsTable } from "../../features/models";
+import { modelsQueries } from "../../lib/api/models";
 
 const linkButton = "inline-flex items-center rounded-md border px-4 py-2 text-body font-medium no-underline transition-colors";
 

@@ -1,7 +1,7 @@
 import { useQuery } from "@tanstack/react-query";
 import type { RevisionContent } from "../../../../shared/schemas/plan-responses";
 import { Loading, Notice } from "../../components/notice";
-import { plansQueries } from "../../features/plans/api/queries";
+import { analysesQueries } from "../../lib/api/analyses";
 import { analysisRequestOf } from "../../features/plans/lib/model-shape";
 import { DecayChart } from "../../features/workbench/charts/decay-chart";
 import { RatioChart } from "../../features/workbench/charts/ratio-chart";
@@ -9,7 +9,7 @@ import { SpectrumChart } from "../../features/workbench/charts/spectrum-chart";
 
 /** The workbench's charts for one revision. Figures are recomputed for display; the stored results above are what was signed. */
 export function RevisionCharts({ content }: { content: RevisionContent }) {
-  const analysis = useQuery(plansQueries.analysis(analysisRequestOf(content)));
+  const analysis = useQuery(analysesQueries.detail(analysisRequestOf(content)));
   if (analysis.isPending) return <Loading label="Running the engine…" />;
   if (analysis.isError) return <Notice tone="alert" title="Could not draw the charts">{analysis.error.message}</Notice>;
   const a = analysis.data;

@@ -4,6 +4,7 @@ import { ErrorView } from "../../components/error-view";
 import { Page } from "../../components/page";
 import { Loading, Notice } from "../../components/notice";
 import { paths } from "../../config/paths";
+import { modelsQueries } from "../../lib/api/models";
 import { acceleratorsQuery } from "../../features/accelerators/api/list-accelerators";
 import { useCurrentUser } from "../../features/auth/hooks/use-session";
 import { PlanBudgetSheet } from "../../features/budgets/components/plan-budget-sheet";
@@ -13,7 +14,7 @@ import { NewPlanForm } from "../../features/plans/components/new-plan-form";
 export function PlanNewRoute() {
   const user = useCurrentUser();
   const navigate = useNavigate();
-  const models = useQuery(plansQueries.modelChoices());
+  const models = useQuery(modelsQueries.list());
   const settings = useQuery(plansQueries.settings());
   const accelerators = useQuery(acceleratorsQuery());
 

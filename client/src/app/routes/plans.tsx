@@ -4,6 +4,7 @@ import { planListQuerySchema } from "../../../../shared/schemas/plans";
 import { Page, Panel } from "../../components/page";
 import { Loading, Notice } from "../../components/notice";
 import { paths } from "../../config/paths";
+import { modelsQueries } from "../../lib/api/models";
 import { useSearchState } from "../../lib/search-state";
 import { useCurrentUser } from "../../features/auth/hooks/use-session";
 import { plansQueries } from "../../features/plans/api/queries";
@@ -17,7 +18,7 @@ export function PlansRoute() {
   const user = useCurrentUser();
   const { params, update } = useSearchState(planListQuerySchema);
   const list = useQuery(plansQueries.list(params));
-  const models = useQuery(plansQueries.modelChoices());
+  const models = useQuery(modelsQueries.list());
 
   const ownerList = useQuery(plansQueries.owners());
 

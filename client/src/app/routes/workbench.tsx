@@ -2,7 +2,8 @@ import { useQuery } from "@tanstack/react-query";
 import { Loading, Notice } from "../../components/notice";
 import { Page } from "../../components/page";
 import { apiPaths } from "../../config/paths";
-import { ImportWarnings, modelsQueries } from "../../features/models";
+import { ImportWarnings } from "../../features/models";
+import { modelsQueries } from "../../lib/api/models";
 import { Workbench } from "../../features/workbench";
 
 /** The workbench, fed with the saved profiles; a profile imported from a file shows the warnings its import raised. */

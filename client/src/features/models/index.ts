@@ -1,5 +1,4 @@
 /** What routes compose from the model-profile feature. */
-export { modelsQueries } from "./api/queries";
 export { ModelsTable } from "./components/models-table";
 export { ProfileDetail } from "./components/profile-detail";
 export { ImportConfig } from "./components/import-config";

@@ -15,4 +15,3 @@ export { TOPICS, METHOD_TOPICS, CAUTION, type TopicId } from "./explain/topics";
 export { METHOD_LABELS } from "./state/method-fields";
 export { methodColour, BAND_STYLE, FLAG_STYLE } from "./charts/palette";
 export { workbenchSearch } from "./state/url-codec";
-export { analysisQuery, runAnalysis } from "./api/analyse";

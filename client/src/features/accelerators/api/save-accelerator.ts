@@ -17,7 +17,7 @@ export async function deleteAccelerator(id: number) {
 }
 
 export const restoreAccelerator = (id: number) =>
-  apiClient.send("POST", `${apiPaths.accelerator(id)}/restore`, undefined, acceleratorResponseSchema).then((r) => r.accelerator);
+  apiClient.send("POST", apiPaths.acceleratorRestore(id), undefined, acceleratorResponseSchema).then((r) => r.accelerator);
 
 function useCatalogMutation<A, R>(fn: (args: A) => Promise<R>) {
   const queryClient = useQueryClient();

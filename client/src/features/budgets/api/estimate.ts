@@ -26,5 +26,6 @@ export function useBudgetEstimate(request: BudgetEstimateRequest | null) {
   });
   // Inputs typed but not yet sent count as pending too, so the figures are never shown as current when they are not.
   const settling = JSON.stringify(settled) !== JSON.stringify(request);
-  return { ...query, settling };
+  // Returned beside the query, not spread into it, so only the fields a component reads re-render it.
+  return { query, settling };
 }

@@ -4,6 +4,5 @@ import type { BudgetEstimateRequest } from "../../../../../shared/schemas/budget
 export const budgetsKeys = {
   all: ["budgets"] as const,
   recipes: () => [...budgetsKeys.all, "recipes"] as const,
-  models: () => [...budgetsKeys.all, "model-choices"] as const,
   estimate: (request: BudgetEstimateRequest | null) => [...budgetsKeys.all, "estimate", request] as const,
 };

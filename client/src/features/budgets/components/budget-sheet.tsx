@@ -41,12 +41,12 @@ export type BudgetSheetProps = {
 export function BudgetSheet({ mode, value, onChange, context, accelerators, rowLabels, extraIssues = {}, actions, disabled, csvName = "ropewalk-budget.csv", modelPanel }: BudgetSheetProps) {
   const recipes = useQuery(recipesQuery());
   const built = context ? buildRequest(value, context) : { request: null, issues: {} };
-  const estimate = useBudgetEstimate(built.request);
+  const { query: estimate, settling } = useBudgetEstimate(built.request);
   const serverIssues = isApiError(estimate.error) ? (estimate.error.fields ?? {}) : {};
   const issues = { ...serverIssues, ...built.issues, ...extraIssues };
   // With inputs not yet valid the last figures stay, dimmed, so the page does not jump while someone types.
   const data = context ? estimate.data : undefined;
-  const stale = !built.request || estimate.settling || estimate.isPlaceholderData || estimate.isFetching;
+  const stale = !built.request || settling || estimate.isPlaceholderData || estimate.isFetching;
 
   const pickRecipe = (recipe: BudgetRecipeResponse, target: number | null) => {
     if (target === null) {

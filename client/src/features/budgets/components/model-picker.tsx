@@ -1,6 +1,6 @@
 import { useId } from "react";
 import { formatCount } from "../../../lib/format";
-import type { ModelChoice } from "../api/get-model-choices";
+import type { ModelProfile } from "../../../../../shared/schemas/models";
 import { emptyShape, type ModelDraft, type ShapeField } from "../lib/model-draft";
 import { Radio } from "./radio";
 import { SheetInput } from "./sheet-input";
@@ -15,6 +15,12 @@ const SHAPE_LABELS: Record<ShapeField, { label: string; hint?: string }> = {
   hiddenSize: { label: "Hidden size", hint: "Blank: heads × head dimension" },
   bytesPerElement: { label: "Bytes per element", hint: "Blank: 2 (bf16)" },
 };
+
+/** Only the fields the estimator reads from a stored profile (GET /api/models, read through lib/api/models). */
+export type ModelChoice = Pick<
+  ModelProfile,
+  "id" | "name" | "family" | "parameters" | "layers" | "attentionHeads" | "kvHeads" | "headDim" | "hiddenSize" | "bytesPerElement" | "trainedContext" | "retiredAt"
+>;
 
 type Props = { value: ModelDraft; onChange: (next: ModelDraft) => void; profiles: ModelChoice[]; issues: Record<string, string> };
 

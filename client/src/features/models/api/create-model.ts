@@ -3,7 +3,7 @@ import type { ModelProfileValues } from "../../../../../shared/schemas/models";
 import { modelResponseSchema } from "../../../../../shared/schemas/model-responses";
 import { apiClient } from "../../../lib/api-client";
 import { apiPaths } from "../../../config/paths";
-import { modelsKeys } from "./keys";
+import { afterModelSaved } from "../../../lib/api/models";
 
 export const createModel = (body: ModelProfileValues) =>
   apiClient.send("POST", apiPaths.models(), body, modelResponseSchema).then((r) => r.model);
@@ -13,8 +13,7 @@ export function useCreateModel() {
   return useMutation({
     mutationFn: createModel,
     onSuccess: (model) => {
-      queryClient.setQueryData(modelsKeys.detail(model.id), model);
-      return queryClient.invalidateQueries({ queryKey: modelsKeys.list() });
+      return afterModelSaved(queryClient, model);
     },
   });
 }

@@ -2,22 +2,18 @@ import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { modelResponseSchema, modelRetiredResponseSchema } from "../../../../../shared/schemas/model-responses";
 import { apiClient } from "../../../lib/api-client";
 import { apiPaths } from "../../../config/paths";
-import { modelsKeys } from "./keys";
+import { afterModelDeleted, afterModelSaved } from "../../../lib/api/models";
 
 /** null when gone; the retired profile and the plans that use it when the server retired it instead. */
 export const deleteModel = async (id: number) => (await apiClient.sendMaybeContent("DELETE", apiPaths.model(id), modelRetiredResponseSchema)) ?? null;
 
-export const restoreModel = (id: number) => apiClient.send("POST", `${apiPaths.model(id)}/restore`, undefined, modelResponseSchema).then((r) => r.model);
+export const restoreModel = (id: number) => apiClient.send("POST", apiPaths.modelRestore(id), undefined, modelResponseSchema).then((r) => r.model);
 
 export function useDeleteModel() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: deleteModel,
-    onSuccess: (retired, id) => {
-      if (retired) queryClient.setQueryData(modelsKeys.detail(id), retired.model);
-      else queryClient.removeQueries({ queryKey: modelsKeys.detail(id) });
-      return queryClient.invalidateQueries({ queryKey: modelsKeys.list() });
-    },
+    onSuccess: (retired, id) => (retired ? afterModelSaved(queryClient, retired.model) : afterModelDeleted(queryClient, id)),
   });
 }
 
@@ -25,9 +21,6 @@ export function useRestoreModel() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: restoreModel,
-    onSuccess: (model) => {
-      queryClient.setQueryData(modelsKeys.detail(model.id), model);
-      return queryClient.invalidateQueries({ queryKey: modelsKeys.list() });
-    },
+    onSuccess: (model) => afterModelSaved(queryClient, model),
   });
 }

@@ -2,7 +2,7 @@ import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { importResponseSchema, type ModelProfileInput } from "../../../../../shared/schemas/models";
 import { apiClient } from "../../../lib/api-client";
 import { apiPaths } from "../../../config/paths";
-import { modelsKeys } from "./keys";
+import { afterModelSaved } from "../../../lib/api/models";
 
 export type ImportRequest = { file: File; save: boolean; overrides?: Partial<ModelProfileInput> };
 
@@ -23,8 +23,7 @@ export function useImportConfig() {
     mutationFn: importConfig,
     onSuccess: (result) => {
       if (!result.saved) return;
-      queryClient.setQueryData(modelsKeys.detail(result.saved.id), result.saved);
-      return queryClient.invalidateQueries({ queryKey: modelsKeys.list() });
+      return afterModelSaved(queryClient, result.saved);
     },
   });
 }

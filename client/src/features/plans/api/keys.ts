@@ -1,5 +1,4 @@
 import type { PlanListParams } from "./list-plans";
-import type { AnalysisRequest } from "../../../../../shared/schemas/analysis";
 
 /** Query keys for plans, general to specific: invalidating `detail(id)` refreshes its revisions, verify and diffs too. */
 export const plansKeys = {
@@ -13,6 +12,4 @@ export const plansKeys = {
   diff: (id: number, a: number, b: number) => [...plansKeys.detail(id), "diff", a, b] as const,
   settings: () => [...plansKeys.all, "settings"] as const,
   owners: () => [...plansKeys.all, "owners"] as const,
-  modelChoices: () => [...plansKeys.all, "model-choices"] as const,
-  analysis: (request: AnalysisRequest) => [...plansKeys.all, "analysis", request] as const,
 };

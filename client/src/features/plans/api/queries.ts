@@ -3,9 +3,7 @@ import { planQuery } from "./get-plan";
 import { revisionQuery } from "./get-revision";
 import { listPlansQuery } from "./list-plans";
 import { planOwnersQuery } from "./list-owners";
-import { modelChoicesQuery } from "./model-choices";
 import { planSettingsQuery } from "./plan-settings";
-import { analysisQuery } from "./run-analysis";
 import { verifyQuery } from "./verify-revision";
 
 /** The plans feature's query factory: `useQuery(plansQueries.detail(id))`. */
@@ -17,6 +15,4 @@ export const plansQueries = {
   diff: diffQuery,
   settings: planSettingsQuery,
   owners: planOwnersQuery,
-  modelChoices: modelChoicesQuery,
-  analysis: analysisQuery,
 };

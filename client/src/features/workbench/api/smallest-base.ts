@@ -41,7 +41,9 @@ export async function streamSmallestBase(
 }
 
 /** The search as a query: the key is the question, so it runs once per (d, target); cancelling aborts the stream. */
+// onProgress only reports on the running search; it is not part of the question, so not of the key.
 export const smallestBaseQuery = (rotaryDim: number, targetContext: number, onProgress: (p: BoundProgress) => void) =>
+  // eslint-disable-next-line @tanstack/query/exhaustive-deps
   queryOptions({
     queryKey: workbenchKeys.smallestBase(rotaryDim, targetContext),
     queryFn: ({ signal }) => streamSmallestBase({ rotaryDim, targetContext }, signal, onProgress),

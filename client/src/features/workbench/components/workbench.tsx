@@ -4,7 +4,7 @@ import { useQuery } from "@tanstack/react-query";
 import type { ModelProfile } from "../../../../../shared/schemas/models";
 import { Loading, Notice } from "../../../components/notice";
 import { isApiError } from "../../../lib/api-client";
-import { analysisQuery } from "../api/analyse";
+import { analysesQueries } from "../../../lib/api/analyses";
 import { sig } from "../figures";
 import { useSettledValue } from "../hooks/use-debounced-request";
 import { shapeOf, withDefaults } from "../state/defaults";
@@ -36,7 +36,7 @@ export function Workbench({ profiles, profileNotes }: WorkbenchProps) {
   const savedShape = useMemo(() => (chosen ? shapeOf(chosen) : null), [chosen]);
   const { request, errors } = useMemo(() => toRequest(inputs, savedShape), [inputs, savedShape]);
   const settled = useSettledValue(request);
-  const analysis = useQuery(analysisQuery(settled));
+  const analysis = useQuery(analysesQueries.detail(settled));
 
   const trainedContext = chosen?.trainedContext ?? (model.kind === "shape" ? Number(model.trainedContext) || null : null);
   const target = Number(inputs.target);

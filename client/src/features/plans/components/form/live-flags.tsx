@@ -5,7 +5,7 @@ import { lengthSchema, methodParamsSchema, bandsSchema, type AnalysisRequest } f
 import { Notice } from "../../../../components/notice";
 import { isApiError } from "../../../../lib/api-client";
 import { formatCount, sig3 } from "../../../../lib/format";
-import { plansQueries } from "../../api/queries";
+import { analysesQueries } from "../../../../lib/api/analyses";
 import type { RevisionForm } from "../../lib/form-values";
 import { formatPairRanges } from "../../lib/pair-ranges";
 import { FLAG_INFO } from "../flags-summary";
@@ -39,7 +39,7 @@ export function LiveFlags({ model }: { model: AnalysisModel | null }) {
     const t = setTimeout(() => setSettled(key === "null" ? null : (JSON.parse(key) as AnalysisRequest)), DEBOUNCE_MS);
     return () => clearTimeout(t);
   }, [key]);
-  const analysis = useQuery(plansQueries.analysis(settled));
+  const analysis = useQuery(analysesQueries.detail(settled));
 
   return (
     <section aria-label="Live analysis" aria-live="polite" className="flex flex-col gap-2 rounded-md border border-seaglass/40 bg-seaglass-pale/40 p-4">

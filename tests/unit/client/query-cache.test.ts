@@ -1,0 +1,78 @@
+import { describe, expect, it } from "vitest";
+import { QueryClient } from "@tanstack/react-query";
+import { ESLint } from "eslint";
+import { apiPaths } from "../../../client/src/config/paths";
+import { afterModelDeleted, afterModelSaved, modelsQueries } from "../../../client/src/lib/api/models";
+import { analysesQueries } from "../../../client/src/lib/api/analyses";
+import type { ModelProfile } from "../../../shared/schemas/models";
+import type { AnalysisRequest } from "../../../shared/schemas/analysis";
+
+/*
+ * One name, one fetcher and one cache per resource. Before this, GET /api/models had three names in paths.ts
+ * (models, planModelChoices, budgetModelChoices) behind three query keys, and saving a profile refreshed one of them;
+ * POST /api/analyses had two names and two caches.
+ */
+describe("apiPaths: one name per API address", () => {
+  it("no two names build the same address", () => {
+    const byUrl = new Map<string, string[]>();
+    for (const [name, build] of Object.entries(apiPaths)) {
+      // Sample arguments 1, 2, 3: ids and revision numbers differ, `download`/`save` flags are truthy.
+      const url = (build as (...args: unknown[]) => string)(1, 2, 3);
+      byUrl.set(url, [...(byUrl.get(url) ?? []), name]);
+    }
+    const shared = [...byUrl.entries()].filter(([, names]) => names.length > 1);
+    expect(shared).toEqual([]);
+  });
+});
+
+const profile = { id: 7, name: "Hawser 7B" } as ModelProfile;
+const request: AnalysisRequest = { model: { modelId: 7 }, targetContext: 32768, methods: [] } as unknown as AnalysisRequest;
+
+function seeded() {
+  const client = new QueryClient();
+  client.setQueryData(modelsQueries.list().queryKey, [profile]);
+  client.setQueryData(modelsQueries.detail(7).queryKey, profile);
+  client.setQueryData(analysesQueries.detail(request).queryKey, { figures: "old" } as never);
+  return client;
+}
+const invalidated = (client: QueryClient, key: readonly unknown[]) => client.getQueryState(key)?.isInvalidated;
+
+describe("model profiles: one cache, invalidated through the factory", () => {
+  it("keys run general to specific under one root", () => {
+    expect(modelsQueries.list().queryKey).toEqual(["models", "list"]);
+    expect(modelsQueries.detail(7).queryKey).toEqual(["models", "detail", 7]);
+    expect(analysesQueries.detail(request).queryKey).toEqual(["analyses", request]);
+  });
+
+  it("saving a profile stores its detail and refreshes the list every page reads and the analyses that used it", async () => {
+    const client = seeded();
+    const renamed = { ...profile, name: "Hawser 7B long" };
+    await afterModelSaved(client, renamed);
+    expect(client.getQueryData(modelsQueries.detail(7).queryKey)).toEqual(renamed);
+    expect(invalidated(client, modelsQueries.list().queryKey)).toBe(true);
+    expect(invalidated(client, analysesQueries.detail(request).queryKey)).toBe(true);
+  });
+
+  it("deleting a profile drops its detail and refreshes the list", async () => {
+    const client = seeded();
+    await afterModelDeleted(client, 7);
+    expect(client.getQueryState(modelsQueries.detail(7).queryKey)).toBeUndefined();
+    expect(invalidated(client, modelsQueries.list().queryKey)).toBe(true);
+  });
+});
+
+describe("lint: query keys are written only by the query factories", () => {
+  const eslint = new ESLint();
+  const source = `import { useQuery } from "@tanstack/react-query";\nexport const useX = () => useQuery({ queryKey: ["models", "list"], queryFn: () => 1 });\n`;
+  const CASES: [file: string, refused: boolean][] = [
+    ["client/src/app/routes/x.tsx", true],
+    ["client/src/features/plans/components/x.tsx", true],
+    ["client/src/features/plans/api/x.ts", false],
+    ["client/src/lib/api/x.ts", false],
+  ];
+  it.each(CASES)("a literal key in %s: refused=%s", async (filePath, refused) => {
+    const [result] = await eslint.lintText(source, { filePath });
+    const hits = result.messages.filter((m) => m.ruleId === "no-restricted-syntax");
+    expect(hits.length > 0).toBe(refused);
+  });
+});
