@@ -1,5 +1,5 @@
 // Flat config. Besides the usual TypeScript and hooks checks, it enforces the one-way imports of
-// ARCHITECTURE.md habit 1 with eslint-plugin-boundaries: a violation fails `npm run lint`.
+// the one-way imports of docs/import-walls.md with eslint-plugin-boundaries: a violation fails `npm run lint`.
 import { defineConfig } from "eslint/config";
 import tseslint from "typescript-eslint";
 import reactHooks from "eslint-plugin-react-hooks";

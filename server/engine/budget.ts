@@ -1,7 +1,7 @@
 /**
  * Budget engine: tokens, FLOPs, accelerator-hours, cost and memory of a context-extension run.
  * Pure functions only; the service resolves modelId / acceleratorId to numbers before calling.
- * Formulas and their sources: design notes, "Budget"; each is tested in tests/unit/budget.
+ * Formulas and their sources: docs/budget-conventions.md; each is tested in tests/unit/budget.
  */
 export { estimateBudget } from "./budget/estimate";
 export {

@@ -17,7 +17,7 @@ export function bandOf(rotations: number, bands: Bands): Band {
   return "drifting";
 }
 
-/** Per-pair table with the flags exactly as DOMAIN.md defines them, judged on the original frequencies. */
+/** Per-pair table with the flags exactly as docs/rotary-scaling.md defines them, judged on the original frequencies. */
 export function classifyPairs(invFreq: ArrayLike<number>, scaled: ArrayLike<number>, w: PairWindow): PairResult[] {
   const L = w.trainedContext;
   const out: PairResult[] = [];

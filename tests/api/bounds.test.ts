@@ -51,7 +51,7 @@ describe("POST /api/bounds/base", () => {
     expect((await post(await agent(), { rotaryDim: 128, base: 10_000 })).status).toBe(401);
   });
 
-  it("supported length of b = 10 000 at d = 128 is 1707, and null when maxLength stops before it (Men et al. 2024; derived in DOMAIN.md)", async () => {
+  it("supported length of b = 10 000 at d = 128 is 1707, and null when maxLength stops before it (Men et al. 2024; derived in docs/rotary-scaling.md)", async () => {
     const a = await agentAs(["viewer"]);
     expect((await post(a, { rotaryDim: 128, base: 10_000 })).body).toEqual({ supportedLength: 1707, maxLength: 2 ** 24 });
     expect((await post(a, { rotaryDim: 128, base: 1_000_000, maxLength: 27_115 })).body).toEqual({ supportedLength: null, maxLength: 27_115 });

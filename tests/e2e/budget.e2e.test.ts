@@ -115,7 +115,7 @@ describe("budget sheet in a browser", () => {
     const search = new URLSearchParams([["model", String(profile.id)], ["acc", String(stored.id)], ["n", "8"], ["st", "16384_64_200"], ["st", "32768_32_t1e9"]]);
     await page.goto(`${server.url}/estimator?${search}`);
     await page.getByRole("heading", { level: 1, name: "Budget estimator" }).waitFor();
-    // Tokens = steps × global batch × sequence length (DOMAIN.md, Budget); a token target takes whole steps:
+    // Tokens = steps × global batch × sequence length (docs/budget-conventions.md); a token target takes whole steps:
     // ceil(1e9 / (32 × 32768)) = 954 steps → 1 000 341 504 tokens; plus 200 × 64 × 16384 = 209 715 200.
     await expect(settledTokens(page)).resolves.toBe("1.21 billion");
     await page.getByText("954 whole steps").waitFor();

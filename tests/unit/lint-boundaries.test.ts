@@ -3,7 +3,7 @@ import { ESLint } from "eslint";
 
 /*
  * Runs the repository's real eslint.config.js over one-line files placed (virtually) in each layer,
- * so a config change that silently stops enforcing ARCHITECTURE.md habit 1 fails here.
+ * so a config change that silently stops enforcing docs/import-walls.md fails here.
  * Each import target exists in the repo; the importing file does not need to.
  */
 const CASES: [from: string, source: string, refused: boolean][] = [

@@ -8,7 +8,7 @@ export type BudgetRecipe = BudgetRecipeResponse;
 export const RECIPE_CAUTION =
   "Figures as the paper reported them for its own models and data; a starting point, not a prediction for this plan.";
 
-// Author lists and titles are from memory; the figures are the ones given in the design notes (DOMAIN.md, Budget).
+// Author lists and titles are from memory; the figures are the ones listed in docs/budget-conventions.md.
 export const BUDGET_RECIPES: readonly BudgetRecipe[] = [
   {
     id: "position-interpolation",

@@ -11,7 +11,7 @@ import {
 import { SHAPE_7B } from "./fixtures";
 
 describe("KV cache", () => {
-  // Design notes, Budget (derived): 2 · 32 layers · 32 KV heads · 128 · 2 bytes = 524 288
+  // docs/budget-conventions.md (derived): 2 · 32 layers · 32 KV heads · 128 · 2 bytes = 524 288
   it("524 288 bytes per token for 32 layers × 32 KV heads × 128 × 2 bytes", () => {
     expect(kvCacheBytesPerToken({ layers: 32, kvHeads: 32, headDim: 128, bytesPerElement: 2 })).toBe(524_288);
     expect(kvCacheBytesPerToken({ layers: 32, kvHeads: 32, headDim: 128 })).toBe(524_288); // 2 bytes by default

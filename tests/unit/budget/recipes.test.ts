@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { BUDGET_RECIPES, findRecipe, RECIPE_CAUTION, recipeStage, stageTokens } from "../../../server/engine/budget";
 
-// Figures as given in the design notes (DOMAIN.md, Budget), each from the paper named beside it.
+// Figures as given in docs/budget-conventions.md, each from the paper named beside it.
 
 describe("published recipes", () => {
   it("Position Interpolation (Chen et al. 2023): 1000 steps, global batch 64, lr 2e-5", () => {

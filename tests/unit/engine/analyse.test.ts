@@ -51,7 +51,7 @@ describe("analyse()", () => {
     expect(res.decay.positions.at(-1)).toBe(32_768);
     expect(res.decay.original[0]).toBe(32.5);
     const at1000 = res.decay.positions.indexOf(1000);
-    expect(res.decay.original[at1000]).toBeCloseTo(4.471, 3); // RoFormer §3.4.3, derived in DOMAIN.md
+    expect(res.decay.original[at1000]).toBeCloseTo(4.471, 3); // RoFormer §3.4.3, derived in docs/rotary-scaling.md
     for (const curve of Object.values(res.decay.byMethod)) {
       expect(curve).toHaveLength(res.decay.positions.length);
       expect(curve[0]).toBe(32.5);

@@ -13,7 +13,7 @@ describe("supported length of a base (Men et al. 2024)", () => {
     [10_000, 1707],
     [500_000, 18438],
     [1_000_000, 27115],
-  ])("d = 128, b = %d → %d (derived in DOMAIN.md; the paper's rounded table is not used)", (base, expected) => {
+  ])("d = 128, b = %d → %d (derived in docs/rotary-scaling.md; the paper's rounded table is not used)", (base, expected) => {
     const theta = inverseFrequencies(128, base);
     expect(supportedLength(theta, 2 ** 24)).toBe(expected);
     expect(supportedLengthNaive(theta, expected + 1)).toBe(expected);

@@ -118,7 +118,7 @@ describe("relations between methods", () => {
   });
 });
 
-describe("pair flags (DOMAIN.md definitions)", () => {
+describe("pair flags (docs/rotary-scaling.md definitions)", () => {
   const flags = (id: MethodId) => classifyPairs(theta, runMethod(CTX, SAMPLE[id]).invFreq, window);
 
   it("pairs 46-63 exceed the trained window for d = 128, b = 10 000, L = 4096 (Liu et al. 2023: 36 dimensions beyond d_extra = 92)", () => {

@@ -9,7 +9,7 @@ describe("critical dimension and extrapolation bound (Liu et al. 2023)", () => {
     expect(criticalDimension(128, 10_000, 4096)).toBe(92);
   });
 
-  it("T_extra = 2π·β^(d_extra/d): β = 10 000 → ≈ 4 712, β = 1 000 000 → ≈ 129 027 (Theorem 3; derived in DOMAIN.md)", () => {
+  it("T_extra = 2π·β^(d_extra/d): β = 10 000 → ≈ 4 712, β = 1 000 000 → ≈ 129 027 (Theorem 3; derived in docs/rotary-scaling.md)", () => {
     const at = (base: number) => extrapolationBound({ d: 128, originalBase: 10_000, trained: 4096, base, tune: 2048 });
     expect(at(10_000).tExtra).toBeCloseTo(4712, -1);
     expect(at(1_000_000).tExtra).toBeCloseTo(129_027, -1);
@@ -41,7 +41,7 @@ describe("long-term decay R(m) (RoFormer)", () => {
     [10, 17.954],
     [100, 10.227],
     [1000, 4.471],
-  ])("d = 128, b = 10 000: R(%d) = %d (derived in DOMAIN.md)", (m, r) => {
+  ])("d = 128, b = 10 000: R(%d) = %d (derived in docs/rotary-scaling.md)", (m, r) => {
     expect(relativeUpperBound(theta, m)).toBeCloseTo(r, 3);
   });
 

@@ -51,7 +51,7 @@ describe("band-smoothed scaling (Llama 3.1 rule, Meta 2024)", () => {
   const out = Array.from(METHODS.llama3(ctx, { method: "llama3" }).invFreq);
   const sigma = (j: number) => (out[j] / theta[j] - 1 / 8) / (1 - 1 / 8);
 
-  it("pairs 0-28 unchanged, 29-34 blended, 35-63 divided by 8 (derived in DOMAIN.md)", () => {
+  it("pairs 0-28 unchanged, 29-34 blended, 35-63 divided by 8 (derived in docs/rotary-scaling.md)", () => {
     for (let j = 0; j <= 28; j++) expect(out[j]).toBe(theta[j]);
     for (let j = 29; j <= 34; j++) {
       expect(out[j]).toBeLessThan(theta[j]);
