@@ -5,7 +5,7 @@ import { sql } from "drizzle-orm";
 import type { Db } from "./client";
 import type { AppDeps } from "../deps";
 import { users } from "./schema";
-import { recordAudit } from "../features/audit/audit.repo";
+import { recordAudit } from "../platform/audit";
 import type { Role } from "../../shared/schemas";
 import { seedModelProfiles } from "../features/models/models.seed";
 import { seedAccelerators } from "../features/budgets/accelerators.seed";

@@ -1,6 +1,6 @@
 import type { NextFunction, Request, Response } from "express";
 import type { Role, SessionUser } from "../../shared/schemas";
-import { Forbidden, Unauthorized } from "./errors";
+import { Forbidden, Unauthorized } from "../platform/errors";
 
 /** The signed-in user, set by the session loader (or a bearer token) on res.locals.user. */
 export function currentUser(res: Response): SessionUser {
@@ -28,5 +28,3 @@ export function requireRole(...roles: Role[]) {
     next();
   };
 }
-
-export const hasRole = (user: SessionUser, ...roles: Role[]) => roles.some((r) => user.roles.includes(r));

@@ -1,9 +1,7 @@
 import type { NextFunction, Request, Response } from "express";
 import type { AppDeps } from "../deps";
-import { HttpError, Unauthorized } from "./errors";
-import { findUserById } from "../features/users/users.repo";
-import { toSessionUser } from "../features/users/users.service";
-import { liveToken } from "../features/tokens/tokens.service";
+import { HttpError, Unauthorized } from "../platform/errors";
+import { activeSessionUser, liveToken } from "../platform/identity";
 import { onlyReads, scopesAllow } from "./token-scopes";
 
 /**
@@ -20,16 +18,16 @@ export function bearerAuth(deps: AppDeps) {
     if (!m) {
       return next(new HttpError(401, "unauthorized", "the Authorization header is malformed", { authorization: "expected \"Bearer <token>\"" }));
     }
-    const token = await liveToken(deps, m[1]);
-    const row = token ? await findUserById(deps.db, token.userId) : undefined;
-    if (!token || !row || !row.active) return next(new Unauthorized("the API token is unknown, revoked or its owner is deactivated"));
+    const token = await liveToken(deps.db, m[1]);
+    const user = token ? await activeSessionUser(deps.db, token.userId) : undefined;
+    if (!token || !user) return next(new Unauthorized("the API token is unknown, revoked or its owner is deactivated"));
     if (!scopesAllow(token.scopes, req.method, req.path)) {
       if (onlyReads(token.scopes) && req.method !== "GET" && req.method !== "HEAD") {
         return next(new HttpError(403, "read_only_token", "this API token is read-only"));
       }
       return next(new HttpError(403, "token_scope", `this API token's scopes (${token.scopes.join(", ")}) do not allow ${req.method} /api${req.path}`));
     }
-    res.locals.user = toSessionUser(row);
+    res.locals.user = user;
     res.locals.viaToken = true;
     next();
   };

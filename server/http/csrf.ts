@@ -1,6 +1,6 @@
 import crypto from "node:crypto";
 import type { NextFunction, Request, Response } from "express";
-import { HttpError } from "./errors";
+import { HttpError } from "../platform/errors";
 import { csrfFromCookie } from "./csrf-cookie";
 
 const SAFE = new Set(["GET", "HEAD", "OPTIONS"]);

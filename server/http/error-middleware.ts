@@ -1,7 +1,7 @@
 import type { NextFunction, Request, Response } from "express";
 import { ZodError } from "zod";
-import { HttpError, TooManyRequests } from "./errors";
-import { issuesToFields } from "./validate";
+import { HttpError, TooManyRequests } from "../platform/errors";
+import { issuesToFields } from "../platform/validate";
 import { isDatabaseUnavailable } from "../db/errors";
 
 type BodyParserError = Error & { type?: string; status?: number };

@@ -3,8 +3,7 @@ import type { NextFunction, Request, Response } from "express";
 import session from "express-session";
 import connectPgSimple from "connect-pg-simple";
 import type { AppDeps } from "../deps";
-import { findUserById } from "../features/users/users.repo";
-import { toSessionUser } from "../features/users/users.service";
+import { activeSessionUser } from "../platform/identity";
 
 declare module "express-session" {
   interface SessionData {
@@ -45,8 +44,8 @@ export function loadUser(deps: AppDeps) {
   return async (req: Request, res: Response, next: NextFunction) => {
     const id = req.session?.userId;
     if (id) {
-      const row = await findUserById(deps.db, id);
-      if (row && row.active) res.locals.user = toSessionUser(row);
+      const user = await activeSessionUser(deps.db, id);
+      if (user) res.locals.user = user;
       else delete req.session.userId;
     }
     next();

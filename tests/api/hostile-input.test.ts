@@ -9,7 +9,7 @@ import { testDb } from "../setup/db";
 import { createPlan, createProfile, post, put } from "../setup/plans";
 import { sampleProfile } from "../fixtures/profiles";
 import { deepJson } from "../setup/fuzz";
-import { MAX_JSON_DEPTH } from "../../server/http/hostile";
+import { MAX_JSON_DEPTH } from "../../server/platform/hostile";
 
 const { app, agentAs } = makeTestApp();
 const plain = { _name_or_path: "saltmarsh/heron-1b", model_type: "heron", hidden_size: 2048, num_attention_heads: 16, num_hidden_layers: 22, max_position_embeddings: 4096, rope_theta: 10000 };

@@ -33,7 +33,7 @@ export const auditEvents = pgTable(
     subjectType: text("subject_type").notNull(),
     subjectId: text("subject_id"),
     detail: jsonb("detail").notNull().default({}),
-    /** Hash chain (server/features/audit/audit-chain.ts): the predecessor's hash, and this row's own. */
+    /** Hash chain (server/platform/audit-chain.ts): the predecessor's hash, and this row's own. */
     prevHash: text("prev_hash").notNull(),
     hash: text("hash").notNull(),
   },

@@ -1,4 +1,4 @@
-import { TooManyRequests } from "../../http/errors";
+import { TooManyRequests } from "../../platform/errors";
 
 /** Large analyses one user may have running at once; more answer 429 so one client cannot take every pool thread. */
 export const HEAVY_ANALYSES_PER_USER = 2;

@@ -1,6 +1,6 @@
 import os from "node:os";
 import { Piscina } from "piscina";
-import { HttpError } from "../../http/errors";
+import { HttpError } from "../../platform/errors";
 import type { AnalysisResponse, ResolvedAnalysisRequest } from "../../../shared/schemas/analysis";
 
 /** Thrown when the caller aborted (its client went away) before the pool thread finished. */

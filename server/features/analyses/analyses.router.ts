@@ -3,7 +3,7 @@ import type { AppDeps } from "../../deps";
 import { currentUser, requireAuth } from "../../http/auth";
 import { parseBody } from "../../http/validate";
 import { analysisRequestSchema } from "../../../shared/schemas/analysis";
-import { getModelShape } from "../models/models.service";
+import { getModelShape } from "../models";
 import { analyseRequest } from "./analyses.service";
 import { AnalysisCancelled } from "./analyses.pool";
 

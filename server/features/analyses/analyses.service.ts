@@ -1,5 +1,5 @@
 import { analyse } from "../../engine";
-import { Invalid } from "../../http/errors";
+import { Invalid } from "../../platform/errors";
 import { analyseOffThread } from "./analyses.pool";
 import { takeHeavySlot } from "./analyses.limits";
 import {

@@ -1,7 +1,7 @@
 import type { Request, RequestHandler, Response } from "express";
 import { rateLimit, ipKeyGenerator } from "express-rate-limit";
 import type { AppDeps } from "../../deps";
-import { HttpError } from "../../http/errors";
+import { HttpError } from "../../platform/errors";
 
 // Counts live in express-rate-limit's in-process memory store unless `deps.limiterStore` hands out a shared one
 // (a later change moves them into PostgreSQL); each limiter asks for its store by name.

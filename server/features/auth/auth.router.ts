@@ -1,11 +1,11 @@
 import { Router } from "express";
 import type { AppDeps } from "../../deps";
 import { currentUser, optionalUser, requireAuth } from "../../http/auth";
-import { HttpError } from "../../http/errors";
+import { HttpError } from "../../platform/errors";
 import { parseBody } from "../../http/validate";
 import { destroySession, newCsrfToken, regenerate, saveSession, SESSION_COOKIE } from "../../http/session";
 import { changePasswordRequestSchema, loginRequestSchema } from "../../../shared/schemas";
-import { changePassword } from "../users/users.service";
+import { changePassword } from "../users";
 import { recordSignOut, verifyCredentials } from "./auth.service";
 import { loginLimiters, passwordChangeLimiter } from "./auth.limits";
 import { clearCookieToken, issueCookieToken } from "../../http/csrf-cookie";

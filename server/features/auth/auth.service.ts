@@ -1,9 +1,9 @@
 import bcrypt from "bcryptjs";
 import type { AppDeps } from "../../deps";
-import { HttpError } from "../../http/errors";
-import { recordAudit } from "../audit/audit.repo";
-import { findUserByEmail } from "../users/users.repo";
-import { toSessionUser } from "../users/users.service";
+import { HttpError } from "../../platform/errors";
+import { recordAudit } from "../../platform/audit";
+import { findUserByEmail } from "../users";
+import { toSessionUser } from "../../platform/identity";
 
 // Compared against when the e-mail is unknown, so both failures cost the same time. Made once per process at the
 // configured cost (not at import, which every test worker and script would pay for at cost 12).

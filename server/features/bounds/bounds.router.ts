@@ -1,7 +1,7 @@
 import { Router } from "express";
 import type { AppDeps } from "../../deps";
 import { requireAuth } from "../../http/auth";
-import { HttpError } from "../../http/errors";
+import { HttpError } from "../../platform/errors";
 import { parseBody } from "../../http/validate";
 import { baseBoundRequestSchema } from "../../../shared/schemas/bounds";
 import { runBaseBound, SearchCancelled } from "./bounds.service";

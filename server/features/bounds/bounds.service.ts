@@ -1,7 +1,7 @@
 import { EventEmitter } from "node:events";
 import os from "node:os";
 import { Worker } from "node:worker_threads";
-import { HttpError } from "../../http/errors";
+import { HttpError } from "../../platform/errors";
 import type { BaseBoundQuery, BaseBoundResponse, BoundProgress } from "../../../shared/schemas/bounds";
 
 /** Thrown when the caller aborted (e.g. the stream's client went away); the worker is already terminated. */

@@ -1,7 +1,7 @@
 import { estimateBudget } from "../../engine/budget";
 import type { Executor } from "../../db/client";
-import { Invalid } from "../../http/errors";
-import { findModelRow } from "../models/models.repo";
+import { Invalid } from "../../platform/errors";
+import { findModelRow } from "../models";
 import { findAccelerator } from "./accelerators.service";
 import type { ParsedBudgetEstimateRequest } from "../../../shared/schemas/budget";
 

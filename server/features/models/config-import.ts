@@ -8,7 +8,7 @@ import { ropeScalingKnownKeys, suggestKey } from "./rope-scaling-keys";
 import { scalingWarnings } from "./scaling-warnings";
 import { isObj, num, type Json, type Warn } from "./config-values";
 import { checkKvHeads, readHeadDim } from "./head-shape";
-import { findHostile } from "../../http/hostile";
+import { findHostile } from "../../platform/hostile";
 
 export class ConfigImportError extends Error {
   constructor(message: string, readonly fields: Record<string, string>) {

@@ -27,10 +27,8 @@ export async function deleteModelRow(ex: Executor, id: number) {
   await ex.delete(modelProfiles).where(eq(modelProfiles.id, id));
 }
 
-/** Plans that use a profile (title and id); the plans feature registers the query when it lands. */
-export type UsageQuery = (ex: Executor, modelId: number) => Promise<{ id: number; title: string }[]>;
-const usageQueries: UsageQuery[] = [];
-export const registerModelUsage = (q: UsageQuery) => usageQueries.push(q);
-export async function modelUsage(ex: Executor, id: number) {
-  return (await Promise.all(usageQueries.map((q) => q(ex, id)))).flat();
-}
+/**
+ * Plans that use a profile (title and id). The plans feature answers it; models cannot import plans (plans build on
+ * models), so the query is handed in explicitly by the app that wires both (server/app.ts) instead of registered.
+ */
+export type ModelUsage = (ex: Executor, modelId: number) => Promise<{ id: number; title: string }[]>;

@@ -3,9 +3,10 @@ import multer from "multer";
 import { z } from "zod";
 import type { AppDeps } from "../../deps";
 import { currentUser, requireAuth, requireRole } from "../../http/auth";
-import { Invalid } from "../../http/errors";
-import { parseBody, parseOr400, parseParams } from "../../http/validate";
-import { assertNotHostile } from "../../http/hostile";
+import { Invalid } from "../../platform/errors";
+import { parseBody, parseParams } from "../../http/validate";
+import { parseOr400 } from "../../platform/validate";
+import { assertNotHostile } from "../../platform/hostile";
 import { idParamSchema, modelProfileInputSchema } from "../../../shared/schemas";
 import * as service from "./models.service";
 
@@ -26,7 +27,8 @@ const importFlags = z.object({
   overrides: z.string().max(64_000).optional(),
 });
 
-export function modelsRouter(deps: AppDeps) {
+/** `usage` lists the plans that use a profile (the plans feature answers it; see ModelUsage). */
+export function modelsRouter(deps: AppDeps, usage: service.ModelUsage) {
   const r = Router();
   const editors = requireRole("researcher", "infra", "admin");
   r.use(requireAuth);
@@ -75,13 +77,13 @@ export function modelsRouter(deps: AppDeps) {
 
   // 204 when deleted; 200 with the retired profile and the plans that use it when it was retired instead.
   r.delete("/:id", editors, async (req, res) => {
-    const out = await service.deleteModel(deps, currentUser(res), parseParams(idParamSchema, req).id);
+    const out = await service.deleteModel(deps, usage, currentUser(res), parseParams(idParamSchema, req).id);
     if (out.deleted) res.status(204).end();
     else res.json({ retired: true, model: out.model, usedBy: out.usedBy });
   });
 
   r.post("/:id/retire", editors, async (req, res) => {
-    res.json({ model: await service.retireModel(deps, currentUser(res), parseParams(idParamSchema, req).id) });
+    res.json({ model: await service.retireModel(deps, usage, currentUser(res), parseParams(idParamSchema, req).id) });
   });
 
   r.post("/:id/restore", editors, async (req, res) => {

@@ -1,9 +1,9 @@
 import type { AppDeps } from "../../deps";
 import type { Executor } from "../../db/client";
-import { Conflict, Invalid, NotFound } from "../../http/errors";
-import { parseOr400 } from "../../http/validate";
-import { findHostile, MAX_JSON_DEPTH } from "../../http/hostile";
-import { recordAudit } from "../audit/audit.repo";
+import { Conflict, Invalid, NotFound } from "../../platform/errors";
+import { parseOr400 } from "../../platform/validate";
+import { findHostile, MAX_JSON_DEPTH } from "../../platform/hostile";
+import { recordAudit } from "../../platform/audit";
 import {
   modelProfileInputSchema, rotaryDimOf,
   type ImportWarning, type ModelProfile, type ModelProfileInput, type ModelProfileValues, type SessionUser,
@@ -115,10 +115,12 @@ async function mustLock(tx: Executor, id: number) {
 }
 
 /** Deletes a profile no plan uses; one that plans use is retired instead (hidden from pickers, the plans keep working). */
-export async function deleteModel(deps: AppDeps, actor: SessionUser, id: number) {
+export type { ModelUsage } from "./models.repo";
+
+export async function deleteModel(deps: AppDeps, usage: repo.ModelUsage, actor: SessionUser, id: number) {
   return deps.db.transaction(async (tx) => {
     const row = await mustLock(tx, id);
-    const usedBy = await repo.modelUsage(tx, id);
+    const usedBy = await usage(tx, id);
     if (usedBy.length) {
       const model = row.retiredAt ? toModelProfile(row) : await setRetired(tx, actor, id, true, usedBy);
       return { deleted: false as const, model, usedBy };
@@ -129,11 +131,11 @@ export async function deleteModel(deps: AppDeps, actor: SessionUser, id: number)
   });
 }
 
-export async function retireModel(deps: AppDeps, actor: SessionUser, id: number) {
+export async function retireModel(deps: AppDeps, usage: repo.ModelUsage, actor: SessionUser, id: number) {
   return deps.db.transaction(async (tx) => {
     const row = await mustLock(tx, id);
     if (row.retiredAt) throw new Conflict(`${row.name} is already retired`, { id: "already retired" });
-    return setRetired(tx, actor, id, true, await repo.modelUsage(tx, id));
+    return setRetired(tx, actor, id, true, await usage(tx, id));
   });
 }
 

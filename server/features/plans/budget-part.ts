@@ -1,8 +1,8 @@
 import type { Executor } from "../../db/client";
-import { budgetModelOf, resolveAndEstimate } from "../budgets/budgets.service";
-import { Conflict, HttpError, Invalid } from "../../http/errors";
-import { findAccelerator } from "../budgets/accelerators.service";
-import { parseOr400 } from "../../http/validate";
+import { budgetModelOf, resolveAndEstimate } from "../budgets";
+import { Conflict, Invalid } from "../../platform/errors";
+import { findAccelerator } from "../budgets";
+import { parseOr400 } from "../../platform/validate";
 import { budgetEstimateRequestSchema } from "../../../shared/schemas/budget";
 import type { RevisionValues } from "../../../shared/schemas";
 import type { ModelSnapshot } from "./revision-content";
@@ -30,7 +30,7 @@ export async function budgetPart(ex: Executor, model: ModelSnapshot, v: Revision
     out = await resolveAndEstimate(ex, parseOr400(budgetEstimateRequestSchema, request, "budget"));
   } catch (e) {
     // Name the plan's fields: budget.cluster.acceleratorId, budget.sequenceSharding, stages.N.…
-    if (e instanceof HttpError && e.status === 400) {
+    if (e instanceof Invalid) {
       const fields = Object.fromEntries(Object.entries(e.fields ?? {}).map(([k, m]) => [k.startsWith("stages.") ? k : `budget.${k}`, m]));
       throw new Invalid(`the budget sheet is not valid: ${Object.keys(fields).join(", ")}`, fields);
     }

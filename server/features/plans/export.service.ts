@@ -1,6 +1,6 @@
 import type { AppDeps } from "../../deps";
-import { Conflict } from "../../http/errors";
-import { recordAudit } from "../audit/audit.repo";
+import { Conflict } from "../../platform/errors";
+import { recordAudit } from "../../platform/audit";
 import type { SessionUser } from "../../../shared/schemas";
 import * as repo from "./plans.repo";
 import { getPlan, mustPlan, mustRevision } from "./plans.service";

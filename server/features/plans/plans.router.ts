@@ -11,8 +11,6 @@ import * as workflow from "./workflow.service";
 import { exportRevision, revisionReport, verifyRevision } from "./export.service";
 import { diffContents } from "./diff";
 import { planOwners, reviewQueue } from "./plans.list";
-import { minRequiredApprovals } from "./plans.repo";
-import "./plans.usage";
 
 const planParams = z.object({ id: dbIdParam });
 const revParams = planParams.extend({ n: dbIdParam });
@@ -33,7 +31,7 @@ export function plansRouter(deps: AppDeps) {
   });
 
   r.get("/settings", async (_req, res) => {
-    res.json({ minRequiredApprovals: await minRequiredApprovals(deps.db) });
+    res.json({ minRequiredApprovals: await plans.minRequiredApprovals(deps) });
   });
   r.put("/settings", requireRole("admin"), async (req, res) => {
     const { minRequiredApprovals: min } = parseBody(planSettingsSchema, req);

@@ -1,8 +1,8 @@
 import type { AppDeps } from "../../deps";
 import type { Executor } from "../../db/client";
-import { Conflict, Forbidden, Invalid, NotFound } from "../../http/errors";
-import { recordAudit } from "../audit/audit.repo";
-import { findModelRow } from "../models/models.repo";
+import { Conflict, Forbidden, Invalid, NotFound } from "../../platform/errors";
+import { recordAudit } from "../../platform/audit";
+import { findModelRow } from "../models";
 import {
   revisionInputSchema,
   type CreatePlanRequest, type RevisionValues, type SessionUser, type planListQuerySchema,
@@ -174,3 +174,6 @@ export async function getRevision(deps: AppDeps, planId: number, n: number) {
     authorId: r.authorId, content: r.content as RevisionContent,
   };
 }
+
+/** The organisation-wide floor on approvals per plan (routers read it here, not from the repo). */
+export const minRequiredApprovals = (deps: AppDeps) => repo.minRequiredApprovals(deps.db);

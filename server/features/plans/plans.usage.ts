@@ -1,6 +1,7 @@
 import { eq } from "drizzle-orm";
+import type { Executor } from "../../db/client";
 import { plans } from "../../db/schema";
-import { registerModelUsage } from "../models/models.repo";
 
-// A profile that plans use cannot be deleted; the models feature asks this query.
-registerModelUsage((ex, modelId) => ex.select({ id: plans.id, title: plans.title }).from(plans).where(eq(plans.modelId, modelId)));
+/** The plans that use a model profile; server/app.ts hands this to the models feature, which refuses to delete such a profile. */
+export const plansUsingModel = (ex: Executor, modelId: number) =>
+  ex.select({ id: plans.id, title: plans.title }).from(plans).where(eq(plans.modelId, modelId));

@@ -1,12 +1,12 @@
 import crypto from "node:crypto";
 import canonicalize from "canonicalize";
 import { analyse, ENGINE_VERSION } from "../../engine";
-import { Invalid } from "../../http/errors";
+import { Invalid } from "../../platform/errors";
 import {
   modelDependentIssues,
   type MethodParams, type ModelShape, type RevisionValues, type StageResult, type Bands,
 } from "../../../shared/schemas";
-import type { ModelRow } from "../models/models.repo";
+import type { ModelRow } from "../models";
 import type { ModelSnapshot } from "../../../shared/schemas/plan-responses";
 import type { BudgetPart } from "./budget-part";
 

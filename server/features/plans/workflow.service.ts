@@ -1,7 +1,7 @@
 import type { AppDeps } from "../../deps";
-import { Conflict, Forbidden, HttpError } from "../../http/errors";
-import { hasRole } from "../../http/auth";
-import { recordAudit } from "../audit/audit.repo";
+import { Conflict, Forbidden, HttpError } from "../../platform/errors";
+import { hasRole } from "../../platform/roles";
+import { recordAudit } from "../../platform/audit";
 import type { SessionUser } from "../../../shared/schemas";
 import * as repo from "./plans.repo";
 import { effectiveApprovals, makeContent, mustPlan, mustRevision, revisionValues } from "./plans.service";

@@ -1,11 +1,11 @@
 import bcrypt from "bcryptjs";
 import type { AppDeps } from "../../deps";
-import { Conflict, Invalid, NotFound } from "../../http/errors";
-import { recordAudit } from "../audit/audit.repo";
+import { Conflict, Invalid, NotFound } from "../../platform/errors";
+import { recordAudit } from "../../platform/audit";
 import * as repo from "./users.repo";
 import type { CreateUserRequest, Role, SessionUser, UpdateUserRequest, User } from "../../../shared/schemas";
 import { isUniqueViolation } from "../../db/errors";
-import { revokeAllTokensOfUser } from "../tokens/tokens.service";
+import { revokeAllTokensOfUser } from "../tokens";
 
 export function toUser(row: repo.UserRow): User {
   return {
@@ -18,12 +18,7 @@ export function toUser(row: repo.UserRow): User {
   };
 }
 
-export const toSessionUser = (row: repo.UserRow): SessionUser => ({
-  id: row.id,
-  email: row.email,
-  name: row.name,
-  roles: row.roles as Role[],
-});
+export { toSessionUser } from "../../platform/identity";
 
 
 export async function listUsers(deps: AppDeps) {

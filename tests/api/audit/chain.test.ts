@@ -1,7 +1,7 @@
 import { createHash } from "node:crypto";
 import { describe, expect, it } from "vitest";
-import { verifyAuditChain } from "../../../server/features/audit/audit-chain";
-import { recordAudit } from "../../../server/features/audit/audit.repo";
+import { verifyAuditChain } from "../../../server/platform/audit-chain";
+import { recordAudit } from "../../../server/platform/audit";
 import { makeTestApp } from "../../setup/app";
 import { testDb } from "../../setup/db";
 

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { analysisRequestSchema, rotaryDimension } from "../../../shared/schemas/analysis";
 import { baseBoundRequestSchema } from "../../../shared/schemas/bounds";
-import { issuesToFields } from "../../../server/http/validate";
+import { issuesToFields } from "../../../server/platform/validate";
 
 const fieldsOf = (schema: { safeParse: (v: unknown) => { success: boolean; error?: unknown } }, value: unknown) => {
   const r = schema.safeParse(value);

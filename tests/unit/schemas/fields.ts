@@ -1,5 +1,5 @@
 import type { z } from "zod";
-import { issuesToFields } from "../../../server/http/validate";
+import { issuesToFields } from "../../../server/platform/validate";
 
 /**
  * The field names a route's 400 would carry for this body: the same schema, the same issue-to-field mapping

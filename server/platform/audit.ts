@@ -1,7 +1,7 @@
 import { sql } from "drizzle-orm";
 import { PgTransaction } from "drizzle-orm/pg-core";
-import { auditEvents } from "../../db/schema";
-import type { Executor, Tx } from "../../db/client";
+import { auditEvents } from "../db/schema";
+import type { Executor, Tx } from "../db/client";
 import { AT_TEXT, auditRowHash, CHAIN_LOCK_SQL, GENESIS_HASH } from "./audit-chain";
 
 export interface AuditEntry {

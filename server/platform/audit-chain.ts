@@ -1,8 +1,8 @@
 import { createHash } from "node:crypto";
 import canonicalize from "canonicalize";
 import { sql } from "drizzle-orm";
-import type { Executor } from "../../db/client";
-import type { AuditChainReport } from "../../../shared/schemas/audit";
+import type { Executor } from "../db/client";
+import type { AuditChainReport } from "../../shared/schemas/audit";
 
 /** prev_hash of the first row: there is no predecessor. */
 export const GENESIS_HASH = "0".repeat(64);

@@ -1,4 +1,7 @@
-/** Typed errors thrown by services; the error middleware maps them to { error: { code, message, fields? } }. */
+/**
+ * Typed application errors thrown by services and repos. They live in the platform layer, not in server/http, so
+ * a service never depends on the web layer; server/http/error-middleware.ts maps them to { error: { code, message, fields? } }.
+ */
 export class HttpError extends Error {
   constructor(
     readonly status: number,

@@ -1,0 +1,3 @@
+// Public face of the plans feature: other features and server/app.ts import only from here.
+export { plansUsingModel } from "./plans.usage";
+export { plansRouter } from "./plans.router";
