@@ -23,11 +23,11 @@ const CASES: [from: string, source: string, refused: boolean][] = [
   ["server/engine/x.ts", "express", true],
   ["server/engine/x.ts", "zod", false],
   ["server/engine/x.ts", "../../shared/schemas/common", false],
-  ["shared/schemas/x.ts", "../../server/http/errors", true],
+  ["shared/schemas/x.ts", "../../server/platform/errors", true],
   ["shared/schemas/x.ts", "../../client/src/lib/format", true],
   ["shared/schemas/x.ts", "./common", false],
   ["server/features/users/x.ts", "../../../client/src/lib/format", true],
-  ["server/features/users/x.ts", "../../http/errors", false],
+  ["server/features/users/x.ts", "../../platform/errors", false],
 ];
 
 describe("import boundaries (eslint-plugin-boundaries via eslint.config.js)", () => {
