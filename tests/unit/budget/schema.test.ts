@@ -125,7 +125,8 @@ describe("accelerator catalog", () => {
   const h = { name: "Round accelerator", memoryBytes: 80e9, peakFlops: 1e15, pricePerHour: 2, notes: "stated round figures" };
 
   it("accepts a record and an input; update is partial", () => {
-    expect(acceleratorSchema.safeParse({ id: 1, ...h }).success).toBe(true);
+    expect(acceleratorSchema.safeParse({ id: 1, ...h, retiredAt: null }).success).toBe(true);
+    expect(acceleratorSchema.safeParse({ id: 1, ...h, retiredAt: "2026-12-01T10:00:00.000Z" }).success).toBe(true);
     expect(acceleratorInputSchema.safeParse(h).success).toBe(true);
     expect(acceleratorUpdateSchema.safeParse({ pricePerHour: 3 }).success).toBe(true);
   });
