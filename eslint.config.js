@@ -12,13 +12,18 @@ const ELEMENTS = [
   { type: "client-feature", pattern: "client/src/features/*", capture: ["feature"] },
   { type: "client-shared", pattern: ["client/src/components", "client/src/lib", "client/src/config"] },
   { type: "server-engine", pattern: "server/engine" },
+  // A feature's public face (index.ts) is its own element, so other features can be let in there and nowhere else.
+  { type: "server-feature-face", pattern: "server/features/*/index.ts", mode: "file", capture: ["feature"] },
   { type: "server-feature", pattern: "server/features/*", capture: ["feature"] },
+  { type: "server-http", pattern: "server/http" },
+  { type: "server-platform", pattern: "server/platform" },
   { type: "server", pattern: "server" },
   { type: "shared", pattern: "shared" },
 ];
 
 const to = (...types) => ({ to: { element: { types: { anyOf: types } } } });
 const client = ["client-app", "client-feature", "client-shared"];
+const server = ["server", "server-engine", "server-feature", "server-feature-face", "server-http", "server-platform"];
 
 const POLICIES = [
   // Client: shared UI and lib → features → app routes, never back. Imports inside one feature folder
@@ -29,9 +34,16 @@ const POLICIES = [
   { from: { element: { type: "server-engine" } }, disallow: [{ to: { module: { origin: "*" } } }], message: "server/engine imports only server/engine, shared/ and zod" },
   { from: { element: { type: "server-engine" } }, allow: [to("server-engine", "shared"), { to: { module: { origin: "external", source: "zod" } } }] },
   // Contracts are shared by both sides, so they may depend on neither.
-  { from: { element: { type: "shared" } }, disallow: [to("server", "server-engine", "server-feature", ...client)], message: "shared/ may not import server or client code" },
-  // Server code never pulls in browser code.
-  { from: { element: { types: { anyOf: ["server", "server-feature"] } } }, disallow: [to(...client)], message: "server code may not import client code" },
+  { from: { element: { type: "shared" } }, disallow: [to(...server, ...client)], message: "shared/ may not import server or client code" },
+  // Server code never pulls in browser code, and the browser bundle never pulls in server code.
+  { from: { element: { types: { anyOf: server } } }, disallow: [to(...client)], message: "server code may not import client code" },
+  { from: { element: { types: { anyOf: client } } }, disallow: [to(...server)], message: "client code may not import server code; share contracts through shared/" },
+  // Files inside one feature folder are internal to its element, so any server-feature → server-feature import crosses
+  // features: it must go through the other feature's index.ts.
+  { from: { element: { types: { anyOf: ["server-feature", "server-feature-face"] } } }, disallow: [{ to: { element: { type: "server-feature", captured: { feature: "!{{ from.captured.feature }}" } } } }], message: "import another server feature only through its index.ts" },
+  // The web layer (middleware) and the platform layer (audit, errors, identity) sit below every feature.
+  { from: { element: { type: "server-http" } }, disallow: [to("server-feature", "server-feature-face")], message: "server/http may not import features; put shared pieces in server/platform" },
+  { from: { element: { type: "server-platform" } }, disallow: [to("server-feature", "server-feature-face", "server-http")], message: "server/platform may not import features or server/http" },
 ];
 
 export default defineConfig(
@@ -81,5 +93,16 @@ export default defineConfig(
       // Externals and unknown local files are checked too, so the engine cannot reach for node:fs or scripts/.
       "boundaries/dependencies": ["error", { default: "allow", checkAllOrigins: true, checkUnknownLocals: true, policies: POLICIES }],
     },
+  },
+  // Routers parse, authorise and answer; data access goes through the feature's service.
+  {
+    files: ["server/features/*/*.router.ts"],
+    rules: { "no-restricted-imports": ["error", { patterns: [{ group: ["**/*.repo", "**/db/schema", "**/db/schema/*"], message: "a router reads data through its feature's service, not a repo or the schema" }] }] },
+  },
+  // Services and repos stay web-agnostic: they throw server/platform errors and never import express middleware.
+  {
+    files: ["server/features/**/*.ts"],
+    ignores: ["server/features/*/*.router.ts", "server/features/*/index.ts"],
+    rules: { "no-restricted-imports": ["error", { patterns: [{ group: ["**/http/*"], message: "only routers import server/http; throw server/platform/errors instead" }] }] },
   },
 );

@@ -28,13 +28,27 @@ const CASES: [from: string, source: string, refused: boolean][] = [
   ["shared/schemas/x.ts", "./common", false],
   ["server/features/users/x.ts", "../../../client/src/lib/format", true],
   ["server/features/users/x.ts", "../../platform/errors", false],
+  // One probe per server wall (issue 9): client→server, feature→another feature's insides, http→feature,
+  // platform→feature, router→repo, service→http; and the allowed faces.
+  ["client/src/lib/x.ts", "../../../server/platform/errors", true],
+  ["server/features/plans/x.ts", "../models/models.repo", true],
+  ["server/features/plans/x.ts", "../models", false],
+  ["server/features/plans/x.ts", "./plans.repo", false],
+  ["server/http/x.ts", "../features/users/users.repo", true],
+  ["server/http/x.ts", "../platform/identity", false],
+  ["server/platform/x.ts", "../features/users", true],
+  ["server/platform/x.ts", "../http/auth", true],
+  ["server/features/plans/x.router.ts", "./plans.repo", true],
+  ["server/features/plans/x.router.ts", "./plans.service", false],
+  ["server/features/plans/x.service.ts", "../../http/auth", true],
 ];
+const WALL_RULES = new Set(["boundaries/dependencies", "no-restricted-imports"]);
 
 describe("import boundaries (eslint-plugin-boundaries via eslint.config.js)", () => {
   const eslint = new ESLint();
   it.each(CASES)("%s importing %s: refused=%s", async (from, source, refused) => {
     const [result] = await eslint.lintText(`import * as m from "${source}";\nexport const x = m;\n`, { filePath: from });
-    const hits = result.messages.filter((m) => m.ruleId === "boundaries/dependencies");
+    const hits = result.messages.filter((m) => WALL_RULES.has(m.ruleId ?? ""));
     expect(hits.length > 0).toBe(refused);
   });
 });
