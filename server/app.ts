@@ -8,23 +8,12 @@ import { NotFound } from "./platform/errors";
 import { errorMiddleware } from "./http/error-middleware";
 import { csrfProtection } from "./http/csrf";
 import { loadUser, sessionMiddleware } from "./http/session";
-import { authRouter } from "./features/auth/auth.router";
-import { usersRouter } from "./features/users/users.router";
-import { healthRouter } from "./features/health/health.router";
-import { modelsRouter } from "./features/models";
-import { plansRouter, plansUsingModel } from "./features/plans";
-import { tokensRouter } from "./features/tokens/tokens.router";
-import { auditRouter } from "./features/audit/audit.router";
-import { mailRouter } from "./features/mail/mail.router";
-import { analysesRouter } from "./features/analyses/analyses.router";
-import { boundsRouter } from "./features/bounds/bounds.router";
-import { openApiDocument } from "./openapi";
-import { acceleratorsRouter, budgetsRouter } from "./features/budgets/budgets.router";
+import { OPEN_FEATURES, SESSION_FEATURES } from "./api-features";
+import { mountFeature } from "./http/route";
 import { bearerAuth, unlessBearer } from "./http/bearer";
 import { rejectHostileInput } from "./http/hostile";
 import { requestLog } from "./http/request-log";
 import { createLogger } from "./logger";
-import { signingKeyRouter } from "./features/plans/signing-key.router";
 
 export const JSON_LIMIT = "512kb";
 
@@ -45,9 +34,7 @@ export function createApp(deps: AppDeps) {
   );
 
   const api = express.Router();
-  api.use("/health", healthRouter(deps));
-  api.get("/openapi.json", (_req, res) => res.json(openApiDocument()));
-  api.use("/signing-key", signingKeyRouter(deps));
+  for (const f of OPEN_FEATURES) api.use(f.prefix || "/", mountFeature(f, deps));
   api.use(bearerAuth(deps));
   api.use(unlessBearer(cookieParser(deps.config.sessionSecret)));
   api.use(unlessBearer(sessionMiddleware(deps)));
@@ -55,17 +42,7 @@ export function createApp(deps: AppDeps) {
   api.use(csrfProtection(deps.config.publicUrl));
   api.use(express.json({ limit: JSON_LIMIT }));
   api.use(rejectHostileInput);
-  api.use("/auth", authRouter(deps));
-  api.use("/users", usersRouter(deps));
-  api.use("/models", modelsRouter(deps, plansUsingModel));
-  api.use("/analyses", analysesRouter(deps));
-  api.use("/bounds", boundsRouter(deps));
-  api.use("/plans", plansRouter(deps));
-  api.use("/tokens", tokensRouter(deps));
-  api.use("/audit", auditRouter(deps));
-  api.use("/mail", mailRouter(deps));
-  api.use("/budgets", budgetsRouter(deps));
-  api.use("/accelerators", acceleratorsRouter(deps));
+  for (const f of SESSION_FEATURES) api.use(f.prefix, mountFeature(f, deps));
   api.use((_req, _res, next) => next(new NotFound("no such API route")));
   app.use("/api", api);
 

@@ -41,4 +41,5 @@ export const outboxRowSchema = z.object({
 export type OutboxRow = z.infer<typeof outboxRowSchema>;
 
 export const mailViewSchema = z.object({ messages: z.array(sinkMessageSchema), outbox: z.array(outboxRowSchema) });
+export type MailView = z.infer<typeof mailViewSchema>;
 export const deliveryResultSchema = z.object({ sent: z.number(), failed: z.number() });

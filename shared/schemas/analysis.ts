@@ -24,7 +24,8 @@ export const MAX_METHODS = 12;
 /** Pairs × methods up to which an analysis is computed in the request itself (a few milliseconds). */
 export const ANALYSIS_INLINE_WORK = 512;
 
-export const modelShapeSchema = z.strictObject({
+/** The shape the rotary engine reads (analyses): head size, base and trained window; the rest optional. Not the budget's budgetModelShapeSchema. */
+export const rotaryShapeSchema = z.strictObject({
   headDim: z.number().int().positive().max(MAX_HEAD_DIM, `at most ${MAX_HEAD_DIM}`),
   ropeTheta: z.number().gt(1, "the base must exceed 1").max(1e15),
   trainedContext: lengthSchema,
@@ -34,7 +35,7 @@ export const modelShapeSchema = z.strictObject({
   kvHeads: z.number().int().positive().max(10_000).optional(),
   hiddenSize: z.number().int().positive().max(1_000_000).optional(),
 });
-export type ModelShape = z.infer<typeof modelShapeSchema>;
+export type ModelShape = z.infer<typeof rotaryShapeSchema>;
 export const modelRefSchema = z.strictObject({ modelId: dbIdSchema });
 
 /** Rotary dimension d = headDim × partialRotaryFactor; null unless it is a positive even integer. */
@@ -89,7 +90,7 @@ const requestFields = {
 };
 
 /** The request the engine runs: model already resolved. */
-export const resolvedAnalysisRequestSchema = z.object({ model: modelShapeSchema, ...requestFields })
+export const resolvedAnalysisRequestSchema = z.object({ model: rotaryShapeSchema, ...requestFields })
   .superRefine((r, ctx) => modelDependentIssues(r.model, r.targetContext, r.methods).forEach((i) => ctx.addIssue({ code: "custom", ...i })));
 export type ResolvedAnalysisRequest = z.infer<typeof resolvedAnalysisRequestSchema>;
 
@@ -101,7 +102,7 @@ export type ModelRef = z.infer<typeof modelRefSchema>;
  */
 export const modelInputSchema = z.unknown().transform((value, ctx): ModelRef | ModelShape => {
   const byId = typeof value === "object" && value !== null && "modelId" in value;
-  const parsed = (byId ? modelRefSchema : modelShapeSchema).safeParse(value);
+  const parsed = (byId ? modelRefSchema : rotaryShapeSchema).safeParse(value);
   if (parsed.success) return parsed.data;
   for (const issue of parsed.error.issues) ctx.addIssue({ code: "custom", path: issue.path, message: issue.message });
   return z.NEVER;
@@ -209,7 +210,7 @@ export type MethodResult = z.infer<typeof methodResultSchema>;
 
 export const analysisResponseSchema = z.object({
   engineVersion: z.string(),
-  model: modelShapeSchema.extend({ rotaryDim: z.number().int(), pairs: z.number().int(), partialRotaryFactor: num }),
+  model: rotaryShapeSchema.extend({ rotaryDim: z.number().int(), pairs: z.number().int(), partialRotaryFactor: num }),
   targetContext: z.number().int(),
   scale: num,
   bands: z.object({ alpha: num, beta: num }),

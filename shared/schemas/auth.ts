@@ -20,6 +20,9 @@ export const sessionResponseSchema = z.object({
   csrfToken: z.string(),
 });
 export type SessionResponse = z.infer<typeof sessionResponseSchema>;
+/** POST /api/auth/login: the signed-in user and the session's CSRF token. */
+export const loginResponseSchema = z.object({ user: sessionUserSchema, csrfToken: z.string() });
+export type LoginResponse = z.infer<typeof loginResponseSchema>;
 
 export const PASSWORD_MIN = 10;
 export const changePasswordRequestSchema = z.object({

@@ -74,8 +74,8 @@ function checkKvGroups(model: HeadCounts, ctx: z.RefinementCtx) {
 }
 
 /** A model's shape on its own (strict: a misspelled field is an error, not silently dropped). */
-export const modelShapeSchema = z.strictObject(modelShapeFields).superRefine(checkKvGroups);
-export type ModelShapeInput = z.output<typeof modelShapeSchema>;
+export const budgetModelShapeSchema = z.strictObject(modelShapeFields).superRefine(checkKvGroups);
+export type BudgetModelShape = z.output<typeof budgetModelShapeSchema>;
 
 /**
  * `{ ...ref }` or the shape's fields, never both; the shape's `required` fields must all be there
@@ -100,7 +100,7 @@ function refOrShape<R extends z.ZodRawShape, S extends z.ZodRawShape>(ref: R, sh
     });
 }
 
-export type ModelRequest = { modelId: number } | ModelShapeInput;
+export type ModelRequest = { modelId: number } | BudgetModelShape;
 export const budgetModelSchema = refOrShape({ modelId: id }, modelShapeFields, REQUIRED_MODEL_FIELDS)
   .superRefine(checkKvGroups)
   .transform((model) => model as ModelRequest);

@@ -23,3 +23,6 @@ export const dbIdSchema = z.number().int().positive().max(MAX_DB_ID, `ids are at
 /** The same id as it arrives in a path or query string. */
 export const dbIdParam = z.coerce.number().int().positive().max(MAX_DB_ID, `ids are at most ${MAX_DB_ID}`);
 export const idParamSchema = z.object({ id: dbIdParam });
+
+/** GET /api/health: 200 when PostgreSQL answers, 503 (same shape) when it does not. */
+export const healthResponseSchema = z.object({ ok: z.boolean(), db: z.enum(["up", "down"]) });

@@ -13,6 +13,8 @@ export const userSchema = z.object({
 export type User = z.infer<typeof userSchema>;
 
 export const usersListResponseSchema = z.object({ users: z.array(userSchema) });
+/** POST /api/users and PATCH /api/users/:id: the user as stored. */
+export const userResponseSchema = z.object({ user: userSchema });
 
 const rolesField = z.array(roleSchema).min(1, "pick at least one role").max(5)
   .refine((r) => new Set(r).size === r.length, "roles must not repeat");

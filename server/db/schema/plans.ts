@@ -1,7 +1,11 @@
 import { sql } from "drizzle-orm";
-import { index, integer, jsonb, pgTable, serial, text, timestamp, uniqueIndex } from "drizzle-orm/pg-core";
+import { check, index, integer, jsonb, pgTable, serial, text, timestamp, uniqueIndex } from "drizzle-orm/pg-core";
+import { DECISIONS, REVISION_STATES, type RevisionState } from "../../../shared/schemas/plans";
 import { users } from "./users";
 import { modelProfiles } from "./models";
+
+/** A constant SQL list of quoted literals from a shared tuple (values are our own constants, never input). */
+const inList = (values: readonly string[]) => sql.raw(values.map((v) => `'${v}'`).join(", "));
 
 /** Lab-wide settings (one row per key). */
 export const settings = pgTable("settings", {
@@ -29,7 +33,7 @@ export const planRevisions = pgTable(
     id: serial("id").primaryKey(),
     planId: integer("plan_id").notNull().references(() => plans.id, { onDelete: "cascade" }),
     number: integer("number").notNull(),
-    state: text("state").notNull().default("draft"),
+    state: text("state").$type<RevisionState>().notNull().default("draft"),
     version: integer("version").notNull().default(1),
     round: integer("round").notNull().default(0),
     authorId: integer("author_id").notNull().references(() => users.id),
@@ -41,7 +45,12 @@ export const planRevisions = pgTable(
     submittedAt: timestamp("submitted_at", { withTimezone: true }),
     decidedAt: timestamp("decided_at", { withTimezone: true }),
   },
-  (t) => [uniqueIndex("plan_revisions_plan_number").on(t.planId, t.number), index("plan_revisions_state").on(t.state)],
+  (t) => [
+    uniqueIndex("plan_revisions_plan_number").on(t.planId, t.number),
+    index("plan_revisions_state").on(t.state),
+    // The column stays text (no type change under live triggers); the CHECK keeps it to the shared list.
+    check("plan_revisions_state_known", sql`${t.state} IN (${inList(REVISION_STATES)})`),
+  ],
 );
 
 /** One decision per approver per submission round of a revision. */
@@ -52,7 +61,7 @@ export const planDecisions = pgTable(
     revisionId: integer("revision_id").notNull().references(() => planRevisions.id, { onDelete: "cascade" }),
     round: integer("round").notNull(),
     approverId: integer("approver_id").notNull().references(() => users.id),
-    decision: text("decision").notNull(),
+    decision: text("decision").$type<(typeof DECISIONS)[number]>().notNull(),
     comment: text("comment").notNull().default(""),
     signedHash: text("signed_hash").notNull(),
     at: timestamp("at", { withTimezone: true }).notNull().defaultNow(),
@@ -61,7 +70,10 @@ export const planDecisions = pgTable(
     /** SHA-256 of the signing public key (DER SubjectPublicKeyInfo), hex. */
     keyId: text("key_id"),
   },
-  (t) => [uniqueIndex("plan_decisions_once").on(t.revisionId, t.round, t.approverId)],
+  (t) => [
+    uniqueIndex("plan_decisions_once").on(t.revisionId, t.round, t.approverId),
+    check("plan_decisions_decision_known", sql`${t.decision} IN (${inList(DECISIONS)})`),
+  ],
 );
 
 /** Personal API tokens; only the SHA-256 of the secret is stored. Scopes are checked against shared/schemas/tokens.ts. */

@@ -12,13 +12,13 @@ import type {
   BudgetEstimateResponse,
   clusterSpecSchema,
   FLOP_CONVENTIONS,
-  ModelShapeInput,
+  BudgetModelShape,
   ParsedBudgetEstimateRequest,
   StageRequest,
 } from "../../../shared/schemas/budget";
 
 export type FlopConvention = (typeof FLOP_CONVENTIONS)[number];
-export type ModelShape = ModelShapeInput;
+export type ModelShape = BudgetModelShape;
 export type ClusterSpec = z.output<typeof clusterSpecSchema>;
 export type StageInput = StageRequest;
 

@@ -1,28 +1,31 @@
-import { Router } from "express";
-import type { AppDeps } from "../../deps";
-import { currentUser, requireAuth } from "../../http/auth";
-import { parseBody } from "../../http/validate";
-import { analysisRequestSchema } from "../../../shared/schemas/analysis";
+import { route, CLIENT_GONE, type ApiFeature } from "../../http/route";
+import { analysisRequestSchema, analysisResponseSchema } from "../../../shared/schemas/analysis";
 import { getModelShape } from "../models";
 import { analyseRequest } from "./analyses.service";
 import { AnalysisCancelled } from "./analyses.pool";
 
 /** Mounted at /api/analyses. POST / is a stateless compute; nothing is stored. */
-export function analysesRouter(deps: AppDeps) {
-  const r = Router();
-  r.post("/", requireAuth, async (req, res) => {
-    const input = parseBody(analysisRequestSchema, req);
-    const abort = new AbortController();
-    // The connection closing before we answered means nobody waits: drop a large analysis still in the pool.
-    res.on("close", () => {
-      if (!res.writableEnded) abort.abort();
-    });
-    try {
-      res.json(await analyseRequest(input, (id) => getModelShape(deps, id), { userId: currentUser(res).id, signal: abort.signal }));
-    } catch (e) {
-      if (e instanceof AnalysisCancelled) return;
-      throw e;
-    }
-  });
-  return r;
-}
+export const analysesFeature: ApiFeature = {
+  prefix: "/analyses",
+  tag: "engine",
+  routes: [
+    route({
+      method: "post", path: "/", summary: "Compare scaling methods pair by pair (stateless)", access: "signed-in",
+      body: analysisRequestSchema,
+      responses: { 200: analysisResponseSchema },
+      handler: async ({ deps, res, user, body }) => {
+        const abort = new AbortController();
+        // The connection closing before we answered means nobody waits: drop a large analysis still in the pool.
+        res.on("close", () => {
+          if (!res.writableEnded) abort.abort();
+        });
+        try {
+          return { status: 200, body: await analyseRequest(body, (id) => getModelShape(deps, id), { userId: user.id, signal: abort.signal }) };
+        } catch (e) {
+          if (e instanceof AnalysisCancelled) return CLIENT_GONE;
+          throw e;
+        }
+      },
+    }),
+  ],
+};

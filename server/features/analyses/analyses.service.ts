@@ -3,20 +3,20 @@ import { Invalid } from "../../platform/errors";
 import { analyseOffThread } from "./analyses.pool";
 import { takeHeavySlot } from "./analyses.limits";
 import {
-  ANALYSIS_INLINE_WORK, modelDependentIssues, modelShapeSchema, rotaryDimension,
+  ANALYSIS_INLINE_WORK, modelDependentIssues, rotaryShapeSchema, rotaryDimension,
   type AnalysisRequest, type AnalysisResponse, type ModelShape,
 } from "../../../shared/schemas/analysis";
 
 /** Looks a stored model profile up by id; throws NotFound when there is none. */
 export type ResolveModel = (modelId: number) => Promise<Partial<Record<keyof ModelShape, unknown>>>;
 
-const SHAPE_KEYS = Object.keys(modelShapeSchema.shape) as (keyof ModelShape)[];
+const SHAPE_KEYS = Object.keys(rotaryShapeSchema.shape) as (keyof ModelShape)[];
 
 /** Keeps the engine's fields of a stored profile, dropping nulls (absent optional values). */
 function toModelShape(stored: Partial<Record<keyof ModelShape, unknown>>): ModelShape {
   const picked: Record<string, unknown> = {};
   for (const key of SHAPE_KEYS) if (stored[key] !== null && stored[key] !== undefined) picked[key] = stored[key];
-  const parsed = modelShapeSchema.safeParse(picked);
+  const parsed = rotaryShapeSchema.safeParse(picked);
   if (!parsed.success) {
     const fields = Object.fromEntries(parsed.error.issues.map((i) => [["model", ...i.path].join("."), i.message]));
     throw new Invalid("the stored model profile cannot be analysed", fields);

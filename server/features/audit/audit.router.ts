@@ -1,21 +1,23 @@
-import { Router } from "express";
-import type { AppDeps } from "../../deps";
-import { requireRole } from "../../http/auth";
-import { parseQuery } from "../../http/validate";
-import { listAuditEvents } from "./audit.service";
-import { auditQuerySchema } from "../../../shared/schemas";
-import { verifyAuditChain } from "../../platform/audit-chain";
+import { route, type ApiFeature } from "../../http/route";
+import { auditChainReportSchema, auditQuerySchema } from "../../../shared/schemas";
+import { auditPageSchema } from "../../../shared/schemas/admin-views";
+import { listAuditEvents, verifyTrail } from "./audit.service";
 
-/** Browse the append-only trail (admins and approvers), newest first, filtered. */
-export function auditRouter(deps: AppDeps) {
-  const r = Router();
-  r.get("/", requireRole("admin", "approver"), async (req, res) => {
-    res.json(await listAuditEvents(deps, parseQuery(auditQuerySchema, req)));
-  });
-  // Admins only: the answer says whether anyone with database rights rewrote the trail, and where.
-  // One snapshot for the whole walk, so rows appended meanwhile neither count nor confuse it.
-  r.get("/verify", requireRole("admin"), async (_req, res) => {
-    res.json(await deps.db.transaction((tx) => verifyAuditChain(tx), { isolationLevel: "repeatable read", accessMode: "read only" }));
-  });
-  return r;
-}
+/** Browse the append-only trail (admins and approvers); mounted at /api/audit. */
+export const auditFeature: ApiFeature = {
+  prefix: "/audit",
+  tag: "audit",
+  routes: [
+    route({
+      method: "get", path: "/", summary: "Audit trail (admin, approver)", access: ["admin", "approver"], query: auditQuerySchema,
+      responses: { 200: auditPageSchema },
+      handler: async ({ deps, query }) => ({ status: 200, body: await listAuditEvents(deps, query) }),
+    }),
+    // Admins only: the answer says whether anyone with database rights rewrote the trail, and where.
+    route({
+      method: "get", path: "/verify", summary: "Check the audit hash chain; names the first broken link (admin)", access: ["admin"],
+      responses: { 200: auditChainReportSchema },
+      handler: async ({ deps }) => ({ status: 200, body: await verifyTrail(deps) }),
+    }),
+  ],
+};

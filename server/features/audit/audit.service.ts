@@ -3,9 +3,11 @@ import type { z } from "zod";
 import type { AppDeps } from "../../deps";
 import { auditEvents, users } from "../../db/schema";
 import type { auditQuerySchema } from "../../../shared/schemas";
+import type { AuditPage } from "../../../shared/schemas/admin-views";
+import { verifyAuditChain } from "../../platform/audit-chain";
 
-/** One page of the append-only trail, newest first, filtered as the query asks. */
-export async function listAuditEvents(deps: AppDeps, q: z.infer<typeof auditQuerySchema>) {
+/** One page of the append-only trail, newest first, filtered; actors by name. */
+export async function listAuditEvents(deps: AppDeps, q: z.output<typeof auditQuerySchema>): Promise<AuditPage> {
   const where: SQL[] = [];
   if (q.action) where.push(like(auditEvents.action, `${q.action.replace(/[\\%_]/g, (c) => `\\${c}`)}%`));
   if (q.actorId) where.push(eq(auditEvents.actorId, q.actorId));
@@ -26,3 +28,7 @@ export async function listAuditEvents(deps: AppDeps, q: z.infer<typeof auditQuer
     })),
   };
 }
+
+/** One snapshot for the whole walk, so rows appended meanwhile neither count nor confuse it. */
+export const verifyTrail = (deps: AppDeps) =>
+  deps.db.transaction((tx) => verifyAuditChain(tx), { isolationLevel: "repeatable read", accessMode: "read only" });

@@ -1,50 +1,74 @@
-import { Router } from "express";
-import type { AppDeps } from "../../deps";
-import { currentUser, requireAuth, requireRole } from "../../http/auth";
-import { parseBody, parseParams } from "../../http/validate";
-import { BUDGET_RECIPES, RECIPE_CAUTION } from "../../engine/budget";
+import { route, type ApiFeature } from "../../http/route";
 import { idParamSchema } from "../../../shared/schemas";
-import { acceleratorInputSchema, acceleratorUpdateSchema, budgetEstimateRequestSchema } from "../../../shared/schemas/budget";
+import {
+  acceleratorInputSchema, acceleratorListResponseSchema, acceleratorResponseSchema, acceleratorRetiredResponseSchema, acceleratorUpdateSchema,
+  budgetEstimateRequestSchema, budgetEstimateResultSchema, budgetRecipesResponseSchema,
+} from "../../../shared/schemas/budget";
 import * as acc from "./accelerators.service";
-import { resolveAndEstimate } from "./budgets.service";
+import { listRecipes, resolveAndEstimate } from "./budgets.service";
 
-export function budgetsRouter(deps: AppDeps) {
-  const r = Router();
-  r.use(requireAuth);
-  r.post("/estimate", async (req, res) => {
-    res.json(await resolveAndEstimate(deps.db, parseBody(budgetEstimateRequestSchema, req)));
-  });
-  r.get("/recipes", (_req, res) => {
-    res.json({ recipes: BUDGET_RECIPES, caution: RECIPE_CAUTION });
-  });
-  return r;
-}
+/** Mounted at /api/budgets: stateless estimates and the published recipes. */
+export const budgetsFeature: ApiFeature = {
+  prefix: "/budgets",
+  tag: "budgets",
+  routes: [
+    route({
+      method: "post", path: "/estimate", summary: "Tokens, FLOPs, hours, cost and memory per stage", access: "signed-in",
+      body: budgetEstimateRequestSchema,
+      responses: { 200: budgetEstimateResultSchema },
+      handler: async ({ deps, body }) => ({ status: 200, body: await resolveAndEstimate(deps.db, body) }),
+    }),
+    route({
+      method: "get", path: "/recipes", summary: "Published starting points", access: "signed-in",
+      responses: { 200: budgetRecipesResponseSchema },
+      handler: () => ({ status: 200, body: listRecipes() }),
+    }),
+  ],
+};
 
-export function acceleratorsRouter(deps: AppDeps) {
-  const r = Router();
-  const keepers = requireRole("infra", "admin");
-  r.use(requireAuth);
-  r.get("/", async (_req, res) => {
-    res.json({ accelerators: await acc.listAccelerators(deps) });
-  });
-  r.post("/", keepers, async (req, res) => {
-    res.status(201).json({ accelerator: await acc.createAccelerator(deps, currentUser(res), parseBody(acceleratorInputSchema, req)) });
-  });
-  r.put("/:id", keepers, async (req, res) => {
-    const { id } = parseParams(idParamSchema, req);
-    res.json({ accelerator: await acc.updateAccelerator(deps, currentUser(res), id, parseBody(acceleratorUpdateSchema, req)) });
-  });
-  // 204 when deleted; 200 with the retired accelerator and the plans that use it when it was retired instead.
-  r.delete("/:id", keepers, async (req, res) => {
-    const out = await acc.deleteAccelerator(deps, currentUser(res), parseParams(idParamSchema, req).id);
-    if (out.deleted) res.status(204).end();
-    else res.json({ retired: true, accelerator: out.accelerator, usedBy: out.usedBy });
-  });
-  r.post("/:id/retire", keepers, async (req, res) => {
-    res.json({ accelerator: await acc.retireAccelerator(deps, currentUser(res), parseParams(idParamSchema, req).id) });
-  });
-  r.post("/:id/restore", keepers, async (req, res) => {
-    res.json({ accelerator: await acc.restoreAccelerator(deps, currentUser(res), parseParams(idParamSchema, req).id) });
-  });
-  return r;
-}
+const keepers = ["infra", "admin"] as const;
+
+/** Mounted at /api/accelerators: the catalog everyone reads and infra/admin keep. */
+export const acceleratorsFeature: ApiFeature = {
+  prefix: "/accelerators",
+  tag: "budgets",
+  routes: [
+    route({
+      method: "get", path: "/", summary: "Accelerator catalog", access: "signed-in",
+      responses: { 200: acceleratorListResponseSchema },
+      handler: async ({ deps }) => ({ status: 200, body: { accelerators: await acc.listAccelerators(deps) } }),
+    }),
+    route({
+      method: "post", path: "/", summary: "Add an accelerator type (infra, admin)", access: keepers, body: acceleratorInputSchema,
+      responses: { 201: acceleratorResponseSchema },
+      handler: async ({ deps, user, body }) => ({ status: 201, body: { accelerator: await acc.createAccelerator(deps, user, body) } }),
+    }),
+    route({
+      method: "put", path: "/:id", summary: "Change an accelerator type (infra, admin)", access: keepers,
+      params: idParamSchema, body: acceleratorUpdateSchema,
+      responses: { 200: acceleratorResponseSchema },
+      handler: async ({ deps, user, params, body }) => ({ status: 200, body: { accelerator: await acc.updateAccelerator(deps, user, params.id, body) } }),
+    }),
+    route({
+      method: "delete", path: "/:id", access: keepers, params: idParamSchema,
+      summary: "Remove an accelerator type no plan was costed on (204); one that plans use is retired instead (200) (infra, admin)",
+      responses: { 204: { contentType: null, description: "Removed" }, 200: acceleratorRetiredResponseSchema.describe("Retired instead, with the plans that use it") },
+      handler: async ({ deps, user, params }) => {
+        const out = await acc.deleteAccelerator(deps, user, params.id);
+        if (out.deleted) return { status: 204, raw: null };
+        return { status: 200, body: { retired: true as const, accelerator: out.accelerator, usedBy: out.usedBy } };
+      },
+    }),
+    route({
+      method: "post", path: "/:id/retire", summary: "Hide an accelerator from pickers; budgets on it keep their figures (infra, admin)",
+      access: keepers, params: idParamSchema,
+      responses: { 200: acceleratorResponseSchema },
+      handler: async ({ deps, user, params }) => ({ status: 200, body: { accelerator: await acc.retireAccelerator(deps, user, params.id) } }),
+    }),
+    route({
+      method: "post", path: "/:id/restore", summary: "Offer a retired accelerator again (infra, admin)", access: keepers, params: idParamSchema,
+      responses: { 200: acceleratorResponseSchema },
+      handler: async ({ deps, user, params }) => ({ status: 200, body: { accelerator: await acc.restoreAccelerator(deps, user, params.id) } }),
+    }),
+  ],
+};

@@ -1,4 +1,4 @@
-import { estimateBudget } from "../../engine/budget";
+import { BUDGET_RECIPES, estimateBudget, RECIPE_CAUTION } from "../../engine/budget";
 import type { Executor } from "../../db/client";
 import { Invalid } from "../../platform/errors";
 import { findModelRow } from "../models";
@@ -32,3 +32,6 @@ export async function resolveAndEstimate(ex: Executor, req: ParsedBudgetEstimate
   const estimate = estimateBudget({ ...req, model, cluster });
   return { ...estimate, resolved: { model, cluster, acceleratorName } };
 }
+
+/** The published starting points with the caution that goes with them. */
+export const listRecipes = () => ({ recipes: [...BUDGET_RECIPES], caution: RECIPE_CAUTION });

@@ -1,25 +1,24 @@
-import { Router } from "express";
 import { z } from "zod";
-import type { AppDeps } from "../../deps";
-import { requireRole } from "../../http/auth";
-import { parseQuery } from "../../http/validate";
+import { route, type ApiFeature } from "../../http/route";
+import { deliveryResultSchema, mailViewSchema } from "../../../shared/schemas/admin-views";
 import { deliverNow, listMail } from "./mail.service";
 
 const listQuery = z.object({ q: z.string().trim().max(200).optional() });
 
 /** Admin-only view of the local sink and the outbox; mounted at /api/mail. */
-export function mailRouter(deps: AppDeps) {
-  const r = Router();
-  r.use(requireRole("admin"));
-
-  r.get("/", async (req, res) => {
-    const { q } = parseQuery(listQuery, req);
-    res.json(await listMail(deps, q || undefined));
-  });
-
-  r.post("/deliver", async (_req, res) => {
-    res.json(await deliverNow(deps));
-  });
-
-  return r;
-}
+export const mailFeature: ApiFeature = {
+  prefix: "/mail",
+  tag: "mail",
+  routes: [
+    route({
+      method: "get", path: "/", summary: "Local mail sink and outbox (admin)", access: ["admin"], query: listQuery,
+      responses: { 200: mailViewSchema },
+      handler: async ({ deps, query }) => ({ status: 200, body: await listMail(deps, query.q || undefined) }),
+    }),
+    route({
+      method: "post", path: "/deliver", summary: "Deliver due mail now (admin)", access: ["admin"],
+      responses: { 200: deliveryResultSchema },
+      handler: async ({ deps }) => ({ status: 200, body: await deliverNow(deps) }),
+    }),
+  ],
+};

@@ -1,32 +1,12 @@
 import type { AppDeps } from "../../deps";
 import { DEFAULT_BATCH, deliverDueMail, type DeliveryResult } from "../../mail/outbox";
+import type { MailView } from "../../../shared/schemas/admin-views";
 import * as repo from "./mail.repo";
 
 /** The Mail page shows at most this many of each list, newest first. */
 export const MAIL_PAGE_LIMIT = 200;
 
-export interface SinkMessageView {
-  id: number;
-  receivedAt: string;
-  from: string;
-  to: string[];
-  subject: string;
-  text: string;
-}
-
-export interface OutboxRowView {
-  id: number;
-  kind: string;
-  to: string[];
-  subject: string;
-  status: string;
-  attempts: number;
-  lastError: string | null;
-  createdAt: string;
-  sentAt: string | null;
-}
-
-export async function listMail(deps: AppDeps, q?: string): Promise<{ messages: SinkMessageView[]; outbox: OutboxRowView[] }> {
+export async function listMail(deps: AppDeps, q?: string): Promise<MailView> {
   const [messages, outbox] = await Promise.all([
     repo.listSinkMessages(deps.db, MAIL_PAGE_LIMIT, q),
     repo.listOutbox(deps.db, MAIL_PAGE_LIMIT),

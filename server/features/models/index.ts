@@ -2,4 +2,4 @@
 export { getModelShape, type ModelUsage } from "./models.service";
 // Plans and budgets snapshot a profile's stored row into their own records, so they read it as stored.
 export { findModelRow, type ModelRow } from "./models.repo";
-export { modelsRouter } from "./models.router";
+export { modelsFeature } from "./models.router";

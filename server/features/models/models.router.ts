@@ -1,13 +1,9 @@
-import { Router } from "express";
 import multer from "multer";
-import { z } from "zod";
-import type { AppDeps } from "../../deps";
-import { currentUser, requireAuth, requireRole } from "../../http/auth";
 import { Invalid } from "../../platform/errors";
-import { parseBody, parseParams } from "../../http/validate";
-import { parseOr400 } from "../../platform/validate";
-import { assertNotHostile } from "../../platform/hostile";
-import { idParamSchema, modelProfileInputSchema } from "../../../shared/schemas";
+import { route, type ApiFeature } from "../../http/route";
+import { idParamSchema, importResponseSchema, modelProfileInputSchema } from "../../../shared/schemas";
+import { modelResponseSchema, modelRetiredResponseSchema, modelsListResponseSchema } from "../../../shared/schemas/model-responses";
+import { importFormSchema, readImportForm } from "./import-form";
 import * as service from "./models.service";
 
 export const MAX_CONFIG_BYTES = 1024 * 1024;
@@ -22,73 +18,75 @@ const upload = multer({
   },
 });
 
-const importFlags = z.object({
-  save: z.enum(["true", "false"]).optional(),
-  overrides: z.string().max(64_000).optional(),
+const editors = ["researcher", "infra", "admin"] as const;
+
+/**
+ * Mounted at /api/models: stored model profiles and config.json import. `usage` lists the plans that use a profile
+ * (the plans feature answers it; see ModelUsage).
+ */
+export const modelsFeature = (usage: service.ModelUsage): ApiFeature => ({
+  prefix: "/models",
+  tag: "models",
+  routes: [
+    route({
+      method: "get", path: "/", summary: "List model profiles", access: "signed-in",
+      responses: { 200: modelsListResponseSchema },
+      handler: async ({ deps }) => ({ status: 200, body: { models: await service.listModels(deps) } }),
+    }),
+    route({
+      method: "post", path: "/import", summary: "Parse (and optionally save) a config.json upload (multipart field 'file')", access: editors,
+      form: { contentType: "multipart/form-data", schema: importFormSchema },
+      middleware: () => [upload.single("file")],
+      responses: { 200: importResponseSchema.describe("Preview, nothing saved"), 201: importResponseSchema.describe("Saved as a new profile") },
+      handler: async ({ deps, req, user }) => {
+        const form = readImportForm({ ...req.body, ...req.query });
+        const result = await service.importConfig(deps, user, req.file, form.save, form.overrides);
+        return result.saved ? { status: 201, body: result } : { status: 200, body: result };
+      },
+    }),
+    route({
+      method: "get", path: "/:id", summary: "One model profile", access: "signed-in", params: idParamSchema,
+      responses: { 200: modelResponseSchema },
+      handler: async ({ deps, params }) => ({ status: 200, body: { model: await service.getModel(deps, params.id) } }),
+    }),
+    route({
+      method: "get", path: "/:id/source", summary: "The uploaded config.json", access: "signed-in", params: idParamSchema,
+      responses: { 200: { contentType: "application/json", description: "The file as uploaded (attachment)" } },
+      handler: async ({ deps, res, params }) => {
+        const src = await service.getModelSource(deps, params.id);
+        res.attachment(src.fileName);
+        return { status: 200, raw: src.text };
+      },
+    }),
+    route({
+      method: "post", path: "/", summary: "Create a model profile", access: editors, body: modelProfileInputSchema,
+      responses: { 201: modelResponseSchema },
+      handler: async ({ deps, user, body }) => ({ status: 201, body: { model: await service.createModel(deps, user, body) } }),
+    }),
+    route({
+      method: "put", path: "/:id", summary: "Replace a model profile", access: editors, params: idParamSchema, body: modelProfileInputSchema,
+      responses: { 200: modelResponseSchema },
+      handler: async ({ deps, user, params, body }) => ({ status: 200, body: { model: await service.updateModel(deps, user, params.id, body) } }),
+    }),
+    route({
+      method: "delete", path: "/:id", summary: "Delete a profile no plan uses (204); one that plans use is retired instead (200)",
+      access: editors, params: idParamSchema,
+      responses: { 204: { contentType: null, description: "Deleted" }, 200: modelRetiredResponseSchema.describe("Retired instead, with the plans that use it") },
+      handler: async ({ deps, user, params }) => {
+        const out = await service.deleteModel(deps, usage, user, params.id);
+        if (out.deleted) return { status: 204, raw: null };
+        return { status: 200, body: { retired: true as const, model: out.model, usedBy: out.usedBy } };
+      },
+    }),
+    route({
+      method: "post", path: "/:id/retire", summary: "Hide a profile from pickers; plans on it keep working", access: editors, params: idParamSchema,
+      responses: { 200: modelResponseSchema },
+      handler: async ({ deps, user, params }) => ({ status: 200, body: { model: await service.retireModel(deps, usage, user, params.id) } }),
+    }),
+    route({
+      method: "post", path: "/:id/restore", summary: "Offer a retired profile again", access: editors, params: idParamSchema,
+      responses: { 200: modelResponseSchema },
+      handler: async ({ deps, user, params }) => ({ status: 200, body: { model: await service.restoreModel(deps, user, params.id) } }),
+    }),
+  ],
 });
-
-/** `usage` lists the plans that use a profile (the plans feature answers it; see ModelUsage). */
-export function modelsRouter(deps: AppDeps, usage: service.ModelUsage) {
-  const r = Router();
-  const editors = requireRole("researcher", "infra", "admin");
-  r.use(requireAuth);
-
-  r.get("/", async (_req, res) => {
-    res.json({ models: await service.listModels(deps) });
-  });
-
-  r.post("/import", editors, upload.single("file"), async (req, res) => {
-    const flags = parseOr400(importFlags, { ...req.body, ...req.query }, "form");
-    let overrides: unknown = {};
-    if (flags.overrides) {
-      try {
-        overrides = JSON.parse(flags.overrides);
-      } catch {
-        throw new Invalid("overrides must be JSON", { overrides: "not valid JSON" });
-      }
-      assertNotHostile(overrides, "form", ["overrides"]);
-      if (typeof overrides !== "object" || overrides === null || Array.isArray(overrides)) {
-        throw new Invalid("overrides must be a JSON object of profile fields", { overrides: "not a JSON object" });
-      }
-    }
-    const result = await service.importConfig(deps, currentUser(res), req.file, flags.save === "true", overrides as Record<string, unknown>);
-    res.status(result.saved ? 201 : 200).json(result);
-  });
-
-  r.get("/:id", async (req, res) => {
-    res.json({ model: await service.getModel(deps, parseParams(idParamSchema, req).id) });
-  });
-
-  r.get("/:id/source", async (req, res) => {
-    const src = await service.getModelSource(deps, parseParams(idParamSchema, req).id);
-    res.type("application/json").attachment(src.fileName).send(src.text);
-  });
-
-  r.post("/", editors, async (req, res) => {
-    const input = parseBody(modelProfileInputSchema, req);
-    res.status(201).json({ model: await service.createModel(deps, currentUser(res), input) });
-  });
-
-  r.put("/:id", editors, async (req, res) => {
-    const { id } = parseParams(idParamSchema, req);
-    const input = parseBody(modelProfileInputSchema, req);
-    res.json({ model: await service.updateModel(deps, currentUser(res), id, input) });
-  });
-
-  // 204 when deleted; 200 with the retired profile and the plans that use it when it was retired instead.
-  r.delete("/:id", editors, async (req, res) => {
-    const out = await service.deleteModel(deps, usage, currentUser(res), parseParams(idParamSchema, req).id);
-    if (out.deleted) res.status(204).end();
-    else res.json({ retired: true, model: out.model, usedBy: out.usedBy });
-  });
-
-  r.post("/:id/retire", editors, async (req, res) => {
-    res.json({ model: await service.retireModel(deps, usage, currentUser(res), parseParams(idParamSchema, req).id) });
-  });
-
-  r.post("/:id/restore", editors, async (req, res) => {
-    res.json({ model: await service.restoreModel(deps, currentUser(res), parseParams(idParamSchema, req).id) });
-  });
-
-  return r;
-}

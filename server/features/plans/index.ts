@@ -1,3 +1,3 @@
 // Public face of the plans feature: other features and server/app.ts import only from here.
 export { plansUsingModel } from "./plans.usage";
-export { plansRouter } from "./plans.router";
+export { plansFeature } from "./plans.router";

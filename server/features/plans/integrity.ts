@@ -1,4 +1,4 @@
-import type { RevisionRow, decisionsOf } from "./plans.repo";
+import type { DecisionRow, RevisionRow, decisionsOf } from "./plans.repo";
 import { hashContent } from "./revision-content";
 import { signatureStatus, type DecisionPayload, type SignatureStatus, type SigningKey } from "./signing";
 
@@ -6,7 +6,7 @@ type DecisionJoin = Awaited<ReturnType<typeof decisionsOf>>[number];
 
 export interface CheckedDecision {
   approver: { id: number; name: string; email: string };
-  decision: string;
+  decision: DecisionRow["decision"];
   round: number;
   signedHash: string;
   at: string;

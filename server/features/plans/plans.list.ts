@@ -1,6 +1,6 @@
 import { sql, type SQL } from "drizzle-orm";
 import type { Executor } from "../../db/client";
-import type { planListQuerySchema } from "../../../shared/schemas";
+import type { planListQuerySchema, RevisionState } from "../../../shared/schemas";
 import type { z } from "zod";
 
 type Query = z.output<typeof planListQuerySchema>;
@@ -11,7 +11,7 @@ const SORT: Record<Query["sort"], string> = {
 
 export type PlanListRow = {
   id: number; title: string; purpose: string; owner_id: number; owner_name: string; model_id: number; model_name: string;
-  required_approvals: number; created_at: Date; updated_at: Date; latest_number: number; latest_state: string;
+  required_approvals: number; created_at: Date; updated_at: Date; latest_number: number; latest_state: RevisionState;
   approved_number: number | null; total: number;
 };
 

@@ -1,110 +1,133 @@
-import { Router } from "express";
 import { z } from "zod";
-import type { AppDeps } from "../../deps";
-import { currentUser, requireAuth, requireRole } from "../../http/auth";
-import { parseBody, parseParams, parseQuery } from "../../http/validate";
+import { route, type ApiFeature } from "../../http/route";
 import {
   createPlanRequestSchema, dbIdParam, decisionRequestSchema, planListQuerySchema, planSettingsSchema, updateRevisionRequestSchema,
 } from "../../../shared/schemas";
+import * as out from "../../../shared/schemas/plan-responses";
 import * as plans from "./plans.service";
+import * as reads from "./reads.service";
 import * as workflow from "./workflow.service";
 import { exportRevision, revisionReport, verifyRevision } from "./export.service";
-import { diffContents } from "./diff";
-import { planOwners, reviewQueue } from "./plans.list";
 
 const planParams = z.object({ id: dbIdParam });
 const revParams = planParams.extend({ n: dbIdParam });
 const diffParams = planParams.extend({ a: dbIdParam, b: dbIdParam });
+/** `?download=1` adds Content-Disposition: attachment with a file name. */
+const downloadQuery = z.object({ download: z.string().max(8).optional() });
+const researcher = ["researcher"] as const;
+const approver = ["approver"] as const;
+const via = (locals: Record<string, unknown>) => (locals.viaToken ? "token" : "session") as "token" | "session";
 
-export function plansRouter(deps: AppDeps) {
-  const r = Router();
-  r.use(requireAuth);
-  const via = (res: { locals: Record<string, unknown> }) => (res.locals.viaToken ? "token" : "session") as "token" | "session";
-
-  r.get("/", async (req, res) => {
-    res.json(await plans.listPlans(deps, parseQuery(planListQuerySchema, req)));
-  });
-  r.post("/", requireRole("researcher"), async (req, res) => {
-    const input = parseBody(createPlanRequestSchema, req);
-    const created = await plans.createPlan(deps, currentUser(res), input);
-    res.status(201).json(await plans.getPlan(deps, created.id));
-  });
-
-  r.get("/settings", async (_req, res) => {
-    res.json({ minRequiredApprovals: await plans.minRequiredApprovals(deps) });
-  });
-  r.put("/settings", requireRole("admin"), async (req, res) => {
-    const { minRequiredApprovals: min } = parseBody(planSettingsSchema, req);
-    res.json(await plans.updatePlanSettings(deps, currentUser(res), min));
-  });
-
-  r.get("/owners", async (_req, res) => {
-    res.json({ owners: await planOwners(deps.db) });
-  });
-
-  r.get("/review-queue", requireRole("approver"), async (_req, res) => {
-    const rows = await reviewQueue(deps.db, currentUser(res).id);
-    res.json({
-      items: rows.map((q) => ({
-        planId: q.plan_id, title: q.title, revision: q.number, author: q.author_name, submittedAt: new Date(q.submitted_at).toISOString(),
-        contentHash: q.content_hash, approvals: q.approvals, requiredApprovals: q.required_approvals,
-      })),
-    });
-  });
-
-  r.get("/:id", async (req, res) => {
-    res.json(await plans.getPlan(deps, parseParams(planParams, req).id));
-  });
-  r.get("/:id/approved/export", async (req, res) => {
-    const { id } = parseParams(planParams, req);
-    const out = await exportRevision(deps, currentUser(res), id, "approved", via(res));
-    if (req.query.download) res.attachment(`ropewalk-plan-${id}-r${out.revision}-config-patch.json`);
-    res.json(out);
-  });
-  r.post("/:id/revisions", requireRole("researcher"), async (req, res) => {
-    const out = await plans.newRevision(deps, currentUser(res), parseParams(planParams, req).id);
-    res.status(201).json(out);
-  });
-  r.get("/:id/revisions/:n", async (req, res) => {
-    const { id, n } = parseParams(revParams, req);
-    res.json(await plans.getRevision(deps, id, n));
-  });
-  r.put("/:id/revisions/:n", requireRole("researcher"), async (req, res) => {
-    const { id, n } = parseParams(revParams, req);
-    res.json(await plans.updateDraft(deps, currentUser(res), id, n, parseBody(updateRevisionRequestSchema, req)));
-  });
-  r.post("/:id/revisions/:n/submit", requireRole("researcher"), async (req, res) => {
-    const { id, n } = parseParams(revParams, req);
-    res.json(await workflow.submit(deps, currentUser(res), id, n));
-  });
-  r.post("/:id/revisions/:n/withdraw", requireRole("researcher"), async (req, res) => {
-    const { id, n } = parseParams(revParams, req);
-    res.json(await workflow.withdraw(deps, currentUser(res), id, n));
-  });
-  r.post("/:id/revisions/:n/decisions", requireRole("approver"), async (req, res) => {
-    const { id, n } = parseParams(revParams, req);
-    res.json(await workflow.decide(deps, currentUser(res), id, n, parseBody(decisionRequestSchema, req)));
-  });
-  r.get("/:id/revisions/:n/verify", async (req, res) => {
-    const { id, n } = parseParams(revParams, req);
-    res.json(await verifyRevision(deps, id, n));
-  });
-  r.get("/:id/revisions/:n/export", async (req, res) => {
-    const { id, n } = parseParams(revParams, req);
-    const out = await exportRevision(deps, currentUser(res), id, n, via(res));
-    if (req.query.download) res.attachment(`ropewalk-plan-${id}-r${n}-config-patch.json`);
-    res.json(out);
-  });
-  r.get("/:id/revisions/:a/diff/:b", async (req, res) => {
-    const { id, a, b } = parseParams(diffParams, req);
-    const [ra, rb] = await Promise.all([plans.getRevision(deps, id, a), plans.getRevision(deps, id, b)]);
-    res.json({ a: { number: a, contentHash: ra.contentHash }, b: { number: b, contentHash: rb.contentHash }, ...diffContents(ra.content, rb.content) });
-  });
-  r.get("/:id/revisions/:n/report", async (req, res) => {
-    const { id, n } = parseParams(revParams, req);
-    const html = await revisionReport(deps, id, n);
-    if (req.query.download) res.attachment(`ropewalk-plan-${id}-r${n}-report.html`);
-    res.type("html").send(html);
-  });
-  return r;
-}
+/** Mounted at /api/plans: plans, their revisions, the sign-off workflow and exports. */
+export const plansFeature: ApiFeature = {
+  prefix: "/plans",
+  tag: "plans",
+  routes: [
+    route({
+      method: "get", path: "/", summary: "Plans, paged, sorted and filtered", access: "signed-in", query: planListQuerySchema,
+      responses: { 200: out.planListResponseSchema },
+      handler: async ({ deps, query }) => ({ status: 200, body: await plans.listPlans(deps, query) }),
+    }),
+    route({
+      method: "post", path: "/", summary: "Create a plan with revision 1 as a draft", access: researcher, body: createPlanRequestSchema,
+      responses: { 201: out.planDetailSchema },
+      handler: async ({ deps, user, body }) => ({ status: 201, body: await plans.createPlanDetail(deps, user, body) }),
+    }),
+    route({
+      method: "get", path: "/settings", summary: "Lab-wide plan settings", access: "signed-in",
+      responses: { 200: planSettingsSchema },
+      handler: async ({ deps }) => ({ status: 200, body: await reads.planSettings(deps) }),
+    }),
+    route({
+      method: "put", path: "/settings", summary: "Set the lab-wide minimum of approvals (admin)", access: ["admin"], body: planSettingsSchema,
+      responses: { 200: planSettingsSchema },
+      handler: async ({ deps, user, body }) => ({ status: 200, body: await plans.updatePlanSettings(deps, user, body.minRequiredApprovals) }),
+    }),
+    route({
+      method: "get", path: "/owners", summary: "People who own plans (for filters)", access: "signed-in",
+      responses: { 200: out.planOwnersResponseSchema },
+      handler: async ({ deps }) => ({ status: 200, body: await reads.listPlanOwners(deps) }),
+    }),
+    route({
+      method: "get", path: "/review-queue", summary: "Revisions awaiting my decision (approver)", access: approver,
+      responses: { 200: out.reviewQueueResponseSchema },
+      handler: async ({ deps, user }) => ({ status: 200, body: await reads.listReviewQueue(deps, user.id) }),
+    }),
+    route({
+      method: "get", path: "/:id", summary: "A plan with its revisions and decisions", access: "signed-in", params: planParams,
+      responses: { 200: out.planDetailSchema },
+      handler: async ({ deps, params }) => ({ status: 200, body: await plans.getPlan(deps, params.id) }),
+    }),
+    route({
+      method: "get", path: "/:id/approved/export", summary: "Configuration patch of the latest approved revision (bearer token accepted)",
+      access: "signed-in", params: planParams, query: downloadQuery,
+      responses: { 200: out.exportEnvelopeSchema },
+      handler: async ({ deps, res, user, params, query }) => {
+        const body = await exportRevision(deps, user, params.id, "approved", via(res.locals));
+        if (query.download) res.attachment(`ropewalk-plan-${params.id}-r${body.revision}-config-patch.json`);
+        return { status: 200, body };
+      },
+    }),
+    route({
+      method: "post", path: "/:id/revisions", summary: "New draft from the latest revision", access: researcher, params: planParams,
+      responses: { 201: out.newRevisionResponseSchema },
+      handler: async ({ deps, user, params }) => ({ status: 201, body: await plans.newRevision(deps, user, params.id) }),
+    }),
+    route({
+      method: "get", path: "/:id/revisions/:n", summary: "One revision with its content", access: "signed-in", params: revParams,
+      responses: { 200: out.revisionResponseSchema },
+      handler: async ({ deps, params }) => ({ status: 200, body: await plans.getRevision(deps, params.id, params.n) }),
+    }),
+    route({
+      method: "put", path: "/:id/revisions/:n", summary: "Edit a draft (optimistic version)", access: researcher,
+      params: revParams, body: updateRevisionRequestSchema,
+      responses: { 200: out.draftSavedSchema },
+      handler: async ({ deps, user, params, body }) => ({ status: 200, body: await plans.updateDraft(deps, user, params.id, params.n, body) }),
+    }),
+    route({
+      method: "post", path: "/:id/revisions/:n/submit", summary: "Submit a draft for review", access: researcher, params: revParams,
+      responses: { 200: out.transitionResponseSchema },
+      handler: async ({ deps, user, params }) => ({ status: 200, body: await workflow.submit(deps, user, params.id, params.n) }),
+    }),
+    route({
+      method: "post", path: "/:id/revisions/:n/withdraw", summary: "Withdraw a revision from review", access: researcher, params: revParams,
+      responses: { 200: out.transitionResponseSchema },
+      handler: async ({ deps, user, params }) => ({ status: 200, body: await workflow.withdraw(deps, user, params.id, params.n) }),
+    }),
+    route({
+      method: "post", path: "/:id/revisions/:n/decisions", summary: "Approve or request changes (approver)", access: approver,
+      params: revParams, body: decisionRequestSchema,
+      responses: { 200: out.transitionResponseSchema },
+      handler: async ({ deps, user, params, body }) => ({ status: 200, body: await workflow.decide(deps, user, params.id, params.n, body) }),
+    }),
+    route({
+      method: "get", path: "/:id/revisions/:n/verify", summary: "Recompute the content hash", access: "signed-in", params: revParams,
+      responses: { 200: out.verifyResponseSchema },
+      handler: async ({ deps, params }) => ({ status: 200, body: await verifyRevision(deps, params.id, params.n) }),
+    }),
+    route({
+      method: "get", path: "/:id/revisions/:n/export", summary: "Configuration patch of a signed revision", access: "signed-in",
+      params: revParams, query: downloadQuery,
+      responses: { 200: out.exportEnvelopeSchema },
+      handler: async ({ deps, res, user, params, query }) => {
+        const body = await exportRevision(deps, user, params.id, params.n, via(res.locals));
+        if (query.download) res.attachment(`ropewalk-plan-${params.id}-r${params.n}-config-patch.json`);
+        return { status: 200, body };
+      },
+    }),
+    route({
+      method: "get", path: "/:id/revisions/:a/diff/:b", summary: "Differences between two revisions", access: "signed-in", params: diffParams,
+      responses: { 200: out.diffResponseSchema },
+      handler: async ({ deps, params }) => ({ status: 200, body: await reads.diffRevisions(deps, params.id, params.a, params.b) }),
+    }),
+    route({
+      method: "get", path: "/:id/revisions/:n/report", summary: "Printable HTML report", access: "signed-in", params: revParams, query: downloadQuery,
+      responses: { 200: { contentType: "text/html", description: "The report page (attachment with ?download=1)" } },
+      handler: async ({ deps, res, params, query }) => {
+        const html = await revisionReport(deps, params.id, params.n);
+        if (query.download) res.attachment(`ropewalk-plan-${params.id}-r${params.n}-report.html`);
+        return { status: 200, raw: html };
+      },
+    }),
+  ],
+};

@@ -133,6 +133,12 @@ export async function listPlans(deps: AppDeps, q: z.output<typeof planListQueryS
   };
 }
 
+/** Creates the plan and answers it as GET /api/plans/:id would. */
+export async function createPlanDetail(deps: AppDeps, actor: SessionUser, input: z.output<typeof import("../../../shared/schemas").createPlanRequestSchema>) {
+  const created = await createPlan(deps, actor, input);
+  return getPlan(deps, created.id);
+}
+
 export async function getPlan(deps: AppDeps, id: number) {
   const plan = await mustPlan(deps.db, id);
   const [owner, model, revs, required] = await Promise.all([

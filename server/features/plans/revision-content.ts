@@ -7,32 +7,19 @@ import {
   type MethodParams, type ModelShape, type RevisionValues, type StageResult, type Bands,
 } from "../../../shared/schemas";
 import type { ModelRow } from "../models";
-import type { ModelSnapshot } from "../../../shared/schemas/plan-responses";
-import type { BudgetPart } from "./budget-part";
+import type { ModelSnapshot, RevisionContent } from "../../../shared/schemas/plan-responses";
 
-/** The profile values a revision freezes (later edits of the profile do not change a revision); contract in shared/. */
-export type { ModelSnapshot };
+/**
+ * The profile values a revision freezes (later edits of the profile do not change a revision) and the content itself:
+ * both contracts live in shared/schemas/plan-responses.ts.
+ */
+export type { ModelSnapshot, RevisionContent };
 
 export const snapshotOf = (m: ModelRow): ModelSnapshot => ({
   id: m.id, name: m.name, family: m.family, headDim: m.headDim, partialRotaryFactor: m.partialRotaryFactor, ropeTheta: m.ropeTheta,
   trainedContext: m.trainedContext, layers: m.layers, attentionHeads: m.attentionHeads, kvHeads: m.kvHeads, hiddenSize: m.hiddenSize,
   parameters: m.parameters, parametersTotal: m.parametersTotal, bytesPerElement: m.bytesPerElement,
 });
-
-export type RevisionContent = Omit<RevisionValues, "budget"> & {
-  engineVersion: string;
-  model: ModelSnapshot;
-  results: {
-    rotaryDim: number;
-    criticalDimension: number;
-    criticalBase: number;
-    baseSupport: { supportedLength: number | null; checkedUpTo: number; complete: boolean };
-    final: StageResult;
-    stages: StageResult[];
-  };
-  /** The budget sheet's figures, frozen with the catalog numbers used. */
-  budget?: BudgetPart;
-};
 
 const engineShape = (m: ModelSnapshot): ModelShape => ({
   headDim: m.headDim, ropeTheta: m.ropeTheta, trainedContext: m.trainedContext, partialRotaryFactor: m.partialRotaryFactor,

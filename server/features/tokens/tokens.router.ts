@@ -1,28 +1,38 @@
-import { Router } from "express";
-import type { AppDeps } from "../../deps";
-import { currentUser, requireAuth } from "../../http/auth";
-import { parseBody, parseParams } from "../../http/validate";
-import { createTokenRequestSchema, idParamSchema } from "../../../shared/schemas";
+import { route, type ApiFeature } from "../../http/route";
+import { createdTokenSchema, createTokenRequestSchema, idParamSchema } from "../../../shared/schemas";
+import { tokenListResponseSchema } from "../../../shared/schemas/admin-views";
 import { createToken, listTokens, revokeToken } from "./tokens.service";
 
-export function tokensRouter(deps: AppDeps) {
-  const r = Router();
-  r.use(requireAuth);
-  // A created token's secret appears in exactly one answer; nothing may cache it.
-  r.use((_req, res, next) => {
-    res.set("Cache-Control", "no-store");
-    next();
-  });
-  r.get("/", async (_req, res) => {
-    res.json({ tokens: await listTokens(deps, currentUser(res)) });
-  });
-  r.post("/", async (req, res) => {
-    const { name, scopes } = parseBody(createTokenRequestSchema, req);
-    res.status(201).json(await createToken(deps, currentUser(res), name, scopes));
-  });
-  r.delete("/:id", async (req, res) => {
-    await revokeToken(deps, currentUser(res), parseParams(idParamSchema, req).id);
-    res.status(204).end();
-  });
-  return r;
-}
+/** Mounted at /api/tokens: the signed-in user's own API tokens. */
+export const tokensFeature: ApiFeature = {
+  prefix: "/tokens",
+  tag: "tokens",
+  use: [
+    // A created token's secret appears in exactly one answer; nothing may cache it.
+    (_req, res, next) => {
+      res.set("Cache-Control", "no-store");
+      next();
+    },
+  ],
+  routes: [
+    route({
+      method: "get", path: "/", summary: "My API tokens", access: "signed-in",
+      responses: { 200: tokenListResponseSchema },
+      handler: async ({ deps, user }) => ({ status: 200, body: { tokens: await listTokens(deps, user) } }),
+    }),
+    route({
+      method: "post", path: "/", summary: "Create an API token with scopes, default export:read (secret shown once)", access: "signed-in",
+      body: createTokenRequestSchema,
+      responses: { 201: createdTokenSchema },
+      handler: async ({ deps, user, body }) => ({ status: 201, body: await createToken(deps, user, body.name, body.scopes) }),
+    }),
+    route({
+      method: "delete", path: "/:id", summary: "Revoke a token", access: "signed-in", params: idParamSchema,
+      responses: { 204: { contentType: null, description: "Revoked" } },
+      handler: async ({ deps, user, params }) => {
+        await revokeToken(deps, user, params.id);
+        return { status: 204, raw: null };
+      },
+    }),
+  ],
+};

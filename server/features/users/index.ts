@@ -2,4 +2,4 @@
 export { changePassword } from "./users.service";
 // Sign-in checks the stored password hash, which no service view carries.
 export { findUserByEmail } from "./users.repo";
-export { usersRouter } from "./users.router";
+export { usersFeature } from "./users.router";

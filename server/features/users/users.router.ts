@@ -1,28 +1,29 @@
-import { Router } from "express";
-import type { AppDeps } from "../../deps";
-import { currentUser, requireRole } from "../../http/auth";
-import { parseBody, parseParams } from "../../http/validate";
-import { createUserRequestSchema, idParamSchema, updateUserRequestSchema } from "../../../shared/schemas";
+import { route, type ApiFeature } from "../../http/route";
+import {
+  createUserRequestSchema, idParamSchema, updateUserRequestSchema, userResponseSchema, usersListResponseSchema,
+} from "../../../shared/schemas";
 import { createUser, listUsers, updateUser } from "./users.service";
 
-export function usersRouter(deps: AppDeps) {
-  const r = Router();
-  r.use(requireRole("admin"));
-
-  r.get("/", async (_req, res) => {
-    res.json({ users: await listUsers(deps) });
-  });
-
-  r.post("/", async (req, res) => {
-    const input = parseBody(createUserRequestSchema, req);
-    res.status(201).json({ user: await createUser(deps, currentUser(res), input) });
-  });
-
-  r.patch("/:id", async (req, res) => {
-    const { id } = parseParams(idParamSchema, req);
-    const input = parseBody(updateUserRequestSchema, req);
-    res.json({ user: await updateUser(deps, currentUser(res), id, input) });
-  });
-
-  return r;
-}
+/** Mounted at /api/users; admins only. */
+export const usersFeature: ApiFeature = {
+  prefix: "/users",
+  tag: "users",
+  routes: [
+    route({
+      method: "get", path: "/", summary: "List users (admin)", access: ["admin"],
+      responses: { 200: usersListResponseSchema },
+      handler: async ({ deps }) => ({ status: 200, body: { users: await listUsers(deps) } }),
+    }),
+    route({
+      method: "post", path: "/", summary: "Create a user (admin)", access: ["admin"], body: createUserRequestSchema,
+      responses: { 201: userResponseSchema },
+      handler: async ({ deps, user, body }) => ({ status: 201, body: { user: await createUser(deps, user, body) } }),
+    }),
+    route({
+      method: "patch", path: "/:id", summary: "Change a user's name, roles or activity (admin)", access: ["admin"],
+      params: idParamSchema, body: updateUserRequestSchema,
+      responses: { 200: userResponseSchema },
+      handler: async ({ deps, user, params, body }) => ({ status: 200, body: { user: await updateUser(deps, user, params.id, body) } }),
+    }),
+  ],
+};

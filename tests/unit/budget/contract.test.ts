@@ -6,7 +6,7 @@ import {
   budgetEstimateSchema,
   budgetRecipeSchema,
   clusterSpecSchema,
-  modelShapeSchema,
+  budgetModelShapeSchema,
 } from "../../../shared/schemas/budget";
 import { plan, SHAPE_7B } from "./fixtures";
 
@@ -21,7 +21,7 @@ function numbersIn(value: unknown): number[] {
 describe("the service's path: parse, resolve, estimate, check the response against its schema", () => {
   it("the YaRN plan round-trips", () => {
     const parsed = budgetEstimateRequestSchema.parse({ ...plan(), stages: [{ sequenceLength: 65_536, steps: 400, globalBatch: 64 }] });
-    const model = modelShapeSchema.parse(parsed.model);
+    const model = budgetModelShapeSchema.parse(parsed.model);
     const cluster = clusterSpecSchema.parse(parsed.cluster);
     const estimate = estimateBudget({ ...parsed, model, cluster });
     expect(budgetEstimateSchema.safeParse(estimate).success).toBe(true);
@@ -49,6 +49,6 @@ describe("the service's path: parse, resolve, estimate, check the response again
   });
 
   it("the shape fixture is a valid model shape", () => {
-    expect(modelShapeSchema.safeParse(SHAPE_7B).success).toBe(true);
+    expect(budgetModelShapeSchema.safeParse(SHAPE_7B).success).toBe(true);
   });
 });

@@ -1,9 +1,8 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import { type CreateUserRequest } from "../../../../../shared/schemas/users";
+import { type CreateUserRequest, userResponseSchema } from "../../../../../shared/schemas/users";
 import { apiClient } from "../../../lib/api-client";
 import { apiPaths } from "../../../config/paths";
 import { usersKeys } from "./keys";
-import { userResponseSchema } from "./user-response";
 
 export const createUser = (body: CreateUserRequest) =>
   apiClient.send("POST", apiPaths.users(), body, userResponseSchema).then((r) => r.user);

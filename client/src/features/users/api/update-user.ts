@@ -1,9 +1,8 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import { type UpdateUserRequest, type User } from "../../../../../shared/schemas/users";
+import { type UpdateUserRequest, type User, userResponseSchema } from "../../../../../shared/schemas/users";
 import { apiClient } from "../../../lib/api-client";
 import { apiPaths } from "../../../config/paths";
 import { usersKeys } from "./keys";
-import { userResponseSchema } from "./user-response";
 
 export const updateUser = ({ id, changes }: { id: number; changes: UpdateUserRequest }) =>
   apiClient.send("PATCH", apiPaths.user(id), changes, userResponseSchema).then((r) => r.user);

@@ -1,0 +1,2 @@
+ALTER TABLE "plan_decisions" ADD CONSTRAINT "plan_decisions_decision_known" CHECK ("plan_decisions"."decision" IN ('approve', 'request_changes'));--> statement-breakpoint
+ALTER TABLE "plan_revisions" ADD CONSTRAINT "plan_revisions_state_known" CHECK ("plan_revisions"."state" IN ('draft', 'in_review', 'approved', 'changes_requested', 'superseded'));

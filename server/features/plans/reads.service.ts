@@ -1,0 +1,29 @@
+import type { AppDeps } from "../../deps";
+import type { DiffResponse, ReviewQueueItem } from "../../../shared/schemas/plan-responses";
+import { diffContents } from "./diff";
+import { planOwners, reviewQueue } from "./plans.list";
+import { minRequiredApprovals } from "./plans.repo";
+import { getRevision } from "./plans.service";
+
+/** Lab-wide plan settings as everyone may read them. */
+export const planSettings = async (deps: AppDeps) => ({ minRequiredApprovals: await minRequiredApprovals(deps.db) });
+
+/** People who own plans (for the list's filter). */
+export const listPlanOwners = async (deps: AppDeps) => ({ owners: await planOwners(deps.db) });
+
+/** Revisions awaiting this approver's decision, oldest submission first. */
+export async function listReviewQueue(deps: AppDeps, approverId: number): Promise<{ items: ReviewQueueItem[] }> {
+  const rows = await reviewQueue(deps.db, approverId);
+  return {
+    items: rows.map((q) => ({
+      planId: q.plan_id, title: q.title, revision: q.number, author: q.author_name, submittedAt: new Date(q.submitted_at).toISOString(),
+      contentHash: q.content_hash, approvals: q.approvals, requiredApprovals: q.required_approvals,
+    })),
+  };
+}
+
+/** Field, stage, flag and budget differences between revisions a and b of one plan. */
+export async function diffRevisions(deps: AppDeps, planId: number, a: number, b: number): Promise<DiffResponse> {
+  const [ra, rb] = await Promise.all([getRevision(deps, planId, a), getRevision(deps, planId, b)]);
+  return { a: { number: a, contentHash: ra.contentHash }, b: { number: b, contentHash: rb.contentHash }, ...diffContents(ra.content, rb.content) };
+}
