@@ -4,14 +4,8 @@ import { Invalid } from "../../platform/errors";
 import { findModelRow } from "../models";
 import { findAccelerator } from "./accelerators.service";
 import type { ParsedBudgetEstimateRequest } from "../../../shared/schemas/budget";
+import { budgetShapeOf } from "../../../shared/profile-shapes";
 
-/** The budget engine's view of a stored profile or a revision's frozen snapshot of one. */
-export const budgetModelOf = (m: {
-  parameters: number; layers: number; attentionHeads: number; kvHeads: number; headDim: number; hiddenSize: number; bytesPerElement: number;
-}) => ({
-  parameters: Math.round(m.parameters), layers: m.layers, attentionHeads: m.attentionHeads, kvHeads: m.kvHeads,
-  headDim: m.headDim, hiddenSize: m.hiddenSize, bytesPerElement: m.bytesPerElement,
-});
 
 /** Replaces { modelId } and { acceleratorId } with the stored numbers, then runs the budget engine. */
 export async function resolveAndEstimate(ex: Executor, req: ParsedBudgetEstimateRequest) {
@@ -19,7 +13,7 @@ export async function resolveAndEstimate(ex: Executor, req: ParsedBudgetEstimate
   if ("modelId" in req.model && req.model.modelId !== undefined) {
     const m = await findModelRow(ex, req.model.modelId);
     if (!m) throw new Invalid("no such model profile", { "model.modelId": "not found" });
-    model = budgetModelOf(m);
+    model = budgetShapeOf(m);
   } else model = req.model as Exclude<typeof req.model, { modelId: number }>;
   let cluster;
   let acceleratorName: string | null = null;

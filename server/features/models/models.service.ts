@@ -10,6 +10,7 @@ import {
 } from "../../../shared/schemas";
 import { ConfigImportError, parseModelConfig } from "./config-import";
 import * as repo from "./models.repo";
+import { rotaryShapeOf } from "../../../shared/profile-shapes";
 import { isUniqueViolation } from "../../db/errors";
 
 /**
@@ -53,11 +54,7 @@ export const getModel = async (deps: AppDeps, id: number) => toModelProfile(awai
 /** What the engine needs of a saved profile. */
 export async function getModelShape(deps: AppDeps, id: number) {
   const m = await mustFind(deps, id);
-  return {
-    headDim: m.headDim, ropeTheta: m.ropeTheta, trainedContext: m.trainedContext, partialRotaryFactor: m.partialRotaryFactor,
-    layers: m.layers, attentionHeads: m.attentionHeads, kvHeads: m.kvHeads, hiddenSize: m.hiddenSize,
-    parameters: m.parameters, bytesPerElement: m.bytesPerElement, name: m.name,
-  };
+  return { ...rotaryShapeOf(m), parameters: m.parameters, bytesPerElement: m.bytesPerElement, name: m.name };
 }
 
 export async function getModelSource(deps: AppDeps, id: number) {

@@ -1,5 +1,6 @@
 import type { Executor } from "../../db/client";
-import { budgetModelOf, resolveAndEstimate } from "../budgets";
+import { resolveAndEstimate } from "../budgets";
+import { budgetShapeOf } from "../../../shared/profile-shapes";
 import { Conflict, Invalid } from "../../platform/errors";
 import { findAccelerator } from "../budgets";
 import { parseOr400 } from "../../platform/validate";
@@ -20,7 +21,7 @@ export async function budgetPart(ex: Executor, model: ModelSnapshot, v: Revision
   if (!v.stages.length) return { inputs: v.budget, skipped: "the plan has no stages to cost" };
   const request = {
     ...v.budget,
-    model: budgetModelOf(model),
+    model: budgetShapeOf(model),
     trainedContext: model.trainedContext,
     targetContext: Math.max(v.targetContext, ...v.stages.map((s) => s.sequenceLength)),
     stages: v.stages.map((s) => ({ sequenceLength: s.sequenceLength, steps: s.steps, globalBatch: s.globalBatch })),

@@ -4,10 +4,11 @@ import { analyse, ENGINE_VERSION } from "../../engine";
 import { Invalid } from "../../platform/errors";
 import {
   modelDependentIssues,
-  type MethodParams, type ModelShape, type RevisionValues, type StageResult, type Bands,
+  type MethodParams, type RevisionValues, type StageResult, type Bands,
 } from "../../../shared/schemas";
 import type { ModelRow } from "../models";
 import type { ModelSnapshot, RevisionContent } from "../../../shared/schemas/plan-responses";
+import { rotaryShapeOf } from "../../../shared/profile-shapes";
 
 /**
  * The profile values a revision freezes (later edits of the profile do not change a revision) and the content itself:
@@ -21,15 +22,11 @@ export const snapshotOf = (m: ModelRow): ModelSnapshot => ({
   parameters: m.parameters, parametersTotal: m.parametersTotal, bytesPerElement: m.bytesPerElement,
 });
 
-const engineShape = (m: ModelSnapshot): ModelShape => ({
-  headDim: m.headDim, ropeTheta: m.ropeTheta, trainedContext: m.trainedContext, partialRotaryFactor: m.partialRotaryFactor,
-  layers: m.layers, attentionHeads: m.attentionHeads, kvHeads: m.kvHeads, hiddenSize: m.hiddenSize,
-});
 
 /** Model-dependent rules for the plan target and every stage, reported on the field to fix. */
 export function checkAgainstModel(model: ModelSnapshot, v: RevisionValues) {
   const fields: Record<string, string> = {};
-  const shape = engineShape(model);
+  const shape = rotaryShapeOf(model);
   const add = (prefix: string, target: number, method: MethodParams) => {
     for (const issue of modelDependentIssues(shape, target, [method])) {
       const path = issue.path[0] === "methods" ? ["method", ...issue.path.slice(2)] : issue.path;
@@ -45,7 +42,7 @@ export function checkAgainstModel(model: ModelSnapshot, v: RevisionValues) {
 }
 
 function stageResult(model: ModelSnapshot, target: number, method: MethodParams, bands?: Bands) {
-  const a = analyse({ model: engineShape(model), targetContext: target, methods: [method], bands });
+  const a = analyse({ model: rotaryShapeOf(model), targetContext: target, methods: [method], bands });
   const m = a.methods[0];
   const idx = (f: "unseenAngles" | "compressedResolution" | "exceedsTrainedWindow") => m.pairs.filter((p) => p[f]).map((p) => p.index);
   const result: StageResult = {

@@ -7,6 +7,7 @@ import { draftFromPlanBudget, PLAN_STAGE_FIELDS, planBudgetFromDraft, stageDraft
 import { type SheetDraft, type StageDraft } from "../lib/sheet-draft";
 import { BudgetSheet } from "./budget-sheet";
 import { parseNumberText } from "../../../lib/number-text";
+import { budgetShapeOf } from "../../../../../shared/profile-shapes";
 
 type PlanForm = { revision: RevisionInput; modelId?: number };
 /** The model fields the budget uses: a revision's frozen snapshot, or a profile. */
@@ -67,10 +68,7 @@ export function PlanBudgetSheet({ model: given, models, accelerators, disabled }
 
   const lengths = stages.map((s) => s.sequenceLength).filter((n): n is number => Number.isFinite(n));
   const context = model && {
-    model: {
-      parameters: Math.round(model.parameters), layers: model.layers, attentionHeads: model.attentionHeads, kvHeads: model.kvHeads,
-      headDim: model.headDim, hiddenSize: model.hiddenSize, bytesPerElement: model.bytesPerElement,
-    },
+    model: budgetShapeOf(model),
     // The server's own choice for a plan (budget-part.ts): the trained length to the larger of the plan target and the longest stage.
     trainedContext: model.trainedContext,
     targetContext: Math.max(model.trainedContext, target && Number.isFinite(target) ? target : 0, ...lengths),

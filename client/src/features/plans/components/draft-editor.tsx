@@ -11,7 +11,7 @@ import { useUpdateRevision } from "../api/update-revision";
 import { actionErrorText } from "../lib/action-error";
 import { editRevisionFormSchema, revisionValuesOf } from "../lib/form-values";
 import { invalidSummary, placeServerErrors } from "../lib/server-errors";
-import { shapeOf } from "../lib/model-shape";
+import { rotaryShapeOf } from "../../../../../shared/profile-shapes";
 import { RevisionFields } from "./form/revision-fields";
 
 type DraftEditorProps = {
@@ -49,7 +49,7 @@ export function DraftEditor({ planId, revision, onReload, onSaved, afterStages }
   // Read during render so react-hook-form keeps dirtyFields up to date (its form state is a subscription proxy).
   const { dirtyFields } = form.formState;
   const m = revision.content.model;
-  const model = shapeOf(m);
+  const model = rotaryShapeOf(m);
 
   const onSubmit = form.handleSubmit(({ revision: values }) => {
     setProblem(null);

@@ -1,15 +1,10 @@
-import type { AnalysisRequest, ModelShape } from "../../../../../shared/schemas/analysis";
-import type { ModelSnapshot, RevisionContent } from "../../../../../shared/schemas/plan-responses";
-
-/** The engine's model shape from a revision's frozen profile (the analysis schema is strict: only these keys). */
-export const shapeOf = (m: ModelSnapshot): ModelShape => ({
-  headDim: m.headDim, ropeTheta: m.ropeTheta, trainedContext: m.trainedContext, partialRotaryFactor: m.partialRotaryFactor,
-  layers: m.layers, attentionHeads: m.attentionHeads, kvHeads: m.kvHeads, hiddenSize: m.hiddenSize,
-});
+import type { AnalysisRequest } from "../../../../../shared/schemas/analysis";
+import type { RevisionContent } from "../../../../../shared/schemas/plan-responses";
+import { rotaryShapeOf } from "../../../../../shared/profile-shapes";
 
 /** The engine run on a revision's frozen model, target and method: the same request the workbench makes. */
 export const analysisRequestOf = (content: RevisionContent): AnalysisRequest => ({
-  model: shapeOf(content.model),
+  model: rotaryShapeOf(content.model),
   targetContext: content.targetContext,
   methods: [content.method],
   ...(content.bands ? { bands: content.bands } : {}),

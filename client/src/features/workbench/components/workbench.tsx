@@ -6,8 +6,9 @@ import { Loading, Notice } from "../../../components/notice";
 import { isApiError } from "../../../lib/api-client";
 import { analysesQueries } from "../../../lib/api/analyses";
 import { sig } from "../figures";
-import { useSettledValue } from "../hooks/use-debounced-request";
-import { shapeOf, withDefaults } from "../state/defaults";
+import { useDebounced } from "../../../lib/use-debounced";
+import { withDefaults } from "../state/defaults";
+import { rotaryShapeOf } from "../../../../../shared/profile-shapes";
 import type { WorkbenchInputs as Inputs } from "../state/inputs";
 import { toRequest } from "../state/to-request";
 import { inputsToParams, parseInputs } from "../state/url-codec";
@@ -33,9 +34,9 @@ export function Workbench({ profiles, profileNotes }: WorkbenchProps) {
 
   const model = inputs.model;
   const chosen = model.kind === "saved" ? (profiles.find((p) => p.id === model.id) ?? null) : null;
-  const savedShape = useMemo(() => (chosen ? shapeOf(chosen) : null), [chosen]);
+  const savedShape = useMemo(() => (chosen ? rotaryShapeOf(chosen) : null), [chosen]);
   const { request, errors } = useMemo(() => toRequest(inputs, savedShape), [inputs, savedShape]);
-  const settled = useSettledValue(request);
+  const settled = useDebounced(request, 300, { holdWhileNull: true });
   const analysis = useQuery(analysesQueries.detail(settled));
 
   const trainedContext = chosen?.trainedContext ?? (model.kind === "shape" ? Number(model.trainedContext) || null : null);

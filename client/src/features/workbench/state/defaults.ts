@@ -1,14 +1,5 @@
-import type { ModelShape } from "../../../../../shared/schemas/analysis";
 import type { ModelProfile } from "../../../../../shared/schemas/models";
 import type { WorkbenchInputs } from "./inputs";
-
-/** What the engine needs of a saved profile, for the checks the browser can make before asking. */
-export const shapeOf = (p: ModelProfile): ModelShape => ({
-  headDim: p.headDim,
-  ropeTheta: p.ropeTheta,
-  trainedContext: p.trainedContext,
-  partialRotaryFactor: p.partialRotaryFactor,
-});
 
 /** A target four times the trained length: a common first step of context extension (common practice, no source). */
 export const suggestedTarget = (trainedContext: number) => String(trainedContext * 4);

@@ -1,10 +1,10 @@
-import { useEffect, useState } from "react";
 import { useQuery } from "@tanstack/react-query";
 import { useFormContext, useWatch } from "react-hook-form";
 import { lengthSchema, methodParamsSchema, bandsSchema, type AnalysisRequest } from "../../../../../../shared/schemas/analysis";
 import { Notice } from "../../../../components/notice";
 import { isApiError } from "../../../../lib/api-client";
 import { formatCount, sig3 } from "../../../../lib/format";
+import { useDebounced } from "../../../../lib/use-debounced";
 import { analysesQueries } from "../../../../lib/api/analyses";
 import type { RevisionForm } from "../../lib/form-values";
 import { formatPairRanges } from "../../lib/pair-ranges";
@@ -33,12 +33,7 @@ export function LiveFlags({ model }: { model: AnalysisModel | null }) {
   const { control } = useFormContext<RevisionForm>();
   const [target, method, bands] = useWatch({ control, name: ["revision.targetContext", "revision.method", "revision.bands"] });
   const current = requestOf(model, target, method, bands);
-  const key = JSON.stringify(current);
-  const [settled, setSettled] = useState<AnalysisRequest | null>(current);
-  useEffect(() => {
-    const t = setTimeout(() => setSettled(key === "null" ? null : (JSON.parse(key) as AnalysisRequest)), DEBOUNCE_MS);
-    return () => clearTimeout(t);
-  }, [key]);
+  const settled = useDebounced(current, DEBOUNCE_MS);
   const analysis = useQuery(analysesQueries.detail(settled));
 
   return (
@@ -54,7 +49,7 @@ export function LiveFlags({ model }: { model: AnalysisModel | null }) {
         </Notice>
       )}
       {analysis.data && current && (
-        <div className={`flex flex-col gap-2 ${analysis.isFetching || key !== JSON.stringify(settled) ? "opacity-60" : ""}`} data-testid="live-flags">
+        <div className={`flex flex-col gap-2 ${analysis.isFetching || JSON.stringify(current) !== JSON.stringify(settled) ? "opacity-60" : ""}`} data-testid="live-flags">
           <p className="text-body">
             {formatCount(analysis.data.targetContext)} tokens is ×{sig3(analysis.data.scale)} the trained window; {analysis.data.model.pairs} pairs; attention factor ×
             {sig3(analysis.data.methods[0].attentionFactor)}; rope_type <code>{analysis.data.methods[0].ropeScaling.rope_scaling?.rope_type ?? "none"}</code>.

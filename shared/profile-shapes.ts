@@ -1,0 +1,25 @@
+import type { ModelShape } from "./schemas/analysis";
+
+/*
+ * What each engine reads of a model profile, a revision's frozen snapshot of one, or a stored row. The server
+ * (analyses, revision checks, frozen budgets) and the client (workbench, plan editor, plan budget sheet) all take
+ * their shapes from here, so both sides ask the engines exactly the same question for the same profile.
+ */
+
+type RotarySource = Required<Omit<ModelShape, "partialRotaryFactor">> & { partialRotaryFactor: number };
+
+/** The rotary engine's model shape (the analysis schema is strict: only these keys). */
+export const rotaryShapeOf = (m: RotarySource): ModelShape => ({
+  headDim: m.headDim, ropeTheta: m.ropeTheta, trainedContext: m.trainedContext, partialRotaryFactor: m.partialRotaryFactor,
+  layers: m.layers, attentionHeads: m.attentionHeads, kvHeads: m.kvHeads, hiddenSize: m.hiddenSize,
+});
+
+type BudgetSource = {
+  parameters: number; layers: number; attentionHeads: number; kvHeads: number; headDim: number; hiddenSize: number; bytesPerElement: number;
+};
+
+/** The budget engine's model shape; the parameter count is whole (the estimate schema takes an integer count). */
+export const budgetShapeOf = (m: BudgetSource) => ({
+  parameters: Math.round(m.parameters), layers: m.layers, attentionHeads: m.attentionHeads, kvHeads: m.kvHeads,
+  headDim: m.headDim, hiddenSize: m.hiddenSize, bytesPerElement: m.bytesPerElement,
+});
