@@ -15,7 +15,7 @@ import {
   trainingMemoryPerAccelerator,
   weightBytes,
 } from "./memory";
-import { cumulativeTokens, stageTokens } from "./stages";
+import { cumulativeTokens, stageTokens } from "../../../shared/stage-tokens";
 import type { BudgetEstimate, BudgetTotals, ResolvedBudgetInput, StageEstimate, StageInput } from "./types";
 
 const GIB = 2 ** 30;

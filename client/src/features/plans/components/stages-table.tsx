@@ -1,10 +1,9 @@
 import type { Stage } from "../../../../../shared/schemas/plans";
+import { stageTokens } from "../../../../../shared/stage-tokens";
 import { formatCount, formatScientific } from "../../../lib/format";
 import { describeParams, methodShort } from "../lib/method-table";
 import { FramedTable } from "../../../components/framed-table";
 
-/** Tokens trained in one stage: steps × global batch (sequences) × sequence length (DOMAIN notes, Budget). */
-export const stageTokens = (s: Pick<Stage, "steps" | "globalBatch" | "sequenceLength">) => s.steps * s.globalBatch * s.sequenceLength;
 
 export function StagesTable({ stages }: { stages: Stage[] }) {
   if (stages.length === 0) return <p className="text-body text-ink-soft">No stages: the plan goes to its target in one step.</p>;
@@ -38,7 +37,7 @@ export function StagesTable({ stages }: { stages: Stage[] }) {
             <td className="px-3 py-2">{formatCount(s.globalBatch)}</td>
             <td className="px-3 py-2">{formatCount(s.sequenceLength)}</td>
             <td className="px-3 py-2">{formatScientific(s.learningRate)}</td>
-            <td className="px-3 py-2">{formatCount(stageTokens(s))}</td>
+            <td className="px-3 py-2">{formatCount(stageTokens(s).tokens)}</td>
             <td className="px-3 py-2 text-note">{s.dataMix || "—"}</td>
           </tr>
         ))}

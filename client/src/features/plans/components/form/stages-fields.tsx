@@ -3,14 +3,14 @@ import { MAX_STAGES } from "../../../../../../shared/schemas/plans";
 import { Button } from "../../../../components/button";
 import { formatCount } from "../../../../lib/format";
 import { newStage, type RevisionForm } from "../../lib/form-values";
-import { stageTokens } from "../stages-table";
+import { stageTokens } from "../../../../../../shared/stage-tokens";
 import { MethodFields } from "./method-fields";
 import { NumberField, TextFormField, useFieldError } from "./form-field";
 
 function StageTokens({ index }: { index: number }) {
   const { control } = useFormContext<RevisionForm>();
   const stage = useWatch({ control, name: `revision.stages.${index}` });
-  const tokens = stage ? stageTokens({ steps: Number(stage.steps), globalBatch: Number(stage.globalBatch), sequenceLength: Number(stage.sequenceLength) }) : NaN;
+  const tokens = stage ? stageTokens({ steps: Number(stage.steps), globalBatch: Number(stage.globalBatch), sequenceLength: Number(stage.sequenceLength) }).tokens : NaN;
   return (
     <p className="text-note text-ink-soft">
       Tokens trained: {Number.isFinite(tokens) ? formatCount(tokens) : "—"} (steps × global batch × sequence length)

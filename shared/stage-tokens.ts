@@ -1,4 +1,6 @@
-import type { StageInput } from "./types";
+import type { StageRequest as StageInput } from "./schemas/budget";
+
+// The token rule of a training stage, read by the budget engine (server/engine/budget) and by the plan pages.
 
 export interface StageTokens {
   steps: number;
