@@ -2,6 +2,7 @@ import type { AppDeps } from "../../deps";
 import { optionalUser } from "../../http/auth";
 import { HttpError } from "../../platform/errors";
 import { route, type ApiFeature } from "../../http/route";
+import { noStore } from "../../http/no-store";
 import { destroySession, newCsrfToken, regenerate, saveSession, SESSION_COOKIE } from "../../http/session";
 import { changePasswordRequestSchema, loginRequestSchema, loginResponseSchema, sessionResponseSchema } from "../../../shared/schemas";
 import { changePassword } from "../users";
@@ -16,12 +17,7 @@ const secure = (deps: AppDeps) => deps.config.cookieSecure;
 export const authFeature: ApiFeature = {
   prefix: "/auth",
   tag: "auth",
-  use: [
-    (_req, res, next) => {
-      res.set("Cache-Control", "no-store");
-      next();
-    },
-  ],
+  use: [noStore],
   routes: [
     // Signed in: the session's synchronizer token. Anonymous: a signed cookie token, so no session row is stored.
     route({

@@ -1,4 +1,5 @@
 import { route, type ApiFeature } from "../../http/route";
+import { noStore } from "../../http/no-store";
 import { createdTokenSchema, createTokenRequestSchema, idParamSchema } from "../../../shared/schemas";
 import { tokenListResponseSchema } from "../../../shared/schemas/admin-views";
 import { createToken, listTokens, revokeToken } from "./tokens.service";
@@ -7,13 +8,8 @@ import { createToken, listTokens, revokeToken } from "./tokens.service";
 export const tokensFeature: ApiFeature = {
   prefix: "/tokens",
   tag: "tokens",
-  use: [
-    // A created token's secret appears in exactly one answer; nothing may cache it.
-    (_req, res, next) => {
-      res.set("Cache-Control", "no-store");
-      next();
-    },
-  ],
+  // A created token's secret appears in exactly one answer; nothing may cache it.
+  use: [noStore],
   routes: [
     route({
       method: "get", path: "/", summary: "My API tokens", access: "signed-in",
