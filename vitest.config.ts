@@ -1,4 +1,5 @@
 import { defineConfig } from "vitest/config";
+import { alias } from "./vite.config";
 
 /*
  * Three layers, assigned by folder so a new test file lands in the right one without touching this file:
@@ -16,11 +17,16 @@ const BROWSER = "tests/setup/global-browser.ts";
 function layer(name: string, folders: string[], globalSetup: string[], serialOrder: number) {
   const include = folders.map((f) => `${f}/**/*.test.ts`);
   return [
-    { test: { ...base, name, include, exclude: [SERIAL], globalSetup } },
+    { resolve: { alias }, test: { ...base, name, include, exclude: [SERIAL], globalSetup } },
     {
+      resolve: { alias },
       test: {
-        ...base, name: `${name}-serial`, include: folders.map((f) => `${f}/${SERIAL}`), globalSetup,
-        fileParallelism: false, sequence: { groupOrder: serialOrder },
+        ...base,
+        name: `${name}-serial`,
+        include: folders.map((f) => `${f}/${SERIAL}`),
+        globalSetup,
+        fileParallelism: false,
+        sequence: { groupOrder: serialOrder },
       },
     },
   ];

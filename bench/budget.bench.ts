@@ -25,7 +25,11 @@ function timePerCall(label: string, input: ResolvedBudgetInput, budgetMs = 300) 
     calls++;
   }
   const perCallUs = ((performance.now() - start) * 1000) / calls;
-  console.log(`  ${label.padEnd(44)} ${perCallUs.toFixed(1).padStart(8)} µs/estimate  ${Math.round(1e6 / perCallUs).toString().padStart(8)} /s`);
+  console.log(
+    `  ${label.padEnd(44)} ${perCallUs.toFixed(1).padStart(8)} µs/estimate  ${Math.round(1e6 / perCallUs)
+      .toString()
+      .padStart(8)} /s`,
+  );
 }
 
 const fmt = (x: number, digits = 4) => x.toPrecision(digits);
@@ -36,11 +40,19 @@ export async function runBudgetBench(): Promise<void> {
   timePerCall("4 stages, 9 growth points, 512 accelerators", planWith(4, 9, 512));
   timePerCall("32 stages, 64 growth points, 1e6 accelerators", planWith(32, 64, 1_000_000));
 
-  console.log("  reference: recipes on the round 7e9 shape (GQA 8 KV heads), 64 × (1e15 FLOP/s, 80e9 B, 2/h), MFU 0.4, target 65 536");
+  console.log(
+    "  reference: recipes on the round 7e9 shape (GQA 8 KV heads), 64 × (1e15 FLOP/s, 80e9 B, 2/h), MFU 0.4, target 65 536",
+  );
   for (const recipe of BUDGET_RECIPES) {
     for (const convention of ["causal", "full"] as const) {
       const stage = recipeStage(recipe, 65_536, 64);
-      const estimate = estimateBudget({ model: SHAPE, cluster: ACCELERATOR, accelerators: 64, convention, stages: [stage] });
+      const estimate = estimateBudget({
+        model: SHAPE,
+        cluster: ACCELERATOR,
+        accelerators: 64,
+        convention,
+        stages: [stage],
+      });
       const [s] = estimate.stages;
       console.log(
         `    ${recipe.id.padEnd(23)} ${convention.padEnd(6)} tokens ${fmt(s.tokens)}  FLOPs ${fmt(s.flops)}  ` +

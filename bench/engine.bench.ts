@@ -41,10 +41,14 @@ function timed<T>(fn: () => T): { value: T; ms: number } {
 }
 
 function supportedLengthFigures() {
-  console.log("  supported length of one base, d = 128 (Men et al. 2024), fast (median of 9) vs plain scan up to 2^24:");
+  console.log(
+    "  supported length of one base, d = 128 (Men et al. 2024), fast (median of 9) vs plain scan up to 2^24:",
+  );
   for (const base of [10_000, 500_000, 1_000_000, 1e8]) {
     const theta = inverseFrequencies(128, base);
-    const runs = Array.from({ length: 9 }, () => timed(() => supportedLength(theta, 2 ** 24))).sort((a, b) => a.ms - b.ms);
+    const runs = Array.from({ length: 9 }, () => timed(() => supportedLength(theta, 2 ** 24))).sort(
+      (a, b) => a.ms - b.ms,
+    );
     const fast = runs[4]; // median of 9
     const plain = timed(() => supportedLengthNaive(theta, 2 ** 24));
     const same = fast.value === plain.value ? "identical" : "DIFFERENT";
@@ -65,14 +69,19 @@ function gridSearchFigures(d: number, withPlain: boolean) {
   if (!withPlain) return;
   console.log("    plain scan of the same candidates (takes a while)…");
   const plain = timed(() => smallestSupportingBase(d, TARGET, DEFAULT_BASE_GRID, { scan: supportedLengthNaive }));
-  const same = JSON.stringify(plain.value) === JSON.stringify(r) ? "identical answer" : `DIFFERENT: ${JSON.stringify(plain.value)}`;
+  const same =
+    JSON.stringify(plain.value) === JSON.stringify(r)
+      ? "identical answer"
+      : `DIFFERENT: ${JSON.stringify(plain.value)}`;
   console.log(`    plain ${(plain.ms / 1000).toFixed(1)} s  → fast is ×${(plain.ms / fast.ms).toFixed(0)}  ${same}`);
 }
 
 export async function runEngineBench(): Promise<void> {
   console.log(`rotary engine (${METHOD_IDS.length} methods)`);
   const everyRequest = (d: number, ropeTheta: number) => ({
-    model: { headDim: d, ropeTheta, trainedContext: 8192 }, targetContext: TARGET, methods: everyMethod(d),
+    model: { headDim: d, ropeTheta, trainedContext: 8192 },
+    targetContext: TARGET,
+    methods: everyMethod(d),
   });
   timeAnalysis(`analysis, d = 128, b = 5e5, L = 8192 → ${TARGET}`, everyRequest(128, 500_000));
   timeAnalysis(`analysis, d = 256, b = 1e4, L = 8192 → ${TARGET}`, everyRequest(256, 10_000));

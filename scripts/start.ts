@@ -56,7 +56,8 @@ function buildClientIfStale(clientDir: string) {
 /** Outside production, and unless SMTP_URL points elsewhere, mail goes to a sink on loopback; returns the line to print. */
 async function startLocalMailSink(config: ReturnType<typeof loadConfig>): Promise<string> {
   if (process.env.SMTP_URL) return "Mail goes to the SMTP server named in SMTP_URL.";
-  if (config.env === "production") return "Mail: SMTP_URL is not set, so mail waits in the outbox (admins see it on the Mail page).";
+  if (config.env === "production")
+    return "Mail: SMTP_URL is not set, so mail waits in the outbox (admins see it on the Mail page).";
   const where = `127.0.0.1:${config.mailSinkPort}`;
   try {
     // Its own small pool; it lives as long as the process.
@@ -87,7 +88,9 @@ async function main() {
   if (!process.env.DATABASE_URL) {
     // Our own loopback cluster; the script creates the owner and app roles, prints the URLs on stdout and explains
     // problems on stderr. The config's defaults name the same roles and database.
-    execFileSync("bash", [path.join(root, "docker-free-db-scripts/start.sh"), "ropewalk"], { stdio: ["ignore", "ignore", "inherit"] });
+    execFileSync("bash", [path.join(root, "docker-free-db-scripts/start.sh"), "ropewalk"], {
+      stdio: ["ignore", "ignore", "inherit"],
+    });
   }
   await migrateDatabase(migrationUrl(config), config.databaseUrl);
   // Seeding is plain inserts, so it runs as the app role like everything after it.

@@ -20,7 +20,10 @@ const docsFeature: ApiFeature = {
   tag: "system",
   routes: [
     route({
-      method: "get", path: "/openapi.json", summary: "This API as an OpenAPI 3 document", access: "public",
+      method: "get",
+      path: "/openapi.json",
+      summary: "This API as an OpenAPI 3 document",
+      access: "public",
       responses: { 200: z.record(z.string(), z.unknown()).describe("OpenAPI 3.0 document") },
       handler: () => ({ status: 200, body: openApiDocument(ALL_FEATURES) as Record<string, unknown> }),
     }),
@@ -32,8 +35,17 @@ export const OPEN_FEATURES: readonly ApiFeature[] = [healthFeature, docsFeature,
 
 /** Mounted after sessions, bearer tokens, CSRF and the JSON body parser. */
 export const SESSION_FEATURES: readonly ApiFeature[] = [
-  authFeature, usersFeature, modelsFeature(plansUsingModel), analysesFeature, boundsFeature, plansFeature, tokensFeature, auditFeature, mailFeature,
-  budgetsFeature, acceleratorsFeature,
+  authFeature,
+  usersFeature,
+  modelsFeature(plansUsingModel),
+  analysesFeature,
+  boundsFeature,
+  plansFeature,
+  tokensFeature,
+  auditFeature,
+  mailFeature,
+  budgetsFeature,
+  acceleratorsFeature,
 ];
 
 /** Every route the server answers under /api; the OpenAPI document is generated from this list. */

@@ -27,7 +27,10 @@ export function createApp(deps: AppDeps) {
   app.use(
     helmet({
       contentSecurityPolicy: {
-        directives: { "img-src": ["'self'", "data:", "blob:"], "upgrade-insecure-requests": deps.config.cookieSecure ? [] : null },
+        directives: {
+          "img-src": ["'self'", "data:", "blob:"],
+          "upgrade-insecure-requests": deps.config.cookieSecure ? [] : null,
+        },
       },
       strictTransportSecurity: deps.config.cookieSecure,
     }),

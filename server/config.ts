@@ -61,7 +61,13 @@ export interface Config {
    * Failed sign-ins allowed per window: per account+address (tight), per address, and per account across all
    * addresses (a higher ceiling over a longer window, so strangers cannot lock the owner out quickly).
    */
-  login: { perAccountAddress: number; perAddress: number; windowMs: number; perAccount: number; accountWindowMs: number };
+  login: {
+    perAccountAddress: number;
+    perAddress: number;
+    windowMs: number;
+    perAccount: number;
+    accountWindowMs: number;
+  };
   /** Ed25519 private key (PKCS#8 PEM, mode 0600) that signs decisions; created at first start when missing. */
   signingKeyFile: string;
   bcryptCost: number;
@@ -87,7 +93,9 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
     host: e.HOST,
     port: e.PORT,
     databaseUrl: e.DATABASE_URL ?? localDatabaseUrl(LOCAL_APP_ROLE, e.PGPORT),
-    migrationDatabaseUrl: e.MIGRATION_DATABASE_URL ?? (e.DATABASE_URL ? (production ? null : e.DATABASE_URL) : localDatabaseUrl(LOCAL_OWNER_ROLE, e.PGPORT)),
+    migrationDatabaseUrl:
+      e.MIGRATION_DATABASE_URL ??
+      (e.DATABASE_URL ? (production ? null : e.DATABASE_URL) : localDatabaseUrl(LOCAL_OWNER_ROLE, e.PGPORT)),
     sessionSecret: e.SESSION_SECRET ?? "ropewalk-local-development-secret",
     cookieSecure: production,
     trustProxy: e.TRUST_PROXY ?? false,

@@ -34,10 +34,17 @@ function cleanMessage(e: Loose): string {
 
 /** Stack frames only: the first line of a stack repeats the message, which may hold the values removed above. */
 const framesOf = (stack: unknown) =>
-  typeof stack === "string" ? stack.split("\n").filter((l) => /^\s+at /.test(l)).slice(0, 12).join("\n") || undefined : undefined;
+  typeof stack === "string"
+    ? stack
+        .split("\n")
+        .filter((l) => /^\s+at /.test(l))
+        .slice(0, 12)
+        .join("\n") || undefined
+    : undefined;
 
 export function safeError(err: unknown, depth = 0): SafeError {
-  if (!(err instanceof Error)) return { type: typeof err, message: typeof err === "string" ? err.split("\n")[0] : "non-error value thrown" };
+  if (!(err instanceof Error))
+    return { type: typeof err, message: typeof err === "string" ? err.split("\n")[0] : "non-error value thrown" };
   const e = err as Loose;
   const out: SafeError = { type: e.constructor?.name || e.name || "Error", message: cleanMessage(e) };
   const code = str(e.code);

@@ -9,9 +9,25 @@ export type { Logger };
  * that someone logs by hand.
  */
 export const REDACT_PATHS = [
-  "req.headers.authorization", "req.headers.cookie", 'req.headers["x-csrf-token"]', 'res.headers["set-cookie"]',
-  ...["password", "currentPassword", "newPassword", "passwordHash", "password_hash", "token", "tokenHash", "token_hash",
-    "csrfToken", "secret", "cookie", "authorization", "params"].flatMap((k) => [k, `*.${k}`]),
+  "req.headers.authorization",
+  "req.headers.cookie",
+  'req.headers["x-csrf-token"]',
+  'res.headers["set-cookie"]',
+  ...[
+    "password",
+    "currentPassword",
+    "newPassword",
+    "passwordHash",
+    "password_hash",
+    "token",
+    "tokenHash",
+    "token_hash",
+    "csrfToken",
+    "secret",
+    "cookie",
+    "authorization",
+    "params",
+  ].flatMap((k) => [k, `*.${k}`]),
 ];
 
 /** Query values can carry e-mails, ids or tokens: keep the names, drop the values. */
@@ -19,7 +35,9 @@ export function redactQuery(url: string): string {
   const q = url.indexOf("?");
   if (q < 0) return url;
   const names = [...new URLSearchParams(url.slice(q + 1)).keys()];
-  return names.length ? `${url.slice(0, q)}?${names.map((n) => `${encodeURIComponent(n)}=[redacted]`).join("&")}` : url.slice(0, q);
+  return names.length
+    ? `${url.slice(0, q)}?${names.map((n) => `${encodeURIComponent(n)}=[redacted]`).join("&")}`
+    : url.slice(0, q);
 }
 
 export interface LoggerOptions {

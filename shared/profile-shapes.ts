@@ -10,16 +10,33 @@ type RotarySource = Required<Omit<ModelShape, "partialRotaryFactor">> & { partia
 
 /** The rotary engine's model shape (the analysis schema is strict: only these keys). */
 export const rotaryShapeOf = (m: RotarySource): ModelShape => ({
-  headDim: m.headDim, ropeTheta: m.ropeTheta, trainedContext: m.trainedContext, partialRotaryFactor: m.partialRotaryFactor,
-  layers: m.layers, attentionHeads: m.attentionHeads, kvHeads: m.kvHeads, hiddenSize: m.hiddenSize,
+  headDim: m.headDim,
+  ropeTheta: m.ropeTheta,
+  trainedContext: m.trainedContext,
+  partialRotaryFactor: m.partialRotaryFactor,
+  layers: m.layers,
+  attentionHeads: m.attentionHeads,
+  kvHeads: m.kvHeads,
+  hiddenSize: m.hiddenSize,
 });
 
 type BudgetSource = {
-  parameters: number; layers: number; attentionHeads: number; kvHeads: number; headDim: number; hiddenSize: number; bytesPerElement: number;
+  parameters: number;
+  layers: number;
+  attentionHeads: number;
+  kvHeads: number;
+  headDim: number;
+  hiddenSize: number;
+  bytesPerElement: number;
 };
 
 /** The budget engine's model shape; the parameter count is whole (the estimate schema takes an integer count). */
 export const budgetShapeOf = (m: BudgetSource) => ({
-  parameters: Math.round(m.parameters), layers: m.layers, attentionHeads: m.attentionHeads, kvHeads: m.kvHeads,
-  headDim: m.headDim, hiddenSize: m.hiddenSize, bytesPerElement: m.bytesPerElement,
+  parameters: Math.round(m.parameters),
+  layers: m.layers,
+  attentionHeads: m.attentionHeads,
+  kvHeads: m.kvHeads,
+  headDim: m.headDim,
+  hiddenSize: m.hiddenSize,
+  bytesPerElement: m.bytesPerElement,
 });

@@ -28,7 +28,9 @@ export function createDb(databaseUrl: string, max = 10, timeouts: DbTimeouts = D
     connectionString: databaseUrl,
     max,
     connectionTimeoutMillis: timeouts.connectMs,
-    ...(timeouts.statementMs > 0 ? { statement_timeout: timeouts.statementMs, query_timeout: timeouts.statementMs + 1000 } : {}),
+    ...(timeouts.statementMs > 0
+      ? { statement_timeout: timeouts.statementMs, query_timeout: timeouts.statementMs + 1000 }
+      : {}),
   });
   watchPool(pool);
   const db = drizzle(pool, { schema });

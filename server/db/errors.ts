@@ -5,7 +5,20 @@ export const isUniqueViolation = (e: unknown) =>
 // SQLSTATE classes and codes that mean "the database is not there right now", not "the request was wrong":
 // 08 connection exception, 57P01–57P03 shutdown / cannot connect now, 57014 statement timeout (a hung server),
 // 53300 too many connections. Node socket errors and node-postgres' own timeout messages mean the same.
-const UNAVAILABLE_CODES = new Set(["57P01", "57P02", "57P03", "57014", "53300", "ECONNREFUSED", "ECONNRESET", "ETIMEDOUT", "EPIPE", "EHOSTUNREACH", "ENOTFOUND", "EAI_AGAIN"]);
+const UNAVAILABLE_CODES = new Set([
+  "57P01",
+  "57P02",
+  "57P03",
+  "57014",
+  "53300",
+  "ECONNREFUSED",
+  "ECONNRESET",
+  "ETIMEDOUT",
+  "EPIPE",
+  "EHOSTUNREACH",
+  "ENOTFOUND",
+  "EAI_AGAIN",
+]);
 const UNAVAILABLE_MESSAGES = [
   "Connection terminated", // node-postgres: server closed the socket, or connectionTimeoutMillis passed
   "timeout exceeded when trying to connect", // pg-pool: connectionTimeoutMillis

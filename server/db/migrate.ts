@@ -26,7 +26,9 @@ export async function migrateDatabase(ownerUrl: string, appUrl: string) {
 /** The owner URL, or a plain error naming the variable (production without MIGRATION_DATABASE_URL). */
 export function migrationUrl(config: Config): string {
   if (!config.migrationDatabaseUrl) {
-    throw new Error("MIGRATION_DATABASE_URL is required to run migrations (the role that owns the tables; DATABASE_URL is the app's role)");
+    throw new Error(
+      "MIGRATION_DATABASE_URL is required to run migrations (the role that owns the tables; DATABASE_URL is the app's role)",
+    );
   }
   return config.migrationDatabaseUrl;
 }

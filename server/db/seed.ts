@@ -40,10 +40,20 @@ async function seedUsers(db: Db, bcryptCost: number) {
       continue;
     }
     const passwordHash = await bcrypt.hash(DEMO_PASSWORD, bcryptCost);
-    const [row] = await db.insert(users).values({ ...u, passwordHash }).onConflictDoNothing().returning();
+    const [row] = await db
+      .insert(users)
+      .values({ ...u, passwordHash })
+      .onConflictDoNothing()
+      .returning();
     if (row) {
       people.set(u.email, row.id);
-      await recordAudit(db, { actorId: null, action: "user.created", subjectType: "user", subjectId: row.id, detail: { email: u.email, roles: u.roles, by: "demo seed" } });
+      await recordAudit(db, {
+        actorId: null,
+        action: "user.created",
+        subjectType: "user",
+        subjectId: row.id,
+        detail: { email: u.email, roles: u.roles, by: "demo seed" },
+      });
     }
   }
   return people;

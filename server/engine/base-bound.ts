@@ -60,11 +60,13 @@ export function scanSupportedLength(invFreq: ArrayLike<number>, maxLength: numbe
   let K = 0;
   while (2 ** (K + 1) <= maxLength) K++;
   // rotation tables by 2^k, filled only up to the largest jump used (short scans never pay for long jumps)
-  const powCos = new Float64Array((K + 1) * n), powSin = new Float64Array((K + 1) * n);
+  const powCos = new Float64Array((K + 1) * n),
+    powSin = new Float64Array((K + 1) * n);
   let builtK = -1;
   const buildUpTo = (k: number) => {
     for (; builtK < k; builtK++) {
-      const o = (builtK + 1) * n, h = 2 ** (builtK + 1);
+      const o = (builtK + 1) * n,
+        h = 2 ** (builtK + 1);
       for (let i = 0; i < n; i++) {
         powCos[o + i] = Math.cos(h * invFreq[i]);
         powSin[o + i] = Math.sin(h * invFreq[i]);
@@ -79,8 +81,11 @@ export function scanSupportedLength(invFreq: ArrayLike<number>, maxLength: numbe
   }
   const margin = marginAt(maxLength, sumTheta);
 
-  const c = new Float64Array(n), s = new Float64Array(n);
-  let m = 0, sinceAnchor = REANCHOR_EVERY, evaluations = 0;
+  const c = new Float64Array(n),
+    s = new Float64Array(n);
+  let m = 0,
+    sinceAnchor = REANCHOR_EVERY,
+    evaluations = 0;
   while (m < maxLength) {
     if (sinceAnchor >= REANCHOR_EVERY) {
       for (let i = 0; i < n; i++) {
@@ -102,7 +107,10 @@ export function scanSupportedLength(invFreq: ArrayLike<number>, maxLength: numbe
     if (k > builtK) buildUpTo(k);
     const o = k * n;
     for (let i = 0; i < n; i++) {
-      const ci = c[i], si = s[i], a = powCos[o + i], b = powSin[o + i];
+      const ci = c[i],
+        si = s[i],
+        a = powCos[o + i],
+        b = powSin[o + i];
       c[i] = ci * a - si * b;
       s[i] = si * a + ci * b;
     }
@@ -113,15 +121,25 @@ export function scanSupportedLength(invFreq: ArrayLike<number>, maxLength: numbe
 }
 
 /** Fast scan to the end: first m < maxLength with B(m) < 0, or null; same answers as supportedLengthNaive. */
-export const supportedLength = (invFreq: ArrayLike<number>, maxLength: number, onProgress?: (position: number) => void) =>
-  scanSupportedLength(invFreq, maxLength, { onProgress }).supportedLength;
+export const supportedLength = (
+  invFreq: ArrayLike<number>,
+  maxLength: number,
+  onProgress?: (position: number) => void,
+) => scanSupportedLength(invFreq, maxLength, { onProgress }).supportedLength;
 
 /** Largest j with the lower bound on B(m+j) still ≥ margin (0 when B itself is within the margin). */
-function safeSteps(theta: ArrayLike<number>, c: Float64Array, s: Float64Array, tailSq: Float64Array, slack: number): number {
+function safeSteps(
+  theta: ArrayLike<number>,
+  c: Float64Array,
+  s: Float64Array,
+  tailSq: Float64Array,
+  slack: number,
+): number {
   const n = theta.length;
   let slope = 0; // Σ_{i≥p} θ_i sin x_i
   for (let i = 0; i < n; i++) slope += theta[i] * s[i];
-  let best = 0, lost = 0; // lost = Σ_{i<p} (1 + cos x_i)
+  let best = 0,
+    lost = 0; // lost = Σ_{i<p} (1 + cos x_i)
   for (let p = 0; p < n; p++) {
     const D = slack - lost;
     if (D <= 0) break;

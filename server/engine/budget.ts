@@ -27,6 +27,13 @@ export {
 } from "./budget/memory";
 export { cumulativeTokens, stageTokens, tokensPerStep, type StageTokens } from "../../shared/stage-tokens";
 export { growthCurve, logSpacedLengths } from "./budget/growth";
-export { BUDGET_RECIPES, RECIPE_CAUTION, findRecipe, recipeStage, type BudgetRecipe, type BudgetRecipeId } from "./budget/recipes";
+export {
+  BUDGET_RECIPES,
+  RECIPE_CAUTION,
+  findRecipe,
+  recipeStage,
+  type BudgetRecipe,
+  type BudgetRecipeId,
+} from "./budget/recipes";
 export { BUDGET_DEFAULTS, GROWTH_REACH } from "./budget/defaults";
 export type * from "./budget/types";

@@ -4,7 +4,9 @@
  * One pass over the pairs with a running complex sum gives every S_j.
  */
 export function relativeUpperBound(invFreq: ArrayLike<number>, m: number): number {
-  let re = 0, im = 0, acc = 0;
+  let re = 0,
+    im = 0,
+    acc = 0;
   for (let i = 0; i < invFreq.length; i++) {
     const a = m * invFreq[i];
     re += Math.cos(a);
@@ -29,4 +31,5 @@ export function decayPositions(upTo: number, perDecade = 16): number[] {
   return out;
 }
 
-export const decayCurve = (invFreq: ArrayLike<number>, positions: number[]) => positions.map((m) => relativeUpperBound(invFreq, m));
+export const decayCurve = (invFreq: ArrayLike<number>, positions: number[]) =>
+  positions.map((m) => relativeUpperBound(invFreq, m));

@@ -19,10 +19,23 @@ export function criticalBase(base: number, trained: number, tune: number): numbe
  * Extrapolation bound (Theorem 3) for a model of original base b and trained length L tuned with base β at T_tune:
  * above the critical base T_extra = 2π·β^(d_extra/d); otherwise the bound is T_tune.
  */
-export function extrapolationBound(p: { d: number; originalBase: number; trained: number; base: number; tune: number }): ExtrapolationBound {
+export function extrapolationBound(p: {
+  d: number;
+  originalBase: number;
+  trained: number;
+  base: number;
+  tune: number;
+}): ExtrapolationBound {
   const dExtra = criticalDimension(p.d, p.originalBase, p.trained);
   const beta0 = criticalBase(p.originalBase, p.trained, p.tune);
   const tExtra = 2 * Math.PI * Math.pow(p.base, dExtra / p.d);
   const above = p.base > beta0;
-  return { base: p.base, tuneContext: p.tune, criticalBase: beta0, baseAboveCritical: above, tExtra, bound: above ? tExtra : p.tune };
+  return {
+    base: p.base,
+    tuneContext: p.tune,
+    criticalBase: beta0,
+    baseAboveCritical: above,
+    tExtra,
+    bound: above ? tExtra : p.tune,
+  };
 }

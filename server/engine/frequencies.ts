@@ -16,8 +16,10 @@ export function rotate(vec: ArrayLike<number>, position: number, invFreq: ArrayL
   const out = new Float64Array(vec.length);
   for (let i = 0; i < invFreq.length; i++) {
     const angle = position * invFreq[i];
-    const c = Math.cos(angle), s = Math.sin(angle);
-    const x = vec[2 * i], y = vec[2 * i + 1];
+    const c = Math.cos(angle),
+      s = Math.sin(angle);
+    const x = vec[2 * i],
+      y = vec[2 * i + 1];
     out[2 * i] = x * c - y * s;
     out[2 * i + 1] = x * s + y * c;
   }

@@ -22,7 +22,8 @@ export function classifyPairs(invFreq: ArrayLike<number>, scaled: ArrayLike<numb
   const L = w.trainedContext;
   const out: PairResult[] = [];
   for (let i = 0; i < invFreq.length; i++) {
-    const theta = invFreq[i], thetaScaled = scaled[i];
+    const theta = invFreq[i],
+      thetaScaled = scaled[i];
     const lambda = wavelength(theta);
     const rotations = L / lambda;
     const exceedsTrainedWindow = lambda > L;
@@ -45,7 +46,9 @@ export function classifyPairs(invFreq: ArrayLike<number>, scaled: ArrayLike<numb
 }
 
 export function summarisePairs(pairs: PairResult[]) {
-  let unseenAnglesPairs = 0, compressedResolutionPairs = 0, exceedsTrainedWindowPairs = 0;
+  let unseenAnglesPairs = 0,
+    compressedResolutionPairs = 0,
+    exceedsTrainedWindowPairs = 0;
   for (const p of pairs) {
     if (p.unseenAngles) unseenAnglesPairs++;
     if (p.compressedResolution) compressedResolutionPairs++;

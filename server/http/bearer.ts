@@ -16,7 +16,11 @@ export function bearerAuth(deps: AppDeps) {
     // ignoring it used to leave a cookie-authenticated request that skipped the CSRF check.
     const m = /^Bearer +([A-Za-z0-9_\-.~+/]+=*) *$/i.exec(header);
     if (!m) {
-      return next(new HttpError(401, "unauthorized", "the Authorization header is malformed", { authorization: "expected \"Bearer <token>\"" }));
+      return next(
+        new HttpError(401, "unauthorized", "the Authorization header is malformed", {
+          authorization: 'expected "Bearer <token>"',
+        }),
+      );
     }
     const token = await liveToken(deps.db, m[1]);
     const user = token ? await activeSessionUser(deps.db, token.userId) : undefined;
@@ -25,7 +29,13 @@ export function bearerAuth(deps: AppDeps) {
       if (onlyReads(token.scopes) && req.method !== "GET" && req.method !== "HEAD") {
         return next(new HttpError(403, "read_only_token", "this API token is read-only"));
       }
-      return next(new HttpError(403, "token_scope", `this API token's scopes (${token.scopes.join(", ")}) do not allow ${req.method} /api${req.path}`));
+      return next(
+        new HttpError(
+          403,
+          "token_scope",
+          `this API token's scopes (${token.scopes.join(", ")}) do not allow ${req.method} /api${req.path}`,
+        ),
+      );
     }
     res.locals.user = user;
     res.locals.viaToken = true;
@@ -35,5 +45,5 @@ export function bearerAuth(deps: AppDeps) {
 
 /** Runs the wrapped middleware only for requests without a bearer token. */
 export const unlessBearer =
-  (mw: (req: Request, res: Response, next: NextFunction) => void) => (req: Request, res: Response, next: NextFunction) =>
-    res.locals.viaToken ? next() : mw(req, res, next);
+  (mw: (req: Request, res: Response, next: NextFunction) => void) =>
+  (req: Request, res: Response, next: NextFunction) => (res.locals.viaToken ? next() : mw(req, res, next));

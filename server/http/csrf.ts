@@ -26,7 +26,8 @@ function originProblem(req: Request, publicOrigin: string): string | undefined {
     return origin === own || origin === publicOrigin ? undefined : `requests from ${origin} are not accepted`;
   }
   const site = req.get("sec-fetch-site");
-  if (site !== undefined && site !== "same-origin" && site !== "none") return `cross-site requests (${site}) are not accepted`;
+  if (site !== undefined && site !== "same-origin" && site !== "none")
+    return `cross-site requests (${site}) are not accepted`;
   return undefined;
 }
 

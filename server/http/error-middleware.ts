@@ -20,15 +20,19 @@ export function errorMiddleware(err: unknown, req: Request, res: Response, _next
     return send(400, "invalid", `invalid input: ${Object.keys(fields).join(", ")}`, fields);
   }
   const bp = err as BodyParserError;
-  if (bp?.type === "entity.parse.failed") return send(400, "malformed_json", "the request body is not valid JSON", { "(body)": "not valid JSON" });
+  if (bp?.type === "entity.parse.failed")
+    return send(400, "malformed_json", "the request body is not valid JSON", { "(body)": "not valid JSON" });
   if (bp?.type === "entity.too.large") return send(413, "too_large", "the request body is too large");
-  if (bp?.type === "charset.unsupported" || bp?.type === "encoding.unsupported") return send(415, "unsupported", bp.message);
+  if (bp?.type === "charset.unsupported" || bp?.type === "encoding.unsupported")
+    return send(415, "unsupported", bp.message);
   const mu = err as MulterLike;
   if (mu?.name === "MulterError") {
-    if (mu.code === "LIMIT_FILE_SIZE") return send(413, "too_large", "the uploaded file is too large", { [mu.field ?? "file"]: "too large" });
+    if (mu.code === "LIMIT_FILE_SIZE")
+      return send(413, "too_large", "the uploaded file is too large", { [mu.field ?? "file"]: "too large" });
     return send(400, "invalid_upload", mu.message, { [mu.field ?? "file"]: mu.message });
   }
-  if (typeof bp?.status === "number" && bp.status >= 400 && bp.status < 500) return send(bp.status, "bad_request", bp.message);
+  if (typeof bp?.status === "number" && bp.status >= 400 && bp.status < 500)
+    return send(bp.status, "bad_request", bp.message);
 
   if (isDatabaseUnavailable(err)) {
     // Logged without the error object: driver errors can carry query parameters and connection details.

@@ -23,10 +23,15 @@ export function requestLog(logger: Logger) {
     },
     wrapSerializers: false,
     serializers: {
-      req: (req: IncomingMessage & { id?: unknown; originalUrl?: string }) => ({ id: req.id, method: req.method, url: redactQuery(req.originalUrl ?? req.url ?? "") }),
+      req: (req: IncomingMessage & { id?: unknown; originalUrl?: string }) => ({
+        id: req.id,
+        method: req.method,
+        url: redactQuery(req.originalUrl ?? req.url ?? ""),
+      }),
       res: (res: ServerResponse) => ({ statusCode: res.statusCode }),
       err: safeError,
     },
-    customLogLevel: (_req, res, err) => (err || res.statusCode >= 500 ? "error" : res.statusCode >= 400 ? "warn" : "info"),
+    customLogLevel: (_req, res, err) =>
+      err || res.statusCode >= 500 ? "error" : res.statusCode >= 400 ? "warn" : "info",
   });
 }

@@ -54,10 +54,13 @@ export interface RouteSpec<P extends z.ZodType, Q extends z.ZodType, B extends z
   responses: R;
   /** Extra middleware after the access check (rate limiters, uploads), built once per app. */
   middleware?: (deps: AppDeps) => RequestHandler[];
-  handler: (ctx: RouteContext<z.output<P>, z.output<Q>, z.output<B>>) => Promise<Answer<NoInfer<R>>> | Answer<NoInfer<R>>;
+  handler: (
+    ctx: RouteContext<z.output<P>, z.output<Q>, z.output<B>>,
+  ) => Promise<Answer<NoInfer<R>>> | Answer<NoInfer<R>>;
 }
 
-type AnyReply = { status: number; body: unknown } | { status: number; raw: string | null } | { status: number; streamed: true };
+type AnyReply =
+  { status: number; body: unknown } | { status: number; raw: string | null } | { status: number; streamed: true };
 
 /** A route with its types checked at definition and erased for the feature's list. */
 export interface ApiRoute {
@@ -71,7 +74,9 @@ export interface ApiRoute {
   form?: { contentType: string; schema: z.ZodType };
   responses: Responses;
   middleware?: (deps: AppDeps) => RequestHandler[];
-  handler: (ctx: RouteContext<unknown, unknown, unknown>) => Promise<AnyReply | typeof CLIENT_GONE> | AnyReply | typeof CLIENT_GONE;
+  handler: (
+    ctx: RouteContext<unknown, unknown, unknown>,
+  ) => Promise<AnyReply | typeof CLIENT_GONE> | AnyReply | typeof CLIENT_GONE;
 }
 
 export function route<
@@ -96,7 +101,9 @@ export const isRaw = (spec: ResponseSpec): spec is RawResponse => !(spec instanc
 /** Thrown in tests (logged in development) when a handler's JSON does not match the route's declared schema. */
 export class ResponseMismatch extends Error {
   constructor(where: string, issues: z.core.$ZodIssue[]) {
-    super(`${where}: response does not match its schema: ${issues.map((i) => `${i.path.join(".") || "(body)"}: ${i.message}`).join("; ")}`);
+    super(
+      `${where}: response does not match its schema: ${issues.map((i) => `${i.path.join(".") || "(body)"}: ${i.message}`).join("; ")}`,
+    );
   }
 }
 
@@ -141,7 +148,12 @@ export function mountFeature(feature: ApiFeature, deps: AppDeps): Router {
         const query = def.query ? parseOr400(def.query, req.query, "query") : undefined;
         const body = def.body ? parseOr400(def.body, req.body ?? {}, "body") : undefined;
         const ctx: RouteContext<unknown, unknown, unknown> = {
-          deps, req, res, params, query, body,
+          deps,
+          req,
+          res,
+          params,
+          query,
+          body,
           get user() {
             return currentUser(res);
           },

@@ -39,7 +39,13 @@ function commentBlock(actorName: string, comment?: string): string[] {
 }
 
 function footer(m: PlanMailInput): string[] {
-  return [`Open the plan: ${m.url}`, `Content hash (SHA-256): ${m.contentHash}`, "", "-- ", "Ropewalk, context-extension planning"];
+  return [
+    `Open the plan: ${m.url}`,
+    `Content hash (SHA-256): ${m.contentHash}`,
+    "",
+    "-- ",
+    "Ropewalk, context-extension planning",
+  ];
 }
 
 function compose(kind: PlanMailKind, subject: string, m: PlanMailInput, lead: string[]): PlanMail {

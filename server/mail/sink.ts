@@ -40,7 +40,12 @@ async function store(db: Db, raw: Buffer, session: SMTPServerSession) {
   });
 }
 
-export async function startMailSink({ db, port, host = "127.0.0.1", maxBytes = DEFAULT_MAX_BYTES }: MailSinkOptions): Promise<MailSink> {
+export async function startMailSink({
+  db,
+  port,
+  host = "127.0.0.1",
+  maxBytes = DEFAULT_MAX_BYTES,
+}: MailSinkOptions): Promise<MailSink> {
   const server = new SMTPServer({
     banner: "Ropewalk local mail sink",
     authOptional: true,
@@ -55,7 +60,8 @@ export async function startMailSink({ db, port, host = "127.0.0.1", maxBytes = D
       stream.on("data", (c: Buffer) => chunks.push(c));
       stream.on("error", (e) => callback(e));
       stream.on("end", () => {
-        if (stream.sizeExceeded) return callback(smtpError(552, `message exceeds the sink's limit of ${maxBytes} bytes`));
+        if (stream.sizeExceeded)
+          return callback(smtpError(552, `message exceeds the sink's limit of ${maxBytes} bytes`));
         store(db, Buffer.concat(chunks), session).then(
           () => callback(),
           (e: unknown) => {

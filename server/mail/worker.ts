@@ -20,7 +20,11 @@ export interface OutboxWorker {
  * Polls the outbox every intervalMs. Runs never overlap (the next one is scheduled when the last ends);
  * a full batch sent without failures is followed at once by the next. Errors are logged, never thrown.
  */
-export function startOutboxWorker(deps: Pick<AppDeps, "db" | "config">, intervalMs = 1000, clock = realClock): OutboxWorker {
+export function startOutboxWorker(
+  deps: Pick<AppDeps, "db" | "config">,
+  intervalMs = 1000,
+  clock = realClock,
+): OutboxWorker {
   let stopped = false;
   let timer: { unref(): unknown } | undefined;
   let running: Promise<void> | undefined;

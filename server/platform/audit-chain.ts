@@ -38,8 +38,14 @@ export interface ChainFields {
  */
 export function auditRowHash(f: ChainFields): string {
   const envelope = canonicalize({
-    action: f.action, actorId: f.actorId, at: f.at, detail: f.detail, id: f.id,
-    prevHash: f.prevHash, subjectId: f.subjectId, subjectType: f.subjectType,
+    action: f.action,
+    actorId: f.actorId,
+    at: f.at,
+    detail: f.detail,
+    id: f.id,
+    prevHash: f.prevHash,
+    subjectId: f.subjectId,
+    subjectType: f.subjectType,
   });
   return createHash("sha256").update(envelope!, "utf8").digest("hex");
 }
@@ -61,13 +67,19 @@ export async function verifyAuditChain(ex: Executor): Promise<AuditChainReport> 
   let lastId = 0;
   let count = 0;
   for (;;) {
-    const rows = (await ex.execute<StoredRow>(sql`
+    const rows = (
+      await ex.execute<StoredRow>(sql`
       SELECT id::float8 AS "id", ${AT_TEXT("at")} AS "at", actor_id AS "actorId", action, subject_type AS "subjectType",
              subject_id AS "subjectId", detail::text AS "detail", prev_hash AS "prevHash", hash
-      FROM audit_events WHERE id > ${lastId} ORDER BY id LIMIT ${BATCH}`)).rows;
+      FROM audit_events WHERE id > ${lastId} ORDER BY id LIMIT ${BATCH}`)
+    ).rows;
     for (const row of rows) {
       if (row.prevHash !== prev) {
-        return { ok: false, count, brokenAt: { id: row.id, reason: "previous_hash_mismatch", previousId: lastId || null } };
+        return {
+          ok: false,
+          count,
+          brokenAt: { id: row.id, reason: "previous_hash_mismatch", previousId: lastId || null },
+        };
       }
       if (auditRowHash(row) !== row.hash) {
         return { ok: false, count, brokenAt: { id: row.id, reason: "hash_mismatch", previousId: lastId || null } };

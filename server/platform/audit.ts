@@ -26,12 +26,20 @@ async function appendLinked(tx: Tx, entry: AuditEntry) {
   // A JSON round trip drops undefined and turns dates into strings, exactly as the jsonb column will see them.
   const detailJson = JSON.stringify(entry.detail ?? {});
   await tx.execute(CHAIN_LOCK_SQL);
-  const head = (await tx.execute<{ id: string; at: string; detail: string; prev: string | null }>(sql`
+  const head = (
+    await tx.execute<{ id: string; at: string; detail: string; prev: string | null }>(sql`
     SELECT nextval(pg_get_serial_sequence('audit_events', 'id'))::text AS id, ${AT_TEXT("now()")} AS at,
-           ${detailJson}::jsonb::text AS detail, (SELECT hash FROM audit_events ORDER BY id DESC LIMIT 1) AS prev`)).rows[0];
+           ${detailJson}::jsonb::text AS detail, (SELECT hash FROM audit_events ORDER BY id DESC LIMIT 1) AS prev`)
+  ).rows[0];
   const row = {
-    id: Number(head.id), at: head.at, actorId: entry.actorId, action: entry.action, subjectType: entry.subjectType,
-    subjectId: entry.subjectId == null ? null : String(entry.subjectId), detail: head.detail, prevHash: head.prev ?? GENESIS_HASH,
+    id: Number(head.id),
+    at: head.at,
+    actorId: entry.actorId,
+    action: entry.action,
+    subjectType: entry.subjectType,
+    subjectId: entry.subjectId == null ? null : String(entry.subjectId),
+    detail: head.detail,
+    prevHash: head.prev ?? GENESIS_HASH,
   };
   await tx.insert(auditEvents).values({
     id: row.id,

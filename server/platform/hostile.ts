@@ -15,7 +15,10 @@ const NUL = "\u0000";
 /** Path segments shown in a field name: enough to find the input, not thousands of "a.a.a". */
 const SHOWN_SEGMENTS = 3;
 
-export interface HostileFinding { path: (string | number)[]; message: string }
+export interface HostileFinding {
+  path: (string | number)[];
+  message: string;
+}
 
 const shown = (key: string | number) => (typeof key === "string" ? key.replaceAll(NUL, "\\u0000") : key);
 
@@ -30,11 +33,15 @@ export function findHostile(value: unknown, maxDepth = MAX_JSON_DEPTH): HostileF
     }
     if (typeof v !== "object" || v === null) continue;
     if (path.length >= maxDepth) {
-      return { path: path.slice(0, SHOWN_SEGMENTS).map(shown), message: `nested deeper than ${maxDepth} levels, the limit for any JSON we accept` };
+      return {
+        path: path.slice(0, SHOWN_SEGMENTS).map(shown),
+        message: `nested deeper than ${maxDepth} levels, the limit for any JSON we accept`,
+      };
     }
     const entries: [string | number, unknown][] = Array.isArray(v) ? v.map((x, i) => [i, x]) : Object.entries(v);
     for (const [k, x] of entries) {
-      if (typeof k === "string" && k.includes(NUL)) return { path: [...path, k].map(shown), message: "field names must not contain the NUL character (U+0000)" };
+      if (typeof k === "string" && k.includes(NUL))
+        return { path: [...path, k].map(shown), message: "field names must not contain the NUL character (U+0000)" };
       stack.push({ v: x, path: [...path, k] });
     }
   }

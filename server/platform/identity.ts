@@ -28,16 +28,28 @@ export async function activeSessionUser(ex: Executor, id: number): Promise<Sessi
 export const hashTokenSecret = (secret: string) => crypto.createHash("sha256").update(secret).digest("hex");
 
 /** Stored scopes the server still knows; an unknown one (from a newer build, say) grants nothing here. */
-export const knownScopes = (stored: string[]): TokenScope[] => stored.flatMap((s) => {
-  const p = tokenScopeSchema.safeParse(s);
-  return p.success ? [p.data] : [];
-});
+export const knownScopes = (stored: string[]): TokenScope[] =>
+  stored.flatMap((s) => {
+    const p = tokenScopeSchema.safeParse(s);
+    return p.success ? [p.data] : [];
+  });
 
 /** The owner and scopes of a live token, or undefined; records when it was last used (at most once a minute). */
 export async function liveToken(db: Db, secret: string) {
-  const [row] = await db.select().from(apiTokens).where(and(eq(apiTokens.tokenHash, hashTokenSecret(secret)), isNull(apiTokens.revokedAt))).limit(1);
+  const [row] = await db
+    .select()
+    .from(apiTokens)
+    .where(and(eq(apiTokens.tokenHash, hashTokenSecret(secret)), isNull(apiTokens.revokedAt)))
+    .limit(1);
   if (!row) return undefined;
-  await db.update(apiTokens).set({ lastUsedAt: new Date() })
-    .where(and(eq(apiTokens.id, row.id), sql`(${apiTokens.lastUsedAt} IS NULL OR ${apiTokens.lastUsedAt} < now() - interval '1 minute')`));
+  await db
+    .update(apiTokens)
+    .set({ lastUsedAt: new Date() })
+    .where(
+      and(
+        eq(apiTokens.id, row.id),
+        sql`(${apiTokens.lastUsedAt} IS NULL OR ${apiTokens.lastUsedAt} < now() - interval '1 minute')`,
+      ),
+    );
   return { userId: row.userId, scopes: knownScopes(row.scopes) };
 }

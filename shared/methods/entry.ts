@@ -25,7 +25,11 @@ type ParamKey<S extends z.ZodObject> = Exclude<keyof z.output<S>, "method"> & st
  * One rotary scaling method: everything the engine, the config import and export, and both forms need to
  * know about it besides its formula (server/engine/methods/<id>.ts).
  */
-export interface MethodEntry<K extends string = string, S extends z.ZodObject = z.ZodObject, T extends string | null = string | null> {
+export interface MethodEntry<
+  K extends string = string,
+  S extends z.ZodObject = z.ZodObject,
+  T extends string | null = string | null,
+> {
   id: K;
   /** The name in pickers, legends and reports. */
   label: string;
@@ -53,7 +57,9 @@ export interface MethodEntry<K extends string = string, S extends z.ZodObject = 
 }
 
 /** Keeps the literal id and rope_type of an entry, so the catalog can derive the MethodId and rope_type unions. */
-export const defineMethod = <const K extends string, S extends z.ZodObject, const T extends string | null>(entry: MethodEntry<K, S, T>) => entry;
+export const defineMethod = <const K extends string, S extends z.ZodObject, const T extends string | null>(
+  entry: MethodEntry<K, S, T>,
+) => entry;
 
 /**
  * Keys every rope_type reads (or that sit in rope_scaling without changing the method): huggingface/transformers,
@@ -61,4 +67,11 @@ export const defineMethod = <const K extends string, S extends z.ZodObject, cons
  * 0044e3b, the v4.45 line: "type" is the older spelling of "rope_type"); rope_theta and partial_rotary_factor
  * appear in rope_scaling / rope_parameters of newer configs (from memory of the v4.5x `rope_parameters` form).
  */
-export const COMMON_SCALING_KEYS = ["rope_type", "type", "factor", "original_max_position_embeddings", "rope_theta", "partial_rotary_factor"] as const;
+export const COMMON_SCALING_KEYS = [
+  "rope_type",
+  "type",
+  "factor",
+  "original_max_position_embeddings",
+  "rope_theta",
+  "partial_rotary_factor",
+] as const;

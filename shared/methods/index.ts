@@ -31,7 +31,9 @@ export const METHODS_NEEDING_EXTENSION: readonly MethodId[] = METHOD_IDS.filter(
 
 // Look-ups by strings that come from users or files go through Maps, so "constructor" or "__proto__" find nothing.
 const BY_ID = new Map<string, AnyMethodEntry>(METHOD_IDS.map((id) => [id, methodEntry(id)]));
-const BY_ROPE_TYPE = new Map<string, AnyMethodEntry>(METHOD_IDS.flatMap((id) => methodEntry(id).ropeTypes.map((t) => [t, methodEntry(id)] as const)));
+const BY_ROPE_TYPE = new Map<string, AnyMethodEntry>(
+  METHOD_IDS.flatMap((id) => methodEntry(id).ropeTypes.map((t) => [t, methodEntry(id)] as const)),
+);
 
 /** The entry for a method id typed by someone (a URL, a stored plan), or undefined. */
 export const findMethod = (id: string): AnyMethodEntry | undefined => BY_ID.get(id);

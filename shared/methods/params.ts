@@ -11,10 +11,16 @@ export const MAX_HEAD_DIM = 1024;
 export const MAX_FACTOR_LIST = MAX_HEAD_DIM / 2;
 
 /** A token count: whole, positive, at most 2^31. zod's number() already refuses NaN and ±Infinity. */
-export const lengthSchema = z.number().int("must be a whole number of tokens").positive().max(MAX_LENGTH, "at most 2^31 tokens");
+export const lengthSchema = z
+  .number()
+  .int("must be a whole number of tokens")
+  .positive()
+  .max(MAX_LENGTH, "at most 2^31 tokens");
 export const positive = z.number().positive().max(1e12);
 export const factorSchema = z.number().min(1, "factor must be at least 1").max(MAX_LENGTH).optional();
-export const factorListSchema = z.array(z.number().positive("every factor must be positive").max(1e12)).min(1)
+export const factorListSchema = z
+  .array(z.number().positive("every factor must be positive").max(1e12))
+  .min(1)
   .max(MAX_FACTOR_LIST, `at most ${MAX_FACTOR_LIST} factors (one per rotary pair of a head dim up to ${MAX_HEAD_DIM})`);
 export const baseSchema = z.number().gt(1, "the base must exceed 1").max(1e15);
 

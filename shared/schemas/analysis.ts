@@ -51,21 +51,29 @@ export const methodParamsSchema = z.discriminatedUnion("method", METHOD_SCHEMAS)
 export type MethodParams = z.infer<typeof methodParamsSchema>;
 export type ParamsOf<K extends MethodId> = Extract<MethodParams, { method: K }>;
 
-export const bandsSchema = z.strictObject({ alpha: positive, beta: positive })
+export const bandsSchema = z
+  .strictObject({ alpha: positive, beta: positive })
   .refine((b) => b.beta > b.alpha, { path: ["beta"], message: "beta must exceed alpha" });
 export type Bands = z.infer<typeof bandsSchema>;
 export const DEFAULT_BANDS: Bands = { alpha: 1, beta: 32 };
 
-interface FieldIssue { path: (string | number)[]; message: string }
+interface FieldIssue {
+  path: (string | number)[];
+  message: string;
+}
 
 /** Rules that need the model: rotary dimension, target above trained context, longrope list lengths. */
 export function modelDependentIssues(model: ModelShape, targetContext: number, methods: MethodParams[]): FieldIssue[] {
   const issues: FieldIssue[] = [];
   const d = rotaryDimension(model);
   if (d === null) {
-    const field = model.partialRotaryFactor !== undefined && model.partialRotaryFactor !== 1 ? "partialRotaryFactor" : "headDim";
+    const field =
+      model.partialRotaryFactor !== undefined && model.partialRotaryFactor !== 1 ? "partialRotaryFactor" : "headDim";
     const raw = model.headDim * (model.partialRotaryFactor ?? 1);
-    issues.push({ path: ["model", field], message: `rotary dimension headDim × partialRotaryFactor = ${raw} must be a positive even integer` });
+    issues.push({
+      path: ["model", field],
+      message: `rotary dimension headDim × partialRotaryFactor = ${raw} must be a positive even integer`,
+    });
   }
   const needs = methods.findIndex((m) => METHODS_NEEDING_EXTENSION.includes(m.method));
   if (needs >= 0 && !(targetContext > model.trainedContext)) {
@@ -77,7 +85,11 @@ export function modelDependentIssues(model: ModelShape, targetContext: number, m
   methods.forEach((m, i) => {
     if (m.method !== "longrope" || d === null) return;
     for (const key of ["longFactor", "shortFactor"] as const) {
-      if (m[key].length !== d / 2) issues.push({ path: ["methods", i, key], message: `needs ${d / 2} entries (rotary dimension / 2), got ${m[key].length}` });
+      if (m[key].length !== d / 2)
+        issues.push({
+          path: ["methods", i, key],
+          message: `needs ${d / 2} entries (rotary dimension / 2), got ${m[key].length}`,
+        });
     }
   });
   return issues;
@@ -86,12 +98,18 @@ export function modelDependentIssues(model: ModelShape, targetContext: number, m
 const requestFields = {
   targetContext: lengthSchema,
   bands: bandsSchema.optional(),
-  methods: z.array(methodParamsSchema).min(1, "pick at least one method").max(MAX_METHODS, `at most ${MAX_METHODS} methods`),
+  methods: z
+    .array(methodParamsSchema)
+    .min(1, "pick at least one method")
+    .max(MAX_METHODS, `at most ${MAX_METHODS} methods`),
 };
 
 /** The request the engine runs: model already resolved. */
-export const resolvedAnalysisRequestSchema = z.object({ model: rotaryShapeSchema, ...requestFields })
-  .superRefine((r, ctx) => modelDependentIssues(r.model, r.targetContext, r.methods).forEach((i) => ctx.addIssue({ code: "custom", ...i })));
+export const resolvedAnalysisRequestSchema = z
+  .object({ model: rotaryShapeSchema, ...requestFields })
+  .superRefine((r, ctx) =>
+    modelDependentIssues(r.model, r.targetContext, r.methods).forEach((i) => ctx.addIssue({ code: "custom", ...i })),
+  );
 export type ResolvedAnalysisRequest = z.infer<typeof resolvedAnalysisRequestSchema>;
 
 export type ModelRef = z.infer<typeof modelRefSchema>;
@@ -109,11 +127,10 @@ export const modelInputSchema = z.unknown().transform((value, ctx): ModelRef | M
 });
 
 /** The HTTP request. Model-dependent rules run here for an inline shape, and after lookup for { modelId }. */
-export const analysisRequestSchema = z.object({ model: modelInputSchema, ...requestFields })
-  .superRefine((r, ctx) => {
-    if ("modelId" in r.model) return;
-    modelDependentIssues(r.model, r.targetContext, r.methods).forEach((i) => ctx.addIssue({ code: "custom", ...i }));
-  });
+export const analysisRequestSchema = z.object({ model: modelInputSchema, ...requestFields }).superRefine((r, ctx) => {
+  if ("modelId" in r.model) return;
+  modelDependentIssues(r.model, r.targetContext, r.methods).forEach((i) => ctx.addIssue({ code: "custom", ...i }));
+});
 export type AnalysisRequest = z.infer<typeof analysisRequestSchema>;
 
 // ---- response ----
@@ -201,7 +218,11 @@ export const methodResultSchema = z.object({
   /** The base the scaled frequencies correspond to, for methods that only change the base; else null. */
   effectiveBase: num.nullable(),
   pairs: z.array(pairResultSchema),
-  summary: z.object({ unseenAnglesPairs: z.number().int(), compressedResolutionPairs: z.number().int(), exceedsTrainedWindowPairs: z.number().int() }),
+  summary: z.object({
+    unseenAnglesPairs: z.number().int(),
+    compressedResolutionPairs: z.number().int(),
+    exceedsTrainedWindowPairs: z.number().int(),
+  }),
   extrapolationBound: extrapolationBoundSchema.nullable(),
   ropeScaling: configPatchSchema,
   notes: z.array(z.string()),

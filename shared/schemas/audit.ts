@@ -14,8 +14,13 @@ export const auditQuerySchema = z.object({
 export type AuditQuery = z.input<typeof auditQuerySchema>;
 
 export const auditEventSchema = z.object({
-  id: z.number(), at: z.string(), actor: z.object({ id: z.number(), name: z.string() }).nullable(),
-  action: z.string(), subjectType: z.string(), subjectId: z.string().nullable(), detail: z.record(z.string(), z.unknown()),
+  id: z.number(),
+  at: z.string(),
+  actor: z.object({ id: z.number(), name: z.string() }).nullable(),
+  action: z.string(),
+  subjectType: z.string(),
+  subjectId: z.string().nullable(),
+  detail: z.record(z.string(), z.unknown()),
 });
 export type AuditEvent = z.infer<typeof auditEventSchema>;
 
@@ -24,12 +29,14 @@ export const auditChainReportSchema = z.object({
   ok: z.boolean(),
   /** Rows checked and found linked, up to (not including) the first broken one. */
   count: z.number().int(),
-  brokenAt: z.object({
-    id: z.number().int(),
-    /** previous_hash_mismatch: a row before it was removed or replaced; hash_mismatch: this row was changed. */
-    reason: z.enum(["previous_hash_mismatch", "hash_mismatch"]),
-    /** The last row that still links, or null when the break is at the start. */
-    previousId: z.number().int().nullable(),
-  }).optional(),
+  brokenAt: z
+    .object({
+      id: z.number().int(),
+      /** previous_hash_mismatch: a row before it was removed or replaced; hash_mismatch: this row was changed. */
+      reason: z.enum(["previous_hash_mismatch", "hash_mismatch"]),
+      /** The last row that still links, or null when the break is at the start. */
+      previousId: z.number().int().nullable(),
+    })
+    .optional(),
 });
 export type AuditChainReport = z.infer<typeof auditChainReportSchema>;

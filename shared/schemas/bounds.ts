@@ -11,19 +11,26 @@ export const DEFAULT_SCAN_LIMIT = 2 ** 24;
 export const DEFAULT_GRID = { from: 1e3, to: 1e10, perDecade: 100 } as const;
 const MAX_CANDIDATES = 10_000;
 
-const rotaryDimSchema = z.number().int().positive().max(8192).refine((d) => d % 2 === 0, "the rotary dimension must be even");
+const rotaryDimSchema = z
+  .number()
+  .int()
+  .positive()
+  .max(8192)
+  .refine((d) => d % 2 === 0, "the rotary dimension must be even");
 const baseValue = z.number().gt(1, "the base must exceed 1").max(1e15);
 
-export const baseGridSchema = z.strictObject({
-  from: baseValue,
-  to: baseValue,
-  perDecade: z.number().int().positive().max(1000),
-}).superRefine((g, ctx) => {
-  if (!(g.to > g.from)) ctx.addIssue({ code: "custom", path: ["to"], message: "to must exceed from" });
-  else if (g.perDecade * Math.log10(g.to / g.from) > MAX_CANDIDATES) {
-    ctx.addIssue({ code: "custom", path: ["perDecade"], message: `at most ${MAX_CANDIDATES} candidates` });
-  }
-});
+export const baseGridSchema = z
+  .strictObject({
+    from: baseValue,
+    to: baseValue,
+    perDecade: z.number().int().positive().max(1000),
+  })
+  .superRefine((g, ctx) => {
+    if (!(g.to > g.from)) ctx.addIssue({ code: "custom", path: ["to"], message: "to must exceed from" });
+    else if (g.perDecade * Math.log10(g.to / g.from) > MAX_CANDIDATES) {
+      ctx.addIssue({ code: "custom", path: ["perDecade"], message: `at most ${MAX_CANDIDATES} candidates` });
+    }
+  });
 export type BaseGridInput = z.infer<typeof baseGridSchema>;
 
 export const supportedLengthQuerySchema = z.object({
@@ -43,23 +50,33 @@ export const baseBoundQuerySchema = z.discriminatedUnion("kind", [supportedLengt
 export type BaseBoundQuery = z.infer<typeof baseBoundQuerySchema>;
 
 /** HTTP body: one flat object so every bad field is named; exactly one of base / targetContext. */
-export const baseBoundRequestSchema = z.strictObject({
-  rotaryDim: rotaryDimSchema,
-  base: baseValue.optional(),
-  maxLength: lengthSchema.optional(),
-  targetContext: lengthSchema.optional(),
-  grid: baseGridSchema.optional(),
-}).superRefine((r, ctx) => {
-  const issue = (path: string, message: string) => ctx.addIssue({ code: "custom", path: [path], message });
-  if (r.base === undefined && r.targetContext === undefined) issue("base", "give base (supported length) or targetContext (smallest base)");
-  if (r.base !== undefined && r.targetContext !== undefined) issue("targetContext", "give either base or targetContext, not both");
-  if (r.base !== undefined && r.grid) issue("grid", "grid goes with targetContext");
-  if (r.targetContext !== undefined && r.maxLength !== undefined) issue("maxLength", "maxLength goes with base");
-}).transform((r): BaseBoundQuery =>
-  r.base !== undefined
-    ? { kind: "supportedLength", rotaryDim: r.rotaryDim, base: r.base, maxLength: r.maxLength ?? DEFAULT_SCAN_LIMIT }
-    : { kind: "smallestBase", rotaryDim: r.rotaryDim, targetContext: r.targetContext!, grid: r.grid ?? { ...DEFAULT_GRID } },
-);
+export const baseBoundRequestSchema = z
+  .strictObject({
+    rotaryDim: rotaryDimSchema,
+    base: baseValue.optional(),
+    maxLength: lengthSchema.optional(),
+    targetContext: lengthSchema.optional(),
+    grid: baseGridSchema.optional(),
+  })
+  .superRefine((r, ctx) => {
+    const issue = (path: string, message: string) => ctx.addIssue({ code: "custom", path: [path], message });
+    if (r.base === undefined && r.targetContext === undefined)
+      issue("base", "give base (supported length) or targetContext (smallest base)");
+    if (r.base !== undefined && r.targetContext !== undefined)
+      issue("targetContext", "give either base or targetContext, not both");
+    if (r.base !== undefined && r.grid) issue("grid", "grid goes with targetContext");
+    if (r.targetContext !== undefined && r.maxLength !== undefined) issue("maxLength", "maxLength goes with base");
+  })
+  .transform((r): BaseBoundQuery =>
+    r.base !== undefined
+      ? { kind: "supportedLength", rotaryDim: r.rotaryDim, base: r.base, maxLength: r.maxLength ?? DEFAULT_SCAN_LIMIT }
+      : {
+          kind: "smallestBase",
+          rotaryDim: r.rotaryDim,
+          targetContext: r.targetContext!,
+          grid: r.grid ?? { ...DEFAULT_GRID },
+        },
+  );
 export type BaseBoundRequest = z.input<typeof baseBoundRequestSchema>;
 
 export const supportedLengthResponseSchema = z.object({

@@ -39,7 +39,12 @@ const acceleratorFields = {
 export const acceleratorInputSchema = z.object({ ...acceleratorFields, notes: z.string().max(2000).optional() });
 export const acceleratorUpdateSchema = acceleratorInputSchema.partial();
 /** `retiredAt`: when a used accelerator left the pickers (ISO time), or null while it is offered. */
-export const acceleratorSchema = z.object({ id, ...acceleratorFields, notes: z.string(), retiredAt: z.string().nullable() });
+export const acceleratorSchema = z.object({
+  id,
+  ...acceleratorFields,
+  notes: z.string(),
+  retiredAt: z.string().nullable(),
+});
 export type AcceleratorInput = z.infer<typeof acceleratorInputSchema>;
 export type AcceleratorUpdate = z.infer<typeof acceleratorUpdateSchema>;
 export type Accelerator = z.infer<typeof acceleratorSchema>;
@@ -112,15 +117,16 @@ const clusterSpecFields = {
 };
 export const clusterSpecSchema = z.strictObject(clusterSpecFields);
 export type ClusterRequest = { acceleratorId: number } | z.output<typeof clusterSpecSchema>;
-export const budgetClusterSchema = refOrShape({ acceleratorId: id }, clusterSpecFields, Object.keys(clusterSpecFields)).transform(
-  (cluster) => cluster as ClusterRequest,
-);
+export const budgetClusterSchema = refOrShape(
+  { acceleratorId: id },
+  clusterSpecFields,
+  Object.keys(clusterSpecFields),
+).transform((cluster) => cluster as ClusterRequest);
 
 type StageCommon = { sequenceLength: number; globalBatch: number };
 /** A stage by steps, or by a token target from which the engine derives steps. */
 export type StageRequest =
-  | (StageCommon & { steps: number; tokens?: undefined })
-  | (StageCommon & { tokens: number; steps?: undefined });
+  (StageCommon & { steps: number; tokens?: undefined }) | (StageCommon & { tokens: number; steps?: undefined });
 
 // Steps or a token target: one object with an either-or rule, as above.
 export const budgetStageRequestSchema = z
@@ -134,8 +140,10 @@ export const budgetStageRequestSchema = z
   .superRefine((stage, ctx) => {
     const hasSteps = stage.steps !== undefined;
     const hasTokens = stage.tokens !== undefined;
-    if (hasSteps && hasTokens) ctx.addIssue({ code: "custom", path: ["tokens"], message: "give steps or tokens, not both" });
-    if (!hasSteps && !hasTokens) ctx.addIssue({ code: "custom", path: ["steps"], message: "give steps or a token target" });
+    if (hasSteps && hasTokens)
+      ctx.addIssue({ code: "custom", path: ["tokens"], message: "give steps or tokens, not both" });
+    if (!hasSteps && !hasTokens)
+      ctx.addIssue({ code: "custom", path: ["steps"], message: "give steps or a token target" });
   })
   .transform((stage) => stage as StageRequest);
 
@@ -168,7 +176,11 @@ export const budgetEstimateRequestSchema = z
   })
   .superRefine((request, ctx) => {
     if (request.sequenceSharding !== undefined && request.sequenceSharding > request.accelerators) {
-      ctx.addIssue({ code: "custom", path: ["sequenceSharding"], message: "sequenceSharding cannot exceed accelerators" });
+      ctx.addIssue({
+        code: "custom",
+        path: ["sequenceSharding"],
+        message: "sequenceSharding cannot exceed accelerators",
+      });
     }
     // Same fallbacks as the engine: shortest and longest stage lengths.
     const lengths = request.stages.map((s) => s.sequenceLength);
@@ -284,7 +296,9 @@ export const acceleratorListResponseSchema = z.object({ accelerators: z.array(ac
 export const acceleratorResponseSchema = z.object({ accelerator: acceleratorSchema });
 /** DELETE /api/accelerators/:id on an accelerator plans were costed on: retired instead, with those plans. */
 export const acceleratorRetiredResponseSchema = z.object({
-  retired: z.literal(true), accelerator: acceleratorSchema, usedBy: z.array(z.object({ id, title: z.string() })),
+  retired: z.literal(true),
+  accelerator: acceleratorSchema,
+  usedBy: z.array(z.object({ id, title: z.string() })),
 });
 
 export const budgetRecipesResponseSchema = z.object({ recipes: z.array(budgetRecipeSchema), caution: z.string() });

@@ -7,5 +7,7 @@ export const modelResponseSchema = z.object({ model: modelProfileSchema });
 export type ModelsListResponse = z.infer<typeof modelsListResponseSchema>;
 /** DELETE /api/models/:id on a profile plans use: retired instead, with those plans. */
 export const modelRetiredResponseSchema = z.object({
-  retired: z.literal(true), model: modelProfileSchema, usedBy: z.array(z.object({ id: z.number().int(), title: z.string() })),
+  retired: z.literal(true),
+  model: modelProfileSchema,
+  usedBy: z.array(z.object({ id: z.number().int(), title: z.string() })),
 });

@@ -44,7 +44,8 @@ function checkShape(v: z.infer<typeof profileFields>, ctx: z.RefinementCtx) {
       message: `rotary dimension headDim × partialRotaryFactor = ${d} must be a positive even integer`,
     });
   }
-  if (v.kvHeads > v.attentionHeads) ctx.addIssue({ code: "custom", path: ["kvHeads"], message: "cannot exceed attentionHeads" });
+  if (v.kvHeads > v.attentionHeads)
+    ctx.addIssue({ code: "custom", path: ["kvHeads"], message: "cannot exceed attentionHeads" });
   else if (v.attentionHeads % v.kvHeads !== 0)
     ctx.addIssue({ code: "custom", path: ["kvHeads"], message: "attentionHeads must be a multiple of kvHeads" });
   if (v.parametersTotal != null && v.parametersTotal < v.parameters)
@@ -79,10 +80,21 @@ export type ModelProfile = z.infer<typeof modelProfileSchema>;
  */
 export const importPreviewProfileSchema = profileFields
   .extend({
-    headDim: finite(), partialRotaryFactor: finite(), ropeTheta: finite(), trainedContext: finite(),
-    maxPositionEmbeddings: finite().nullable(), layers: finite(), attentionHeads: finite(), kvHeads: finite(),
-    hiddenSize: finite(), parameters: finite(), parametersTotal: finite().nullable(), bytesPerElement: finite(),
-    name: z.string(), family: z.string(), provenance: z.string(),
+    headDim: finite(),
+    partialRotaryFactor: finite(),
+    ropeTheta: finite(),
+    trainedContext: finite(),
+    maxPositionEmbeddings: finite().nullable(),
+    layers: finite(),
+    attentionHeads: finite(),
+    kvHeads: finite(),
+    hiddenSize: finite(),
+    parameters: finite(),
+    parametersTotal: finite().nullable(),
+    bytesPerElement: finite(),
+    name: z.string(),
+    family: z.string(),
+    provenance: z.string(),
   })
   .partial();
 export type ImportPreviewProfile = z.infer<typeof importPreviewProfileSchema>;
@@ -94,4 +106,5 @@ export const importResponseSchema = z.object({
 });
 export type ImportResponse = z.infer<typeof importResponseSchema>;
 
-export const rotaryDimOf = (p: { headDim: number; partialRotaryFactor: number }) => Math.round(p.headDim * p.partialRotaryFactor);
+export const rotaryDimOf = (p: { headDim: number; partialRotaryFactor: number }) =>
+  Math.round(p.headDim * p.partialRotaryFactor);

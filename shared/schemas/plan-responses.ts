@@ -2,7 +2,12 @@ import { z } from "zod";
 import { bandsSchema, configPatchSchema, methodParamsSchema } from "./analysis";
 import { revisionBudgetSchema } from "./budget";
 import {
-  acceptanceCriterionSchema, decisionSchema, revisionStateSchema, stageResultSchema, stageSchema, userRefSchema,
+  acceptanceCriterionSchema,
+  decisionSchema,
+  revisionStateSchema,
+  stageResultSchema,
+  stageSchema,
+  userRefSchema,
 } from "./plans";
 
 /*
@@ -158,11 +163,27 @@ export const diffResponseSchema = z.object({
   a: z.object({ number: z.number(), contentHash: z.string() }),
   b: z.object({ number: z.number(), contentHash: z.string() }),
   fields: z.array(fieldChangeSchema),
-  stages: z.array(z.object({ index: z.number(), change: z.enum(["added", "removed", "changed"]), fields: z.array(fieldChangeSchema) })),
-  flags: z.array(z.object({ scope: z.string(), pair: z.number(), flag: z.string(), from: z.boolean(), to: z.boolean() })),
+  stages: z.array(
+    z.object({
+      index: z.number(),
+      change: z.enum(["added", "removed", "changed"]),
+      fields: z.array(fieldChangeSchema),
+    }),
+  ),
+  flags: z.array(
+    z.object({ scope: z.string(), pair: z.number(), flag: z.string(), from: z.boolean(), to: z.boolean() }),
+  ),
   budget: z.object({
     inputs: z.array(fieldChangeSchema),
-    stages: z.array(z.object({ index: z.number(), costFrom: z.number().nullable(), costTo: z.number().nullable(), costDelta: z.number(), hoursDelta: z.number() })),
+    stages: z.array(
+      z.object({
+        index: z.number(),
+        costFrom: z.number().nullable(),
+        costTo: z.number().nullable(),
+        costDelta: z.number(),
+        hoursDelta: z.number(),
+      }),
+    ),
     totals: z.object({ costFrom: z.number(), costTo: z.number(), costDelta: z.number() }).nullable(),
   }),
 });
@@ -183,12 +204,25 @@ export const exportEnvelopeSchema = z.object({
   /** The key that signed the decisions below (GET /api/signing-key serves its public half). */
   keyId: z.string(),
   /** Each approval of the exported round: `signature` is base64 Ed25519 over the RFC 8785 canonical JSON of `payload`. */
-  signedBy: z.array(z.object({
-    name: z.string(), email: z.string(), signedHash: z.string(), at: z.string(), keyId: z.string(), signature: z.string(),
-    payload: z.object({
-      planId: z.number(), revision: z.number(), contentHash: z.string(), approverId: z.number(), decision: z.string(), round: z.number(), time: z.string(),
+  signedBy: z.array(
+    z.object({
+      name: z.string(),
+      email: z.string(),
+      signedHash: z.string(),
+      at: z.string(),
+      keyId: z.string(),
+      signature: z.string(),
+      payload: z.object({
+        planId: z.number(),
+        revision: z.number(),
+        contentHash: z.string(),
+        approverId: z.number(),
+        decision: z.string(),
+        round: z.number(),
+        time: z.string(),
+      }),
     }),
-  })),
+  ),
   caution: z.string(),
 });
 export type ExportEnvelope = z.infer<typeof exportEnvelopeSchema>;
@@ -207,7 +241,11 @@ export type ReviewQueueItem = z.infer<typeof reviewQueueItemSchema>;
 export const reviewQueueResponseSchema = z.object({ items: z.array(reviewQueueItemSchema) });
 
 /** GET /api/signing-key: the public half of the key that signs decisions. */
-export const signingKeyResponseSchema = z.object({ algorithm: z.literal("Ed25519"), keyId: z.string(), publicKeyPem: z.string() });
+export const signingKeyResponseSchema = z.object({
+  algorithm: z.literal("Ed25519"),
+  keyId: z.string(),
+  publicKeyPem: z.string(),
+});
 export type SigningKeyResponse = z.infer<typeof signingKeyResponseSchema>;
 
 /** GET /api/plans/owners: everyone who owns at least one plan, by name (plans.list.ts planOwners). */

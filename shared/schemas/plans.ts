@@ -76,7 +76,9 @@ export const updateRevisionRequestSchema = z.strictObject({
 export type UpdateRevisionRequest = z.input<typeof updateRevisionRequestSchema>;
 
 /** SHA-256 hex, as the server computes content hashes. */
-export const contentHashSchema = z.string().regex(/^[0-9a-f]{64}$/, "a SHA-256 content hash: 64 lowercase hex characters");
+export const contentHashSchema = z
+  .string()
+  .regex(/^[0-9a-f]{64}$/, "a SHA-256 content hash: 64 lowercase hex characters");
 
 /** `contentHash` is the hash the approver read; a decision on any other content is refused (409 hash_mismatch). */
 export const decisionRequestSchema = z.strictObject({
@@ -107,8 +109,16 @@ export const stageResultSchema = z.object({
   method: z.string(),
   params: z.record(z.string(), z.unknown()),
   attentionFactor: z.number(),
-  summary: z.object({ unseenAnglesPairs: z.number(), compressedResolutionPairs: z.number(), exceedsTrainedWindowPairs: z.number() }),
-  flags: z.object({ unseenAngles: z.array(z.number()), compressedResolution: z.array(z.number()), exceedsTrainedWindow: z.array(z.number()) }),
+  summary: z.object({
+    unseenAnglesPairs: z.number(),
+    compressedResolutionPairs: z.number(),
+    exceedsTrainedWindowPairs: z.number(),
+  }),
+  flags: z.object({
+    unseenAngles: z.array(z.number()),
+    compressedResolution: z.array(z.number()),
+    exceedsTrainedWindow: z.array(z.number()),
+  }),
   bands: z.array(z.string()),
   scaledWavelengths: z.array(z.number()),
   patch: configPatchSchema,

@@ -18,13 +18,21 @@ export const TOKEN_SCOPE_LABELS: Record<TokenScope, string> = {
 
 export const createTokenRequestSchema = z.strictObject({
   name: z.string().trim().min(1).max(80),
-  scopes: z.array(tokenScopeSchema).min(1, "pick at least one scope").max(TOKEN_SCOPES.length)
+  scopes: z
+    .array(tokenScopeSchema)
+    .min(1, "pick at least one scope")
+    .max(TOKEN_SCOPES.length)
     .refine((s) => new Set(s).size === s.length, "each scope once")
     .default(DEFAULT_TOKEN_SCOPES),
 });
 export const apiTokenSchema = z.object({
-  id: z.number(), name: z.string(), prefix: z.string(), scopes: z.array(tokenScopeSchema),
-  createdAt: z.string(), lastUsedAt: z.string().nullable(), revokedAt: z.string().nullable(),
+  id: z.number(),
+  name: z.string(),
+  prefix: z.string(),
+  scopes: z.array(tokenScopeSchema),
+  createdAt: z.string(),
+  lastUsedAt: z.string().nullable(),
+  revokedAt: z.string().nullable(),
 });
 export type ApiToken = z.infer<typeof apiTokenSchema>;
 export const createdTokenSchema = apiTokenSchema.extend({ token: z.string() });

@@ -16,7 +16,10 @@ export const usersListResponseSchema = z.object({ users: z.array(userSchema) });
 /** POST /api/users and PATCH /api/users/:id: the user as stored. */
 export const userResponseSchema = z.object({ user: userSchema });
 
-const rolesField = z.array(roleSchema).min(1, "pick at least one role").max(5)
+const rolesField = z
+  .array(roleSchema)
+  .min(1, "pick at least one role")
+  .max(5)
   .refine((r) => new Set(r).size === r.length, "roles must not repeat");
 
 export const createUserRequestSchema = z.object({
@@ -28,9 +31,11 @@ export const createUserRequestSchema = z.object({
 export type CreateUserRequest = z.infer<typeof createUserRequestSchema>;
 
 /** PATCH /api/users/:id — any subset. */
-export const updateUserRequestSchema = z.object({
-  name: z.string().trim().min(1).max(120).optional(),
-  roles: rolesField.optional(),
-  active: z.boolean().optional(),
-}).refine((v) => Object.keys(v).length > 0, "nothing to change");
+export const updateUserRequestSchema = z
+  .object({
+    name: z.string().trim().min(1).max(120).optional(),
+    roles: rolesField.optional(),
+    active: z.boolean().optional(),
+  })
+  .refine((v) => Object.keys(v).length > 0, "nothing to change");
 export type UpdateUserRequest = z.infer<typeof updateUserRequestSchema>;

@@ -6,15 +6,31 @@ import { HEAVY_ANALYSES_PER_USER, HEAVY_RETRY_AFTER_SECONDS } from "../../server
 import { MAX_FACTOR_LIST, MAX_HEAD_DIM, MAX_METHODS } from "../../shared/schemas/analysis";
 
 const { agentAs } = makeTestApp();
-const post = (a: Agent, body: unknown) => a.post("/api/analyses").set("X-CSRF-Token", a.csrf).send(body as object);
+const post = (a: Agent, body: unknown) =>
+  a
+    .post("/api/analyses")
+    .set("X-CSRF-Token", a.csrf)
+    .send(body as object);
 
-const longrope = (pairs: number) => ({ method: "longrope", longFactor: Array(pairs).fill(1.5), shortFactor: Array(pairs).fill(1) });
+const longrope = (pairs: number) => ({
+  method: "longrope",
+  longFactor: Array(pairs).fill(1.5),
+  shortFactor: Array(pairs).fill(1),
+});
 /** A large request within the limits: head dim 1024, eight methods, 512-entry factor lists. */
 const heavy = {
   model: { headDim: MAX_HEAD_DIM, ropeTheta: 500_000, trainedContext: 8192 },
   targetContext: 131_072,
-  methods: [longrope(MAX_FACTOR_LIST), { method: "yarn" }, { method: "linear" }, { method: "ntk" },
-    { method: "dynamic" }, { method: "llama3" }, { method: "base", base: 5e6 }, { method: "default" }],
+  methods: [
+    longrope(MAX_FACTOR_LIST),
+    { method: "yarn" },
+    { method: "linear" },
+    { method: "ntk" },
+    { method: "dynamic" },
+    { method: "llama3" },
+    { method: "base", base: 5e6 },
+    { method: "default" },
+  ],
 };
 
 describe("POST /api/analyses is bounded", () => {
@@ -31,8 +47,16 @@ describe("POST /api/analyses is bounded", () => {
 
   it.each([
     ["head dim above the limit", { ...heavy, model: { ...heavy.model, headDim: MAX_HEAD_DIM + 2 } }, "model.headDim"],
-    ["more methods than the limit", { ...heavy, methods: Array(MAX_METHODS + 1).fill({ method: "linear" }) }, "methods"],
-    ["a factor list longer than the limit", { ...heavy, methods: [longrope(MAX_FACTOR_LIST + 1)] }, "methods.0.longFactor"],
+    [
+      "more methods than the limit",
+      { ...heavy, methods: Array(MAX_METHODS + 1).fill({ method: "linear" }) },
+      "methods",
+    ],
+    [
+      "a factor list longer than the limit",
+      { ...heavy, methods: [longrope(MAX_FACTOR_LIST + 1)] },
+      "methods.0.longFactor",
+    ],
   ])("%s → 400 naming %s", async (_label, body, field) => {
     const r = await post(await agentAs(["viewer"]), body);
     expect(r.status, JSON.stringify(r.body).slice(0, 300)).toBe(400);
@@ -42,7 +66,11 @@ describe("POST /api/analyses is bounded", () => {
   it("computes a large analysis in a pool thread, with exactly the engine's answer; a small one stays inline", async () => {
     const a = await agentAs(["viewer"]);
     const before = offloadedAnalyses();
-    const small = await post(a, { model: { headDim: 128, ropeTheta: 10_000, trainedContext: 4096 }, targetContext: 8192, methods: [{ method: "linear" }] });
+    const small = await post(a, {
+      model: { headDim: 128, ropeTheta: 10_000, trainedContext: 4096 },
+      targetContext: 8192,
+      methods: [{ method: "linear" }],
+    });
     expect(small.status).toBe(200);
     expect(offloadedAnalyses()).toBe(before);
 

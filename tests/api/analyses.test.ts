@@ -7,7 +7,11 @@ const { agent, agentAs } = makeTestApp();
 const model = { headDim: 128, ropeTheta: 10_000, trainedContext: 4096 };
 const good = { model, targetContext: 32_768, methods: [{ method: "yarn" }] };
 
-const post = (a: Agent, body: unknown) => a.post("/api/analyses").set("X-CSRF-Token", a.csrf).send(body as object);
+const post = (a: Agent, body: unknown) =>
+  a
+    .post("/api/analyses")
+    .set("X-CSRF-Token", a.csrf)
+    .send(body as object);
 const postRaw = (a: Agent, json: string) =>
   a.post("/api/analyses").set("X-CSRF-Token", a.csrf).set("Content-Type", "application/json").send(json);
 
@@ -29,8 +33,14 @@ describe("POST /api/analyses", () => {
     const a = await agentAs(["viewer"]);
     const longFactor = Array.from({ length: 64 }, () => 4);
     const methods = [
-      { method: "default" }, { method: "linear" }, { method: "ntk" }, { method: "dynamic" }, { method: "yarn" },
-      { method: "llama3" }, { method: "longrope", longFactor, shortFactor: longFactor.map(() => 1) }, { method: "base", base: 500_000 },
+      { method: "default" },
+      { method: "linear" },
+      { method: "ntk" },
+      { method: "dynamic" },
+      { method: "yarn" },
+      { method: "llama3" },
+      { method: "longrope", longFactor, shortFactor: longFactor.map(() => 1) },
+      { method: "base", base: 500_000 },
     ];
     const r = await post(a, { model, targetContext: 32_768, methods });
     expect(r.status).toBe(200);
@@ -41,27 +51,64 @@ describe("POST /api/analyses", () => {
     expect(yarn.params).toMatchObject({ factor: 8, betaFast: 32, betaSlow: 1, truncate: true });
     expect(yarn.attentionFactor).toBeCloseTo(1.2079, 4); // Peng et al. 2023, Eq. 22
     expect(yarn.ropeScaling).toEqual({
-      rope_scaling: { rope_type: "yarn", factor: 8, beta_fast: 32, beta_slow: 1, original_max_position_embeddings: 4096 },
+      rope_scaling: {
+        rope_type: "yarn",
+        factor: 8,
+        beta_fast: 32,
+        beta_slow: 1,
+        original_max_position_embeddings: 4096,
+      },
       max_position_embeddings: 32_768,
     });
-    expect(body.methods[7].ropeScaling).toEqual({ rope_scaling: null, rope_theta: 500_000, max_position_embeddings: 32_768 });
+    expect(body.methods[7].ropeScaling).toEqual({
+      rope_scaling: null,
+      rope_theta: 500_000,
+      max_position_embeddings: 32_768,
+    });
     expect(body.methods[0].ropeScaling.rope_scaling).toBeNull();
   });
 
   it("resolves { modelId } from a stored profile, and answers 404 for an unknown id", async () => {
     const a = await agentAs(["researcher"]);
-    const created = await a.post("/api/models").set("X-CSRF-Token", a.csrf).send({
-      name: `analysis-${crypto.randomBytes(4).toString("hex")}`, family: "test", headDim: 128, ropeTheta: 500_000, trainedContext: 8192,
-      layers: 32, attentionHeads: 32, kvHeads: 8, hiddenSize: 4096, parameters: 7e9,
-    }).expect(201);
-    const r = await post(a, { model: { modelId: created.body.model.id }, targetContext: 65_536, methods: [{ method: "llama3" }] });
+    const created = await a
+      .post("/api/models")
+      .set("X-CSRF-Token", a.csrf)
+      .send({
+        name: `analysis-${crypto.randomBytes(4).toString("hex")}`,
+        family: "test",
+        headDim: 128,
+        ropeTheta: 500_000,
+        trainedContext: 8192,
+        layers: 32,
+        attentionHeads: 32,
+        kvHeads: 8,
+        hiddenSize: 4096,
+        parameters: 7e9,
+      })
+      .expect(201);
+    const r = await post(a, {
+      model: { modelId: created.body.model.id },
+      targetContext: 65_536,
+      methods: [{ method: "llama3" }],
+    });
     expect(r.status, JSON.stringify(r.body)).toBe(200);
-    expect(r.body.model).toMatchObject({ headDim: 128, ropeTheta: 500_000, trainedContext: 8192, rotaryDim: 128, layers: 32, kvHeads: 8 });
+    expect(r.body.model).toMatchObject({
+      headDim: 128,
+      ropeTheta: 500_000,
+      trainedContext: 8192,
+      rotaryDim: 128,
+      layers: 32,
+      kvHeads: 8,
+    });
     expect(r.body.model).not.toHaveProperty("name");
     expect(r.body.methods[0].params).toEqual({ method: "llama3", factor: 8, lowFreqFactor: 1, highFreqFactor: 4 });
 
     // model-dependent rules still apply after the lookup
-    const short = await post(a, { model: { modelId: created.body.model.id }, targetContext: 8192, methods: [{ method: "linear" }] });
+    const short = await post(a, {
+      model: { modelId: created.body.model.id },
+      targetContext: 8192,
+      methods: [{ method: "linear" }],
+    });
     expect(short.status).toBe(400);
     expect(short.body.error.fields).toHaveProperty("targetContext");
     expect((await post(a, { ...good, model: { modelId: 2_000_000_000 } })).status).toBe(404);
@@ -77,9 +124,18 @@ describe("POST /api/analyses", () => {
     it("Infinity and -Infinity (1e999 in JSON) are refused, naming the field", async () => {
       const a = await agentAs(["viewer"]);
       for (const [json, field] of [
-        ['{"model":{"headDim":128,"ropeTheta":1e999,"trainedContext":4096},"targetContext":32768,"methods":[{"method":"yarn"}]}', "model.ropeTheta"],
-        ['{"model":{"headDim":128,"ropeTheta":10000,"trainedContext":4096},"targetContext":32768,"methods":[{"method":"linear","factor":1e999}]}', "methods.0.factor"],
-        ['{"model":{"headDim":128,"ropeTheta":10000,"trainedContext":4096},"targetContext":-1e999,"methods":[{"method":"yarn"}]}', "targetContext"],
+        [
+          '{"model":{"headDim":128,"ropeTheta":1e999,"trainedContext":4096},"targetContext":32768,"methods":[{"method":"yarn"}]}',
+          "model.ropeTheta",
+        ],
+        [
+          '{"model":{"headDim":128,"ropeTheta":10000,"trainedContext":4096},"targetContext":32768,"methods":[{"method":"linear","factor":1e999}]}',
+          "methods.0.factor",
+        ],
+        [
+          '{"model":{"headDim":128,"ropeTheta":10000,"trainedContext":4096},"targetContext":-1e999,"methods":[{"method":"yarn"}]}',
+          "targetContext",
+        ],
       ]) {
         const r = await postRaw(a, json);
         expect(r.status).toBe(400);

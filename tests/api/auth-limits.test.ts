@@ -5,7 +5,13 @@ import { createTestUser } from "../setup/users";
 import { testDb } from "../setup/db";
 
 // Addresses come from X-Forwarded-For, as behind the production proxy (TRUST_PROXY).
-const limits = { perAccountAddress: 10, perAddress: 1000, windowMs: 15 * 60_000, perAccount: 25, accountWindowMs: 60 * 60_000 };
+const limits = {
+  perAccountAddress: 10,
+  perAddress: 1000,
+  windowMs: 15 * 60_000,
+  perAccount: 25,
+  accountWindowMs: 60 * 60_000,
+};
 const limited = makeTestApp({ trustProxy: true, login: limits });
 
 async function anonymousFrom(address: string) {
@@ -41,7 +47,10 @@ describe("sign-in limits cannot be used to lock the owner out", () => {
       const a = request.agent(ceiling.app);
       const address = `192.0.2.${i + 1}`;
       const s = await a.get("/api/auth/session").set("X-Forwarded-For", address);
-      const r = await a.post("/api/auth/login").set("X-Forwarded-For", address).set("X-CSRF-Token", s.body.csrfToken)
+      const r = await a
+        .post("/api/auth/login")
+        .set("X-Forwarded-For", address)
+        .set("X-CSRF-Token", s.body.csrfToken)
         .send({ email: owner.email, password: "guess-guess-guess" });
       codes.push(r.status);
     }
@@ -53,7 +62,14 @@ describe("sign-in limits cannot be used to lock the owner out", () => {
     const a = await small.agentAs(["viewer"]);
     const codes: number[] = [];
     for (let i = 0; i < 4; i++) {
-      codes.push((await a.post("/api/auth/password").set("X-CSRF-Token", a.csrf).send({ currentPassword: "wrong-one", newPassword: "brand-new-pass-1" })).status);
+      codes.push(
+        (
+          await a
+            .post("/api/auth/password")
+            .set("X-CSRF-Token", a.csrf)
+            .send({ currentPassword: "wrong-one", newPassword: "brand-new-pass-1" })
+        ).status,
+      );
     }
     expect(codes).toEqual([400, 400, 400, 429]);
   }, 60_000);
@@ -66,12 +82,15 @@ describe("password change and deactivation end sessions and tokens", () => {
   it("a password change gives the session a new id and revokes the user's tokens", async () => {
     const a = await agentAs(["infra"]);
     const other = await signIn(a.user!);
-    const token = (await a.post("/api/tokens").set("X-CSRF-Token", a.csrf).send({ name: "job" }).expect(201)).body.token as string;
+    const token = (await a.post("/api/tokens").set("X-CSRF-Token", a.csrf).send({ name: "job" }).expect(201)).body
+      .token as string;
     const login = await signIn(a.user!);
     // rolling sessions re-send the cookie on every answer, so this names the current id
     const oldSid = sid((await login.get("/api/auth/session")).headers["set-cookie"]);
     expect(oldSid).toBeTruthy();
-    const changed = await login.post("/api/auth/password").set("X-CSRF-Token", login.csrf)
+    const changed = await login
+      .post("/api/auth/password")
+      .set("X-CSRF-Token", login.csrf)
       .send({ currentPassword: a.user!.password, newPassword: "another-long-pass-7" });
     expect(changed.status).toBe(204);
     expect(changed.headers["cache-control"]).toBe("no-store");
@@ -83,16 +102,24 @@ describe("password change and deactivation end sessions and tokens", () => {
     expect((await request(app).get("/api/auth/session").set("Cookie", `rw.sid=${oldSid}`)).body.user).toBeNull();
     expect((await other.get("/api/auth/session")).body.user).toBeNull();
     expect((await request(app).get("/api/plans").set("Authorization", `Bearer ${token}`)).status).toBe(401);
-    const audit = await testDb().pool.query("SELECT detail FROM audit_events WHERE action = 'user.password_changed' AND subject_id = $1", [String(a.user!.id)]);
+    const audit = await testDb().pool.query(
+      "SELECT detail FROM audit_events WHERE action = 'user.password_changed' AND subject_id = $1",
+      [String(a.user!.id)],
+    );
     expect(audit.rows[0].detail).toMatchObject({ tokensRevoked: 1 });
   });
 
   it("deactivation revokes tokens for good: reactivation does not bring them back", async () => {
     const admin = await agentAs(["admin"]);
     const user = await agentAs(["viewer"]);
-    const token = (await user.post("/api/tokens").set("X-CSRF-Token", user.csrf).send({ name: "ci" }).expect(201)).body.token as string;
+    const token = (await user.post("/api/tokens").set("X-CSRF-Token", user.csrf).send({ name: "ci" }).expect(201)).body
+      .token as string;
     expect((await request(app).get("/api/plans").set("Authorization", `Bearer ${token}`)).status).toBe(200);
-    await admin.patch(`/api/users/${user.user!.id}`).set("X-CSRF-Token", admin.csrf).send({ active: false }).expect(200);
+    await admin
+      .patch(`/api/users/${user.user!.id}`)
+      .set("X-CSRF-Token", admin.csrf)
+      .send({ active: false })
+      .expect(200);
     await admin.patch(`/api/users/${user.user!.id}`).set("X-CSRF-Token", admin.csrf).send({ active: true }).expect(200);
     expect((await request(app).get("/api/plans").set("Authorization", `Bearer ${token}`)).status).toBe(401);
     const rows = await testDb().pool.query("SELECT revoked_at FROM api_tokens WHERE user_id = $1", [user.user!.id]);

@@ -20,8 +20,14 @@ describe("sign-in and sessions", () => {
   it("gives a wrong password and an unknown e-mail the same answer", async () => {
     const user = await createTestUser(["viewer"]);
     const a = await agent();
-    const wrong = await a.post("/api/auth/login").set("X-CSRF-Token", a.csrf).send({ email: user.email, password: "nope-nope-nope" });
-    const unknown = await a.post("/api/auth/login").set("X-CSRF-Token", a.csrf).send({ email: "nobody-here@example.test", password: "nope-nope-nope" });
+    const wrong = await a
+      .post("/api/auth/login")
+      .set("X-CSRF-Token", a.csrf)
+      .send({ email: user.email, password: "nope-nope-nope" });
+    const unknown = await a
+      .post("/api/auth/login")
+      .set("X-CSRF-Token", a.csrf)
+      .send({ email: "nobody-here@example.test", password: "nope-nope-nope" });
     expect(wrong.status).toBe(401);
     expect(unknown.status).toBe(401);
     expect(wrong.body).toEqual(unknown.body);
@@ -40,7 +46,9 @@ describe("sign-in and sessions", () => {
     expect(cookie).not.toMatch(/Secure/i); // not in test; production sets Secure (see next test)
     expect(login.body.csrfToken).not.toBe(before.body.csrfToken);
     // The pre-sign-in session row is gone: regenerate destroyed it.
-    const first = await testDb().pool.query("SELECT count(*)::int AS n FROM session WHERE sess->>'csrfToken' = $1", [before.body.csrfToken]);
+    const first = await testDb().pool.query("SELECT count(*)::int AS n FROM session WHERE sess->>'csrfToken' = $1", [
+      before.body.csrfToken,
+    ]);
     expect(first.rows[0].n).toBe(0);
   });
 
@@ -53,7 +61,9 @@ describe("sign-in and sessions", () => {
 
   it("refuses a state change without the CSRF token (403)", async () => {
     const a = await agentAs(["admin"]);
-    const r = await a.post("/api/users").send({ email: "x@example.test", name: "X", password: "long-enough-1", roles: ["viewer"] });
+    const r = await a
+      .post("/api/users")
+      .send({ email: "x@example.test", name: "X", password: "long-enough-1", roles: ["viewer"] });
     expect(r.status).toBe(403);
     expect(r.body.error.code).toBe("csrf");
     const wrong = await a.post("/api/auth/logout").set("X-CSRF-Token", "not-the-token");
@@ -61,12 +71,17 @@ describe("sign-in and sessions", () => {
   });
 
   it("rate-limits sign-in per account and address (429)", async () => {
-    const limited = makeTestApp({ login: { perAccountAddress: 3, perAddress: 1000, windowMs: 60_000, perAccount: 1000, accountWindowMs: 60_000 } });
+    const limited = makeTestApp({
+      login: { perAccountAddress: 3, perAddress: 1000, windowMs: 60_000, perAccount: 1000, accountWindowMs: 60_000 },
+    });
     const user = await createTestUser(["viewer"]);
     const a = await limited.agent();
     const statuses: number[] = [];
     for (let i = 0; i < 5; i++) {
-      const r = await a.post("/api/auth/login").set("X-CSRF-Token", a.csrf).send({ email: user.email, password: "wrong-password" });
+      const r = await a
+        .post("/api/auth/login")
+        .set("X-CSRF-Token", a.csrf)
+        .send({ email: user.email, password: "wrong-password" });
       statuses.push(r.status);
     }
     expect(statuses).toEqual([401, 401, 401, 429, 429]);
@@ -76,11 +91,15 @@ describe("sign-in and sessions", () => {
   });
 
   it("rate-limits sign-in per address across accounts (429)", async () => {
-    const limited = makeTestApp({ login: { perAccountAddress: 1000, perAddress: 2, windowMs: 60_000, perAccount: 1000, accountWindowMs: 60_000 } });
+    const limited = makeTestApp({
+      login: { perAccountAddress: 1000, perAddress: 2, windowMs: 60_000, perAccount: 1000, accountWindowMs: 60_000 },
+    });
     const a = await limited.agent();
     const codes = [];
     for (const email of ["a1@example.test", "a2@example.test", "a3@example.test"]) {
-      codes.push((await a.post("/api/auth/login").set("X-CSRF-Token", a.csrf).send({ email, password: "whatever-1" })).status);
+      codes.push(
+        (await a.post("/api/auth/login").set("X-CSRF-Token", a.csrf).send({ email, password: "whatever-1" })).status,
+      );
     }
     expect(codes).toEqual([401, 401, 429]);
   });
@@ -89,10 +108,16 @@ describe("sign-in and sessions", () => {
     const admin = await agentAs(["admin"]);
     const victim = await agentAs(["researcher"]);
     await victim.get("/api/auth/session").expect((r) => expect(r.body.user.id).toBe(victim.user!.id));
-    await admin.patch(`/api/users/${victim.user!.id}`).set("X-CSRF-Token", admin.csrf).send({ active: false }).expect(200);
+    await admin
+      .patch(`/api/users/${victim.user!.id}`)
+      .set("X-CSRF-Token", admin.csrf)
+      .send({ active: false })
+      .expect(200);
     const s = await victim.get("/api/auth/session");
     expect(s.body.user).toBeNull();
-    const rows = await deps.pool.query("SELECT count(*)::int AS n FROM session WHERE sess->>'userId' = $1", [String(victim.user!.id)]);
+    const rows = await deps.pool.query("SELECT count(*)::int AS n FROM session WHERE sess->>'userId' = $1", [
+      String(victim.user!.id),
+    ]);
     expect(rows.rows[0].n).toBe(0);
     const again = await agent();
     const r = await again.post("/api/auth/login").set("X-CSRF-Token", again.csrf).send(victim.user!);
@@ -101,10 +126,17 @@ describe("sign-in and sessions", () => {
 
   it("lets a user change their own password", async () => {
     const a = await agentAs(["viewer"]);
-    const bad = await a.post("/api/auth/password").set("X-CSRF-Token", a.csrf).send({ currentPassword: "wrong", newPassword: "new-password-456" });
+    const bad = await a
+      .post("/api/auth/password")
+      .set("X-CSRF-Token", a.csrf)
+      .send({ currentPassword: "wrong", newPassword: "new-password-456" });
     expect(bad.status).toBe(400);
     expect(bad.body.error.fields).toHaveProperty("currentPassword");
-    await a.post("/api/auth/password").set("X-CSRF-Token", a.csrf).send({ currentPassword: a.user!.password, newPassword: "new-password-456" }).expect(204);
+    await a
+      .post("/api/auth/password")
+      .set("X-CSRF-Token", a.csrf)
+      .send({ currentPassword: a.user!.password, newPassword: "new-password-456" })
+      .expect(204);
     await expect(signIn({ email: a.user!.email, password: "new-password-456" })).resolves.toBeTruthy();
     await expect(signIn(a.user!)).rejects.toThrow(/401/);
   });

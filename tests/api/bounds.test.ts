@@ -6,9 +6,16 @@ import { inverseFrequencies } from "../../server/engine/frequencies";
 import { gridBases, supportedLengthNaive } from "../../server/engine/base-bound";
 
 const { agent, agentAs } = makeTestApp();
-const post = (a: Agent, body: unknown) => a.post("/api/bounds/base").set("X-CSRF-Token", a.csrf).send(body as object);
+const post = (a: Agent, body: unknown) =>
+  a
+    .post("/api/bounds/base")
+    .set("X-CSRF-Token", a.csrf)
+    .send(body as object);
 
-interface SseEvent { event: string; data: any }
+interface SseEvent {
+  event: string;
+  data: any;
+}
 
 /** Opens the stream and collects server-sent events as they arrive; `abort()` drops the connection. */
 function openStream(a: Agent, body: object) {
@@ -16,7 +23,11 @@ function openStream(a: Agent, body: object) {
   const waiters: (() => void)[] = [];
   let buffer = "";
   // buffer(true) with a custom parser: chunks still reach the parser as they arrive; the request completes at the end
-  const req = a.post("/api/bounds/base/stream").set("X-CSRF-Token", a.csrf).send(body).buffer(true)
+  const req = a
+    .post("/api/bounds/base/stream")
+    .set("X-CSRF-Token", a.csrf)
+    .send(body)
+    .buffer(true)
     .parse((res, cb) => {
       res.setEncoding("utf8");
       res.on("data", (chunk: string) => {
@@ -34,13 +45,18 @@ function openStream(a: Agent, body: object) {
       res.on("end", () => cb(null, events));
     });
   const finished = new Promise<{ status: number; type: string }>((resolve, reject) =>
-    req.end((err, res) => (err ? reject(err) : resolve({ status: res.status, type: res.headers["content-type"] }))));
+    req.end((err, res) => (err ? reject(err) : resolve({ status: res.status, type: res.headers["content-type"] }))),
+  );
   finished.catch(() => undefined); // an aborted stream rejects here by design; tests that abort never await it
   const until = async (pred: (e: SseEvent[]) => boolean, ms = 20_000) => {
     const deadline = Date.now() + ms;
     while (!pred(events)) {
-      if (Date.now() > deadline) throw new Error(`stream: condition not met, events ${JSON.stringify(events.slice(-3))}`);
-      await new Promise<void>((r) => { waiters.push(r); setTimeout(r, 50); });
+      if (Date.now() > deadline)
+        throw new Error(`stream: condition not met, events ${JSON.stringify(events.slice(-3))}`);
+      await new Promise<void>((r) => {
+        waiters.push(r);
+        setTimeout(r, 50);
+      });
     }
   };
   return { events, finished, until, abort: () => req.abort() };
@@ -53,8 +69,14 @@ describe("POST /api/bounds/base", () => {
 
   it("supported length of b = 10 000 at d = 128 is 1707, and null when maxLength stops before it (Men et al. 2024; derived in docs/rotary-scaling.md)", async () => {
     const a = await agentAs(["viewer"]);
-    expect((await post(a, { rotaryDim: 128, base: 10_000 })).body).toEqual({ supportedLength: 1707, maxLength: 2 ** 24 });
-    expect((await post(a, { rotaryDim: 128, base: 1_000_000, maxLength: 27_115 })).body).toEqual({ supportedLength: null, maxLength: 27_115 });
+    expect((await post(a, { rotaryDim: 128, base: 10_000 })).body).toEqual({
+      supportedLength: 1707,
+      maxLength: 2 ** 24,
+    });
+    expect((await post(a, { rotaryDim: 128, base: 1_000_000, maxLength: 27_115 })).body).toEqual({
+      supportedLength: null,
+      maxLength: 27_115,
+    });
   });
 
   it("smallest grid base for a target, checked against the plain definition on the neighbouring candidates", async () => {
@@ -75,12 +97,21 @@ describe("POST /api/bounds/base", () => {
     let searchDone = false;
     const started = once(boundSearchEvents, "start");
     // d = 128 at 1 048 576 over the default grid: hundreds of milliseconds of work, plus the worker start
-    const search = post(a, { rotaryDim: 128, targetContext: 1_048_576 }).then((r) => { searchDone = true; return r; });
+    const search = post(a, { rotaryDim: 128, targetContext: 1_048_576 }).then((r) => {
+      searchDone = true;
+      return r;
+    });
     await started;
     const answeredDuring: boolean[] = [];
     for (let i = 0; i < 3; i++) {
-      const r = await a.post("/api/analyses").set("X-CSRF-Token", a.csrf)
-        .send({ model: { headDim: 128, ropeTheta: 10_000, trainedContext: 4096 }, targetContext: 8192, methods: [{ method: "linear" }] });
+      const r = await a
+        .post("/api/analyses")
+        .set("X-CSRF-Token", a.csrf)
+        .send({
+          model: { headDim: 128, ropeTheta: 10_000, trainedContext: 4096 },
+          targetContext: 8192,
+          methods: [{ method: "linear" }],
+        });
       expect(r.status).toBe(200);
       answeredDuring.push(!searchDone);
     }
@@ -164,6 +195,8 @@ describe("more searches than workers", () => {
     const bases = [10_000, 20_000, 40_000, 80_000, 160_000, 320_000];
     const answers = await Promise.all(bases.map((base) => post(a, { rotaryDim: 64, base, maxLength: 20_000 })));
     expect(answers.map((r) => r.status)).toEqual(bases.map(() => 200));
-    answers.forEach((r, i) => expect(r.body.supportedLength).toBe(supportedLengthNaive(inverseFrequencies(64, bases[i]), 20_000)));
+    answers.forEach((r, i) =>
+      expect(r.body.supportedLength).toBe(supportedLengthNaive(inverseFrequencies(64, bases[i]), 20_000)),
+    );
   });
 });

@@ -9,7 +9,14 @@ import { METHOD_CATALOG } from "../../shared/methods";
 const { agentAs } = makeTestApp();
 const uniq = () => Math.random().toString(36).slice(2, 8);
 // An invented accelerator: 1e15 dense FLOP/s, 80 GB, 2 per hour (round numbers so the hand checks stay simple).
-const accelerator = (over: object = {}) => ({ name: `Skiff-${uniq()}`, memoryBytes: 80e9, peakFlops: 1e15, pricePerHour: 2, notes: "test", ...over });
+const accelerator = (over: object = {}) => ({
+  name: `Skiff-${uniq()}`,
+  memoryBytes: 80e9,
+  peakFlops: 1e15,
+  pricePerHour: 2,
+  notes: "test",
+  ...over,
+});
 async function makeAccelerator(a: Agent, over: object = {}) {
   return (await post(a, "/api/accelerators", accelerator(over)).expect(201)).body.accelerator as { id: number };
 }
@@ -23,8 +30,13 @@ describe("accelerator catalog", () => {
       const r = await post(a, "/api/accelerators", accelerator());
       expect(r.status).toBe(may ? 201 : 403);
       if (may) {
-        expect((await put(a, `/api/accelerators/${r.body.accelerator.id}`, { pricePerHour: 3 })).body.accelerator.pricePerHour).toBe(3);
-        expect((await a.delete(`/api/accelerators/${r.body.accelerator.id}`).set("X-CSRF-Token", a.csrf)).status).toBe(204);
+        expect(
+          (await put(a, `/api/accelerators/${r.body.accelerator.id}`, { pricePerHour: 3 })).body.accelerator
+            .pricePerHour,
+        ).toBe(3);
+        expect((await a.delete(`/api/accelerators/${r.body.accelerator.id}`).set("X-CSRF-Token", a.csrf)).status).toBe(
+          204,
+        );
       }
     });
   }
@@ -43,7 +55,10 @@ describe("POST /api/budgets/estimate", () => {
     // 32 layers × 32 heads × 128, 8 KV heads, N = 6.5e9 (the sample profile).
     const model = await createProfile(infra);
     const r = await post(infra, "/api/budgets/estimate", {
-      model: { modelId: model.id }, cluster: { acceleratorId: acc.id }, accelerators: 64, utilization: 0.4,
+      model: { modelId: model.id },
+      cluster: { acceleratorId: acc.id },
+      accelerators: 64,
+      utilization: 0.4,
       stages: [{ sequenceLength: 65536, steps: 400, globalBatch: 64 }],
     }).expect(200);
     const s = r.body.stages[0];
@@ -65,17 +80,28 @@ describe("POST /api/budgets/estimate", () => {
     ["zero accelerators", { accelerators: 0 }, "accelerators"],
     ["utilisation above 1", { utilization: 1.5 }, "utilization"],
     ["utilisation 0", { utilization: 0 }, "utilization"],
-    ["non-positive sequence length", { stages: [{ sequenceLength: 0, steps: 1, globalBatch: 1 }] }, "stages.0.sequenceLength"],
+    [
+      "non-positive sequence length",
+      { stages: [{ sequenceLength: 0, steps: 1, globalBatch: 1 }] },
+      "stages.0.sequenceLength",
+    ],
     ["unknown accelerator", { cluster: { acceleratorId: 99999999 } }, "cluster.acceleratorId"],
-    ["more than 32 stages", { stages: Array.from({ length: 33 }, () => ({ sequenceLength: 4096, steps: 1, globalBatch: 1 })) }, "stages"],
+    [
+      "more than 32 stages",
+      { stages: Array.from({ length: 33 }, () => ({ sequenceLength: 4096, steps: 1, globalBatch: 1 })) },
+      "stages",
+    ],
   ];
   for (const [label, over, field] of bad) {
     it(`${label} → 400 naming ${field}`, async () => {
       const a = await agentAs(["viewer"]);
       const r = await post(a, "/api/budgets/estimate", {
         model: { parameters: 7e9, layers: 32, attentionHeads: 32, kvHeads: 32, headDim: 128 },
-        cluster: { peakFlops: 1e15, memoryBytes: 80e9, pricePerHour: 2 }, accelerators: 8, utilization: 0.4,
-        stages: [{ sequenceLength: 8192, steps: 10, globalBatch: 8 }], ...over,
+        cluster: { peakFlops: 1e15, memoryBytes: 80e9, pricePerHour: 2 },
+        accelerators: 8,
+        utilization: 0.4,
+        stages: [{ sequenceLength: 8192, steps: 10, globalBatch: 8 }],
+        ...over,
       });
       expect(r.status).toBe(400);
       expect(Object.keys(r.body.error.fields)).toContain(field);
@@ -91,7 +117,10 @@ describe("budget inside a plan revision", () => {
     const model = await createProfile(researcher);
     const plan = await createPlan(researcher, model.id);
     const base = `/api/plans/${plan.id}/revisions/1`;
-    const edited = await put(researcher, base, { version: 1, budget: { cluster: { acceleratorId: acc.id }, accelerators: 64 } }).expect(200);
+    const edited = await put(researcher, base, {
+      version: 1,
+      budget: { cluster: { acceleratorId: acc.id }, accelerators: 64 },
+    }).expect(200);
     const draft = await researcher.get(base).expect(200);
     const cost2 = draft.body.content.budget.estimate.totals.cost;
     expect(draft.body.content.budget.cluster).toMatchObject({ pricePerHour: 2 });
@@ -123,7 +152,9 @@ describe("budget inside a plan revision", () => {
     const researcher = await agentAs(["researcher"]);
     const plan = await createPlan(researcher, (await createProfile(researcher)).id);
     const base = `/api/plans/${plan.id}/revisions/1`;
-    await put(researcher, base, { version: 1, budget: { cluster: { acceleratorId: acc.id }, accelerators: 8 } }).expect(200);
+    await put(researcher, base, { version: 1, budget: { cluster: { acceleratorId: acc.id }, accelerators: 8 } }).expect(
+      200,
+    );
     expect((await researcher.get(base)).body.content.budget).toBeDefined();
     await put(researcher, base, { version: 2, budget: null }).expect(200);
     expect((await researcher.get(base)).body.content.budget).toBeUndefined();
@@ -133,7 +164,10 @@ describe("budget inside a plan revision", () => {
     const researcher = await agentAs(["researcher"]);
     const model = await createProfile(researcher);
     const plan = await createPlan(researcher, model.id);
-    const r = await put(researcher, `/api/plans/${plan.id}/revisions/1`, { version: 1, budget: { cluster: { acceleratorId: 99999999 }, accelerators: 8 } });
+    const r = await put(researcher, `/api/plans/${plan.id}/revisions/1`, {
+      version: 1,
+      budget: { cluster: { acceleratorId: 99999999 }, accelerators: 8 },
+    });
     expect(r.status).toBe(400);
     expect(Object.keys(r.body.error.fields)).toContain("budget.cluster.acceleratorId");
     const rows = await testDb().pool.query("SELECT version FROM plan_revisions WHERE plan_id = $1", [plan.id]);

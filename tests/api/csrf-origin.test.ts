@@ -7,7 +7,8 @@ const PUBLIC_URL = "https://ropewalk.example.test";
 const { app, agent, agentAs } = makeTestApp({ publicUrl: PUBLIC_URL });
 
 const tokensOf = async (userId: number) =>
-  (await testDb().pool.query("SELECT count(*)::int AS n FROM api_tokens WHERE user_id = $1", [userId])).rows[0].n as number;
+  (await testDb().pool.query("SELECT count(*)::int AS n FROM api_tokens WHERE user_id = $1", [userId])).rows[0]
+    .n as number;
 
 describe("CSRF: only a real token exempts a request", () => {
   it("a malformed Bearer header next to a session cookie is refused and writes nothing", async () => {
@@ -50,7 +51,10 @@ describe("CSRF: where a cookie request comes from", () => {
   it("accepts our own origin, PUBLIC_URL, and (with the token) clients that send no Origin at all", async () => {
     const a = await agentAs(["viewer"]);
     // Supertest talks to an ephemeral 127.0.0.1 port; its Host header names it.
-    const own = await create(a).set("Origin", "http://own.example.test").set("Host", "own.example.test").send({ name: "own" });
+    const own = await create(a)
+      .set("Origin", "http://own.example.test")
+      .set("Host", "own.example.test")
+      .send({ name: "own" });
     expect(own.status).toBe(201);
     expect((await create(a).set("Origin", PUBLIC_URL).send({ name: "public" })).status).toBe(201);
     expect((await create(a).set("Sec-Fetch-Site", "same-origin").send({ name: "fetch" })).status).toBe(201);
@@ -72,7 +76,10 @@ describe("anonymous visitors store nothing", () => {
       tokens.push(r.body.csrfToken);
     }
     expect(new Set(tokens).size).toBe(25);
-    const stored = await testDb().pool.query("SELECT count(*)::int AS n FROM session WHERE sess->>'csrfToken' = ANY($1)", [tokens]);
+    const stored = await testDb().pool.query(
+      "SELECT count(*)::int AS n FROM session WHERE sess->>'csrfToken' = ANY($1)",
+      [tokens],
+    );
     expect(stored.rows[0].n).toBe(0);
     // Other files sign in concurrently, so the total may grow by their rows, never by 25 of ours.
     const after = (await testDb().pool.query("SELECT count(*)::int AS n FROM session")).rows[0].n as number;
@@ -83,12 +90,18 @@ describe("anonymous visitors store nothing", () => {
     const a = await agent();
     const again = await a.get("/api/auth/session").expect(200);
     expect(again.body.csrfToken).toBe(a.csrf);
-    const wrong = await a.post("/api/auth/login").set("X-CSRF-Token", "made-up").send({ email: "x@example.test", password: "whatever-1" });
+    const wrong = await a
+      .post("/api/auth/login")
+      .set("X-CSRF-Token", "made-up")
+      .send({ email: "x@example.test", password: "whatever-1" });
     expect(wrong.status).toBe(403);
   });
 
   it("a forged unsigned cookie token is refused", async () => {
-    const r = await request(app).post("/api/auth/login").set("Cookie", "rw.csrf=forged").set("X-CSRF-Token", "forged")
+    const r = await request(app)
+      .post("/api/auth/login")
+      .set("Cookie", "rw.csrf=forged")
+      .set("X-CSRF-Token", "forged")
       .send({ email: "x@example.test", password: "whatever-1" });
     expect(r.status).toBe(403);
     expect(r.body.error.code).toBe("csrf");

@@ -20,8 +20,13 @@ const EMAIL = "outage-admin@example.test";
 
 function script(name: string, args: string[], env: Record<string, string>) {
   return new Promise<string>((done, fail) =>
-    execFile("bash", [join(repo, "docker-free-db-scripts", name), ...args], { env: { ...process.env, ...env } }, (err, stdout, stderr) =>
-      err ? fail(new Error(`${name} failed: ${stderr}`)) : done(stdout)));
+    execFile(
+      "bash",
+      [join(repo, "docker-free-db-scripts", name), ...args],
+      { env: { ...process.env, ...env } },
+      (err, stdout, stderr) => (err ? fail(new Error(`${name} failed: ${stderr}`)) : done(stdout)),
+    ),
+  );
 }
 
 async function freePort(): Promise<number> {
@@ -39,7 +44,12 @@ const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 
 /** Every Set-Cookie of a response as one Cookie header, merged over what the jar already held. */
 function mergeCookies(jar: string, res: Response) {
-  const map = new Map(jar.split("; ").filter(Boolean).map((c) => [c.split("=")[0], c] as const));
+  const map = new Map(
+    jar
+      .split("; ")
+      .filter(Boolean)
+      .map((c) => [c.split("=")[0], c] as const),
+  );
   for (const line of res.headers.getSetCookie()) {
     const pair = line.split(";")[0];
     map.set(pair.split("=")[0], pair);
@@ -50,7 +60,10 @@ function mergeCookies(jar: string, res: Response) {
 /** The postmaster of our own cluster and its children (backends, checkpointer, ...), by process id. */
 function clusterPids(dataDir: string): number[] {
   const postmaster = Number(readFileSync(join(dataDir, "postmaster.pid"), "utf8").split("\n")[0]);
-  const children = execFileSync("pgrep", ["-P", String(postmaster)], { encoding: "utf8" }).split("\n").filter(Boolean).map(Number);
+  const children = execFileSync("pgrep", ["-P", String(postmaster)], { encoding: "utf8" })
+    .split("\n")
+    .filter(Boolean)
+    .map(Number);
   return [postmaster, ...children];
 }
 
@@ -64,7 +77,11 @@ describe("PostgreSQL stops and returns under a running app", { timeout: LONG }, 
 
   const call = async (path: string, init: RequestInit = {}) => {
     const started = performance.now();
-    const r = await fetch(base + path, { ...init, headers: { cookie, ...init.headers }, signal: AbortSignal.timeout(30_000) });
+    const r = await fetch(base + path, {
+      ...init,
+      headers: { cookie, ...init.headers },
+      signal: AbortSignal.timeout(30_000),
+    });
     const body = r.headers.get("content-type")?.includes("json") ? await r.json() : await r.text();
     return { status: r.status, body, ms: performance.now() - started, headers: r.headers };
   };
@@ -76,7 +93,8 @@ describe("PostgreSQL stops and returns under a running app", { timeout: LONG }, 
       const r = await call(path);
       slowest = Math.max(slowest, r.ms);
       if (r.status === status) return { afterMs: performance.now() - t0, slowest, last: r };
-      if (performance.now() - t0 > limitMs) throw new Error(`${path} never answered ${status}; last ${r.status} ${JSON.stringify(r.body)}`);
+      if (performance.now() - t0 > limitMs)
+        throw new Error(`${path} never answered ${status}; last ${r.status} ${JSON.stringify(r.body)}`);
       await sleep(100);
     }
   };
@@ -91,7 +109,12 @@ describe("PostgreSQL stops and returns under a running app", { timeout: LONG }, 
     await migrateDatabase(/^MIGRATION_DATABASE_URL=(\S+)/m.exec(out)![1], url);
     const { pool, db } = createDb(url, 1);
     // A low bcrypt cost is enough here: this test is about the database, not about password hashing.
-    await insertUser(db, { email: EMAIL, name: "Outage Admin", roles: ["admin"], passwordHash: await bcrypt.hash(PASSWORD, 4) });
+    await insertUser(db, {
+      email: EMAIL,
+      name: "Outage Admin",
+      roles: ["admin"],
+      passwordHash: await bcrypt.hash(PASSWORD, 4),
+    });
     await pool.end();
 
     const port = await freePort();
@@ -99,8 +122,16 @@ describe("PostgreSQL stops and returns under a running app", { timeout: LONG }, 
     server = spawn(process.execPath, ["--import", "tsx", join(repo, "server/index.ts")], {
       cwd: repo,
       env: {
-        ...process.env, NODE_ENV: "test", DATABASE_URL: url, HOST: "127.0.0.1", PORT: String(port), PUBLIC_URL: base,
-        CLIENT_DIR: join(tmp, "no-client"), SMTP_URL: "smtp://127.0.0.1:9", DB_CONNECT_TIMEOUT_MS: "2000", DB_STATEMENT_TIMEOUT_MS: "3000",
+        ...process.env,
+        NODE_ENV: "test",
+        DATABASE_URL: url,
+        HOST: "127.0.0.1",
+        PORT: String(port),
+        PUBLIC_URL: base,
+        CLIENT_DIR: join(tmp, "no-client"),
+        SMTP_URL: "smtp://127.0.0.1:9",
+        DB_CONNECT_TIMEOUT_MS: "2000",
+        DB_STATEMENT_TIMEOUT_MS: "3000",
       },
       stdio: ["ignore", "pipe", "pipe"],
     });
@@ -108,7 +139,10 @@ describe("PostgreSQL stops and returns under a running app", { timeout: LONG }, 
     server.stderr!.on("data", (c) => (log += c));
     for (let i = 0; ; i++) {
       if (server.exitCode !== null) throw new Error(`server exited at start:\n${log}`);
-      const up = await fetch(`${base}/api/health`).then((r) => r.status === 200, () => false);
+      const up = await fetch(`${base}/api/health`).then(
+        (r) => r.status === 200,
+        () => false,
+      );
       if (up) break;
       if (i > 600) throw new Error(`server did not start:\n${log}`);
       await sleep(100);
@@ -160,8 +194,10 @@ describe("PostgreSQL stops and returns under a running app", { timeout: LONG }, 
     expect(server!.exitCode).toBeNull();
     // Connection internals (the cancel key, the client object) never reach the log.
     expect(log).not.toMatch(/secretKey|processID|_ending/);
-    console.log(`[db outage] health 503 after ${Math.round(down.afterMs)} ms (slowest answer ${Math.round(down.slowest)} ms); ` +
-      `back to 200 ${Math.round(back.afterMs)} ms after PostgreSQL was started again`);
+    console.log(
+      `[db outage] health 503 after ${Math.round(down.afterMs)} ms (slowest answer ${Math.round(down.slowest)} ms); ` +
+        `back to 200 ${Math.round(back.afterMs)} ms after PostgreSQL was started again`,
+    );
   });
 
   it("a hung PostgreSQL (its processes stopped) gives 503s within seconds, not long hangs, and recovers", async () => {
@@ -182,7 +218,9 @@ describe("PostgreSQL stops and returns under a running app", { timeout: LONG }, 
     expect(users.ms).toBeLessThan(10_000);
     const back = await until("/api/users", 200);
     expect(server!.exitCode).toBeNull();
-    console.log(`[db hung] health 503 in ${Math.round(health.ms)} ms, /api/users 503 in ${Math.round(users.ms)} ms; ` +
-      `served again ${Math.round(back.afterMs)} ms after the processes were resumed`);
+    console.log(
+      `[db hung] health 503 in ${Math.round(health.ms)} ms, /api/users 503 in ${Math.round(users.ms)} ms; ` +
+        `served again ${Math.round(back.afterMs)} ms after the processes were resumed`,
+    );
   });
 });

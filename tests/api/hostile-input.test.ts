@@ -12,10 +12,22 @@ import { deepJson } from "../setup/fuzz";
 import { MAX_JSON_DEPTH } from "../../server/platform/hostile";
 
 const { app, agentAs } = makeTestApp();
-const plain = { _name_or_path: "saltmarsh/heron-1b", model_type: "heron", hidden_size: 2048, num_attention_heads: 16, num_hidden_layers: 22, max_position_embeddings: 4096, rope_theta: 10000 };
+const plain = {
+  _name_or_path: "saltmarsh/heron-1b",
+  model_type: "heron",
+  hidden_size: 2048,
+  num_attention_heads: 16,
+  num_hidden_layers: 22,
+  max_position_embeddings: 4096,
+  rope_theta: 10000,
+};
 const upload = (a: Agent, text: string, query = "") =>
-  a.post(`/api/models/import${query}`).set("X-CSRF-Token", a.csrf).attach("file", Buffer.from(text, "utf8"), "config.json");
-const profileCount = async () => (await testDb().pool.query("SELECT count(*)::int AS n FROM model_profiles")).rows[0].n as number;
+  a
+    .post(`/api/models/import${query}`)
+    .set("X-CSRF-Token", a.csrf)
+    .attach("file", Buffer.from(text, "utf8"), "config.json");
+const profileCount = async () =>
+  (await testDb().pool.query("SELECT count(*)::int AS n FROM model_profiles")).rows[0].n as number;
 
 function expectField(r: request.Response, field: string) {
   expect(r.status, JSON.stringify(r.body).slice(0, 300)).toBe(400);
@@ -28,7 +40,14 @@ describe("ids beyond a 32-bit integer", () => {
     expectField(await a.get("/api/models/2147483648"), "id");
     expectField(await a.get("/api/plans?ownerId=2147483648"), "ownerId");
     expectField(await a.get("/api/plans/1/revisions/2147483648"), "n");
-    expectField(await post(a, "/api/analyses", { model: { modelId: 2 ** 31 }, targetContext: 8192, methods: [{ method: "yarn" }] }), "model.modelId");
+    expectField(
+      await post(a, "/api/analyses", {
+        model: { modelId: 2 ** 31 },
+        targetContext: 8192,
+        methods: [{ method: "yarn" }],
+      }),
+      "model.modelId",
+    );
     // The largest int4 is a valid id that names no row.
     expect((await a.get("/api/models/2147483647")).status).toBe(404);
   });
@@ -40,7 +59,10 @@ describe("NUL characters", () => {
     const before = await profileCount();
     expectField(await post(a, "/api/models", sampleProfile({ family: "gan\u0000net" })), "family");
     const raw = { rope_type: "yarn", factor: 2, "k\u0000": 1 };
-    expectField(await post(a, "/api/models", sampleProfile({ currentScaling: { method: "yarn", params: {}, raw } })), "currentScaling.raw.k\\u0000");
+    expectField(
+      await post(a, "/api/models", sampleProfile({ currentScaling: { method: "yarn", params: {}, raw } })),
+      "currentScaling.raw.k\\u0000",
+    );
     expect(await profileCount()).toBe(before);
     expectField(await a.get("/api/plans?q=a%00b"), "q");
   });
@@ -50,8 +72,14 @@ describe("JSON nested deeper than the limit", () => {
   it(`is refused in a body (limit ${MAX_JSON_DEPTH}) before anything is stored, and the list of profiles still reads`, async () => {
     const a = await agentAs(["researcher"]);
     const before = await profileCount();
-    const body = JSON.stringify(sampleProfile({ currentScaling: { method: "yarn", params: {}, raw: "@deep@" } })).replace('"@deep@"', deepJson());
-    const r = await a.post("/api/models").set("X-CSRF-Token", a.csrf).set("Content-Type", "application/json").send(body);
+    const body = JSON.stringify(
+      sampleProfile({ currentScaling: { method: "yarn", params: {}, raw: "@deep@" } }),
+    ).replace('"@deep@"', deepJson());
+    const r = await a
+      .post("/api/models")
+      .set("X-CSRF-Token", a.csrf)
+      .set("Content-Type", "application/json")
+      .send(body);
     expectField(r, "currentScaling.raw.a");
     expect(r.body.error.fields["currentScaling.raw.a"]).toContain(`deeper than ${MAX_JSON_DEPTH}`);
     expect(await profileCount()).toBe(before);
@@ -61,7 +89,10 @@ describe("JSON nested deeper than the limit", () => {
   it("a too-deep scaling block stored before the limit existed no longer breaks GET /api/models", async () => {
     const a = await agentAs(["researcher"]);
     const model = await createProfile(a);
-    await testDb().pool.query("UPDATE model_profiles SET current_scaling = $1::jsonb WHERE id = $2", [deepJson(), model.id]);
+    await testDb().pool.query("UPDATE model_profiles SET current_scaling = $1::jsonb WHERE id = $2", [
+      deepJson(),
+      model.id,
+    ]);
     const list = await a.get("/api/models");
     expect(list.status, JSON.stringify(list.body).slice(0, 300)).toBe(200);
     const stored = list.body.models.find((m: { id: number }) => m.id === model.id);
@@ -85,10 +116,18 @@ describe("JSON nested deeper than the limit", () => {
     expectField(await upload(a, deepFile, "?save=true"), "file");
     const ok = JSON.stringify({ ...plain, _name_or_path: `x/heron-${Date.now()}` });
     const deepOverrides = JSON.stringify({ currentScaling: "@deep@" }).replace('"@deep@"', deepJson());
-    const r = await a.post("/api/models/import").set("X-CSRF-Token", a.csrf).field("save", "true").field("overrides", deepOverrides)
+    const r = await a
+      .post("/api/models/import")
+      .set("X-CSRF-Token", a.csrf)
+      .field("save", "true")
+      .field("overrides", deepOverrides)
       .attach("file", Buffer.from(ok), "config.json");
     expectField(r, "overrides.currentScaling.a.a");
-    const notObject = await a.post("/api/models/import").set("X-CSRF-Token", a.csrf).field("overrides", "[1,2]").attach("file", Buffer.from(ok), "config.json");
+    const notObject = await a
+      .post("/api/models/import")
+      .set("X-CSRF-Token", a.csrf)
+      .field("overrides", "[1,2]")
+      .attach("file", Buffer.from(ok), "config.json");
     expectField(notObject, "overrides");
     expectField(await upload(a, JSON.stringify({ ...plain, model_type: "her\u0000on" })), "file");
     expect(await profileCount()).toBe(before);
@@ -108,7 +147,14 @@ describe("config.json import", () => {
   for (const type of ["constructor", "__proto__", "hasOwnProperty", "toString"]) {
     it(`treats rope_type "${type}" as an unknown method, not as a member of Object`, async () => {
       const a = await agentAs(["researcher"]);
-      const r = await upload(a, JSON.stringify({ ...plain, torch_dtype: type, rope_scaling: { rope_type: type, factor: 2, original_max_position_embeddings: 2048 } }));
+      const r = await upload(
+        a,
+        JSON.stringify({
+          ...plain,
+          torch_dtype: type,
+          rope_scaling: { rope_type: type, factor: 2, original_max_position_embeddings: 2048 },
+        }),
+      );
       expect(r.status, JSON.stringify(r.body).slice(0, 300)).toBe(200);
       expect(r.body.warnings.map((w: { code: string }) => w.code)).toContain("unknown_rope_type");
       expect(r.body.profile.currentScaling.method).toBe(type);
@@ -120,12 +166,26 @@ describe("config.json import", () => {
 describe("numbers at the edge of a double", () => {
   it("refuses a denormal peak FLOP/s on an accelerator and in a plan's budget, naming the field", async () => {
     const a = await agentAs(["researcher", "infra"]);
-    expectField(await post(a, "/api/accelerators", { name: `Skiff-${Date.now()}`, memoryBytes: 80e9, peakFlops: 5e-324, pricePerHour: 2 }), "peakFlops");
+    expectField(
+      await post(a, "/api/accelerators", {
+        name: `Skiff-${Date.now()}`,
+        memoryBytes: 80e9,
+        peakFlops: 5e-324,
+        pricePerHour: 2,
+      }),
+      "peakFlops",
+    );
     const model = await createProfile(a);
     const plan = await createPlan(a, model.id);
     const budget = { cluster: { peakFlops: 5e-324, memoryBytes: 80e9, pricePerHour: 2 }, accelerators: 8 };
     expectField(await put(a, `/api/plans/${plan.id}/revisions/1`, { version: 1, budget }), "budget.cluster.peakFlops");
-    expectField(await put(a, `/api/plans/${plan.id}/revisions/1`, { version: 1, budget: { ...budget, cluster: { ...budget.cluster, peakFlops: 1e15 }, utilization: 5e-324 } }), "budget.utilization");
+    expectField(
+      await put(a, `/api/plans/${plan.id}/revisions/1`, {
+        version: 1,
+        budget: { ...budget, cluster: { ...budget.cluster, peakFlops: 1e15 }, utilization: 5e-324 },
+      }),
+      "budget.utilization",
+    );
   });
 });
 

@@ -42,14 +42,24 @@ describe("structured request log", () => {
     expect(given.headers["x-request-id"]).toBe("trace-abc.123");
 
     const all = log.text();
-    for (const secret of [user.password, cookie, s.body.csrfToken, login.body.csrfToken, "needle-in-query", "rw_secret-token-value-42"]) {
+    for (const secret of [
+      user.password,
+      cookie,
+      s.body.csrfToken,
+      login.body.csrfToken,
+      "needle-in-query",
+      "rw_secret-token-value-42",
+    ]) {
       expect(all).not.toContain(secret);
     }
   });
 
   it("redacts passwords, hashes and tokens that someone logs by hand", () => {
     const own = capture();
-    own.logger.info({ body: { password: "pw-1", newPassword: "pw-2", passwordHash: "$2b$12$abc" }, token: "rw_x", csrfToken: "c" }, "hand-made");
+    own.logger.info(
+      { body: { password: "pw-1", newPassword: "pw-2", passwordHash: "$2b$12$abc" }, token: "rw_x", csrfToken: "c" },
+      "hand-made",
+    );
     const line = own.text();
     for (const v of ["pw-1", "pw-2", "$2b$12$abc", "rw_x", '"c"']) expect(line).not.toContain(v);
     expect(line).toContain("[redacted]");
@@ -58,7 +68,11 @@ describe("structured request log", () => {
 
 describe("a failing query never logs its parameters", () => {
   // A pool whose search_path names a schema that does not exist: every query fails with 42P01, as a real fault would.
-  const broken = new pg.Pool({ connectionString: process.env.TEST_DATABASE_URL, options: "-c search_path=rw_no_such_schema", max: 2 });
+  const broken = new pg.Pool({
+    connectionString: process.env.TEST_DATABASE_URL,
+    options: "-c search_path=rw_no_such_schema",
+    max: 2,
+  });
   afterAll(() => broken.end());
 
   it("a 500 from a failed query logs SQLSTATE and the statement, not the e-mail or password sent", async () => {
@@ -67,7 +81,10 @@ describe("a failing query never logs its parameters", () => {
     const a = request.agent(app);
     const s = await a.get("/api/auth/session").expect(200);
     const email = "needle-person@example.test";
-    const r = await a.post("/api/auth/login").set("X-CSRF-Token", s.body.csrfToken).send({ email, password: "needle-password-9" });
+    const r = await a
+      .post("/api/auth/login")
+      .set("X-CSRF-Token", s.body.csrfToken)
+      .send({ email, password: "needle-password-9" });
     expect(r.status).toBe(500);
     expect(r.body.error.code).toBe("internal");
     const all = log.text();
@@ -82,7 +99,12 @@ describe("a failing query never logs its parameters", () => {
   it("a unique violation carrying a bcrypt hash logs neither the hash nor the e-mail", async () => {
     const user = await createTestUser(["viewer"]);
     const hash = await bcrypt.hash("some-password-1", 4);
-    const err = await insertUser(testDb().db, { email: user.email, name: "Twin", roles: ["viewer"], passwordHash: hash }).catch((e: unknown) => e);
+    const err = await insertUser(testDb().db, {
+      email: user.email,
+      name: "Twin",
+      roles: ["viewer"],
+      passwordHash: hash,
+    }).catch((e: unknown) => e);
     // The raw error does carry them: that is what used to be printed.
     expect(String((err as Error).message)).toContain(hash);
     const log = capture();

@@ -27,11 +27,24 @@ const tagged = () => {
 };
 /** Sends everything already due (other files' plan mail included) to this file's sink. */
 const drain = () => deliverDueMail(app.deps, { limit: 100_000 });
-const depsFor = (smtpUrl: string, extra: Partial<AppDeps["config"]> = {}): AppDeps => ({ ...app.deps, config: { ...app.deps.config, smtpUrl, ...extra } });
+const depsFor = (smtpUrl: string, extra: Partial<AppDeps["config"]> = {}): AppDeps => ({
+  ...app.deps,
+  config: { ...app.deps.config, smtpUrl, ...extra },
+});
 const outboxRows = async (kind: string) =>
-  (await pool.query("SELECT id, status, attempts, last_error, sent_at, next_attempt_at, now() AS db_now FROM mail_outbox WHERE kind = $1 ORDER BY id", [kind])).rows;
+  (
+    await pool.query(
+      "SELECT id, status, attempts, last_error, sent_at, next_attempt_at, now() AS db_now FROM mail_outbox WHERE kind = $1 ORDER BY id",
+      [kind],
+    )
+  ).rows;
 const sinkFor = async (address: string) =>
-  (await pool.query("SELECT message_id, from_address, to_addresses, subject, text FROM mail_sink_messages WHERE $1 = ANY(to_addresses) ORDER BY id", [address])).rows;
+  (
+    await pool.query(
+      "SELECT message_id, from_address, to_addresses, subject, text FROM mail_sink_messages WHERE $1 = ANY(to_addresses) ORDER BY id",
+      [address],
+    )
+  ).rows;
 
 describe("outbox delivery through the local sink", () => {
   it("delivers an enqueued message: the sink holds exactly it, the row is sent", async () => {
@@ -44,7 +57,12 @@ describe("outbox delivery through the local sink", () => {
     expect(row.sent_at).toBeInstanceOf(Date);
     const got = await sinkFor(to[0]);
     expect(got).toHaveLength(1);
-    expect(got[0]).toMatchObject({ message_id: outboxMessageId(row.id), from_address: "ropewalk@ropewalk.test", to_addresses: to, subject: `Subject ${tag}` });
+    expect(got[0]).toMatchObject({
+      message_id: outboxMessageId(row.id),
+      from_address: "ropewalk@ropewalk.test",
+      to_addresses: to,
+      subject: `Subject ${tag}`,
+    });
     expect(got[0].text.trim()).toBe(`Line one ${tag}\nLine two`);
   });
 
@@ -62,7 +80,15 @@ describe("outbox delivery through the local sink", () => {
 
   it("delivers each of the four plan messages with its link and hash", async () => {
     const { tag, to } = tagged();
-    const input = { planId: 7, planTitle: `Plan ${tag}`, revision: 3, actorName: "Ines Okafor", comment: "Check the 128k bound.", contentHash: "ab".repeat(32), url: `http://127.0.0.1:3000/plans/7?t=${tag}` };
+    const input = {
+      planId: 7,
+      planTitle: `Plan ${tag}`,
+      revision: 3,
+      actorName: "Ines Okafor",
+      comment: "Check the 128k bound.",
+      contentHash: "ab".repeat(32),
+      url: `http://127.0.0.1:3000/plans/7?t=${tag}`,
+    };
     const built = [reviewRequestedMail(input), changesRequestedMail(input), approvedMail(input), planReadyMail(input)];
     // Tagged kinds keep this test's rows apart from the plan mail other files queue meanwhile.
     for (const m of built) await enqueueMail(db, { ...m, kind: `${m.kind}.${tag}`, to: [to[0]] });
@@ -138,7 +164,10 @@ describe("outbox delivery through the local sink", () => {
     };
     const [a, b] = await Promise.all([drain(), drain()]);
     expect(a + b).toBe(12);
-    const got = await pool.query("SELECT message_id, count(*)::int AS n FROM mail_sink_messages WHERE subject = $1 GROUP BY message_id", [`Race ${tag}`]);
+    const got = await pool.query(
+      "SELECT message_id, count(*)::int AS n FROM mail_sink_messages WHERE subject = $1 GROUP BY message_id",
+      [`Race ${tag}`],
+    );
     expect(got.rows).toHaveLength(12);
     expect(got.rows.every((r) => r.n === 1)).toBe(true);
     expect((await outboxRows(kind)).every((r) => r.status === "sent" && r.attempts === 1)).toBe(true);
@@ -159,13 +188,14 @@ function handClock() {
       next = undefined;
     },
   };
-  const step = () => new Promise<void>((resolve) => {
-    const run = next;
-    if (!run) throw new Error("the worker has no run scheduled");
-    next = undefined;
-    rescheduled = resolve;
-    run();
-  });
+  const step = () =>
+    new Promise<void>((resolve) => {
+      const run = next;
+      if (!run) throw new Error("the worker has no run scheduled");
+      next = undefined;
+      rescheduled = resolve;
+      run();
+    });
   return { clock, step, pending: () => next !== undefined };
 }
 
@@ -222,13 +252,24 @@ describe("GET /api/mail", () => {
     const admin = await app.agentAs(["admin"]);
     const all = await admin.get("/api/mail").query({ q: tag }).expect(200);
     expect(all.body.messages.map((m: { subject: string }) => m.subject)).toEqual([`Second ${tag}`, `First ${tag}`]);
-    expect(all.body.messages[0]).toMatchObject({ from: "ropewalk@ropewalk.test", to: [to[1]], text: expect.stringContaining("two") });
+    expect(all.body.messages[0]).toMatchObject({
+      from: "ropewalk@ropewalk.test",
+      to: [to[1]],
+      text: expect.stringContaining("two"),
+    });
     expect(typeof all.body.messages[0].receivedAt).toBe("string");
 
     const byRecipient = await admin.get("/api/mail").query({ q: to[0].toUpperCase() }).expect(200);
     expect(byRecipient.body.messages.map((m: { subject: string }) => m.subject)).toEqual([`First ${tag}`]);
     // % is a literal character in the filter, not a wildcard.
-    expect((await admin.get("/api/mail").query({ q: `First%${tag}` }).expect(200)).body.messages).toEqual([]);
+    expect(
+      (
+        await admin
+          .get("/api/mail")
+          .query({ q: `First%${tag}` })
+          .expect(200)
+      ).body.messages,
+    ).toEqual([]);
 
     const mine = all.body.outbox.filter((o: { kind: string }) => o.kind === kind);
     expect(mine.map((o: { subject: string; status: string }) => [o.subject, o.status])).toEqual([

@@ -9,7 +9,11 @@ import { makeTestApp } from "../setup/app";
 
 const { app, agentAs } = makeTestApp();
 
-interface Layer { route?: { path: string; methods: Record<string, boolean> }; handle?: { stack?: Layer[] }; rawPath?: unknown }
+interface Layer {
+  route?: { path: string; methods: Record<string, boolean> };
+  handle?: { stack?: Layer[] };
+  rawPath?: unknown;
+}
 
 /** "get /api/plans/{id}" for every route layer under /api, found by walking Express's own router stack. */
 function mountedRoutes(express: Express): Set<string> {
@@ -44,8 +48,14 @@ describe("GET /api/openapi.json against the mounted routes", () => {
     const { ops } = await documented();
     const mounted = mountedRoutes(app);
     expect(mounted.size).toBeGreaterThan(40);
-    expect([...mounted].filter((k) => !ops.has(k)), "mounted but not documented").toEqual([]);
-    expect([...ops.keys()].filter((k) => !mounted.has(k)), "documented but not mounted").toEqual([]);
+    expect(
+      [...mounted].filter((k) => !ops.has(k)),
+      "mounted but not documented",
+    ).toEqual([]);
+    expect(
+      [...ops.keys()].filter((k) => !mounted.has(k)),
+      "documented but not mounted",
+    ).toEqual([]);
   });
 
   it("gives every operation a documented success response: a JSON schema, another media type, or an empty 204", async () => {
@@ -57,19 +67,30 @@ describe("GET /api/openapi.json against the mounted routes", () => {
         if (status === "204") continue;
         const types = Object.keys(res.content ?? {});
         expect(types.length, `${key} ${status} names its content`).toBeGreaterThan(0);
-        if (types.includes("application/json")) expect(res.content!["application/json"].schema, `${key} ${status} schema`).toBeTruthy();
+        if (types.includes("application/json"))
+          expect(res.content!["application/json"].schema, `${key} ${status} schema`).toBeTruthy();
       }
     }
   });
 
   it("carries request bodies from the shared schemas and the export contract pipelines read", async () => {
     const { doc } = await documented();
-    expect(JSON.stringify(doc.paths["/api/auth/login"].post.requestBody.content["application/json"].schema)).toContain("password");
-    expect(JSON.stringify(doc.paths["/api/plans"].post.requestBody.content["application/json"].schema)).toContain("targetContext");
-    const exported = JSON.stringify(doc.paths["/api/plans/{id}/approved/export"].get.responses["200"].content["application/json"].schema);
+    expect(JSON.stringify(doc.paths["/api/auth/login"].post.requestBody.content["application/json"].schema)).toContain(
+      "password",
+    );
+    expect(JSON.stringify(doc.paths["/api/plans"].post.requestBody.content["application/json"].schema)).toContain(
+      "targetContext",
+    );
+    const exported = JSON.stringify(
+      doc.paths["/api/plans/{id}/approved/export"].get.responses["200"].content["application/json"].schema,
+    );
     for (const field of ["signedBy", "contentHash", "attentionFactor", "caution"]) expect(exported).toContain(field);
-    expect(Object.keys(doc.paths["/api/plans/{id}/revisions/{n}/report"].get.responses["200"].content)).toEqual(["text/html"]);
-    expect(Object.keys(doc.paths["/api/bounds/base/stream"].post.responses["200"].content)).toEqual(["text/event-stream"]);
+    expect(Object.keys(doc.paths["/api/plans/{id}/revisions/{n}/report"].get.responses["200"].content)).toEqual([
+      "text/html",
+    ]);
+    expect(Object.keys(doc.paths["/api/bounds/base/stream"].post.responses["200"].content)).toEqual([
+      "text/event-stream",
+    ]);
   });
 
   it("lists no GET route the server does not answer (each answers something other than the JSON 404)", async () => {

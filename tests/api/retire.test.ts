@@ -13,26 +13,47 @@ import { createPlan, createProfile, post, put } from "../setup/plans";
  */
 const { agentAs } = makeTestApp();
 const uniq = () => Math.random().toString(36).slice(2, 8);
-const accelerator = () => ({ name: `Hawser-${uniq()}`, memoryBytes: 80e9, peakFlops: 1e15, pricePerHour: 2, notes: "test" });
+const accelerator = () => ({
+  name: `Hawser-${uniq()}`,
+  memoryBytes: 80e9,
+  peakFlops: 1e15,
+  pricePerHour: 2,
+  notes: "test",
+});
 const auditOf = async (subjectType: string, id: number) =>
-  (await testDb().pool.query("SELECT action FROM audit_events WHERE subject_type = $1 AND subject_id = $2 ORDER BY id", [subjectType, String(id)])).rows.map((r) => r.action as string);
+  (
+    await testDb().pool.query(
+      "SELECT action FROM audit_events WHERE subject_type = $1 AND subject_id = $2 ORDER BY id",
+      [subjectType, String(id)],
+    )
+  ).rows.map((r) => r.action as string);
 
 /** A decision that moves the revision out of review; sends the hash it read when the contract asks for one. */
 async function requestChanges(approver: Agent, researcher: Agent, base: string) {
   const hash = (await researcher.get(base).expect(200)).body.contentHash as string;
   let r = await post(approver, `${base}/decisions`, { decision: "request_changes", comment: "another accelerator" });
-  if (r.status === 400 && r.body.error?.fields?.contentHash) r = await post(approver, `${base}/decisions`, { decision: "request_changes", comment: "another accelerator", contentHash: hash });
+  if (r.status === 400 && r.body.error?.fields?.contentHash)
+    r = await post(approver, `${base}/decisions`, {
+      decision: "request_changes",
+      comment: "another accelerator",
+      contentHash: hash,
+    });
   expect(r.status).toBe(200);
 }
 
 /** A plan costed on a fresh accelerator, submitted and sent back, so its owner may start revision 2. */
 async function planCostedOn() {
   const infra = await agentAs(["infra"]);
-  const acc = (await post(infra, "/api/accelerators", accelerator()).expect(201)).body.accelerator as { id: number; name: string };
+  const acc = (await post(infra, "/api/accelerators", accelerator()).expect(201)).body.accelerator as {
+    id: number;
+    name: string;
+  };
   const researcher = await agentAs(["researcher"]);
   const plan = await createPlan(researcher, (await createProfile(researcher)).id);
   const base = `/api/plans/${plan.id}/revisions/1`;
-  await put(researcher, base, { version: 1, budget: { cluster: { acceleratorId: acc.id }, accelerators: 64 } }).expect(200);
+  await put(researcher, base, { version: 1, budget: { cluster: { acceleratorId: acc.id }, accelerators: 64 } }).expect(
+    200,
+  );
   await post(researcher, `${base}/submit`).expect(200);
   await requestChanges(await agentAs(["approver"]), researcher, base);
   return { infra, researcher, acc, plan, base };
@@ -72,8 +93,13 @@ describe("retiring an accelerator that plans were costed on", () => {
     expect((await researcher.get(draftUrl).expect(200)).body.state).toBe("draft");
 
     // Picking a live accelerator lets it go through.
-    const other = (await post(infra, "/api/accelerators", accelerator()).expect(201)).body.accelerator as { id: number };
-    await put(researcher, draftUrl, { version: edited.body.version, budget: { cluster: { acceleratorId: other.id }, accelerators: 64 } }).expect(200);
+    const other = (await post(infra, "/api/accelerators", accelerator()).expect(201)).body.accelerator as {
+      id: number;
+    };
+    await put(researcher, draftUrl, {
+      version: edited.body.version,
+      budget: { cluster: { acceleratorId: other.id }, accelerators: 64 },
+    }).expect(200);
     await post(researcher, `${draftUrl}/submit`).expect(200);
   });
 
@@ -82,19 +108,41 @@ describe("retiring an accelerator that plans were costed on", () => {
     await infra.delete(`/api/accelerators/${acc.id}`).set("X-CSRF-Token", infra.csrf).expect(200);
     const model = await createProfile(researcher);
     const fresh = await post(researcher, "/api/plans", {
-      title: `Fresh ${uniq()}`, modelId: model.id,
-      revision: { targetContext: 32768, method: { method: "yarn" }, stages: [
-        { targetContext: 32768, method: { method: "yarn" }, steps: 100, globalBatch: 32, sequenceLength: 32768, learningRate: 2e-5, dataMix: "books" },
-      ], acceptance: [], notes: "", budget: { cluster: { acceleratorId: acc.id }, accelerators: 8 } },
+      title: `Fresh ${uniq()}`,
+      modelId: model.id,
+      revision: {
+        targetContext: 32768,
+        method: { method: "yarn" },
+        stages: [
+          {
+            targetContext: 32768,
+            method: { method: "yarn" },
+            steps: 100,
+            globalBatch: 32,
+            sequenceLength: 32768,
+            learningRate: 2e-5,
+            dataMix: "books",
+          },
+        ],
+        acceptance: [],
+        notes: "",
+        budget: { cluster: { acceleratorId: acc.id }, accelerators: 8 },
+      },
     });
     expect(fresh.status).toBe(400);
     expect(fresh.body.error.fields["budget.cluster.acceleratorId"]).toMatch(/retired/);
     // An estimator link to it still loads, on its last catalog numbers.
     const est = await post(researcher, "/api/budgets/estimate", {
-      model: { modelId: model.id }, cluster: { acceleratorId: acc.id }, accelerators: 8, stages: [{ sequenceLength: 8192, globalBatch: 8, steps: 10 }],
+      model: { modelId: model.id },
+      cluster: { acceleratorId: acc.id },
+      accelerators: 8,
+      stages: [{ sequenceLength: 8192, globalBatch: 8, steps: 10 }],
     });
     expect(est.status).toBe(200);
-    expect(est.body.resolved).toMatchObject({ acceleratorName: acc.name, cluster: { peakFlops: 1e15, pricePerHour: 2 } });
+    expect(est.body.resolved).toMatchObject({
+      acceleratorName: acc.name,
+      cluster: { peakFlops: 1e15, pricePerHour: 2 },
+    });
   });
 
   it("restore offers it again; an unused accelerator is still deleted", async () => {
@@ -103,8 +151,14 @@ describe("retiring an accelerator that plans were costed on", () => {
     expect((await post(infra, `/api/accelerators/${acc.id}/retire`)).status).toBe(409);
     const back = await post(infra, `/api/accelerators/${acc.id}/restore`).expect(200);
     expect(back.body.accelerator.retiredAt).toBeNull();
-    expect(await auditOf("accelerator", acc.id)).toEqual(["accelerator.created", "accelerator.retired", "accelerator.restored"]);
-    const unused = (await post(infra, "/api/accelerators", accelerator()).expect(201)).body.accelerator as { id: number };
+    expect(await auditOf("accelerator", acc.id)).toEqual([
+      "accelerator.created",
+      "accelerator.retired",
+      "accelerator.restored",
+    ]);
+    const unused = (await post(infra, "/api/accelerators", accelerator()).expect(201)).body.accelerator as {
+      id: number;
+    };
     await infra.delete(`/api/accelerators/${unused.id}`).set("X-CSRF-Token", infra.csrf).expect(204);
     expect((await testDb().pool.query("SELECT 1 FROM accelerators WHERE id = $1", [unused.id])).rowCount).toBe(0);
     expect((await post(infra, "/api/accelerators/99999999/retire")).status).toBe(404);
@@ -114,7 +168,9 @@ describe("retiring an accelerator that plans were costed on", () => {
     const may = role === "infra" || role === "admin";
     it(`${role} ${may ? "may" : "may not"} retire and restore accelerators`, async () => {
       const infra = await agentAs(["infra"]);
-      const acc = (await post(infra, "/api/accelerators", accelerator()).expect(201)).body.accelerator as { id: number };
+      const acc = (await post(infra, "/api/accelerators", accelerator()).expect(201)).body.accelerator as {
+        id: number;
+      };
       const a = await agentAs([role]);
       expect((await post(a, `/api/accelerators/${acc.id}/retire`)).status).toBe(may ? 200 : 403);
       if (!may) await post(infra, `/api/accelerators/${acc.id}/retire`).expect(200);
@@ -142,9 +198,17 @@ describe("retiring a model profile that plans use", () => {
     await post(researcher, `${base}/submit`).expect(200);
     await researcher.get(`/api/models/${model.id}`).expect(200);
 
-    const fresh = await post(researcher, "/api/plans", { title: `On retired ${uniq()}`, modelId: model.id, revision: {
-      targetContext: 32768, method: { method: "yarn" }, stages: [], acceptance: [], notes: "",
-    } });
+    const fresh = await post(researcher, "/api/plans", {
+      title: `On retired ${uniq()}`,
+      modelId: model.id,
+      revision: {
+        targetContext: 32768,
+        method: { method: "yarn" },
+        stages: [],
+        acceptance: [],
+        notes: "",
+      },
+    });
     expect(fresh.status).toBe(400);
     expect(fresh.body.error.fields.modelId).toBe("retired");
 

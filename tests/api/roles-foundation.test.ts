@@ -6,15 +6,36 @@ import { makeTestApp, type Agent } from "../setup/app";
 const { app, agentAs } = makeTestApp();
 
 type Call = { name: string; send: (a: Agent) => request.Test; allowed: Role[] | "any" };
-const body = () => ({ email: `m-${Math.random().toString(36).slice(2)}@example.test`, name: "Matrix", password: "long-enough-pass", roles: ["viewer"] });
+const body = () => ({
+  email: `m-${Math.random().toString(36).slice(2)}@example.test`,
+  name: "Matrix",
+  password: "long-enough-pass",
+  roles: ["viewer"],
+});
 
 // Every route of the foundation × every role → expected status.
 const CALLS: Call[] = [
   { name: "GET /api/users", send: (a) => a.get("/api/users"), allowed: ["admin"] },
-  { name: "POST /api/users", send: (a) => a.post("/api/users").set("X-CSRF-Token", a.csrf).send(body()), allowed: ["admin"] },
-  { name: "PATCH /api/users/:id", send: (a) => a.patch(`/api/users/${a.user!.id}`).set("X-CSRF-Token", a.csrf).send({ name: "Renamed" }), allowed: ["admin"] },
+  {
+    name: "POST /api/users",
+    send: (a) => a.post("/api/users").set("X-CSRF-Token", a.csrf).send(body()),
+    allowed: ["admin"],
+  },
+  {
+    name: "PATCH /api/users/:id",
+    send: (a) => a.patch(`/api/users/${a.user!.id}`).set("X-CSRF-Token", a.csrf).send({ name: "Renamed" }),
+    allowed: ["admin"],
+  },
   { name: "GET /api/auth/session", send: (a) => a.get("/api/auth/session"), allowed: "any" },
-  { name: "POST /api/auth/password", send: (a) => a.post("/api/auth/password").set("X-CSRF-Token", a.csrf).send({ currentPassword: a.user!.password, newPassword: "another-pass-99" }), allowed: "any" },
+  {
+    name: "POST /api/auth/password",
+    send: (a) =>
+      a
+        .post("/api/auth/password")
+        .set("X-CSRF-Token", a.csrf)
+        .send({ currentPassword: a.user!.password, newPassword: "another-pass-99" }),
+    allowed: "any",
+  },
   { name: "GET /api/health", send: (a) => a.get("/api/health"), allowed: "any" },
 ];
 

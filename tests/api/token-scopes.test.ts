@@ -16,7 +16,10 @@ describe("API token scopes", () => {
     expect(row.rows[0].scopes).toEqual(["export:read"]);
     const list = await a.get("/api/tokens").expect(200);
     expect(list.body.tokens[0].scopes).toEqual(["export:read"]);
-    const audit = await testDb().pool.query("SELECT detail FROM audit_events WHERE action = 'token.created' AND subject_id = $1", [String(created.body.id)]);
+    const audit = await testDb().pool.query(
+      "SELECT detail FROM audit_events WHERE action = 'token.created' AND subject_id = $1",
+      [String(created.body.id)],
+    );
     expect(audit.rows[0].detail).toMatchObject({ scopes: ["export:read"] });
   });
 
@@ -33,14 +36,23 @@ describe("API token scopes", () => {
 
   it("an export:read token reads plans but, even an admin's, never users, audit, mail, tokens or the session", async () => {
     const admin = await agentAs(["admin", "approver", "researcher"]);
-    const token = (await post(admin, "/api/tokens", { name: "admin's job", scopes: ["export:read"] }).expect(201)).body.token as string;
+    const token = (await post(admin, "/api/tokens", { name: "admin's job", scopes: ["export:read"] }).expect(201)).body
+      .token as string;
     expect((await withToken(token, "/api/plans")).status).toBe(200);
     expect((await withToken(token, "/api/plans/settings")).status).toBe(200);
     // The same admin with a session reads these …
     await admin.get("/api/users").expect(200);
     await admin.get("/api/audit").expect(200);
     // … the token does not.
-    for (const path of ["/api/users", "/api/audit", "/api/mail", "/api/tokens", "/api/models", "/api/auth/session", "/api/accelerators"]) {
+    for (const path of [
+      "/api/users",
+      "/api/audit",
+      "/api/mail",
+      "/api/tokens",
+      "/api/models",
+      "/api/auth/session",
+      "/api/accelerators",
+    ]) {
       const r = await withToken(token, path);
       expect(r.status, path).toBe(403);
       expect(r.body.error.code, path).toBe("token_scope");

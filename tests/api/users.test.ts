@@ -5,20 +5,32 @@ import { testDb } from "../setup/db";
 const { agentAs, deps } = makeTestApp();
 const userCount = async () => (await testDb().pool.query("SELECT count(*)::int AS n FROM users")).rows[0].n as number;
 const auditFor = async (id: number) =>
-  (await testDb().pool.query("SELECT action, detail FROM audit_events WHERE subject_type = 'user' AND subject_id = $1 ORDER BY id", [String(id)])).rows;
+  (
+    await testDb().pool.query(
+      "SELECT action, detail FROM audit_events WHERE subject_type = 'user' AND subject_id = $1 ORDER BY id",
+      [String(id)],
+    )
+  ).rows;
 
 describe("user administration", () => {
   it("creates a user with two roles, lists, changes roles, deactivates — each recorded", async () => {
     const admin = await agentAs(["admin"]);
     const email = `new-${Date.now()}@example.test`;
-    const created = await admin.post("/api/users").set("X-CSRF-Token", admin.csrf)
-      .send({ email, name: "Wren Achterberg", password: "long-enough-pass", roles: ["researcher", "infra"] }).expect(201);
+    const created = await admin
+      .post("/api/users")
+      .set("X-CSRF-Token", admin.csrf)
+      .send({ email, name: "Wren Achterberg", password: "long-enough-pass", roles: ["researcher", "infra"] })
+      .expect(201);
     expect(created.body.user).toMatchObject({ email, roles: ["researcher", "infra"], active: true });
     expect(created.body.user).not.toHaveProperty("passwordHash");
     const list = await admin.get("/api/users").expect(200);
     expect(list.body.users.some((u: { email: string }) => u.email === email)).toBe(true);
     const id = created.body.user.id;
-    await admin.patch(`/api/users/${id}`).set("X-CSRF-Token", admin.csrf).send({ roles: ["approver"] }).expect(200);
+    await admin
+      .patch(`/api/users/${id}`)
+      .set("X-CSRF-Token", admin.csrf)
+      .send({ roles: ["approver"] })
+      .expect(200);
     await admin.patch(`/api/users/${id}`).set("X-CSRF-Token", admin.csrf).send({ active: false }).expect(200);
     const actions = (await auditFor(id)).map((r) => r.action);
     expect(actions).toEqual(["user.created", "user.roles_changed", "user.deactivated"]);
@@ -30,7 +42,9 @@ describe("user administration", () => {
   it("refuses a taken e-mail with 409 and writes nothing", async () => {
     const admin = await agentAs(["admin"]);
     const before = await userCount();
-    const r = await admin.post("/api/users").set("X-CSRF-Token", admin.csrf)
+    const r = await admin
+      .post("/api/users")
+      .set("X-CSRF-Token", admin.csrf)
       .send({ email: admin.user!.email, name: "Dup", password: "long-enough-pass", roles: ["viewer"] });
     expect(r.status).toBe(409);
     expect(r.body.error.fields).toHaveProperty("email");
@@ -50,7 +64,11 @@ describe("bad input never reaches the database", () => {
     ["malformed JSON", '{"email": "a@b.test", ', "(body)"],
     ["missing fields", {}, "email"],
     ["wrong types", { email: 42, name: ["x"], password: true, roles: "admin" }, "roles"],
-    ["unknown role", { email: "r@example.test", name: "R", password: "long-enough-pass", roles: ["wizard"] }, "roles.0"],
+    [
+      "unknown role",
+      { email: "r@example.test", name: "R", password: "long-enough-pass", roles: ["wizard"] },
+      "roles.0",
+    ],
     ["short password", { email: "p@example.test", name: "P", password: "short", roles: ["viewer"] }, "password"],
     ["bad e-mail", { email: "not-an-email", name: "E", password: "long-enough-pass", roles: ["viewer"] }, "email"],
   ];
@@ -70,8 +88,15 @@ describe("bad input never reaches the database", () => {
   it("a huge body → 413 and nothing written", async () => {
     const admin = await agentAs(["admin"]);
     const before = await userCount();
-    const r = await admin.post("/api/users").set("X-CSRF-Token", admin.csrf)
-      .send({ email: "big@example.test", name: "x".repeat(2_000_000), password: "long-enough-pass", roles: ["viewer"] });
+    const r = await admin
+      .post("/api/users")
+      .set("X-CSRF-Token", admin.csrf)
+      .send({
+        email: "big@example.test",
+        name: "x".repeat(2_000_000),
+        password: "long-enough-pass",
+        roles: ["viewer"],
+      });
     expect(r.status).toBe(413);
     expect(r.body.error.code).toBe("too_large");
     expect(await userCount()).toBe(before);

@@ -14,7 +14,10 @@ const errors: string[] = [];
 beforeAll(async () => {
   requireBuiltClient();
   [server, browser, admin, approver] = await Promise.all([
-    startTestServer(), launchBrowser(), createTestUser(["admin"], "Seal Admin"), createTestUser(["approver"], "Seal Approver"),
+    startTestServer(),
+    launchBrowser(),
+    createTestUser(["admin"], "Seal Admin"),
+    createTestUser(["approver"], "Seal Approver"),
   ]);
 });
 afterAll(async () => {

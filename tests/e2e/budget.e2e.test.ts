@@ -2,7 +2,14 @@ import path from "node:path";
 import Papa from "papaparse";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, BrowserContext, Page } from "playwright-core";
-import { launchBrowser, screenshot, SCREENSHOT_DIR, requireBuiltClient, signIn, downloadedText } from "../setup/browser";
+import {
+  launchBrowser,
+  screenshot,
+  SCREENSHOT_DIR,
+  requireBuiltClient,
+  signIn,
+  downloadedText,
+} from "../setup/browser";
 import { makeTestApp, type Agent } from "../setup/app";
 import { createPlan, createProfile, post, put } from "../setup/plans";
 import { startTestServer } from "../setup/server";
@@ -20,7 +27,11 @@ let profile: { id: number; name: string };
 beforeAll(async () => {
   requireBuiltClient();
   // One person who both keeps the catalog and authors the plan: only a draft's author may edit it.
-  [server, browser, planner] = await Promise.all([startTestServer(), launchBrowser(), createTestUser(["researcher", "infra"], "Ines Infra-Researcher")]);
+  [server, browser, planner] = await Promise.all([
+    startTestServer(),
+    launchBrowser(),
+    createTestUser(["researcher", "infra"], "Ines Infra-Researcher"),
+  ]);
   api = await makeTestApp().signIn(planner);
   // Sample profile (tests/fixtures/profiles.ts): N = 6.5e9, 32 layers, 32 heads of 128, 8 KV heads, hidden 4096, 2 bytes.
   profile = await createProfile(api);
@@ -31,7 +42,11 @@ afterAll(async () => {
   await server?.close();
 });
 
-async function signedInPage(context: BrowserContext, to: string, who: TestUser): Promise<{ page: Page; errors: string[] }> {
+async function signedInPage(
+  context: BrowserContext,
+  to: string,
+  who: TestUser,
+): Promise<{ page: Page; errors: string[] }> {
   const page = await context.newPage();
   const errors: string[] = [];
   page.on("pageerror", (e) => errors.push(e.message));
@@ -46,7 +61,13 @@ async function signedInPage(context: BrowserContext, to: string, who: TestUser):
 /** A catalog entry through the API: 48 GiB, 300 TFLOP/s dense peak, 3 per hour unless told otherwise. */
 async function catalogEntry(prefix: string, over: Record<string, unknown> = {}): Promise<string> {
   const name = `${prefix}-${Date.now().toString(36)}`;
-  await post(api, "/api/accelerators", { name, memoryBytes: 48 * GIB, peakFlops: 300e12, pricePerHour: 3, ...over }).expect(201);
+  await post(api, "/api/accelerators", {
+    name,
+    memoryBytes: 48 * GIB,
+    peakFlops: 300e12,
+    pricePerHour: 3,
+    ...over,
+  }).expect(201);
   return name;
 }
 
@@ -101,9 +122,14 @@ describe("budget sheet in a browser", () => {
     const spare = await catalogEntry("Spare", { memoryBytes: 16 * GIB });
     await page.reload();
     await page.getByRole("button", { name: `Delete ${spare}` }).click();
-    await page.getByRole("alert").getByRole("button", { name: `Delete ${spare}` }).click();
+    await page
+      .getByRole("alert")
+      .getByRole("button", { name: `Delete ${spare}` })
+      .click();
     await page.getByText(`Deleted ${spare}.`).waitFor();
-    await expect(page.getByRole("table", { name: "Accelerators" }).locator("tbody tr").filter({ hasText: spare }).count()).resolves.toBe(0);
+    await expect(
+      page.getByRole("table", { name: "Accelerators" }).locator("tbody tr").filter({ hasText: spare }).count(),
+    ).resolves.toBe(0);
     await screenshot(page, "accelerators");
 
     // A bare visit: example cluster figures, said to be examples, and no figures until a model is chosen.
@@ -112,20 +138,36 @@ describe("budget sheet in a browser", () => {
     await page.getByText("Pick a model profile or type a model shape to see figures.").waitFor();
 
     // Estimator: stage 1 by steps, stage 2 by a token target; inputs come from the URL.
-    const search = new URLSearchParams([["model", String(profile.id)], ["acc", String(stored.id)], ["n", "8"], ["st", "16384_64_200"], ["st", "32768_32_t1e9"]]);
+    const search = new URLSearchParams([
+      ["model", String(profile.id)],
+      ["acc", String(stored.id)],
+      ["n", "8"],
+      ["st", "16384_64_200"],
+      ["st", "32768_32_t1e9"],
+    ]);
     await page.goto(`${server.url}/estimator?${search}`);
     await page.getByRole("heading", { level: 1, name: "Budget estimator" }).waitFor();
     // Tokens = steps × global batch × sequence length (docs/budget-conventions.md); a token target takes whole steps:
     // ceil(1e9 / (32 × 32768)) = 954 steps → 1 000 341 504 tokens; plus 200 × 64 × 16384 = 209 715 200.
     await expect(settledTokens(page)).resolves.toBe("1.21 billion");
     await page.getByText("954 whole steps").waitFor();
-    await expect.poll(() => page.getByTestId("convention-formula").textContent(), { timeout: 15_000 }).toContain("Kaplan et al. 2020");
-    await expect.poll(() => page.getByTestId("assumption-line").first().textContent(), { timeout: 15_000 }).toContain("utilisation 0.4 (assumed)");
+    await expect
+      .poll(() => page.getByTestId("convention-formula").textContent(), { timeout: 15_000 })
+      .toContain("Kaplan et al. 2020");
+    await expect
+      .poll(() => page.getByTestId("assumption-line").first().textContent(), { timeout: 15_000 })
+      .toContain("utilisation 0.4 (assumed)");
     await page.getByText("These are estimates").first().waitFor();
 
-    const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: "Download the stage table (CSV)" }).click()]);
+    const [download] = await Promise.all([
+      page.waitForEvent("download"),
+      page.getByRole("button", { name: "Download the stage table (CSV)" }).click(),
+    ]);
     expect(download.suggestedFilename()).toBe("ropewalk-estimate.csv");
-    const csv = Papa.parse<Record<string, string>>(await downloadedText(download), { header: true, skipEmptyLines: true });
+    const csv = Papa.parse<Record<string, string>>(await downloadedText(download), {
+      header: true,
+      skipEmptyLines: true,
+    });
     expect(csv.data.map((r) => r.stage)).toEqual(["1", "2", "total"]);
     const [s1, s2, total] = csv.data;
     expect(Number(s1.tokens)).toBe(200 * 64 * 16384);
@@ -141,14 +183,21 @@ describe("budget sheet in a browser", () => {
     const before = await totalText(page, "compute");
     // click, not check(): the choice goes through the URL, so the radio turns on a moment after the click.
     await page.getByLabel(/^Full/).click();
-    await page.waitForFunction((b) => document.querySelector('[data-testid="total-compute"]')?.textContent !== b, before);
-    await expect.poll(() => page.getByTestId("convention-formula").textContent(), { timeout: 15_000 }).toContain("Chowdhery et al. 2022");
+    await page.waitForFunction(
+      (b) => document.querySelector('[data-testid="total-compute"]')?.textContent !== b,
+      before,
+    );
+    await expect
+      .poll(() => page.getByTestId("convention-formula").textContent(), { timeout: 15_000 })
+      .toContain("Chowdhery et al. 2022");
     expect(new URL(page.url()).searchParams.get("conv")).toBe("full");
 
     // A published recipe adds a stage labelled as the paper's own run, with its source.
     await page.getByText("Start from a published recipe").click();
     await page.getByRole("button", { name: "Use YaRN fine-tune" }).click();
-    await expect(page.getByTestId("recipe-label-2").textContent()).resolves.toMatch(/As reported.*Peng.*2023.*not a prediction/);
+    await expect(page.getByTestId("recipe-label-2").textContent()).resolves.toMatch(
+      /As reported.*Peng.*2023.*not a prediction/,
+    );
     await expect(page.getByLabel("Stage 3 sequence length").inputValue()).resolves.toBe("65536");
     await page.getByTestId("stage-chart").waitFor();
     await page.getByTestId("growth-chart").waitFor();
@@ -163,11 +212,30 @@ describe("budget sheet in a browser", () => {
     // Its own catalog entry through the API (the form is exercised above), so this test also runs alone.
     const acceleratorName = await catalogEntry("Plan-bed");
     const yarn = { method: "yarn" as const };
-    const stage = (targetContext: number, sequenceLength: number, globalBatch: number) => ({ targetContext, method: yarn, steps: 100, globalBatch, sequenceLength, learningRate: 2e-5, dataMix: "books" });
+    const stage = (targetContext: number, sequenceLength: number, globalBatch: number) => ({
+      targetContext,
+      method: yarn,
+      steps: 100,
+      globalBatch,
+      sequenceLength,
+      learningRate: 2e-5,
+      dataMix: "books",
+    });
     const created = await createPlan(api, profile.id, {
       revision: {
-        targetContext: 262144, method: yarn, stages: [stage(65536, 65536, 64), stage(262144, 131072, 32)], notes: "budget browser test",
-        acceptance: [{ evaluation: "passkey retrieval", contextLength: 262144, metric: "accuracy", comparison: ">=", threshold: 0.9 }],
+        targetContext: 262144,
+        method: yarn,
+        stages: [stage(65536, 65536, 64), stage(262144, 131072, 32)],
+        notes: "budget browser test",
+        acceptance: [
+          {
+            evaluation: "passkey retrieval",
+            contextLength: 262144,
+            metric: "accuracy",
+            comparison: ">=",
+            threshold: 0.9,
+          },
+        ],
       },
     });
     const editUrl = `/plans/${created.id}/revisions/1/edit`;
@@ -191,7 +259,9 @@ describe("budget sheet in a browser", () => {
     await misfit.waitFor();
     await expect(misfit.textContent()).resolves.toMatch(/67(\.\d)? GiB.*48 GiB.*over 2 accelerators/);
     // The sheet edits the plan's own stage: the stage field above shows the new length.
-    await expect(page.getByRole("group", { name: "Stage 2" }).getByLabel("Sequence length (tokens)").inputValue()).resolves.toBe("262144");
+    await expect(
+      page.getByRole("group", { name: "Stage 2" }).getByLabel("Sequence length (tokens)").inputValue(),
+    ).resolves.toBe("262144");
     await screenshot(page, "plan-budget-misfit");
     // The sheet alone, for a person checking the warning and the figures without scrolling the whole editor.
     await sheet.screenshot({ path: path.join(SCREENSHOT_DIR, "plan-budget-sheet-misfit.png"), animations: "disabled" });
@@ -205,8 +275,14 @@ describe("budget sheet in a browser", () => {
 
     // The server computed and stored the figures from what the sheet saved.
     const saved = (await api.get(`/api/plans/${created.id}/revisions/1`).expect(200)).body;
-    const acc = (await api.get("/api/accelerators").expect(200)).body.accelerators.find((a: any) => a.name === acceleratorName);
-    expect(saved.content.budget.inputs).toEqual({ cluster: { acceleratorId: acc.id }, accelerators: 32, sequenceSharding: 2 });
+    const acc = (await api.get("/api/accelerators").expect(200)).body.accelerators.find(
+      (a: any) => a.name === acceleratorName,
+    );
+    expect(saved.content.budget.inputs).toEqual({
+      cluster: { acceleratorId: acc.id },
+      accelerators: 32,
+      sequenceSharding: 2,
+    });
     expect(saved.content.stages[1].sequenceLength).toBe(262144);
     expect(saved.content.budget.cluster).toMatchObject({ name: acceleratorName, memoryBytes: 48 * GIB });
     expect(saved.content.budget.estimate.totals.tokens).toBe(100 * 64 * 65536 + 100 * 32 * 262144);
@@ -220,8 +296,12 @@ describe("budget sheet in a browser", () => {
     await page.getByRole("button", { name: "Reload the saved draft" }).click();
     await page.getByText("Editing version 3 of revision 1").waitFor();
     // The reloaded sheet starts from the stored budget block.
-    await expect(page.getByRole("region", { name: "Budget sheet" }).getByLabel("Sequence sharding", { exact: true }).inputValue()).resolves.toBe("2");
-    await expect(page.getByRole("region", { name: "Budget sheet" }).getByLabel("Stage 1 steps", { exact: true }).inputValue()).resolves.toBe("100");
+    await expect(
+      page.getByRole("region", { name: "Budget sheet" }).getByLabel("Sequence sharding", { exact: true }).inputValue(),
+    ).resolves.toBe("2");
+    await expect(
+      page.getByRole("region", { name: "Budget sheet" }).getByLabel("Stage 1 steps", { exact: true }).inputValue(),
+    ).resolves.toBe("100");
     await settledTokens(page);
     await screenshot(page, "plan-budget");
 
@@ -231,7 +311,9 @@ describe("budget sheet in a browser", () => {
 
   it("an accelerator retired under a plan: a new draft names it and asks for another; an estimator link still loads with a notice", async () => {
     const acceleratorName = await catalogEntry("Retired-bed");
-    const acc = (await api.get("/api/accelerators").expect(200)).body.accelerators.find((a: { name: string }) => a.name === acceleratorName);
+    const acc = (await api.get("/api/accelerators").expect(200)).body.accelerators.find(
+      (a: { name: string }) => a.name === acceleratorName,
+    );
     const created = await createPlan(api, profile.id);
     const base = `/api/plans/${created.id}/revisions/1`;
     await put(api, base, { version: 1, budget: { cluster: { acceleratorId: acc.id }, accelerators: 64 } }).expect(200);
@@ -240,7 +322,12 @@ describe("budget sheet in a browser", () => {
     const approver = await makeTestApp().agentAs(["approver"]);
     const hash = (await api.get(base).expect(200)).body.contentHash;
     let sent = await post(approver, `${base}/decisions`, { decision: "request_changes", comment: "cheaper hardware" });
-    if (sent.status === 400 && sent.body.error?.fields?.contentHash) sent = await post(approver, `${base}/decisions`, { decision: "request_changes", comment: "cheaper hardware", contentHash: hash });
+    if (sent.status === 400 && sent.body.error?.fields?.contentHash)
+      sent = await post(approver, `${base}/decisions`, {
+        decision: "request_changes",
+        comment: "cheaper hardware",
+        contentHash: hash,
+      });
     expect(sent.status).toBe(200);
     // Deleting it retires it: the plan was costed on it.
     const del = await api.delete(`/api/accelerators/${acc.id}`).set("X-CSRF-Token", api.csrf);
@@ -255,17 +342,23 @@ describe("budget sheet in a browser", () => {
     const sheet = page.getByRole("region", { name: "Budget sheet" });
     const notice = sheet.getByTestId("retired-accelerator");
     await expect.poll(() => notice.textContent(), { timeout: 15_000 }).toContain(`${acceleratorName} is retired`);
-    await expect(sheet.getByLabel("Catalog accelerator").locator("option:checked").textContent()).resolves.toBe(`${acceleratorName} (retired)`);
+    await expect(sheet.getByLabel("Catalog accelerator").locator("option:checked").textContent()).resolves.toBe(
+      `${acceleratorName} (retired)`,
+    );
     await settledTokens(page);
     await screenshot(page, "plan-budget-retired-accelerator");
     // Once another is picked, the retired one leaves the picker.
     await sheet.getByLabel("Catalog accelerator").selectOption({ label: other });
     await notice.waitFor({ state: "detached" });
-    await expect(sheet.getByLabel("Catalog accelerator").locator("option").allTextContents()).resolves.not.toContain(`${acceleratorName} (retired)`);
+    await expect(sheet.getByLabel("Catalog accelerator").locator("option").allTextContents()).resolves.not.toContain(
+      `${acceleratorName} (retired)`,
+    );
 
     // An estimator link to the retired accelerator still loads its figures, with the notice.
     await page.goto(`${server.url}/estimator?model=${profile.id}&acc=${acc.id}`);
-    await expect.poll(() => page.getByTestId("retired-accelerator").textContent(), { timeout: 15_000 }).toContain(acceleratorName);
+    await expect
+      .poll(() => page.getByTestId("retired-accelerator").textContent(), { timeout: 15_000 })
+      .toContain(acceleratorName);
     await expect(settledTokens(page)).resolves.toBeTruthy();
     expect(errors).toEqual([]);
     await context.close();
@@ -288,7 +381,9 @@ describe("budget sheet in a browser", () => {
     await page.waitForURL(/\/plans\/\d+$/);
     const id = Number(new URL(page.url()).pathname.split("/").pop());
     await page.getByTestId("budget-panel").waitFor();
-    await expect.poll(() => page.getByTestId("budget-panel").textContent(), { timeout: 15_000 }).toContain(acceleratorName);
+    await expect
+      .poll(() => page.getByTestId("budget-panel").textContent(), { timeout: 15_000 })
+      .toContain(acceleratorName);
     const rev = (await api.get(`/api/plans/${id}/revisions/1`).expect(200)).body;
     expect(rev.content.budget.inputs).toMatchObject({ accelerators: 8 });
     expect(rev.content.budget.cluster.name).toBe(acceleratorName);

@@ -4,21 +4,23 @@ import { launchBrowser, screenshot, requireBuiltClient, submitSignIn } from "../
 import { startTestServer } from "../setup/server";
 import { createTestUser, type TestUser } from "../setup/users";
 
-
 let server: Awaited<ReturnType<typeof startTestServer>>;
 let browser: Browser;
 let admin: TestUser;
 
 beforeAll(async () => {
   requireBuiltClient();
-  [server, browser, admin] = await Promise.all([startTestServer(), launchBrowser(), createTestUser(["admin"], "Ada Admin")]);
+  [server, browser, admin] = await Promise.all([
+    startTestServer(),
+    launchBrowser(),
+    createTestUser(["admin"], "Ada Admin"),
+  ]);
 });
 
 afterAll(async () => {
   await browser?.close();
   await server?.close();
 });
-
 
 const navLabels = (page: Page) => page.getByRole("navigation", { name: "Main" }).getByRole("link").allTextContents();
 

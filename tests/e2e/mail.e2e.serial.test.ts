@@ -25,10 +25,19 @@ beforeAll(async () => {
   requireBuiltClient();
   sink = await startMailSink({ db, port: 0 });
   const overrides = { smtpUrl: `smtp://127.0.0.1:${sink.port}`, mailRetryBaseMs: 0 };
-  [server, browser, admin] = await Promise.all([startTestServer(overrides), launchBrowser(), createTestUser(["admin"], "Ada Admin")]);
+  [server, browser, admin] = await Promise.all([
+    startTestServer(overrides),
+    launchBrowser(),
+    createTestUser(["admin"], "Ada Admin"),
+  ]);
   // Other files leave pending rows; sent now, they cannot stand before this file's row in the button's batches.
   await deliverDueMail({ db, config: testConfig(overrides) }, { limit: 100_000 });
-  await enqueueMail(db, { kind: `test.${tag}`, to: [to], subject, body: `Delivered by the Mail page's button (${tag}).` });
+  await enqueueMail(db, {
+    kind: `test.${tag}`,
+    to: [to],
+    subject,
+    body: `Delivered by the Mail page's button (${tag}).`,
+  });
 });
 
 afterAll(async () => {
@@ -37,7 +46,8 @@ afterAll(async () => {
   await server?.close();
 });
 
-const outboxRow = async () => (await pool.query("SELECT status, attempts, sent_at FROM mail_outbox WHERE kind = $1", [`test.${tag}`])).rows;
+const outboxRow = async () =>
+  (await pool.query("SELECT status, attempts, sent_at FROM mail_outbox WHERE kind = $1", [`test.${tag}`])).rows;
 
 async function signedIn(who: TestUser, to: string): Promise<Page> {
   const page = await (await browser.newContext({ viewport: { width: 1280, height: 900 } })).newPage();
@@ -57,7 +67,9 @@ describe("Mail page in a browser", () => {
     await page.getByRole("heading", { level: 1, name: "Mail" }).waitFor();
     const outbox = page.getByRole("table", { name: "Outbox" });
     await page.getByLabel("Filter outbox").fill(tag);
-    await expect.poll(() => outbox.locator("tbody tr").allTextContents(), { timeout: 15_000 }).toEqual([expect.stringContaining("pending")]);
+    await expect
+      .poll(() => outbox.locator("tbody tr").allTextContents(), { timeout: 15_000 })
+      .toEqual([expect.stringContaining("pending")]);
     await page.getByLabel("Search received mail").fill(tag);
     const received = page.getByRole("list", { name: "Received messages" });
     await page.getByText("No messages received.").waitFor();
@@ -68,8 +80,12 @@ describe("Mail page in a browser", () => {
 
     await received.getByRole("button", { name: new RegExp(subject) }).waitFor();
     await expect(received.locator("li button span:first-child").allTextContents()).resolves.toEqual([subject]);
-    await expect.poll(() => page.getByRole("article", { name: "Message" }).textContent(), { timeout: 15_000 }).toContain(to);
-    await expect.poll(() => outbox.locator("tbody tr").allTextContents(), { timeout: 15_000 }).toEqual([expect.stringContaining("sent")]);
+    await expect
+      .poll(() => page.getByRole("article", { name: "Message" }).textContent(), { timeout: 15_000 })
+      .toContain(to);
+    await expect
+      .poll(() => outbox.locator("tbody tr").allTextContents(), { timeout: 15_000 })
+      .toEqual([expect.stringContaining("sent")]);
 
     const [row] = await outboxRow();
     expect(row).toMatchObject({ status: "sent", attempts: 1 });

@@ -63,7 +63,8 @@ async function signedIn(who: TestUser, to: string): Promise<Page> {
   page.on("pageerror", (e) => errors.push(`${who.name}: ${e.message}`));
   // The browser's own line for an expected 409 or 403 is not an application error.
   page.on("console", (m) => {
-    if (m.type() === "error" && !m.text().startsWith("Failed to load resource")) errors.push(`${who.name}: ${m.text()}`);
+    if (m.type() === "error" && !m.text().startsWith("Failed to load resource"))
+      errors.push(`${who.name}: ${m.text()}`);
   });
   await page.goto(`${server.url}${to}`);
   await signIn(page, who);
@@ -113,7 +114,9 @@ describe("plan workflow in a browser", () => {
     await expect.poll(() => target.getAttribute("aria-invalid")).toBe("true");
     // The message is the one wired to that input (the live check above may say the same in its own box).
     const errorId = (await target.getAttribute("aria-describedby"))?.split(" ").find((id) => id.endsWith("-error"));
-    expect(await page.locator(`[id="${errorId}"]`).textContent()).toBe("must exceed the trained context (4096) for method yarn");
+    expect(await page.locator(`[id="${errorId}"]`).textContent()).toBe(
+      "must exceed the trained context (4096) for method yarn",
+    );
     await target.fill("32768");
 
     // The live check answers for 4096 → 32768 (s = 8) before anything is saved.
@@ -142,11 +145,20 @@ describe("plan workflow in a browser", () => {
     const view = page.getByTestId("revision-view");
     await view.getByRole("table", { name: "Stages" }).waitFor();
     await expect(view.getByRole("table", { name: "Stages" }).locator("tbody tr").count()).resolves.toBe(2);
-    await expect.poll(() => page.getByText("Approvals needed").locator("xpath=following-sibling::dd[1]").textContent(), { timeout: 15_000 }).toContain("2");
+    await expect
+      .poll(() => page.getByText("Approvals needed").locator("xpath=following-sibling::dd[1]").textContent(), {
+        timeout: 15_000,
+      })
+      .toContain("2");
 
     await page.getByRole("button", { name: "Submit for review" }).click();
-    await page.getByRole("group", { name: "Revision actions" }).getByRole("button", { name: "Withdraw to draft" }).waitFor();
-    await expect.poll(() => page.getByRole("list", { name: "Revisions" }).textContent(), { timeout: 15_000 }).toContain("In review");
+    await page
+      .getByRole("group", { name: "Revision actions" })
+      .getByRole("button", { name: "Withdraw to draft" })
+      .waitFor();
+    await expect
+      .poll(() => page.getByRole("list", { name: "Revisions" }).textContent(), { timeout: 15_000 })
+      .toContain("In review");
     signedHash = (await page.getByTestId("content-hash").textContent()) ?? "";
     expect(signedHash).toMatch(/^[0-9a-f]{64}$/);
     await page.getByTestId("verify-status").and(page.locator('[data-ok="true"]')).waitFor();
@@ -192,7 +204,9 @@ describe("plan workflow in a browser", () => {
     await dialog.getByLabel("Comment (optional)").fill(`Checked by ${approverB.name}.`);
     await dialog.getByRole("button", { name: "Sign and approve" }).click();
     await page.getByText("Revision 1 is approved and signed.").waitFor();
-    await expect.poll(() => page.getByRole("list", { name: "Revisions" }).textContent(), { timeout: 15_000 }).toContain("Approved");
+    await expect
+      .poll(() => page.getByRole("list", { name: "Revisions" }).textContent(), { timeout: 15_000 })
+      .toContain("Approved");
     // Decided revisions leave the queue.
     await page.goto(`${server.url}/review`);
     await page.getByRole("table", { name: "Review queue" }).waitFor();
@@ -202,16 +216,26 @@ describe("plan workflow in a browser", () => {
   it("the researcher sees Approved and downloads the export and the report", async () => {
     const page = await signedIn(researcher, `/plans/${planId}`);
     await page.getByRole("heading", { level: 1, name: title }).waitFor();
-    await expect.poll(() => page.getByRole("list", { name: "Revisions" }).textContent(), { timeout: 15_000 }).toContain("Approved");
+    await expect
+      .poll(() => page.getByRole("list", { name: "Revisions" }).textContent(), { timeout: 15_000 })
+      .toContain("Approved");
     await page.getByTestId("verify-status").and(page.locator('[data-ok="true"]')).waitFor();
-    await expect(page.getByRole("list", { name: "Decisions" }).getByTestId("signed-hash").allTextContents()).resolves.toEqual([signedHash, signedHash]);
+    await expect(
+      page.getByRole("list", { name: "Decisions" }).getByTestId("signed-hash").allTextContents(),
+    ).resolves.toEqual([signedHash, signedHash]);
     // Each decision says that the server's signature on it holds.
     const seals = page.getByRole("list", { name: "Decisions" }).getByTestId("signature-status");
-    await expect(seals.evaluateAll((els) => els.map((e) => e.getAttribute("data-status")))).resolves.toEqual(["valid", "valid"]);
+    await expect(seals.evaluateAll((els) => els.map((e) => e.getAttribute("data-status")))).resolves.toEqual([
+      "valid",
+      "valid",
+    ]);
     await expect(seals.first().textContent()).resolves.toMatch(/Server signature holds · key [0-9a-f]/);
     await screenshot(page, "plans-plan-approved");
 
-    const [exported] = await Promise.all([page.waitForEvent("download"), page.getByRole("link", { name: "Download export (config patch JSON)" }).click()]);
+    const [exported] = await Promise.all([
+      page.waitForEvent("download"),
+      page.getByRole("link", { name: "Download export (config patch JSON)" }).click(),
+    ]);
     const envelope = JSON.parse(await downloadedText(exported));
     expect(envelope.config.rope_scaling.rope_type).toBe("yarn");
     // YaRN with the default factor: target ÷ trained = 32768 ÷ 4096.
@@ -220,7 +244,10 @@ describe("plan workflow in a browser", () => {
     expect(envelope.contentHash).toBe(signedHash);
     expect(envelope.signedBy.map((s: { name: string }) => s.name).sort()).toEqual(["Abel Approver", "Bea Approver"]);
 
-    const [report] = await Promise.all([page.waitForEvent("download"), page.getByRole("link", { name: "Download report" }).click()]);
+    const [report] = await Promise.all([
+      page.waitForEvent("download"),
+      page.getByRole("link", { name: "Download report" }).click(),
+    ]);
     const html = await downloadedText(report);
     expect(html).toContain(title);
     expect(html.split(signedHash).length - 1).toBeGreaterThanOrEqual(2);
@@ -248,14 +275,20 @@ describe("plan workflow in a browser", () => {
     await otherForm.getByRole("button", { name: "Save draft" }).click();
     await other.getByText("Changed since you read it — reload").waitFor();
     await other.getByRole("button", { name: "Reload the saved draft" }).click();
-    await other.waitForFunction(() => (document.querySelector("textarea") as HTMLTextAreaElement | null)?.value.startsWith("Longer second stage"));
+    await other.waitForFunction(() =>
+      (document.querySelector("textarea") as HTMLTextAreaElement | null)?.value.startsWith("Longer second stage"),
+    );
     await other.close();
 
     await page.goto(`${server.url}/plans/${planId}/diff?a=1&b=2`);
     const stages = page.getByRole("region", { name: "Changed stages" });
     await stages.getByText("Stage 2: 1 field changed").waitFor();
-    await expect(stages.getByRole("table", { name: "Stage 2 changes" }).textContent()).resolves.toMatch(/steps.*200.*300/);
-    await expect.poll(() => page.getByRole("region", { name: "Changed fields" }).textContent(), { timeout: 15_000 }).toContain("notes");
+    await expect(stages.getByRole("table", { name: "Stage 2 changes" }).textContent()).resolves.toMatch(
+      /steps.*200.*300/,
+    );
+    await expect
+      .poll(() => page.getByRole("region", { name: "Changed fields" }).textContent(), { timeout: 15_000 })
+      .toContain("notes");
     await screenshot(page, "plans-diff");
   }, 60_000);
 
@@ -264,7 +297,15 @@ describe("plan workflow in a browser", () => {
     const table = page.getByRole("table", { name: "Audit trail" });
     await table.getByText("revision.approved").waitFor();
     const actions = await table.locator("tbody tr td:nth-child(3)").allTextContents();
-    for (const a of ["plan.created", "revision.submitted", "decision.approved", "revision.approved", "revision.exported", "revision.created", "revision.edited"]) {
+    for (const a of [
+      "plan.created",
+      "revision.submitted",
+      "decision.approved",
+      "revision.approved",
+      "revision.exported",
+      "revision.created",
+      "revision.edited",
+    ]) {
       expect(actions).toContain(a);
     }
     expect(actions.filter((a) => a === "decision.approved")).toHaveLength(2);
@@ -276,7 +317,10 @@ describe("plan workflow in a browser", () => {
 
   it("an admin sees the workflow's mail after delivery", async () => {
     // Delivered here to this file's sink (plan kinds only, so other files' test mail is left alone).
-    const deps = { db: testDb().db, config: { smtpUrl: `smtp://127.0.0.1:${sink.port}`, mailFrom: "ropewalk@ropewalk.test", mailRetryBaseMs: 0 } };
+    const deps = {
+      db: testDb().db,
+      config: { smtpUrl: `smtp://127.0.0.1:${sink.port}`, mailFrom: "ropewalk@ropewalk.test", mailRetryBaseMs: 0 },
+    };
     await deliverDueMail(deps, { kinds: PLAN_MAIL, limit: 5000 });
     const page = await signedIn(admin, "/mail");
     await page.getByLabel("Search received mail").fill(title);
@@ -287,7 +331,9 @@ describe("plan workflow in a browser", () => {
     expect(subjects).toContain(`Review requested: "${title}" rev. 1`);
     expect(subjects).toContain(`Approved: "${title}" rev. 1`);
     await received.getByRole("button", { name: new RegExp(`^Approved: "${title}"`) }).click();
-    await expect.poll(() => page.getByRole("article", { name: "Message" }).textContent(), { timeout: 15_000 }).toContain(`/plans/${planId}`);
+    await expect
+      .poll(() => page.getByRole("article", { name: "Message" }).textContent(), { timeout: 15_000 })
+      .toContain(`/plans/${planId}`);
     await screenshot(page, "plans-mail");
   }, 60_000);
 
@@ -305,7 +351,8 @@ describe("plan workflow in a browser", () => {
     expect(await table.locator("tbody tr").first().textContent()).toContain("export:read");
     await screenshot(page, "plans-tokens");
 
-    const withToken = () => fetch(`${server.url}/api/plans/${planId}/approved/export`, { headers: { Authorization: `Bearer ${secret}` } });
+    const withToken = () =>
+      fetch(`${server.url}/api/plans/${planId}/approved/export`, { headers: { Authorization: `Bearer ${secret}` } });
     const ok = await withToken();
     expect(ok.status).toBe(200);
     expect((await ok.json()).config.rope_scaling.rope_type).toBe("yarn");
@@ -321,7 +368,10 @@ describe("plan workflow in a browser", () => {
   it("a plan with a budget sheet shows its frozen per-stage figures", async () => {
     // An invented cluster given inline: 1 PFLOP/s peak, 80 GiB, 2.5 per accelerator-hour, 64 of them.
     const budget = { cluster: { peakFlops: 1e15, memoryBytes: 80 * 2 ** 30, pricePerHour: 2.5 }, accelerators: 64 };
-    const plan = await createPlan(api, profile.id, { title: `${title} costed`, revision: { ...twoStageRevision(), budget } });
+    const plan = await createPlan(api, profile.id, {
+      title: `${title} costed`,
+      revision: { ...twoStageRevision(), budget },
+    });
     const page = await signedIn(approverA, `/plans/${plan.id}`);
     const panel = page.getByTestId("budget-panel");
     await panel.waitFor();
@@ -336,12 +386,17 @@ describe("plan workflow in a browser", () => {
 
   it("a revision whose stored content was altered is flagged, and its export is not offered", async () => {
     // Tampering behind the application's back: the stored hash no longer matches the content.
-    await testDb().pool.query(`UPDATE plan_revisions SET content = jsonb_set(content, '{notes}', '"edited in the database"') WHERE plan_id = $1 AND number = 1`, [planId]);
+    await testDb().pool.query(
+      `UPDATE plan_revisions SET content = jsonb_set(content, '{notes}', '"edited in the database"') WHERE plan_id = $1 AND number = 1`,
+      [planId],
+    );
     const page = await signedIn(researcher, `/plans/${planId}?revision=1`);
     const status = page.getByTestId("verify-status");
     await status.and(page.locator('[data-ok="false"]')).waitFor();
     await expect.poll(() => status.textContent(), { timeout: 15_000 }).toContain("Integrity failure");
-    await expect(page.getByRole("button", { name: "Download export (config patch JSON)" }).isDisabled()).resolves.toBe(true);
+    await expect(page.getByRole("button", { name: "Download export (config patch JSON)" }).isDisabled()).resolves.toBe(
+      true,
+    );
     await expect(page.getByRole("link", { name: "Download export (config patch JSON)" }).count()).resolves.toBe(0);
     await screenshot(page, "plans-integrity-failure");
   }, 60_000);

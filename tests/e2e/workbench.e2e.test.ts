@@ -3,7 +3,14 @@ import path from "node:path";
 import Papa from "papaparse";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
-import { launchBrowser, screenshot, SCREENSHOT_DIR, requireBuiltClient, signIn, downloadedText } from "../setup/browser";
+import {
+  launchBrowser,
+  screenshot,
+  SCREENSHOT_DIR,
+  requireBuiltClient,
+  signIn,
+  downloadedText,
+} from "../setup/browser";
 import { startTestServer } from "../setup/server";
 import { createTestUser, type TestUser } from "../setup/users";
 import { makeTestApp } from "../setup/app";
@@ -18,7 +25,11 @@ let researcher: TestUser;
 
 beforeAll(async () => {
   requireBuiltClient();
-  [server, browser, researcher] = await Promise.all([startTestServer(), launchBrowser(), createTestUser(["researcher"], "Wren Workbench")]);
+  [server, browser, researcher] = await Promise.all([
+    startTestServer(),
+    launchBrowser(),
+    createTestUser(["researcher"], "Wren Workbench"),
+  ]);
 });
 
 afterAll(async () => {
@@ -26,10 +37,14 @@ afterAll(async () => {
   await server?.close();
 });
 
-
 /** The analysis the page asked for last, once it has answered with the given target. */
 const analysisFor = (page: Page, target: number) =>
-  page.waitForResponse((r) => r.url().endsWith("/api/analyses") && r.request().method() === "POST" && JSON.parse(r.request().postData() ?? "{}").targetContext === target);
+  page.waitForResponse(
+    (r) =>
+      r.url().endsWith("/api/analyses") &&
+      r.request().method() === "POST" &&
+      JSON.parse(r.request().postData() ?? "{}").targetContext === target,
+  );
 
 /** Inputs a person sets on the workbench, read back from the screen. */
 async function readInputs(page: Page) {
@@ -62,7 +77,9 @@ describe("workbench in a browser", () => {
     );
 
     // Upload: the preview is parse-only; every warning the server raised is on screen with its fix.
-    const previewed = page.waitForResponse((r) => r.url().includes("/api/models/import") && !r.url().includes("save=true"));
+    const previewed = page.waitForResponse(
+      (r) => r.url().includes("/api/models/import") && !r.url().includes("save=true"),
+    );
     await page.getByLabel("config.json to import").setInputFiles(fixturePath);
     const preview = await (await previewed).json();
     expect(preview.saved).toBeNull();
@@ -77,7 +94,13 @@ describe("workbench in a browser", () => {
     }
     // The fixture carries each mistake of the domain notes' import list that applies to a yarn block.
     const codes = preview.warnings.map((w: { code: string }) => w.code);
-    for (const code of ["missing_original_length", "head_dim_differs", "partial_rotation", "unknown_scaling_key", "attention_factor_twice"]) {
+    for (const code of [
+      "missing_original_length",
+      "head_dim_differs",
+      "partial_rotation",
+      "unknown_scaling_key",
+      "attention_factor_twice",
+    ]) {
       expect(codes).toContain(code);
     }
     // d = head_dim 256 × partial_rotary_factor 0.5 = 128, shown before saving.
@@ -93,7 +116,13 @@ describe("workbench in a browser", () => {
     expect(saved.status()).toBe(201);
     const savedModel = (await saved.json()).saved;
     // The edit is saved on top of what the file said; the rest is as previewed, and the warnings are kept.
-    expect(savedModel).toMatchObject({ name, trainedContext: preview.profile.trainedContext, headDim: 256, rotaryDim: 128, sourceFileName: "every-warning.json" });
+    expect(savedModel).toMatchObject({
+      name,
+      trainedContext: preview.profile.trainedContext,
+      headDim: 256,
+      rotaryDim: 128,
+      sourceFileName: "every-warning.json",
+    });
     expect(savedModel.importWarnings).toEqual(preview.warnings);
     await page.waitForURL(`${server.url}/models/${savedModel.id}`);
     await page.getByRole("heading", { level: 1, name }).waitFor();
@@ -122,8 +151,11 @@ describe("workbench in a browser", () => {
     const markers = (flag: string) => chart.locator(`[data-testid="flag-marker"][data-flag="${flag}"]`);
     const [linear, ntk] = analysis.methods;
     // λ_i = 2π·b^(2i/d) > L, counted straight from the definition (RoFormer, Su et al. 2021), not from the engine.
-    const d = 128, b = 10_000;
-    const beyond = Array.from({ length: d / 2 }, (_v, i) => 2 * Math.PI * b ** ((2 * i) / d)).filter((lambda) => lambda > L).length;
+    const d = 128,
+      b = 10_000;
+    const beyond = Array.from({ length: d / 2 }, (_v, i) => 2 * Math.PI * b ** ((2 * i) / d)).filter(
+      (lambda) => lambda > L,
+    ).length;
     expect(beyond).toBeGreaterThan(0);
     await expect(markers("exceedsTrainedWindow").count()).resolves.toBe(beyond);
     await expect(markers("compressedResolution").count()).resolves.toBe(linear.summary.compressedResolutionPairs);
@@ -139,15 +171,22 @@ describe("workbench in a browser", () => {
     const box = (await hover.boundingBox())!;
     await hover.hover({ position: { x: box.width * 0.995, y: box.height / 2 } });
     await expect(page.getByTestId("chart-tooltip").textContent()).resolves.toMatch(new RegExp(`Pair ${d / 2 - 1} `));
-    await page.getByTestId("smallest-base").getByText(/Smallest base that supports|No base on the grid/).waitFor({ timeout: 20_000 });
+    await page
+      .getByTestId("smallest-base")
+      .getByText(/Smallest base that supports|No base on the grid/)
+      .waitFor({ timeout: 20_000 });
     await page.getByTestId("supported-lengths").getByText("scanning…").waitFor({ state: "detached", timeout: 20_000 });
     await page.mouse.move(0, 0);
     // Each figure's explanation is one click away, with its published source and the caution.
-    const spectrumPanel = page.getByRole("heading", { name: "Wavelength per pair" }).locator("xpath=ancestor::section[1]");
+    const spectrumPanel = page
+      .getByRole("heading", { name: "Wavelength per pair" })
+      .locator("xpath=ancestor::section[1]");
     await spectrumPanel.getByText("How is this computed?").click();
     const explained = spectrumPanel.locator("details[open]");
     await expect.poll(() => explained.textContent(), { timeout: 15_000 }).toContain("RoFormer, Su et al. 2021");
-    await expect.poll(() => explained.textContent(), { timeout: 15_000 }).toContain("confirmed only by long-context evaluations of the tuned model");
+    await expect
+      .poll(() => explained.textContent(), { timeout: 15_000 })
+      .toContain("confirmed only by long-context evaluations of the tuned model");
     await screenshot(page, "workbench-charts");
 
     // The table: all 64 pairs, then only flagged ones; the CSV holds exactly the rows and columns shown.
@@ -155,12 +194,20 @@ describe("workbench in a browser", () => {
     const rows = table.locator("tbody tr");
     await expect(rows.count()).resolves.toBe(d / 2);
     await page.getByLabel("Flagged pairs only").check();
-    const flagged = ntk.pairs.filter((p: Record<string, boolean>) => p.exceedsTrainedWindow || p.unseenAngles || p.compressedResolution).length;
+    const flagged = ntk.pairs.filter(
+      (p: Record<string, boolean>) => p.exceedsTrainedWindow || p.unseenAngles || p.compressedResolution,
+    ).length;
     expect(flagged).toBeLessThan(d / 2);
-    await page.getByTestId("pair-count").getByText(`${flagged} of ${d / 2} pairs shown`).waitFor();
+    await page
+      .getByTestId("pair-count")
+      .getByText(`${flagged} of ${d / 2} pairs shown`)
+      .waitFor();
     await expect(rows.count()).resolves.toBe(flagged);
 
-    const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: "Download CSV" }).click()]);
+    const [download] = await Promise.all([
+      page.waitForEvent("download"),
+      page.getByRole("button", { name: "Download CSV" }).click(),
+    ]);
     const csv = Papa.parse<string[]>((await downloadedText(download)).trim());
     const headers = (await table.locator("thead th").allTextContents()).map((t) => t.replace(/[▲▼↕]/g, "").trim());
     expect(csv.data[0]).toEqual(headers);
@@ -168,11 +215,20 @@ describe("workbench in a browser", () => {
     const firstShown = (await rows.first().locator("td").first().textContent())!.trim();
     expect(csv.data[1][0]).toBe(firstShown);
     // The table's own panel, at reading size (the full page is in workbench-charts).
-    await page.getByRole("heading", { name: "Pair by pair" }).locator("xpath=ancestor::section[1]").screenshot({ path: path.join(SCREENSHOT_DIR, "workbench-table.png") });
+    await page
+      .getByRole("heading", { name: "Pair by pair" })
+      .locator("xpath=ancestor::section[1]")
+      .screenshot({ path: path.join(SCREENSHOT_DIR, "workbench-table.png") });
 
     // The URL alone reproduces the view.
     const before = await readInputs(page);
-    expect(before).toMatchObject({ target: String(target), method1: "linear", method2: "ntk", shown: "1", flaggedOnly: true });
+    expect(before).toMatchObject({
+      target: String(target),
+      method1: "linear",
+      method2: "ntk",
+      shown: "1",
+      flaggedOnly: true,
+    });
     const url = page.url();
     const reloaded = analysisFor(page, target);
     await page.reload();
@@ -210,7 +266,9 @@ describe("profiles and bounds in a browser", () => {
     await signIn(page, researcher);
     await page.getByRole("heading", { level: 1, name: profile.name }).waitFor();
     await page.getByRole("button", { name: "Delete profile" }).click();
-    const retired = page.waitForResponse((r) => r.url().endsWith(`/api/models/${profile.id}`) && r.request().method() === "DELETE");
+    const retired = page.waitForResponse(
+      (r) => r.url().endsWith(`/api/models/${profile.id}`) && r.request().method() === "DELETE",
+    );
     await page.getByRole("button", { name: "Yes, delete it" }).click();
     expect((await retired).status()).toBe(200);
     const notice = page.getByRole("status").filter({ hasText: "Retired, not deleted" });
@@ -221,7 +279,9 @@ describe("profiles and bounds in a browser", () => {
     // Gone from the new-plan picker; the list marks it retired.
     await page.goto(`${server.url}/plans/new`);
     await page.getByLabel("Model", { exact: true }).waitFor();
-    await expect.poll(() => page.getByLabel("Model", { exact: true }).locator("option").allTextContents(), { timeout: 15_000 }).not.toContain(profile.name);
+    await expect
+      .poll(() => page.getByLabel("Model", { exact: true }).locator("option").allTextContents(), { timeout: 15_000 })
+      .not.toContain(profile.name);
     await page.goto(`${server.url}/models/${profile.id}`);
     await page.getByRole("button", { name: "Restore profile" }).click();
     await page.getByRole("button", { name: "Delete profile" }).waitFor();
@@ -250,26 +310,36 @@ describe("profiles and bounds in a browser", () => {
     await page.goto(`${server.url}/models/import`);
     await signIn(page, researcher);
     await page.getByRole("heading", { level: 1, name: "Import a config.json" }).waitFor();
-    await page.getByLabel("config.json to import").setInputFiles(path.resolve(import.meta.dirname, "../fixtures/configs/thirty-heads.json"));
+    await page
+      .getByLabel("config.json to import")
+      .setInputFiles(path.resolve(import.meta.dirname, "../fixtures/configs/thirty-heads.json"));
     const warningsBox = page.getByTestId("import-warnings");
     await warningsBox.waitFor();
     // Before the fix the page said "the server sent a response this page does not understand" here.
     expect(await page.getByText("does not understand").count()).toBe(0);
-    await expect.poll(() => warningsBox.locator('li[data-code="head_dim_not_integer"]').textContent(), { timeout: 15_000 }).toContain("136.53");
-    await expect.poll(() => warningsBox.locator('li[data-code="kv_heads_not_divisor"]').textContent(), { timeout: 15_000 }).toContain("1, 2, 3, 5, 6, 10, 15 or 30");
+    await expect
+      .poll(() => warningsBox.locator('li[data-code="head_dim_not_integer"]').textContent(), { timeout: 15_000 })
+      .toContain("136.53");
+    await expect
+      .poll(() => warningsBox.locator('li[data-code="kv_heads_not_divisor"]').textContent(), { timeout: 15_000 })
+      .toContain("1, 2, 3, 5, 6, 10, 15 or 30");
     const form = page.getByRole("form", { name: "Imported profile" });
     expect(await form.getByLabel("Head dimension (head_dim)").inputValue()).toBe("");
     await screenshot(page, "workbench-import-odd-heads");
 
     // Save is held until head_dim is given and the key/value heads divide the query heads; nothing is sent before.
     let posted = 0;
-    page.on("request", (r) => { if (r.url().includes("save=true")) posted += 1; });
+    page.on("request", (r) => {
+      if (r.url().includes("save=true")) posted += 1;
+    });
     await form.getByRole("button", { name: "Save profile" }).click();
     await expect.poll(() => form.getByText("required").count(), { timeout: 15_000 }).toBeGreaterThan(0);
     await form.getByLabel("Name", { exact: true }).fill(`Odd heads ${Date.now().toString(36)}`);
     await form.getByLabel("Head dimension (head_dim)").fill("128");
     await form.getByRole("button", { name: "Save profile" }).click();
-    await expect.poll(() => form.getByText("attentionHeads must be a multiple of kvHeads").count(), { timeout: 15_000 }).toBe(1);
+    await expect
+      .poll(() => form.getByText("attentionHeads must be a multiple of kvHeads").count(), { timeout: 15_000 })
+      .toBe(1);
     expect(posted).toBe(0);
     await form.getByLabel("KV heads (num_key_value_heads)").fill("6");
     const saving = page.waitForResponse((r) => r.url().includes("/api/models/import?save=true"));

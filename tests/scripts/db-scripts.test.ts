@@ -49,9 +49,15 @@ async function freePort(): Promise<number> {
 function canConnect(host: string, port: number): Promise<boolean> {
   return new Promise((done) => {
     const sock = connect({ host, port, timeout: 2000 });
-    sock.once("connect", () => { sock.destroy(); done(true); });
+    sock.once("connect", () => {
+      sock.destroy();
+      done(true);
+    });
     sock.once("error", () => done(false));
-    sock.once("timeout", () => { sock.destroy(); done(false); });
+    sock.once("timeout", () => {
+      sock.destroy();
+      done(false);
+    });
   });
 }
 
@@ -79,7 +85,8 @@ describe("docker-free-db-scripts", { timeout: LONG }, () => {
   let env: Record<string, string> = {};
   let url = "";
   let ownerUrl = "";
-  const urls = (db: string) => `DATABASE_URL=postgres://ropewalk_app@127.0.0.1:${port}/${db}\nMIGRATION_DATABASE_URL=postgres://ropewalk_owner@127.0.0.1:${port}/${db}\n`;
+  const urls = (db: string) =>
+    `DATABASE_URL=postgres://ropewalk_app@127.0.0.1:${port}/${db}\nMIGRATION_DATABASE_URL=postgres://ropewalk_owner@127.0.0.1:${port}/${db}\n`;
   const heldServers: Server[] = [];
 
   beforeAll(async () => {
@@ -110,12 +117,17 @@ describe("docker-free-db-scripts", { timeout: LONG }, () => {
     const rows = await query(url, "select current_user as u, current_database() as d");
     expect(rows[0]).toEqual({ u: "ropewalk_app", d: DB });
     // The app role is no superuser and owns nothing; the owner role owns the database and may create others.
-    const roles = await query(url, "select rolname, rolsuper, rolcreatedb, rolcreaterole from pg_roles where rolname like 'ropewalk_%' order by 1");
+    const roles = await query(
+      url,
+      "select rolname, rolsuper, rolcreatedb, rolcreaterole from pg_roles where rolname like 'ropewalk_%' order by 1",
+    );
     expect(roles).toEqual([
       { rolname: "ropewalk_app", rolsuper: false, rolcreatedb: false, rolcreaterole: false },
       { rolname: "ropewalk_owner", rolsuper: false, rolcreatedb: true, rolcreaterole: false },
     ]);
-    expect((await query(url, "select pg_get_userbyid(datdba) as o from pg_database where datname = current_database()"))[0]).toEqual({ o: "ropewalk_owner" });
+    expect(
+      (await query(url, "select pg_get_userbyid(datdba) as o from pg_database where datname = current_database()"))[0],
+    ).toEqual({ o: "ropewalk_owner" });
     // Server settings are read as the cluster's superuser (fresh clusters name it "postgres").
     const su = `postgres://postgres@127.0.0.1:${port}/${DB}`;
     expect((await query(su, "show listen_addresses"))[0].listen_addresses).toBe("127.0.0.1");
@@ -132,16 +144,25 @@ describe("docker-free-db-scripts", { timeout: LONG }, () => {
   it("hands a database made before the roles existed (owned by the superuser) to the owner role", async () => {
     const su = `postgres://postgres@127.0.0.1:${port}`;
     await query(`${su}/postgres`, "create database rw_legacy");
-    await query(`${su}/rw_legacy`, `create schema drizzle; create table drizzle.m (id serial primary key);
-      create table t (id bigserial primary key, v int); create function f() returns int language sql as 'select 1'`);
+    await query(
+      `${su}/rw_legacy`,
+      `create schema drizzle; create table drizzle.m (id serial primary key);
+      create table t (id bigserial primary key, v int); create function f() returns int language sql as 'select 1'`,
+    );
     const r = await run("start.sh", ["rw_legacy"], env);
     expect(r.code).toBe(0);
-    const owners = await query(`${su}/rw_legacy`, `select c.relname as name, pg_get_userbyid(c.relowner) as owner from pg_class c
+    const owners = await query(
+      `${su}/rw_legacy`,
+      `select c.relname as name, pg_get_userbyid(c.relowner) as owner from pg_class c
       join pg_namespace n on n.oid = c.relnamespace where n.nspname in ('public', 'drizzle') and c.relkind in ('r', 'S')
       union all select 'f', pg_get_userbyid(proowner) from pg_proc where proname = 'f'
       union all select 'drizzle', pg_get_userbyid(nspowner) from pg_namespace where nspname = 'drizzle'
-      union all select 'db', pg_get_userbyid(datdba) from pg_database where datname = 'rw_legacy' order by 1`);
-    expect(owners.every((o) => o.owner === "ropewalk_owner"), JSON.stringify(owners)).toBe(true);
+      union all select 'db', pg_get_userbyid(datdba) from pg_database where datname = 'rw_legacy' order by 1`,
+    );
+    expect(
+      owners.every((o) => o.owner === "ropewalk_owner"),
+      JSON.stringify(owners),
+    ).toBe(true);
     expect(owners.map((o) => o.name)).toEqual(["db", "drizzle", "f", "m", "m_id_seq", "t", "t_id_seq"]);
   });
 

@@ -17,11 +17,24 @@ export type Agent = ReturnType<typeof request.agent> & { csrf: string; user?: Te
  * and verifies with the same key, and two runs never share one.
  */
 export const testSigningKeyFile = () =>
-  path.join(os.tmpdir(), "ropewalk-test-keys", `${crypto.createHash("sha256").update(process.env.TEST_DATABASE_URL ?? "none").digest("hex").slice(0, 16)}.pem`);
+  path.join(
+    os.tmpdir(),
+    "ropewalk-test-keys",
+    `${crypto
+      .createHash("sha256")
+      .update(process.env.TEST_DATABASE_URL ?? "none")
+      .digest("hex")
+      .slice(0, 16)}.pem`,
+  );
 
 export function testConfig(overrides: Partial<Config> = {}): Config {
   return loadConfig(
-    { NODE_ENV: "test", DATABASE_URL: process.env.TEST_DATABASE_URL, LOGIN_LIMIT_PER_ADDRESS: "100000", SIGNING_KEY_FILE: testSigningKeyFile() },
+    {
+      NODE_ENV: "test",
+      DATABASE_URL: process.env.TEST_DATABASE_URL,
+      LOGIN_LIMIT_PER_ADDRESS: "100000",
+      SIGNING_KEY_FILE: testSigningKeyFile(),
+    },
     overrides,
   );
 }

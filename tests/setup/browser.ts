@@ -14,7 +14,15 @@ function chromiumPath(): string {
 export const LAUNCH_OPTIONS = {
   executablePath: chromiumPath(),
   headless: true,
-  args: ["--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
+  args: [
+    "--no-sandbox",
+    "--disable-gpu",
+    "--disable-quic",
+    "--no-first-run",
+    "--disable-background-networking",
+    "--disable-component-update",
+    "--disable-sync",
+  ],
 };
 /** Set by tests/setup/global-browser.ts: the one Chromium the e2e files share for the run. */
 export const BROWSER_ENDPOINT_ENV = "ROPEWALK_TEST_BROWSER_WS";
@@ -61,5 +69,6 @@ export async function signIn(page: Page, who: { email: string; password: string 
 const BUILT_CLIENT = path.join(root, "dist/client/index.html");
 /** Browser tests click through the built client; say so plainly when it is missing. */
 export function requireBuiltClient() {
-  if (!fs.existsSync(BUILT_CLIENT)) throw new Error("dist/client is missing: run `npm run build` before the browser tests");
+  if (!fs.existsSync(BUILT_CLIENT))
+    throw new Error("dist/client is missing: run `npm run build` before the browser tests");
 }

@@ -10,7 +10,16 @@ export const DEEP_LEVELS = 5000;
 export const deepJson = (levels = DEEP_LEVELS) => `${'{"a":'.repeat(levels)}1${"}".repeat(levels)}`;
 
 /** Path and query ids (strings, as they arrive in a URL). */
-export const HOSTILE_IDS = ["2147483648", "99999999999999999999", "1e400", "1%00", "constructor", "__proto__", "-1", "1.5"];
+export const HOSTILE_IDS = [
+  "2147483648",
+  "99999999999999999999",
+  "1e400",
+  "1%00",
+  "constructor",
+  "__proto__",
+  "-1",
+  "1.5",
+];
 
 export const NUL = "a\u0000b";
 export const HOSTILE_STRINGS = [NUL, "constructor", "__proto__"];
@@ -23,13 +32,19 @@ const PROTO_KEYS = `"__proto__":{"x":1},"constructor":{"prototype":{"x":1}},"k\\
 
 export type Path = (string | number)[];
 /** `plain` marks an ordinary finite number: a 400 may then name the partner of a cross-field rule instead. */
-export interface Mutation { path: Path; label: string; json: string; plain?: boolean }
+export interface Mutation {
+  path: Path;
+  label: string;
+  json: string;
+  plain?: boolean;
+}
 
 /** Every node of a JSON value with its path (the root itself excluded). */
 function nodes(value: unknown, path: Path = []): { path: Path; value: unknown }[] {
   const out: { path: Path; value: unknown }[] = path.length ? [{ path, value }] : [];
   if (Array.isArray(value)) value.forEach((v, i) => out.push(...nodes(v, [...path, i])));
-  else if (value && typeof value === "object") for (const [k, v] of Object.entries(value)) out.push(...nodes(v, [...path, k]));
+  else if (value && typeof value === "object")
+    for (const [k, v] of Object.entries(value)) out.push(...nodes(v, [...path, k]));
   return out;
 }
 
@@ -51,13 +66,18 @@ export function mutations(base: object): Mutation[] {
     out.push({ path, label, json, plain });
   };
   const withKeys = (value: object) => ({ ...value, [KEY_MARK]: 1 });
-  out.push({ path: [], label: "extra keys __proto__, constructor and NUL", json: JSON.stringify(withKeys(base)).replace(`${JSON.stringify(KEY_MARK)}:1`, PROTO_KEYS) });
+  out.push({
+    path: [],
+    label: "extra keys __proto__, constructor and NUL",
+    json: JSON.stringify(withKeys(base)).replace(`${JSON.stringify(KEY_MARK)}:1`, PROTO_KEYS),
+  });
   for (const { path, value } of nodes(base)) {
     // A prototype name is a valid string in most fields, so like a plain number a 400 may name a partner field.
     if (typeof value === "string") HOSTILE_STRINGS.forEach((s) => add(path, JSON.stringify(s), s, s !== NUL));
     if (typeof value === "number") HOSTILE_NUMBERS.forEach((n) => add(path, String(n), n, n > 1e-300 && n < 1e300));
     if (typeof value !== "string") add(path, "NUL string", NUL);
-    if (value && typeof value === "object" && !Array.isArray(value)) add(path, "extra keys __proto__, constructor and NUL", withKeys(value));
+    if (value && typeof value === "object" && !Array.isArray(value))
+      add(path, "extra keys __proto__, constructor and NUL", withKeys(value));
     add(path, `nested ${DEEP_LEVELS} deep`, DEEP_MARK);
   }
   return out;

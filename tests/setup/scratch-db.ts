@@ -12,7 +12,8 @@ import { dropDatabase } from "./drop-database";
 export async function scratchDatabase() {
   const owner = process.env.TEST_MIGRATION_DATABASE_URL;
   const app = process.env.TEST_DATABASE_URL;
-  if (!owner || !app) throw new Error("run through vitest (globalSetup sets TEST_DATABASE_URL and TEST_MIGRATION_DATABASE_URL)");
+  if (!owner || !app)
+    throw new Error("run through vitest (globalSetup sets TEST_DATABASE_URL and TEST_MIGRATION_DATABASE_URL)");
   const name = `rw_scratch_${crypto.randomBytes(4).toString("hex")}`;
   const withDb = (url: string, db: string) => Object.assign(new URL(url), { pathname: `/${db}` }).toString();
   const maintenance = withDb(owner, "postgres");

@@ -2,7 +2,11 @@ import { describe, expect, it } from "vitest";
 import bcrypt from "bcryptjs";
 import { loadConfig } from "../../server/config";
 
-const production = { NODE_ENV: "production", SESSION_SECRET: "x".repeat(32), DATABASE_URL: "postgres://app@db.test/ropewalk" };
+const production = {
+  NODE_ENV: "production",
+  SESSION_SECRET: "x".repeat(32),
+  DATABASE_URL: "postgres://app@db.test/ropewalk",
+};
 
 describe("bcrypt cost", () => {
   it("is 12 outside tests (common practice for interactive sign-in, no source)", () => {

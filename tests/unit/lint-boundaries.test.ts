@@ -41,14 +41,36 @@ const CASES: [from: string, source: string, refused: boolean][] = [
   ["server/features/plans/x.router.ts", "./plans.repo", true],
   ["server/features/plans/x.router.ts", "./plans.service", false],
   ["server/features/plans/x.service.ts", "../../http/auth", true],
+  // The `@/` (client/src) and `@shared/` aliases resolve through tsconfig.json, so they meet the same walls.
+  ["client/src/features/users/x.ts", "@/features/auth/api/keys", true],
+  ["client/src/features/users/x.ts", "@/lib/format", false],
+  ["client/src/components/x.tsx", "@/app/nav", true],
+  ["client/src/lib/x.ts", "@shared/schemas/common", false],
+  ["server/features/users/x.ts", "@/lib/format", true],
 ];
-const WALL_RULES = new Set(["boundaries/dependencies", "no-restricted-imports"]);
+const WALL_RULES = new Set(["boundaries/dependencies", "no-restricted-imports", "import-x/no-cycle"]);
 
 describe("import boundaries (eslint-plugin-boundaries via eslint.config.js)", () => {
   const eslint = new ESLint();
   it.each(CASES)("%s importing %s: refused=%s", async (from, source, refused) => {
-    const [result] = await eslint.lintText(`import * as m from "${source}";\nexport const x = m;\n`, { filePath: from });
+    const [result] = await eslint.lintText(`import * as m from "${source}";\nexport const x = m;\n`, {
+      filePath: from,
+    });
     const hits = result.messages.filter((m) => WALL_RULES.has(m.ruleId ?? ""));
     expect(hits.length > 0).toBe(refused);
+  });
+});
+
+describe("import cycles (import-x/no-cycle via eslint.config.js)", () => {
+  const eslint = new ESLint();
+  // shared/methods/catalog.ts imports ./entry; an entry.ts that imported the catalog back would close a cycle.
+  it.each([
+    ["shared/methods/entry.ts", "./catalog", true],
+    ["shared/methods/entry.ts", "./params", false],
+  ])("%s importing %s: refused=%s", async (from, source, refused) => {
+    const [result] = await eslint.lintText(`import * as m from "${source}";\nexport const x = m;\n`, {
+      filePath: from,
+    });
+    expect(result.messages.some((m) => m.ruleId === "import-x/no-cycle")).toBe(refused);
   });
 });

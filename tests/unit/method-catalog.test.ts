@@ -2,15 +2,28 @@ import { describe, expect, it } from "vitest";
 import { METHODS, runMethod } from "../../server/engine";
 import { parseModelConfig } from "../../server/features/models/config-import";
 import { ropeScalingKnownKeys } from "../../server/features/models/rope-scaling-keys";
-import { findMethod, METHOD_CATALOG, METHOD_IDS, methodEntry, methodForRopeType, type FieldContext } from "../../shared/methods";
+import {
+  findMethod,
+  METHOD_CATALOG,
+  METHOD_IDS,
+  methodEntry,
+  methodForRopeType,
+  type FieldContext,
+} from "../../shared/methods";
 import { CTX, SAMPLE } from "./engine/fixtures";
 
-const context: FieldContext = { scale: CTX.targetContext / CTX.trainedContext, targetContext: CTX.targetContext, pairs: CTX.d / 2 };
+const context: FieldContext = {
+  scale: CTX.targetContext / CTX.trainedContext,
+  targetContext: CTX.targetContext,
+  pairs: CTX.d / 2,
+};
 /** The sample's required parameters only, so every optional one takes the engine's default. */
 const requiredOnly = (id: (typeof METHOD_IDS)[number]) => {
   const entry = methodEntry(id);
   const sample = SAMPLE[id] as Record<string, unknown>;
-  return Object.fromEntries(Object.entries(sample).filter(([k]) => k === "method" || entry.fields.some((f) => f.key === k && f.required)));
+  return Object.fromEntries(
+    Object.entries(sample).filter(([k]) => k === "method" || entry.fields.some((f) => f.key === k && f.required)),
+  );
 };
 
 describe("the method catalog, entry by entry", () => {
@@ -30,7 +43,11 @@ describe("the method catalog, entry by entry", () => {
       const resolved = out.params as Record<string, unknown>;
 
       it("form fields are the schema's parameters, required exactly where the schema has no default", () => {
-        expect(entry.fields.map((f) => f.key).sort()).toEqual(Object.keys(shape).filter((k) => k !== "method").sort());
+        expect(entry.fields.map((f) => f.key).sort()).toEqual(
+          Object.keys(shape)
+            .filter((k) => k !== "method")
+            .sort(),
+        );
         for (const f of entry.fields) expect(!!f.required).toBe(!shape[f.key].isOptional());
       });
 
@@ -47,7 +64,9 @@ describe("the method catalog, entry by entry", () => {
         const block = out.ropeScaling.rope_scaling;
         expect(block?.rope_type ?? null).toBe(entry.exportType);
         const config = {
-          hidden_size: CTX.d * 16, num_attention_heads: 16, num_hidden_layers: 4,
+          hidden_size: CTX.d * 16,
+          num_attention_heads: 16,
+          num_hidden_layers: 4,
           max_position_embeddings: out.ropeScaling.max_position_embeddings,
           rope_theta: out.ropeScaling.rope_theta ?? CTX.base,
           ...(block ? { rope_scaling: block } : {}),

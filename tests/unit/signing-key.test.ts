@@ -29,7 +29,9 @@ describe("the signing key file", () => {
 
   it("a key file others may read is refused, and so is a key of another type", () => {
     const loose = path.join(dir, "loose.pem");
-    fs.writeFileSync(loose, crypto.generateKeyPairSync("ed25519").privateKey.export({ type: "pkcs8", format: "pem" }), { mode: 0o644 });
+    fs.writeFileSync(loose, crypto.generateKeyPairSync("ed25519").privateKey.export({ type: "pkcs8", format: "pem" }), {
+      mode: 0o644,
+    });
     fs.chmodSync(loose, 0o644);
     expect(() => signingKey(loose)).toThrow(/chmod 600/);
     const rsa = path.join(dir, "rsa.pem");
@@ -41,7 +43,15 @@ describe("the signing key file", () => {
 
 describe("decision signatures", () => {
   const key = signingKey(path.join(dir, "sig.pem"));
-  const p = { planId: 7, revision: 2, contentHash: "e7b5".padEnd(64, "0"), approverId: 3, decision: "approve", round: 1, time: "2026-01-02T03:04:05.678Z" };
+  const p = {
+    planId: 7,
+    revision: 2,
+    contentHash: "e7b5".padEnd(64, "0"),
+    approverId: 3,
+    decision: "approve",
+    round: 1,
+    time: "2026-01-02T03:04:05.678Z",
+  };
 
   it("sign the RFC 8785 bytes: keys in code-unit order, no whitespace", () => {
     expect(payloadBytes(p).toString()).toBe(

@@ -1,4 +1,4 @@
-import type { Role } from "../../../shared/schemas/common";
+import type { Role } from "@shared/schemas/common";
 import { routes } from "../config/paths";
 
 /** Who may see an entry: everyone signed in, or holders of at least one listed role. */

@@ -34,7 +34,15 @@ export const router = createBrowserRouter([
     errorElement: routeError,
     children: [
       { index: true, element: <HomeRoute />, errorElement: routeError },
-      { path: routes.users, element: <RoleGate screen="users"><UsersRoute /></RoleGate>, errorElement: routeError },
+      {
+        path: routes.users,
+        element: (
+          <RoleGate screen="users">
+            <UsersRoute />
+          </RoleGate>
+        ),
+        errorElement: routeError,
+      },
       { path: routes.profile, element: <ProfileRoute />, errorElement: routeError },
       { path: routes.models, element: <ModelsRoute />, errorElement: routeError },
       { path: routes.modelNew, element: <ModelNewRoute />, errorElement: routeError },
@@ -48,9 +56,33 @@ export const router = createBrowserRouter([
       { path: routes.plan, element: <PlanRoute />, errorElement: routeError },
       { path: routes.planEdit, element: <PlanEditRoute />, errorElement: routeError },
       { path: routes.planDiff, element: <PlanDiffRoute />, errorElement: routeError },
-      { path: routes.review, element: <RoleGate screen="review"><ReviewRoute /></RoleGate>, errorElement: routeError },
-      { path: routes.audit, element: <RoleGate screen="audit"><AuditRoute /></RoleGate>, errorElement: routeError },
-      { path: routes.mail, element: <RoleGate screen="mail"><MailRoute /></RoleGate>, errorElement: routeError },
+      {
+        path: routes.review,
+        element: (
+          <RoleGate screen="review">
+            <ReviewRoute />
+          </RoleGate>
+        ),
+        errorElement: routeError,
+      },
+      {
+        path: routes.audit,
+        element: (
+          <RoleGate screen="audit">
+            <AuditRoute />
+          </RoleGate>
+        ),
+        errorElement: routeError,
+      },
+      {
+        path: routes.mail,
+        element: (
+          <RoleGate screen="mail">
+            <MailRoute />
+          </RoleGate>
+        ),
+        errorElement: routeError,
+      },
       { path: "*", element: <NotFoundRoute />, errorElement: routeError },
     ],
   },

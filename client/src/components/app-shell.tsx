@@ -1,16 +1,30 @@
 import type { ReactNode } from "react";
 import { Link } from "react-router-dom";
 
-export const FOOTER_NOTE = "Figures are estimates; a plan is confirmed only by long-context evaluations of the tuned model.";
+export const FOOTER_NOTE =
+  "Figures are estimates; a plan is confirmed only by long-context evaluations of the tuned model.";
 
 /**
  * The frame of every screen: the header band with the word mark and the twisted-strand stripe,
  * an optional navigation strand, the page, and the footer line.
  */
-export function AppShell({ homeHref, account, nav, children }: { homeHref: string; account?: ReactNode; nav?: ReactNode; children: ReactNode }) {
+export function AppShell({
+  homeHref,
+  account,
+  nav,
+  children,
+}: {
+  homeHref: string;
+  account?: ReactNode;
+  nav?: ReactNode;
+  children: ReactNode;
+}) {
   return (
     <div className="flex min-h-screen flex-col bg-paper font-sans text-ink">
-      <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:top-2 focus:left-2 focus:rounded focus:bg-paper focus:px-3 focus:py-1">
+      <a
+        href="#main"
+        className="sr-only focus:not-sr-only focus:absolute focus:top-2 focus:left-2 focus:rounded focus:bg-paper focus:px-3 focus:py-1"
+      >
         Skip to content
       </a>
       <header className="bg-ink text-paper">

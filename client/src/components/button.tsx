@@ -11,7 +11,16 @@ const VARIANTS: Record<Variant, string> = {
 
 type ButtonProps = ComponentProps<"button"> & { variant?: Variant; size?: "md" | "sm"; busy?: boolean };
 
-export function Button({ variant = "primary", size = "md", busy = false, className = "", disabled, children, type = "button", ...rest }: ButtonProps) {
+export function Button({
+  variant = "primary",
+  size = "md",
+  busy = false,
+  className = "",
+  disabled,
+  children,
+  type = "button",
+  ...rest
+}: ButtonProps) {
   const sizing = size === "sm" ? "px-2.5 py-1 text-note" : "px-4 py-2 text-body";
   return (
     <button
@@ -29,7 +38,17 @@ export function Button({ variant = "primary", size = "md", busy = false, classNa
 }
 
 /** A form's submit button that says what it is doing while the request runs. */
-export function SubmitButton({ busy, busyLabel, children, className }: { busy: boolean; busyLabel: string; children: string; className?: string }) {
+export function SubmitButton({
+  busy,
+  busyLabel,
+  children,
+  className,
+}: {
+  busy: boolean;
+  busyLabel: string;
+  children: string;
+  className?: string;
+}) {
   return (
     <Button type="submit" busy={busy} className={className}>
       {busy ? busyLabel : children}

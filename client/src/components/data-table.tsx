@@ -24,7 +24,15 @@ type DataTableProps<T> = {
 };
 
 /** Generic table: click a header to sort, type to filter across every text column. */
-export function DataTable<T>({ data, columns, caption, getRowId, initialSorting = [], emptyText = "Nothing here yet.", filterPlaceholder = "Type a name, e-mail or role" }: DataTableProps<T>) {
+export function DataTable<T>({
+  data,
+  columns,
+  caption,
+  getRowId,
+  initialSorting = [],
+  emptyText = "Nothing here yet.",
+  filterPlaceholder = "Type a name, e-mail or role",
+}: DataTableProps<T>) {
   const [sorting, setSorting] = useState<SortingState>(initialSorting);
   const [filter, setFilter] = useState("");
   // eslint-disable-next-line react-hooks/incompatible-library -- TanStack Table returns fresh functions by design

@@ -19,7 +19,8 @@ export function ErrorView({ title, message, action, testId, eyebrow = "Frayed st
 /** Rendered by the router when a route throws while loading or rendering. */
 export function RouteErrorBoundary({ homeHref }: { homeHref: string }) {
   const error = useRouteError();
-  let message = "An unexpected error stopped this page. Reload to try again; if it keeps happening, tell an admin what you were doing.";
+  let message =
+    "An unexpected error stopped this page. Reload to try again; if it keeps happening, tell an admin what you were doing.";
   if (isRouteErrorResponse(error)) message = `${error.status} ${error.statusText}`;
   else if (isApiError(error)) message = error.message;
   return (

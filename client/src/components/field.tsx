@@ -57,7 +57,9 @@ type SelectFieldProps = ComponentProps<"select"> & { label: string; error?: stri
 export function SelectField({ label, error, hint, ...select }: SelectFieldProps) {
   return (
     <Field label={label} error={error} hint={hint}>
-      {({ id, describedBy, invalid }) => <SelectInput id={id} aria-describedby={describedBy} aria-invalid={invalid} {...select} />}
+      {({ id, describedBy, invalid }) => (
+        <SelectInput id={id} aria-describedby={describedBy} aria-invalid={invalid} {...select} />
+      )}
     </Field>
   );
 }
@@ -94,7 +96,9 @@ type TextFieldProps = ComponentProps<"input"> & { label: string; error?: string;
 export function TextField({ label, error, hint, ...input }: TextFieldProps) {
   return (
     <Field label={label} error={error} hint={hint}>
-      {({ id, describedBy, invalid }) => <TextInput id={id} aria-describedby={describedBy} aria-invalid={invalid} {...input} />}
+      {({ id, describedBy, invalid }) => (
+        <TextInput id={id} aria-describedby={describedBy} aria-invalid={invalid} {...input} />
+      )}
     </Field>
   );
 }

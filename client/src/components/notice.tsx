@@ -11,7 +11,10 @@ const TONES: Record<Tone, string> = {
 /** A message box; alerts are announced immediately, the rest politely. */
 export function Notice({ tone = "info", title, children }: { tone?: Tone; title?: string; children?: ReactNode }) {
   return (
-    <div role={tone === "alert" ? "alert" : "status"} className={`rounded-md border px-4 py-3 text-body ${TONES[tone]}`}>
+    <div
+      role={tone === "alert" ? "alert" : "status"}
+      className={`rounded-md border px-4 py-3 text-body ${TONES[tone]}`}
+    >
       {title && <p className="font-semibold">{title}</p>}
       {children && <div className={title ? "mt-1" : ""}>{children}</div>}
     </div>
@@ -32,5 +35,9 @@ export function Chip({ children, tone = "hemp" }: { children: ReactNode; tone?: 
     seaglass: "bg-seaglass-pale text-seaglass-dark border-seaglass/30",
     muted: "bg-paper-deep text-ink-soft border-rule",
   };
-  return <span className={`inline-flex items-center rounded-full border px-2 py-0.5 text-note font-medium ${tones[tone]}`}>{children}</span>;
+  return (
+    <span className={`inline-flex items-center rounded-full border px-2 py-0.5 text-note font-medium ${tones[tone]}`}>
+      {children}
+    </span>
+  );
 }

@@ -18,7 +18,15 @@ type TableViewProps<T> = {
 };
 
 /** The rendering of a data table: sortable headers (click to sort), rows, and a line when there are none. */
-export function TableView<T>({ table, caption, emptyText, headerCase = "upper", maxHeight, dense = false, rowAttributes }: TableViewProps<T>) {
+export function TableView<T>({
+  table,
+  caption,
+  emptyText,
+  headerCase = "upper",
+  maxHeight,
+  dense = false,
+  rowAttributes,
+}: TableViewProps<T>) {
   const rows = table.getRowModel().rows;
   const headerText = headerCase === "upper" ? "tracking-wide uppercase" : "whitespace-nowrap";
   return (
@@ -39,9 +47,15 @@ export function TableView<T>({ table, caption, emptyText, headerCase = "upper", 
                     className={`border-b border-rule px-3 py-2 text-note font-semibold text-ink-soft ${headerText}`}
                   >
                     {header.isPlaceholder ? null : header.column.getCanSort() ? (
-                      <button type="button" onClick={header.column.getToggleSortingHandler()} className={`inline-flex items-center gap-1 hover:text-hemp-dark ${headerText}`}>
+                      <button
+                        type="button"
+                        onClick={header.column.getToggleSortingHandler()}
+                        className={`inline-flex items-center gap-1 hover:text-hemp-dark ${headerText}`}
+                      >
                         {label}
-                        <span aria-hidden className="text-[10px]">{sorted ? SORT_MARK[sorted] : "↕"}</span>
+                        <span aria-hidden className="text-[10px]">
+                          {sorted ? SORT_MARK[sorted] : "↕"}
+                        </span>
                       </button>
                     ) : (
                       label
@@ -54,7 +68,11 @@ export function TableView<T>({ table, caption, emptyText, headerCase = "upper", 
         </thead>
         <tbody>
           {rows.map((row) => (
-            <tr key={row.id} className="border-b border-rule/70 last:border-b-0 hover:bg-hemp-pale/40" {...rowAttributes?.(row)}>
+            <tr
+              key={row.id}
+              className="border-b border-rule/70 last:border-b-0 hover:bg-hemp-pale/40"
+              {...rowAttributes?.(row)}
+            >
               {row.getVisibleCells().map((cell) => (
                 <td key={cell.id} className={`px-3 ${dense ? "py-1.5 align-top" : "py-2 align-middle"}`}>
                   {flexRender(cell.column.columnDef.cell, cell.getContext())}

@@ -36,9 +36,7 @@ export function safeNext(raw: string | null | undefined): string {
 export const paths = {
   home: () => routes.home,
   signIn: (next?: string) =>
-    next && safeNext(next) !== routes.home
-      ? `${routes.signIn}?next=${encodeURIComponent(next)}`
-      : routes.signIn,
+    next && safeNext(next) !== routes.home ? `${routes.signIn}?next=${encodeURIComponent(next)}` : routes.signIn,
   users: () => routes.users,
   profile: () => routes.profile,
   estimator: (search = "") => `${routes.estimator}${search}`,
@@ -97,9 +95,12 @@ export const apiPaths = {
   revisionDecisions: (id: number, n: number) => api(`${rev(id, n)}/decisions`),
   revisionVerify: (id: number, n: number) => api(`${rev(id, n)}/verify`),
   revisionDiff: (id: number, a: number, b: number) => api(`${rev(id, a)}/diff/${b}`),
-  revisionReport: (id: number, n: number, download = false) => withQuery(`${rev(id, n)}/report`, { download: download ? 1 : undefined }),
-  revisionExport: (id: number, n: number, download = false) => withQuery(`${rev(id, n)}/export`, { download: download ? 1 : undefined }),
-  approvedExport: (id: number, download = false) => withQuery(`/plans/${id}/approved/export`, { download: download ? 1 : undefined }),
+  revisionReport: (id: number, n: number, download = false) =>
+    withQuery(`${rev(id, n)}/report`, { download: download ? 1 : undefined }),
+  revisionExport: (id: number, n: number, download = false) =>
+    withQuery(`${rev(id, n)}/export`, { download: download ? 1 : undefined }),
+  approvedExport: (id: number, download = false) =>
+    withQuery(`/plans/${id}/approved/export`, { download: download ? 1 : undefined }),
   tokens: () => api("/tokens"),
   token: (id: number) => api(`/tokens/${id}`),
   audit: (query?: QueryValues) => withQuery("/audit", query),

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { apiErrorSchema } from "../../../shared/schemas/common";
+import { apiErrorSchema } from "@shared/schemas/common";
 import { apiPaths } from "../config/paths";
 
 /** Every failed request surfaces as this, whatever went wrong (HTTP error, network, unexpected body). */
@@ -31,7 +31,13 @@ export function setCsrfToken(token: string | null) {
 
 type Method = "GET" | "POST" | "PATCH" | "PUT" | "DELETE";
 
-async function send(method: Method, url: string, body?: unknown, signal?: AbortSignal, retried = false): Promise<Response> {
+async function send(
+  method: Method,
+  url: string,
+  body?: unknown,
+  signal?: AbortSignal,
+  retried = false,
+): Promise<Response> {
   const headers: Record<string, string> = { Accept: "application/json" };
   // A FormData body (file upload) sets its own multipart Content-Type with the boundary.
   const isForm = typeof FormData !== "undefined" && body instanceof FormData;
@@ -64,7 +70,10 @@ async function send(method: Method, url: string, body?: unknown, signal?: AbortS
 const csrfOnlySchema = z.object({ csrfToken: z.string() });
 
 async function refreshCsrfToken(): Promise<boolean> {
-  const res = await fetch(apiPaths.session(), { credentials: "same-origin", headers: { Accept: "application/json" } }).catch(() => null);
+  const res = await fetch(apiPaths.session(), {
+    credentials: "same-origin",
+    headers: { Accept: "application/json" },
+  }).catch(() => null);
   const parsed = csrfOnlySchema.safeParse(await res?.json().catch(() => null));
   if (!parsed.success) return false;
   csrfToken = parsed.data.csrfToken;
@@ -78,7 +87,8 @@ async function toApiError(res: Response): Promise<ApiError> {
     const { code, message, fields } = parsed.data.error;
     return new ApiError(res.status, code, message, fields);
   }
-  const fallback = res.status === 429 ? "Too many requests; wait a moment and try again." : `Request failed (${res.status}).`;
+  const fallback =
+    res.status === 429 ? "Too many requests; wait a moment and try again." : `Request failed (${res.status}).`;
   return new ApiError(res.status, `http_${res.status}`, fallback);
 }
 
@@ -86,7 +96,8 @@ async function parseBody<S extends z.ZodType>(res: Response, schema: S): Promise
   const json: unknown = await res.json().catch(() => undefined);
   const parsed = schema.safeParse(json);
   // A body that breaks the shared contract is a bug on one side; say so instead of rendering garbage.
-  if (!parsed.success) throw new ApiError(res.status, "unexpected_response", "The server sent a response this page does not understand.");
+  if (!parsed.success)
+    throw new ApiError(res.status, "unexpected_response", "The server sent a response this page does not understand.");
   return parsed.data;
 }
 
@@ -95,7 +106,12 @@ export const apiClient = {
     return parseBody(await send("GET", url, undefined, signal), schema);
   },
   /** A write whose response body is checked against `schema`. */
-  async send<S extends z.ZodType>(method: Exclude<Method, "GET">, url: string, body: unknown, schema: S): Promise<z.output<S>> {
+  async send<S extends z.ZodType>(
+    method: Exclude<Method, "GET">,
+    url: string,
+    body: unknown,
+    schema: S,
+  ): Promise<z.output<S>> {
     return parseBody(await send(method, url, body), schema);
   },
   /**
@@ -106,7 +122,12 @@ export const apiClient = {
     return send("POST", url, body, signal);
   },
   /** A write answered with 204 No Content (undefined), or with a body checked against `schema`. */
-  async sendMaybeContent<S extends z.ZodType>(method: Exclude<Method, "GET">, url: string, schema: S, body?: unknown): Promise<z.output<S> | undefined> {
+  async sendMaybeContent<S extends z.ZodType>(
+    method: Exclude<Method, "GET">,
+    url: string,
+    schema: S,
+    body?: unknown,
+  ): Promise<z.output<S> | undefined> {
     const res = await send(method, url, body);
     return res.status === 204 ? undefined : parseBody(res, schema);
   },

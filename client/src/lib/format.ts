@@ -1,4 +1,4 @@
-import type { Role } from "../../../shared/schemas/common";
+import type { Role } from "@shared/schemas/common";
 
 export const ROLE_LABELS: Record<Role, string> = {
   admin: "Admin",
@@ -86,7 +86,13 @@ export function formatMoney(amount: number): string {
   return amount.toFixed(2);
 }
 
-const dateTimeFormat = new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "short", year: "numeric", hour: "2-digit", minute: "2-digit" });
+const dateTimeFormat = new Intl.DateTimeFormat("en-GB", {
+  day: "numeric",
+  month: "short",
+  year: "numeric",
+  hour: "2-digit",
+  minute: "2-digit",
+});
 
 /** ISO timestamp → "3 Mar 2025, 14:05" (local time); anything unparseable is shown as given. */
 export function formatDateTime(iso: string): string {

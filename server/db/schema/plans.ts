@@ -19,8 +19,12 @@ export const plans = pgTable("plans", {
   id: serial("id").primaryKey(),
   title: text("title").notNull(),
   purpose: text("purpose").notNull().default(""),
-  ownerId: integer("owner_id").notNull().references(() => users.id),
-  modelId: integer("model_id").notNull().references(() => modelProfiles.id, { onDelete: "restrict" }),
+  ownerId: integer("owner_id")
+    .notNull()
+    .references(() => users.id),
+  modelId: integer("model_id")
+    .notNull()
+    .references(() => modelProfiles.id, { onDelete: "restrict" }),
   requiredApprovals: integer("required_approvals").notNull().default(1),
   createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
   updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
@@ -31,12 +35,16 @@ export const planRevisions = pgTable(
   "plan_revisions",
   {
     id: serial("id").primaryKey(),
-    planId: integer("plan_id").notNull().references(() => plans.id, { onDelete: "cascade" }),
+    planId: integer("plan_id")
+      .notNull()
+      .references(() => plans.id, { onDelete: "cascade" }),
     number: integer("number").notNull(),
     state: text("state").$type<RevisionState>().notNull().default("draft"),
     version: integer("version").notNull().default(1),
     round: integer("round").notNull().default(0),
-    authorId: integer("author_id").notNull().references(() => users.id),
+    authorId: integer("author_id")
+      .notNull()
+      .references(() => users.id),
     content: jsonb("content").notNull(),
     contentHash: text("content_hash").notNull(),
     engineVersion: text("engine_version").notNull(),
@@ -58,9 +66,13 @@ export const planDecisions = pgTable(
   "plan_decisions",
   {
     id: serial("id").primaryKey(),
-    revisionId: integer("revision_id").notNull().references(() => planRevisions.id, { onDelete: "cascade" }),
+    revisionId: integer("revision_id")
+      .notNull()
+      .references(() => planRevisions.id, { onDelete: "cascade" }),
     round: integer("round").notNull(),
-    approverId: integer("approver_id").notNull().references(() => users.id),
+    approverId: integer("approver_id")
+      .notNull()
+      .references(() => users.id),
     decision: text("decision").$type<(typeof DECISIONS)[number]>().notNull(),
     comment: text("comment").notNull().default(""),
     signedHash: text("signed_hash").notNull(),
@@ -79,12 +91,17 @@ export const planDecisions = pgTable(
 /** Personal API tokens; only the SHA-256 of the secret is stored. Scopes are checked against shared/schemas/tokens.ts. */
 export const apiTokens = pgTable("api_tokens", {
   id: serial("id").primaryKey(),
-  userId: integer("user_id").notNull().references(() => users.id),
+  userId: integer("user_id")
+    .notNull()
+    .references(() => users.id),
   name: text("name").notNull(),
   tokenHash: text("token_hash").notNull().unique(),
   prefix: text("prefix").notNull(),
   // Tokens made before scopes existed keep their old meaning: read-only export.
-  scopes: text("scopes").array().notNull().default(sql`ARRAY['export:read']::text[]`),
+  scopes: text("scopes")
+    .array()
+    .notNull()
+    .default(sql`ARRAY['export:read']::text[]`),
   createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
   lastUsedAt: timestamp("last_used_at", { withTimezone: true }),
   revokedAt: timestamp("revoked_at", { withTimezone: true }),

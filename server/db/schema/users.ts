@@ -1,4 +1,15 @@
-import { boolean, index, integer, jsonb, pgTable, serial, text, timestamp, varchar, bigserial } from "drizzle-orm/pg-core";
+import {
+  boolean,
+  index,
+  integer,
+  jsonb,
+  pgTable,
+  serial,
+  text,
+  timestamp,
+  varchar,
+  bigserial,
+} from "drizzle-orm/pg-core";
 
 export const users = pgTable("users", {
   id: serial("id").primaryKey(),

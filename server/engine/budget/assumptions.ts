@@ -28,7 +28,11 @@ export function resolveOptions(input: ResolvedBudgetInput) {
     utilization: given("utilization", input.utilization, d.utilization),
     convention: given<FlopConvention>("convention", input.convention, d.convention),
     recomputeFraction: given("recomputeFraction", input.recomputeFraction, d.recomputeFraction),
-    optimizerBytesPerParameter: given("optimizerBytesPerParameter", input.optimizerBytesPerParameter, d.optimizerBytesPerParameter),
+    optimizerBytesPerParameter: given(
+      "optimizerBytesPerParameter",
+      input.optimizerBytesPerParameter,
+      d.optimizerBytesPerParameter,
+    ),
     sequenceSharding: given("sequenceSharding", input.sequenceSharding, d.sequenceSharding),
     microBatchSequences: given("microBatchSequences", input.microBatchSequences, d.microBatchSequences),
     growthPoints: given("growthPoints", input.growthPoints, d.growthPoints),

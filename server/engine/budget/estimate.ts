@@ -1,11 +1,5 @@
 import { describeAssumptions, resolveOptions, type ResolvedOptions } from "./assumptions";
-import {
-  acceleratorCost,
-  acceleratorHours,
-  attentionFlopsPerToken,
-  flopsPerToken,
-  wallClockHours,
-} from "./flops";
+import { acceleratorCost, acceleratorHours, attentionFlopsPerToken, flopsPerToken, wallClockHours } from "./flops";
 import { growthCurve } from "./growth";
 import {
   kvCacheBytesPerSequence,

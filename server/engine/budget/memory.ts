@@ -74,7 +74,10 @@ export function shardingDegrees(accelerators: number): number[] {
 }
 
 /** Smallest power-of-two sequence-sharding degree ≤ accelerators whose training memory fits, else null. */
-export function minSequenceSharding(input: Omit<TrainingMemoryInput, "sequenceSharding">, memoryBytes: number): number | null {
+export function minSequenceSharding(
+  input: Omit<TrainingMemoryInput, "sequenceSharding">,
+  memoryBytes: number,
+): number | null {
   for (const degree of shardingDegrees(input.accelerators)) {
     if (trainingMemoryPerAccelerator({ ...input, sequenceSharding: degree }).total <= memoryBytes) return degree;
   }

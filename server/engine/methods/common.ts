@@ -6,7 +6,10 @@ export const contextRatio = (ctx: MethodContext) => ctx.targetContext / ctx.trai
 
 export const resolveFactor = (ctx: MethodContext, factor: number | undefined) => factor ?? contextRatio(ctx);
 
-export function patchWithScaling(ctx: MethodContext, block: Omit<RopeScalingBlock, "original_max_position_embeddings">): ConfigPatch {
+export function patchWithScaling(
+  ctx: MethodContext,
+  block: Omit<RopeScalingBlock, "original_max_position_embeddings">,
+): ConfigPatch {
   return {
     rope_scaling: { ...block, original_max_position_embeddings: ctx.trainedContext },
     max_position_embeddings: ctx.targetContext,

@@ -25,7 +25,11 @@ export const dynamicMethod: MethodFn<"dynamic"> = (ctx, params) => {
     // Loaders use max_position_embeddings as L in the formula above and only grow the base past it,
     // so the export keeps the trained length there; the base grows at inference time.
     ropeScaling: {
-      rope_scaling: { rope_type: METHOD_CATALOG.dynamic.exportType, factor, original_max_position_embeddings: ctx.trainedContext },
+      rope_scaling: {
+        rope_type: METHOD_CATALOG.dynamic.exportType,
+        factor,
+        original_max_position_embeddings: ctx.trainedContext,
+      },
       max_position_embeddings: ctx.trainedContext,
     },
     effectiveBase: base,

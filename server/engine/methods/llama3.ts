@@ -28,7 +28,12 @@ export const llama3Method: MethodFn<"llama3"> = (ctx, params) => {
     invFreq,
     attentionFactor: 1,
     params: { method: "llama3", factor, lowFreqFactor, highFreqFactor },
-    ropeScaling: patchWithScaling(ctx, { rope_type: METHOD_CATALOG.llama3.exportType, factor, low_freq_factor: lowFreqFactor, high_freq_factor: highFreqFactor }),
+    ropeScaling: patchWithScaling(ctx, {
+      rope_type: METHOD_CATALOG.llama3.exportType,
+      factor,
+      low_freq_factor: lowFreqFactor,
+      high_freq_factor: highFreqFactor,
+    }),
     effectiveBase: null,
     notes: [],
   };

@@ -4,7 +4,8 @@ import { METHOD_CATALOG } from "../../../shared/methods";
 import { contextRatio, patchWithScaling } from "./common";
 
 /** a = sqrt(1 + ln s / ln L) for s > 1, else 1 (Ding et al. 2024, LongRoPE). */
-export const longropeAttentionFactor = (s: number, trained: number) => (s > 1 ? Math.sqrt(1 + Math.log(s) / Math.log(trained)) : 1);
+export const longropeAttentionFactor = (s: number, trained: number) =>
+  s > 1 ? Math.sqrt(1 + Math.log(s) / Math.log(trained)) : 1;
 
 /** Per-pair rescale factors: θ'_i = θ_i / e_i, e = long factors when L' > L, else short factors. */
 export const longropeMethod: MethodFn<"longrope"> = (ctx, params) => {
@@ -16,7 +17,12 @@ export const longropeMethod: MethodFn<"longrope"> = (ctx, params) => {
     invFreq,
     attentionFactor: longropeAttentionFactor(s, ctx.trainedContext),
     params: { method: "longrope", longFactor: params.longFactor, shortFactor: params.shortFactor },
-    ropeScaling: patchWithScaling(ctx, { rope_type: METHOD_CATALOG.longrope.exportType, factor: s, long_factor: params.longFactor, short_factor: params.shortFactor }),
+    ropeScaling: patchWithScaling(ctx, {
+      rope_type: METHOD_CATALOG.longrope.exportType,
+      factor: s,
+      long_factor: params.longFactor,
+      short_factor: params.shortFactor,
+    }),
     effectiveBase: null,
     notes: [
       `using the ${extended ? "long" : "short"} factors for the whole target window`,

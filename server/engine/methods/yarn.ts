@@ -11,7 +11,10 @@ export { YARN_DEFAULTS, yarnMscale };
  * Attention factor: explicit wins; else both mscale and mscaleAllDim (non-zero, as loaders test them) give
  * g(s, mscale)/g(s, mscaleAllDim); else g(s, 1).
  */
-export function yarnAttentionFactor(s: number, p: { attentionFactor?: number; mscale?: number; mscaleAllDim?: number }) {
+export function yarnAttentionFactor(
+  s: number,
+  p: { attentionFactor?: number; mscale?: number; mscaleAllDim?: number },
+) {
   if (p.attentionFactor !== undefined) return p.attentionFactor;
   if (p.mscale && p.mscaleAllDim) return yarnMscale(s, p.mscale) / yarnMscale(s, p.mscaleAllDim);
   return yarnMscale(s);
@@ -22,7 +25,14 @@ export const correctionIndex = (rotations: number, d: number, base: number, trai
   (d * Math.log(trained / (2 * Math.PI * rotations))) / (2 * Math.log(base));
 
 /** The ramp bounds [low, high] of the implementation form, clamped to [0, d−1]. */
-export function yarnRampRange(d: number, base: number, trained: number, betaFast: number, betaSlow: number, truncate: boolean) {
+export function yarnRampRange(
+  d: number,
+  base: number,
+  trained: number,
+  betaFast: number,
+  betaSlow: number,
+  truncate: boolean,
+) {
   let low = correctionIndex(betaFast, d, base, trained);
   let high = correctionIndex(betaSlow, d, base, trained);
   if (truncate) {
@@ -52,7 +62,12 @@ export const yarnMethod: MethodFn<"yarn"> = (ctx, params) => {
   });
   const attentionFactor = yarnAttentionFactor(factor, params);
 
-  const block: Omit<RopeScalingBlock, "original_max_position_embeddings"> = { rope_type: METHOD_CATALOG.yarn.exportType, factor, beta_fast: betaFast, beta_slow: betaSlow };
+  const block: Omit<RopeScalingBlock, "original_max_position_embeddings"> = {
+    rope_type: METHOD_CATALOG.yarn.exportType,
+    factor,
+    beta_fast: betaFast,
+    beta_slow: betaSlow,
+  };
   if (!truncate) block.truncate = false;
   if (params.attentionFactor !== undefined) block.attention_factor = params.attentionFactor;
   if (params.mscale !== undefined) block.mscale = params.mscale;
@@ -60,12 +75,23 @@ export const yarnMethod: MethodFn<"yarn"> = (ctx, params) => {
 
   const notes = factorMismatchNote(ctx, factor);
   if (params.attentionFactor === undefined && !!params.mscale !== !!params.mscaleAllDim) {
-    notes.push("mscale and mscale_all_dim only count together: with one of them missing or 0 the attention factor is g(s, 1)");
+    notes.push(
+      "mscale and mscale_all_dim only count together: with one of them missing or 0 the attention factor is g(s, 1)",
+    );
   }
   return {
     invFreq,
     attentionFactor,
-    params: { method: "yarn", factor, betaFast, betaSlow, truncate, attentionFactor, mscale: params.mscale, mscaleAllDim: params.mscaleAllDim },
+    params: {
+      method: "yarn",
+      factor,
+      betaFast,
+      betaSlow,
+      truncate,
+      attentionFactor,
+      mscale: params.mscale,
+      mscaleAllDim: params.mscaleAllDim,
+    },
     ropeScaling: patchWithScaling(ctx, block),
     effectiveBase: null,
     notes,

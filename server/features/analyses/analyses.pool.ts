@@ -28,7 +28,10 @@ let offloaded = 0;
 export const offloadedAnalyses = () => offloaded;
 
 /** Computes one analysis in a pool thread; the request thread keeps serving others meanwhile. */
-export async function analyseOffThread(request: ResolvedAnalysisRequest, signal?: AbortSignal): Promise<AnalysisResponse> {
+export async function analyseOffThread(
+  request: ResolvedAnalysisRequest,
+  signal?: AbortSignal,
+): Promise<AnalysisResponse> {
   const p = getPool();
   if (p.queueSize >= MAX_QUEUE) throw new HttpError(503, "busy", "the analysis workers are busy; try again shortly");
   offloaded++;

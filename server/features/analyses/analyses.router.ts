@@ -10,7 +10,10 @@ export const analysesFeature: ApiFeature = {
   tag: "engine",
   routes: [
     route({
-      method: "post", path: "/", summary: "Compare scaling methods pair by pair (stateless)", access: "signed-in",
+      method: "post",
+      path: "/",
+      summary: "Compare scaling methods pair by pair (stateless)",
+      access: "signed-in",
       body: analysisRequestSchema,
       responses: { 200: analysisResponseSchema },
       handler: async ({ deps, res, user, body }) => {
@@ -20,7 +23,13 @@ export const analysesFeature: ApiFeature = {
           if (!res.writableEnded) abort.abort();
         });
         try {
-          return { status: 200, body: await analyseRequest(body, (id) => getModelShape(deps, id), { userId: user.id, signal: abort.signal }) };
+          return {
+            status: 200,
+            body: await analyseRequest(body, (id) => getModelShape(deps, id), {
+              userId: user.id,
+              signal: abort.signal,
+            }),
+          };
         } catch (e) {
           if (e instanceof AnalysisCancelled) return CLIENT_GONE;
           throw e;

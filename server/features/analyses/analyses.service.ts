@@ -3,8 +3,13 @@ import { Invalid } from "../../platform/errors";
 import { analyseOffThread } from "./analyses.pool";
 import { takeHeavySlot } from "./analyses.limits";
 import {
-  ANALYSIS_INLINE_WORK, modelDependentIssues, rotaryShapeSchema, rotaryDimension,
-  type AnalysisRequest, type AnalysisResponse, type ModelShape,
+  ANALYSIS_INLINE_WORK,
+  modelDependentIssues,
+  rotaryShapeSchema,
+  rotaryDimension,
+  type AnalysisRequest,
+  type AnalysisResponse,
+  type ModelShape,
 } from "../../../shared/schemas/analysis";
 
 /** Looks a stored model profile up by id; throws NotFound when there is none. */
@@ -38,7 +43,11 @@ export const analysisWork = (model: ModelShape, methods: number) => ((rotaryDime
  * Stateless comparison: resolves { modelId }, applies the rules that need the model, runs the engine —
  * in the request for small analyses, in a pool thread (at most HEAVY_ANALYSES_PER_USER at once per user) for large ones.
  */
-export async function analyseRequest(input: AnalysisRequest, resolveModel: ResolveModel, opts: AnalyseOptions): Promise<AnalysisResponse> {
+export async function analyseRequest(
+  input: AnalysisRequest,
+  resolveModel: ResolveModel,
+  opts: AnalyseOptions,
+): Promise<AnalysisResponse> {
   const model = "modelId" in input.model ? toModelShape(await resolveModel(input.model.modelId)) : input.model;
   const issues = modelDependentIssues(model, input.targetContext, input.methods);
   if (issues.length) {

@@ -9,13 +9,20 @@ export const auditFeature: ApiFeature = {
   tag: "audit",
   routes: [
     route({
-      method: "get", path: "/", summary: "Audit trail (admin, approver)", access: ["admin", "approver"], query: auditQuerySchema,
+      method: "get",
+      path: "/",
+      summary: "Audit trail (admin, approver)",
+      access: ["admin", "approver"],
+      query: auditQuerySchema,
       responses: { 200: auditPageSchema },
       handler: async ({ deps, query }) => ({ status: 200, body: await listAuditEvents(deps, query) }),
     }),
     // Admins only: the answer says whether anyone with database rights rewrote the trail, and where.
     route({
-      method: "get", path: "/verify", summary: "Check the audit hash chain; names the first broken link (admin)", access: ["admin"],
+      method: "get",
+      path: "/verify",
+      summary: "Check the audit hash chain; names the first broken link (admin)",
+      access: ["admin"],
       responses: { 200: auditChainReportSchema },
       handler: async ({ deps }) => ({ status: 200, body: await verifyTrail(deps) }),
     }),

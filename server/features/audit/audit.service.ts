@@ -17,14 +17,24 @@ export async function listAuditEvents(deps: AppDeps, q: z.output<typeof auditQue
   if (q.to) where.push(lte(auditEvents.at, new Date(q.to)));
   const rows = await deps.db
     .select({ e: auditEvents, name: users.name, total: sql<number>`count(*) OVER ()::int` })
-    .from(auditEvents).leftJoin(users, eq(users.id, auditEvents.actorId))
+    .from(auditEvents)
+    .leftJoin(users, eq(users.id, auditEvents.actorId))
     .where(where.length ? and(...where) : undefined)
-    .orderBy(desc(auditEvents.id)).limit(q.pageSize).offset((q.page - 1) * q.pageSize);
+    .orderBy(desc(auditEvents.id))
+    .limit(q.pageSize)
+    .offset((q.page - 1) * q.pageSize);
   return {
-    total: rows[0]?.total ?? 0, page: q.page, pageSize: q.pageSize,
+    total: rows[0]?.total ?? 0,
+    page: q.page,
+    pageSize: q.pageSize,
     events: rows.map(({ e, name }) => ({
-      id: e.id, at: e.at.toISOString(), actor: e.actorId ? { id: e.actorId, name: name ?? "?" } : null,
-      action: e.action, subjectType: e.subjectType, subjectId: e.subjectId, detail: e.detail as Record<string, unknown>,
+      id: e.id,
+      at: e.at.toISOString(),
+      actor: e.actorId ? { id: e.actorId, name: name ?? "?" } : null,
+      action: e.action,
+      subjectType: e.subjectType,
+      subjectId: e.subjectId,
+      detail: e.detail as Record<string, unknown>,
     })),
   };
 }

@@ -5,11 +5,22 @@ import { HttpError } from "../../platform/errors";
 
 // Counts live in express-rate-limit's in-process memory store unless `deps.limiterStore` hands out a shared one
 // (a later change moves them into PostgreSQL); each limiter asks for its store by name.
-const tooMany = (what: string) => new HttpError(429, "rate_limited", `too many ${what}; wait a few minutes and try again`);
-const emailOf = (req: Request) => String((req.body as { email?: unknown } | undefined)?.email ?? "").trim().toLowerCase();
+const tooMany = (what: string) =>
+  new HttpError(429, "rate_limited", `too many ${what}; wait a few minutes and try again`);
+const emailOf = (req: Request) =>
+  String((req.body as { email?: unknown } | undefined)?.email ?? "")
+    .trim()
+    .toLowerCase();
 const addressOf = (req: Request) => ipKeyGenerator(req.ip ?? "");
 
-function limiter(deps: AppDeps, name: string, limit: number, windowMs: number, what: string, key: (req: Request, res: Response) => string) {
+function limiter(
+  deps: AppDeps,
+  name: string,
+  limit: number,
+  windowMs: number,
+  what: string,
+  key: (req: Request, res: Response) => string,
+) {
   return rateLimit({
     windowMs,
     limit,
@@ -32,9 +43,20 @@ function limiter(deps: AppDeps, name: string, limit: number, windowMs: number, w
 export function loginLimiters(deps: AppDeps): RequestHandler[] {
   const l = deps.config.login;
   return [
-    limiter(deps, "login-addr", l.perAddress, l.windowMs, "sign-in attempts from this address", (req) => addressOf(req)),
-    limiter(deps, "login-acct-addr", l.perAccountAddress, l.windowMs, "sign-in attempts", (req) => `${emailOf(req)}|${addressOf(req)}`),
-    limiter(deps, "login-acct", l.perAccount, l.accountWindowMs, "sign-in attempts for this account", (req) => emailOf(req)),
+    limiter(deps, "login-addr", l.perAddress, l.windowMs, "sign-in attempts from this address", (req) =>
+      addressOf(req),
+    ),
+    limiter(
+      deps,
+      "login-acct-addr",
+      l.perAccountAddress,
+      l.windowMs,
+      "sign-in attempts",
+      (req) => `${emailOf(req)}|${addressOf(req)}`,
+    ),
+    limiter(deps, "login-acct", l.perAccount, l.accountWindowMs, "sign-in attempts for this account", (req) =>
+      emailOf(req),
+    ),
   ];
 }
 

@@ -4,7 +4,12 @@ import { HttpError } from "../../platform/errors";
 import { route, type ApiFeature } from "../../http/route";
 import { noStore } from "../../http/no-store";
 import { destroySession, newCsrfToken, regenerate, saveSession, SESSION_COOKIE } from "../../http/session";
-import { changePasswordRequestSchema, loginRequestSchema, loginResponseSchema, sessionResponseSchema } from "../../../shared/schemas";
+import {
+  changePasswordRequestSchema,
+  loginRequestSchema,
+  loginResponseSchema,
+  sessionResponseSchema,
+} from "../../../shared/schemas";
 import { changePassword } from "../users";
 import { recordSignOut, verifyCredentials } from "./auth.service";
 import { loginLimiters, passwordChangeLimiter } from "./auth.limits";
@@ -21,7 +26,10 @@ export const authFeature: ApiFeature = {
   routes: [
     // Signed in: the session's synchronizer token. Anonymous: a signed cookie token, so no session row is stored.
     route({
-      method: "get", path: "/session", summary: "Current user and CSRF token", access: "public",
+      method: "get",
+      path: "/session",
+      summary: "Current user and CSRF token",
+      access: "public",
       responses: { 200: sessionResponseSchema },
       handler: async ({ deps, req, res }) => {
         // A bearer-token request has no session (bearerAuth skips the session middleware), so there is none to describe.
@@ -42,7 +50,11 @@ export const authFeature: ApiFeature = {
       },
     }),
     route({
-      method: "post", path: "/login", summary: "Sign in", access: "public", body: loginRequestSchema,
+      method: "post",
+      path: "/login",
+      summary: "Sign in",
+      access: "public",
+      body: loginRequestSchema,
       middleware: (deps) => loginLimiters(deps),
       responses: { 200: loginResponseSchema },
       handler: async ({ deps, req, res, body }) => {
@@ -58,7 +70,10 @@ export const authFeature: ApiFeature = {
       },
     }),
     route({
-      method: "post", path: "/logout", summary: "Sign out", access: "public",
+      method: "post",
+      path: "/logout",
+      summary: "Sign out",
+      access: "public",
       responses: { 204: noContent },
       handler: async ({ deps, req, res }) => {
         const user = optionalUser(res);
@@ -69,7 +84,11 @@ export const authFeature: ApiFeature = {
       },
     }),
     route({
-      method: "post", path: "/password", summary: "Change own password", access: "signed-in", body: changePasswordRequestSchema,
+      method: "post",
+      path: "/password",
+      summary: "Change own password",
+      access: "signed-in",
+      body: changePasswordRequestSchema,
       middleware: (deps) => [passwordChangeLimiter(deps)],
       responses: { 204: noContent },
       handler: async ({ deps, req, user, body }) => {

@@ -34,7 +34,13 @@ export async function verifyCredentials(deps: AppDeps, email: string, password: 
     });
     throw new InvalidCredentials();
   }
-  await recordAudit(deps.db, { actorId: row.id, action: "auth.signed_in", subjectType: "user", subjectId: row.id, detail: { address } });
+  await recordAudit(deps.db, {
+    actorId: row.id,
+    action: "auth.signed_in",
+    subjectType: "user",
+    subjectId: row.id,
+    detail: { address },
+  });
   return toSessionUser(row);
 }
 

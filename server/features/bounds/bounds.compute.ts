@@ -7,7 +7,9 @@ import type { BaseBoundQuery, BaseBoundResponse, BoundProgress } from "../../../
 export function computeBaseBound(query: BaseBoundQuery, onProgress: (p: BoundProgress) => void): BaseBoundResponse {
   if (query.kind === "supportedLength") {
     const theta = inverseFrequencies(query.rotaryDim, query.base);
-    const found = supportedLength(theta, query.maxLength, (position) => onProgress({ position, maxLength: query.maxLength }));
+    const found = supportedLength(theta, query.maxLength, (position) =>
+      onProgress({ position, maxLength: query.maxLength }),
+    );
     return { supportedLength: found, maxLength: query.maxLength };
   }
   const result = smallestSupportingBase(query.rotaryDim, query.targetContext, query.grid, {

@@ -9,7 +9,10 @@ export const boundsFeature: ApiFeature = {
   tag: "engine",
   routes: [
     route({
-      method: "post", path: "/base", summary: "Supported length of a base, or smallest supporting base (worker thread)", access: "signed-in",
+      method: "post",
+      path: "/base",
+      summary: "Supported length of a base, or smallest supporting base (worker thread)",
+      access: "signed-in",
       body: baseBoundRequestSchema,
       responses: { 200: baseBoundResponseSchema },
       handler: async ({ res, body }) => {
@@ -27,12 +30,16 @@ export const boundsFeature: ApiFeature = {
       },
     }),
     route({
-      method: "post", path: "/base/stream", summary: "Same search as server-sent events with progress", access: "signed-in",
+      method: "post",
+      path: "/base/stream",
+      summary: "Same search as server-sent events with progress",
+      access: "signed-in",
       body: baseBoundRequestSchema,
       responses: {
         200: {
           contentType: "text/event-stream",
-          description: "Events `progress` (boundProgressEventSchema), then one `result` (as POST /api/bounds/base) or `error` ({ code, message })",
+          description:
+            "Events `progress` (boundProgressEventSchema), then one `result` (as POST /api/bounds/base) or `error` ({ code, message })",
         },
       },
       handler: async ({ res, body }) => {
@@ -42,7 +49,11 @@ export const boundsFeature: ApiFeature = {
         res.on("close", () => {
           if (!res.writableEnded) abort.abort();
         });
-        res.status(200).set({ "Content-Type": "text/event-stream", "Cache-Control": "no-cache, no-transform", "X-Accel-Buffering": "no" });
+        res.status(200).set({
+          "Content-Type": "text/event-stream",
+          "Cache-Control": "no-cache, no-transform",
+          "X-Accel-Buffering": "no",
+        });
         res.flushHeaders();
         function send(event: string, data: unknown) {
           if (!res.writableEnded) res.write(`event: ${event}\ndata: ${JSON.stringify(data)}\n\n`);
@@ -53,7 +64,10 @@ export const boundsFeature: ApiFeature = {
           if (e instanceof SearchCancelled) return CLIENT_GONE;
           const known = e instanceof HttpError;
           if (!known) console.error("[bounds] stream search failed:", e);
-          send("error", { code: known ? e.code : "internal", message: known ? e.message : "the search failed on our side; it has been logged" });
+          send("error", {
+            code: known ? e.code : "internal",
+            message: known ? e.message : "the search failed on our side; it has been logged",
+          });
         }
         res.end();
         return { status: 200, streamed: true };

@@ -35,7 +35,8 @@ function takeSlot(signal?: AbortSignal): Promise<void> {
     liveWorkers++;
     return Promise.resolve();
   }
-  if (waiting.length >= MAX_QUEUED) return Promise.reject(new HttpError(503, "busy", "all bound searches are busy; try again shortly"));
+  if (waiting.length >= MAX_QUEUED)
+    return Promise.reject(new HttpError(503, "busy", "all bound searches are busy; try again shortly"));
   return new Promise((resolve, reject) => {
     const go = () => {
       clearTimeout(timer);
@@ -53,7 +54,10 @@ function takeSlot(signal?: AbortSignal): Promise<void> {
       clearTimeout(timer);
       leave(new SearchCancelled());
     };
-    const timer = setTimeout(() => leave(new HttpError(503, "busy", "all bound searches are busy; try again shortly")), QUEUE_WAIT_MS);
+    const timer = setTimeout(
+      () => leave(new HttpError(503, "busy", "all bound searches are busy; try again shortly")),
+      QUEUE_WAIT_MS,
+    );
     signal?.addEventListener("abort", cancel, { once: true });
     waiting.push(go);
   });
@@ -97,16 +101,28 @@ export async function runBaseBound(query: BaseBoundQuery, opts: SearchOptions = 
     };
     const onAbort = () => settle(() => reject(new SearchCancelled()));
     const timer = setTimeout(
-      () => settle(() => reject(new HttpError(503, "search_timeout", `the search took longer than ${(opts.timeoutMs ?? SEARCH_TIMEOUT_MS) / 1000} s`))),
+      () =>
+        settle(() =>
+          reject(
+            new HttpError(
+              503,
+              "search_timeout",
+              `the search took longer than ${(opts.timeoutMs ?? SEARCH_TIMEOUT_MS) / 1000} s`,
+            ),
+          ),
+        ),
       opts.timeoutMs ?? SEARCH_TIMEOUT_MS,
     );
     opts.signal?.addEventListener("abort", onAbort, { once: true });
 
-    worker.on("message", (msg: { type: string; progress?: BoundProgress; result?: BaseBoundResponse; message?: string }) => {
-      if (msg.type === "progress" && msg.progress) opts.onProgress?.(msg.progress);
-      else if (msg.type === "result" && msg.result) settle(() => resolve(msg.result!));
-      else if (msg.type === "error") settle(() => reject(new Error(`bound search failed: ${msg.message}`)));
-    });
+    worker.on(
+      "message",
+      (msg: { type: string; progress?: BoundProgress; result?: BaseBoundResponse; message?: string }) => {
+        if (msg.type === "progress" && msg.progress) opts.onProgress?.(msg.progress);
+        else if (msg.type === "result" && msg.result) settle(() => resolve(msg.result!));
+        else if (msg.type === "error") settle(() => reject(new Error(`bound search failed: ${msg.message}`)));
+      },
+    );
     worker.on("error", (e) => settle(() => reject(e)));
     worker.on("exit", (code) => settle(() => reject(new Error(`bound search worker exited with code ${code}`))));
   });

@@ -10,12 +10,18 @@ import { isUniqueViolation } from "../../db/errors";
 
 type Row = typeof accelerators.$inferSelect;
 const view = (r: Row) => ({
-  id: r.id, name: r.name, memoryBytes: r.memoryBytes, peakFlops: r.peakFlops, pricePerHour: r.pricePerHour, notes: r.notes,
+  id: r.id,
+  name: r.name,
+  memoryBytes: r.memoryBytes,
+  peakFlops: r.peakFlops,
+  pricePerHour: r.pricePerHour,
+  notes: r.notes,
   retiredAt: r.retiredAt?.toISOString() ?? null,
 });
 const taken = () => new Conflict("an accelerator with this name exists", { name: "already taken" });
 
-export const listAccelerators = async (deps: AppDeps) => (await deps.db.select().from(accelerators).orderBy(asc(accelerators.name))).map(view);
+export const listAccelerators = async (deps: AppDeps) =>
+  (await deps.db.select().from(accelerators).orderBy(asc(accelerators.name))).map(view);
 
 export async function findAccelerator(ex: Executor, id: number) {
   const [row] = await ex.select().from(accelerators).where(eq(accelerators.id, id)).limit(1);
@@ -25,8 +31,17 @@ export async function findAccelerator(ex: Executor, id: number) {
 export async function createAccelerator(deps: AppDeps, actor: SessionUser, input: AcceleratorInput) {
   try {
     return await deps.db.transaction(async (tx) => {
-      const [row] = await tx.insert(accelerators).values({ ...input, notes: input.notes ?? "", createdBy: actor.id }).returning();
-      await recordAudit(tx, { actorId: actor.id, action: "accelerator.created", subjectType: "accelerator", subjectId: row.id, detail: view(row) });
+      const [row] = await tx
+        .insert(accelerators)
+        .values({ ...input, notes: input.notes ?? "", createdBy: actor.id })
+        .returning();
+      await recordAudit(tx, {
+        actorId: actor.id,
+        action: "accelerator.created",
+        subjectType: "accelerator",
+        subjectId: row.id,
+        detail: view(row),
+      });
       return view(row);
     });
   } catch (e) {
@@ -40,8 +55,18 @@ export async function updateAccelerator(deps: AppDeps, actor: SessionUser, id: n
     return await deps.db.transaction(async (tx) => {
       const before = await findAccelerator(tx, id);
       if (!before) throw new NotFound("no such accelerator");
-      const [row] = await tx.update(accelerators).set({ ...input, updatedAt: new Date() }).where(eq(accelerators.id, id)).returning();
-      await recordAudit(tx, { actorId: actor.id, action: "accelerator.updated", subjectType: "accelerator", subjectId: id, detail: { before, after: view(row) } });
+      const [row] = await tx
+        .update(accelerators)
+        .set({ ...input, updatedAt: new Date() })
+        .where(eq(accelerators.id, id))
+        .returning();
+      await recordAudit(tx, {
+        actorId: actor.id,
+        action: "accelerator.updated",
+        subjectType: "accelerator",
+        subjectId: id,
+        detail: { before, after: view(row) },
+      });
       return view(row);
     });
   } catch (e) {
@@ -61,10 +86,23 @@ export async function acceleratorUsage(ex: Executor, id: number) {
     .orderBy(asc(plans.id));
 }
 
-async function setRetired(tx: Executor, actor: SessionUser, id: number, retired: boolean, usedBy: { id: number; title: string }[] = []) {
-  const [row] = await tx.update(accelerators).set({ retiredAt: retired ? new Date() : null, updatedAt: new Date() }).where(eq(accelerators.id, id)).returning();
+async function setRetired(
+  tx: Executor,
+  actor: SessionUser,
+  id: number,
+  retired: boolean,
+  usedBy: { id: number; title: string }[] = [],
+) {
+  const [row] = await tx
+    .update(accelerators)
+    .set({ retiredAt: retired ? new Date() : null, updatedAt: new Date() })
+    .where(eq(accelerators.id, id))
+    .returning();
   await recordAudit(tx, {
-    actorId: actor.id, action: retired ? "accelerator.retired" : "accelerator.restored", subjectType: "accelerator", subjectId: id,
+    actorId: actor.id,
+    action: retired ? "accelerator.retired" : "accelerator.restored",
+    subjectType: "accelerator",
+    subjectId: id,
     detail: { name: row.name, ...(retired ? { usedBy: usedBy.map((p) => p.id) } : {}) },
   });
   return view(row);
@@ -89,7 +127,13 @@ export async function deleteAccelerator(deps: AppDeps, actor: SessionUser, id: n
       return { deleted: false as const, accelerator, usedBy };
     }
     await tx.delete(accelerators).where(eq(accelerators.id, id));
-    await recordAudit(tx, { actorId: actor.id, action: "accelerator.deleted", subjectType: "accelerator", subjectId: id, detail: before });
+    await recordAudit(tx, {
+      actorId: actor.id,
+      action: "accelerator.deleted",
+      subjectType: "accelerator",
+      subjectId: id,
+      detail: before,
+    });
     return { deleted: true as const };
   });
 }

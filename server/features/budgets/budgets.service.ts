@@ -6,7 +6,6 @@ import { findAccelerator } from "./accelerators.service";
 import type { ParsedBudgetEstimateRequest } from "../../../shared/schemas/budget";
 import { budgetShapeOf } from "../../../shared/profile-shapes";
 
-
 /** Replaces { modelId } and { acceleratorId } with the stored numbers, then runs the budget engine. */
 export async function resolveAndEstimate(ex: Executor, req: ParsedBudgetEstimateRequest) {
   let model;

@@ -10,8 +10,14 @@ export const healthFeature: ApiFeature = {
   tag: "system",
   routes: [
     route({
-      method: "get", path: "/", summary: "Liveness and database state", access: "public",
-      responses: { 200: healthResponseSchema.describe("The database answers"), 503: healthResponseSchema.describe("The database does not answer (Retry-After: 5)") },
+      method: "get",
+      path: "/",
+      summary: "Liveness and database state",
+      access: "public",
+      responses: {
+        200: healthResponseSchema.describe("The database answers"),
+        503: healthResponseSchema.describe("The database does not answer (Retry-After: 5)"),
+      },
       handler: async ({ deps, res }) => {
         let timer: NodeJS.Timeout | undefined;
         const late = new Promise<never>((_resolve, reject) => {

@@ -11,12 +11,19 @@ export const mailFeature: ApiFeature = {
   tag: "mail",
   routes: [
     route({
-      method: "get", path: "/", summary: "Local mail sink and outbox (admin)", access: ["admin"], query: listQuery,
+      method: "get",
+      path: "/",
+      summary: "Local mail sink and outbox (admin)",
+      access: ["admin"],
+      query: listQuery,
       responses: { 200: mailViewSchema },
       handler: async ({ deps, query }) => ({ status: 200, body: await listMail(deps, query.q || undefined) }),
     }),
     route({
-      method: "post", path: "/deliver", summary: "Deliver due mail now (admin)", access: ["admin"],
+      method: "post",
+      path: "/deliver",
+      summary: "Deliver due mail now (admin)",
+      access: ["admin"],
       responses: { 200: deliveryResultSchema },
       handler: async ({ deps }) => ({ status: 200, body: await deliverNow(deps) }),
     }),

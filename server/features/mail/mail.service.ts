@@ -13,7 +13,11 @@ export async function listMail(deps: AppDeps, q?: string): Promise<MailView> {
   ]);
   return {
     messages: messages.map((m) => ({ ...m, receivedAt: m.receivedAt.toISOString() })),
-    outbox: outbox.map((o) => ({ ...o, createdAt: o.createdAt.toISOString(), sentAt: o.sentAt?.toISOString() ?? null })),
+    outbox: outbox.map((o) => ({
+      ...o,
+      createdAt: o.createdAt.toISOString(),
+      sentAt: o.sentAt?.toISOString() ?? null,
+    })),
   };
 }
 

@@ -11,11 +11,13 @@ import { checkKvHeads, readHeadDim } from "./head-shape";
 import { findHostile } from "../../platform/hostile";
 
 export class ConfigImportError extends Error {
-  constructor(message: string, readonly fields: Record<string, string>) {
+  constructor(
+    message: string,
+    readonly fields: Record<string, string>,
+  ) {
     super(message);
   }
 }
-
 
 const DTYPE_BYTES: Record<string, number> = { bfloat16: 2, float16: 2, float32: 4, float8_e4m3fn: 1, int8: 1 };
 
@@ -23,7 +25,8 @@ const DTYPE_BYTES: Record<string, number> = { bfloat16: 2, float16: 2, float32: 
 const NOT_PARAMETERS: readonly string[] = COMMON_SCALING_KEYS.filter((k) => k !== "factor");
 
 /** A table lookup by untrusted text: own keys only, so "constructor" or "__proto__" finds nothing. */
-const lookup = <T>(table: Record<string, T>, key: string): T | undefined => (Object.hasOwn(table, key) ? table[key] : undefined);
+const lookup = <T>(table: Record<string, T>, key: string): T | undefined =>
+  Object.hasOwn(table, key) ? table[key] : undefined;
 
 const camel = (k: string) => k.replace(/_([a-z])/g, (_m, c: string) => c.toUpperCase());
 
@@ -51,14 +54,24 @@ function readJson(text: string): Json {
     throw new ConfigImportError("the file is not JSON", { file: `not valid JSON: ${(e as Error).message}` });
   }
   const hostile = findHostile(c);
-  if (hostile) throw new ConfigImportError(`the file is not a usable config: ${hostile.message}`, { file: `${hostile.path.join(".") || "(file)"}: ${hostile.message}` });
-  if (!isObj(c)) throw new ConfigImportError("the file is JSON but not an object", { file: "expected a JSON object of configuration keys" });
+  if (hostile)
+    throw new ConfigImportError(`the file is not a usable config: ${hostile.message}`, {
+      file: `${hostile.path.join(".") || "(file)"}: ${hostile.message}`,
+    });
+  if (!isObj(c))
+    throw new ConfigImportError("the file is JSON but not an object", {
+      file: "expected a JSON object of configuration keys",
+    });
   // Multimodal configs nest the language model's keys.
-  if (num(c.hidden_size) === undefined && isObj(c.text_config)) return { ...c.text_config, _name_or_path: c._name_or_path };
+  if (num(c.hidden_size) === undefined && isObj(c.text_config))
+    return { ...c.text_config, _name_or_path: c._name_or_path };
   return c;
 }
 
-export function parseModelConfig(text: string, fileName = "config.json"): { profile: ImportPreviewProfile; warnings: ImportWarning[] } {
+export function parseModelConfig(
+  text: string,
+  fileName = "config.json",
+): { profile: ImportPreviewProfile; warnings: ImportWarning[] } {
   const cfg = readJson(text);
   const warnings: ImportWarning[] = [];
   const warn: Warn = (code, message, fix) => warnings.push({ code, message, fix });
@@ -82,25 +95,38 @@ export function parseModelConfig(text: string, fileName = "config.json"): { prof
   let ropeTheta = num(cfg.rope_theta) ?? num(ropeParams?.rope_theta);
   if (ropeTheta === undefined) {
     ropeTheta = 10_000;
-    warn("rope_theta_missing", "The config has no rope_theta; loaders then use the RoFormer default of 10 000.",
-      "Check the model card: if the model was trained with another base, enter it before analysing.");
+    warn(
+      "rope_theta_missing",
+      "The config has no rope_theta; loaders then use the RoFormer default of 10 000.",
+      "Check the model card: if the model was trained with another base, enter it before analysing.",
+    );
   }
   let prf = num(cfg.partial_rotary_factor) ?? num(ropeParams?.partial_rotary_factor);
   if (prf === undefined && num(cfg.rotary_pct) !== undefined) {
     prf = num(cfg.rotary_pct);
-    warn("rotary_pct_alias", `The rotary fraction is given as rotary_pct (${prf}), an older spelling of partial_rotary_factor.`,
-      "Ropewalk reads it as partial_rotary_factor; keep both keys consistent if you edit the config.");
+    warn(
+      "rotary_pct_alias",
+      `The rotary fraction is given as rotary_pct (${prf}), an older spelling of partial_rotary_factor.`,
+      "Ropewalk reads it as partial_rotary_factor; keep both keys consistent if you edit the config.",
+    );
   }
   prf ??= 1;
   if (prf < 1 && headDim !== undefined) {
-    warn("partial_rotation", `Only ${prf * 100}% of each head rotates (partial_rotary_factor ${prf}): the rotary dimension is ${headDim * prf}, not ${headDim}.`,
-      `Every pair count, band and bound here uses d = ${headDim * prf}; make sure your own scripts do too.`);
+    warn(
+      "partial_rotation",
+      `Only ${prf * 100}% of each head rotates (partial_rotary_factor ${prf}): the rotary dimension is ${headDim * prf}, not ${headDim}.`,
+      `Every pair count, band and bound here uses d = ${headDim * prf}; make sure your own scripts do too.`,
+    );
   }
 
   const maxPos = num(cfg.max_position_embeddings)!;
   let trainedContext = maxPos;
   let currentScaling: CurrentScaling | null = null;
-  const rs = isObj(cfg.rope_scaling) ? cfg.rope_scaling : ropeParams && (ropeParams.rope_type ?? ropeParams.type) ? ropeParams : undefined;
+  const rs = isObj(cfg.rope_scaling)
+    ? cfg.rope_scaling
+    : ropeParams && (ropeParams.rope_type ?? ropeParams.type)
+      ? ropeParams
+      : undefined;
   if (rs) {
     const type = String(rs.rope_type ?? rs.type ?? "default");
     const original = num(rs.original_max_position_embeddings) ?? num(cfg.original_max_position_embeddings);
@@ -110,11 +136,21 @@ export function parseModelConfig(text: string, fileName = "config.json"): { prof
     for (const key of Object.keys(rs)) {
       if (known && !known.includes(key)) {
         const near = suggestKey(key, known);
-        warn("unknown_scaling_key", `rope_scaling has the key "${key}", which ${type} does not read; loaders ignore it silently.`,
-          near ? `Did you mean "${near}"? Rename it, or the value you meant to set is not used.` : "Remove it, or check the spelling against the method's keys.");
+        warn(
+          "unknown_scaling_key",
+          `rope_scaling has the key "${key}", which ${type} does not read; loaders ignore it silently.`,
+          near
+            ? `Did you mean "${near}"? Rename it, or the value you meant to set is not used.`
+            : "Remove it, or check the spelling against the method's keys.",
+        );
       }
     }
-    if (!known) warn("unknown_rope_type", `rope_type "${type}" is not one Ropewalk knows.`, "Analyse with one of the known methods and compare.");
+    if (!known)
+      warn(
+        "unknown_rope_type",
+        `rope_type "${type}" is not one Ropewalk knows.`,
+        "Analyse with one of the known methods and compare.",
+      );
     scalingWarnings(method, type, rs, maxPos, original, warn);
     const params: Record<string, unknown> = {};
     for (const [k, v] of Object.entries(rs)) {
@@ -123,18 +159,36 @@ export function parseModelConfig(text: string, fileName = "config.json"): { prof
     currentScaling = { method: method ?? type, params, raw: rs };
   }
   const dtype = String(cfg.torch_dtype ?? cfg.dtype ?? "");
-  const name = String(cfg._name_or_path ?? "").split("/").pop() || fileName.replace(/\.json$/i, "");
+  const name =
+    String(cfg._name_or_path ?? "")
+      .split("/")
+      .pop() || fileName.replace(/\.json$/i, "");
   // Without a trusted head_dim the estimate uses hidden_size / heads; it is replaced once the author gives head_dim.
   const parameters = estimateNonEmbeddingParameters(cfg, headDim ?? hidden / heads, heads, kvHeads);
-  warn("parameters_estimated", `The config carries no parameter count; ${(parameters / 1e9).toFixed(2)} B non-embedding parameters were estimated from its shape.`,
-    "Replace it with the published count if you have one: it drives every FLOP figure of the budget.");
+  warn(
+    "parameters_estimated",
+    `The config carries no parameter count; ${(parameters / 1e9).toFixed(2)} B non-embedding parameters were estimated from its shape.`,
+    "Replace it with the published count if you have one: it drives every FLOP figure of the budget.",
+  );
 
   return {
     profile: {
-      name, family: String(cfg.model_type ?? "unknown"), headDim, partialRotaryFactor: prf, ropeTheta, trainedContext,
-      maxPositionEmbeddings: maxPos, layers: num(cfg.num_hidden_layers)!, attentionHeads: heads, kvHeads, hiddenSize: hidden,
-      parameters, parametersTotal: null, bytesPerElement: lookup(DTYPE_BYTES, dtype) ?? 2,
-      provenance: `imported from ${fileName}`, currentScaling,
+      name,
+      family: String(cfg.model_type ?? "unknown"),
+      headDim,
+      partialRotaryFactor: prf,
+      ropeTheta,
+      trainedContext,
+      maxPositionEmbeddings: maxPos,
+      layers: num(cfg.num_hidden_layers)!,
+      attentionHeads: heads,
+      kvHeads,
+      hiddenSize: hidden,
+      parameters,
+      parametersTotal: null,
+      bytesPerElement: lookup(DTYPE_BYTES, dtype) ?? 2,
+      provenance: `imported from ${fileName}`,
+      currentScaling,
     },
     warnings,
   };

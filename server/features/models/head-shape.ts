@@ -23,7 +23,8 @@ export function divisorsOf(n: number): number[] {
   return [...low, ...high];
 }
 
-const listWords = (xs: number[]) => (xs.length < 2 ? xs.join("") : `${xs.slice(0, -1).join(", ")} or ${xs[xs.length - 1]}`);
+const listWords = (xs: number[]) =>
+  xs.length < 2 ? xs.join("") : `${xs.slice(0, -1).join(", ")} or ${xs[xs.length - 1]}`;
 const show = (x: number) => (Number.isInteger(x) ? String(x) : x.toFixed(2));
 
 /**
@@ -35,19 +36,27 @@ export function readHeadDim(hidden: number, heads: number, given: number | undef
   if (given !== undefined) {
     if (isPositiveInt(given)) {
       if (given !== ratio) {
-        warn("head_dim_differs", `head_dim is ${given}, but hidden_size / num_attention_heads is ${show(ratio)}.`,
-          `Use head_dim (${given}) for every rotary figure; tools that derive it from hidden_size compute the wrong frequencies.`);
+        warn(
+          "head_dim_differs",
+          `head_dim is ${given}, but hidden_size / num_attention_heads is ${show(ratio)}.`,
+          `Use head_dim (${given}) for every rotary figure; tools that derive it from hidden_size compute the wrong frequencies.`,
+        );
       }
       return given;
     }
-    warn("head_dim_not_integer", `head_dim is ${given}, which is not a whole number of dimensions per head.`,
-      "Enter the head_dim the model was trained with (from the model card or its modelling code); the profile cannot be saved until it is given.");
+    warn(
+      "head_dim_not_integer",
+      `head_dim is ${given}, which is not a whole number of dimensions per head.`,
+      "Enter the head_dim the model was trained with (from the model card or its modelling code); the profile cannot be saved until it is given.",
+    );
     return undefined;
   }
   if (isPositiveInt(ratio)) return ratio;
-  warn("head_dim_not_integer",
+  warn(
+    "head_dim_not_integer",
     `The config has no head_dim, and hidden_size / num_attention_heads = ${hidden} / ${heads} = ${show(ratio)} is not a whole number; loaders that derive it take ${Math.floor(ratio)} or refuse the config.`,
-    "Enter head_dim from the model card or its modelling code; the profile cannot be saved until it is given.");
+    "Enter head_dim from the model card or its modelling code; the profile cannot be saved until it is given.",
+  );
   return undefined;
 }
 
@@ -55,7 +64,13 @@ export function readHeadDim(hidden: number, heads: number, given: number | undef
 export function checkKvHeads(heads: number, kvHeads: number, warn: Warn) {
   if (!isPositiveInt(heads) || !isPositiveInt(kvHeads)) return;
   if (kvHeads <= heads && heads % kvHeads === 0) return;
-  const why = kvHeads > heads ? `there are more key/value heads (${kvHeads}) than query heads (${heads})` : `${heads} query heads do not split into ${kvHeads} equal groups`;
-  warn("kv_heads_not_divisor", `num_key_value_heads is ${kvHeads} but ${why}; every key/value head must serve the same number of query heads.`,
-    `Check num_key_value_heads on the model card: with ${heads} query heads it is one of ${listWords(divisorsOf(heads))}. The profile cannot be saved until it divides the query heads.`);
+  const why =
+    kvHeads > heads
+      ? `there are more key/value heads (${kvHeads}) than query heads (${heads})`
+      : `${heads} query heads do not split into ${kvHeads} equal groups`;
+  warn(
+    "kv_heads_not_divisor",
+    `num_key_value_heads is ${kvHeads} but ${why}; every key/value head must serve the same number of query heads.`,
+    `Check num_key_value_heads on the model card: with ${heads} query heads it is one of ${listWords(divisorsOf(heads))}. The profile cannot be saved until it divides the query heads.`,
+  );
 }

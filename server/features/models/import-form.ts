@@ -6,7 +6,11 @@ import { parseOr400 } from "../../platform/validate";
 /** The text fields beside the uploaded file (multipart form or query string). */
 export const importFlagsSchema = z.object({
   save: z.enum(["true", "false"]).optional(),
-  overrides: z.string().max(64_000).optional().describe("JSON object of profile fields applied on top of the parsed config"),
+  overrides: z
+    .string()
+    .max(64_000)
+    .optional()
+    .describe("JSON object of profile fields applied on top of the parsed config"),
 });
 
 /** The multipart request as documented: the file plus the flags. */

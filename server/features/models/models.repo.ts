@@ -19,7 +19,11 @@ export async function insertModelRow(ex: Executor, v: ModelInsert) {
 }
 
 export async function updateModelRow(ex: Executor, id: number, v: Partial<ModelInsert>) {
-  const [row] = await ex.update(modelProfiles).set({ ...v, updatedAt: new Date() }).where(eq(modelProfiles.id, id)).returning();
+  const [row] = await ex
+    .update(modelProfiles)
+    .set({ ...v, updatedAt: new Date() })
+    .where(eq(modelProfiles.id, id))
+    .returning();
   return row;
 }
 

@@ -2,7 +2,11 @@ import multer from "multer";
 import { Invalid } from "../../platform/errors";
 import { route, type ApiFeature } from "../../http/route";
 import { idParamSchema, importResponseSchema, modelProfileInputSchema } from "../../../shared/schemas";
-import { modelResponseSchema, modelRetiredResponseSchema, modelsListResponseSchema } from "../../../shared/schemas/model-responses";
+import {
+  modelResponseSchema,
+  modelRetiredResponseSchema,
+  modelsListResponseSchema,
+} from "../../../shared/schemas/model-responses";
 import { importFormSchema, readImportForm } from "./import-form";
 import * as service from "./models.service";
 
@@ -29,15 +33,24 @@ export const modelsFeature = (usage: service.ModelUsage): ApiFeature => ({
   tag: "models",
   routes: [
     route({
-      method: "get", path: "/", summary: "List model profiles", access: "signed-in",
+      method: "get",
+      path: "/",
+      summary: "List model profiles",
+      access: "signed-in",
       responses: { 200: modelsListResponseSchema },
       handler: async ({ deps }) => ({ status: 200, body: { models: await service.listModels(deps) } }),
     }),
     route({
-      method: "post", path: "/import", summary: "Parse (and optionally save) a config.json upload (multipart field 'file')", access: editors,
+      method: "post",
+      path: "/import",
+      summary: "Parse (and optionally save) a config.json upload (multipart field 'file')",
+      access: editors,
       form: { contentType: "multipart/form-data", schema: importFormSchema },
       middleware: () => [upload.single("file")],
-      responses: { 200: importResponseSchema.describe("Preview, nothing saved"), 201: importResponseSchema.describe("Saved as a new profile") },
+      responses: {
+        200: importResponseSchema.describe("Preview, nothing saved"),
+        201: importResponseSchema.describe("Saved as a new profile"),
+      },
       handler: async ({ deps, req, user }) => {
         const form = readImportForm({ ...req.body, ...req.query });
         const result = await service.importConfig(deps, user, req.file, form.save, form.overrides);
@@ -45,12 +58,20 @@ export const modelsFeature = (usage: service.ModelUsage): ApiFeature => ({
       },
     }),
     route({
-      method: "get", path: "/:id", summary: "One model profile", access: "signed-in", params: idParamSchema,
+      method: "get",
+      path: "/:id",
+      summary: "One model profile",
+      access: "signed-in",
+      params: idParamSchema,
       responses: { 200: modelResponseSchema },
       handler: async ({ deps, params }) => ({ status: 200, body: { model: await service.getModel(deps, params.id) } }),
     }),
     route({
-      method: "get", path: "/:id/source", summary: "The uploaded config.json", access: "signed-in", params: idParamSchema,
+      method: "get",
+      path: "/:id/source",
+      summary: "The uploaded config.json",
+      access: "signed-in",
+      params: idParamSchema,
       responses: { 200: { contentType: "application/json", description: "The file as uploaded (attachment)" } },
       handler: async ({ deps, res, params }) => {
         const src = await service.getModelSource(deps, params.id);
@@ -59,19 +80,40 @@ export const modelsFeature = (usage: service.ModelUsage): ApiFeature => ({
       },
     }),
     route({
-      method: "post", path: "/", summary: "Create a model profile", access: editors, body: modelProfileInputSchema,
+      method: "post",
+      path: "/",
+      summary: "Create a model profile",
+      access: editors,
+      body: modelProfileInputSchema,
       responses: { 201: modelResponseSchema },
-      handler: async ({ deps, user, body }) => ({ status: 201, body: { model: await service.createModel(deps, user, body) } }),
+      handler: async ({ deps, user, body }) => ({
+        status: 201,
+        body: { model: await service.createModel(deps, user, body) },
+      }),
     }),
     route({
-      method: "put", path: "/:id", summary: "Replace a model profile", access: editors, params: idParamSchema, body: modelProfileInputSchema,
+      method: "put",
+      path: "/:id",
+      summary: "Replace a model profile",
+      access: editors,
+      params: idParamSchema,
+      body: modelProfileInputSchema,
       responses: { 200: modelResponseSchema },
-      handler: async ({ deps, user, params, body }) => ({ status: 200, body: { model: await service.updateModel(deps, user, params.id, body) } }),
+      handler: async ({ deps, user, params, body }) => ({
+        status: 200,
+        body: { model: await service.updateModel(deps, user, params.id, body) },
+      }),
     }),
     route({
-      method: "delete", path: "/:id", summary: "Delete a profile no plan uses (204); one that plans use is retired instead (200)",
-      access: editors, params: idParamSchema,
-      responses: { 204: { contentType: null, description: "Deleted" }, 200: modelRetiredResponseSchema.describe("Retired instead, with the plans that use it") },
+      method: "delete",
+      path: "/:id",
+      summary: "Delete a profile no plan uses (204); one that plans use is retired instead (200)",
+      access: editors,
+      params: idParamSchema,
+      responses: {
+        204: { contentType: null, description: "Deleted" },
+        200: modelRetiredResponseSchema.describe("Retired instead, with the plans that use it"),
+      },
       handler: async ({ deps, user, params }) => {
         const out = await service.deleteModel(deps, usage, user, params.id);
         if (out.deleted) return { status: 204, raw: null };
@@ -79,14 +121,28 @@ export const modelsFeature = (usage: service.ModelUsage): ApiFeature => ({
       },
     }),
     route({
-      method: "post", path: "/:id/retire", summary: "Hide a profile from pickers; plans on it keep working", access: editors, params: idParamSchema,
+      method: "post",
+      path: "/:id/retire",
+      summary: "Hide a profile from pickers; plans on it keep working",
+      access: editors,
+      params: idParamSchema,
       responses: { 200: modelResponseSchema },
-      handler: async ({ deps, user, params }) => ({ status: 200, body: { model: await service.retireModel(deps, usage, user, params.id) } }),
+      handler: async ({ deps, user, params }) => ({
+        status: 200,
+        body: { model: await service.retireModel(deps, usage, user, params.id) },
+      }),
     }),
     route({
-      method: "post", path: "/:id/restore", summary: "Offer a retired profile again", access: editors, params: idParamSchema,
+      method: "post",
+      path: "/:id/restore",
+      summary: "Offer a retired profile again",
+      access: editors,
+      params: idParamSchema,
       responses: { 200: modelResponseSchema },
-      handler: async ({ deps, user, params }) => ({ status: 200, body: { model: await service.restoreModel(deps, user, params.id) } }),
+      handler: async ({ deps, user, params }) => ({
+        status: 200,
+        body: { model: await service.restoreModel(deps, user, params.id) },
+      }),
     }),
   ],
 });

@@ -5,8 +5,13 @@ import { parseOr400 } from "../../platform/validate";
 import { findHostile, MAX_JSON_DEPTH } from "../../platform/hostile";
 import { recordAudit } from "../../platform/audit";
 import {
-  modelProfileInputSchema, rotaryDimOf,
-  type ImportWarning, type ModelProfile, type ModelProfileInput, type ModelProfileValues, type SessionUser,
+  modelProfileInputSchema,
+  rotaryDimOf,
+  type ImportWarning,
+  type ModelProfile,
+  type ModelProfileInput,
+  type ModelProfileValues,
+  type SessionUser,
 } from "../../../shared/schemas";
 import { ConfigImportError, parseModelConfig } from "./config-import";
 import * as repo from "./models.repo";
@@ -64,16 +69,28 @@ export async function getModelSource(deps: AppDeps, id: number) {
 }
 
 export async function createModel(
-  deps: AppDeps, actor: SessionUser, input: ModelProfileValues,
+  deps: AppDeps,
+  actor: SessionUser,
+  input: ModelProfileValues,
   source?: { fileName: string; text: string; warnings: ImportWarning[] },
 ) {
   try {
     return await deps.db.transaction(async (tx) => {
       const row = await repo.insertModelRow(tx, {
-        ...input, currentScaling: input.currentScaling ?? null, createdBy: actor.id,
-        sourceFileName: source?.fileName ?? null, sourceConfig: source?.text ?? null, importWarnings: source?.warnings ?? [],
+        ...input,
+        currentScaling: input.currentScaling ?? null,
+        createdBy: actor.id,
+        sourceFileName: source?.fileName ?? null,
+        sourceConfig: source?.text ?? null,
+        importWarnings: source?.warnings ?? [],
       });
-      await recordAudit(tx, { actorId: actor.id, action: source ? "model.imported" : "model.created", subjectType: "model", subjectId: row.id, detail: { name: row.name } });
+      await recordAudit(tx, {
+        actorId: actor.id,
+        action: source ? "model.imported" : "model.created",
+        subjectType: "model",
+        subjectId: row.id,
+        detail: { name: row.name },
+      });
       return toModelProfile(row);
     });
   } catch (e) {
@@ -87,7 +104,13 @@ export async function updateModel(deps: AppDeps, actor: SessionUser, id: number,
   try {
     return await deps.db.transaction(async (tx) => {
       const row = await repo.updateModelRow(tx, id, { ...input, currentScaling: input.currentScaling ?? null });
-      await recordAudit(tx, { actorId: actor.id, action: "model.updated", subjectType: "model", subjectId: id, detail: { name: row.name } });
+      await recordAudit(tx, {
+        actorId: actor.id,
+        action: "model.updated",
+        subjectType: "model",
+        subjectId: id,
+        detail: { name: row.name },
+      });
       return toModelProfile(row);
     });
   } catch (e) {
@@ -96,10 +119,19 @@ export async function updateModel(deps: AppDeps, actor: SessionUser, id: number,
   }
 }
 
-async function setRetired(tx: Executor, actor: SessionUser, id: number, retired: boolean, usedBy: { id: number }[] = []) {
+async function setRetired(
+  tx: Executor,
+  actor: SessionUser,
+  id: number,
+  retired: boolean,
+  usedBy: { id: number }[] = [],
+) {
   const row = await repo.updateModelRow(tx, id, { retiredAt: retired ? new Date() : null });
   await recordAudit(tx, {
-    actorId: actor.id, action: retired ? "model.retired" : "model.restored", subjectType: "model", subjectId: id,
+    actorId: actor.id,
+    action: retired ? "model.retired" : "model.restored",
+    subjectType: "model",
+    subjectId: id,
     detail: { name: row.name, ...(retired ? { usedBy: usedBy.map((p) => p.id) } : {}) },
   });
   return toModelProfile(row);
@@ -123,7 +155,13 @@ export async function deleteModel(deps: AppDeps, usage: repo.ModelUsage, actor: 
       return { deleted: false as const, model, usedBy };
     }
     await repo.deleteModelRow(tx, id);
-    await recordAudit(tx, { actorId: actor.id, action: "model.deleted", subjectType: "model", subjectId: id, detail: { name: row.name } });
+    await recordAudit(tx, {
+      actorId: actor.id,
+      action: "model.deleted",
+      subjectType: "model",
+      subjectId: id,
+      detail: { name: row.name },
+    });
     return { deleted: true as const };
   });
 }
@@ -146,8 +184,11 @@ export async function restoreModel(deps: AppDeps, actor: SessionUser, id: number
 
 /** Parses an uploaded config; saves it (with the file) only when asked, applying the user's edits on top. */
 export async function importConfig(
-  deps: AppDeps, actor: SessionUser,
-  file: { originalname: string; buffer: Buffer } | undefined, save: boolean, overrides: Partial<ModelProfileInput>,
+  deps: AppDeps,
+  actor: SessionUser,
+  file: { originalname: string; buffer: Buffer } | undefined,
+  save: boolean,
+  overrides: Partial<ModelProfileInput>,
 ) {
   if (!file) throw new Invalid("attach a config.json as the multipart field 'file'", { file: "missing" });
   const text = file.buffer.toString("utf8");
@@ -161,6 +202,10 @@ export async function importConfig(
   const profile = { ...parsed.profile, ...overrides };
   if (!save) return { profile, warnings: parsed.warnings, saved: null };
   const values = parseOr400(modelProfileInputSchema, profile, "profile");
-  const saved = await createModel(deps, actor, values, { fileName: file.originalname, text, warnings: parsed.warnings });
+  const saved = await createModel(deps, actor, values, {
+    fileName: file.originalname,
+    text,
+    warnings: parsed.warnings,
+  });
   return { profile, warnings: parsed.warnings, saved };
 }

@@ -9,14 +9,22 @@ import type { RevisionValues } from "../../../shared/schemas";
 import type { ModelSnapshot } from "./revision-content";
 
 export type BudgetPart =
-  | { inputs: NonNullable<RevisionValues["budget"]>; cluster: { name: string | null; peakFlops: number; memoryBytes: number; pricePerHour: number }; estimate: Omit<Awaited<ReturnType<typeof resolveAndEstimate>>, "resolved"> }
+  | {
+      inputs: NonNullable<RevisionValues["budget"]>;
+      cluster: { name: string | null; peakFlops: number; memoryBytes: number; pricePerHour: number };
+      estimate: Omit<Awaited<ReturnType<typeof resolveAndEstimate>>, "resolved">;
+    }
   | { inputs: NonNullable<RevisionValues["budget"]>; skipped: string };
 
 /**
  * The budget figures of a revision: the plan's stages on the chosen cluster, with the catalog's numbers copied in,
  * so a later price change in the catalog never alters a submitted revision.
  */
-export async function budgetPart(ex: Executor, model: ModelSnapshot, v: RevisionValues): Promise<BudgetPart | undefined> {
+export async function budgetPart(
+  ex: Executor,
+  model: ModelSnapshot,
+  v: RevisionValues,
+): Promise<BudgetPart | undefined> {
   if (!v.budget) return undefined;
   if (!v.stages.length) return { inputs: v.budget, skipped: "the plan has no stages to cost" };
   const request = {
@@ -32,7 +40,9 @@ export async function budgetPart(ex: Executor, model: ModelSnapshot, v: Revision
   } catch (e) {
     // Name the plan's fields: budget.cluster.acceleratorId, budget.sequenceSharding, stages.N.…
     if (e instanceof Invalid) {
-      const fields = Object.fromEntries(Object.entries(e.fields ?? {}).map(([k, m]) => [k.startsWith("stages.") ? k : `budget.${k}`, m]));
+      const fields = Object.fromEntries(
+        Object.entries(e.fields ?? {}).map(([k, m]) => [k.startsWith("stages.") ? k : `budget.${k}`, m]),
+      );
       throw new Invalid(`the budget sheet is not valid: ${Object.keys(fields).join(", ")}`, fields);
     }
     throw e;
@@ -51,13 +61,22 @@ const catalogId = (inputs: RevisionValues["budget"] | undefined) => {
  * already names one still saves, so its author can edit anything while deciding which accelerator to pick instead.
  * `kept` is the accelerator the draft carried before this change.
  */
-export async function refuseRetiredAccelerator(ex: Executor, inputs: RevisionValues["budget"] | undefined, when: "choose" | "submit", kept?: number) {
+export async function refuseRetiredAccelerator(
+  ex: Executor,
+  inputs: RevisionValues["budget"] | undefined,
+  when: "choose" | "submit",
+  kept?: number,
+) {
   const id = catalogId(inputs);
   if (id === undefined || (when === "choose" && id === kept)) return;
   const a = await findAccelerator(ex, id);
   if (!a?.retiredAt) return;
   const fields = { "budget.cluster.acceleratorId": `${a.name} is retired; pick another accelerator` };
-  if (when === "submit") throw new Conflict(`the budget is costed on ${a.name}, which is retired from the catalog; pick another accelerator before submitting`, fields);
+  if (when === "submit")
+    throw new Conflict(
+      `the budget is costed on ${a.name}, which is retired from the catalog; pick another accelerator before submitting`,
+      fields,
+    );
   throw new Invalid(`${a.name} is retired from the catalog; pick another accelerator`, fields);
 }
 export const keptAcceleratorOf = catalogId;

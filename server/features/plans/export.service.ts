@@ -22,16 +22,34 @@ export async function verifyRevision(deps: AppDeps, planId: number, n: number) {
   const rev = await mustRevision(deps.db, planId, n);
   const c = await check(deps, planId, rev);
   return {
-    number: n, ok: c.ok, storedHash: rev.contentHash, computedHash: c.computedHash, engineVersion: rev.engineVersion,
-    hashIntact: c.hashIntact, keyId: c.keyId, problems: c.problems,
+    number: n,
+    ok: c.ok,
+    storedHash: rev.contentHash,
+    computedHash: c.computedHash,
+    engineVersion: rev.engineVersion,
+    hashIntact: c.hashIntact,
+    keyId: c.keyId,
+    problems: c.problems,
     decisions: c.decisions.map((d) => ({
-      approver: d.approver, decision: d.decision, round: d.round, signedHash: d.signedHash, at: d.at, keyId: d.keyId, signatureStatus: d.signatureStatus,
+      approver: d.approver,
+      decision: d.decision,
+      round: d.round,
+      signedHash: d.signedHash,
+      at: d.at,
+      keyId: d.keyId,
+      signatureStatus: d.signatureStatus,
     })),
   };
 }
 
 /** The signed configuration patch; refused (409) when any integrity check fails. */
-export async function exportRevision(deps: AppDeps, actor: SessionUser, planId: number, n: number | "approved", via: "session" | "token") {
+export async function exportRevision(
+  deps: AppDeps,
+  actor: SessionUser,
+  planId: number,
+  n: number | "approved",
+  via: "session" | "token",
+) {
   const plan = await mustPlan(deps.db, planId);
   let number: number;
   if (n === "approved") {
@@ -45,18 +63,31 @@ export async function exportRevision(deps: AppDeps, actor: SessionUser, planId: 
   }
   const c = await check(deps, planId, rev);
   if (!c.ok) {
-    throw new Conflict(`revision ${number} fails its integrity check (${c.problems.join("; ")}); export refused`, c.hashIntact ? { signatures: "do not hold" } : { contentHash: "mismatch" });
+    throw new Conflict(
+      `revision ${number} fails its integrity check (${c.problems.join("; ")}); export refused`,
+      c.hashIntact ? { signatures: "do not hold" } : { contentHash: "mismatch" },
+    );
   }
   const content = rev.content as RevisionContent;
   const decisions = c.decisions.filter((d) => d.decision === "approve" && d.round === rev.round);
-  await recordAudit(deps.db, { actorId: actor.id, action: "revision.exported", subjectType: "plan", subjectId: planId, detail: { revision: number, via, hash: rev.contentHash } });
+  await recordAudit(deps.db, {
+    actorId: actor.id,
+    action: "revision.exported",
+    subjectType: "plan",
+    subjectId: planId,
+    detail: { revision: number, via, hash: rev.contentHash },
+  });
   return {
     plan: { id: plan.id, title: plan.title },
     revision: number,
     state: rev.state,
     contentHash: rev.contentHash,
     engineVersion: rev.engineVersion,
-    model: { name: content.model.name, trainedContext: content.model.trainedContext, ropeTheta: content.model.ropeTheta },
+    model: {
+      name: content.model.name,
+      trainedContext: content.model.trainedContext,
+      ropeTheta: content.model.ropeTheta,
+    },
     targetContext: content.targetContext,
     method: content.method,
     config: content.results.final.patch,
@@ -64,7 +95,13 @@ export async function exportRevision(deps: AppDeps, actor: SessionUser, planId: 
     keyId: c.keyId,
     // Each signature covers the RFC 8785 canonical JSON of its payload; README "Verifying an export offline".
     signedBy: decisions.map((d) => ({
-      name: d.approver.name, email: d.approver.email, signedHash: d.signedHash, at: d.at, keyId: d.keyId!, signature: d.signature!, payload: d.payload,
+      name: d.approver.name,
+      email: d.approver.email,
+      signedHash: d.signedHash,
+      at: d.at,
+      keyId: d.keyId!,
+      signature: d.signature!,
+      payload: d.payload,
     })),
     caution: EXPORT_CAUTION,
   };

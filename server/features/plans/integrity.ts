@@ -18,7 +18,13 @@ export interface CheckedDecision {
 }
 
 export const decisionPayload = (planId: number, revision: number, d: DecisionJoin["d"]): DecisionPayload => ({
-  planId, revision, contentHash: d.signedHash, approverId: d.approverId, decision: d.decision, round: d.round, time: d.at.toISOString(),
+  planId,
+  revision,
+  contentHash: d.signedHash,
+  approverId: d.approverId,
+  decision: d.decision,
+  round: d.round,
+  time: d.at.toISOString(),
 });
 
 const short = (h: string) => `${h.slice(0, 12)}…`;
@@ -32,23 +38,40 @@ export function checkRevision(key: SigningKey, planId: number, rev: RevisionRow,
   const computedHash = hashContent(rev.content);
   const problems: string[] = [];
   const hashIntact = computedHash === rev.contentHash;
-  if (!hashIntact) problems.push(`the stored content hashes to ${short(computedHash)}, not to the recorded ${short(rev.contentHash)}`);
-  const checked: CheckedDecision[] = decisions.filter((x) => x.d.revisionId === rev.id).map(({ d, name, email }) => {
-    const payload = decisionPayload(planId, rev.number, d);
-    return {
-      approver: { id: d.approverId, name, email }, decision: d.decision, round: d.round, signedHash: d.signedHash, at: payload.time,
-      keyId: d.keyId, signature: d.signature, signatureStatus: signatureStatus(key, payload, d.signature, d.keyId), payload,
-    };
-  });
+  if (!hashIntact)
+    problems.push(`the stored content hashes to ${short(computedHash)}, not to the recorded ${short(rev.contentHash)}`);
+  const checked: CheckedDecision[] = decisions
+    .filter((x) => x.d.revisionId === rev.id)
+    .map(({ d, name, email }) => {
+      const payload = decisionPayload(planId, rev.number, d);
+      return {
+        approver: { id: d.approverId, name, email },
+        decision: d.decision,
+        round: d.round,
+        signedHash: d.signedHash,
+        at: payload.time,
+        keyId: d.keyId,
+        signature: d.signature,
+        signatureStatus: signatureStatus(key, payload, d.signature, d.keyId),
+        payload,
+      };
+    });
   for (const d of checked) {
     // A withdrawn draft keeps its round number while its content changes, so only submitted content must match.
     const binding = d.decision === "approve" && d.round === rev.round && rev.state !== "draft";
     if (binding && d.signedHash !== computedHash) {
-      problems.push(`${d.approver.name}'s approval signed ${short(d.signedHash)}, but the content hashes to ${short(computedHash)}`);
+      problems.push(
+        `${d.approver.name}'s approval signed ${short(d.signedHash)}, but the content hashes to ${short(computedHash)}`,
+      );
     }
-    if (d.signatureStatus === "invalid") problems.push(`${d.approver.name}'s decision (round ${d.round}) carries a signature that does not verify`);
-    if (d.signatureStatus === "missing") problems.push(`${d.approver.name}'s decision (round ${d.round}) has no server signature`);
-    if (d.signatureStatus === "unknown_key") problems.push(`${d.approver.name}'s decision (round ${d.round}) was signed by key ${short(d.keyId ?? "")}, not this server's key`);
+    if (d.signatureStatus === "invalid")
+      problems.push(`${d.approver.name}'s decision (round ${d.round}) carries a signature that does not verify`);
+    if (d.signatureStatus === "missing")
+      problems.push(`${d.approver.name}'s decision (round ${d.round}) has no server signature`);
+    if (d.signatureStatus === "unknown_key")
+      problems.push(
+        `${d.approver.name}'s decision (round ${d.round}) was signed by key ${short(d.keyId ?? "")}, not this server's key`,
+      );
   }
   return { ok: problems.length === 0, hashIntact, computedHash, problems, decisions: checked, keyId: key.keyId };
 }

@@ -5,7 +5,10 @@ import { recordAudit } from "../../platform/audit";
 import { findModelRow } from "../models";
 import {
   revisionInputSchema,
-  type CreatePlanRequest, type RevisionValues, type SessionUser, type planListQuerySchema,
+  type CreatePlanRequest,
+  type RevisionValues,
+  type SessionUser,
+  type planListQuerySchema,
 } from "../../../shared/schemas";
 import type { z } from "zod";
 import * as repo from "./plans.repo";
@@ -16,7 +19,11 @@ import { signatureStatus, signingKey } from "./signing";
 import { decisionPayload } from "./integrity";
 
 /** Engine results and budget figures for revision values; what gets hashed. */
-export async function makeContent(ex: Executor, model: ModelSnapshot, values: RevisionValues): Promise<RevisionContent> {
+export async function makeContent(
+  ex: Executor,
+  model: ModelSnapshot,
+  values: RevisionValues,
+): Promise<RevisionContent> {
   const content = buildContent(model, values);
   const budget = await budgetPart(ex, model, values);
   if (budget) content.budget = budget;
@@ -40,25 +47,53 @@ export async function mustRevision(ex: Executor, planId: number, n: number, lock
 }
 
 export const revisionValues = (c: RevisionContent): RevisionValues => ({
-  targetContext: c.targetContext, method: c.method, bands: c.bands, stages: c.stages, acceptance: c.acceptance, notes: c.notes,
+  targetContext: c.targetContext,
+  method: c.method,
+  bands: c.bands,
+  stages: c.stages,
+  acceptance: c.acceptance,
+  notes: c.notes,
   ...(c.budget ? { budget: (c.budget as { inputs: RevisionValues["budget"] }).inputs } : {}),
 });
 
-export async function createPlan(deps: AppDeps, actor: SessionUser, input: z.output<typeof import("../../../shared/schemas").createPlanRequestSchema>) {
+export async function createPlan(
+  deps: AppDeps,
+  actor: SessionUser,
+  input: z.output<typeof import("../../../shared/schemas").createPlanRequestSchema>,
+) {
   const model = await findModelRow(deps.db, input.modelId);
   if (!model) throw new Invalid("no such model profile", { modelId: "not found" });
-  if (model.retiredAt) throw new Invalid(`${model.name} is retired; pick another model profile`, { modelId: "retired" });
+  if (model.retiredAt)
+    throw new Invalid(`${model.name} is retired; pick another model profile`, { modelId: "retired" });
   await refuseRetiredAccelerator(deps.db, input.revision.budget, "choose");
   const content = await makeContent(deps.db, snapshotOf(model), input.revision);
   return deps.db.transaction(async (tx) => {
     const min = await repo.minRequiredApprovals(tx);
     const required = input.requiredApprovals ?? min;
-    if (required < min) throw new Invalid(`the lab requires at least ${min} approvals`, { requiredApprovals: `at least ${min}` });
-    const plan = await repo.insertPlan(tx, { title: input.title, purpose: input.purpose, ownerId: actor.id, modelId: model.id, requiredApprovals: required });
-    const rev = await repo.insertRevision(tx, {
-      planId: plan.id, number: 1, authorId: actor.id, content, contentHash: hashContent(content), engineVersion: content.engineVersion,
+    if (required < min)
+      throw new Invalid(`the lab requires at least ${min} approvals`, { requiredApprovals: `at least ${min}` });
+    const plan = await repo.insertPlan(tx, {
+      title: input.title,
+      purpose: input.purpose,
+      ownerId: actor.id,
+      modelId: model.id,
+      requiredApprovals: required,
     });
-    await recordAudit(tx, { actorId: actor.id, action: "plan.created", subjectType: "plan", subjectId: plan.id, detail: { title: plan.title, revision: 1, hash: rev.contentHash } });
+    const rev = await repo.insertRevision(tx, {
+      planId: plan.id,
+      number: 1,
+      authorId: actor.id,
+      content,
+      contentHash: hashContent(content),
+      engineVersion: content.engineVersion,
+    });
+    await recordAudit(tx, {
+      actorId: actor.id,
+      action: "plan.created",
+      subjectType: "plan",
+      subjectId: plan.id,
+      detail: { title: plan.title, revision: 1, hash: rev.contentHash },
+    });
     return { id: plan.id, revision: rev.number };
   });
 }
@@ -79,22 +114,43 @@ export async function newRevision(deps: AppDeps, actor: SessionUser, planId: num
     // The new draft takes the latest content and the profile as it is now.
     const content = await makeContent(tx, snapshotOf(model), revisionValues(latest.content as RevisionContent));
     const rev = await repo.insertRevision(tx, {
-      planId, number: latest.number + 1, authorId: actor.id, content, contentHash: hashContent(content), engineVersion: content.engineVersion,
+      planId,
+      number: latest.number + 1,
+      authorId: actor.id,
+      content,
+      contentHash: hashContent(content),
+      engineVersion: content.engineVersion,
     });
     await repo.touchPlan(tx, planId);
-    await recordAudit(tx, { actorId: actor.id, action: "revision.created", subjectType: "plan", subjectId: planId, detail: { revision: rev.number, from: latest.number } });
+    await recordAudit(tx, {
+      actorId: actor.id,
+      action: "revision.created",
+      subjectType: "plan",
+      subjectId: planId,
+      detail: { revision: rev.number, from: latest.number },
+    });
     return { number: rev.number, version: rev.version };
   });
 }
 
 /** Edits a draft with optimistic concurrency: a stale version changes nothing. */
-export async function updateDraft(deps: AppDeps, actor: SessionUser, planId: number, n: number, input: z.output<typeof import("../../../shared/schemas").updateRevisionRequestSchema>) {
+export async function updateDraft(
+  deps: AppDeps,
+  actor: SessionUser,
+  planId: number,
+  n: number,
+  input: z.output<typeof import("../../../shared/schemas").updateRevisionRequestSchema>,
+) {
   return deps.db.transaction(async (tx) => {
     const rev = await mustRevision(tx, planId, n, true);
     if (rev.authorId !== actor.id) throw new Forbidden("only the revision's author edits a draft");
-    if (rev.state !== "draft") throw new Conflict(`revision ${n} is ${rev.state}; only drafts change`, { state: rev.state });
+    if (rev.state !== "draft")
+      throw new Conflict(`revision ${n} is ${rev.state}; only drafts change`, { state: rev.state });
     if (rev.version !== input.version) {
-      throw new Conflict(`revision ${n} changed since you read it (version ${rev.version}, yours ${input.version}); reload`, { version: `current is ${rev.version}` });
+      throw new Conflict(
+        `revision ${n} changed since you read it (version ${rev.version}, yours ${input.version}); reload`,
+        { version: `current is ${rev.version}` },
+      );
     }
     const old = rev.content as RevisionContent;
     const { version: _v, ...changes } = input;
@@ -103,9 +159,20 @@ export async function updateDraft(deps: AppDeps, actor: SessionUser, planId: num
     const values = revisionInputSchema.parse(merged);
     await refuseRetiredAccelerator(tx, values.budget, "choose", keptAcceleratorOf(old.budget?.inputs));
     const content = await makeContent(tx, old.model, values);
-    const row = await repo.updateRevision(tx, rev.id, { content, contentHash: hashContent(content), engineVersion: content.engineVersion, version: rev.version + 1 });
+    const row = await repo.updateRevision(tx, rev.id, {
+      content,
+      contentHash: hashContent(content),
+      engineVersion: content.engineVersion,
+      version: rev.version + 1,
+    });
     await repo.touchPlan(tx, planId);
-    await recordAudit(tx, { actorId: actor.id, action: "revision.edited", subjectType: "plan", subjectId: planId, detail: { revision: n, version: row.version, fields: Object.keys(changes) } });
+    await recordAudit(tx, {
+      actorId: actor.id,
+      action: "revision.edited",
+      subjectType: "plan",
+      subjectId: planId,
+      detail: { revision: n, version: row.version, fields: Object.keys(changes) },
+    });
     return { number: n, version: row.version, contentHash: row.contentHash };
   });
 }
@@ -114,7 +181,13 @@ export async function updatePlanSettings(deps: AppDeps, actor: SessionUser, min:
   await deps.db.transaction(async (tx) => {
     const before = await repo.minRequiredApprovals(tx);
     await repo.setMinRequiredApprovals(tx, min, actor.id);
-    await recordAudit(tx, { actorId: actor.id, action: "settings.changed", subjectType: "settings", subjectId: "minRequiredApprovals", detail: { from: before, to: min } });
+    await recordAudit(tx, {
+      actorId: actor.id,
+      action: "settings.changed",
+      subjectType: "settings",
+      subjectId: "minRequiredApprovals",
+      detail: { from: before, to: min },
+    });
   });
   return { minRequiredApprovals: min };
 }
@@ -126,15 +199,27 @@ export async function listPlans(deps: AppDeps, q: z.output<typeof planListQueryS
     page: q.page,
     pageSize: q.pageSize,
     plans: rows.map((r) => ({
-      id: r.id, title: r.title, purpose: r.purpose, owner: { id: r.owner_id, name: r.owner_name }, model: { id: r.model_id, name: r.model_name },
-      requiredApprovals: r.required_approvals, state: r.latest_state, latestRevision: r.latest_number, approvedRevision: r.approved_number,
-      createdAt: new Date(r.created_at).toISOString(), updatedAt: new Date(r.updated_at).toISOString(),
+      id: r.id,
+      title: r.title,
+      purpose: r.purpose,
+      owner: { id: r.owner_id, name: r.owner_name },
+      model: { id: r.model_id, name: r.model_name },
+      requiredApprovals: r.required_approvals,
+      state: r.latest_state,
+      latestRevision: r.latest_number,
+      approvedRevision: r.approved_number,
+      createdAt: new Date(r.created_at).toISOString(),
+      updatedAt: new Date(r.updated_at).toISOString(),
     })),
   };
 }
 
 /** Creates the plan and answers it as GET /api/plans/:id would. */
-export async function createPlanDetail(deps: AppDeps, actor: SessionUser, input: z.output<typeof import("../../../shared/schemas").createPlanRequestSchema>) {
+export async function createPlanDetail(
+  deps: AppDeps,
+  actor: SessionUser,
+  input: z.output<typeof import("../../../shared/schemas").createPlanRequestSchema>,
+) {
   const created = await createPlan(deps, actor, input);
   return getPlan(deps, created.id);
 }
@@ -142,30 +227,56 @@ export async function createPlanDetail(deps: AppDeps, actor: SessionUser, input:
 export async function getPlan(deps: AppDeps, id: number) {
   const plan = await mustPlan(deps.db, id);
   const [owner, model, revs, required] = await Promise.all([
-    repo.userRef(deps.db, plan.ownerId), findModelRow(deps.db, plan.modelId), repo.revisionsOf(deps.db, id), effectiveApprovals(deps.db, plan),
+    repo.userRef(deps.db, plan.ownerId),
+    findModelRow(deps.db, plan.modelId),
+    repo.revisionsOf(deps.db, id),
+    effectiveApprovals(deps.db, plan),
   ]);
-  const decisions = await repo.decisionsOf(deps.db, revs.map((r) => r.id));
+  const decisions = await repo.decisionsOf(
+    deps.db,
+    revs.map((r) => r.id),
+  );
   const authorIds = [...new Set(revs.map((r) => r.authorId))];
   const authors = new Map(await Promise.all(authorIds.map(async (a) => [a, await repo.userRef(deps.db, a)] as const)));
   const key = signingKey(deps.config.signingKeyFile);
   const latest = revs[revs.length - 1];
   const approved = [...revs].reverse().find((r) => r.state === "approved");
   return {
-    id: plan.id, title: plan.title, purpose: plan.purpose, owner, model: model ? { id: model.id, name: model.name } : null,
-    requiredApprovals: plan.requiredApprovals, effectiveRequiredApprovals: required,
-    state: latest.state, latestRevision: latest.number, approvedRevision: approved?.number ?? null,
-    createdAt: plan.createdAt.toISOString(), updatedAt: plan.updatedAt.toISOString(),
+    id: plan.id,
+    title: plan.title,
+    purpose: plan.purpose,
+    owner,
+    model: model ? { id: model.id, name: model.name } : null,
+    requiredApprovals: plan.requiredApprovals,
+    effectiveRequiredApprovals: required,
+    state: latest.state,
+    latestRevision: latest.number,
+    approvedRevision: approved?.number ?? null,
+    createdAt: plan.createdAt.toISOString(),
+    updatedAt: plan.updatedAt.toISOString(),
     revisions: revs.map((r) => {
       const mine = decisions.filter((d) => d.d.revisionId === r.id);
       return {
-        number: r.number, state: r.state, version: r.version, round: r.round, contentHash: r.contentHash, engineVersion: r.engineVersion,
-        author: authors.get(r.authorId), createdAt: r.createdAt.toISOString(), submittedAt: r.submittedAt?.toISOString() ?? null,
+        number: r.number,
+        state: r.state,
+        version: r.version,
+        round: r.round,
+        contentHash: r.contentHash,
+        engineVersion: r.engineVersion,
+        author: authors.get(r.authorId),
+        createdAt: r.createdAt.toISOString(),
+        submittedAt: r.submittedAt?.toISOString() ?? null,
         decidedAt: r.decidedAt?.toISOString() ?? null,
         approvals: mine.filter((d) => d.d.round === r.round && d.d.decision === "approve").length,
         decisions: mine.map((d) => ({
-          approver: { id: d.d.approverId, name: d.name, email: d.email }, decision: d.d.decision, comment: d.d.comment,
-          signedHash: d.d.signedHash, round: d.d.round, at: d.d.at.toISOString(),
-          keyId: d.d.keyId, signatureStatus: signatureStatus(key, decisionPayload(id, r.number, d.d), d.d.signature, d.d.keyId),
+          approver: { id: d.d.approverId, name: d.name, email: d.email },
+          decision: d.d.decision,
+          comment: d.d.comment,
+          signedHash: d.d.signedHash,
+          round: d.d.round,
+          at: d.d.at.toISOString(),
+          keyId: d.d.keyId,
+          signatureStatus: signatureStatus(key, decisionPayload(id, r.number, d.d), d.d.signature, d.d.keyId),
         })),
       };
     }),
@@ -176,8 +287,14 @@ export async function getRevision(deps: AppDeps, planId: number, n: number) {
   await mustPlan(deps.db, planId);
   const r = await mustRevision(deps.db, planId, n);
   return {
-    number: r.number, state: r.state, version: r.version, round: r.round, contentHash: r.contentHash, engineVersion: r.engineVersion,
-    authorId: r.authorId, content: r.content as RevisionContent,
+    number: r.number,
+    state: r.state,
+    version: r.version,
+    round: r.round,
+    contentHash: r.contentHash,
+    engineVersion: r.engineVersion,
+    authorId: r.authorId,
+    content: r.content as RevisionContent,
   };
 }
 

@@ -16,8 +16,14 @@ export async function listReviewQueue(deps: AppDeps, approverId: number): Promis
   const rows = await reviewQueue(deps.db, approverId);
   return {
     items: rows.map((q) => ({
-      planId: q.plan_id, title: q.title, revision: q.number, author: q.author_name, submittedAt: new Date(q.submitted_at).toISOString(),
-      contentHash: q.content_hash, approvals: q.approvals, requiredApprovals: q.required_approvals,
+      planId: q.plan_id,
+      title: q.title,
+      revision: q.number,
+      author: q.author_name,
+      submittedAt: new Date(q.submitted_at).toISOString(),
+      contentHash: q.content_hash,
+      approvals: q.approvals,
+      requiredApprovals: q.required_approvals,
     })),
   };
 }
@@ -25,5 +31,9 @@ export async function listReviewQueue(deps: AppDeps, approverId: number): Promis
 /** Field, stage, flag and budget differences between revisions a and b of one plan. */
 export async function diffRevisions(deps: AppDeps, planId: number, a: number, b: number): Promise<DiffResponse> {
   const [ra, rb] = await Promise.all([getRevision(deps, planId, a), getRevision(deps, planId, b)]);
-  return { a: { number: a, contentHash: ra.contentHash }, b: { number: b, contentHash: rb.contentHash }, ...diffContents(ra.content, rb.content) };
+  return {
+    a: { number: a, contentHash: ra.contentHash },
+    b: { number: b, contentHash: rb.contentHash },
+    ...diffContents(ra.content, rb.content),
+  };
 }

@@ -1,7 +1,9 @@
 import type { RevisionContent } from "./revision-content";
 
-const esc = (v: unknown) => String(v ?? "").replace(/[&<>"]/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;" })[c]!);
-const sci = (v: number) => (Math.abs(v) >= 1e6 ? v.toExponential(3) : v.toLocaleString("en-US", { maximumFractionDigits: 2 }));
+const esc = (v: unknown) =>
+  String(v ?? "").replace(/[&<>"]/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;" })[c]!);
+const sci = (v: number) =>
+  Math.abs(v) >= 1e6 ? v.toExponential(3) : v.toLocaleString("en-US", { maximumFractionDigits: 2 });
 const gib = (b: number) => `${(b / 2 ** 30).toFixed(2)} GiB`;
 
 /** The budget section of the printable report, with its assumptions beside the figures. */
@@ -10,9 +12,16 @@ export function budgetSection(c: RevisionContent) {
   if (!b) return "";
   if ("skipped" in b) return `<h2>Budget</h2><p>${esc(b.skipped)}.</p>`;
   const e = b.estimate;
-  const rows = e.stages.map((s, i) => `<tr><td>${i + 1}</td><td>${sci(s.tokens)}</td><td>${sci(s.flopsPerToken)}</td><td>${sci(s.acceleratorHours)}</td>
+  const rows = e.stages
+    .map(
+      (
+        s,
+        i,
+      ) => `<tr><td>${i + 1}</td><td>${sci(s.tokens)}</td><td>${sci(s.flopsPerToken)}</td><td>${sci(s.acceleratorHours)}</td>
 <td>${sci(s.wallClockHours)}</td><td>${sci(s.cost)}</td><td>${gib(s.kvCacheBytesPerSequence)}</td><td>${gib(s.trainingMemoryPerAccelerator)}</td>
-<td>${s.fits ? "fits" : `<span class="bad">does not fit${s.minSequenceSharding ? `; shard sequences ×${s.minSequenceSharding}` : ""}</span>`}</td></tr>`).join("");
+<td>${s.fits ? "fits" : `<span class="bad">does not fit${s.minSequenceSharding ? `; shard sequences ×${s.minSequenceSharding}` : ""}</span>`}</td></tr>`,
+    )
+    .join("");
   const a = e.assumptions;
   return `<h2>Budget</h2>
 <p>Cluster: ${b.inputs.accelerators} × ${esc(b.cluster.name ?? "custom accelerator")} (peak ${sci(b.cluster.peakFlops)} FLOP/s, ${gib(b.cluster.memoryBytes)}, ${b.cluster.pricePerHour} per hour, copied from the catalog at submission).</p>

@@ -2,19 +2,29 @@ import type { RevisionContent } from "./revision-content";
 import { findMethod } from "../../../shared/methods";
 
 const esc = (v: unknown) =>
-  String(v ?? "").replace(/[&<>"']/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[c]!);
+  String(v ?? "").replace(
+    /[&<>"']/g,
+    (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" })[c]!,
+  );
 const n = (v: number) => (Number.isInteger(v) ? v.toLocaleString("en-US") : v.toPrecision(6));
 
 /** Scaled wavelength per pair on a log axis, trained and target lengths as lines; plain inline SVG so it prints. */
 function wavelengthChart(c: RevisionContent) {
-  const w = 640, h = 220, pad = 36;
+  const w = 640,
+    h = 220,
+    pad = 36;
   const waves = c.results.final.scaledWavelengths;
   const lo = Math.log10(Math.max(1, Math.min(...waves)));
   const hi = Math.log10(Math.max(c.targetContext, ...waves)) + 0.2;
   const y = (v: number) => h - pad - ((Math.log10(v) - lo) / (hi - lo)) * (h - 2 * pad);
   const x = (i: number) => pad + (i / Math.max(1, waves.length - 1)) * (w - 2 * pad);
   const colour: Record<string, string> = { spinning: "#2d7a74", turning: "#9a5b1f", drifting: "#5b4a8a" };
-  const dots = waves.map((v, i) => `<circle cx="${x(i).toFixed(1)}" cy="${y(v).toFixed(1)}" r="2.5" fill="${colour[c.results.final.bands[i]] ?? "#333"}"/>`).join("");
+  const dots = waves
+    .map(
+      (v, i) =>
+        `<circle cx="${x(i).toFixed(1)}" cy="${y(v).toFixed(1)}" r="2.5" fill="${colour[c.results.final.bands[i]] ?? "#333"}"/>`,
+    )
+    .join("");
   const line = (v: number, label: string, dash: string) =>
     `<line x1="${pad}" x2="${w - pad}" y1="${y(v)}" y2="${y(v)}" stroke="#b23a2e" stroke-dasharray="${dash}"/><text x="${w - pad}" y="${y(v) - 4}" text-anchor="end" font-size="10">${esc(label)} ${n(v)}</text>`;
   return `<svg width="${w}" height="${h}" role="img" aria-label="scaled wavelength per pair">
@@ -34,15 +44,38 @@ export interface ReportInput {
   budgetHtml?: string;
 }
 
-export function renderReport({ plan, revision, content: c, verified, problems = [], decisions, budgetHtml }: ReportInput) {
+export function renderReport({
+  plan,
+  revision,
+  content: c,
+  verified,
+  problems = [],
+  decisions,
+  budgetHtml,
+}: ReportInput) {
   const row = (cells: unknown[]) => `<tr>${cells.map((v) => `<td>${esc(v)}</td>`).join("")}</tr>`;
   const head = (cells: string[]) => `<tr>${cells.map((v) => `<th>${esc(v)}</th>`).join("")}</tr>`;
-  const params = (p: object) => Object.entries(p).filter(([k]) => k !== "method").map(([k, v]) => `${k}=${Array.isArray(v) ? `[${v.length} values]` : v}`).join(", ");
-  const stageRows = c.stages.map((s, i) => {
-    const r = c.results.stages[i];
-    return row([i + 1, n(s.targetContext), `${findMethod(s.method.method)?.short ?? s.method.method} ${params(s.method)}`, n(s.steps), n(s.globalBatch), n(s.sequenceLength), s.learningRate, s.dataMix,
-      `${r?.summary.unseenAnglesPairs ?? "–"} / ${r?.summary.compressedResolutionPairs ?? "–"} / ${r?.summary.exceedsTrainedWindowPairs ?? "–"}`]);
-  }).join("");
+  const params = (p: object) =>
+    Object.entries(p)
+      .filter(([k]) => k !== "method")
+      .map(([k, v]) => `${k}=${Array.isArray(v) ? `[${v.length} values]` : v}`)
+      .join(", ");
+  const stageRows = c.stages
+    .map((s, i) => {
+      const r = c.results.stages[i];
+      return row([
+        i + 1,
+        n(s.targetContext),
+        `${findMethod(s.method.method)?.short ?? s.method.method} ${params(s.method)}`,
+        n(s.steps),
+        n(s.globalBatch),
+        n(s.sequenceLength),
+        s.learningRate,
+        s.dataMix,
+        `${r?.summary.unseenAnglesPairs ?? "–"} / ${r?.summary.compressedResolutionPairs ?? "–"} / ${r?.summary.exceedsTrainedWindowPairs ?? "–"}`,
+      ]);
+    })
+    .join("");
   const f = c.results.final;
   return `<!doctype html><html lang="en"><head><meta charset="utf-8"><title>${esc(plan.title)} — revision ${revision.number}</title>
 <style>

@@ -4,7 +4,10 @@ import { analyse, ENGINE_VERSION } from "../../engine";
 import { Invalid } from "../../platform/errors";
 import {
   modelDependentIssues,
-  type MethodParams, type RevisionValues, type StageResult, type Bands,
+  type MethodParams,
+  type RevisionValues,
+  type StageResult,
+  type Bands,
 } from "../../../shared/schemas";
 import type { ModelRow } from "../models";
 import type { ModelSnapshot, RevisionContent } from "../../../shared/schemas/plan-responses";
@@ -17,11 +20,21 @@ import { rotaryShapeOf } from "../../../shared/profile-shapes";
 export type { ModelSnapshot, RevisionContent };
 
 export const snapshotOf = (m: ModelRow): ModelSnapshot => ({
-  id: m.id, name: m.name, family: m.family, headDim: m.headDim, partialRotaryFactor: m.partialRotaryFactor, ropeTheta: m.ropeTheta,
-  trainedContext: m.trainedContext, layers: m.layers, attentionHeads: m.attentionHeads, kvHeads: m.kvHeads, hiddenSize: m.hiddenSize,
-  parameters: m.parameters, parametersTotal: m.parametersTotal, bytesPerElement: m.bytesPerElement,
+  id: m.id,
+  name: m.name,
+  family: m.family,
+  headDim: m.headDim,
+  partialRotaryFactor: m.partialRotaryFactor,
+  ropeTheta: m.ropeTheta,
+  trainedContext: m.trainedContext,
+  layers: m.layers,
+  attentionHeads: m.attentionHeads,
+  kvHeads: m.kvHeads,
+  hiddenSize: m.hiddenSize,
+  parameters: m.parameters,
+  parametersTotal: m.parametersTotal,
+  bytesPerElement: m.bytesPerElement,
 });
-
 
 /** Model-dependent rules for the plan target and every stage, reported on the field to fix. */
 export function checkAgainstModel(model: ModelSnapshot, v: RevisionValues) {
@@ -36,22 +49,29 @@ export function checkAgainstModel(model: ModelSnapshot, v: RevisionValues) {
   add("", v.targetContext, v.method);
   v.stages.forEach((s, i) => add(`stages.${i}`, s.targetContext, s.method));
   v.acceptance.forEach((a, i) => {
-    if (a.contextLength > v.targetContext) fields[`acceptance.${i}.contextLength`] = `beyond the plan's target (${v.targetContext})`;
+    if (a.contextLength > v.targetContext)
+      fields[`acceptance.${i}.contextLength`] = `beyond the plan's target (${v.targetContext})`;
   });
-  if (Object.keys(fields).length) throw new Invalid(`the revision does not fit the model: ${Object.keys(fields).join(", ")}`, fields);
+  if (Object.keys(fields).length)
+    throw new Invalid(`the revision does not fit the model: ${Object.keys(fields).join(", ")}`, fields);
 }
 
 function stageResult(model: ModelSnapshot, target: number, method: MethodParams, bands?: Bands) {
   const a = analyse({ model: rotaryShapeOf(model), targetContext: target, methods: [method], bands });
   const m = a.methods[0];
-  const idx = (f: "unseenAngles" | "compressedResolution" | "exceedsTrainedWindow") => m.pairs.filter((p) => p[f]).map((p) => p.index);
+  const idx = (f: "unseenAngles" | "compressedResolution" | "exceedsTrainedWindow") =>
+    m.pairs.filter((p) => p[f]).map((p) => p.index);
   const result: StageResult = {
     targetContext: target,
     method: m.method,
     params: m.params as Record<string, unknown>,
     attentionFactor: m.attentionFactor,
     summary: m.summary,
-    flags: { unseenAngles: idx("unseenAngles"), compressedResolution: idx("compressedResolution"), exceedsTrainedWindow: idx("exceedsTrainedWindow") },
+    flags: {
+      unseenAngles: idx("unseenAngles"),
+      compressedResolution: idx("compressedResolution"),
+      exceedsTrainedWindow: idx("exceedsTrainedWindow"),
+    },
     bands: m.pairs.map((p) => p.band),
     scaledWavelengths: m.pairs.map((p) => p.scaledWavelength),
     patch: m.ropeScaling,

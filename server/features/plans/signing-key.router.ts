@@ -11,11 +11,17 @@ export const signingKeyFeature: ApiFeature = {
   tag: "export",
   routes: [
     route({
-      method: "get", path: "/", summary: "Public Ed25519 key (PEM) and key id that check decision signatures (no sign-in)", access: "public",
+      method: "get",
+      path: "/",
+      summary: "Public Ed25519 key (PEM) and key id that check decision signatures (no sign-in)",
+      access: "public",
       responses: { 200: signingKeyResponseSchema },
       handler: ({ deps }) => {
         const key = signingKey(deps.config.signingKeyFile);
-        return { status: 200, body: { algorithm: "Ed25519" as const, keyId: key.keyId, publicKeyPem: key.publicKeyPem } };
+        return {
+          status: 200,
+          body: { algorithm: "Ed25519" as const, keyId: key.keyId, publicKeyPem: key.publicKeyPem },
+        };
       },
     }),
   ],

@@ -27,13 +27,22 @@ export interface DecisionPayload {
 
 /** Key id: SHA-256 (hex) of the public key's DER SubjectPublicKeyInfo, i.e. `openssl pkey -pubin -outform DER | sha256sum`. */
 export const keyIdOf = (publicKey: crypto.KeyObject) =>
-  crypto.createHash("sha256").update(publicKey.export({ type: "spki", format: "der" })).digest("hex");
+  crypto
+    .createHash("sha256")
+    .update(publicKey.export({ type: "spki", format: "der" }))
+    .digest("hex");
 
 function fromPem(pem: string, file: string): SigningKey {
   const privateKey = crypto.createPrivateKey(pem);
-  if (privateKey.asymmetricKeyType !== "ed25519") throw new Error(`${file} holds a ${privateKey.asymmetricKeyType} key; the signing key must be Ed25519`);
+  if (privateKey.asymmetricKeyType !== "ed25519")
+    throw new Error(`${file} holds a ${privateKey.asymmetricKeyType} key; the signing key must be Ed25519`);
   const publicKey = crypto.createPublicKey(privateKey);
-  return { keyId: keyIdOf(publicKey), publicKeyPem: publicKey.export({ type: "spki", format: "pem" }).toString(), privateKey, publicKey };
+  return {
+    keyId: keyIdOf(publicKey),
+    publicKeyPem: publicKey.export({ type: "spki", format: "pem" }).toString(),
+    privateKey,
+    publicKey,
+  };
 }
 
 /**
@@ -73,19 +82,31 @@ export function signingKey(file: string): SigningKey {
 /** RFC 8785 canonical JSON of the payload, the exact bytes signed. */
 export function payloadBytes(p: DecisionPayload): Buffer {
   const canonical = canonicalize({
-    planId: p.planId, revision: p.revision, contentHash: p.contentHash, approverId: p.approverId, decision: p.decision, round: p.round, time: p.time,
+    planId: p.planId,
+    revision: p.revision,
+    contentHash: p.contentHash,
+    approverId: p.approverId,
+    decision: p.decision,
+    round: p.round,
+    time: p.time,
   });
   if (canonical === undefined) throw new Error("decision payload cannot be canonicalised");
   return Buffer.from(canonical, "utf8");
 }
 
 /** Base64 Ed25519 signature over the payload's canonical bytes. */
-export const signPayload = (key: SigningKey, p: DecisionPayload) => crypto.sign(null, payloadBytes(p), key.privateKey).toString("base64");
+export const signPayload = (key: SigningKey, p: DecisionPayload) =>
+  crypto.sign(null, payloadBytes(p), key.privateKey).toString("base64");
 
 export type SignatureStatus = "valid" | "invalid" | "missing" | "unknown_key";
 
 /** Checks a stored signature against the current key; a signature by another key cannot be checked here. */
-export function signatureStatus(key: SigningKey, p: DecisionPayload, signature: string | null, keyId: string | null): SignatureStatus {
+export function signatureStatus(
+  key: SigningKey,
+  p: DecisionPayload,
+  signature: string | null,
+  keyId: string | null,
+): SignatureStatus {
   if (!signature || !keyId) return "missing";
   if (keyId !== key.keyId) return "unknown_key";
   try {

@@ -33,12 +33,28 @@ export async function submit(deps: AppDeps, actor: SessionUser, planId: number, 
       );
     }
     const row = await repo.updateRevision(tx, rev.id, {
-      state: "in_review", round: rev.round + 1, submittedAt: new Date(), content, contentHash,
+      state: "in_review",
+      round: rev.round + 1,
+      submittedAt: new Date(),
+      content,
+      contentHash,
     });
     await repo.touchPlan(tx, planId);
-    await recordAudit(tx, { actorId: actor.id, action: "revision.submitted", subjectType: "plan", subjectId: planId, detail: { revision: n, hash: row.contentHash, round: row.round } });
+    await recordAudit(tx, {
+      actorId: actor.id,
+      action: "revision.submitted",
+      subjectType: "plan",
+      subjectId: planId,
+      detail: { revision: n, hash: row.contentHash, round: row.round },
+    });
     const approvers = (await repo.activeUsersWithRole(tx, "approver")).filter((u) => u.id !== actor.id);
-    await notify(deps, tx, "review_requested", approvers.map((u) => u.email), { plan, revision: row, actorName: actor.name });
+    await notify(
+      deps,
+      tx,
+      "review_requested",
+      approvers.map((u) => u.email),
+      { plan, revision: row, actorName: actor.name },
+    );
     return { number: n, state: row.state };
   });
 }
@@ -51,7 +67,13 @@ export async function withdraw(deps: AppDeps, actor: SessionUser, planId: number
     if (rev.state !== "in_review") throw wrongState(n, rev.state, "in_review");
     const row = await repo.updateRevision(tx, rev.id, { state: "draft", version: rev.version + 1 });
     await repo.touchPlan(tx, planId);
-    await recordAudit(tx, { actorId: actor.id, action: "revision.withdrawn", subjectType: "plan", subjectId: planId, detail: { revision: n, round: rev.round } });
+    await recordAudit(tx, {
+      actorId: actor.id,
+      action: "revision.withdrawn",
+      subjectType: "plan",
+      subjectId: planId,
+      detail: { revision: n, round: rev.round },
+    });
     return { number: n, state: row.state, version: row.version };
   });
 }
@@ -61,7 +83,10 @@ export async function withdraw(deps: AppDeps, actor: SessionUser, planId: number
  * the state change and superseding the earlier approval happen at once, so concurrent decisions cannot overshoot.
  */
 export async function decide(
-  deps: AppDeps, actor: SessionUser, planId: number, n: number,
+  deps: AppDeps,
+  actor: SessionUser,
+  planId: number,
+  n: number,
   input: { decision: "approve" | "request_changes"; comment: string; contentHash: string },
 ) {
   if (!hasRole(actor, "approver")) throw new Forbidden("only approvers decide");
@@ -72,31 +97,63 @@ export async function decide(
     if (rev.state !== "in_review") throw wrongState(n, rev.state, "in_review");
     // The approver signs what they read; content changed since (withdraw, edit, resubmit) is not what they saw.
     if (input.contentHash !== rev.contentHash) {
-      throw new HttpError(409, "hash_mismatch",
+      throw new HttpError(
+        409,
+        "hash_mismatch",
         `revision ${n} changed since you read it: you saw ${input.contentHash.slice(0, 12)}…, it is now ${rev.contentHash.slice(0, 12)}…; reopen it and read it again`,
-        { contentHash: `current is ${rev.contentHash}` });
+        { contentHash: `current is ${rev.contentHash}` },
+      );
     }
-    const already = (await repo.decisionsOf(tx, [rev.id])).some((d) => d.d.round === rev.round && d.d.approverId === actor.id);
+    const already = (await repo.decisionsOf(tx, [rev.id])).some(
+      (d) => d.d.round === rev.round && d.d.approverId === actor.id,
+    );
     if (already) throw new Conflict("you already decided on this revision", { decision: "already recorded" });
     // The signed time is the stored one (timestamptz keeps microseconds, a JS Date milliseconds: it round-trips).
     const at = new Date();
     const key = signingKey(deps.config.signingKeyFile);
     const signature = signPayload(key, {
-      planId, revision: n, contentHash: rev.contentHash, approverId: actor.id, decision: input.decision, round: rev.round, time: at.toISOString(),
+      planId,
+      revision: n,
+      contentHash: rev.contentHash,
+      approverId: actor.id,
+      decision: input.decision,
+      round: rev.round,
+      time: at.toISOString(),
     });
     await repo.insertDecision(tx, {
-      revisionId: rev.id, round: rev.round, approverId: actor.id, decision: input.decision, comment: input.comment, signedHash: rev.contentHash,
-      at, signature, keyId: key.keyId,
+      revisionId: rev.id,
+      round: rev.round,
+      approverId: actor.id,
+      decision: input.decision,
+      comment: input.comment,
+      signedHash: rev.contentHash,
+      at,
+      signature,
+      keyId: key.keyId,
     });
     await recordAudit(tx, {
-      actorId: actor.id, action: input.decision === "approve" ? "decision.approved" : "decision.changes_requested",
-      subjectType: "plan", subjectId: planId, detail: { revision: n, signedHash: rev.contentHash, comment: input.comment, round: rev.round, keyId: key.keyId },
+      actorId: actor.id,
+      action: input.decision === "approve" ? "decision.approved" : "decision.changes_requested",
+      subjectType: "plan",
+      subjectId: planId,
+      detail: { revision: n, signedHash: rev.contentHash, comment: input.comment, round: rev.round, keyId: key.keyId },
     });
     const author = (await repo.userRef(tx, rev.authorId))!;
     if (input.decision === "request_changes") {
       const row = await repo.updateRevision(tx, rev.id, { state: "changes_requested", decidedAt: new Date() });
-      await recordAudit(tx, { actorId: actor.id, action: "revision.changes_requested", subjectType: "plan", subjectId: planId, detail: { revision: n } });
-      await notify(deps, tx, "changes_requested", [author.email], { plan, revision: row, actorName: actor.name, comment: input.comment });
+      await recordAudit(tx, {
+        actorId: actor.id,
+        action: "revision.changes_requested",
+        subjectType: "plan",
+        subjectId: planId,
+        detail: { revision: n },
+      });
+      await notify(deps, tx, "changes_requested", [author.email], {
+        plan,
+        revision: row,
+        actorName: actor.name,
+        comment: input.comment,
+      });
       return { number: n, state: row.state, approvals: await repo.approvalsInRound(tx, rev.id, rev.round) };
     }
     const approvals = await repo.approvalsInRound(tx, rev.id, rev.round);
@@ -105,13 +162,36 @@ export async function decide(
     const row = await repo.updateRevision(tx, rev.id, { state: "approved", decidedAt: new Date() });
     const superseded = await repo.supersedeApprovedExcept(tx, planId, rev.id);
     await repo.touchPlan(tx, planId);
-    await recordAudit(tx, { actorId: actor.id, action: "revision.approved", subjectType: "plan", subjectId: planId, detail: { revision: n, hash: row.contentHash, approvals } });
+    await recordAudit(tx, {
+      actorId: actor.id,
+      action: "revision.approved",
+      subjectType: "plan",
+      subjectId: planId,
+      detail: { revision: n, hash: row.contentHash, approvals },
+    });
     for (const s of superseded) {
-      await recordAudit(tx, { actorId: actor.id, action: "revision.superseded", subjectType: "plan", subjectId: planId, detail: { revision: s.number, by: n } });
+      await recordAudit(tx, {
+        actorId: actor.id,
+        action: "revision.superseded",
+        subjectType: "plan",
+        subjectId: planId,
+        detail: { revision: s.number, by: n },
+      });
     }
-    await notify(deps, tx, "approved", [author.email], { plan, revision: row, actorName: actor.name, comment: input.comment });
+    await notify(deps, tx, "approved", [author.email], {
+      plan,
+      revision: row,
+      actorName: actor.name,
+      comment: input.comment,
+    });
     const infra = await repo.activeUsersWithRole(tx, "infra");
-    await notify(deps, tx, "ready", infra.map((u) => u.email), { plan, revision: row, actorName: actor.name });
+    await notify(
+      deps,
+      tx,
+      "ready",
+      infra.map((u) => u.email),
+      { plan, revision: row, actorName: actor.name },
+    );
     return { number: n, state: row.state, approvals };
   });
 }

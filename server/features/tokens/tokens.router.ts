@@ -12,18 +12,31 @@ export const tokensFeature: ApiFeature = {
   use: [noStore],
   routes: [
     route({
-      method: "get", path: "/", summary: "My API tokens", access: "signed-in",
+      method: "get",
+      path: "/",
+      summary: "My API tokens",
+      access: "signed-in",
       responses: { 200: tokenListResponseSchema },
       handler: async ({ deps, user }) => ({ status: 200, body: { tokens: await listTokens(deps, user) } }),
     }),
     route({
-      method: "post", path: "/", summary: "Create an API token with scopes, default export:read (secret shown once)", access: "signed-in",
+      method: "post",
+      path: "/",
+      summary: "Create an API token with scopes, default export:read (secret shown once)",
+      access: "signed-in",
       body: createTokenRequestSchema,
       responses: { 201: createdTokenSchema },
-      handler: async ({ deps, user, body }) => ({ status: 201, body: await createToken(deps, user, body.name, body.scopes) }),
+      handler: async ({ deps, user, body }) => ({
+        status: 201,
+        body: await createToken(deps, user, body.name, body.scopes),
+      }),
     }),
     route({
-      method: "delete", path: "/:id", summary: "Revoke a token", access: "signed-in", params: idParamSchema,
+      method: "delete",
+      path: "/:id",
+      summary: "Revoke a token",
+      access: "signed-in",
+      params: idParamSchema,
       responses: { 204: { contentType: null, description: "Revoked" } },
       handler: async ({ deps, user, params }) => {
         await revokeToken(deps, user, params.id);

@@ -20,9 +20,12 @@ export const lockUserById = async (ex: Executor, id: number) =>
  * user row by changes that may remove an admin: the second of two such changes waits, then counts afresh.
  */
 export async function lockActiveAdmins(ex: Executor) {
-  await ex.select({ id: users.id }).from(users)
+  await ex
+    .select({ id: users.id })
+    .from(users)
     .where(sql`${users.active} AND 'admin' = ANY(${users.roles})`)
-    .orderBy(asc(users.id)).for("update");
+    .orderBy(asc(users.id))
+    .for("update");
 }
 
 export const listUsers = (ex: Executor) => ex.select().from(users).orderBy(asc(users.id));
@@ -31,7 +34,10 @@ export async function insertUser(
   ex: Executor,
   v: { email: string; name: string; passwordHash: string; roles: Role[] },
 ) {
-  const [row] = await ex.insert(users).values({ ...v, email: v.email.toLowerCase() }).returning();
+  const [row] = await ex
+    .insert(users)
+    .values({ ...v, email: v.email.toLowerCase() })
+    .returning();
   return row;
 }
 
@@ -40,7 +46,11 @@ export async function updateUser(
   id: number,
   v: Partial<Pick<UserRow, "name" | "roles" | "active" | "passwordHash">>,
 ) {
-  const [row] = await ex.update(users).set({ ...v, updatedAt: new Date() }).where(eq(users.id, id)).returning();
+  const [row] = await ex
+    .update(users)
+    .set({ ...v, updatedAt: new Date() })
+    .where(eq(users.id, id))
+    .returning();
   return row;
 }
 

@@ -1,6 +1,10 @@
 import { route, type ApiFeature } from "../../http/route";
 import {
-  createUserRequestSchema, idParamSchema, updateUserRequestSchema, userResponseSchema, usersListResponseSchema,
+  createUserRequestSchema,
+  idParamSchema,
+  updateUserRequestSchema,
+  userResponseSchema,
+  usersListResponseSchema,
 } from "../../../shared/schemas";
 import { createUser, listUsers, updateUser } from "./users.service";
 
@@ -10,20 +14,34 @@ export const usersFeature: ApiFeature = {
   tag: "users",
   routes: [
     route({
-      method: "get", path: "/", summary: "List users (admin)", access: ["admin"],
+      method: "get",
+      path: "/",
+      summary: "List users (admin)",
+      access: ["admin"],
       responses: { 200: usersListResponseSchema },
       handler: async ({ deps }) => ({ status: 200, body: { users: await listUsers(deps) } }),
     }),
     route({
-      method: "post", path: "/", summary: "Create a user (admin)", access: ["admin"], body: createUserRequestSchema,
+      method: "post",
+      path: "/",
+      summary: "Create a user (admin)",
+      access: ["admin"],
+      body: createUserRequestSchema,
       responses: { 201: userResponseSchema },
       handler: async ({ deps, user, body }) => ({ status: 201, body: { user: await createUser(deps, user, body) } }),
     }),
     route({
-      method: "patch", path: "/:id", summary: "Change a user's name, roles or activity (admin)", access: ["admin"],
-      params: idParamSchema, body: updateUserRequestSchema,
+      method: "patch",
+      path: "/:id",
+      summary: "Change a user's name, roles or activity (admin)",
+      access: ["admin"],
+      params: idParamSchema,
+      body: updateUserRequestSchema,
       responses: { 200: userResponseSchema },
-      handler: async ({ deps, user, params, body }) => ({ status: 200, body: { user: await updateUser(deps, user, params.id, body) } }),
+      handler: async ({ deps, user, params, body }) => ({
+        status: 200,
+        body: { user: await updateUser(deps, user, params.id, body) },
+      }),
     }),
   ],
 };

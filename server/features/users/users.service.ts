@@ -20,7 +20,6 @@ export function toUser(row: repo.UserRow): User {
 
 export { toSessionUser } from "../../platform/identity";
 
-
 export async function listUsers(deps: AppDeps) {
   return (await repo.listUsers(deps.db)).map(toUser);
 }
@@ -70,16 +69,28 @@ export async function updateUser(deps: AppDeps, actor: SessionUser, id: number, 
       changes.tokensRevoked = await revokeAllTokensOfUser(tx, id);
     }
     if (input.roles) changes.roles = { from: before.roles, to: row.roles };
-    if (input.active !== undefined && input.active !== before.active) changes.active = { from: before.active, to: row.active };
+    if (input.active !== undefined && input.active !== before.active)
+      changes.active = { from: before.active, to: row.active };
     if (input.name && input.name !== before.name) changes.name = { from: before.name, to: row.name };
-    const action = input.active === false ? "user.deactivated" : input.active === true && !before.active ? "user.reactivated" : input.roles ? "user.roles_changed" : "user.updated";
+    const action =
+      input.active === false
+        ? "user.deactivated"
+        : input.active === true && !before.active
+          ? "user.reactivated"
+          : input.roles
+            ? "user.roles_changed"
+            : "user.updated";
     await recordAudit(tx, { actorId: actor.id, action, subjectType: "user", subjectId: id, detail: changes });
     return toUser(row);
   });
 }
 
 /** Ends every stored session and revokes every API token of the user; the router re-issues the caller's session. */
-export async function changePassword(deps: AppDeps, actor: SessionUser, input: { currentPassword: string; newPassword: string }) {
+export async function changePassword(
+  deps: AppDeps,
+  actor: SessionUser,
+  input: { currentPassword: string; newPassword: string },
+) {
   const row = await repo.findUserById(deps.db, actor.id);
   if (!row || !(await bcrypt.compare(input.currentPassword, row.passwordHash))) {
     throw new Invalid("the current password is wrong", { currentPassword: "does not match" });
@@ -92,6 +103,12 @@ export async function changePassword(deps: AppDeps, actor: SessionUser, input: {
     await repo.updateUser(tx, actor.id, { passwordHash });
     await repo.deleteSessionsOfUser(tx, actor.id);
     const tokensRevoked = await revokeAllTokensOfUser(tx, actor.id);
-    await recordAudit(tx, { actorId: actor.id, action: "user.password_changed", subjectType: "user", subjectId: actor.id, detail: { tokensRevoked } });
+    await recordAudit(tx, {
+      actorId: actor.id,
+      action: "user.password_changed",
+      subjectType: "user",
+      subjectId: actor.id,
+      detail: { tokensRevoked },
+    });
   });
 }

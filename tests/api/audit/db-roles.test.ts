@@ -8,7 +8,8 @@ const denied = { code: "42501" };
 describe("database roles", () => {
   it("the app role owns no table, sequence, function or schema, and is no superuser", async () => {
     const { pool } = testDb();
-    const me = (await pool.query("SELECT current_user AS u, rolsuper FROM pg_roles WHERE rolname = current_user")).rows[0];
+    const me = (await pool.query("SELECT current_user AS u, rolsuper FROM pg_roles WHERE rolname = current_user"))
+      .rows[0];
     expect(me.rolsuper).toBe(false);
     const owned = await pool.query(
       `SELECT c.relname AS name FROM pg_class c WHERE c.relowner = (SELECT oid FROM pg_roles WHERE rolname = current_user)
@@ -18,18 +19,32 @@ describe("database roles", () => {
     expect(owned.rows).toEqual([]);
     const owner = (await ownerTestDb().pool.query("SELECT current_user AS u")).rows[0].u;
     expect(owner).not.toBe(me.u);
-    expect((await pool.query("SELECT tableowner FROM pg_tables WHERE tablename = 'audit_events'")).rows[0].tableowner).toBe(owner);
+    expect(
+      (await pool.query("SELECT tableowner FROM pg_tables WHERE tablename = 'audit_events'")).rows[0].tableowner,
+    ).toBe(owner);
   });
 
   it("the app role may add and read audit rows but not UPDATE, DELETE or TRUNCATE them", async () => {
     const { pool } = testDb();
-    const priv = (p: string) => pool.query("SELECT has_table_privilege(current_user, 'audit_events', $1) AS ok", [p]).then((r) => r.rows[0].ok);
-    expect([await priv("INSERT"), await priv("SELECT"), await priv("UPDATE"), await priv("DELETE"), await priv("TRUNCATE")])
-      .toEqual([true, true, false, false, false]);
-    await expect(pool.query("UPDATE audit_events SET action = 'x' WHERE id = (SELECT max(id) FROM audit_events)")).rejects.toMatchObject(denied);
-    await expect(pool.query("DELETE FROM audit_events WHERE id = (SELECT max(id) FROM audit_events)")).rejects.toMatchObject(denied);
+    const priv = (p: string) =>
+      pool.query("SELECT has_table_privilege(current_user, 'audit_events', $1) AS ok", [p]).then((r) => r.rows[0].ok);
+    expect([
+      await priv("INSERT"),
+      await priv("SELECT"),
+      await priv("UPDATE"),
+      await priv("DELETE"),
+      await priv("TRUNCATE"),
+    ]).toEqual([true, true, false, false, false]);
+    await expect(
+      pool.query("UPDATE audit_events SET action = 'x' WHERE id = (SELECT max(id) FROM audit_events)"),
+    ).rejects.toMatchObject(denied);
+    await expect(
+      pool.query("DELETE FROM audit_events WHERE id = (SELECT max(id) FROM audit_events)"),
+    ).rejects.toMatchObject(denied);
     await expect(pool.query("TRUNCATE audit_events")).rejects.toMatchObject(denied);
-    await expect(pool.query("ALTER TABLE audit_events DISABLE TRIGGER audit_events_append_only")).rejects.toMatchObject(denied);
+    await expect(pool.query("ALTER TABLE audit_events DISABLE TRIGGER audit_events_append_only")).rejects.toMatchObject(
+      denied,
+    );
     await expect(pool.query("CREATE TABLE app_made (v int)")).rejects.toMatchObject(denied);
   });
 
@@ -37,7 +52,9 @@ describe("database roles", () => {
     const { pool } = testDb();
     for (const t of ["session", "mail_outbox", "users"]) {
       const r = await pool.query(
-        `SELECT has_table_privilege(current_user, $1, 'SELECT,INSERT,UPDATE,DELETE') AS dml, has_table_privilege(current_user, $1, 'TRUNCATE') AS tr`, [t]);
+        `SELECT has_table_privilege(current_user, $1, 'SELECT,INSERT,UPDATE,DELETE') AS dml, has_table_privilege(current_user, $1, 'TRUNCATE') AS tr`,
+        [t],
+      );
       expect(r.rows[0], t).toEqual({ dml: true, tr: false });
     }
     await expect(pool.query("DROP TABLE session")).rejects.toMatchObject(denied);

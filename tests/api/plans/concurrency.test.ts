@@ -19,9 +19,15 @@ describe("concurrent transitions", () => {
     for (let trial = 0; trial < 3; trial++) {
       const { plan, base } = await submitted(1);
       const [a, b] = [await agentAs(["approver"]), await agentAs(["approver"])];
-      const results = await Promise.all([decide(a, `${base}/decisions`, { decision: "approve" }), decide(b, `${base}/decisions`, { decision: "approve" })]);
+      const results = await Promise.all([
+        decide(a, `${base}/decisions`, { decision: "approve" }),
+        decide(b, `${base}/decisions`, { decision: "approve" }),
+      ]);
       expect(results.map((r) => r.status).sort()).toEqual([200, 409]);
-      const rows = await q("SELECT count(*)::int AS n FROM plan_decisions d JOIN plan_revisions r ON r.id = d.revision_id WHERE r.plan_id = $1", [plan.id]);
+      const rows = await q(
+        "SELECT count(*)::int AS n FROM plan_decisions d JOIN plan_revisions r ON r.id = d.revision_id WHERE r.plan_id = $1",
+        [plan.id],
+      );
       expect(rows.rows[0].n).toBe(1);
       const state = await q("SELECT state FROM plan_revisions WHERE plan_id = $1", [plan.id]);
       expect(state.rows[0].state).toBe("approved");
@@ -33,7 +39,10 @@ describe("concurrent transitions", () => {
     const model = await createProfile(researcher);
     const plan = await createPlan(researcher, model.id);
     const base = `/api/plans/${plan.id}/revisions/1`;
-    const [r1, r2] = await Promise.all([put(researcher, base, { version: 1, notes: "alpha" }), put(researcher, base, { version: 1, notes: "beta" })]);
+    const [r1, r2] = await Promise.all([
+      put(researcher, base, { version: 1, notes: "alpha" }),
+      put(researcher, base, { version: 1, notes: "beta" }),
+    ]);
     expect([r1.status, r2.status].sort()).toEqual([200, 409]);
     const winner = r1.status === 200 ? "alpha" : "beta";
     const rev = await researcher.get(base);
@@ -45,9 +54,17 @@ describe("concurrent transitions", () => {
     for (let trial = 0; trial < 4; trial++) {
       const { researcher, plan, base } = await submitted(1);
       const ap = await agentAs(["approver"]);
-      const [w, d] = await Promise.all([post(researcher, `${base}/withdraw`), decide(ap, `${base}/decisions`, { decision: "approve" })]);
+      const [w, d] = await Promise.all([
+        post(researcher, `${base}/withdraw`),
+        decide(ap, `${base}/decisions`, { decision: "approve" }),
+      ]);
       const state = (await q("SELECT state, round FROM plan_revisions WHERE plan_id = $1", [plan.id])).rows[0];
-      const decisions = (await q("SELECT count(*)::int AS n FROM plan_decisions d JOIN plan_revisions r ON r.id = d.revision_id WHERE r.plan_id = $1", [plan.id])).rows[0].n;
+      const decisions = (
+        await q(
+          "SELECT count(*)::int AS n FROM plan_decisions d JOIN plan_revisions r ON r.id = d.revision_id WHERE r.plan_id = $1",
+          [plan.id],
+        )
+      ).rows[0].n;
       if (w.status === 200) {
         expect(d.status).toBe(409);
         expect(state.state).toBe("draft");
@@ -70,7 +87,9 @@ describe("integrity", () => {
     const ok = await ap.get(`${base}/verify`).expect(200);
     expect(ok.body.ok).toBe(true);
     await ap.get(`/api/plans/${plan.id}/approved/export`).expect(200);
-    await q(`UPDATE plan_revisions SET content = jsonb_set(content, '{targetContext}', '65536') WHERE plan_id = $1`, [plan.id]);
+    await q(`UPDATE plan_revisions SET content = jsonb_set(content, '{targetContext}', '65536') WHERE plan_id = $1`, [
+      plan.id,
+    ]);
     const bad = await ap.get(`${base}/verify`).expect(200);
     expect(bad.body.ok).toBe(false);
     expect(bad.body.computedHash).not.toBe(bad.body.storedHash);

@@ -25,16 +25,26 @@ describe("plan lifecycle", () => {
     expect(d2.body).toMatchObject({ state: "approved", approvals: 2 });
 
     const detail = await researcher.get(`/api/plans/${plan.id}`).expect(200);
-    expect(detail.body.revisions[0].decisions.map((d: { signedHash: string }) => d.signedHash)).toEqual([plan.revisions[0].contentHash, plan.revisions[0].contentHash]);
+    expect(detail.body.revisions[0].decisions.map((d: { signedHash: string }) => d.signedHash)).toEqual([
+      plan.revisions[0].contentHash,
+      plan.revisions[0].contentHash,
+    ]);
 
     const exp = await researcher.get(`/api/plans/${plan.id}/approved/export`).expect(200);
     expect(exp.body.revision).toBe(1);
-    expect(exp.body.config.rope_scaling).toMatchObject({ rope_type: "yarn", factor: 8, original_max_position_embeddings: 4096 });
+    expect(exp.body.config.rope_scaling).toMatchObject({
+      rope_type: "yarn",
+      factor: 8,
+      original_max_position_embeddings: 4096,
+    });
     expect(exp.body.config.max_position_embeddings).toBe(32768);
 
     const r2 = await post(researcher, `/api/plans/${plan.id}/revisions`).expect(201);
     expect(r2.body).toMatchObject({ number: 2, version: 1 });
-    const edited = await put(researcher, `/api/plans/${plan.id}/revisions/2`, { version: 1, method: { method: "linear" } }).expect(200);
+    const edited = await put(researcher, `/api/plans/${plan.id}/revisions/2`, {
+      version: 1,
+      method: { method: "linear" },
+    }).expect(200);
     expect(edited.body.version).toBe(2);
     await post(researcher, `/api/plans/${plan.id}/revisions/2/submit`).expect(200);
     await decide(ap1, `/api/plans/${plan.id}/revisions/2/decisions`, { decision: "approve" }).expect(200);

@@ -8,12 +8,13 @@ import { deliverDueMail } from "../../../server/mail/outbox";
 import { startMailSink, type MailSink } from "../../../server/mail/sink";
 
 const { pool, db } = testDb();
-const freePort = () => new Promise<number>((resolve) => {
-  const s = net.createServer().listen(0, "127.0.0.1", () => {
-    const { port } = s.address() as net.AddressInfo;
-    s.close(() => resolve(port));
+const freePort = () =>
+  new Promise<number>((resolve) => {
+    const s = net.createServer().listen(0, "127.0.0.1", () => {
+      const { port } = s.address() as net.AddressInfo;
+      s.close(() => resolve(port));
+    });
   });
-});
 let port: number;
 let sink: MailSink | undefined;
 let app: ReturnType<typeof makeTestApp>;
@@ -24,7 +25,12 @@ beforeAll(async () => {
 afterAll(async () => sink?.close());
 
 const received = async (address: string, subjectPart: string) =>
-  (await pool.query("SELECT subject, text FROM mail_sink_messages WHERE $1 = ANY(to_addresses) AND subject LIKE $2", [address, `%${subjectPart}%`])).rows;
+  (
+    await pool.query("SELECT subject, text FROM mail_sink_messages WHERE $1 = ANY(to_addresses) AND subject LIKE $2", [
+      address,
+      `%${subjectPart}%`,
+    ])
+  ).rows;
 
 describe("plan workflow mail through the local SMTP sink", () => {
   it("sink down during submit: the submit commits, the mail arrives once after the sink returns; every message type is sent", async () => {
@@ -40,7 +46,10 @@ describe("plan workflow mail through the local SMTP sink", () => {
     await post(researcher, `${base}/submit`).expect(200);
     const down = await deliverDueMail(app.deps, { limit: 5000 });
     expect(down.sent).toBe(0);
-    const pending = await pool.query("SELECT status, attempts, last_error FROM mail_outbox WHERE kind = 'plan.review_requested' AND $1 = ANY(to_addresses)", [approver.user!.email]);
+    const pending = await pool.query(
+      "SELECT status, attempts, last_error FROM mail_outbox WHERE kind = 'plan.review_requested' AND $1 = ANY(to_addresses)",
+      [approver.user!.email],
+    );
     expect(pending.rows).toHaveLength(1);
     expect(pending.rows[0]).toMatchObject({ status: "pending", attempts: 1 });
     expect(pending.rows[0].last_error).toBeTruthy();
@@ -52,10 +61,14 @@ describe("plan workflow mail through the local SMTP sink", () => {
     expect(review.filter((m) => m.text.includes(`/plans/${plan.id}`))).toHaveLength(1);
 
     // Changes requested → author; then a new revision approved → author and infra.
-    await decide(approver, `${base}/decisions`, { decision: "request_changes", comment: "raise stage 1 batch" }).expect(200);
+    await decide(approver, `${base}/decisions`, { decision: "request_changes", comment: "raise stage 1 batch" }).expect(
+      200,
+    );
     await post(researcher, `/api/plans/${plan.id}/revisions`).expect(201);
     // Content sent back cannot return unchanged, so the author does what was asked.
-    await put(researcher, `/api/plans/${plan.id}/revisions/2`, { version: 1, notes: "stage 1 batch raised" }).expect(200);
+    await put(researcher, `/api/plans/${plan.id}/revisions/2`, { version: 1, notes: "stage 1 batch raised" }).expect(
+      200,
+    );
     await post(researcher, `/api/plans/${plan.id}/revisions/2/submit`).expect(200);
     await decide(approver, `/api/plans/${plan.id}/revisions/2/decisions`, { decision: "approve" }).expect(200);
     await deliverDueMail(app.deps, { limit: 5000 });
@@ -67,6 +80,8 @@ describe("plan workflow mail through the local SMTP sink", () => {
     expect(toInfra[0].text.replace(/\s+/g, " ")).toMatch(/long-context evaluations of the tuned model/i);
     // Nothing is sent twice.
     await deliverDueMail(app.deps, { limit: 5000 });
-    expect((await received(approver.user!.email, "")).filter((m) => m.text.includes(`/plans/${plan.id}`))).toHaveLength(2); // review of r1 and r2
+    expect((await received(approver.user!.email, "")).filter((m) => m.text.includes(`/plans/${plan.id}`))).toHaveLength(
+      2,
+    ); // review of r1 and r2
   });
 });

@@ -28,7 +28,10 @@ describe("plan states and decisions in the database", () => {
     const bad = await sqlError("UPDATE plan_revisions SET state = $1 WHERE plan_id = $2", ["signed", plan.id]);
     expect(bad).toMatchObject({ code: "23514", constraint: "plan_revisions_state_known" });
     for (const state of REVISION_STATES) {
-      expect(await sqlError("UPDATE plan_revisions SET state = $1 WHERE plan_id = $2", [state, plan.id]), state).toBeUndefined();
+      expect(
+        await sqlError("UPDATE plan_revisions SET state = $1 WHERE plan_id = $2", [state, plan.id]),
+        state,
+      ).toBeUndefined();
     }
   });
 

@@ -29,26 +29,39 @@ describe("API tokens", () => {
     const list = await infra.get("/api/tokens").expect(200);
     expect(JSON.stringify(list.body)).not.toContain(secret);
 
-    const exp = await request(app).get(`/api/plans/${plan.id}/approved/export`).set("Authorization", `Bearer ${secret}`).expect(200);
+    const exp = await request(app)
+      .get(`/api/plans/${plan.id}/approved/export`)
+      .set("Authorization", `Bearer ${secret}`)
+      .expect(200);
     expect(exp.body.config.rope_scaling.rope_type).toBe("yarn");
     expect(exp.headers["set-cookie"]).toBeUndefined();
     const used = await infra.get("/api/tokens");
     expect(used.body.tokens[0].lastUsedAt).not.toBeNull();
-    const audit = await testDb().pool.query("SELECT detail FROM audit_events WHERE action = 'revision.exported' AND subject_id = $1", [String(plan.id)]);
+    const audit = await testDb().pool.query(
+      "SELECT detail FROM audit_events WHERE action = 'revision.exported' AND subject_id = $1",
+      [String(plan.id)],
+    );
     expect(audit.rows.some((r) => r.detail.via === "token")).toBe(true);
 
     await infra.delete(`/api/tokens/${created.body.id}`).set("X-CSRF-Token", infra.csrf).expect(204);
-    const after = await request(app).get(`/api/plans/${plan.id}/approved/export`).set("Authorization", `Bearer ${secret}`);
+    const after = await request(app)
+      .get(`/api/plans/${plan.id}/approved/export`)
+      .set("Authorization", `Bearer ${secret}`);
     expect(after.status).toBe(401);
   });
 
   it("a token cannot write, and a made-up token gets 401", async () => {
     const researcher = await agentAs(["researcher"]);
     const created = await post(researcher, "/api/tokens", { name: "ci" }).expect(201);
-    const w = await request(app).post("/api/plans").set("Authorization", `Bearer ${created.body.token}`).send({ title: "x" });
+    const w = await request(app)
+      .post("/api/plans")
+      .set("Authorization", `Bearer ${created.body.token}`)
+      .send({ title: "x" });
     expect(w.status).toBe(403);
     expect(w.body.error.code).toBe("read_only_token");
-    const d = await request(app).delete(`/api/tokens/${created.body.id}`).set("Authorization", `Bearer ${created.body.token}`);
+    const d = await request(app)
+      .delete(`/api/tokens/${created.body.id}`)
+      .set("Authorization", `Bearer ${created.body.token}`);
     expect(d.status).toBe(403);
     expect((await request(app).get("/api/plans").set("Authorization", "Bearer rw_nope")).status).toBe(401);
   });
@@ -83,8 +96,12 @@ describe("audit trail", () => {
   it("the database refuses to change or delete audit rows", async () => {
     // The app role lacks the privilege; even the owner meets the append-only trigger.
     for (const pool of [testDb().pool, ownerTestDb().pool]) {
-      await expect(pool.query("UPDATE audit_events SET action = 'x' WHERE id = (SELECT min(id) FROM audit_events)")).rejects.toThrow(/append-only|permission denied/);
-      await expect(pool.query("DELETE FROM audit_events WHERE id = (SELECT min(id) FROM audit_events)")).rejects.toThrow(/append-only|permission denied/);
+      await expect(
+        pool.query("UPDATE audit_events SET action = 'x' WHERE id = (SELECT min(id) FROM audit_events)"),
+      ).rejects.toThrow(/append-only|permission denied/);
+      await expect(
+        pool.query("DELETE FROM audit_events WHERE id = (SELECT min(id) FROM audit_events)"),
+      ).rejects.toThrow(/append-only|permission denied/);
     }
   });
 });

@@ -49,14 +49,20 @@ describe("sign-off rules", () => {
     await decide(ap, `${base}/decisions`, { decision: "approve" }).expect(200);
     const twice = await decide(ap, `${base}/decisions`, { decision: "approve" });
     expect(twice.status).toBe(409);
-    const rows = await testDb().pool.query("SELECT count(*)::int AS n FROM plan_decisions d JOIN plan_revisions r ON r.id = d.revision_id WHERE r.plan_id = $1", [plan.id]);
+    const rows = await testDb().pool.query(
+      "SELECT count(*)::int AS n FROM plan_decisions d JOIN plan_revisions r ON r.id = d.revision_id WHERE r.plan_id = $1",
+      [plan.id],
+    );
     expect(rows.rows[0].n).toBe(1);
   });
 
   it("changes requested ends the revision; the author starts a new draft from it", async () => {
     const { researcher, plan, base } = await submittedPlan(2);
     const ap = await agentAs(["approver"]);
-    const r = await decide(ap, `${base}/decisions`, { decision: "request_changes", comment: "stage 2 batch too small" }).expect(200);
+    const r = await decide(ap, `${base}/decisions`, {
+      decision: "request_changes",
+      comment: "stage 2 batch too small",
+    }).expect(200);
     expect(r.body.state).toBe("changes_requested");
     expect((await put(researcher, base, { version: 1, notes: "late edit" })).status).toBe(409);
     const ap2 = await agentAs(["approver"]);
@@ -117,14 +123,80 @@ describe("sign-off rules", () => {
 describe("bad plan input → 400 naming the field, nothing written", () => {
   const count = async () => (await testDb().pool.query("SELECT count(*)::int AS n FROM plans")).rows[0].n as number;
   const cases: [string, (modelId: number) => object, string][] = [
-    ["target below the trained context for linear", (m) => ({ title: "t", modelId: m, revision: { targetContext: 2048, method: { method: "linear" } } }), "targetContext"],
-    ["stage target below trained context", (m) => ({ title: "t", modelId: m, revision: { targetContext: 8192, method: { method: "linear" }, stages: [{ targetContext: 1024, method: { method: "yarn" }, steps: 1, globalBatch: 1, sequenceLength: 1024, learningRate: 1e-5 }] } }), "stages.0.targetContext"],
-    ["betaFast <= betaSlow", (m) => ({ title: "t", modelId: m, revision: { targetContext: 8192, method: { method: "yarn", betaFast: 1, betaSlow: 2 } } }), "revision.method.betaFast"],
-    ["unknown method", (m) => ({ title: "t", modelId: m, revision: { targetContext: 8192, method: { method: "magic" } } }), "revision.method.method"],
-    ["missing title", (m) => ({ modelId: m, revision: { targetContext: 8192, method: { method: "linear" } } }), "title"],
-    ["three approvals too many", (m) => ({ title: "t", modelId: m, requiredApprovals: 4, revision: { targetContext: 8192, method: { method: "linear" } } }), "requiredApprovals"],
-    ["unknown model", () => ({ title: "t", modelId: 99999999, revision: { targetContext: 8192, method: { method: "linear" } } }), "modelId"],
-    ["acceptance beyond target", (m) => ({ title: "t", modelId: m, revision: { targetContext: 8192, method: { method: "linear" }, acceptance: [{ evaluation: "e", contextLength: 16384, metric: "m", comparison: ">=", threshold: 1 }] } }), "acceptance.0.contextLength"],
+    [
+      "target below the trained context for linear",
+      (m) => ({ title: "t", modelId: m, revision: { targetContext: 2048, method: { method: "linear" } } }),
+      "targetContext",
+    ],
+    [
+      "stage target below trained context",
+      (m) => ({
+        title: "t",
+        modelId: m,
+        revision: {
+          targetContext: 8192,
+          method: { method: "linear" },
+          stages: [
+            {
+              targetContext: 1024,
+              method: { method: "yarn" },
+              steps: 1,
+              globalBatch: 1,
+              sequenceLength: 1024,
+              learningRate: 1e-5,
+            },
+          ],
+        },
+      }),
+      "stages.0.targetContext",
+    ],
+    [
+      "betaFast <= betaSlow",
+      (m) => ({
+        title: "t",
+        modelId: m,
+        revision: { targetContext: 8192, method: { method: "yarn", betaFast: 1, betaSlow: 2 } },
+      }),
+      "revision.method.betaFast",
+    ],
+    [
+      "unknown method",
+      (m) => ({ title: "t", modelId: m, revision: { targetContext: 8192, method: { method: "magic" } } }),
+      "revision.method.method",
+    ],
+    [
+      "missing title",
+      (m) => ({ modelId: m, revision: { targetContext: 8192, method: { method: "linear" } } }),
+      "title",
+    ],
+    [
+      "three approvals too many",
+      (m) => ({
+        title: "t",
+        modelId: m,
+        requiredApprovals: 4,
+        revision: { targetContext: 8192, method: { method: "linear" } },
+      }),
+      "requiredApprovals",
+    ],
+    [
+      "unknown model",
+      () => ({ title: "t", modelId: 99999999, revision: { targetContext: 8192, method: { method: "linear" } } }),
+      "modelId",
+    ],
+    [
+      "acceptance beyond target",
+      (m) => ({
+        title: "t",
+        modelId: m,
+        revision: {
+          targetContext: 8192,
+          method: { method: "linear" },
+          acceptance: [{ evaluation: "e", contextLength: 16384, metric: "m", comparison: ">=", threshold: 1 }],
+        },
+      }),
+      "acceptance.0.contextLength",
+    ],
   ];
   for (const [label, body, field] of cases) {
     it(label, async () => {
@@ -148,7 +220,9 @@ describe("profiles in use", () => {
     const r = await researcher.delete(`/api/models/${model.id}`).set("X-CSRF-Token", researcher.csrf);
     expect(r.status).toBe(200);
     expect(r.body.usedBy).toEqual([{ id: plan.id, title: "Keeps its profile" }]);
-    expect((await researcher.get(`/api/models/${model.id}`).expect(200)).body.model.retiredAt).toEqual(expect.any(String));
+    expect((await researcher.get(`/api/models/${model.id}`).expect(200)).body.model.retiredAt).toEqual(
+      expect.any(String),
+    );
   });
 });
 
@@ -160,6 +234,8 @@ describe("plan owners for the list filter", () => {
     await createPlan(researcher, model.id);
     const viewer = await agentAs(["viewer"]);
     const r = await viewer.get("/api/plans/owners").expect(200);
-    expect(r.body.owners.filter((o: { id: number }) => o.id === researcher.user!.id)).toEqual([{ id: researcher.user!.id, name: researcher.user!.name }]);
+    expect(r.body.owners.filter((o: { id: number }) => o.id === researcher.user!.id)).toEqual([
+      { id: researcher.user!.id, name: researcher.user!.name },
+    ]);
   });
 });

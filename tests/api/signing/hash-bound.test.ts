@@ -6,7 +6,12 @@ import { createPlan, createProfile, decide, post, put } from "../../setup/plans"
 const { agentAs } = makeTestApp();
 const q = (sql: string, params: unknown[]) => testDb().pool.query(sql, params);
 const decisionCount = async (planId: number) =>
-  (await q("SELECT count(*)::int AS n FROM plan_decisions d JOIN plan_revisions r ON r.id = d.revision_id WHERE r.plan_id = $1", [planId])).rows[0].n;
+  (
+    await q(
+      "SELECT count(*)::int AS n FROM plan_decisions d JOIN plan_revisions r ON r.id = d.revision_id WHERE r.plan_id = $1",
+      [planId],
+    )
+  ).rows[0].n;
 
 async function inReview() {
   const researcher = await agentAs(["researcher"]);
@@ -42,12 +47,18 @@ describe("a decision is bound to the content hash the approver read", () => {
     expect(r.body.error.code).toBe("hash_mismatch");
     expect(r.body.error.message).toContain(now.slice(0, 12));
     expect(await decisionCount(plan.id)).toBe(0);
-    const audit = await q("SELECT count(*)::int AS n FROM audit_events WHERE subject_type = 'plan' AND subject_id = $1 AND action LIKE 'decision.%'", [String(plan.id)]);
+    const audit = await q(
+      "SELECT count(*)::int AS n FROM audit_events WHERE subject_type = 'plan' AND subject_id = $1 AND action LIKE 'decision.%'",
+      [String(plan.id)],
+    );
     expect(audit.rows[0].n).toBe(0);
 
     // The hash now on screen is accepted, and that is the hash recorded.
     await post(ap, `${base}/decisions`, { decision: "approve", contentHash: now }).expect(200);
-    const rows = await q("SELECT d.signed_hash FROM plan_decisions d JOIN plan_revisions r ON r.id = d.revision_id WHERE r.plan_id = $1", [plan.id]);
+    const rows = await q(
+      "SELECT d.signed_hash FROM plan_decisions d JOIN plan_revisions r ON r.id = d.revision_id WHERE r.plan_id = $1",
+      [plan.id],
+    );
     expect(rows.rows.map((x) => x.signed_hash)).toEqual([now]);
   });
 
@@ -64,7 +75,9 @@ describe("a revision sent back cannot come back unchanged", () => {
   it("resubmitting content byte-identical to the round that was sent back answers 409 with a plain reason", async () => {
     const { researcher, plan, base } = await inReview();
     const ap = await agentAs(["approver"]);
-    await decide(ap, `${base}/decisions`, { decision: "request_changes", comment: "stage 2 batch too small" }).expect(200);
+    await decide(ap, `${base}/decisions`, { decision: "request_changes", comment: "stage 2 batch too small" }).expect(
+      200,
+    );
     const sentBack = (await researcher.get(base).expect(200)).body.contentHash as string;
     const r2 = await post(researcher, `/api/plans/${plan.id}/revisions`).expect(201);
     const again = await post(researcher, `/api/plans/${plan.id}/revisions/2/submit`);
@@ -74,7 +87,10 @@ describe("a revision sent back cannot come back unchanged", () => {
     expect((await researcher.get(`/api/plans/${plan.id}/revisions/2`).expect(200)).body.state).toBe("draft");
 
     // After a real change it goes through.
-    await put(researcher, `/api/plans/${plan.id}/revisions/2`, { version: r2.body.version, notes: "stage 2 batch raised" }).expect(200);
+    await put(researcher, `/api/plans/${plan.id}/revisions/2`, {
+      version: r2.body.version,
+      notes: "stage 2 batch raised",
+    }).expect(200);
     await post(researcher, `/api/plans/${plan.id}/revisions/2/submit`).expect(200);
   });
 });

@@ -30,7 +30,8 @@ async function approvedPair() {
 
 // RFC 8785 for a flat object of ASCII strings and integers is JSON with keys sorted and no spaces; built here by hand,
 // independently of the canonicalize package the server uses.
-const canonicalFlat = (o: Record<string, unknown>) => JSON.stringify(Object.fromEntries(Object.entries(o).sort(([x], [y]) => (x < y ? -1 : 1))));
+const canonicalFlat = (o: Record<string, unknown>) =>
+  JSON.stringify(Object.fromEntries(Object.entries(o).sort(([x], [y]) => (x < y ? -1 : 1))));
 
 describe("GET /api/signing-key", () => {
   it("serves the Ed25519 public key without sign-in; the key id is SHA-256 of its DER form, as openssl computes it", async () => {
@@ -53,14 +54,30 @@ describe("each decision is signed by the server", () => {
   it("stores an Ed25519 signature over the canonical {planId, revision, contentHash, approverId, decision, round, time}", async () => {
     const { a, ap } = await approvedPair();
     const key = (await ap.get("/api/signing-key").expect(200)).body;
-    const [row] = (await q(
-      "SELECT d.*, r.number, r.content_hash FROM plan_decisions d JOIN plan_revisions r ON r.id = d.revision_id WHERE r.plan_id = $1", [a.id],
-    )).rows;
+    const [row] = (
+      await q(
+        "SELECT d.*, r.number, r.content_hash FROM plan_decisions d JOIN plan_revisions r ON r.id = d.revision_id WHERE r.plan_id = $1",
+        [a.id],
+      )
+    ).rows;
     expect(row.key_id).toBe(key.keyId);
     const bytes = canonicalFlat({
-      planId: a.id, revision: 1, contentHash: row.content_hash, approverId: ap.user!.id, decision: "approve", round: 1, time: new Date(row.at).toISOString(),
+      planId: a.id,
+      revision: 1,
+      contentHash: row.content_hash,
+      approverId: ap.user!.id,
+      decision: "approve",
+      round: 1,
+      time: new Date(row.at).toISOString(),
     });
-    expect(crypto.verify(null, Buffer.from(bytes), crypto.createPublicKey(key.publicKeyPem), Buffer.from(row.signature, "base64"))).toBe(true);
+    expect(
+      crypto.verify(
+        null,
+        Buffer.from(bytes),
+        crypto.createPublicKey(key.publicKeyPem),
+        Buffer.from(row.signature, "base64"),
+      ),
+    ).toBe(true);
     const detail = await ap.get(`/api/plans/${a.id}`).expect(200);
     expect(detail.body.revisions[0].decisions[0]).toMatchObject({ keyId: key.keyId, signatureStatus: "valid" });
   });
@@ -70,12 +87,17 @@ describe("verify and export check hash, signed hashes and signatures", () => {
   it("content and hash copied together from another revision: verify fails, export answers 409", async () => {
     const { a, b, ap } = await approvedPair();
     const base = `/api/plans/${a.id}/revisions/1`;
-    expect((await ap.get(`${base}/verify`).expect(200)).body).toMatchObject({ ok: true, hashIntact: true, problems: [] });
+    expect((await ap.get(`${base}/verify`).expect(200)).body).toMatchObject({
+      ok: true,
+      hashIntact: true,
+      problems: [],
+    });
     await ap.get(`/api/plans/${a.id}/approved/export`).expect(200);
 
     await q(
       `UPDATE plan_revisions t SET content = s.content, content_hash = s.content_hash
-       FROM plan_revisions s WHERE s.plan_id = $2 AND s.number = 1 AND t.plan_id = $1 AND t.number = 1`, [a.id, b.id],
+       FROM plan_revisions s WHERE s.plan_id = $2 AND s.number = 1 AND t.plan_id = $1 AND t.number = 1`,
+      [a.id, b.id],
     );
     const v = (await ap.get(`${base}/verify`).expect(200)).body;
     expect(v.hashIntact).toBe(true); // the old check alone would have passed
@@ -87,7 +109,10 @@ describe("verify and export check hash, signed hashes and signatures", () => {
     expect((await ap.get(`${base}/report`).expect(200)).text).toContain("INTEGRITY CHECK FAILED");
 
     // Rewriting the signed hash as well breaks the signature.
-    await q("UPDATE plan_decisions d SET signed_hash = r.content_hash FROM plan_revisions r WHERE r.id = d.revision_id AND r.plan_id = $1", [a.id]);
+    await q(
+      "UPDATE plan_decisions d SET signed_hash = r.content_hash FROM plan_revisions r WHERE r.id = d.revision_id AND r.plan_id = $1",
+      [a.id],
+    );
     const v2 = (await ap.get(`${base}/verify`).expect(200)).body;
     expect(v2.ok).toBe(false);
     expect(v2.decisions[0].signatureStatus).toBe("invalid");
@@ -98,7 +123,10 @@ describe("verify and export check hash, signed hashes and signatures", () => {
 
   it("a decision with its signature removed fails verify and blocks the export", async () => {
     const { a, ap } = await approvedPair();
-    await q("UPDATE plan_decisions d SET signature = NULL FROM plan_revisions r WHERE r.id = d.revision_id AND r.plan_id = $1", [a.id]);
+    await q(
+      "UPDATE plan_decisions d SET signature = NULL FROM plan_revisions r WHERE r.id = d.revision_id AND r.plan_id = $1",
+      [a.id],
+    );
     const v = (await ap.get(`/api/plans/${a.id}/revisions/1/verify`).expect(200)).body;
     expect(v.ok).toBe(false);
     expect(v.decisions[0].signatureStatus).toBe("missing");
@@ -121,7 +149,10 @@ describe("the README's offline verification", () => {
     const exp = (await ap.get(`/api/plans/${a.id}/approved/export`).expect(200)).body;
     const key = (await ap.get("/api/signing-key").expect(200)).body;
     expect(exp.keyId).toBe(key.keyId);
-    expect(exp.signedBy[0]).toMatchObject({ keyId: key.keyId, payload: { planId: a.id, revision: 1, contentHash: exp.contentHash, decision: "approve" } });
+    expect(exp.signedBy[0]).toMatchObject({
+      keyId: key.keyId,
+      payload: { planId: a.id, revision: 1, contentHash: exp.contentHash, decision: "approve" },
+    });
 
     const dir = fs.mkdtempSync(path.join(os.tmpdir(), "ropewalk-offline-"));
     try {

@@ -20,7 +20,10 @@ function numbersIn(value: unknown): number[] {
 // The engine's types are the contract's (z.output); these check the values at run time.
 describe("the service's path: parse, resolve, estimate, check the response against its schema", () => {
   it("the YaRN plan round-trips", () => {
-    const parsed = budgetEstimateRequestSchema.parse({ ...plan(), stages: [{ sequenceLength: 65_536, steps: 400, globalBatch: 64 }] });
+    const parsed = budgetEstimateRequestSchema.parse({
+      ...plan(),
+      stages: [{ sequenceLength: 65_536, steps: 400, globalBatch: 64 }],
+    });
     const model = budgetModelShapeSchema.parse(parsed.model);
     const cluster = clusterSpecSchema.parse(parsed.cluster);
     const estimate = estimateBudget({ ...parsed, model, cluster });
@@ -35,11 +38,15 @@ describe("the service's path: parse, resolve, estimate, check the response again
       steps: fc.integer({ min: 1, max: 1e6 }),
     });
     fc.assert(
-      fc.property(fc.array(stage, { minLength: 1, maxLength: 32 }), fc.integer({ min: 1, max: 10_000 }), (stages, accelerators) => {
-        const estimate = estimateBudget(plan({ stages, accelerators }));
-        expect(budgetEstimateSchema.safeParse(estimate).success).toBe(true);
-        expect(numbersIn(estimate).every(Number.isFinite)).toBe(true);
-      }),
+      fc.property(
+        fc.array(stage, { minLength: 1, maxLength: 32 }),
+        fc.integer({ min: 1, max: 10_000 }),
+        (stages, accelerators) => {
+          const estimate = estimateBudget(plan({ stages, accelerators }));
+          expect(budgetEstimateSchema.safeParse(estimate).success).toBe(true);
+          expect(numbersIn(estimate).every(Number.isFinite)).toBe(true);
+        },
+      ),
       { numRuns: 50 },
     );
   });

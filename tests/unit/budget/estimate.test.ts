@@ -32,7 +32,13 @@ describe("estimateBudget on the YaRN stage (figures worked by hand in flops.test
     expect(assumptions.utilizationSource).toMatch(/assum.*common practice, no source/);
     expect(assumptions.optimizerBytesPerParameter).toBe(16);
     expect(assumptions.defaulted).toEqual(
-      expect.arrayContaining(["utilization", "convention", "recomputeFraction", "model.bytesPerElement", "model.hiddenSize"]),
+      expect.arrayContaining([
+        "utilization",
+        "convention",
+        "recomputeFraction",
+        "model.bytesPerElement",
+        "model.hiddenSize",
+      ]),
     );
     expect(assumptions.hiddenSize).toBe(4096);
     expect(assumptions.memoryModel.length).toBeGreaterThan(0);
@@ -96,7 +102,10 @@ describe("warnings", () => {
     expect(stage.fits).toBe(false);
     expect(stage.minSequenceSharding).toBe(2);
     expect(stage.warnings.join(" ")).toMatch(/sequence sharding of 2 fits/);
-    expect(estimateBudget(plan({ sequenceSharding: 2, stages: [{ sequenceLength: 524_288, steps: 10, globalBatch: 64 }] })).stages[0].fits).toBe(true);
+    expect(
+      estimateBudget(plan({ sequenceSharding: 2, stages: [{ sequenceLength: 524_288, steps: 10, globalBatch: 64 }] }))
+        .stages[0].fits,
+    ).toBe(true);
   });
 
   it("weights larger than one accelerator: 0 serving sequences and a warning", () => {

@@ -39,7 +39,11 @@ const planArb = fc.record({
   utilization: fc.double({ min: 0.01, max: 1, noNaN: true }),
   convention: fc.constantFrom("causal" as const, "full" as const),
   recomputeFraction: fc.double({ min: 0, max: 1, noNaN: true }),
-  stage: fc.record({ sequenceLength: lengthArb, steps: fc.integer({ min: 1, max: 1e5 }), globalBatch: fc.integer({ min: 1, max: 1024 }) }),
+  stage: fc.record({
+    sequenceLength: lengthArb,
+    steps: fc.integer({ min: 1, max: 1e5 }),
+    globalBatch: fc.integer({ min: 1, max: 1024 }),
+  }),
 });
 
 type PlanSample = typeof planArb extends fc.Arbitrary<infer T> ? T : never;
@@ -80,7 +84,9 @@ describe("budget invariants", () => {
     fc.assert(
       fc.property(planArb, (p) => {
         const short = estimateBudget(toInput({ ...p, stage: { ...p.stage, steps: 2 * p.stage.steps } })).stages[0];
-        const long = estimateBudget(toInput({ ...p, stage: { ...p.stage, sequenceLength: 2 * p.stage.sequenceLength } })).stages[0];
+        const long = estimateBudget(
+          toInput({ ...p, stage: { ...p.stage, sequenceLength: 2 * p.stage.sequenceLength } }),
+        ).stages[0];
         expect(long.tokens).toBe(short.tokens);
         expect(long.cost).toBeGreaterThan(short.cost);
         expect(long.flopsPerToken).toBeGreaterThan(short.flopsPerToken);
@@ -90,33 +96,46 @@ describe("budget invariants", () => {
 
   it("growth: lengths rise from the trained length to 4 × target; cost per billion tokens and attention share rise", () => {
     fc.assert(
-      fc.property(planArb, fc.integer({ min: 1, max: 2 ** 16 }), fc.integer({ min: 1, max: 64 }), (p, trained, reach) => {
-        const input = { ...toInput(p), trainedContext: trained, targetContext: trained * reach, growthPoints: 12 };
-        const growth = estimateBudget(input).growth;
-        expect(growth[0].sequenceLength).toBe(trained);
-        expect(growth.at(-1)?.sequenceLength).toBe(4 * trained * reach);
-        for (let k = 1; k < growth.length; k++) {
-          expect(growth[k].sequenceLength).toBeGreaterThan(growth[k - 1].sequenceLength);
-          expect(growth[k].costPerBillionTokens).toBeGreaterThan(growth[k - 1].costPerBillionTokens);
-          expect(growth[k].attentionShare).toBeGreaterThan(growth[k - 1].attentionShare);
-        }
-      }),
+      fc.property(
+        planArb,
+        fc.integer({ min: 1, max: 2 ** 16 }),
+        fc.integer({ min: 1, max: 64 }),
+        (p, trained, reach) => {
+          const input = { ...toInput(p), trainedContext: trained, targetContext: trained * reach, growthPoints: 12 };
+          const growth = estimateBudget(input).growth;
+          expect(growth[0].sequenceLength).toBe(trained);
+          expect(growth.at(-1)?.sequenceLength).toBe(4 * trained * reach);
+          for (let k = 1; k < growth.length; k++) {
+            expect(growth[k].sequenceLength).toBeGreaterThan(growth[k - 1].sequenceLength);
+            expect(growth[k].costPerBillionTokens).toBeGreaterThan(growth[k - 1].costPerBillionTokens);
+            expect(growth[k].attentionShare).toBeGreaterThan(growth[k - 1].attentionShare);
+          }
+        },
+      ),
     );
   });
 
   it("memory fit is monotone: what fits at a length fits at any shorter one; minSequenceSharding never falls as length grows", () => {
     const rank = (degree: number | null) => degree ?? Infinity;
     fc.assert(
-      fc.property(shapeArb, clusterArb, fc.integer({ min: 1, max: 512 }), lengthArb, lengthArb, (model, cluster, accelerators, a, b) => {
-        const [shorter, longer] = a <= b ? [a, b] : [b, a];
-        const memory = (sequenceLength: number) => trainingMemoryPerAccelerator({ model, sequenceLength, accelerators }).total;
-        if (memory(longer) <= cluster.memoryBytes) expect(memory(shorter)).toBeLessThanOrEqual(cluster.memoryBytes);
-        const min = (sequenceLength: number, bytes = cluster.memoryBytes) =>
-          rank(minSequenceSharding({ model, sequenceLength, accelerators }, bytes));
-        expect(min(shorter)).toBeLessThanOrEqual(min(longer));
-        // more memory never needs more sharding
-        expect(min(longer, 2 * cluster.memoryBytes)).toBeLessThanOrEqual(min(longer));
-      }),
+      fc.property(
+        shapeArb,
+        clusterArb,
+        fc.integer({ min: 1, max: 512 }),
+        lengthArb,
+        lengthArb,
+        (model, cluster, accelerators, a, b) => {
+          const [shorter, longer] = a <= b ? [a, b] : [b, a];
+          const memory = (sequenceLength: number) =>
+            trainingMemoryPerAccelerator({ model, sequenceLength, accelerators }).total;
+          if (memory(longer) <= cluster.memoryBytes) expect(memory(shorter)).toBeLessThanOrEqual(cluster.memoryBytes);
+          const min = (sequenceLength: number, bytes = cluster.memoryBytes) =>
+            rank(minSequenceSharding({ model, sequenceLength, accelerators }, bytes));
+          expect(min(shorter)).toBeLessThanOrEqual(min(longer));
+          // more memory never needs more sharding
+          expect(min(longer, 2 * cluster.memoryBytes)).toBeLessThanOrEqual(min(longer));
+        },
+      ),
     );
   });
 
@@ -133,14 +152,22 @@ describe("budget invariants", () => {
 
   it("totals are the sums of the stages and the last cumulative count is the total", () => {
     fc.assert(
-      fc.property(planArb, fc.array(planArb.map((p) => p.stage), { minLength: 1, maxLength: 6 }), (p, stages) => {
-        const estimate = estimateBudget({ ...toInput(p), stages });
-        const sum = (key: "tokens" | "flops" | "acceleratorHours" | "cost") => estimate.stages.reduce((t, s) => t + s[key], 0);
-        expect(estimate.totals.tokens).toBe(sum("tokens"));
-        expect(estimate.stages.at(-1)?.cumulativeTokens).toBe(estimate.totals.tokens);
-        expectRelative(estimate.totals.flops, sum("flops"));
-        expectRelative(estimate.totals.cost, sum("cost"));
-      }),
+      fc.property(
+        planArb,
+        fc.array(
+          planArb.map((p) => p.stage),
+          { minLength: 1, maxLength: 6 },
+        ),
+        (p, stages) => {
+          const estimate = estimateBudget({ ...toInput(p), stages });
+          const sum = (key: "tokens" | "flops" | "acceleratorHours" | "cost") =>
+            estimate.stages.reduce((t, s) => t + s[key], 0);
+          expect(estimate.totals.tokens).toBe(sum("tokens"));
+          expect(estimate.stages.at(-1)?.cumulativeTokens).toBe(estimate.totals.tokens);
+          expectRelative(estimate.totals.flops, sum("flops"));
+          expectRelative(estimate.totals.cost, sum("cost"));
+        },
+      ),
     );
   });
 });

@@ -61,7 +61,12 @@ describe("training memory per accelerator (stated simple model, common practice,
 
   it("a micro-batch of 2 sequences doubles activations; 4-byte elements double them again", () => {
     const one = trainingMemoryPerAccelerator({ model: SHAPE_7B, sequenceLength: 4096, accelerators: 8 });
-    const two = trainingMemoryPerAccelerator({ model: SHAPE_7B, sequenceLength: 4096, accelerators: 8, microBatchSequences: 2 });
+    const two = trainingMemoryPerAccelerator({
+      model: SHAPE_7B,
+      sequenceLength: 4096,
+      accelerators: 8,
+      microBatchSequences: 2,
+    });
     const wide = trainingMemoryPerAccelerator({
       model: { ...SHAPE_7B, bytesPerElement: 4 },
       sequenceLength: 4096,
@@ -74,7 +79,11 @@ describe("training memory per accelerator (stated simple model, common practice,
   });
 
   it("hiddenSize, when given, replaces heads × headDim in the activation term", () => {
-    const memory = trainingMemoryPerAccelerator({ model: { ...SHAPE_7B, hiddenSize: 8192 }, sequenceLength: 4096, accelerators: 1 });
+    const memory = trainingMemoryPerAccelerator({
+      model: { ...SHAPE_7B, hiddenSize: 8192 },
+      sequenceLength: 4096,
+      accelerators: 1,
+    });
     expect(memory.activations).toBe(32 * 4096 * 8192 * 2);
   });
 

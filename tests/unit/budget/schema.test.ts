@@ -31,7 +31,12 @@ describe("budget request: accepted forms", () => {
   });
 
   it("a modelId, an acceleratorId, a token-target stage, no optional fields", () => {
-    const body = { model: { modelId: 3 }, cluster: { acceleratorId: 1 }, accelerators: 8, stages: [{ sequenceLength: 32_768, tokens: 400e9, globalBatch: 128 }] };
+    const body = {
+      model: { modelId: 3 },
+      cluster: { acceleratorId: 1 },
+      accelerators: 8,
+      stages: [{ sequenceLength: 32_768, tokens: 400e9, globalBatch: 128 }],
+    };
     expect(budgetEstimateRequestSchema.safeParse(body).success).toBe(true);
   });
 
@@ -40,7 +45,10 @@ describe("budget request: accepted forms", () => {
   });
 
   it(`${MAX_BUDGET_STAGES} stages are allowed`, () => {
-    expect(budgetEstimateRequestSchema.safeParse({ ...valid, stages: Array(MAX_BUDGET_STAGES).fill(valid.stages[0]) }).success).toBe(true);
+    expect(
+      budgetEstimateRequestSchema.safeParse({ ...valid, stages: Array(MAX_BUDGET_STAGES).fill(valid.stages[0]) })
+        .success,
+    ).toBe(true);
   });
 });
 
@@ -91,7 +99,9 @@ describe("budget request: each bad input is rejected and the issue names the fie
     expect(rejectedPaths({ ...valid, accelerators: bad })).toContain("accelerators");
     expect(rejectedPaths(withStage({ steps: bad }))).toContain("stages.0.steps");
     expect(rejectedPaths(withStage({ sequenceLength: bad }))).toContain("stages.0.sequenceLength");
-    expect(rejectedPaths({ ...valid, stages: [{ sequenceLength: 4096, globalBatch: 8, tokens: bad }] })).toContain("stages.0.tokens");
+    expect(rejectedPaths({ ...valid, stages: [{ sequenceLength: 4096, globalBatch: 8, tokens: bad }] })).toContain(
+      "stages.0.tokens",
+    );
     expect(rejectedPaths({ ...valid, trainedContext: bad })).toContain("trainedContext");
     expect(rejectedPaths(withModel({ parameters: bad }))).toContain("model.parameters");
     expect(rejectedPaths({ ...valid, cluster: { ...valid.cluster, peakFlops: bad } })).toContain("cluster.peakFlops");
@@ -122,7 +132,13 @@ describe("budget request: each bad input is rejected and the issue names the fie
 });
 
 describe("accelerator catalog", () => {
-  const h = { name: "Round accelerator", memoryBytes: 80e9, peakFlops: 1e15, pricePerHour: 2, notes: "stated round figures" };
+  const h = {
+    name: "Round accelerator",
+    memoryBytes: 80e9,
+    peakFlops: 1e15,
+    pricePerHour: 2,
+    notes: "stated round figures",
+  };
 
   it("accepts a record and an input; update is partial", () => {
     expect(acceleratorSchema.safeParse({ id: 1, ...h, retiredAt: null }).success).toBe(true);

@@ -16,14 +16,22 @@ describe("budget sheet inputs", () => {
     ]) {
       const p = new URLSearchParams(q);
       const back = toSearch(modelFromSearch(p), sheetFromSearch(p));
-      expect(Object.fromEntries([...back.keys()].map((k) => [k, back.getAll(k)]))).toEqual(Object.fromEntries([...p.keys()].map((k) => [k, p.getAll(k)])));
+      expect(Object.fromEntries([...back.keys()].map((k) => [k, back.getAll(k)]))).toEqual(
+        Object.fromEntries([...p.keys()].map((k) => [k, p.getAll(k)])),
+      );
     }
   });
 
   it("a plan's stored budget block read into the sheet and written back is unchanged", () => {
     for (const block of [
       { cluster: { acceleratorId: 7 }, accelerators: 32, sequenceSharding: 2 },
-      { cluster: { peakFlops: 400e12, memoryBytes: 80 * GIB, pricePerHour: 2.5 }, accelerators: 8, utilization: 0.35, convention: "full" as const, optimizerBytesPerParameter: 12 },
+      {
+        cluster: { peakFlops: 400e12, memoryBytes: 80 * GIB, pricePerHour: 2.5 },
+        accelerators: 8,
+        utilization: 0.35,
+        convention: "full" as const,
+        optimizerBytesPerParameter: 12,
+      },
     ]) {
       expect(planBudgetFromDraft(draftFromPlanBudget(block))).toEqual(block);
     }

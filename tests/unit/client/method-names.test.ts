@@ -4,7 +4,12 @@ import { METHOD_LABELS } from "../../../client/src/features/workbench/state/meth
 import { METHOD_TOPICS } from "../../../client/src/features/workbench/explain/topics";
 import { toRequest } from "../../../client/src/features/workbench/state/to-request";
 import { defaultInputs } from "../../../client/src/features/workbench/state/inputs";
-import { METHOD_TABLE, methodLabel, methodShort, describeParams } from "../../../client/src/features/plans/lib/method-table";
+import {
+  METHOD_TABLE,
+  methodLabel,
+  methodShort,
+  describeParams,
+} from "../../../client/src/features/plans/lib/method-table";
 
 describe("workbench and plan editor read one catalog", () => {
   it("both show the catalog's name for every method, in the catalog's order", () => {
@@ -25,19 +30,43 @@ describe("workbench and plan editor read one catalog", () => {
   });
 
   it("the plan editor names parameters with the catalog's field labels", () => {
-    expect(describeParams({ method: "yarn", betaFast: 40, truncate: false })).toBe("β fast (rotations) 40, Round the ramp ends to whole pairs no");
+    expect(describeParams({ method: "yarn", betaFast: 40, truncate: false })).toBe(
+      "β fast (rotations) 40, Round the ramp ends to whole pairs no",
+    );
   });
 
   it("the workbench turns every catalog field into a request field of the same key", () => {
     for (const id of METHOD_IDS) {
       const params = Object.fromEntries(
-        METHOD_CATALOG[id].fields.map((f) => [f.key, f.kind === "boolean" ? "false" : f.kind === "list" ? "1, 1" : /betaFast|highFreqFactor/.test(f.key) ? "8" : "2"]),
+        METHOD_CATALOG[id].fields.map((f) => [
+          f.key,
+          f.kind === "boolean"
+            ? "false"
+            : f.kind === "list"
+              ? "1, 1"
+              : /betaFast|highFreqFactor/.test(f.key)
+                ? "8"
+                : "2",
+        ]),
       );
-      const inputs = { ...defaultInputs(), model: { kind: "shape" as const, headDim: "4", ropeTheta: "10000", trainedContext: "4096", partialRotaryFactor: "" }, target: "32768", methods: [{ method: id, params }] };
+      const inputs = {
+        ...defaultInputs(),
+        model: {
+          kind: "shape" as const,
+          headDim: "4",
+          ropeTheta: "10000",
+          trainedContext: "4096",
+          partialRotaryFactor: "",
+        },
+        target: "32768",
+        methods: [{ method: id, params }],
+      };
       // d = 4 (two pairs), so each list has two entries; the fast/high bounds exceed the slow/low ones.
       const { request, errors } = toRequest(inputs, null);
       expect(errors, id).toEqual({});
-      expect(Object.keys(request!.methods[0]).sort()).toEqual(["method", ...METHOD_CATALOG[id].fields.map((f) => f.key)].sort());
+      expect(Object.keys(request!.methods[0]).sort()).toEqual(
+        ["method", ...METHOD_CATALOG[id].fields.map((f) => f.key)].sort(),
+      );
     }
   });
 });

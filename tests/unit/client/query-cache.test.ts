@@ -26,7 +26,11 @@ describe("apiPaths: one name per API address", () => {
 });
 
 const profile = { id: 7, name: "Hawser 7B" } as ModelProfile;
-const request: AnalysisRequest = { model: { modelId: 7 }, targetContext: 32768, methods: [] } as unknown as AnalysisRequest;
+const request: AnalysisRequest = {
+  model: { modelId: 7 },
+  targetContext: 32768,
+  methods: [],
+} as unknown as AnalysisRequest;
 
 function seeded() {
   const client = new QueryClient();

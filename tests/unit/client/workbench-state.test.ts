@@ -22,16 +22,26 @@ describe("workbench state", () => {
     };
     expect(parseInputs(new URLSearchParams(inputsToParams(inputs).toString()))).toEqual(inputs);
     // A mangled methods param falls back to the defaults instead of breaking the page.
-    expect(parseInputs(new URLSearchParams("methods=%5B%5B%22bogus%22%5D%5D")).methods.map((m) => m.method)).toEqual(["linear", "yarn"]);
+    expect(parseInputs(new URLSearchParams("methods=%5B%5B%22bogus%22%5D%5D")).methods.map((m) => m.method)).toEqual([
+      "linear",
+      "yarn",
+    ]);
   });
 
   it("turns typed inputs into the shared analysis contract, naming each bad field like the API does", () => {
     const base: WorkbenchInputs = {
       model: { kind: "shape", headDim: "128", ropeTheta: "10000", trainedContext: "4096", partialRotaryFactor: "" },
-      target: "32768", alpha: "", beta: "", methods: [{ method: "yarn", params: { factor: "8" } }], view: 0, flaggedOnly: false,
+      target: "32768",
+      alpha: "",
+      beta: "",
+      methods: [{ method: "yarn", params: { factor: "8" } }],
+      view: 0,
+      flaggedOnly: false,
     };
     expect(toRequest(base, null).request).toEqual({
-      model: { headDim: 128, ropeTheta: 10000, trainedContext: 4096 }, targetContext: 32768, methods: [{ method: "yarn", factor: 8 }],
+      model: { headDim: 128, ropeTheta: 10000, trainedContext: 4096 },
+      targetContext: 32768,
+      methods: [{ method: "yarn", factor: 8 }],
     });
     const bad = toRequest({ ...base, target: "2048", methods: [{ method: "yarn", params: { factor: "x" } }] }, null);
     expect(bad.request).toBeNull();
@@ -43,7 +53,8 @@ describe("workbench state", () => {
   it("reads server-sent events split anywhere across chunks", () => {
     const seen: ServerEvent[] = [];
     const parser = createEventParser((e) => seen.push(e));
-    const text = 'event: progress\ndata: {"candidatesExamined":1,"total":9}\n\n: comment\nevent: result\r\ndata: {"a":\ndata: 1}\n\n';
+    const text =
+      'event: progress\ndata: {"candidatesExamined":1,"total":9}\n\n: comment\nevent: result\r\ndata: {"a":\ndata: 1}\n\n';
     for (let i = 0; i < text.length; i += 7) parser.push(text.slice(i, i + 7));
     parser.end();
     expect(seen).toEqual([

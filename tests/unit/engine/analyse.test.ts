@@ -32,7 +32,13 @@ describe("analyse()", () => {
 
   it("model-level figures: d_extra = 92 (Liu et al. 2023) and the base support of 10 000 ends at 1707 (Men et al. 2024)", () => {
     expect(res.criticalDimension).toBe(92);
-    expect(res.baseSupport).toEqual({ base: 10_000, supportedLength: 1707, checkedUpTo: 1707, complete: true, supportsTarget: false });
+    expect(res.baseSupport).toEqual({
+      base: 10_000,
+      supportedLength: 1707,
+      checkedUpTo: 1707,
+      complete: true,
+      supportsTarget: false,
+    });
     expect(res.extrapolationBound.base).toBe(10_000);
     expect(res.extrapolationBound.tuneContext).toBe(32_768);
   });
@@ -64,13 +70,21 @@ describe("analyse()", () => {
   });
 
   it("a partial rotary factor halves the pairs (d = headDim × partialRotaryFactor)", () => {
-    const r = analyse({ model: { ...model, partialRotaryFactor: 0.5 }, targetContext: 8192, methods: [{ method: "linear" }] });
+    const r = analyse({
+      model: { ...model, partialRotaryFactor: 0.5 },
+      targetContext: 8192,
+      methods: [{ method: "linear" }],
+    });
     expect(r.model.rotaryDim).toBe(64);
     expect(r.methods[0].pairs).toHaveLength(32);
   });
 
   it("the in-request base scan stops at its budget for huge bases and says so; what it reports is true", () => {
-    const r = analyse({ model: { headDim: 256, ropeTheta: 1e9, trainedContext: 8192 }, targetContext: 2 ** 31, methods: [{ method: "default" }] });
+    const r = analyse({
+      model: { headDim: 256, ropeTheta: 1e9, trainedContext: 8192 },
+      targetContext: 2 ** 31,
+      methods: [{ method: "default" }],
+    });
     expect(r.baseSupport.complete).toBe(false);
     expect(r.baseSupport.supportsTarget).toBeNull();
     expect(r.baseSupport.checkedUpTo).toBeGreaterThan(1000);

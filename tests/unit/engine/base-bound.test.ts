@@ -1,7 +1,13 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
 import { inverseFrequencies } from "../../../server/engine/frequencies";
-import { cosineSum, gridBases, scanSupportedLength, supportedLength, supportedLengthNaive } from "../../../server/engine/base-bound";
+import {
+  cosineSum,
+  gridBases,
+  scanSupportedLength,
+  supportedLength,
+  supportedLengthNaive,
+} from "../../../server/engine/base-bound";
 import { smallestSupportingBase } from "../../../server/engine/base-search";
 import { runMethod, METHODS } from "../../../server/engine";
 import type { MethodId } from "../../../shared/schemas/analysis";
@@ -13,13 +19,16 @@ describe("supported length of a base (Men et al. 2024)", () => {
     [10_000, 1707],
     [500_000, 18438],
     [1_000_000, 27115],
-  ])("d = 128, b = %d → %d (derived in docs/rotary-scaling.md; the paper's rounded table is not used)", (base, expected) => {
-    const theta = inverseFrequencies(128, base);
-    expect(supportedLength(theta, 2 ** 24)).toBe(expected);
-    expect(supportedLengthNaive(theta, expected + 1)).toBe(expected);
-    expect(cosineSum(theta, expected)).toBeLessThan(0);
-    expect(cosineSum(theta, expected - 1)).toBeGreaterThanOrEqual(0);
-  });
+  ])(
+    "d = 128, b = %d → %d (derived in docs/rotary-scaling.md; the paper's rounded table is not used)",
+    (base, expected) => {
+      const theta = inverseFrequencies(128, base);
+      expect(supportedLength(theta, 2 ** 24)).toBe(expected);
+      expect(supportedLengthNaive(theta, expected + 1)).toBe(expected);
+      expect(cosineSum(theta, expected)).toBeLessThan(0);
+      expect(cosineSum(theta, expected - 1)).toBeGreaterThanOrEqual(0);
+    },
+  );
 
   it("returns null when no position below maxLength is negative, and respects maxLength exactly", () => {
     const theta = inverseFrequencies(128, 10_000);
@@ -78,7 +87,12 @@ describe("smallest supporting base on a grid", () => {
 
   it("matches a plain scan of every candidate, on several small targets", () => {
     const grid = { from: 1e2, to: 1e6, perDecade: 50 };
-    for (const [d, target] of [[32, 500], [64, 2000], [128, 1700], [128, 4096]]) {
+    for (const [d, target] of [
+      [32, 500],
+      [64, 2000],
+      [128, 1700],
+      [128, 4096],
+    ]) {
       const fast = smallestSupportingBase(d, target, grid);
       expect(fast.smallestBase, `${d}/${target}`).toBe(naiveSearch(d, target, gridBases(grid)));
       expect(smallestSupportingBase(d, target, grid, { scan: supportedLengthNaive })).toEqual(fast);
@@ -106,7 +120,17 @@ describe("smallest supporting base on a grid", () => {
 
   it("reports progress once per candidate", () => {
     const seen: number[] = [];
-    smallestSupportingBase(64, 2000, { from: 1e2, to: 1e5, perDecade: 20 }, { onProgress: (n, total) => { seen.push(n); expect(total).toBe(61); } });
+    smallestSupportingBase(
+      64,
+      2000,
+      { from: 1e2, to: 1e5, perDecade: 20 },
+      {
+        onProgress: (n, total) => {
+          seen.push(n);
+          expect(total).toBe(61);
+        },
+      },
+    );
     expect(seen).toEqual(Array.from({ length: seen.length }, (_, i) => i + 1));
   });
 });

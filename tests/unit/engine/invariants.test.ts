@@ -3,7 +3,13 @@ import fc from "fast-check";
 import { METHODS, runMethod } from "../../../server/engine";
 import { inverseFrequencies } from "../../../server/engine/frequencies";
 import { classifyPairs } from "../../../server/engine/pairs";
-import { configPatchSchema, DEFAULT_BANDS, METHOD_IDS, methodParamsSchema, type MethodId } from "../../../shared/schemas/analysis";
+import {
+  configPatchSchema,
+  DEFAULT_BANDS,
+  METHOD_IDS,
+  methodParamsSchema,
+  type MethodId,
+} from "../../../shared/schemas/analysis";
 import { METHOD_CATALOG } from "../../../shared/methods";
 import { CTX, SAMPLE } from "./fixtures";
 
@@ -73,7 +79,13 @@ describe("relations between methods", () => {
         fc.double({ min: 1.01, max: 100, noNaN: true }),
         fc.boolean(),
         (factor, betaSlow, ratio, truncate) => {
-          const out = METHODS.yarn(CTX, { method: "yarn", factor, betaSlow, betaFast: betaSlow * ratio, truncate }).invFreq;
+          const out = METHODS.yarn(CTX, {
+            method: "yarn",
+            factor,
+            betaSlow,
+            betaFast: betaSlow * ratio,
+            truncate,
+          }).invFreq;
           theta.forEach((t, i) => {
             expect(out[i]).toBeGreaterThanOrEqual((t / factor) * (1 - 1e-12));
             expect(out[i]).toBeLessThanOrEqual(t * (1 + 1e-12));
@@ -110,7 +122,10 @@ describe("relations between methods", () => {
     fc.assert(
       fc.property(fc.integer({ min: CTX.trainedContext + 1, max: 2 ** 31 }), (target) => {
         const ctx = { ...CTX, targetContext: target };
-        const pairs = classifyPairs(theta, METHODS.linear(ctx, { method: "linear" }).invFreq, { ...window, targetContext: target });
+        const pairs = classifyPairs(theta, METHODS.linear(ctx, { method: "linear" }).invFreq, {
+          ...window,
+          targetContext: target,
+        });
         expect(pairs.some((p) => p.unseenAngles)).toBe(false);
       }),
       { numRuns: 200 },
@@ -122,12 +137,18 @@ describe("pair flags (docs/rotary-scaling.md definitions)", () => {
   const flags = (id: MethodId) => classifyPairs(theta, runMethod(CTX, SAMPLE[id]).invFreq, window);
 
   it("pairs 46-63 exceed the trained window for d = 128, b = 10 000, L = 4096 (Liu et al. 2023: 36 dimensions beyond d_extra = 92)", () => {
-    const exceeding = flags("default").filter((p) => p.exceedsTrainedWindow).map((p) => p.index);
+    const exceeding = flags("default")
+      .filter((p) => p.exceedsTrainedWindow)
+      .map((p) => p.index);
     expect(exceeding).toEqual(Array.from({ length: 18 }, (_, i) => 46 + i));
   });
 
   it("NTK-aware sets unseenAngles on low-frequency pairs 46-62; pair 63 is divided by exactly s so it stays inside (Peng et al. 2023 §3.1)", () => {
-    expect(flags("ntk").filter((p) => p.unseenAngles).map((p) => p.index)).toEqual(Array.from({ length: 17 }, (_, i) => 46 + i));
+    expect(
+      flags("ntk")
+        .filter((p) => p.unseenAngles)
+        .map((p) => p.index),
+    ).toEqual(Array.from({ length: 17 }, (_, i) => 46 + i));
   });
 
   it("default (plain extrapolation) sets unseenAngles on every pair that exceeds the trained window", () => {
@@ -137,8 +158,12 @@ describe("pair flags (docs/rotary-scaling.md definitions)", () => {
 
   it("linear compresses every spinning pair (r ≥ 32: pairs 0-20); YaRN with β_fast = β compresses none (floor(c(β)) bounds the spinning index)", () => {
     const lin = flags("linear");
-    expect(lin.filter((p) => p.compressedResolution).map((p) => p.index)).toEqual(Array.from({ length: 21 }, (_, i) => i));
-    expect(lin.filter((p) => p.band === "spinning").map((p) => p.index)).toEqual(Array.from({ length: 21 }, (_, i) => i));
+    expect(lin.filter((p) => p.compressedResolution).map((p) => p.index)).toEqual(
+      Array.from({ length: 21 }, (_, i) => i),
+    );
+    expect(lin.filter((p) => p.band === "spinning").map((p) => p.index)).toEqual(
+      Array.from({ length: 21 }, (_, i) => i),
+    );
     expect(flags("yarn").some((p) => p.compressedResolution)).toBe(false);
   });
 

@@ -21,7 +21,9 @@ describe("YaRN (Peng et al. 2023)", () => {
     // equal mscale and mscaleAllDim cancel: a = 1 (the DeepSeek-V3 configuration does this; from memory)
     expect(METHODS.yarn(ctx, { method: "yarn", mscale: 1, mscaleAllDim: 1 }).attentionFactor).toBe(1);
     expect(METHODS.yarn(ctx, { method: "yarn", mscale: 1 }).attentionFactor).toBeCloseTo(yarnMscale(40), 15);
-    expect(METHODS.yarn(ctx, { method: "yarn", attentionFactor: 0.9, mscale: 1, mscaleAllDim: 2 }).attentionFactor).toBe(0.9);
+    expect(
+      METHODS.yarn(ctx, { method: "yarn", attentionFactor: 0.9, mscale: 1, mscaleAllDim: 2 }).attentionFactor,
+    ).toBe(0.9);
   });
 
   it("ramp bounds for d = 128, b = 10 000, L = 4096 (derived by hand: c(32) = 20.94 → 20, c(1) = 45.03 → 46)", () => {
@@ -79,7 +81,10 @@ describe("LongRoPE (Ding et al. 2024)", () => {
     const shortFactor = Array.from({ length: 64 }, (_, i) => 1 + i / 100);
     const theta = inverseFrequencies(128, 1e4);
     const ext = METHODS.longrope(CTX, { method: "longrope", longFactor, shortFactor });
-    const same = METHODS.longrope({ ...CTX, targetContext: CTX.trainedContext }, { method: "longrope", longFactor, shortFactor });
+    const same = METHODS.longrope(
+      { ...CTX, targetContext: CTX.trainedContext },
+      { method: "longrope", longFactor, shortFactor },
+    );
     theta.forEach((t, i) => {
       expect(ext.invFreq[i]).toBe(t / longFactor[i]);
       expect(same.invFreq[i]).toBe(t / shortFactor[i]);

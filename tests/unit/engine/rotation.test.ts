@@ -33,6 +33,8 @@ describe("relative-position property of rotary embeddings", () => {
   it("the property is not vacuous: shifting only one side changes the product", () => {
     const theta = Array.from(runMethod(CTX, SAMPLE.default).invFreq);
     const q = Array.from({ length: CTX.d }, (_, i) => Math.sin(i + 1));
-    expect(Math.abs(dot(rotate(q, 10, theta), rotate(q, 3, theta)) - dot(rotate(q, 11, theta), rotate(q, 3, theta)))).toBeGreaterThan(1e-3);
+    expect(
+      Math.abs(dot(rotate(q, 10, theta), rotate(q, 3, theta)) - dot(rotate(q, 11, theta), rotate(q, 3, theta))),
+    ).toBeGreaterThan(1e-3);
   });
 });

@@ -7,7 +7,11 @@ const fieldsOf = (schema: { safeParse: (v: unknown) => { success: boolean; error
   const r = schema.safeParse(value);
   return r.success ? {} : issuesToFields(r.error as never);
 };
-const good = { model: { headDim: 128, ropeTheta: 10_000, trainedContext: 4096 }, targetContext: 32_768, methods: [{ method: "yarn" }] };
+const good = {
+  model: { headDim: 128, ropeTheta: 10_000, trainedContext: 4096 },
+  targetContext: 32_768,
+  methods: [{ method: "yarn" }],
+};
 
 // JSON cannot carry NaN, so these checks sit at the schema level; Infinity is also checked over HTTP (tests/api).
 describe("request schemas refuse NaN and ±Infinity, naming the field", () => {
@@ -24,14 +28,24 @@ describe("request schemas refuse NaN and ±Infinity, naming the field", () => {
 
   it("bounds: base, maxLength", () => {
     expect(fieldsOf(baseBoundRequestSchema, { rotaryDim: 128, base: NaN })).toHaveProperty("base");
-    expect(fieldsOf(baseBoundRequestSchema, { rotaryDim: 128, base: 1e4, maxLength: Infinity })).toHaveProperty("maxLength");
+    expect(fieldsOf(baseBoundRequestSchema, { rotaryDim: 128, base: 1e4, maxLength: Infinity })).toHaveProperty(
+      "maxLength",
+    );
   });
 
   it("a well-formed request passes and fills the bounds defaults", () => {
     expect(analysisRequestSchema.safeParse(good).success).toBe(true);
-    expect(baseBoundRequestSchema.parse({ rotaryDim: 64, base: 1e4 })).toEqual({ kind: "supportedLength", rotaryDim: 64, base: 1e4, maxLength: 2 ** 24 });
+    expect(baseBoundRequestSchema.parse({ rotaryDim: 64, base: 1e4 })).toEqual({
+      kind: "supportedLength",
+      rotaryDim: 64,
+      base: 1e4,
+      maxLength: 2 ** 24,
+    });
     expect(baseBoundRequestSchema.parse({ rotaryDim: 64, targetContext: 4096 })).toEqual({
-      kind: "smallestBase", rotaryDim: 64, targetContext: 4096, grid: { from: 1e3, to: 1e10, perDecade: 100 },
+      kind: "smallestBase",
+      rotaryDim: 64,
+      targetContext: 4096,
+      grid: { from: 1e3, to: 1e10, perDecade: 100 },
     });
   });
 });

@@ -20,18 +20,28 @@ const feature: ApiFeature = {
   tag: "test",
   routes: [
     route({
-      method: "get", path: "/:id", summary: "one", access: "public", params: z.object({ id: z.coerce.number().int() }),
+      method: "get",
+      path: "/:id",
+      summary: "one",
+      access: "public",
+      params: z.object({ id: z.coerce.number().int() }),
       responses: { 200: thing },
       handler: ({ params }) => ({ status: 200, body: { id: params.id, state: "draft" as const } }),
     }),
     route({
-      method: "get", path: "/:id/drifted", summary: "drifted", access: "public",
+      method: "get",
+      path: "/:id/drifted",
+      summary: "drifted",
+      access: "public",
       responses: { 200: thing },
       // The compiler would refuse `state: "lost"` here; the cast stands for data that escaped the types (a raw SQL row).
       handler: () => ({ status: 200, body: { id: 1, state: "lost" as "draft" } }),
     }),
     route({
-      method: "delete", path: "/:id", summary: "gone", access: "public",
+      method: "delete",
+      path: "/:id",
+      summary: "gone",
+      access: "public",
       responses: { 204: { contentType: null, description: "gone" } },
       handler: () => ({ status: 204, raw: null }),
     }),
@@ -45,7 +55,8 @@ function appFor(env: "test" | "development" | "production") {
   app.use(feature.prefix, mountFeature(feature, { config: { env } } as AppDeps));
   app.use((err: unknown, _req: Request, res: Response, _next: NextFunction) => {
     caught.push(err);
-    if (err instanceof HttpError) return res.status(err.status).json({ error: { code: err.code, message: err.message, fields: err.fields } });
+    if (err instanceof HttpError)
+      return res.status(err.status).json({ error: { code: err.code, message: err.message, fields: err.fields } });
     res.status(500).json({ error: { code: "internal", message: "failed" } });
   });
   return app;

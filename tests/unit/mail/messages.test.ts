@@ -1,7 +1,13 @@
 // Product wording checks (our own copy, no outside source): every message carries the link and the
 // hash, subjects stay one bounded line, comments are quoted, and "ready" states what the export is.
 import { describe, expect, it } from "vitest";
-import { approvedMail, changesRequestedMail, planReadyMail, reviewRequestedMail, type PlanMailInput } from "../../../server/mail/messages";
+import {
+  approvedMail,
+  changesRequestedMail,
+  planReadyMail,
+  reviewRequestedMail,
+  type PlanMailInput,
+} from "../../../server/mail/messages";
 
 const input: PlanMailInput = {
   planId: 12,

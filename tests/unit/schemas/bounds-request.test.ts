@@ -7,7 +7,13 @@ import { fieldsOf } from "./fields";
 describe("POST /api/bounds/base body: every bad input names its field", () => {
   it("both well-formed shapes name nothing", () => {
     expect(fieldsOf(baseBoundRequestSchema, { rotaryDim: 128, base: 10_000, maxLength: 4096 })).toEqual([]);
-    expect(fieldsOf(baseBoundRequestSchema, { rotaryDim: 128, targetContext: 4096, grid: { from: 1e3, to: 1e4, perDecade: 10 } })).toEqual([]);
+    expect(
+      fieldsOf(baseBoundRequestSchema, {
+        rotaryDim: 128,
+        targetContext: 4096,
+        grid: { from: 1e3, to: 1e4, perDecade: 10 },
+      }),
+    ).toEqual([]);
   });
 
   it.each([
@@ -20,9 +26,21 @@ describe("POST /api/bounds/base body: every bad input names its field", () => {
     ["both base and target", { rotaryDim: 128, base: 10_000, targetContext: 4096 }, "targetContext"],
     ["a grid given with a base", { rotaryDim: 128, base: 10_000, grid: { from: 1e3, to: 1e4, perDecade: 10 } }, "grid"],
     ["maxLength given with a target", { rotaryDim: 128, targetContext: 4096, maxLength: 8192 }, "maxLength"],
-    ["grid upside down", { rotaryDim: 128, targetContext: 4096, grid: { from: 1e6, to: 1e4, perDecade: 10 } }, "grid.to"],
-    ["grid with a fractional step count", { rotaryDim: 128, targetContext: 4096, grid: { from: 1e3, to: 1e4, perDecade: 2.5 } }, "grid.perDecade"],
-    ["grid too fine", { rotaryDim: 128, targetContext: 4096, grid: { from: 1e3, to: 1e15, perDecade: 1000 } }, "grid.perDecade"],
+    [
+      "grid upside down",
+      { rotaryDim: 128, targetContext: 4096, grid: { from: 1e6, to: 1e4, perDecade: 10 } },
+      "grid.to",
+    ],
+    [
+      "grid with a fractional step count",
+      { rotaryDim: 128, targetContext: 4096, grid: { from: 1e3, to: 1e4, perDecade: 2.5 } },
+      "grid.perDecade",
+    ],
+    [
+      "grid too fine",
+      { rotaryDim: 128, targetContext: 4096, grid: { from: 1e3, to: 1e15, perDecade: 1000 } },
+      "grid.perDecade",
+    ],
   ])("%s", (_label, body, field) => {
     expect(fieldsOf(baseBoundRequestSchema, body)).toContain(field);
   });

@@ -1,12 +1,12 @@
 import { useState } from "react";
 import { Navigate, Outlet, useLocation, useNavigate } from "react-router-dom";
-import { AppShell } from "../../components/app-shell";
-import { Button } from "../../components/button";
-import { ErrorView } from "../../components/error-view";
-import { Loading } from "../../components/notice";
-import { paths } from "../../config/paths";
-import { useLogout } from "../../features/auth/api/logout";
-import { useSession } from "../../features/auth/hooks/use-session";
+import { AppShell } from "@/components/app-shell";
+import { Button } from "@/components/button";
+import { ErrorView } from "@/components/error-view";
+import { Loading } from "@/components/notice";
+import { paths } from "@/config/paths";
+import { useLogout } from "@/features/auth/api/logout";
+import { useSession } from "@/features/auth/hooks/use-session";
 import { visibleNav } from "../nav";
 import { NavStrand } from "./nav-strand";
 
@@ -19,11 +19,20 @@ export function AppLayout() {
   // Set before logging out, so the redirect after an explicit sign-out carries no "back to".
   const [signingOut, setSigningOut] = useState(false);
 
-  if (session.isPending) return <AppShell homeHref={paths.home()}><Loading /></AppShell>;
+  if (session.isPending)
+    return (
+      <AppShell homeHref={paths.home()}>
+        <Loading />
+      </AppShell>
+    );
   if (session.isError) {
     return (
       <AppShell homeHref={paths.home()}>
-        <ErrorView title="Ropewalk is not answering" message={session.error.message} action={<Button onClick={() => session.refetch()}>Try again</Button>} />
+        <ErrorView
+          title="Ropewalk is not answering"
+          message={session.error.message}
+          action={<Button onClick={() => session.refetch()}>Try again</Button>}
+        />
       </AppShell>
     );
   }

@@ -1,9 +1,9 @@
 import type { ReactNode } from "react";
 import { Link } from "react-router-dom";
-import { ErrorView } from "../../components/error-view";
-import { formatList, roleLabel } from "../../lib/format";
-import { paths } from "../../config/paths";
-import { useCurrentUser } from "../../features/auth/hooks/use-session";
+import { ErrorView } from "@/components/error-view";
+import { formatList, roleLabel } from "@/lib/format";
+import { paths } from "@/config/paths";
+import { useCurrentUser } from "@/features/auth/hooks/use-session";
 import { audienceOf, canSee, NAV, type NavId } from "../nav";
 
 /**
@@ -24,7 +24,8 @@ export function RoleGate({ screen, children }: { screen: NavId; children: ReactN
       message={
         <>
           <p>
-            {label} is not allowed for your roles ({formatList(user.roles.map(roleLabel))}). It needs the {formatList(needed)} role.
+            {label} is not allowed for your roles ({formatList(user.roles.map(roleLabel))}). It needs the{" "}
+            {formatList(needed)} role.
           </p>
           <p className="mt-2 text-body">If you need it, ask an admin to add the role to your account.</p>
         </>

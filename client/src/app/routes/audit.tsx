@@ -1,14 +1,14 @@
 import { useQuery } from "@tanstack/react-query";
-import { auditQuerySchema } from "../../../../shared/schemas/audit";
-import { Page, Panel } from "../../components/page";
-import { Loading, Notice } from "../../components/notice";
-import { useSearchState } from "../../lib/search-state";
-import { auditQueries } from "../../features/audit/api/queries";
-import { useCurrentUser } from "../../features/auth/hooks/use-session";
-import { AuditFilters } from "../../features/audit/components/audit-filters";
-import { ChainStatus } from "../../features/audit/components/chain-status";
-import { AuditTable } from "../../features/audit/components/audit-table";
-import { Pager } from "../../features/plans/components/pager";
+import { auditQuerySchema } from "@shared/schemas/audit";
+import { Page, Panel } from "@/components/page";
+import { Loading, Notice } from "@/components/notice";
+import { useSearchState } from "@/lib/search-state";
+import { auditQueries } from "@/features/audit/api/queries";
+import { useCurrentUser } from "@/features/auth/hooks/use-session";
+import { AuditFilters } from "@/features/audit/components/audit-filters";
+import { ChainStatus } from "@/features/audit/components/chain-status";
+import { AuditTable } from "@/features/audit/components/audit-table";
+import { Pager } from "@/features/plans/components/pager";
 
 const DEFAULT_PAGE_SIZE = 50;
 
@@ -17,7 +17,10 @@ export function AuditRoute() {
   const page = useQuery(auditQueries.page(params));
   const user = useCurrentUser();
   return (
-    <Page title="Audit" lead="Every recorded action, newest first: who did what to which plan, token or account. The trail is append-only.">
+    <Page
+      title="Audit"
+      lead="Every recorded action, newest first: who did what to which plan, token or account. The trail is append-only."
+    >
       {user.roles.includes("admin") && (
         <Panel title="Seals">
           <ChainStatus />
@@ -25,10 +28,18 @@ export function AuditRoute() {
       )}
       <Panel title="Filter">
         <AuditFilters params={params} onChange={update} />
-        {params.actorId && <p className="mt-2 text-note text-ink-soft">Showing one person’s actions only (clear the filters to see everyone’s).</p>}
+        {params.actorId && (
+          <p className="mt-2 text-note text-ink-soft">
+            Showing one person’s actions only (clear the filters to see everyone’s).
+          </p>
+        )}
       </Panel>
       {page.isPending && <Loading label="Loading the trail…" />}
-      {page.isError && <Notice tone="alert" title="Could not load the audit trail">{page.error.message}</Notice>}
+      {page.isError && (
+        <Notice tone="alert" title="Could not load the audit trail">
+          {page.error.message}
+        </Notice>
+      )}
       {page.data && (
         <div className="flex flex-col gap-3">
           <AuditTable
@@ -37,7 +48,13 @@ export function AuditRoute() {
             onActor={(actorId) => update({ actorId })}
             onSubject={(subjectType, subjectId) => update({ subjectType, subjectId })}
           />
-          <Pager page={page.data.page} pageSize={params.pageSize ?? DEFAULT_PAGE_SIZE} total={page.data.total} onPage={(p) => update({ page: p })} noun="Events" />
+          <Pager
+            page={page.data.page}
+            pageSize={params.pageSize ?? DEFAULT_PAGE_SIZE}
+            total={page.data.total}
+            onPage={(p) => update({ page: p })}
+            noun="Events"
+          />
         </div>
       )}
     </Page>

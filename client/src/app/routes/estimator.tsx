@@ -1,14 +1,14 @@
 import { useQuery } from "@tanstack/react-query";
 import { useSearchParams } from "react-router-dom";
-import { Page } from "../../components/page";
-import { modelsQueries } from "../../lib/api/models";
-import { acceleratorsQuery } from "../../features/accelerators/api/list-accelerators";
-import { BudgetSheet } from "../../features/budgets/components/budget-sheet";
-import { ModelPicker } from "../../features/budgets/components/model-picker";
-import { estimatorContext } from "../../features/budgets/lib/estimator-context";
-import { modelRequest, type ModelDraft } from "../../features/budgets/lib/model-draft";
-import type { SheetDraft } from "../../features/budgets/lib/sheet-draft";
-import { modelFromSearch, sheetFromSearch, toSearch } from "../../features/budgets/lib/url-state";
+import { Page } from "@/components/page";
+import { modelsQueries } from "@/lib/api/models";
+import { acceleratorsQuery } from "@/features/accelerators/api/list-accelerators";
+import { BudgetSheet } from "@/features/budgets/components/budget-sheet";
+import { ModelPicker } from "@/features/budgets/components/model-picker";
+import { estimatorContext } from "@/features/budgets/lib/estimator-context";
+import { modelRequest, type ModelDraft } from "@/features/budgets/lib/model-draft";
+import type { SheetDraft } from "@/features/budgets/lib/sheet-draft";
+import { modelFromSearch, sheetFromSearch, toSearch } from "@/features/budgets/lib/url-state";
 
 /** The budget sheet on its own: any model, any cluster, no plan. Every input lives in the URL, so a link reproduces the figures. */
 export function EstimatorRoute() {
@@ -34,7 +34,9 @@ export function EstimatorRoute() {
         context={context}
         accelerators={accelerators.data ?? []}
         csvName="ropewalk-estimate.csv"
-        modelPanel={(issues) => <ModelPicker value={model} onChange={(m) => write(m, sheet)} profiles={profiles.data ?? []} issues={issues} />}
+        modelPanel={(issues) => (
+          <ModelPicker value={model} onChange={(m) => write(m, sheet)} profiles={profiles.data ?? []} issues={issues} />
+        )}
       />
     </Page>
   );

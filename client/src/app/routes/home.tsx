@@ -1,20 +1,35 @@
 import { Link } from "react-router-dom";
-import { ROLES, type Role } from "../../../../shared/schemas/common";
-import { Page, Panel } from "../../components/page";
-import { Chip } from "../../components/notice";
-import { roleLabel } from "../../lib/format";
-import { paths } from "../../config/paths";
-import { useCurrentUser } from "../../features/auth/hooks/use-session";
+import { ROLES, type Role } from "@shared/schemas/common";
+import { Page, Panel } from "@/components/page";
+import { Chip } from "@/components/notice";
+import { roleLabel } from "@/lib/format";
+import { paths } from "@/config/paths";
+import { useCurrentUser } from "@/features/auth/hooks/use-session";
 
 type Pointer = { text: string; link?: { to: string; label: string } };
 
 /** What each role does here, with the screen to start from. */
 const POINTERS: Record<Role, Pointer> = {
-  admin: { text: "Add colleagues, give them roles, and deactivate accounts that should no longer sign in.", link: { to: paths.users(), label: "Manage users" } },
-  researcher: { text: "Import a model's configuration, compare rescaling methods pair by pair in the workbench, and draft a staged plan for review.", link: { to: paths.modelImport(), label: "Import a config.json" } },
-  infra: { text: "Keep the accelerator catalog, and size the tokens, hours, cost and memory of each stage before anyone signs.", link: { to: paths.estimator(), label: "Open the estimator" } },
-  approver: { text: "Review submitted plans, question the figures, and sign the exact revision (its hash) that is ready for a tuning run.", link: { to: paths.review(), label: "Open the review queue" } },
-  viewer: { text: "Read plans, their figures and who signed them.", link: { to: paths.plans(), label: "Browse plans" } },
+  admin: {
+    text: "Add colleagues, give them roles, and deactivate accounts that should no longer sign in.",
+    link: { to: paths.users(), label: "Manage users" },
+  },
+  researcher: {
+    text: "Import a model's configuration, compare rescaling methods pair by pair in the workbench, and draft a staged plan for review.",
+    link: { to: paths.modelImport(), label: "Import a config.json" },
+  },
+  infra: {
+    text: "Keep the accelerator catalog, and size the tokens, hours, cost and memory of each stage before anyone signs.",
+    link: { to: paths.estimator(), label: "Open the estimator" },
+  },
+  approver: {
+    text: "Review submitted plans, question the figures, and sign the exact revision (its hash) that is ready for a tuning run.",
+    link: { to: paths.review(), label: "Open the review queue" },
+  },
+  viewer: {
+    text: "Read plans, their figures and who signed them.",
+    link: { to: paths.plans(), label: "Browse plans" },
+  },
 };
 
 export function HomeRoute() {
@@ -38,7 +53,10 @@ export function HomeRoute() {
             <Panel key={role} title={`As ${roleLabel(role).toLowerCase()}`}>
               <p className="text-body text-ink">{pointer.text}</p>
               {pointer.link && (
-                <Link to={pointer.link.to} className="mt-3 inline-block text-body font-medium text-seaglass underline underline-offset-4">
+                <Link
+                  to={pointer.link.to}
+                  className="mt-3 inline-block text-body font-medium text-seaglass underline underline-offset-4"
+                >
                   {pointer.link.label}
                 </Link>
               )}

@@ -1,14 +1,14 @@
 import { useState } from "react";
 import { useQuery } from "@tanstack/react-query";
-import { Button } from "../../components/button";
-import { TextField } from "../../components/field";
-import { Page, Panel } from "../../components/page";
-import { Loading, Notice } from "../../components/notice";
-import { useDebouncedText } from "../../lib/search-state";
-import { useDeliverMail } from "../../features/mail/api/deliver-mail";
-import { mailQueries } from "../../features/mail/api/queries";
-import { MailMessages } from "../../features/mail/components/mail-messages";
-import { OutboxTable } from "../../features/mail/components/outbox-table";
+import { Button } from "@/components/button";
+import { TextField } from "@/components/field";
+import { Page, Panel } from "@/components/page";
+import { Loading, Notice } from "@/components/notice";
+import { useDebouncedText } from "@/lib/search-state";
+import { useDeliverMail } from "@/features/mail/api/deliver-mail";
+import { mailQueries } from "@/features/mail/api/queries";
+import { MailMessages } from "@/features/mail/components/mail-messages";
+import { OutboxTable } from "@/features/mail/components/outbox-table";
 
 export function MailRoute() {
   const [q, setQ] = useState("");
@@ -23,23 +23,41 @@ export function MailRoute() {
       onSuccess: (r) =>
         setResult({
           tone: r.failed ? "alert" : "success",
-          text: r.sent + r.failed === 0 ? "Nothing was due." : `Sent ${r.sent}${r.failed ? `; ${r.failed} failed and will be retried later (see Last error)` : ""}.`,
+          text:
+            r.sent + r.failed === 0
+              ? "Nothing was due."
+              : `Sent ${r.sent}${r.failed ? `; ${r.failed} failed and will be retried later (see Last error)` : ""}.`,
         }),
       onError: (e) => setResult({ tone: "alert", text: e.message }),
     });
   };
 
   return (
-    <Page title="Mail" lead="What Ropewalk sent: the local sink’s received messages and the outbox with each delivery’s state. Workflow mail is queued with the change that caused it.">
+    <Page
+      title="Mail"
+      lead="What Ropewalk sent: the local sink’s received messages and the outbox with each delivery’s state. Workflow mail is queued with the change that caused it."
+    >
       {result && <Notice tone={result.tone}>{result.text}</Notice>}
       <div className="flex flex-wrap items-end justify-between gap-3">
         <div className="min-w-72">
-          <TextField label="Search received mail" hint="Subject or recipient" type="search" value={text} onChange={(e) => setText(e.target.value)} />
+          <TextField
+            label="Search received mail"
+            hint="Subject or recipient"
+            type="search"
+            value={text}
+            onChange={(e) => setText(e.target.value)}
+          />
         </div>
-        <Button onClick={deliverNow} busy={deliver.isPending}>Deliver due mail now</Button>
+        <Button onClick={deliverNow} busy={deliver.isPending}>
+          Deliver due mail now
+        </Button>
       </div>
       {mail.isPending && <Loading label="Loading mail…" />}
-      {mail.isError && <Notice tone="alert" title="Could not load mail">{mail.error.message}</Notice>}
+      {mail.isError && (
+        <Notice tone="alert" title="Could not load mail">
+          {mail.error.message}
+        </Notice>
+      )}
       {mail.data && (
         <>
           <Panel title={`Received (${mail.data.messages.length})`}>

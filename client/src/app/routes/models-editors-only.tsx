@@ -1,6 +1,6 @@
 import { Link } from "react-router-dom";
-import { ErrorView } from "../../components/error-view";
-import { paths } from "../../config/paths";
+import { ErrorView } from "@/components/error-view";
+import { paths } from "@/config/paths";
 
 /** Shown instead of the create/import screens to roles that may only read profiles. */
 export function ProfileEditorsOnly() {

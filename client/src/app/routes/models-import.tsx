@@ -1,8 +1,8 @@
 import { useNavigate } from "react-router-dom";
-import { Page, Panel } from "../../components/page";
-import { paths } from "../../config/paths";
-import { useCurrentUser } from "../../features/auth/hooks/use-session";
-import { canEditProfiles, ImportConfig } from "../../features/models";
+import { Page, Panel } from "@/components/page";
+import { paths } from "@/config/paths";
+import { useCurrentUser } from "@/features/auth/hooks/use-session";
+import { canEditProfiles, ImportConfig } from "@/features/models";
 import { ProfileEditorsOnly } from "./models-editors-only";
 
 export function ModelImportRoute() {

@@ -1,13 +1,14 @@
 import { Link } from "react-router-dom";
 import { useQuery } from "@tanstack/react-query";
-import { Loading, Notice } from "../../components/notice";
-import { Page, Panel } from "../../components/page";
-import { paths } from "../../config/paths";
-import { useCurrentUser } from "../../features/auth/hooks/use-session";
-import { canEditProfiles, ModelsTable } from "../../features/models";
-import { modelsQueries } from "../../lib/api/models";
+import { Loading, Notice } from "@/components/notice";
+import { Page, Panel } from "@/components/page";
+import { paths } from "@/config/paths";
+import { useCurrentUser } from "@/features/auth/hooks/use-session";
+import { canEditProfiles, ModelsTable } from "@/features/models";
+import { modelsQueries } from "@/lib/api/models";
 
-const linkButton = "inline-flex items-center rounded-md border px-4 py-2 text-body font-medium no-underline transition-colors";
+const linkButton =
+  "inline-flex items-center rounded-md border px-4 py-2 text-body font-medium no-underline transition-colors";
 
 export function ModelsRoute() {
   const user = useCurrentUser();
@@ -23,7 +24,10 @@ export function ModelsRoute() {
           <Link to={paths.modelImport()} className={`${linkButton} border-hemp bg-hemp text-paper hover:bg-hemp-dark`}>
             Import config.json
           </Link>
-          <Link to={paths.modelNew()} className={`${linkButton} border-rule-strong bg-paper text-ink hover:border-hemp`}>
+          <Link
+            to={paths.modelNew()}
+            className={`${linkButton} border-rule-strong bg-paper text-ink hover:border-hemp`}
+          >
             Type a profile in
           </Link>
         </div>
@@ -32,7 +36,9 @@ export function ModelsRoute() {
         {models.isPending ? (
           <Loading label="Loading profiles…" />
         ) : models.isError ? (
-          <Notice tone="alert" title="Could not load profiles">{models.error.message}</Notice>
+          <Notice tone="alert" title="Could not load profiles">
+            {models.error.message}
+          </Notice>
         ) : (
           <ModelsTable models={models.data} />
         )}

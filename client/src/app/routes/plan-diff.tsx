@@ -1,11 +1,11 @@
 import { Link, useParams, useSearchParams } from "react-router-dom";
 import { useQuery } from "@tanstack/react-query";
-import { SelectField } from "../../components/field";
-import { Page } from "../../components/page";
-import { Loading, Notice } from "../../components/notice";
-import { paths } from "../../config/paths";
-import { plansQueries } from "../../features/plans/api/queries";
-import { DiffView } from "../../features/plans/components/diff-view";
+import { SelectField } from "@/components/field";
+import { Page } from "@/components/page";
+import { Loading, Notice } from "@/components/notice";
+import { paths } from "@/config/paths";
+import { plansQueries } from "@/features/plans/api/queries";
+import { DiffView } from "@/features/plans/components/diff-view";
 
 export function PlanDiffRoute() {
   const id = Number(useParams().id);
@@ -28,21 +28,42 @@ export function PlanDiffRoute() {
   return (
     <Page
       title={plan.data ? `${plan.data.title}: what changed` : "What changed"}
-      lead={<Link className="text-seaglass underline underline-offset-4" to={paths.plan(id)}>Back to the plan</Link>}
+      lead={
+        <Link className="text-seaglass underline underline-offset-4" to={paths.plan(id)}>
+          Back to the plan
+        </Link>
+      }
     >
-      {plan.isError && <Notice tone="alert" title="Could not load the plan">{plan.error.message}</Notice>}
+      {plan.isError && (
+        <Notice tone="alert" title="Could not load the plan">
+          {plan.error.message}
+        </Notice>
+      )}
       {plan.data && (
         <div className="grid max-w-md grid-cols-2 gap-3">
           {(["a", "b"] as const).map((key) => (
-            <SelectField key={key} label={key === "a" ? "From revision" : "To revision"} value={key === "a" ? a : b} onChange={(e) => pick(key, e.target.value)}>
-              {numbers.map((n) => <option key={n} value={n}>Revision {n}</option>)}
+            <SelectField
+              key={key}
+              label={key === "a" ? "From revision" : "To revision"}
+              value={key === "a" ? a : b}
+              onChange={(e) => pick(key, e.target.value)}
+            >
+              {numbers.map((n) => (
+                <option key={n} value={n}>
+                  Revision {n}
+                </option>
+              ))}
             </SelectField>
           ))}
         </div>
       )}
       {a === b && <Notice>Pick two different revisions to compare.</Notice>}
       {diff.isPending && a !== b && <Loading label="Comparing…" />}
-      {diff.isError && <Notice tone="alert" title="Could not compare">{diff.error.message}</Notice>}
+      {diff.isError && (
+        <Notice tone="alert" title="Could not compare">
+          {diff.error.message}
+        </Notice>
+      )}
       {diff.data && <DiffView diff={diff.data} />}
     </Page>
   );

@@ -1,26 +1,26 @@
 import { useState } from "react";
 import { Link, useParams, useSearchParams } from "react-router-dom";
 import { useQuery } from "@tanstack/react-query";
-import type { RevisionContent } from "../../../../shared/schemas/plan-responses";
-import { ErrorView } from "../../components/error-view";
-import { Page, Panel } from "../../components/page";
-import { Loading, Notice } from "../../components/notice";
-import { paths } from "../../config/paths";
-import { formatDateTime } from "../../lib/format";
-import { useCurrentUser } from "../../features/auth/hooks/use-session";
-import { plansQueries } from "../../features/plans/api/queries";
-import { useRefreshPlan } from "../../features/plans/api/workflow";
-import { AcceptanceList } from "../../features/plans/components/acceptance-list";
-import { BudgetPanel } from "../../features/plans/components/budget-panel";
-import { DecisionsList } from "../../features/plans/components/decisions-list";
-import { FlagsSummary } from "../../features/plans/components/flags-summary";
-import { PlanActions } from "../../features/plans/components/plan-actions";
-import { PlanFacts } from "../../features/plans/components/plan-header";
-import { RevisionInputs } from "../../features/plans/components/revision-inputs";
-import { RevisionTimeline } from "../../features/plans/components/revision-timeline";
-import { StagesTable } from "../../features/plans/components/stages-table";
-import { VerifyStatus } from "../../features/plans/components/verify-status";
-import { DecisionDialog } from "../../features/review/components/decision-dialog";
+import type { RevisionContent } from "@shared/schemas/plan-responses";
+import { ErrorView } from "@/components/error-view";
+import { Page, Panel } from "@/components/page";
+import { Loading, Notice } from "@/components/notice";
+import { paths } from "@/config/paths";
+import { formatDateTime } from "@/lib/format";
+import { useCurrentUser } from "@/features/auth/hooks/use-session";
+import { plansQueries } from "@/features/plans/api/queries";
+import { useRefreshPlan } from "@/features/plans/api/workflow";
+import { AcceptanceList } from "@/features/plans/components/acceptance-list";
+import { BudgetPanel } from "@/features/plans/components/budget-panel";
+import { DecisionsList } from "@/features/plans/components/decisions-list";
+import { FlagsSummary } from "@/features/plans/components/flags-summary";
+import { PlanActions } from "@/features/plans/components/plan-actions";
+import { PlanFacts } from "@/features/plans/components/plan-header";
+import { RevisionInputs } from "@/features/plans/components/revision-inputs";
+import { RevisionTimeline } from "@/features/plans/components/revision-timeline";
+import { StagesTable } from "@/features/plans/components/stages-table";
+import { VerifyStatus } from "@/features/plans/components/verify-status";
+import { DecisionDialog } from "@/features/review/components/decision-dialog";
 import { RevisionCharts } from "./plan-charts";
 
 const flagRows = (content: RevisionContent) => [
@@ -42,7 +42,18 @@ export function PlanRoute() {
   const verify = useQuery({ ...plansQueries.verify(id, n), enabled: n > 0 });
 
   if (plan.isError) {
-    return <ErrorView title="Plan not found" message={plan.error.message} testId="plan-error" action={<Link className="text-seaglass underline underline-offset-4" to={paths.plans()}>Back to plans</Link>} />;
+    return (
+      <ErrorView
+        title="Plan not found"
+        message={plan.error.message}
+        testId="plan-error"
+        action={
+          <Link className="text-seaglass underline underline-offset-4" to={paths.plans()}>
+            Back to plans
+          </Link>
+        }
+      />
+    );
   }
   if (!plan.data) return <Loading label="Loading plan…" />;
   const p = plan.data;
@@ -54,14 +65,33 @@ export function PlanRoute() {
       <PlanFacts plan={p} />
       {notice && <Notice tone="success">{notice}</Notice>}
       <VerifyStatus result={verify.data} error={verify.error} />
-      <PlanActions plan={p} revision={summary} user={user} intact={verify.data?.ok === true} onDecide={() => setDeciding(true)} />
+      <PlanActions
+        plan={p}
+        revision={summary}
+        user={user}
+        intact={verify.data?.ok === true}
+        onDecide={() => setDeciding(true)}
+      />
       {deciding && (
         <DecisionDialog
-          target={{ planId: p.id, title: p.title, revision: n, contentHash: summary.contentHash, approvals: summary.approvals, requiredApprovals: p.effectiveRequiredApprovals }}
+          target={{
+            planId: p.id,
+            title: p.title,
+            revision: n,
+            contentHash: summary.contentHash,
+            approvals: summary.approvals,
+            requiredApprovals: p.effectiveRequiredApprovals,
+          }}
           onClose={() => setDeciding(false)}
           onDecided={(state) => {
             setDeciding(false);
-            setNotice(state === "approved" ? `Revision ${n} is approved and signed.` : state === "in_review" ? "Your approval is recorded; the revision waits for more." : "Sent back to its author for changes.");
+            setNotice(
+              state === "approved"
+                ? `Revision ${n} is approved and signed.`
+                : state === "in_review"
+                  ? "Your approval is recorded; the revision waits for more."
+                  : "Sent back to its author for changes.",
+            );
             void refreshPlan(p.id);
           }}
         />
@@ -71,18 +101,40 @@ export function PlanRoute() {
           <h2 className="text-title font-semibold">Revisions</h2>
           <RevisionTimeline planId={p.id} revisions={p.revisions} selected={n} />
           {p.revisions.length > 1 && (
-            <Link className="text-body text-seaglass underline underline-offset-4" to={paths.planDiff(p.id, n > 1 ? n - 1 : 1, n > 1 ? n : 2)}>
+            <Link
+              className="text-body text-seaglass underline underline-offset-4"
+              to={paths.planDiff(p.id, n > 1 ? n - 1 : 1, n > 1 ? n : 2)}
+            >
               Compare revisions
             </Link>
           )}
         </aside>
         <div className="flex min-w-0 flex-col gap-6" data-testid="revision-view">
-          <Panel title={`Revision ${n}`} aside={<span className="text-note text-ink-soft">{summary.author?.name} · {formatDateTime(summary.createdAt)}{summary.submittedAt && ` · submitted ${formatDateTime(summary.submittedAt)}`}</span>}>
+          <Panel
+            title={`Revision ${n}`}
+            aside={
+              <span className="text-note text-ink-soft">
+                {summary.author?.name} · {formatDateTime(summary.createdAt)}
+                {summary.submittedAt && ` · submitted ${formatDateTime(summary.submittedAt)}`}
+              </span>
+            }
+          >
             <p className="mb-4 text-note break-all text-ink-soft">
-              Content hash <code className="text-ink" data-testid="content-hash">{summary.contentHash}</code>
+              Content hash{" "}
+              <code className="text-ink" data-testid="content-hash">
+                {summary.contentHash}
+              </code>
             </p>
-            {revision.isError && <Notice tone="alert" title="Could not load this revision">{revision.error.message}</Notice>}
-            {content ? <RevisionInputs content={content} /> : !revision.isError && <Loading label="Loading revision…" />}
+            {revision.isError && (
+              <Notice tone="alert" title="Could not load this revision">
+                {revision.error.message}
+              </Notice>
+            )}
+            {content ? (
+              <RevisionInputs content={content} />
+            ) : (
+              !revision.isError && <Loading label="Loading revision…" />
+            )}
           </Panel>
           {content && (
             <>
@@ -105,8 +157,19 @@ export function PlanRoute() {
               )}
             </>
           )}
-          <Panel title="Decisions" aside={<span className="text-note text-ink-soft">{summary.approvals} of {p.effectiveRequiredApprovals} approvals this round</span>}>
-            <DecisionsList decisions={summary.decisions} currentRound={summary.round} contentHash={summary.contentHash} />
+          <Panel
+            title="Decisions"
+            aside={
+              <span className="text-note text-ink-soft">
+                {summary.approvals} of {p.effectiveRequiredApprovals} approvals this round
+              </span>
+            }
+          >
+            <DecisionsList
+              decisions={summary.decisions}
+              currentRound={summary.round}
+              contentHash={summary.contentHash}
+            />
           </Panel>
         </div>
       </div>

@@ -1,16 +1,16 @@
 import { Link } from "react-router-dom";
 import { useQuery } from "@tanstack/react-query";
-import { planListQuerySchema } from "../../../../shared/schemas/plans";
-import { Page, Panel } from "../../components/page";
-import { Loading, Notice } from "../../components/notice";
-import { paths } from "../../config/paths";
-import { modelsQueries } from "../../lib/api/models";
-import { useSearchState } from "../../lib/search-state";
-import { useCurrentUser } from "../../features/auth/hooks/use-session";
-import { plansQueries } from "../../features/plans/api/queries";
-import { PlanFilters } from "../../features/plans/components/plan-filters";
-import { PlansTable } from "../../features/plans/components/plans-table";
-import { Pager } from "../../features/plans/components/pager";
+import { planListQuerySchema } from "@shared/schemas/plans";
+import { Page, Panel } from "@/components/page";
+import { Loading, Notice } from "@/components/notice";
+import { paths } from "@/config/paths";
+import { modelsQueries } from "@/lib/api/models";
+import { useSearchState } from "@/lib/search-state";
+import { useCurrentUser } from "@/features/auth/hooks/use-session";
+import { plansQueries } from "@/features/plans/api/queries";
+import { PlanFilters } from "@/features/plans/components/plan-filters";
+import { PlansTable } from "@/features/plans/components/plans-table";
+import { Pager } from "@/features/plans/components/pager";
 
 const DEFAULT_PAGE_SIZE = 20;
 
@@ -24,13 +24,20 @@ export function PlansRoute() {
 
   // Everyone who owns a plan, you marked; an owner chosen in the URL but not (yet) listed stays selectable.
   const owners = (ownerList.data ?? []).map((o) => (o.id === user.id ? { ...o, name: `${o.name} (you)` } : o));
-  if (params.ownerId && !owners.some((o) => o.id === params.ownerId)) owners.push({ id: params.ownerId, name: `Owner #${params.ownerId}` });
+  if (params.ownerId && !owners.some((o) => o.id === params.ownerId))
+    owners.push({ id: params.ownerId, name: `Owner #${params.ownerId}` });
 
   return (
-    <Page title="Plans" lead="Every staged extension plan, with the state of its latest revision. Signed revisions export the rope_scaling block.">
+    <Page
+      title="Plans"
+      lead="Every staged extension plan, with the state of its latest revision. Signed revisions export the rope_scaling block."
+    >
       {user.roles.includes("researcher") && (
         <div>
-          <Link to={paths.planNew()} className="inline-flex rounded-md border border-hemp bg-hemp px-4 py-2 text-body font-medium text-paper no-underline hover:bg-hemp-dark">
+          <Link
+            to={paths.planNew()}
+            className="inline-flex rounded-md border border-hemp bg-hemp px-4 py-2 text-body font-medium text-paper no-underline hover:bg-hemp-dark"
+          >
             New plan
           </Link>
         </div>
@@ -44,7 +51,11 @@ export function PlansRoute() {
         />
       </Panel>
       {list.isPending && <Loading label="Loading plans…" />}
-      {list.isError && <Notice tone="alert" title="Could not load plans">{list.error.message}</Notice>}
+      {list.isError && (
+        <Notice tone="alert" title="Could not load plans">
+          {list.error.message}
+        </Notice>
+      )}
       {list.data && (
         <div className="flex flex-col gap-3">
           <PlansTable
@@ -55,7 +66,13 @@ export function PlansRoute() {
             onSort={(sort, dir) => update({ sort, dir })}
             busy={list.isPlaceholderData}
           />
-          <Pager page={list.data.page} pageSize={params.pageSize ?? DEFAULT_PAGE_SIZE} total={list.data.total} onPage={(page) => update({ page })} noun="Plans" />
+          <Pager
+            page={list.data.page}
+            pageSize={params.pageSize ?? DEFAULT_PAGE_SIZE}
+            total={list.data.total}
+            onPage={(page) => update({ page })}
+            noun="Plans"
+          />
         </div>
       )}
     </Page>

@@ -1,9 +1,9 @@
-import { Page, Panel } from "../../components/page";
-import { Chip } from "../../components/notice";
-import { roleLabel } from "../../lib/format";
-import { ChangePasswordForm } from "../../features/auth/components/change-password-form";
-import { useCurrentUser } from "../../features/auth/hooks/use-session";
-import { TokenManager } from "../../features/tokens/components/token-manager";
+import { Page, Panel } from "@/components/page";
+import { Chip } from "@/components/notice";
+import { roleLabel } from "@/lib/format";
+import { ChangePasswordForm } from "@/features/auth/components/change-password-form";
+import { useCurrentUser } from "@/features/auth/hooks/use-session";
+import { TokenManager } from "@/features/tokens/components/token-manager";
 
 export function ProfileRoute() {
   const user = useCurrentUser();
@@ -27,7 +27,10 @@ export function ProfileRoute() {
         <ChangePasswordForm />
       </Panel>
       <Panel title="API tokens">
-        <p className="mb-3 max-w-prose text-body text-ink-soft">Read-only tokens for scripts, such as a training job fetching the signed configuration patch. They act as you, and can only read.</p>
+        <p className="mb-3 max-w-prose text-body text-ink-soft">
+          Read-only tokens for scripts, such as a training job fetching the signed configuration patch. They act as you,
+          and can only read.
+        </p>
         <TokenManager />
       </Panel>
     </Page>

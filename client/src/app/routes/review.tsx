@@ -1,12 +1,12 @@
 import { useState } from "react";
 import { useQuery } from "@tanstack/react-query";
-import type { ReviewQueueItem } from "../../../../shared/schemas/plan-responses";
-import { Page, Panel } from "../../components/page";
-import { Loading, Notice } from "../../components/notice";
-import { useRefreshPlan } from "../../features/plans/api/workflow";
-import { reviewQueries } from "../../features/review/api/queries";
-import { DecisionDialog } from "../../features/review/components/decision-dialog";
-import { ReviewQueueTable } from "../../features/review/components/review-queue-table";
+import type { ReviewQueueItem } from "@shared/schemas/plan-responses";
+import { Page, Panel } from "@/components/page";
+import { Loading, Notice } from "@/components/notice";
+import { useRefreshPlan } from "@/features/plans/api/workflow";
+import { reviewQueries } from "@/features/review/api/queries";
+import { DecisionDialog } from "@/features/review/components/decision-dialog";
+import { ReviewQueueTable } from "@/features/review/components/review-queue-table";
 
 const SAID: Record<string, string> = {
   approved: "approved and signed; its export is ready",
@@ -20,12 +20,27 @@ export function ReviewRoute() {
   const [deciding, setDeciding] = useState<ReviewQueueItem | null>(null);
   const [notice, setNotice] = useState<string | null>(null);
   return (
-    <Page title="Review" lead="Submitted revisions waiting for your decision. You sign the exact content hash shown; a later change would need a new revision.">
+    <Page
+      title="Review"
+      lead="Submitted revisions waiting for your decision. You sign the exact content hash shown; a later change would need a new revision."
+    >
       {notice && <Notice tone="success">{notice}</Notice>}
       <Panel title="Waiting for you">
         {queue.isPending && <Loading label="Loading the queue…" />}
-        {queue.isError && <Notice tone="alert" title="Could not load the queue">{queue.error.message}</Notice>}
-        {queue.data && <ReviewQueueTable items={queue.data} onDecide={(item) => { setNotice(null); setDeciding(item); }} />}
+        {queue.isError && (
+          <Notice tone="alert" title="Could not load the queue">
+            {queue.error.message}
+          </Notice>
+        )}
+        {queue.data && (
+          <ReviewQueueTable
+            items={queue.data}
+            onDecide={(item) => {
+              setNotice(null);
+              setDeciding(item);
+            }}
+          />
+        )}
       </Panel>
       {deciding && (
         <DecisionDialog

@@ -1,9 +1,9 @@
 import { Navigate, useNavigate, useSearchParams } from "react-router-dom";
-import { AppShell } from "../../components/app-shell";
-import { Loading, Notice } from "../../components/notice";
-import { paths, safeNext } from "../../config/paths";
-import { SignInForm } from "../../features/auth/components/sign-in-form";
-import { useSession } from "../../features/auth/hooks/use-session";
+import { AppShell } from "@/components/app-shell";
+import { Loading, Notice } from "@/components/notice";
+import { paths, safeNext } from "@/config/paths";
+import { SignInForm } from "@/features/auth/components/sign-in-form";
+import { useSession } from "@/features/auth/hooks/use-session";
 
 export function SignInRoute() {
   const session = useSession();
@@ -11,7 +11,12 @@ export function SignInRoute() {
   const [params] = useSearchParams();
   const next = safeNext(params.get("next"));
 
-  if (session.isPending) return <AppShell homeHref={paths.home()}><Loading /></AppShell>;
+  if (session.isPending)
+    return (
+      <AppShell homeHref={paths.home()}>
+        <Loading />
+      </AppShell>
+    );
   if (session.data?.user) return <Navigate to={next} replace />;
 
   return (
@@ -21,7 +26,8 @@ export function SignInRoute() {
         <div className="flex flex-col gap-4">
           <h1 className="text-display font-semibold leading-tight tracking-tight">Sign in to Ropewalk</h1>
           <p className="text-lead text-ink-soft">
-            Compare ways to rescale rotary position embeddings for a longer context, cost the fine-tuning run, and carry a plan through review to sign-off.
+            Compare ways to rescale rotary position embeddings for a longer context, cost the fine-tuning run, and carry
+            a plan through review to sign-off.
           </p>
           <p className="text-body text-ink-soft">Accounts are made by an admin. If you do not have one, ask yours.</p>
         </div>
@@ -33,9 +39,7 @@ export function SignInRoute() {
               </Notice>
             </div>
           )}
-          {params.get("next") && (
-            <p className="mb-4 text-note text-seaglass">Sign in to continue where you were.</p>
-          )}
+          {params.get("next") && <p className="mb-4 text-note text-seaglass">Sign in to continue where you were.</p>}
           <SignInForm onSignedIn={() => navigate(next, { replace: true })} />
         </div>
       </div>

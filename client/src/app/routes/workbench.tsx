@@ -1,10 +1,10 @@
 import { useQuery } from "@tanstack/react-query";
-import { Loading, Notice } from "../../components/notice";
-import { Page } from "../../components/page";
-import { apiPaths } from "../../config/paths";
-import { ImportWarnings } from "../../features/models";
-import { modelsQueries } from "../../lib/api/models";
-import { Workbench } from "../../features/workbench";
+import { Loading, Notice } from "@/components/notice";
+import { Page } from "@/components/page";
+import { apiPaths } from "@/config/paths";
+import { ImportWarnings } from "@/features/models";
+import { modelsQueries } from "@/lib/api/models";
+import { Workbench } from "@/features/workbench";
 
 /** The workbench, fed with the saved profiles; a profile imported from a file shows the warnings its import raised. */
 export function WorkbenchRoute() {
@@ -17,18 +17,30 @@ export function WorkbenchRoute() {
       {models.isPending ? (
         <Loading label="Loading profiles…" />
       ) : models.isError ? (
-        <Notice tone="alert" title="Could not load profiles">{models.error.message}</Notice>
+        <Notice tone="alert" title="Could not load profiles">
+          {models.error.message}
+        </Notice>
       ) : (
         <Workbench
           profiles={models.data}
           profileNotes={(p) =>
             p.sourceFileName ? (
-              <details className="rounded-md border border-hemp/30 bg-hemp-pale/30 px-3 py-2" open={p.importWarnings.length > 0}>
+              <details
+                className="rounded-md border border-hemp/30 bg-hemp-pale/30 px-3 py-2"
+                open={p.importWarnings.length > 0}
+              >
                 <summary className="cursor-pointer text-body font-medium text-hemp-dark">
-                  {p.importWarnings.length} {p.importWarnings.length === 1 ? "warning was" : "warnings were"} raised when the config of {p.name} was imported
+                  {p.importWarnings.length} {p.importWarnings.length === 1 ? "warning was" : "warnings were"} raised
+                  when the config of {p.name} was imported
                 </summary>
                 <div className="mt-2">
-                  <ImportWarnings warnings={p.importWarnings} sourceHref={apiPaths.modelSource(p.id)} sourceFileName={p.sourceFileName} title={null} columns={2} />
+                  <ImportWarnings
+                    warnings={p.importWarnings}
+                    sourceHref={apiPaths.modelSource(p.id)}
+                    sourceFileName={p.sourceFileName}
+                    title={null}
+                    columns={2}
+                  />
                 </div>
               </details>
             ) : null

@@ -1,7 +1,7 @@
 import { keepPreviousData, queryOptions, skipToken } from "@tanstack/react-query";
-import { analysisResponseSchema, type AnalysisRequest } from "../../../../shared/schemas/analysis";
+import { analysisResponseSchema, type AnalysisRequest } from "@shared/schemas/analysis";
 import { apiClient } from "../api-client";
-import { apiPaths } from "../../config/paths";
+import { apiPaths } from "@/config/paths";
 
 /** POST /api/analyses stores nothing, so the workbench and the plan pages read it as one query keyed by its body. */
 export const runAnalysis = (request: AnalysisRequest) =>

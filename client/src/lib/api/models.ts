@@ -1,8 +1,8 @@
 import { queryOptions, type QueryClient } from "@tanstack/react-query";
-import { modelResponseSchema, modelsListResponseSchema } from "../../../../shared/schemas/model-responses";
-import type { ModelProfile } from "../../../../shared/schemas/models";
+import { modelResponseSchema, modelsListResponseSchema } from "@shared/schemas/model-responses";
+import type { ModelProfile } from "@shared/schemas/models";
 import { apiClient } from "../api-client";
-import { apiPaths } from "../../config/paths";
+import { apiPaths } from "@/config/paths";
 import { analysesQueries } from "./analyses";
 
 /*
@@ -22,7 +22,10 @@ export const modelsQueries = {
   list: () => queryOptions({ queryKey: modelsQueries.lists(), queryFn: ({ signal }) => fetchModels(signal) }),
   details: () => [...modelsQueries.all(), "detail"] as const,
   detail: (id: number) =>
-    queryOptions({ queryKey: [...modelsQueries.details(), id] as const, queryFn: ({ signal }) => fetchModel(id, signal) }),
+    queryOptions({
+      queryKey: [...modelsQueries.details(), id] as const,
+      queryFn: ({ signal }) => fetchModel(id, signal),
+    }),
 };
 
 /**

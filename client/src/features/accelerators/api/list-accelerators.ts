@@ -1,7 +1,7 @@
 import { queryOptions } from "@tanstack/react-query";
-import { acceleratorListResponseSchema } from "../../../../../shared/schemas/budget";
-import { apiClient } from "../../../lib/api-client";
-import { apiPaths } from "../../../config/paths";
+import { acceleratorListResponseSchema } from "@shared/schemas/budget";
+import { apiClient } from "@/lib/api-client";
+import { apiPaths } from "@/config/paths";
 import { acceleratorsKeys } from "./keys";
 
 export const fetchAccelerators = (signal?: AbortSignal) =>

@@ -1,7 +1,12 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import { acceleratorResponseSchema, acceleratorRetiredResponseSchema, type AcceleratorInput, type AcceleratorUpdate } from "../../../../../shared/schemas/budget";
-import { apiClient } from "../../../lib/api-client";
-import { apiPaths } from "../../../config/paths";
+import {
+  acceleratorResponseSchema,
+  acceleratorRetiredResponseSchema,
+  type AcceleratorInput,
+  type AcceleratorUpdate,
+} from "@shared/schemas/budget";
+import { apiClient } from "@/lib/api-client";
+import { apiPaths } from "@/config/paths";
 import { acceleratorsKeys } from "./keys";
 
 export const createAccelerator = (body: AcceleratorInput) =>
@@ -17,11 +22,16 @@ export async function deleteAccelerator(id: number) {
 }
 
 export const restoreAccelerator = (id: number) =>
-  apiClient.send("POST", apiPaths.acceleratorRestore(id), undefined, acceleratorResponseSchema).then((r) => r.accelerator);
+  apiClient
+    .send("POST", apiPaths.acceleratorRestore(id), undefined, acceleratorResponseSchema)
+    .then((r) => r.accelerator);
 
 function useCatalogMutation<A, R>(fn: (args: A) => Promise<R>) {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: fn, onSuccess: () => queryClient.invalidateQueries({ queryKey: acceleratorsKeys.all }) });
+  return useMutation({
+    mutationFn: fn,
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: acceleratorsKeys.all }),
+  });
 }
 
 export const useCreateAccelerator = () => useCatalogMutation(createAccelerator);

@@ -1,12 +1,12 @@
 import { useState } from "react";
 import { Controller, useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
-import { acceleratorInputSchema, type Accelerator } from "../../../../../shared/schemas/budget";
-import { Button, SubmitButton } from "../../../components/button";
-import { TextField } from "../../../components/field";
-import { Notice } from "../../../components/notice";
-import { GIB, TFLOPS } from "../../../lib/format";
-import { applyApiErrors } from "../../../lib/form-errors";
+import { acceleratorInputSchema, type Accelerator } from "@shared/schemas/budget";
+import { Button, SubmitButton } from "@/components/button";
+import { TextField } from "@/components/field";
+import { Notice } from "@/components/notice";
+import { GIB, TFLOPS } from "@/lib/format";
+import { applyApiErrors } from "@/lib/form-errors";
 import { useCreateAccelerator, useUpdateAccelerator } from "../api/save-accelerator";
 import { UnitNumberInput } from "./unit-number-input";
 
@@ -22,7 +22,13 @@ export function AcceleratorForm({ editing, onDone, onCancel }: Props) {
   const { register, control, handleSubmit, setError, formState } = useForm({
     resolver: zodResolver(acceleratorInputSchema),
     defaultValues: editing
-      ? { name: editing.name, memoryBytes: editing.memoryBytes, peakFlops: editing.peakFlops, pricePerHour: editing.pricePerHour, notes: editing.notes }
+      ? {
+          name: editing.name,
+          memoryBytes: editing.memoryBytes,
+          peakFlops: editing.peakFlops,
+          pricePerHour: editing.pricePerHour,
+          notes: editing.notes,
+        }
       : { name: "", notes: "" },
   });
   const { errors } = formState;
@@ -32,7 +38,8 @@ export function AcceleratorForm({ editing, onDone, onCancel }: Props) {
   const onSubmit = handleSubmit((values) => {
     setFormError(null);
     const onError = (error: unknown) => setFormError(applyApiErrors(error, setError, FIELDS));
-    if (editing) update.mutate({ id: editing.id, changes: values }, { onSuccess: (a) => onDone(`Saved ${a.name}.`), onError });
+    if (editing)
+      update.mutate({ id: editing.id, changes: values }, { onSuccess: (a) => onDone(`Saved ${a.name}.`), onError });
     else create.mutate(values, { onSuccess: (a) => onDone(`Added ${a.name} to the catalog.`), onError });
   });
 
@@ -53,18 +60,42 @@ export function AcceleratorForm({ editing, onDone, onCancel }: Props) {
           control={control}
           name="memoryBytes"
           render={({ field }) => (
-            <UnitNumberInput label="Memory" unit="GiB" scale={GIB} value={field.value} onChange={field.onChange} onBlur={field.onBlur} error={errors.memoryBytes?.message} hint="Per accelerator; 1 GiB = 2³⁰ bytes" />
+            <UnitNumberInput
+              label="Memory"
+              unit="GiB"
+              scale={GIB}
+              value={field.value}
+              onChange={field.onChange}
+              onBlur={field.onBlur}
+              error={errors.memoryBytes?.message}
+              hint="Per accelerator; 1 GiB = 2³⁰ bytes"
+            />
           )}
         />
         <Controller
           control={control}
           name="peakFlops"
           render={({ field }) => (
-            <UnitNumberInput label="Dense peak" unit="TFLOP/s" scale={TFLOPS} value={field.value} onChange={field.onChange} onBlur={field.onBlur} error={errors.peakFlops?.message} hint="At the training precision, without sparsity" />
+            <UnitNumberInput
+              label="Dense peak"
+              unit="TFLOP/s"
+              scale={TFLOPS}
+              value={field.value}
+              onChange={field.onChange}
+              onBlur={field.onBlur}
+              error={errors.peakFlops?.message}
+              hint="At the training precision, without sparsity"
+            />
           )}
         />
       </div>
-      <TextField label="Notes" autoComplete="off" hint="Where the figures come from, interconnect, anything a planner should know" error={errors.notes?.message} {...register("notes")} />
+      <TextField
+        label="Notes"
+        autoComplete="off"
+        hint="Where the figures come from, interconnect, anything a planner should know"
+        error={errors.notes?.message}
+        {...register("notes")}
+      />
       <div className="flex gap-3">
         <SubmitButton busy={busy} busyLabel="Saving…">
           {editing ? "Save changes" : "Add accelerator"}

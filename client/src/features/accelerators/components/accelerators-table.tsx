@@ -1,9 +1,9 @@
 import { useMemo } from "react";
 import { createColumnHelper } from "@tanstack/react-table";
-import type { Accelerator } from "../../../../../shared/schemas/budget";
-import { Button } from "../../../components/button";
-import { DataTable } from "../../../components/data-table";
-import { GIB, formatMoney, sig3, TFLOPS } from "../../../lib/format";
+import type { Accelerator } from "@shared/schemas/budget";
+import { Button } from "@/components/button";
+import { DataTable } from "@/components/data-table";
+import { GIB, formatMoney, sig3, TFLOPS } from "@/lib/format";
 
 const col = createColumnHelper<Accelerator>();
 
@@ -25,26 +25,48 @@ export function AcceleratorsTable({ accelerators, canEdit, busyId, onEdit, onDel
       col.accessor("memoryBytes", { header: "Memory (GiB)", cell: (c) => sig3(c.getValue() / GIB) }),
       col.accessor("peakFlops", { header: "Dense peak (TFLOP/s)", cell: (c) => sig3(c.getValue() / TFLOPS) }),
       col.accessor("pricePerHour", { header: "Price per hour", cell: (c) => formatMoney(c.getValue()) }),
-      col.accessor("notes", { header: "Notes", enableSorting: false, cell: (c) => <span className="text-note">{c.getValue()}</span> }),
+      col.accessor("notes", {
+        header: "Notes",
+        enableSorting: false,
+        cell: (c) => <span className="text-note">{c.getValue()}</span>,
+      }),
       ...(canEdit
         ? [
             col.display({
               id: "actions",
               header: () => <span className="sr-only">Actions</span>,
-              cell: ({ row }) => onRestore ? (
-                <Button size="sm" variant="secondary" busy={busyId === row.original.id} onClick={() => onRestore(row.original)} aria-label={`Restore ${row.original.name}`}>
-                  Restore
-                </Button>
-              ) : (
-                <div className="flex gap-2">
-                  <Button size="sm" variant="secondary" onClick={() => onEdit(row.original)} aria-label={`Edit ${row.original.name}`}>
-                    Edit
+              cell: ({ row }) =>
+                onRestore ? (
+                  <Button
+                    size="sm"
+                    variant="secondary"
+                    busy={busyId === row.original.id}
+                    onClick={() => onRestore(row.original)}
+                    aria-label={`Restore ${row.original.name}`}
+                  >
+                    Restore
                   </Button>
-                  <Button size="sm" variant="danger" busy={busyId === row.original.id} onClick={() => onDelete(row.original)} aria-label={`Delete ${row.original.name}`}>
-                    Delete
-                  </Button>
-                </div>
-              ),
+                ) : (
+                  <div className="flex gap-2">
+                    <Button
+                      size="sm"
+                      variant="secondary"
+                      onClick={() => onEdit(row.original)}
+                      aria-label={`Edit ${row.original.name}`}
+                    >
+                      Edit
+                    </Button>
+                    <Button
+                      size="sm"
+                      variant="danger"
+                      busy={busyId === row.original.id}
+                      onClick={() => onDelete(row.original)}
+                      aria-label={`Delete ${row.original.name}`}
+                    >
+                      Delete
+                    </Button>
+                  </div>
+                ),
             }),
           ]
         : []),

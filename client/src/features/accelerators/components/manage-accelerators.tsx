@@ -1,9 +1,9 @@
 import { useCallback, useState } from "react";
 import { useQuery } from "@tanstack/react-query";
-import type { Accelerator } from "../../../../../shared/schemas/budget";
-import { Button } from "../../../components/button";
-import { Loading, Notice } from "../../../components/notice";
-import { Panel } from "../../../components/page";
+import type { Accelerator } from "@shared/schemas/budget";
+import { Button } from "@/components/button";
+import { Loading, Notice } from "@/components/notice";
+import { Panel } from "@/components/page";
 import { acceleratorsQuery } from "../api/list-accelerators";
 import { useDeleteAccelerator, useRestoreAccelerator } from "../api/save-accelerator";
 import { AcceleratorForm } from "./accelerator-form";
@@ -38,7 +38,12 @@ export function ManageAccelerators({ canEdit }: { canEdit: boolean }) {
     });
 
   if (list.isPending) return <Loading label="Loading the catalog…" />;
-  if (list.isError) return <Notice tone="alert" title="Could not load the catalog">{list.error.message}</Notice>;
+  if (list.isError)
+    return (
+      <Notice tone="alert" title="Could not load the catalog">
+        {list.error.message}
+      </Notice>
+    );
 
   const done = (text: string) => {
     setMessage({ tone: "success", text });
@@ -63,7 +68,10 @@ export function ManageAccelerators({ canEdit }: { canEdit: boolean }) {
       {message && <Notice tone={message.tone}>{message.text}</Notice>}
       {confirming && (
         <Notice tone="alert" title={`Delete ${confirming.name}?`}>
-          <p>If any plan was costed on it, it is retired instead of deleted: it leaves the pickers and every plan keeps its figures.</p>
+          <p>
+            If any plan was costed on it, it is retired instead of deleted: it leaves the pickers and every plan keeps
+            its figures.
+          </p>
           <div className="mt-3 flex gap-3">
             <Button variant="danger" busy={remove.isPending} onClick={() => confirmDelete(confirming)}>
               Delete {confirming.name}
@@ -76,16 +84,36 @@ export function ManageAccelerators({ canEdit }: { canEdit: boolean }) {
       )}
       {canEdit && (
         <Panel title={editing ? `Edit ${editing.name}` : "Add an accelerator"}>
-          <AcceleratorForm key={editing ? `edit-${editing.id}` : `new-${formKey}`} editing={editing ?? undefined} onDone={done} onCancel={editing ? () => setEditing(null) : undefined} />
+          <AcceleratorForm
+            key={editing ? `edit-${editing.id}` : `new-${formKey}`}
+            editing={editing ?? undefined}
+            onDone={done}
+            onCancel={editing ? () => setEditing(null) : undefined}
+          />
         </Panel>
       )}
       <Panel title="Catalog">
-        <AcceleratorsTable accelerators={list.data.filter((a) => !a.retiredAt)} canEdit={canEdit} busyId={remove.isPending ? (remove.variables ?? null) : null} onEdit={onEdit} onDelete={onDelete} />
+        <AcceleratorsTable
+          accelerators={list.data.filter((a) => !a.retiredAt)}
+          canEdit={canEdit}
+          busyId={remove.isPending ? (remove.variables ?? null) : null}
+          onEdit={onEdit}
+          onDelete={onDelete}
+        />
       </Panel>
       {list.data.some((a) => a.retiredAt) && (
         <Panel title="Retired">
-          <p className="mb-3 text-body text-ink-soft">Plans were costed on these; they are no longer offered for new budgets, and the plans keep their figures.</p>
-          <AcceleratorsTable accelerators={list.data.filter((a) => a.retiredAt)} canEdit={canEdit} busyId={restore.isPending ? (restore.variables ?? null) : null} onEdit={onEdit} onDelete={onDelete} onRestore={onRestore} />
+          <p className="mb-3 text-body text-ink-soft">
+            Plans were costed on these; they are no longer offered for new budgets, and the plans keep their figures.
+          </p>
+          <AcceleratorsTable
+            accelerators={list.data.filter((a) => a.retiredAt)}
+            canEdit={canEdit}
+            busyId={restore.isPending ? (restore.variables ?? null) : null}
+            onEdit={onEdit}
+            onDelete={onDelete}
+            onRestore={onRestore}
+          />
         </Panel>
       )}
     </div>

@@ -1,7 +1,7 @@
 import { useState } from "react";
-import { TextField } from "../../../components/field";
-import { sig3 } from "../../../lib/format";
-import { parseNumberText } from "../../../lib/number-text";
+import { TextField } from "@/components/field";
+import { sig3 } from "@/lib/format";
+import { parseNumberText } from "@/lib/number-text";
 
 type Props = {
   label: string;

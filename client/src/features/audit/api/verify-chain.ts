@@ -1,7 +1,7 @@
 import { queryOptions } from "@tanstack/react-query";
-import { auditChainReportSchema } from "../../../../../shared/schemas/audit";
-import { apiClient } from "../../../lib/api-client";
-import { apiPaths } from "../../../config/paths";
+import { auditChainReportSchema } from "@shared/schemas/audit";
+import { apiClient } from "@/lib/api-client";
+import { apiPaths } from "@/config/paths";
 import { auditKeys } from "./keys";
 
 /** The server walks the whole hash chain; admins only. Not refetched on focus: it reads every row. */

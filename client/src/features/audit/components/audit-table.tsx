@@ -1,8 +1,8 @@
 import { createColumnHelper, getCoreRowModel, useReactTable } from "@tanstack/react-table";
-import type { AuditEvent } from "../../../../../shared/schemas/audit";
-import { Button } from "../../../components/button";
-import { TableView } from "../../../components/table-view";
-import { formatDateTime } from "../../../lib/format";
+import type { AuditEvent } from "@shared/schemas/audit";
+import { Button } from "@/components/button";
+import { TableView } from "@/components/table-view";
+import { formatDateTime } from "@/lib/format";
 
 /** One line per detail key; hashes and long values wrap instead of widening the table. */
 function Detail({ detail }: { detail: Record<string, unknown> }) {
@@ -20,43 +20,76 @@ function Detail({ detail }: { detail: Record<string, unknown> }) {
   );
 }
 
-type AuditTableProps = { events: AuditEvent[]; onActor: (actorId: number) => void; onSubject: (type: string, id: string) => void; busy?: boolean };
+type AuditTableProps = {
+  events: AuditEvent[];
+  onActor: (actorId: number) => void;
+  onSubject: (type: string, id: string) => void;
+  busy?: boolean;
+};
 
 const column = createColumnHelper<AuditEvent>();
 
 /** The trail as the server paged it, newest first (no sorting here); a name or subject narrows the trail to it. */
 export function AuditTable({ events, onActor, onSubject, busy = false }: AuditTableProps) {
   const columns = [
-    column.accessor("at", { header: "When", cell: (c) => <span className="whitespace-nowrap">{formatDateTime(c.getValue())}</span> }),
+    column.accessor("at", {
+      header: "When",
+      cell: (c) => <span className="whitespace-nowrap">{formatDateTime(c.getValue())}</span>,
+    }),
     column.display({
       id: "actor",
       header: "Who",
       cell: ({ row: { original: e } }) =>
         e.actor ? (
-          <Button variant="quiet" size="sm" className="justify-start text-left" onClick={() => onActor(e.actor!.id)} title="Only this person’s actions">
+          <Button
+            variant="quiet"
+            size="sm"
+            className="justify-start text-left"
+            onClick={() => onActor(e.actor!.id)}
+            title="Only this person’s actions"
+          >
             {e.actor.name}
           </Button>
         ) : (
           <span className="text-ink-soft">system</span>
         ),
     }),
-    column.accessor("action", { header: "Action", cell: (c) => <span className="font-mono text-note">{c.getValue()}</span> }),
+    column.accessor("action", {
+      header: "Action",
+      cell: (c) => <span className="font-mono text-note">{c.getValue()}</span>,
+    }),
     column.display({
       id: "subject",
       header: "Subject",
       cell: ({ row: { original: e } }) =>
         e.subjectId ? (
-          <Button variant="quiet" size="sm" className="whitespace-nowrap" onClick={() => onSubject(e.subjectType, e.subjectId!)} title="Only this subject">
+          <Button
+            variant="quiet"
+            size="sm"
+            className="whitespace-nowrap"
+            onClick={() => onSubject(e.subjectType, e.subjectId!)}
+            title="Only this subject"
+          >
             {e.subjectType} {e.subjectId}
           </Button>
         ) : (
           e.subjectType
         ),
     }),
-    column.display({ id: "detail", header: "Detail", cell: ({ row: { original: e } }) => <Detail detail={e.detail} /> }),
+    column.display({
+      id: "detail",
+      header: "Detail",
+      cell: ({ row: { original: e } }) => <Detail detail={e.detail} />,
+    }),
   ];
   // eslint-disable-next-line react-hooks/incompatible-library -- TanStack Table returns fresh functions by design
-  const table = useReactTable({ data: events, columns, getRowId: (e) => String(e.id), getCoreRowModel: getCoreRowModel(), enableSorting: false });
+  const table = useReactTable({
+    data: events,
+    columns,
+    getRowId: (e) => String(e.id),
+    getCoreRowModel: getCoreRowModel(),
+    enableSorting: false,
+  });
   return (
     <div aria-busy={busy || undefined} className={busy ? "opacity-70" : ""}>
       <TableView table={table} caption="Audit trail" emptyText="No events match these filters." dense />

@@ -1,10 +1,11 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import type { ChangePasswordRequest } from "../../../../../shared/schemas/auth";
-import { apiClient } from "../../../lib/api-client";
-import { apiPaths } from "../../../config/paths";
+import type { ChangePasswordRequest } from "@shared/schemas/auth";
+import { apiClient } from "@/lib/api-client";
+import { apiPaths } from "@/config/paths";
 import { authKeys } from "./keys";
 
-export const changePassword = (body: ChangePasswordRequest) => apiClient.sendNoContent("POST", apiPaths.password(), body);
+export const changePassword = (body: ChangePasswordRequest) =>
+  apiClient.sendNoContent("POST", apiPaths.password(), body);
 
 export function useChangePassword() {
   const queryClient = useQueryClient();

@@ -1,7 +1,7 @@
 import { queryOptions, type QueryClient } from "@tanstack/react-query";
-import { sessionResponseSchema, type SessionResponse } from "../../../../../shared/schemas/auth";
-import { apiClient, setCsrfToken } from "../../../lib/api-client";
-import { apiPaths } from "../../../config/paths";
+import { sessionResponseSchema, type SessionResponse } from "@shared/schemas/auth";
+import { apiClient, setCsrfToken } from "@/lib/api-client";
+import { apiPaths } from "@/config/paths";
 import { authKeys } from "./keys";
 
 export async function fetchSession(signal?: AbortSignal): Promise<SessionResponse> {

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import { apiClient } from "../../../lib/api-client";
-import { apiPaths } from "../../../config/paths";
+import { apiClient } from "@/lib/api-client";
+import { apiPaths } from "@/config/paths";
 import { fetchSession, replaceSession } from "./get-session";
 
 /** Logout ends the session; a fresh GET gives the anonymous session and its new CSRF token. */

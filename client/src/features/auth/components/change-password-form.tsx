@@ -2,18 +2,21 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { z } from "zod";
-import { changePasswordRequestSchema, PASSWORD_MIN } from "../../../../../shared/schemas/auth";
-import { SubmitButton } from "../../../components/button";
-import { TextField } from "../../../components/field";
-import { Notice } from "../../../components/notice";
-import { applyApiErrors } from "../../../lib/form-errors";
-import { isApiError } from "../../../lib/api-client";
+import { changePasswordRequestSchema, PASSWORD_MIN } from "@shared/schemas/auth";
+import { SubmitButton } from "@/components/button";
+import { TextField } from "@/components/field";
+import { Notice } from "@/components/notice";
+import { applyApiErrors } from "@/lib/form-errors";
+import { isApiError } from "@/lib/api-client";
 import { useChangePassword } from "../api/change-password";
 
 // The request contract plus a typed-twice check that never leaves the browser.
 const formSchema = changePasswordRequestSchema
   .extend({ confirmPassword: z.string() })
-  .refine((v) => v.newPassword === v.confirmPassword, { path: ["confirmPassword"], message: "does not match the new password" });
+  .refine((v) => v.newPassword === v.confirmPassword, {
+    path: ["confirmPassword"],
+    message: "does not match the new password",
+  });
 
 const FIELDS = ["currentPassword", "newPassword", "confirmPassword"] as const;
 
@@ -52,9 +55,28 @@ export function ChangePasswordForm() {
     <form onSubmit={onSubmit} noValidate className="flex max-w-md flex-col gap-4" aria-label="Change password">
       {done && <Notice tone="success">Password changed. Use the new one next time you sign in.</Notice>}
       {formError && <Notice tone="alert">{formError}</Notice>}
-      <TextField label="Current password" type="password" autoComplete="current-password" error={errors.currentPassword?.message} {...register("currentPassword")} />
-      <TextField label="New password" type="password" autoComplete="new-password" hint={`At least ${PASSWORD_MIN} characters.`} error={errors.newPassword?.message} {...register("newPassword")} />
-      <TextField label="New password, again" type="password" autoComplete="new-password" error={errors.confirmPassword?.message} {...register("confirmPassword")} />
+      <TextField
+        label="Current password"
+        type="password"
+        autoComplete="current-password"
+        error={errors.currentPassword?.message}
+        {...register("currentPassword")}
+      />
+      <TextField
+        label="New password"
+        type="password"
+        autoComplete="new-password"
+        hint={`At least ${PASSWORD_MIN} characters.`}
+        error={errors.newPassword?.message}
+        {...register("newPassword")}
+      />
+      <TextField
+        label="New password, again"
+        type="password"
+        autoComplete="new-password"
+        error={errors.confirmPassword?.message}
+        {...register("confirmPassword")}
+      />
       <div>
         <SubmitButton busy={change.isPending} busyLabel="Saving…">
           Change password

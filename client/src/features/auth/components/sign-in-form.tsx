@@ -1,12 +1,12 @@
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
-import { loginRequestSchema, type SessionUser } from "../../../../../shared/schemas/auth";
-import { SubmitButton } from "../../../components/button";
-import { TextField } from "../../../components/field";
-import { Notice } from "../../../components/notice";
-import { applyApiErrors } from "../../../lib/form-errors";
-import { isApiError } from "../../../lib/api-client";
+import { loginRequestSchema, type SessionUser } from "@shared/schemas/auth";
+import { SubmitButton } from "@/components/button";
+import { TextField } from "@/components/field";
+import { Notice } from "@/components/notice";
+import { applyApiErrors } from "@/lib/form-errors";
+import { isApiError } from "@/lib/api-client";
 import { useLogin } from "../api/login";
 
 /** Wrong password and unknown e-mail get one message on purpose: the server does not say which. */
@@ -37,8 +37,20 @@ export function SignInForm({ onSignedIn }: { onSignedIn: (user: SessionUser) => 
   return (
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Sign in">
       {formError && <Notice tone="alert">{formError}</Notice>}
-      <TextField label="E-mail" type="email" autoComplete="username" error={errors.email?.message} {...register("email")} />
-      <TextField label="Password" type="password" autoComplete="current-password" error={errors.password?.message} {...register("password")} />
+      <TextField
+        label="E-mail"
+        type="email"
+        autoComplete="username"
+        error={errors.email?.message}
+        {...register("email")}
+      />
+      <TextField
+        label="Password"
+        type="password"
+        autoComplete="current-password"
+        error={errors.password?.message}
+        {...register("password")}
+      />
       <SubmitButton busy={login.isPending} busyLabel="Signing in…" className="mt-2">
         Sign in
       </SubmitButton>

@@ -1,5 +1,5 @@
 import { useQuery, useQueryClient } from "@tanstack/react-query";
-import type { SessionUser } from "../../../../../shared/schemas/auth";
+import type { SessionUser } from "@shared/schemas/auth";
 import { authQueries } from "../api/queries";
 import { authKeys } from "../api/keys";
 

@@ -1,8 +1,8 @@
 import { keepPreviousData, useQuery } from "@tanstack/react-query";
-import { budgetEstimateResultSchema, type BudgetEstimateRequest } from "../../../../../shared/schemas/budget";
-import { apiClient } from "../../../lib/api-client";
-import { apiPaths } from "../../../config/paths";
-import { useDebounced } from "../../../lib/use-debounced";
+import { budgetEstimateResultSchema, type BudgetEstimateRequest } from "@shared/schemas/budget";
+import { apiClient } from "@/lib/api-client";
+import { apiPaths } from "@/config/paths";
+import { useDebounced } from "@/lib/use-debounced";
 import { budgetsKeys } from "./keys";
 
 export const estimateBudget = (request: BudgetEstimateRequest) =>

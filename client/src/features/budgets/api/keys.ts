@@ -1,4 +1,4 @@
-import type { BudgetEstimateRequest } from "../../../../../shared/schemas/budget";
+import type { BudgetEstimateRequest } from "@shared/schemas/budget";
 
 /** Query keys for the budgets feature, general to specific. */
 export const budgetsKeys = {

@@ -1,5 +1,5 @@
-import type { BudgetEstimateResponse } from "../../../../../shared/schemas/budget";
-import { formatList } from "../../../lib/format";
+import type { BudgetEstimateResponse } from "@shared/schemas/budget";
+import { formatList } from "@/lib/format";
 
 type Assumptions = BudgetEstimateResponse["assumptions"];
 
@@ -12,9 +12,10 @@ export function AssumptionLine({ assumptions, accelerators }: { assumptions: Ass
   const defaulted = a.defaulted.filter((d) => !["growthPoints", "trainedContext", "targetContext"].includes(d));
   return (
     <p className="text-note text-ink-soft" data-testid="assumption-line">
-      Assumes the {a.convention} FLOP convention ({a.conventionFormula}; {a.conventionSource}), model FLOPs utilisation {a.utilization}
-      {a.defaulted.includes("utilization") ? " (assumed)" : ""}, {a.optimizerBytesPerParameter} optimizer bytes per parameter, {a.bytesPerElement} bytes per
-      element, sequence sharding {a.sequenceSharding}
+      Assumes the {a.convention} FLOP convention ({a.conventionFormula}; {a.conventionSource}), model FLOPs utilisation{" "}
+      {a.utilization}
+      {a.defaulted.includes("utilization") ? " (assumed)" : ""}, {a.optimizerBytesPerParameter} optimizer bytes per
+      parameter, {a.bytesPerElement} bytes per element, sequence sharding {a.sequenceSharding}
       {accelerators !== undefined ? `, ${accelerators} accelerators` : ""}
       {a.recomputeFraction > 0 ? `, recomputation of ${a.recomputeFraction} of the forward pass` : ""}.
       {defaulted.length > 0 && ` Defaulted: ${formatList(defaulted)}.`}
@@ -27,7 +28,9 @@ export function AssumptionsList({ assumptions }: { assumptions: Assumptions }) {
   const a = assumptions;
   return (
     <div className="flex flex-col gap-3 text-body" data-testid="assumptions">
-      <p className="rounded-md border border-hemp/30 bg-hemp-pale/50 px-3 py-2 font-medium text-hemp-dark">{ESTIMATE_CAUTION}</p>
+      <p className="rounded-md border border-hemp/30 bg-hemp-pale/50 px-3 py-2 font-medium text-hemp-dark">
+        {ESTIMATE_CAUTION}
+      </p>
       <dl className="grid gap-x-6 gap-y-1 sm:grid-cols-[max-content_1fr]">
         <dt className="font-semibold">FLOP convention</dt>
         <dd>
@@ -49,7 +52,8 @@ export function AssumptionsList({ assumptions }: { assumptions: Assumptions }) {
         <dd>{a.hiddenSize}</dd>
         <dt className="font-semibold">Sharding</dt>
         <dd>
-          sequence sharding {a.sequenceSharding}, {a.microBatchSequences} sequence{a.microBatchSequences === 1 ? "" : "s"} per micro-batch
+          sequence sharding {a.sequenceSharding}, {a.microBatchSequences} sequence
+          {a.microBatchSequences === 1 ? "" : "s"} per micro-batch
         </dd>
         <dt className="font-semibold">Growth curve</dt>
         <dd>

@@ -1,11 +1,11 @@
 import type { ReactNode } from "react";
 import { useQuery } from "@tanstack/react-query";
-import type { Accelerator, BudgetRecipeResponse } from "../../../../../shared/schemas/budget";
-import { Button } from "../../../components/button";
-import { Loading, Notice } from "../../../components/notice";
-import { Panel } from "../../../components/page";
-import { isApiError } from "../../../lib/api-client";
-import { downloadText } from "../../../lib/download";
+import type { Accelerator, BudgetRecipeResponse } from "@shared/schemas/budget";
+import { Button } from "@/components/button";
+import { Loading, Notice } from "@/components/notice";
+import { Panel } from "@/components/page";
+import { isApiError } from "@/lib/api-client";
+import { downloadText } from "@/lib/download";
 import { useBudgetEstimate } from "../api/estimate";
 import { recipesQuery } from "../api/get-recipes";
 import { clusterLabel } from "../lib/cluster-label";
@@ -16,7 +16,7 @@ import { ClusterSettings } from "./cluster-settings";
 import { EstimateFigures } from "./estimate-figures";
 import { RecipeMenu } from "./recipe-menu";
 import { StageTable } from "./stage-table";
-import { parseNumberText } from "../../../lib/number-text";
+import { parseNumberText } from "@/lib/number-text";
 
 export type BudgetSheetProps = {
   /** "plan": the rows are the plan's stages (edit lengths, batches and steps; no adding or removing). */
@@ -38,7 +38,19 @@ export type BudgetSheetProps = {
 };
 
 /** The budget sheet: inputs on the left of the story, figures recomputed by the server as they change. */
-export function BudgetSheet({ mode, value, onChange, context, accelerators, rowLabels, extraIssues = {}, actions, disabled, csvName = "ropewalk-budget.csv", modelPanel }: BudgetSheetProps) {
+export function BudgetSheet({
+  mode,
+  value,
+  onChange,
+  context,
+  accelerators,
+  rowLabels,
+  extraIssues = {},
+  actions,
+  disabled,
+  csvName = "ropewalk-budget.csv",
+  modelPanel,
+}: BudgetSheetProps) {
   const recipes = useQuery(recipesQuery());
   const built = context ? buildRequest(value, context) : { request: null, issues: {} };
   const { query: estimate, settling } = useBudgetEstimate(built.request);
@@ -57,7 +69,12 @@ export function BudgetSheet({ mode, value, onChange, context, accelerators, rowL
       return;
     }
     const row = value.stages[target];
-    const next = recipeStageDraft(recipe, parseNumberText(row.sequenceLength) ?? 4096, parseNumberText(row.globalBatch) ?? 64, true);
+    const next = recipeStageDraft(
+      recipe,
+      parseNumberText(row.sequenceLength) ?? 4096,
+      parseNumberText(row.globalBatch) ?? 64,
+      true,
+    );
     onChange({ ...value, stages: value.stages.map((s, k) => (k === target ? next : s)) });
   };
 
@@ -92,16 +109,44 @@ export function BudgetSheet({ mode, value, onChange, context, accelerators, rowL
             onChange={(stages) => onChange({ ...value, stages })}
           />
           {recipes.data && !disabled && (
-            <RecipeMenu recipes={recipes.data.recipes} caution={recipes.data.caution} targets={mode === "plan" ? names : undefined} onPick={pickRecipe} />
+            <RecipeMenu
+              recipes={recipes.data.recipes}
+              caution={recipes.data.caution}
+              targets={mode === "plan" ? names : undefined}
+              onPick={pickRecipe}
+            />
           )}
         </div>
       </Panel>
 
-      <Panel title="Figures" aside={stale && data ? <span className="text-note text-ink-soft" role="status">Recomputing…</span> : undefined}>
-        {!context && <Notice>{mode === "plan" ? "Pick the model this plan extends to see figures." : "Pick a model profile or type a model shape to see figures."}</Notice>}
-        {context && !built.request && <Notice tone="alert" title="Some inputs need fixing">The marked inputs are not valid yet; the figures wait for them.</Notice>}
+      <Panel
+        title="Figures"
+        aside={
+          stale && data ? (
+            <span className="text-note text-ink-soft" role="status">
+              Recomputing…
+            </span>
+          ) : undefined
+        }
+      >
+        {!context && (
+          <Notice>
+            {mode === "plan"
+              ? "Pick the model this plan extends to see figures."
+              : "Pick a model profile or type a model shape to see figures."}
+          </Notice>
+        )}
+        {context && !built.request && (
+          <Notice tone="alert" title="Some inputs need fixing">
+            The marked inputs are not valid yet; the figures wait for them.
+          </Notice>
+        )}
         {estimate.error && !isApiError(estimate.error) && <Notice tone="alert">Could not compute the budget.</Notice>}
-        {isApiError(estimate.error) && built.request && <Notice tone="alert" title="The server refused these inputs">{estimate.error.message}</Notice>}
+        {isApiError(estimate.error) && built.request && (
+          <Notice tone="alert" title="The server refused these inputs">
+            {estimate.error.message}
+          </Notice>
+        )}
         {built.request && !data && estimate.isFetching && <Loading label="Computing the budget…" />}
         {data && (
           <EstimateFigures
@@ -111,7 +156,16 @@ export function BudgetSheet({ mode, value, onChange, context, accelerators, rowL
             stale={stale}
             actions={
               <div>
-                <Button variant="secondary" size="sm" onClick={() => downloadText(stagesCsv(data, clusterLabel(data.resolved.acceleratorName, data.resolved.cluster)), csvName)}>
+                <Button
+                  variant="secondary"
+                  size="sm"
+                  onClick={() =>
+                    downloadText(
+                      stagesCsv(data, clusterLabel(data.resolved.acceleratorName, data.resolved.cluster)),
+                      csvName,
+                    )
+                  }
+                >
                   Download the stage table (CSV)
                 </Button>
               </div>

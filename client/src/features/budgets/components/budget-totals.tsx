@@ -1,13 +1,23 @@
-import type { BudgetEstimateResponse } from "../../../../../shared/schemas/budget";
-import { formatCount, formatHours, formatMoney, formatScientific } from "../../../lib/format";
+import type { BudgetEstimateResponse } from "@shared/schemas/budget";
+import { formatCount, formatHours, formatMoney, formatScientific } from "@/lib/format";
 
 /** The run's totals, each with its unit. */
-export function BudgetTotals({ totals, accelerators }: { totals: BudgetEstimateResponse["totals"]; accelerators?: number }) {
+export function BudgetTotals({
+  totals,
+  accelerators,
+}: {
+  totals: BudgetEstimateResponse["totals"];
+  accelerators?: number;
+}) {
   const items = [
     { label: "Tokens", value: formatCount(totals.tokens), unit: "tokens trained" },
     { label: "Compute", value: formatScientific(totals.flops), unit: "training FLOPs" },
     { label: "Accelerator-hours", value: formatHours(totals.acceleratorHours), unit: "summed over accelerators" },
-    { label: "Wall-clock", value: formatHours(totals.wallClockHours), unit: accelerators ? `on ${accelerators} accelerators` : "at full cluster" },
+    {
+      label: "Wall-clock",
+      value: formatHours(totals.wallClockHours),
+      unit: accelerators ? `on ${accelerators} accelerators` : "at full cluster",
+    },
     { label: "Cost", value: formatMoney(totals.cost), unit: "workspace currency" },
   ];
   return (

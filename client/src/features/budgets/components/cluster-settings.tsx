@@ -1,10 +1,10 @@
 import { useId } from "react";
-import type { Accelerator, BudgetEstimateResponse } from "../../../../../shared/schemas/budget";
-import { formatBytes, formatMoney, sig3, TFLOPS } from "../../../lib/format";
+import type { Accelerator, BudgetEstimateResponse } from "@shared/schemas/budget";
+import { formatBytes, formatMoney, sig3, TFLOPS } from "@/lib/format";
 import { EXAMPLE_CLUSTER, type ClusterDraft, type Convention, type SettingsDraft } from "../lib/sheet-draft";
 import { Radio } from "./radio";
 import { SheetInput } from "./sheet-input";
-import { ChoiceField } from "../../../components/field";
+import { ChoiceField } from "@/components/field";
 
 type Issues = Record<string, string>;
 type Props = {
@@ -24,7 +24,16 @@ const CONVENTION_LABELS: Record<Convention, string> = {
 };
 
 /** Which accelerators, how many, and the conventions the figures rest on. */
-export function ClusterSettings({ cluster, settings, accelerators, assumptions, issues, disabled, onCluster, onSettings }: Props) {
+export function ClusterSettings({
+  cluster,
+  settings,
+  accelerators,
+  assumptions,
+  issues,
+  disabled,
+  onCluster,
+  onSettings,
+}: Props) {
   const uid = useId();
   const set = (field: keyof SettingsDraft) => (text: string) => onSettings({ ...settings, [field]: text });
   const picked = accelerators.find((a) => String(a.id) === cluster.acceleratorId);
@@ -36,44 +45,91 @@ export function ClusterSettings({ cluster, settings, accelerators, assumptions, 
       <fieldset className="flex flex-col gap-3" disabled={disabled}>
         <legend className="mb-2 text-body font-semibold">Accelerator</legend>
         <div className="flex flex-wrap gap-4">
-          <Radio name={`${uid}-cluster`} checked={cluster.kind === "catalog"} onChange={() => onCluster({ ...cluster, kind: "catalog" })} label="From the catalog" />
-          <Radio name={`${uid}-cluster`} checked={cluster.kind === "custom"} onChange={() => onCluster({ ...cluster, kind: "custom" })} label="Custom figures" />
+          <Radio
+            name={`${uid}-cluster`}
+            checked={cluster.kind === "catalog"}
+            onChange={() => onCluster({ ...cluster, kind: "catalog" })}
+            label="From the catalog"
+          />
+          <Radio
+            name={`${uid}-cluster`}
+            checked={cluster.kind === "custom"}
+            onChange={() => onCluster({ ...cluster, kind: "custom" })}
+            label="Custom figures"
+          />
         </div>
         {cluster.kind === "catalog" ? (
-          <ChoiceField className="max-w-xl"
+          <ChoiceField
+            className="max-w-xl"
             label="Catalog accelerator"
             value={cluster.acceleratorId}
             onChange={(acceleratorId) => onCluster({ ...cluster, acceleratorId })}
             emptyLabel="Pick one…"
             options={offered.map((a) => ({ value: String(a.id), label: a.retiredAt ? `${a.name} (retired)` : a.name }))}
             error={issues["cluster.acceleratorId"]}
-            hint={offered.length ? undefined : "The catalog is empty; an infra lead adds accelerators on the Accelerators page."}
+            hint={
+              offered.length
+                ? undefined
+                : "The catalog is empty; an infra lead adds accelerators on the Accelerators page."
+            }
           />
         ) : (
           <div className="grid gap-3 sm:grid-cols-3">
-            <SheetInput label="Dense peak" unit="TFLOP/s" value={cluster.peakTflops} onChange={(t) => onCluster({ ...cluster, peakTflops: t })} error={issues["cluster.peakFlops"]} hint="At the training precision, no sparsity" />
-            <SheetInput label="Memory per accelerator" unit="GiB" value={cluster.memoryGib} onChange={(t) => onCluster({ ...cluster, memoryGib: t })} error={issues["cluster.memoryBytes"]} />
-            <SheetInput label="Price per accelerator-hour" value={cluster.pricePerHour} onChange={(t) => onCluster({ ...cluster, pricePerHour: t })} error={issues["cluster.pricePerHour"]} hint="Workspace currency" />
+            <SheetInput
+              label="Dense peak"
+              unit="TFLOP/s"
+              value={cluster.peakTflops}
+              onChange={(t) => onCluster({ ...cluster, peakTflops: t })}
+              error={issues["cluster.peakFlops"]}
+              hint="At the training precision, no sparsity"
+            />
+            <SheetInput
+              label="Memory per accelerator"
+              unit="GiB"
+              value={cluster.memoryGib}
+              onChange={(t) => onCluster({ ...cluster, memoryGib: t })}
+              error={issues["cluster.memoryBytes"]}
+            />
+            <SheetInput
+              label="Price per accelerator-hour"
+              value={cluster.pricePerHour}
+              onChange={(t) => onCluster({ ...cluster, pricePerHour: t })}
+              error={issues["cluster.pricePerHour"]}
+              hint="Workspace currency"
+            />
           </div>
         )}
-        {cluster.kind === "custom" && (["peakTflops", "memoryGib", "pricePerHour"] as const).every((k) => cluster[k] === EXAMPLE_CLUSTER[k]) && (
-          <p className="text-note text-hemp-dark" data-testid="example-figures">
-            Example figures, not any real accelerator's: type your hardware's, or pick one from the catalog.
-          </p>
-        )}
+        {cluster.kind === "custom" &&
+          (["peakTflops", "memoryGib", "pricePerHour"] as const).every((k) => cluster[k] === EXAMPLE_CLUSTER[k]) && (
+            <p className="text-note text-hemp-dark" data-testid="example-figures">
+              Example figures, not any real accelerator's: type your hardware's, or pick one from the catalog.
+            </p>
+          )}
         {cluster.kind === "catalog" && picked?.retiredAt && (
-          <p role="status" className="rounded-md border border-l-4 border-hemp/30 border-l-hemp bg-hemp-pale/40 px-4 py-2 text-body" data-testid="retired-accelerator">
-            {picked.name} is retired from the catalog. These figures use its last catalog numbers; pick another accelerator for new work (a plan draft cannot be submitted on it).
+          <p
+            role="status"
+            className="rounded-md border border-l-4 border-hemp/30 border-l-hemp bg-hemp-pale/40 px-4 py-2 text-body"
+            data-testid="retired-accelerator"
+          >
+            {picked.name} is retired from the catalog. These figures use its last catalog numbers; pick another
+            accelerator for new work (a plan draft cannot be submitted on it).
           </p>
         )}
         {cluster.kind === "catalog" && picked && (
           <p className="text-note text-ink-soft" data-testid="picked-accelerator">
-            {picked.name}: {sig3(picked.peakFlops / TFLOPS)} TFLOP/s dense peak, {formatBytes(picked.memoryBytes)}, {formatMoney(picked.pricePerHour)} per hour
+            {picked.name}: {sig3(picked.peakFlops / TFLOPS)} TFLOP/s dense peak, {formatBytes(picked.memoryBytes)},{" "}
+            {formatMoney(picked.pricePerHour)} per hour
             {picked.notes ? ` — ${picked.notes}` : ""}
           </p>
         )}
         <div className="grid gap-3 sm:grid-cols-3">
-          <SheetInput label="Accelerators" value={settings.accelerators} onChange={set("accelerators")} error={issues.accelerators} hint="Across the whole run" />
+          <SheetInput
+            label="Accelerators"
+            value={settings.accelerators}
+            onChange={set("accelerators")}
+            error={issues.accelerators}
+            hint="Across the whole run"
+          />
           <SheetInput
             label="Model FLOPs utilisation"
             value={settings.utilization}
@@ -82,18 +138,32 @@ export function ClusterSettings({ cluster, settings, accelerators, assumptions, 
             placeholder="0.4"
             hint="Blank: 0.4, an assumed figure (common practice, no source)"
           />
-          <SheetInput label="Recomputed fraction of the forward pass" value={settings.recomputeFraction} onChange={set("recomputeFraction")} error={issues.recomputeFraction} placeholder="0" hint="0 to 1; blank: 0" />
+          <SheetInput
+            label="Recomputed fraction of the forward pass"
+            value={settings.recomputeFraction}
+            onChange={set("recomputeFraction")}
+            error={issues.recomputeFraction}
+            placeholder="0"
+            hint="0 to 1; blank: 0"
+          />
         </div>
       </fieldset>
 
       <fieldset className="flex flex-col gap-2" disabled={disabled}>
         <legend className="mb-2 text-body font-semibold">FLOP convention</legend>
         {(Object.keys(CONVENTION_LABELS) as Convention[]).map((c) => (
-          <Radio key={c} name={`${uid}-convention`} checked={convention === c} onChange={() => onSettings({ ...settings, convention: c })} label={CONVENTION_LABELS[c]} />
+          <Radio
+            key={c}
+            name={`${uid}-convention`}
+            checked={convention === c}
+            onChange={() => onSettings({ ...settings, convention: c })}
+            label={CONVENTION_LABELS[c]}
+          />
         ))}
         {assumptions && assumptions.convention === convention && (
           <p className="text-note text-ink-soft" data-testid="convention-formula">
-            Training FLOPs per token = <span className="font-mono">{assumptions.conventionFormula}</span> — {assumptions.conventionSource}
+            Training FLOPs per token = <span className="font-mono">{assumptions.conventionFormula}</span> —{" "}
+            {assumptions.conventionSource}
             {settings.convention === "" && " (the default)"}
           </p>
         )}
@@ -101,9 +171,30 @@ export function ClusterSettings({ cluster, settings, accelerators, assumptions, 
 
       <fieldset className="grid gap-3 sm:grid-cols-3" disabled={disabled}>
         <legend className="mb-2 text-body font-semibold">Memory model</legend>
-        <SheetInput label="Optimizer bytes per parameter" value={settings.optimizerBytesPerParameter} onChange={set("optimizerBytesPerParameter")} error={issues.optimizerBytesPerParameter} placeholder="16" hint="Blank: 16 (bf16 weights and grads, fp32 master and Adam states)" />
-        <SheetInput label="Sequence sharding" value={settings.sequenceSharding} onChange={set("sequenceSharding")} error={issues.sequenceSharding} placeholder="1" hint="Accelerators sharing one sequence; blank: 1" />
-        <SheetInput label="Sequences per micro-batch" value={settings.microBatchSequences} onChange={set("microBatchSequences")} error={issues.microBatchSequences} placeholder="1" hint="Per data-parallel rank; blank: 1" />
+        <SheetInput
+          label="Optimizer bytes per parameter"
+          value={settings.optimizerBytesPerParameter}
+          onChange={set("optimizerBytesPerParameter")}
+          error={issues.optimizerBytesPerParameter}
+          placeholder="16"
+          hint="Blank: 16 (bf16 weights and grads, fp32 master and Adam states)"
+        />
+        <SheetInput
+          label="Sequence sharding"
+          value={settings.sequenceSharding}
+          onChange={set("sequenceSharding")}
+          error={issues.sequenceSharding}
+          placeholder="1"
+          hint="Accelerators sharing one sequence; blank: 1"
+        />
+        <SheetInput
+          label="Sequences per micro-batch"
+          value={settings.microBatchSequences}
+          onChange={set("microBatchSequences")}
+          error={issues.microBatchSequences}
+          placeholder="1"
+          hint="Per data-parallel rank; blank: 1"
+        />
       </fieldset>
     </div>
   );

@@ -1,5 +1,5 @@
 import type { ReactNode } from "react";
-import type { BudgetEstimateResponse } from "../../../../../shared/schemas/budget";
+import type { BudgetEstimateResponse } from "@shared/schemas/budget";
 import { AssumptionLine, AssumptionsList } from "./assumptions";
 import { BudgetTotals } from "./budget-totals";
 import { GrowthChart } from "./growth-chart";
@@ -29,7 +29,11 @@ function Section({ title, children }: { title: string; children: ReactNode }) {
 export function EstimateFigures({ estimate, memoryBytes, accelerators, stale, actions }: Props) {
   const line = <AssumptionLine assumptions={estimate.assumptions} accelerators={accelerators} />;
   return (
-    <div className={`flex flex-col gap-5 transition-opacity ${stale ? "opacity-60" : ""}`} aria-busy={stale || undefined} data-testid="estimate-figures">
+    <div
+      className={`flex flex-col gap-5 transition-opacity ${stale ? "opacity-60" : ""}`}
+      aria-busy={stale || undefined}
+      data-testid="estimate-figures"
+    >
       <Section title="Totals">
         <BudgetTotals totals={estimate.totals} accelerators={accelerators} />
         {line}
@@ -40,11 +44,19 @@ export function EstimateFigures({ estimate, memoryBytes, accelerators, stale, ac
         {line}
       </Section>
       <Section title="Growth with sequence length">
-        <GrowthChart growth={estimate.growth} trainedContext={estimate.assumptions.trainedContext} targetContext={estimate.assumptions.targetContext} />
+        <GrowthChart
+          growth={estimate.growth}
+          trainedContext={estimate.assumptions.trainedContext}
+          targetContext={estimate.assumptions.targetContext}
+        />
         {line}
       </Section>
       <Section title="Memory fit and serving">
-        <MemoryFit stages={estimate.stages} memoryBytes={memoryBytes} sequenceSharding={estimate.assumptions.sequenceSharding} />
+        <MemoryFit
+          stages={estimate.stages}
+          memoryBytes={memoryBytes}
+          sequenceSharding={estimate.assumptions.sequenceSharding}
+        />
         {line}
       </Section>
       <Section title="Assumptions">

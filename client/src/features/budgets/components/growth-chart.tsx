@@ -3,8 +3,8 @@ import { GridRows } from "@visx/grid";
 import { Group } from "@visx/group";
 import { scaleLinear, scaleLog } from "@visx/scale";
 import { Line, LinePath } from "@visx/shape";
-import type { BudgetEstimateResponse } from "../../../../../shared/schemas/budget";
-import { formatMoney, formatScientific } from "../../../lib/format";
+import type { BudgetEstimateResponse } from "@shared/schemas/budget";
+import { formatMoney, formatScientific } from "@/lib/format";
 import { formatLength } from "./chart-colors";
 
 type Growth = BudgetEstimateResponse["growth"];
@@ -23,14 +23,30 @@ function powerOfTwoTicks(lo: number, hi: number, max = 6): number[] {
   return ticks.filter((_, i) => i % step === 0);
 }
 
-function LogLinePanel({ title, points, yFormat, markers, color }: { title: string; points: Point[]; yFormat: (v: number) => string; markers: Marker[]; color: string }) {
+function LogLinePanel({
+  title,
+  points,
+  yFormat,
+  markers,
+  color,
+}: {
+  title: string;
+  points: Point[];
+  yFormat: (v: number) => string;
+  markers: Marker[];
+  color: string;
+}) {
   const innerW = WIDTH - MARGIN.left - MARGIN.right;
   const innerH = HEIGHT - MARGIN.top - MARGIN.bottom;
   const xs = points.map((p) => p.x);
   const lo = Math.min(...xs);
   const hi = Math.max(...xs);
   const x = scaleLog<number>({ domain: [lo, hi === lo ? lo * 2 : hi], range: [0, innerW], base: 2 });
-  const y = scaleLinear<number>({ domain: [0, Math.max(...points.map((p) => p.y)) * 1.05 || 1], range: [innerH, 0], nice: true });
+  const y = scaleLinear<number>({
+    domain: [0, Math.max(...points.map((p) => p.y)) * 1.05 || 1],
+    range: [innerH, 0],
+    nice: true,
+  });
   return (
     <figure className="flex flex-col gap-1">
       <figcaption className="text-note font-semibold">{title}</figcaption>
@@ -39,7 +55,12 @@ function LogLinePanel({ title, points, yFormat, markers, color }: { title: strin
           <GridRows scale={y} width={innerW} numTicks={4} stroke="var(--color-rule)" />
           {markers.map((m) => (
             <g key={m.label}>
-              <Line from={{ x: x(m.x), y: 0 }} to={{ x: x(m.x), y: innerH }} stroke="var(--color-ink-soft)" strokeDasharray="3 3" />
+              <Line
+                from={{ x: x(m.x), y: 0 }}
+                to={{ x: x(m.x), y: innerH }}
+                stroke="var(--color-ink-soft)"
+                strokeDasharray="3 3"
+              />
               <text x={x(m.x) + 4} y={10} fontSize={11} fill="var(--color-ink-soft)">
                 {m.label}
               </text>
@@ -51,7 +72,14 @@ function LogLinePanel({ title, points, yFormat, markers, color }: { title: strin
               <title>{`${formatLength(p.x)} tokens: ${yFormat(p.y)}`}</title>
             </circle>
           ))}
-          <AxisLeft scale={y} numTicks={4} tickFormat={(v) => yFormat(Number(v))} stroke="var(--color-rule-strong)" tickStroke="var(--color-rule-strong)" tickLabelProps={{ fill: "var(--color-ink-soft)", fontSize: 11 }} />
+          <AxisLeft
+            scale={y}
+            numTicks={4}
+            tickFormat={(v) => yFormat(Number(v))}
+            stroke="var(--color-rule-strong)"
+            tickStroke="var(--color-rule-strong)"
+            tickLabelProps={{ fill: "var(--color-ink-soft)", fontSize: 11 }}
+          />
           <AxisBottom
             top={innerH}
             scale={x}
@@ -70,18 +98,40 @@ function LogLinePanel({ title, points, yFormat, markers, color }: { title: strin
 }
 
 /** How FLOPs per token and cost per billion tokens grow with length, from the trained length to 4 × the target. */
-export function GrowthChart({ growth, trainedContext, targetContext }: { growth: Growth; trainedContext: number; targetContext: number }) {
+export function GrowthChart({
+  growth,
+  trainedContext,
+  targetContext,
+}: {
+  growth: Growth;
+  trainedContext: number;
+  targetContext: number;
+}) {
   const markers = [
     { x: trainedContext, label: "trained" },
     ...(targetContext !== trainedContext ? [{ x: targetContext, label: "target" }] : []),
   ];
   return (
     <div className="grid gap-4 md:grid-cols-2" data-testid="growth-chart">
-      <LogLinePanel title="Training FLOPs per token" points={growth.map((g) => ({ x: g.sequenceLength, y: g.flopsPerToken }))} yFormat={formatScientific} markers={markers} color="var(--color-hemp)" />
-      <LogLinePanel title="Cost per billion tokens" points={growth.map((g) => ({ x: g.sequenceLength, y: g.costPerBillionTokens }))} yFormat={formatMoney} markers={markers} color="var(--color-seaglass)" />
+      <LogLinePanel
+        title="Training FLOPs per token"
+        points={growth.map((g) => ({ x: g.sequenceLength, y: g.flopsPerToken }))}
+        yFormat={formatScientific}
+        markers={markers}
+        color="var(--color-hemp)"
+      />
+      <LogLinePanel
+        title="Cost per billion tokens"
+        points={growth.map((g) => ({ x: g.sequenceLength, y: g.costPerBillionTokens }))}
+        yFormat={formatMoney}
+        markers={markers}
+        color="var(--color-seaglass)"
+      />
       <p className="text-note text-ink-soft md:col-span-2">
-        The attention term is {Math.round((growth[0]?.attentionShare ?? 0) * 100)} % of the FLOPs per token at {formatLength(growth[0]?.sequenceLength ?? 0)} and{" "}
-        {Math.round((growth[growth.length - 1]?.attentionShare ?? 0) * 100)} % at {formatLength(growth[growth.length - 1]?.sequenceLength ?? 0)}.
+        The attention term is {Math.round((growth[0]?.attentionShare ?? 0) * 100)} % of the FLOPs per token at{" "}
+        {formatLength(growth[0]?.sequenceLength ?? 0)} and{" "}
+        {Math.round((growth[growth.length - 1]?.attentionShare ?? 0) * 100)} % at{" "}
+        {formatLength(growth[growth.length - 1]?.sequenceLength ?? 0)}.
       </p>
     </div>
   );

@@ -1,19 +1,28 @@
-import type { BudgetEstimateResponse } from "../../../../../shared/schemas/budget";
-import { Notice } from "../../../components/notice";
-import { formatBytes, formatCount } from "../../../lib/format";
-import { FramedTable } from "../../../components/framed-table";
+import type { BudgetEstimateResponse } from "@shared/schemas/budget";
+import { Notice } from "@/components/notice";
+import { formatBytes, formatCount } from "@/lib/format";
+import { FramedTable } from "@/components/framed-table";
 
 type Stage = BudgetEstimateResponse["stages"][number];
 
 /** Whether each stage's training state fits one accelerator, the smallest sequence sharding that does, and the serving view. */
-export function MemoryFit({ stages, memoryBytes, sequenceSharding }: { stages: Stage[]; memoryBytes: number; sequenceSharding: number }) {
+export function MemoryFit({
+  stages,
+  memoryBytes,
+  sequenceSharding,
+}: {
+  stages: Stage[];
+  memoryBytes: number;
+  sequenceSharding: number;
+}) {
   const misfits = stages.filter((s) => !s.fits);
   return (
     <div className="flex flex-col gap-3" data-testid="memory-fit">
       {misfits.map((s) => (
         <Notice key={s.index} tone="alert" title={`Stage ${s.index + 1} does not fit in accelerator memory`}>
           <p>
-            Training needs {formatBytes(s.trainingMemoryPerAccelerator)} per accelerator at sequence sharding {sequenceSharding}; each has {formatBytes(memoryBytes)}.{" "}
+            Training needs {formatBytes(s.trainingMemoryPerAccelerator)} per accelerator at sequence sharding{" "}
+            {sequenceSharding}; each has {formatBytes(memoryBytes)}.{" "}
             {s.minSequenceSharding === null
               ? "No power-of-two sequence sharding within this cluster fits: use more accelerators, larger ones, or a shorter sequence."
               : `Sharding each sequence over ${s.minSequenceSharding} accelerators is the smallest degree that fits.`}
@@ -36,15 +45,19 @@ export function MemoryFit({ stages, memoryBytes, sequenceSharding }: { stages: S
         {stages.map((s) => (
           <tr key={s.index} className="border-b border-rule/70 align-top last:border-b-0">
             <th scope="row" className="px-2 py-2 text-left font-medium">
-              Stage {s.index + 1} <span className="font-normal text-ink-soft">({formatCount(s.sequenceLength)} tokens)</span>
+              Stage {s.index + 1}{" "}
+              <span className="font-normal text-ink-soft">({formatCount(s.sequenceLength)} tokens)</span>
             </th>
             <td className="px-2 py-2 tabular-nums">
               {formatBytes(s.trainingMemory.total)}
               <span className="block text-note text-ink-soft">
-                model states {formatBytes(s.trainingMemory.modelStates)} + activations {formatBytes(s.trainingMemory.activations)}
+                model states {formatBytes(s.trainingMemory.modelStates)} + activations{" "}
+                {formatBytes(s.trainingMemory.activations)}
               </span>
             </td>
-            <td className={`px-2 py-2 font-medium ${s.fits ? "text-seaglass-dark" : "text-signal"}`}>{s.fits ? "fits" : "does not fit"}</td>
+            <td className={`px-2 py-2 font-medium ${s.fits ? "text-seaglass-dark" : "text-signal"}`}>
+              {s.fits ? "fits" : "does not fit"}
+            </td>
             <td className="px-2 py-2">{s.minSequenceSharding ?? "none up to the cluster size"}</td>
             <td className="px-2 py-2 tabular-nums">
               {formatBytes(s.kvCacheBytesPerToken)} / {formatBytes(s.kvCacheBytesPerSequence)}

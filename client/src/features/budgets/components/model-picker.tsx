@@ -1,10 +1,10 @@
 import { useId } from "react";
-import { formatCount } from "../../../lib/format";
-import type { ModelProfile } from "../../../../../shared/schemas/models";
+import { formatCount } from "@/lib/format";
+import type { ModelProfile } from "@shared/schemas/models";
 import { emptyShape, type ModelDraft, type ShapeField } from "../lib/model-draft";
 import { Radio } from "./radio";
 import { SheetInput } from "./sheet-input";
-import { ChoiceField } from "../../../components/field";
+import { ChoiceField } from "@/components/field";
 
 const SHAPE_LABELS: Record<ShapeField, { label: string; hint?: string }> = {
   parameters: { label: "Parameters", hint: "Non-embedding count, for 6N and weight memory" },
@@ -19,16 +19,37 @@ const SHAPE_LABELS: Record<ShapeField, { label: string; hint?: string }> = {
 /** Only the fields the estimator reads from a stored profile (GET /api/models, read through lib/api/models). */
 export type ModelChoice = Pick<
   ModelProfile,
-  "id" | "name" | "family" | "parameters" | "layers" | "attentionHeads" | "kvHeads" | "headDim" | "hiddenSize" | "bytesPerElement" | "trainedContext" | "retiredAt"
+  | "id"
+  | "name"
+  | "family"
+  | "parameters"
+  | "layers"
+  | "attentionHeads"
+  | "kvHeads"
+  | "headDim"
+  | "hiddenSize"
+  | "bytesPerElement"
+  | "trainedContext"
+  | "retiredAt"
 >;
 
-type Props = { value: ModelDraft; onChange: (next: ModelDraft) => void; profiles: ModelChoice[]; issues: Record<string, string> };
+type Props = {
+  value: ModelDraft;
+  onChange: (next: ModelDraft) => void;
+  profiles: ModelChoice[];
+  issues: Record<string, string>;
+};
 
 /** A stored profile, or a model shape typed by hand. */
 export function ModelPicker({ value, onChange, profiles, issues }: Props) {
   const uid = useId();
   const radio = (kind: ModelDraft["kind"], label: string) => (
-    <Radio name={`${uid}-model`} checked={value.kind === kind} onChange={() => onChange(kind === "profile" ? { kind: "profile", modelId: "" } : emptyShape())} label={label} />
+    <Radio
+      name={`${uid}-model`}
+      checked={value.kind === kind}
+      onChange={() => onChange(kind === "profile" ? { kind: "profile", modelId: "" } : emptyShape())}
+      label={label}
+    />
   );
   return (
     <fieldset className="flex flex-col gap-3">
@@ -38,21 +59,32 @@ export function ModelPicker({ value, onChange, profiles, issues }: Props) {
         {radio("shape", "Type a shape")}
       </div>
       {value.kind === "profile" ? (
-        <ChoiceField className="max-w-xl"
+        <ChoiceField
+          className="max-w-xl"
           label="Model profile"
           value={value.modelId}
           onChange={(modelId) => onChange({ kind: "profile", modelId })}
           emptyLabel="Pick a profile…"
           options={profiles
             .filter((p) => !p.retiredAt || String(p.id) === value.modelId)
-            .map((p) => ({ value: String(p.id), label: `${p.name} (${p.family}): ${formatCount(p.parameters)} parameters, trained at ${p.trainedContext} tokens${p.retiredAt ? " (retired)" : ""}` }))}
+            .map((p) => ({
+              value: String(p.id),
+              label: `${p.name} (${p.family}): ${formatCount(p.parameters)} parameters, trained at ${p.trainedContext} tokens${p.retiredAt ? " (retired)" : ""}`,
+            }))}
           error={issues["model.modelId"]}
           hint={profiles.length ? undefined : "No profiles yet; type a shape instead."}
         />
       ) : (
         <div className="grid gap-3 sm:grid-cols-4">
           {(Object.keys(SHAPE_LABELS) as ShapeField[]).map((f) => (
-            <SheetInput key={f} label={SHAPE_LABELS[f].label} hint={SHAPE_LABELS[f].hint} value={value[f]} error={issues[`model.${f}`]} onChange={(t) => onChange({ ...value, [f]: t })} />
+            <SheetInput
+              key={f}
+              label={SHAPE_LABELS[f].label}
+              hint={SHAPE_LABELS[f].hint}
+              value={value[f]}
+              error={issues[`model.${f}`]}
+              onChange={(t) => onChange({ ...value, [f]: t })}
+            />
           ))}
         </div>
       )}

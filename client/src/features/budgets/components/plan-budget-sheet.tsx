@@ -1,17 +1,33 @@
 import { useState } from "react";
 import { get, useFormContext, useWatch, type FieldErrors } from "react-hook-form";
-import type { Accelerator } from "../../../../../shared/schemas/budget";
-import type { ModelSnapshot } from "../../../../../shared/schemas/plan-responses";
-import type { RevisionInput } from "../../../../../shared/schemas/plans";
-import { draftFromPlanBudget, PLAN_STAGE_FIELDS, planBudgetFromDraft, stageDraftsFromPlan, type PlanStageNumbers } from "../lib/plan-draft";
+import type { Accelerator } from "@shared/schemas/budget";
+import type { ModelSnapshot } from "@shared/schemas/plan-responses";
+import type { RevisionInput } from "@shared/schemas/plans";
+import {
+  draftFromPlanBudget,
+  PLAN_STAGE_FIELDS,
+  planBudgetFromDraft,
+  stageDraftsFromPlan,
+  type PlanStageNumbers,
+} from "../lib/plan-draft";
 import { type SheetDraft, type StageDraft } from "../lib/sheet-draft";
 import { BudgetSheet } from "./budget-sheet";
-import { parseNumberText } from "../../../lib/number-text";
-import { budgetShapeOf } from "../../../../../shared/profile-shapes";
+import { parseNumberText } from "@/lib/number-text";
+import { budgetShapeOf } from "@shared/profile-shapes";
 
 type PlanForm = { revision: RevisionInput; modelId?: number };
 /** The model fields the budget uses: a revision's frozen snapshot, or a profile. */
-export type PlanModelShape = Pick<ModelSnapshot, "parameters" | "layers" | "attentionHeads" | "kvHeads" | "headDim" | "hiddenSize" | "bytesPerElement" | "trainedContext">;
+export type PlanModelShape = Pick<
+  ModelSnapshot,
+  | "parameters"
+  | "layers"
+  | "attentionHeads"
+  | "kvHeads"
+  | "headDim"
+  | "hiddenSize"
+  | "bytesPerElement"
+  | "trainedContext"
+>;
 type Props = {
   /** The revision's model; or `models`, from which the form's own `modelId` picks (the new-plan form). */
   model?: PlanModelShape;
@@ -21,13 +37,19 @@ type Props = {
 };
 
 /** Form errors under `prefix` as flat "a.b.c" keys, renamed for the sheet (budget fields drop their prefix). */
-function flatErrors(errors: FieldErrors, prefix: string, rename: (key: string) => string, out: Record<string, string> = {}) {
+function flatErrors(
+  errors: FieldErrors,
+  prefix: string,
+  rename: (key: string) => string,
+  out: Record<string, string> = {},
+) {
   const node = get(errors, prefix) as Record<string, unknown> | undefined;
   const walk = (value: unknown, path: string) => {
     if (!value || typeof value !== "object") return;
     const message = (value as { message?: unknown }).message;
     if (typeof message === "string" && path) out[rename(path)] = message;
-    for (const [k, v] of Object.entries(value)) if (k !== "ref" && k !== "message" && k !== "type") walk(v, path ? `${path}.${k}` : k);
+    for (const [k, v] of Object.entries(value))
+      if (k !== "ref" && k !== "message" && k !== "type") walk(v, path ? `${path}.${k}` : k);
   };
   walk(node, "");
   return out;
@@ -103,10 +125,17 @@ export function PlanBudgetSheet({ model: given, models, accelerators, disabled }
       <header>
         <h2 className="text-title font-semibold">Budget</h2>
         <p className="text-body text-ink-soft">
-          What the stages cost on the chosen accelerators, and whether each fits in memory. Lengths, batches and steps typed here are the stages' own.
+          What the stages cost on the chosen accelerators, and whether each fits in memory. Lengths, batches and steps
+          typed here are the stages' own.
         </p>
       </header>
-      {stages.length === 0 ? <p className="text-body text-ink-soft">Add a stage to cost this plan: the budget sheet works from the plan's stages.</p> : sheet}
+      {stages.length === 0 ? (
+        <p className="text-body text-ink-soft">
+          Add a stage to cost this plan: the budget sheet works from the plan's stages.
+        </p>
+      ) : (
+        sheet
+      )}
     </section>
   );
 }

@@ -1,6 +1,6 @@
 import { useState } from "react";
-import type { BudgetRecipeResponse } from "../../../../../shared/schemas/budget";
-import { Button } from "../../../components/button";
+import type { BudgetRecipeResponse } from "@shared/schemas/budget";
+import { Button } from "@/components/button";
 import { citation } from "../lib/recipes";
 
 type Props = {
@@ -21,7 +21,11 @@ export function RecipeMenu({ recipes, caution, targets, onPick }: Props) {
       {targets && targets.length > 0 && (
         <label className="mt-2 flex items-center gap-2 text-note font-semibold">
           Apply to
-          <select value={target} onChange={(e) => setTarget(Number(e.target.value))} className="rounded-md border border-rule-strong bg-white/70 px-2 py-1 text-body font-normal">
+          <select
+            value={target}
+            onChange={(e) => setTarget(Number(e.target.value))}
+            className="rounded-md border border-rule-strong bg-white/70 px-2 py-1 text-body font-normal"
+          >
             {targets.map((t, i) => (
               <option key={t} value={i}>
                 {t}
@@ -32,7 +36,10 @@ export function RecipeMenu({ recipes, caution, targets, onPick }: Props) {
       )}
       <ul className="mt-3 flex flex-col gap-3">
         {recipes.map((r) => (
-          <li key={r.id} className="flex flex-wrap items-start justify-between gap-3 border-t border-rule pt-3 first:border-t-0 first:pt-0">
+          <li
+            key={r.id}
+            className="flex flex-wrap items-start justify-between gap-3 border-t border-rule pt-3 first:border-t-0 first:pt-0"
+          >
             <div className="max-w-prose">
               <p className="font-semibold">{r.name}</p>
               <p className="text-note">{r.summary}</p>
@@ -40,7 +47,12 @@ export function RecipeMenu({ recipes, caution, targets, onPick }: Props) {
                 Reported by {citation(r)}, <cite>{r.source.title}</cite>
               </p>
             </div>
-            <Button variant="secondary" size="sm" onClick={() => onPick(r, targets ? target : null)} aria-label={`Use ${r.name}`}>
+            <Button
+              variant="secondary"
+              size="sm"
+              onClick={() => onPick(r, targets ? target : null)}
+              aria-label={`Use ${r.name}`}
+            >
               {targets ? "Apply" : "Add as a stage"}
             </Button>
           </li>

@@ -1,4 +1,4 @@
-import { TextField, TextInput } from "../../../components/field";
+import { TextField, TextInput } from "@/components/field";
 
 type SheetInputProps = {
   label: string;
@@ -30,7 +30,13 @@ export function SheetInput({ label, value, onChange, error, hint, unit, placehol
 }
 
 /** A bare input for a table cell: the accessible name comes from `label`, the error sits under it. */
-export function CellInput({ label, value, onChange, error, disabled }: Omit<SheetInputProps, "hint" | "unit" | "placeholder">) {
+export function CellInput({
+  label,
+  value,
+  onChange,
+  error,
+  disabled,
+}: Omit<SheetInputProps, "hint" | "unit" | "placeholder">) {
   return (
     <div className="flex min-w-24 flex-col gap-0.5">
       <TextInput

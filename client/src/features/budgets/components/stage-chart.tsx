@@ -2,8 +2,8 @@ import { AxisBottom } from "@visx/axis";
 import { Group } from "@visx/group";
 import { scaleBand, scaleLinear } from "@visx/scale";
 import { BarStackHorizontal } from "@visx/shape";
-import type { BudgetEstimateResponse } from "../../../../../shared/schemas/budget";
-import { formatCount, formatHours } from "../../../lib/format";
+import type { BudgetEstimateResponse } from "@shared/schemas/budget";
+import { formatCount, formatHours } from "@/lib/format";
 import { stageColor } from "./chart-colors";
 
 type Stage = BudgetEstimateResponse["stages"][number];
@@ -23,17 +23,31 @@ export function StageShareChart({ stages }: { stages: Stage[] }) {
   const totalHours = stages.reduce((t, s) => t + s.acceleratorHours, 0) || 1;
   const rows: Row[] = [
     { metric: "Tokens", ...Object.fromEntries(stages.map((s) => [`stage${s.index}`, s.tokens / totalTokens])) },
-    { metric: "Accelerator-hours", ...Object.fromEntries(stages.map((s) => [`stage${s.index}`, s.acceleratorHours / totalHours])) },
+    {
+      metric: "Accelerator-hours",
+      ...Object.fromEntries(stages.map((s) => [`stage${s.index}`, s.acceleratorHours / totalHours])),
+    },
   ];
   const innerWidth = WIDTH - MARGIN.left - MARGIN.right;
   const height = MARGIN.top + MARGIN.bottom + rows.length * ROW_HEIGHT;
   const xScale = scaleLinear<number>({ domain: [0, 1], range: [0, innerWidth] });
-  const yScale = scaleBand<string>({ domain: rows.map((r) => r.metric), range: [0, rows.length * ROW_HEIGHT], padding: 0.25 });
-  const absolute = (metric: string, s: Stage) => (metric === "Tokens" ? `${formatCount(s.tokens)} tokens` : formatHours(s.acceleratorHours));
+  const yScale = scaleBand<string>({
+    domain: rows.map((r) => r.metric),
+    range: [0, rows.length * ROW_HEIGHT],
+    padding: 0.25,
+  });
+  const absolute = (metric: string, s: Stage) =>
+    metric === "Tokens" ? `${formatCount(s.tokens)} tokens` : formatHours(s.acceleratorHours);
 
   return (
     <figure className="flex flex-col gap-2">
-      <svg viewBox={`0 0 ${WIDTH} ${height}`} width="100%" role="img" aria-label="Share of tokens and of accelerator-hours by stage" data-testid="stage-chart">
+      <svg
+        viewBox={`0 0 ${WIDTH} ${height}`}
+        width="100%"
+        role="img"
+        aria-label="Share of tokens and of accelerator-hours by stage"
+        data-testid="stage-chart"
+      >
         <Group top={MARGIN.top} left={MARGIN.left}>
           <BarStackHorizontal<Row, string>
             data={rows}
@@ -46,7 +60,15 @@ export function StageShareChart({ stages }: { stages: Stage[] }) {
             {(stacks) =>
               stacks.map((stack, k) =>
                 stack.bars.map((bar) => (
-                  <rect key={`${stack.key}-${bar.index}`} x={bar.x} y={bar.y} width={Math.max(0, bar.width)} height={bar.height} fill={bar.color} stroke="var(--color-paper)">
+                  <rect
+                    key={`${stack.key}-${bar.index}`}
+                    x={bar.x}
+                    y={bar.y}
+                    width={Math.max(0, bar.width)}
+                    height={bar.height}
+                    fill={bar.color}
+                    stroke="var(--color-paper)"
+                  >
                     <title>{`Stage ${k + 1}: ${absolute(rows[bar.index].metric, stages[k])} (${Math.round((rows[bar.index][stack.key] as number) * 100)} %)`}</title>
                   </rect>
                 )),
@@ -54,7 +76,15 @@ export function StageShareChart({ stages }: { stages: Stage[] }) {
             }
           </BarStackHorizontal>
           {rows.map((r) => (
-            <text key={r.metric} x={-8} y={(yScale(r.metric) ?? 0) + yScale.bandwidth() / 2} textAnchor="end" dominantBaseline="middle" fontSize={13} fill="var(--color-ink)">
+            <text
+              key={r.metric}
+              x={-8}
+              y={(yScale(r.metric) ?? 0) + yScale.bandwidth() / 2}
+              textAnchor="end"
+              dominantBaseline="middle"
+              fontSize={13}
+              fill="var(--color-ink)"
+            >
               {r.metric}
             </text>
           ))}

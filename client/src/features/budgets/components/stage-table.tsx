@@ -1,12 +1,12 @@
-import type { BudgetEstimateResponse, BudgetRecipeResponse } from "../../../../../shared/schemas/budget";
-import { MAX_BUDGET_STAGES } from "../../../../../shared/schemas/budget";
-import { Button } from "../../../components/button";
-import { Chip } from "../../../components/notice";
-import { formatCount, formatHours, formatMoney } from "../../../lib/format";
+import type { BudgetEstimateResponse, BudgetRecipeResponse } from "@shared/schemas/budget";
+import { MAX_BUDGET_STAGES } from "@shared/schemas/budget";
+import { Button } from "@/components/button";
+import { Chip } from "@/components/notice";
+import { formatCount, formatHours, formatMoney } from "@/lib/format";
 import { citation, stillAsReported } from "../lib/recipes";
 import { emptyStage, type StageDraft } from "../lib/sheet-draft";
 import { CellInput } from "./sheet-input";
-import { FramedTable } from "../../../components/framed-table";
+import { FramedTable } from "@/components/framed-table";
 
 type Props = {
   stages: StageDraft[];
@@ -21,13 +21,20 @@ type Props = {
   onChange: (stages: StageDraft[]) => void;
 };
 
-
 export function StageTable({ stages, figures, issues, recipes, fixedRows, rowLabels, disabled, onChange }: Props) {
-  const update = (i: number, patch: Partial<StageDraft>) => onChange(stages.map((s, k) => (k === i ? { ...s, ...patch } : s)));
+  const update = (i: number, patch: Partial<StageDraft>) =>
+    onChange(stages.map((s, k) => (k === i ? { ...s, ...patch } : s)));
   const remove = (i: number) => onChange(stages.filter((_, k) => k !== i));
   const add = () => {
     const last = stages[stages.length - 1];
-    onChange([...stages, emptyStage({ sequenceLength: last?.sequenceLength ?? "", globalBatch: last?.globalBatch ?? "", steps: last?.steps ?? "" })]);
+    onChange([
+      ...stages,
+      emptyStage({
+        sequenceLength: last?.sequenceLength ?? "",
+        globalBatch: last?.globalBatch ?? "",
+        steps: last?.steps ?? "",
+      }),
+    ]);
   };
   const issue = (i: number, field: string) => issues[`stages.${i}.${field}`];
 
@@ -44,7 +51,11 @@ export function StageTable({ stages, figures, issues, recipes, fixedRows, rowLab
             <th scope="col">Tokens trained</th>
             <th scope="col">Accelerator-hours</th>
             <th scope="col">Cost</th>
-            {!fixedRows && <th scope="col"><span className="sr-only">Remove</span></th>}
+            {!fixedRows && (
+              <th scope="col">
+                <span className="sr-only">Remove</span>
+              </th>
+            )}
           </>
         }
       >
@@ -64,10 +75,22 @@ export function StageTable({ stages, figures, issues, recipes, fixedRows, rowLab
                 )}
               </th>
               <td className="px-2 py-2">
-                <CellInput label={`${name} sequence length`} value={s.sequenceLength} onChange={(t) => update(i, { sequenceLength: t })} error={issue(i, "sequenceLength")} disabled={disabled} />
+                <CellInput
+                  label={`${name} sequence length`}
+                  value={s.sequenceLength}
+                  onChange={(t) => update(i, { sequenceLength: t })}
+                  error={issue(i, "sequenceLength")}
+                  disabled={disabled}
+                />
               </td>
               <td className="px-2 py-2">
-                <CellInput label={`${name} global batch`} value={s.globalBatch} onChange={(t) => update(i, { globalBatch: t })} error={issue(i, "globalBatch")} disabled={disabled} />
+                <CellInput
+                  label={`${name} global batch`}
+                  value={s.globalBatch}
+                  onChange={(t) => update(i, { globalBatch: t })}
+                  error={issue(i, "globalBatch")}
+                  disabled={disabled}
+                />
               </td>
               <td className="px-2 py-2">
                 <div className="flex items-start gap-1">
@@ -84,19 +107,39 @@ export function StageTable({ stages, figures, issues, recipes, fixedRows, rowLab
                     </select>
                   )}
                   {s.by === "steps" ? (
-                    <CellInput label={`${name} steps`} value={s.steps} onChange={(t) => update(i, { steps: t })} error={issue(i, "steps")} disabled={disabled} />
+                    <CellInput
+                      label={`${name} steps`}
+                      value={s.steps}
+                      onChange={(t) => update(i, { steps: t })}
+                      error={issue(i, "steps")}
+                      disabled={disabled}
+                    />
                   ) : (
-                    <CellInput label={`${name} token target`} value={s.tokens} onChange={(t) => update(i, { tokens: t })} error={issue(i, "tokens")} disabled={disabled} />
+                    <CellInput
+                      label={`${name} token target`}
+                      value={s.tokens}
+                      onChange={(t) => update(i, { tokens: t })}
+                      error={issue(i, "tokens")}
+                      disabled={disabled}
+                    />
                   )}
                 </div>
-                {f && s.by === "tokens" && <p className="mt-1 text-note text-ink-soft">{formatCount(f.steps)} whole steps</p>}
+                {f && s.by === "tokens" && (
+                  <p className="mt-1 text-note text-ink-soft">{formatCount(f.steps)} whole steps</p>
+                )}
               </td>
               <td className="px-2 py-2 tabular-nums">{f ? formatCount(f.tokens) : "—"}</td>
               <td className="px-2 py-2 tabular-nums">{f ? formatHours(f.acceleratorHours) : "—"}</td>
               <td className="px-2 py-2 tabular-nums">{f ? formatMoney(f.cost) : "—"}</td>
               {!fixedRows && (
                 <td className="px-2 py-2">
-                  <Button variant="quiet" size="sm" onClick={() => remove(i)} disabled={disabled || stages.length <= 1} aria-label={`Remove ${name}`}>
+                  <Button
+                    variant="quiet"
+                    size="sm"
+                    onClick={() => remove(i)}
+                    disabled={disabled || stages.length <= 1}
+                    aria-label={`Remove ${name}`}
+                  >
                     Remove
                   </Button>
                 </td>

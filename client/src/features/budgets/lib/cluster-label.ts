@@ -1,4 +1,4 @@
-import { formatBytes, formatMoney, sig3, TFLOPS } from "../../../lib/format";
+import { formatBytes, formatMoney, sig3, TFLOPS } from "@/lib/format";
 
 type Spec = { peakFlops: number; memoryBytes: number; pricePerHour: number };
 

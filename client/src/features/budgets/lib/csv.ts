@@ -1,5 +1,5 @@
 import Papa from "papaparse";
-import type { BudgetEstimateResponse } from "../../../../../shared/schemas/budget";
+import type { BudgetEstimateResponse } from "@shared/schemas/budget";
 
 /**
  * The stage table with its figures, one row per stage and a totals row, in base units (bytes, FLOPs, hours).
@@ -39,8 +39,13 @@ export function stagesCsv(estimate: BudgetEstimateResponse, clusterLabel: string
   }));
   const t = estimate.totals;
   const totals = {
-    stage: "total", tokens: t.tokens, FLOPs: t.flops, "accelerator-hours": t.acceleratorHours,
-    "wall-clock hours": t.wallClockHours, cost: t.cost, ...conventions,
+    stage: "total",
+    tokens: t.tokens,
+    FLOPs: t.flops,
+    "accelerator-hours": t.acceleratorHours,
+    "wall-clock hours": t.wallClockHours,
+    cost: t.cost,
+    ...conventions,
   };
   return Papa.unparse([...rows, totals], { columns: Object.keys(rows[0] ?? totals) });
 }

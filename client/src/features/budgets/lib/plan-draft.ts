@@ -1,7 +1,13 @@
-import type { PlanBudgetInput } from "../../../../../shared/schemas/plans";
-import { parseNumberText } from "../../../lib/number-text";
-import { GIB, TFLOPS } from "../../../lib/format";
-import { defaultSettings, settingsRequest, type ClusterDraft, type SettingsDraft, type StageDraft } from "./sheet-draft";
+import type { PlanBudgetInput } from "@shared/schemas/plans";
+import { parseNumberText } from "@/lib/number-text";
+import { GIB, TFLOPS } from "@/lib/format";
+import {
+  defaultSettings,
+  settingsRequest,
+  type ClusterDraft,
+  type SettingsDraft,
+  type StageDraft,
+} from "./sheet-draft";
 
 /** The plan fields the sheet edits; the rest of a stage (target, method, rate, data mix) belongs to the plan editor. */
 export const PLAN_STAGE_FIELDS = ["sequenceLength", "globalBatch", "steps"] as const;
@@ -11,14 +17,23 @@ export type PlanStageNumbers = Partial<Record<PlanStageField, number>>;
 const text = (v: number | undefined) => (v === undefined ? "" : String(v));
 
 /** A stored budget block as sheet inputs; no block yet: a catalog accelerator still to pick. */
-export function draftFromPlanBudget(budget: PlanBudgetInput | undefined): { cluster: ClusterDraft; settings: SettingsDraft } {
+export function draftFromPlanBudget(budget: PlanBudgetInput | undefined): {
+  cluster: ClusterDraft;
+  settings: SettingsDraft;
+} {
   const blank: ClusterDraft = { kind: "catalog", acceleratorId: "", peakTflops: "", memoryGib: "", pricePerHour: "" };
   if (!budget) return { cluster: blank, settings: defaultSettings() };
   const c = budget.cluster as Record<string, number | undefined>;
   const cluster: ClusterDraft =
     c.acceleratorId !== undefined
       ? { ...blank, acceleratorId: String(c.acceleratorId) }
-      : { kind: "custom", acceleratorId: "", peakTflops: text(c.peakFlops === undefined ? undefined : c.peakFlops / TFLOPS), memoryGib: text(c.memoryBytes === undefined ? undefined : c.memoryBytes / GIB), pricePerHour: text(c.pricePerHour) };
+      : {
+          kind: "custom",
+          acceleratorId: "",
+          peakTflops: text(c.peakFlops === undefined ? undefined : c.peakFlops / TFLOPS),
+          memoryGib: text(c.memoryBytes === undefined ? undefined : c.memoryBytes / GIB),
+          pricePerHour: text(c.pricePerHour),
+        };
   return {
     cluster,
     settings: {
@@ -34,7 +49,10 @@ export function draftFromPlanBudget(budget: PlanBudgetInput | undefined): { clus
 }
 
 /** Sheet inputs as the plan's budget block; undefined while no accelerator is chosen (the plan then carries no budget). */
-export function planBudgetFromDraft(draft: { cluster: ClusterDraft; settings: SettingsDraft }): PlanBudgetInput | undefined {
+export function planBudgetFromDraft(draft: {
+  cluster: ClusterDraft;
+  settings: SettingsDraft;
+}): PlanBudgetInput | undefined {
   if (draft.cluster.kind === "catalog" && draft.cluster.acceleratorId.trim() === "") return undefined;
   const request = settingsRequest(draft);
   const defined = (o: object) => Object.fromEntries(Object.entries(o).filter(([, v]) => v !== undefined));
@@ -47,7 +65,11 @@ const same = (a: number | undefined, b: number | undefined) => a === b || (Numbe
  * Stage rows for the sheet from the plan's numbers. `typed` keeps what was typed in the sheet ("i.field" → text)
  * while it still stands for the plan's number, so a half-typed value is not rewritten under the cursor.
  */
-export function stageDraftsFromPlan(stages: PlanStageNumbers[], typed: Record<string, string>, recipes: (StageDraft["recipeId"] | undefined)[]): StageDraft[] {
+export function stageDraftsFromPlan(
+  stages: PlanStageNumbers[],
+  typed: Record<string, string>,
+  recipes: (StageDraft["recipeId"] | undefined)[],
+): StageDraft[] {
   return stages.map((s, i) => {
     const cell = (field: PlanStageField) => {
       const t = typed[`${i}.${field}`];
@@ -55,6 +77,13 @@ export function stageDraftsFromPlan(stages: PlanStageNumbers[], typed: Record<st
       return s[field] === undefined || Number.isNaN(s[field]) ? (t ?? "") : String(s[field]);
     };
     const recipeId = recipes[i];
-    return { sequenceLength: cell("sequenceLength"), globalBatch: cell("globalBatch"), by: "steps", steps: cell("steps"), tokens: "", ...(recipeId ? { recipeId } : {}) };
+    return {
+      sequenceLength: cell("sequenceLength"),
+      globalBatch: cell("globalBatch"),
+      by: "steps",
+      steps: cell("steps"),
+      tokens: "",
+      ...(recipeId ? { recipeId } : {}),
+    };
   });
 }

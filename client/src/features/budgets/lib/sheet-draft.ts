@@ -5,9 +5,9 @@ import {
   type BUDGET_RECIPE_IDS,
   type FLOP_CONVENTIONS,
   type ModelRequest,
-} from "../../../../../shared/schemas/budget";
-import { GIB, TFLOPS } from "../../../lib/format";
-import { parseNumberText } from "../../../lib/number-text";
+} from "@shared/schemas/budget";
+import { GIB, TFLOPS } from "@/lib/format";
+import { parseNumberText } from "@/lib/number-text";
 
 export type RecipeId = (typeof BUDGET_RECIPE_IDS)[number];
 export type Convention = (typeof FLOP_CONVENTIONS)[number];
@@ -48,17 +48,32 @@ export type SettingsDraft = {
 export type SheetDraft = { cluster: ClusterDraft; settings: SettingsDraft; stages: StageDraft[] };
 
 export const emptyStage = (over: Partial<StageDraft> = {}): StageDraft => ({
-  sequenceLength: "", globalBatch: "", by: "steps", steps: "", tokens: "", ...over,
+  sequenceLength: "",
+  globalBatch: "",
+  by: "steps",
+  steps: "",
+  tokens: "",
+  ...over,
 });
 
 /** Example custom figures, labelled as such on screen, so a first visit shows numbers. */
-export const EXAMPLE_CLUSTER: ClusterDraft = { kind: "custom", acceleratorId: "", peakTflops: "400", memoryGib: "80", pricePerHour: "2.5" };
+export const EXAMPLE_CLUSTER: ClusterDraft = {
+  kind: "custom",
+  acceleratorId: "",
+  peakTflops: "400",
+  memoryGib: "80",
+  pricePerHour: "2.5",
+};
 
 export const defaultSettings = (): SettingsDraft => ({
-  accelerators: "8", utilization: "", convention: "", recomputeFraction: "", optimizerBytesPerParameter: "",
-  sequenceSharding: "", microBatchSequences: "",
+  accelerators: "8",
+  utilization: "",
+  convention: "",
+  recomputeFraction: "",
+  optimizerBytesPerParameter: "",
+  sequenceSharding: "",
+  microBatchSequences: "",
 });
-
 
 function clusterRequest(c: ClusterDraft): BudgetEstimateRequest["cluster"] {
   if (c.kind === "catalog") return { acceleratorId: parseNumberText(c.acceleratorId) as number };
@@ -66,7 +81,11 @@ function clusterRequest(c: ClusterDraft): BudgetEstimateRequest["cluster"] {
     const v = parseNumberText(text);
     return v === undefined ? undefined : Math.round(v * unit);
   };
-  return { peakFlops: scaled(c.peakTflops, TFLOPS), memoryBytes: scaled(c.memoryGib, GIB), pricePerHour: parseNumberText(c.pricePerHour) } as BudgetEstimateRequest["cluster"];
+  return {
+    peakFlops: scaled(c.peakTflops, TFLOPS),
+    memoryBytes: scaled(c.memoryGib, GIB),
+    pricePerHour: parseNumberText(c.pricePerHour),
+  } as BudgetEstimateRequest["cluster"];
 }
 
 /** Cluster and settings as the plan's budget block and the estimate request both carry them. */
@@ -85,8 +104,13 @@ export function settingsRequest(draft: Pick<SheetDraft, "cluster" | "settings">)
 }
 
 function stageRequest(s: StageDraft): BudgetEstimateRequest["stages"][number] {
-  const common = { sequenceLength: parseNumberText(s.sequenceLength) as number, globalBatch: parseNumberText(s.globalBatch) as number };
-  return s.by === "steps" ? { ...common, steps: parseNumberText(s.steps) as number } : { ...common, tokens: parseNumberText(s.tokens) as number };
+  const common = {
+    sequenceLength: parseNumberText(s.sequenceLength) as number,
+    globalBatch: parseNumberText(s.globalBatch) as number,
+  };
+  return s.by === "steps"
+    ? { ...common, steps: parseNumberText(s.steps) as number }
+    : { ...common, tokens: parseNumberText(s.tokens) as number };
 }
 
 /** Drops keys whose value is undefined, so JSON and the query key stay small and stable. */
@@ -133,7 +157,8 @@ function plainMessage(issue: z.core.$ZodIssue): string {
     // zod 4 leaves the input out of issues unless asked; its message names what it received.
     return /received undefined/.test(issue.message) ? "required" : "not a number";
   }
-  if (issue.code === "too_small") return `must be ${issue.inclusive === false ? "above" : "at least"} ${Number(issue.minimum)}`;
+  if (issue.code === "too_small")
+    return `must be ${issue.inclusive === false ? "above" : "at least"} ${Number(issue.minimum)}`;
   if (issue.code === "too_big") return `must be at most ${Number(issue.maximum).toLocaleString("en-GB")}`;
   if (issue.code === "invalid_value") return "pick one";
   return issue.message;

@@ -1,5 +1,13 @@
 import { emptyShape, SHAPE_FIELDS, type ModelDraft } from "./model-draft";
-import { defaultSettings, EXAMPLE_CLUSTER, type ClusterDraft, type SettingsDraft, type SheetDraft, type StageDraft, type RecipeId } from "./sheet-draft";
+import {
+  defaultSettings,
+  EXAMPLE_CLUSTER,
+  type ClusterDraft,
+  type SettingsDraft,
+  type SheetDraft,
+  type StageDraft,
+  type RecipeId,
+} from "./sheet-draft";
 
 /*
  * The estimator's inputs live in the URL so a figure can be shared by its link:
@@ -10,8 +18,12 @@ import { defaultSettings, EXAMPLE_CLUSTER, type ClusterDraft, type SettingsDraft
  */
 
 const SETTING_KEYS: Record<Exclude<keyof SettingsDraft, "convention">, string> = {
-  accelerators: "n", utilization: "util", recomputeFraction: "rf", optimizerBytesPerParameter: "opt",
-  sequenceSharding: "sp", microBatchSequences: "mb",
+  accelerators: "n",
+  utilization: "util",
+  recomputeFraction: "rf",
+  optimizerBytesPerParameter: "opt",
+  sequenceSharding: "sp",
+  microBatchSequences: "mb",
 };
 const RECIPES: readonly RecipeId[] = ["position-interpolation", "yarn", "adjusted-base"];
 
@@ -25,8 +37,11 @@ function stageFromText(text: string): StageDraft {
   const byTokens = amount.startsWith("t");
   const recipeId = RECIPES.find((r) => r === recipe);
   return {
-    sequenceLength, globalBatch, by: byTokens ? "tokens" : "steps",
-    steps: byTokens ? "" : amount, tokens: byTokens ? amount.slice(1) : "",
+    sequenceLength,
+    globalBatch,
+    by: byTokens ? "tokens" : "steps",
+    steps: byTokens ? "" : amount,
+    tokens: byTokens ? amount.slice(1) : "",
     ...(recipeId ? { recipeId } : {}),
   };
 }
@@ -55,7 +70,13 @@ export function sheetFromSearch(params: URLSearchParams): SheetDraft {
     acc !== null
       ? { ...EXAMPLE_CLUSTER, kind: "catalog", acceleratorId: acc }
       : custom
-        ? { kind: "custom", acceleratorId: "", peakTflops: params.get("peak") ?? "", memoryGib: params.get("mem") ?? "", pricePerHour: params.get("price") ?? "" }
+        ? {
+            kind: "custom",
+            acceleratorId: "",
+            peakTflops: params.get("peak") ?? "",
+            memoryGib: params.get("mem") ?? "",
+            pricePerHour: params.get("price") ?? "",
+          }
         : EXAMPLE_CLUSTER;
   const settings = defaultSettings();
   for (const [field, key] of Object.entries(SETTING_KEYS) as [keyof typeof SETTING_KEYS, string][]) {
@@ -74,7 +95,12 @@ export function toSearch(model: ModelDraft, sheet: SheetDraft): URLSearchParams 
     if (model.modelId) p.set("model", model.modelId);
   } else {
     // Trailing optional fields are dropped, inner blanks kept so positions hold.
-    p.set("shape", SHAPE_FIELDS.map((f) => model[f]).join("_").replace(/_+$/, ""));
+    p.set(
+      "shape",
+      SHAPE_FIELDS.map((f) => model[f])
+        .join("_")
+        .replace(/_+$/, ""),
+    );
   }
   const c = sheet.cluster;
   if (c.kind === "catalog") p.set("acc", c.acceleratorId);

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import { deliveryResultSchema } from "../../../../../shared/schemas/admin-views";
-import { apiClient } from "../../../lib/api-client";
-import { apiPaths } from "../../../config/paths";
+import { deliveryResultSchema } from "@shared/schemas/admin-views";
+import { apiClient } from "@/lib/api-client";
+import { apiPaths } from "@/config/paths";
 import { mailKeys } from "./keys";
 
 /** Sends what is due now instead of waiting for the worker. */
@@ -9,5 +9,8 @@ export const deliverMail = () => apiClient.send("POST", apiPaths.mailDeliver(), 
 
 export function useDeliverMail() {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: deliverMail, onSettled: () => queryClient.invalidateQueries({ queryKey: mailKeys.all }) });
+  return useMutation({
+    mutationFn: deliverMail,
+    onSettled: () => queryClient.invalidateQueries({ queryKey: mailKeys.all }),
+  });
 }

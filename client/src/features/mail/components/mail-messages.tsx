@@ -1,6 +1,6 @@
 import { useState } from "react";
-import type { SinkMessage } from "../../../../../shared/schemas/admin-views";
-import { formatDateTime } from "../../../lib/format";
+import type { SinkMessage } from "@shared/schemas/admin-views";
+import { formatDateTime } from "@/lib/format";
 
 /** Received messages on the left, the chosen one in full on the right. */
 export function MailMessages({ messages }: { messages: SinkMessage[] }) {
@@ -19,7 +19,9 @@ export function MailMessages({ messages }: { messages: SinkMessage[] }) {
               className={`w-full rounded-md border px-3 py-2 text-left ${m.id === chosen?.id ? "border-hemp bg-hemp-pale/60" : "border-rule bg-white/40 hover:border-hemp"}`}
             >
               <span className="block truncate text-body font-medium">{m.subject || "(no subject)"}</span>
-              <span className="block truncate text-note text-ink-soft">to {m.to.join(", ")} · {formatDateTime(m.receivedAt)}</span>
+              <span className="block truncate text-note text-ink-soft">
+                to {m.to.join(", ")} · {formatDateTime(m.receivedAt)}
+              </span>
             </button>
           </li>
         ))}

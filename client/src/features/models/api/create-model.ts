@@ -1,9 +1,9 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import type { ModelProfileValues } from "../../../../../shared/schemas/models";
-import { modelResponseSchema } from "../../../../../shared/schemas/model-responses";
-import { apiClient } from "../../../lib/api-client";
-import { apiPaths } from "../../../config/paths";
-import { afterModelSaved } from "../../../lib/api/models";
+import type { ModelProfileValues } from "@shared/schemas/models";
+import { modelResponseSchema } from "@shared/schemas/model-responses";
+import { apiClient } from "@/lib/api-client";
+import { apiPaths } from "@/config/paths";
+import { afterModelSaved } from "@/lib/api/models";
 
 export const createModel = (body: ModelProfileValues) =>
   apiClient.send("POST", apiPaths.models(), body, modelResponseSchema).then((r) => r.model);

@@ -1,8 +1,8 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import { importResponseSchema, type ModelProfileInput } from "../../../../../shared/schemas/models";
-import { apiClient } from "../../../lib/api-client";
-import { apiPaths } from "../../../config/paths";
-import { afterModelSaved } from "../../../lib/api/models";
+import { importResponseSchema, type ModelProfileInput } from "@shared/schemas/models";
+import { apiClient } from "@/lib/api-client";
+import { apiPaths } from "@/config/paths";
+import { afterModelSaved } from "@/lib/api/models";
 
 export type ImportRequest = { file: File; save: boolean; overrides?: Partial<ModelProfileInput> };
 

@@ -1,4 +1,4 @@
-import type { ModelProfile, ModelProfileInput } from "../../../../../shared/schemas/models";
+import type { ModelProfile, ModelProfileInput } from "@shared/schemas/models";
 
 /** A new profile starts empty except for the values almost every model shares. */
 export const BLANK_PROFILE: Partial<ModelProfileInput> = {
@@ -16,10 +16,22 @@ export const BLANK_PROFILE: Partial<ModelProfileInput> = {
 /** The editable part of a stored profile. */
 export function profileInput(m: ModelProfile): ModelProfileInput {
   const {
-    id: _id, rotaryDim: _d, pairs: _p, sourceFileName: _f, importWarnings: _w, createdBy: _c, createdAt: _ca, updatedAt: _u, retiredAt: _r, ...input
+    id: _id,
+    rotaryDim: _d,
+    pairs: _p,
+    sourceFileName: _f,
+    importWarnings: _w,
+    createdBy: _c,
+    createdAt: _ca,
+    updatedAt: _u,
+    retiredAt: _r,
+    ...input
   } = m;
   return input;
 }
 
 /** An import preview (every field optional) laid over the blank profile. */
-export const previewInput = (profile: Partial<ModelProfileInput>): Partial<ModelProfileInput> => ({ ...BLANK_PROFILE, ...profile });
+export const previewInput = (profile: Partial<ModelProfileInput>): Partial<ModelProfileInput> => ({
+  ...BLANK_PROFILE,
+  ...profile,
+});

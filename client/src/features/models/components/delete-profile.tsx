@@ -1,7 +1,7 @@
 import { useState } from "react";
-import type { ModelProfile } from "../../../../../shared/schemas/models";
-import { Button } from "../../../components/button";
-import { Notice } from "../../../components/notice";
+import type { ModelProfile } from "@shared/schemas/models";
+import { Button } from "@/components/button";
+import { Notice } from "@/components/notice";
 import { useDeleteModel, useRestoreModel } from "../api/delete-model";
 
 /**
@@ -18,17 +18,33 @@ export function DeleteProfile({ model, onDeleted }: { model: ModelProfile; onDel
     <div className="flex flex-col gap-3">
       {usedBy && (
         <Notice tone="success" title="Retired, not deleted">
-          <p>{usedBy.map((p) => `#${p.id} ${p.title}`).join("; ")} {usedBy.length === 1 ? "uses" : "use"} this profile.</p>
-          <p className="mt-1">It no longer appears where a profile is picked; those plans keep working on it, and Restore offers it again.</p>
+          <p>
+            {usedBy.map((p) => `#${p.id} ${p.title}`).join("; ")} {usedBy.length === 1 ? "uses" : "use"} this profile.
+          </p>
+          <p className="mt-1">
+            It no longer appears where a profile is picked; those plans keep working on it, and Restore offers it again.
+          </p>
         </Notice>
       )}
       {(remove.isError || restore.isError) && (
-        <Notice tone="alert" title="Could not change the profile">{(remove.error ?? restore.error)?.message}</Notice>
+        <Notice tone="alert" title="Could not change the profile">
+          {(remove.error ?? restore.error)?.message}
+        </Notice>
       )}
       {model.retiredAt ? (
         <div className="flex flex-wrap items-center gap-2">
-          <span className="text-body">Retired on {new Date(model.retiredAt).toLocaleDateString()}: hidden from pickers.</span>
-          <Button variant="secondary" size="sm" busy={restore.isPending} onClick={() => { remove.reset(); restore.mutate(model.id); }}>
+          <span className="text-body">
+            Retired on {new Date(model.retiredAt).toLocaleDateString()}: hidden from pickers.
+          </span>
+          <Button
+            variant="secondary"
+            size="sm"
+            busy={restore.isPending}
+            onClick={() => {
+              remove.reset();
+              restore.mutate(model.id);
+            }}
+          >
             Restore profile
           </Button>
         </div>
@@ -39,7 +55,14 @@ export function DeleteProfile({ model, onDeleted }: { model: ModelProfile; onDel
             variant="danger"
             size="sm"
             busy={remove.isPending}
-            onClick={() => remove.mutate(model.id, { onSuccess: (retired) => { if (!retired) onDeleted(); }, onSettled: () => setConfirming(false) })}
+            onClick={() =>
+              remove.mutate(model.id, {
+                onSuccess: (retired) => {
+                  if (!retired) onDeleted();
+                },
+                onSettled: () => setConfirming(false),
+              })
+            }
           >
             Yes, delete it
           </Button>
@@ -49,7 +72,14 @@ export function DeleteProfile({ model, onDeleted }: { model: ModelProfile; onDel
         </div>
       ) : (
         <div>
-          <Button variant="danger" onClick={() => { remove.reset(); restore.reset(); setConfirming(true); }}>
+          <Button
+            variant="danger"
+            onClick={() => {
+              remove.reset();
+              restore.reset();
+              setConfirming(true);
+            }}
+          >
             Delete profile
           </Button>
         </div>

@@ -1,7 +1,7 @@
 import { useId, useState } from "react";
-import type { ImportResponse, ModelProfile } from "../../../../../shared/schemas/models";
-import { Notice } from "../../../components/notice";
-import { isApiError } from "../../../lib/api-client";
+import type { ImportResponse, ModelProfile } from "@shared/schemas/models";
+import { Notice } from "@/components/notice";
+import { isApiError } from "@/lib/api-client";
 import { useImportConfig } from "../api/import-config";
 import { previewInput } from "./blank-profile";
 import { CurrentScalingNote } from "./current-scaling";
@@ -12,7 +12,13 @@ const MAX_BYTES = 1024 * 1024;
 
 /** Why a file could not be read, in words: the server names the file problem or each missing key. */
 function uploadProblem(error: unknown): { title: string; lines: string[] } {
-  if (isApiError(error) && error.status === 413) return { title: "The file is too large", lines: ["Ropewalk reads config files up to 1 MB; a config.json is usually a few KB. Check you picked the right file."] };
+  if (isApiError(error) && error.status === 413)
+    return {
+      title: "The file is too large",
+      lines: [
+        "Ropewalk reads config files up to 1 MB; a config.json is usually a few KB. Check you picked the right file.",
+      ],
+    };
   if (isApiError(error) && error.fields) {
     const lines = Object.entries(error.fields).map(([key, msg]) => (key === "file" ? msg : `${key}: ${msg}`));
     return { title: error.message, lines };
@@ -38,7 +44,10 @@ export function ImportConfig({ onSaved }: { onSaved: (model: ModelProfile) => vo
     preview.reset();
     if (!picked) return setFile(null);
     setFile(picked);
-    if (picked.size > MAX_BYTES) return setLocalProblem(`${picked.name} is ${(picked.size / MAX_BYTES).toFixed(1)} MB; Ropewalk reads config files up to 1 MB.`);
+    if (picked.size > MAX_BYTES)
+      return setLocalProblem(
+        `${picked.name} is ${(picked.size / MAX_BYTES).toFixed(1)} MB; Ropewalk reads config files up to 1 MB.`,
+      );
     preview.mutate({ file: picked, save: false }, { onSuccess: (result) => setParsed({ file: picked, result }) });
   };
 
@@ -57,10 +66,20 @@ export function ImportConfig({ onSaved }: { onSaved: (model: ModelProfile) => vo
           onChange={(e) => choose(e.target.files?.[0])}
           className="text-body file:mr-3 file:rounded-md file:border file:border-rule-strong file:bg-paper file:px-3 file:py-1.5 file:text-body file:font-medium hover:file:border-hemp"
         />
-        <p className="text-note text-ink-soft">The model's configuration file (up to 1 MB). Nothing is saved until you press Save.</p>
+        <p className="text-note text-ink-soft">
+          The model's configuration file (up to 1 MB). Nothing is saved until you press Save.
+        </p>
       </div>
-      {preview.isPending && <p role="status" className="text-body text-ink-soft">Reading {file?.name}…</p>}
-      {localProblem && <Notice tone="alert" title="The file is too large">{localProblem}</Notice>}
+      {preview.isPending && (
+        <p role="status" className="text-body text-ink-soft">
+          Reading {file?.name}…
+        </p>
+      )}
+      {localProblem && (
+        <Notice tone="alert" title="The file is too large">
+          {localProblem}
+        </Notice>
+      )}
       {problem && (
         <Notice tone="alert" title={problem.title}>
           <ul className="list-disc pl-5">
@@ -76,7 +95,10 @@ export function ImportConfig({ onSaved }: { onSaved: (model: ModelProfile) => vo
           <CurrentScalingNote scaling={parsed.result.profile.currentScaling} />
           <div className="flex flex-col gap-2">
             <h3 className="text-lead font-semibold text-ink">What Ropewalk read from {parsed.file.name}</h3>
-            <p className="text-body text-ink-soft">Correct anything the warnings point at; your edits are saved on top of the file, which is kept with the profile.</p>
+            <p className="text-body text-ink-soft">
+              Correct anything the warnings point at; your edits are saved on top of the file, which is kept with the
+              profile.
+            </p>
           </div>
           <ProfileForm
             key={`${parsed.file.name}-${parsed.file.lastModified}-${parsed.file.size}`}

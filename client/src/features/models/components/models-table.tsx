@@ -1,19 +1,15 @@
 import { Link } from "react-router-dom";
 import { createColumnHelper } from "@tanstack/react-table";
-import type { ModelProfile } from "../../../../../shared/schemas/models";
-import { DataTable } from "../../../components/data-table";
-import { Chip } from "../../../components/notice";
-import { paths } from "../../../config/paths";
-import { formatCount } from "../../../lib/format";
+import type { ModelProfile } from "@shared/schemas/models";
+import { DataTable } from "@/components/data-table";
+import { Chip } from "@/components/notice";
+import { paths } from "@/config/paths";
+import { formatCount } from "@/lib/format";
 
 const column = createColumnHelper<ModelProfile>();
 
 const num = (header: string, hint?: string) => ({
-  header: () => (
-    <span title={hint}>
-      {header}
-    </span>
-  ),
+  header: () => <span title={hint}>{header}</span>,
   enableGlobalFilter: false,
   cell: (c: { getValue: () => unknown }) => <span className="tabular-nums">{formatCount(Number(c.getValue()))}</span>,
   sortDescFirst: false,
@@ -46,7 +42,11 @@ const columns = [
       return c.row.original.sourceFileName ? (
         <span className="flex flex-wrap items-center gap-1">
           <Chip tone="seaglass">config file</Chip>
-          {warnings > 0 && <Chip>{warnings} {warnings === 1 ? "warning" : "warnings"}</Chip>}
+          {warnings > 0 && (
+            <Chip>
+              {warnings} {warnings === 1 ? "warning" : "warnings"}
+            </Chip>
+          )}
         </span>
       ) : (
         <Chip tone="muted">typed in</Chip>

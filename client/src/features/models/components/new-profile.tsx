@@ -1,4 +1,4 @@
-import type { ModelProfile } from "../../../../../shared/schemas/models";
+import type { ModelProfile } from "@shared/schemas/models";
 import { useCreateModel } from "../api/create-model";
 import { BLANK_PROFILE } from "./blank-profile";
 import { ProfileForm } from "./profile-form";

@@ -1,8 +1,8 @@
 import { useState, type ReactNode } from "react";
-import type { ModelProfile } from "../../../../../shared/schemas/models";
-import { Notice } from "../../../components/notice";
-import { Panel } from "../../../components/page";
-import { apiPaths } from "../../../config/paths";
+import type { ModelProfile } from "@shared/schemas/models";
+import { Notice } from "@/components/notice";
+import { Panel } from "@/components/page";
+import { apiPaths } from "@/config/paths";
 import { useUpdateModel } from "../api/update-model";
 import { profileInput } from "./blank-profile";
 import { CurrentScalingNote } from "./current-scaling";
@@ -27,7 +27,8 @@ export function ProfileDetail({ model, canEdit, onDeleted, actions }: ProfileDet
     <div className="flex flex-col gap-6">
       {model.retiredAt && (
         <Notice title="This profile is retired">
-          Plans that use it keep working and the workbench still opens it, but it is no longer offered where a profile is picked.
+          Plans that use it keep working and the workbench still opens it, but it is no longer offered where a profile
+          is picked.
         </Notice>
       )}
       <Panel title="At a glance" aside={actions}>
@@ -49,7 +50,11 @@ export function ProfileDetail({ model, canEdit, onDeleted, actions }: ProfileDet
       {canEdit && (
         <Panel title="Edit the profile">
           <div className="flex flex-col gap-3">
-            {saved && <Notice tone="success">Saved. Analyses use the new values from now on; plans keep the values they were drafted with.</Notice>}
+            {saved && (
+              <Notice tone="success">
+                Saved. Analyses use the new values from now on; plans keep the values they were drafted with.
+              </Notice>
+            )}
             <ProfileForm
               key={model.updatedAt}
               ariaLabel="Edit profile"

@@ -1,5 +1,5 @@
-import type { ModelProfile } from "../../../../../shared/schemas/models";
-import { formatCount, formatDate } from "../../../lib/format";
+import type { ModelProfile } from "@shared/schemas/models";
+import { formatCount, formatDate } from "@/lib/format";
 
 /** The figures a reader looks for first, with the derived rotary dimension and pairs. */
 export function ProfileFacts({ model }: { model: ModelProfile }) {
@@ -9,7 +9,10 @@ export function ProfileFacts({ model }: { model: ModelProfile }) {
     ["Rotating pairs", String(model.pairs)],
     ["Base b (rope_theta)", formatCount(model.ropeTheta)],
     ["Trained context L", `${formatCount(model.trainedContext)} tokens`],
-    ["Advertised length", model.maxPositionEmbeddings ? `${formatCount(model.maxPositionEmbeddings)} tokens` : "not given"],
+    [
+      "Advertised length",
+      model.maxPositionEmbeddings ? `${formatCount(model.maxPositionEmbeddings)} tokens` : "not given",
+    ],
     ["Heads", `${model.attentionHeads} attention, ${model.kvHeads} KV`],
     ["Layers", String(model.layers)],
     ["Non-embedding parameters", formatCount(model.parameters)],

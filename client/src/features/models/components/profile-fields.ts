@@ -1,4 +1,4 @@
-import type { ModelProfileInput } from "../../../../../shared/schemas/models";
+import type { ModelProfileInput } from "@shared/schemas/models";
 
 type Key = Exclude<keyof ModelProfileInput, "currentScaling">;
 
@@ -25,8 +25,19 @@ export const PROFILE_SECTIONS: { title: string; fields: ProfileFieldSpec[] }[] =
   {
     title: "Rotary shape",
     fields: [
-      { name: "headDim", label: "Head dimension (head_dim)", kind: "number", hint: "Per attention head; may differ from hidden_size / heads." },
-      { name: "partialRotaryFactor", label: "Rotary fraction (partial_rotary_factor)", kind: "number", step: "any", hint: "1 when the whole head rotates." },
+      {
+        name: "headDim",
+        label: "Head dimension (head_dim)",
+        kind: "number",
+        hint: "Per attention head; may differ from hidden_size / heads.",
+      },
+      {
+        name: "partialRotaryFactor",
+        label: "Rotary fraction (partial_rotary_factor)",
+        kind: "number",
+        step: "any",
+        hint: "1 when the whole head rotates.",
+      },
       { name: "ropeTheta", label: "Base b (rope_theta)", kind: "number", step: "any" },
       {
         name: "trainedContext",
@@ -34,7 +45,12 @@ export const PROFILE_SECTIONS: { title: string; fields: ProfileFieldSpec[] }[] =
         kind: "number",
         hint: "The pre-extension length: original_max_position_embeddings when the config already carries scaling.",
       },
-      { name: "maxPositionEmbeddings", label: "Advertised length (max_position_embeddings)", kind: "optional-number", hint: "Optional." },
+      {
+        name: "maxPositionEmbeddings",
+        label: "Advertised length (max_position_embeddings)",
+        kind: "optional-number",
+        hint: "Optional.",
+      },
     ],
   },
   {
@@ -42,11 +58,34 @@ export const PROFILE_SECTIONS: { title: string; fields: ProfileFieldSpec[] }[] =
     fields: [
       { name: "layers", label: "Layers (num_hidden_layers)", kind: "number" },
       { name: "attentionHeads", label: "Attention heads (num_attention_heads)", kind: "number" },
-      { name: "kvHeads", label: "KV heads (num_key_value_heads)", kind: "number", hint: "Fewer than attention heads when heads share keys and values." },
+      {
+        name: "kvHeads",
+        label: "KV heads (num_key_value_heads)",
+        kind: "number",
+        hint: "Fewer than attention heads when heads share keys and values.",
+      },
       { name: "hiddenSize", label: "Hidden size (hidden_size)", kind: "number" },
-      { name: "parameters", label: "Non-embedding parameters", kind: "number", step: "any", hint: "Drives every FLOP figure of a budget." },
-      { name: "parametersTotal", label: "Total parameters", kind: "optional-number", step: "any", hint: "Optional; at least the non-embedding count." },
-      { name: "bytesPerElement", label: "Bytes per element", kind: "number", step: "any", hint: "2 for bfloat16 / float16, 4 for float32." },
+      {
+        name: "parameters",
+        label: "Non-embedding parameters",
+        kind: "number",
+        step: "any",
+        hint: "Drives every FLOP figure of a budget.",
+      },
+      {
+        name: "parametersTotal",
+        label: "Total parameters",
+        kind: "optional-number",
+        step: "any",
+        hint: "Optional; at least the non-embedding count.",
+      },
+      {
+        name: "bytesPerElement",
+        label: "Bytes per element",
+        kind: "number",
+        step: "any",
+        hint: "2 for bfloat16 / float16, 4 for float32.",
+      },
     ],
   },
   { title: "Where it came from", fields: [{ name: "provenance", label: "Provenance", kind: "long-text" }] },

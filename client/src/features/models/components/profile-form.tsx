@@ -1,11 +1,11 @@
 import { useState } from "react";
 import { useForm, useWatch, type FieldNamesMarkedBoolean } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
-import { modelProfileInputSchema, type ModelProfileInput, type ModelProfileValues } from "../../../../../shared/schemas/models";
-import { SubmitButton } from "../../../components/button";
-import { TextAreaField, TextField } from "../../../components/field";
-import { Notice } from "../../../components/notice";
-import { applyApiErrors } from "../../../lib/form-errors";
+import { modelProfileInputSchema, type ModelProfileInput, type ModelProfileValues } from "@shared/schemas/models";
+import { SubmitButton } from "@/components/button";
+import { TextAreaField, TextField } from "@/components/field";
+import { Notice } from "@/components/notice";
+import { applyApiErrors } from "@/lib/form-errors";
 import { PROFILE_FIELD_NAMES, PROFILE_SECTIONS, toNumber } from "./profile-fields";
 import { RotaryShapeSummary } from "./rotary-shape-summary";
 
@@ -30,7 +30,10 @@ export type ProfileFormProps = {
 };
 
 /** Picks the values the user changed, for the import's `overrides`. */
-function editedValues(values: ModelProfileValues, dirty: Partial<FieldNamesMarkedBoolean<ModelProfileInput>>): Partial<ModelProfileInput> {
+function editedValues(
+  values: ModelProfileValues,
+  dirty: Partial<FieldNamesMarkedBoolean<ModelProfileInput>>,
+): Partial<ModelProfileInput> {
   const out: Record<string, unknown> = {};
   for (const key of Object.keys(dirty) as (keyof ModelProfileInput)[]) if (dirty[key]) out[key] = values[key];
   return out as Partial<ModelProfileInput>;
@@ -39,7 +42,11 @@ function editedValues(values: ModelProfileValues, dirty: Partial<FieldNamesMarke
 /** Create, edit, or confirm an imported profile: one form, validated by the shared contract. */
 export function ProfileForm({ defaultValues, submitLabel, busyLabel, busy, onSubmit, ariaLabel }: ProfileFormProps) {
   const [formError, setFormError] = useState<string | null>(null);
-  const { register, handleSubmit, setError, control, formState } = useForm<ModelProfileInput, unknown, ModelProfileValues>({
+  const { register, handleSubmit, setError, control, formState } = useForm<
+    ModelProfileInput,
+    unknown,
+    ModelProfileValues
+  >({
     resolver: zodResolver(modelProfileInputSchema, friendlyErrors),
     defaultValues,
   });
@@ -87,7 +94,9 @@ export function ProfileForm({ defaultValues, submitLabel, busyLabel, busy, onSub
                 );
               })}
             </div>
-            {section.title === "Rotary shape" && <RotaryShapeSummary headDim={headDim} partialRotaryFactor={partialRotaryFactor} />}
+            {section.title === "Rotary shape" && (
+              <RotaryShapeSummary headDim={headDim} partialRotaryFactor={partialRotaryFactor} />
+            )}
           </div>
         ))}
       </div>

@@ -1,9 +1,18 @@
-import { rotaryDimension } from "../../../../../shared/schemas/analysis";
+import { rotaryDimension } from "@shared/schemas/analysis";
 
 /** The derived rotary dimension d = headDim × partialRotaryFactor and its d/2 pairs, live as the user types. */
-export function RotaryShapeSummary({ headDim, partialRotaryFactor }: { headDim: unknown; partialRotaryFactor: unknown }) {
+export function RotaryShapeSummary({
+  headDim,
+  partialRotaryFactor,
+}: {
+  headDim: unknown;
+  partialRotaryFactor: unknown;
+}) {
   const h = Number(headDim);
-  const f = partialRotaryFactor === undefined || partialRotaryFactor === null || partialRotaryFactor === "" ? 1 : Number(partialRotaryFactor);
+  const f =
+    partialRotaryFactor === undefined || partialRotaryFactor === null || partialRotaryFactor === ""
+      ? 1
+      : Number(partialRotaryFactor);
   const d = Number.isFinite(h) && Number.isFinite(f) ? rotaryDimension({ headDim: h, partialRotaryFactor: f }) : null;
   return (
     <p
@@ -13,12 +22,13 @@ export function RotaryShapeSummary({ headDim, partialRotaryFactor }: { headDim: 
     >
       {d !== null ? (
         <>
-          Rotary dimension <strong>d = {d}</strong> (head_dim {h} × rotary fraction {f}), so <strong>{d / 2} rotating pairs</strong> per head.
+          Rotary dimension <strong>d = {d}</strong> (head_dim {h} × rotary fraction {f}), so{" "}
+          <strong>{d / 2} rotating pairs</strong> per head.
         </>
       ) : (
         <span className="text-signal-dark">
-          head_dim × partial_rotary_factor = {Number.isFinite(h * f) ? Number((h * f).toPrecision(6)) : "?"} is not a positive even whole number, so it cannot be a rotary
-          dimension.
+          head_dim × partial_rotary_factor = {Number.isFinite(h * f) ? Number((h * f).toPrecision(6)) : "?"} is not a
+          positive even whole number, so it cannot be a rotary dimension.
         </span>
       )}
     </p>

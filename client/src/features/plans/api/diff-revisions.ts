@@ -1,7 +1,7 @@
 import { queryOptions } from "@tanstack/react-query";
-import { diffResponseSchema } from "../../../../../shared/schemas/plan-responses";
-import { apiClient } from "../../../lib/api-client";
-import { apiPaths } from "../../../config/paths";
+import { diffResponseSchema } from "@shared/schemas/plan-responses";
+import { apiClient } from "@/lib/api-client";
+import { apiPaths } from "@/config/paths";
 import { plansKeys } from "./keys";
 
 export const fetchDiff = (id: number, a: number, b: number, signal?: AbortSignal) =>

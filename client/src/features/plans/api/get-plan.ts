@@ -1,10 +1,11 @@
 import { queryOptions } from "@tanstack/react-query";
-import { planDetailSchema } from "../../../../../shared/schemas/plan-responses";
-import { apiClient } from "../../../lib/api-client";
-import { apiPaths } from "../../../config/paths";
+import { planDetailSchema } from "@shared/schemas/plan-responses";
+import { apiClient } from "@/lib/api-client";
+import { apiPaths } from "@/config/paths";
 import { plansKeys } from "./keys";
 
-export const fetchPlan = (id: number, signal?: AbortSignal) => apiClient.get(apiPaths.plan(id), planDetailSchema, signal);
+export const fetchPlan = (id: number, signal?: AbortSignal) =>
+  apiClient.get(apiPaths.plan(id), planDetailSchema, signal);
 
 export const planQuery = (id: number) =>
   queryOptions({ queryKey: plansKeys.detail(id), queryFn: ({ signal }) => fetchPlan(id, signal) });

@@ -1,7 +1,7 @@
 import { queryOptions } from "@tanstack/react-query";
-import { revisionResponseSchema } from "../../../../../shared/schemas/plan-responses";
-import { apiClient } from "../../../lib/api-client";
-import { apiPaths } from "../../../config/paths";
+import { revisionResponseSchema } from "@shared/schemas/plan-responses";
+import { apiClient } from "@/lib/api-client";
+import { apiPaths } from "@/config/paths";
 import { plansKeys } from "./keys";
 
 export const fetchRevision = (id: number, n: number, signal?: AbortSignal) =>

@@ -1,7 +1,7 @@
 import { queryOptions } from "@tanstack/react-query";
-import { planOwnersResponseSchema } from "../../../../../shared/schemas/plan-responses";
-import { apiClient } from "../../../lib/api-client";
-import { apiPaths } from "../../../config/paths";
+import { planOwnersResponseSchema } from "@shared/schemas/plan-responses";
+import { apiClient } from "@/lib/api-client";
+import { apiPaths } from "@/config/paths";
 import { plansKeys } from "./keys";
 
 /** Everyone who owns a plan (GET /api/plans/owners), sorted by name on the server. */

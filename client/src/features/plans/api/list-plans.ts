@@ -1,9 +1,9 @@
 import { keepPreviousData, queryOptions } from "@tanstack/react-query";
 import type { z } from "zod";
-import type { planListQuerySchema } from "../../../../../shared/schemas/plans";
-import { planListResponseSchema } from "../../../../../shared/schemas/plan-responses";
-import { apiClient } from "../../../lib/api-client";
-import { apiPaths } from "../../../config/paths";
+import type { planListQuerySchema } from "@shared/schemas/plans";
+import { planListResponseSchema } from "@shared/schemas/plan-responses";
+import { apiClient } from "@/lib/api-client";
+import { apiPaths } from "@/config/paths";
 import { plansKeys } from "./keys";
 
 /** What the list asks the server for; anything left out takes the server's default. */

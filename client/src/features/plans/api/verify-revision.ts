@@ -1,7 +1,7 @@
 import { queryOptions } from "@tanstack/react-query";
-import { verifyResponseSchema } from "../../../../../shared/schemas/plan-responses";
-import { apiClient } from "../../../lib/api-client";
-import { apiPaths } from "../../../config/paths";
+import { verifyResponseSchema } from "@shared/schemas/plan-responses";
+import { apiClient } from "@/lib/api-client";
+import { apiPaths } from "@/config/paths";
 import { plansKeys } from "./keys";
 
 export const fetchVerification = (id: number, n: number, signal?: AbortSignal) =>
@@ -9,4 +9,8 @@ export const fetchVerification = (id: number, n: number, signal?: AbortSignal) =
 
 /** Recomputed on the server from the stored content on every read; never cached for long. */
 export const verifyQuery = (id: number, n: number) =>
-  queryOptions({ queryKey: plansKeys.verify(id, n), queryFn: ({ signal }) => fetchVerification(id, n, signal), staleTime: 0 });
+  queryOptions({
+    queryKey: plansKeys.verify(id, n),
+    queryFn: ({ signal }) => fetchVerification(id, n, signal),
+    staleTime: 0,
+  });

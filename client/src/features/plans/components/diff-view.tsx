@@ -1,10 +1,11 @@
-import type { DiffResponse, FieldChange } from "../../../../../shared/schemas/plan-responses";
-import { formatMoney, formatHours, shortHash } from "../../../lib/format";
+import type { DiffResponse, FieldChange } from "@shared/schemas/plan-responses";
+import { formatMoney, formatHours, shortHash } from "@/lib/format";
 import { formatPairRanges } from "../lib/pair-ranges";
 import { FLAG_INFO } from "./flags-summary";
-import { FramedTable } from "../../../components/framed-table";
+import { FramedTable } from "@/components/framed-table";
 
-const show = (v: unknown) => (v === null || v === undefined ? "—" : typeof v === "object" ? JSON.stringify(v) : String(v));
+const show = (v: unknown) =>
+  v === null || v === undefined ? "—" : typeof v === "object" ? JSON.stringify(v) : String(v);
 
 function ChangesTable({ changes, caption }: { changes: FieldChange[]; caption: string }) {
   return (
@@ -20,7 +21,9 @@ function ChangesTable({ changes, caption }: { changes: FieldChange[]; caption: s
     >
       {changes.map((c) => (
         <tr key={c.path} className="border-t border-rule/70 align-top">
-          <th scope="row" className="px-3 py-2 font-mono text-note font-medium">{c.path}</th>
+          <th scope="row" className="px-3 py-2 font-mono text-note font-medium">
+            {c.path}
+          </th>
           <td className="px-3 py-2 break-all text-signal-dark line-through decoration-signal/40">{show(c.from)}</td>
           <td className="px-3 py-2 break-all text-seaglass-dark">{show(c.to)}</td>
         </tr>
@@ -41,12 +44,16 @@ export function DiffView({ diff }: { diff: DiffResponse }) {
   return (
     <div className="flex flex-col gap-6">
       <p className="text-body">
-        From revision {diff.a.number} (<code title={diff.a.contentHash}>{shortHash(diff.a.contentHash)}</code>) to revision {diff.b.number} (
-        <code title={diff.b.contentHash}>{shortHash(diff.b.contentHash)}</code>).
+        From revision {diff.a.number} (<code title={diff.a.contentHash}>{shortHash(diff.a.contentHash)}</code>) to
+        revision {diff.b.number} (<code title={diff.b.contentHash}>{shortHash(diff.b.contentHash)}</code>).
       </p>
       <section className="flex flex-col gap-2" aria-label="Changed fields">
         <h2 className="text-title font-semibold">Inputs</h2>
-        {diff.fields.length ? <ChangesTable changes={diff.fields} caption="Changed inputs" /> : <p className="text-body text-ink-soft">No input changed.</p>}
+        {diff.fields.length ? (
+          <ChangesTable changes={diff.fields} caption="Changed inputs" />
+        ) : (
+          <p className="text-body text-ink-soft">No input changed.</p>
+        )}
       </section>
       <section className="flex flex-col gap-2" aria-label="Changed stages">
         <h2 className="text-title font-semibold">Stages</h2>
@@ -54,7 +61,12 @@ export function DiffView({ diff }: { diff: DiffResponse }) {
         {diff.stages.map((s) => (
           <div key={s.index} className="flex flex-col gap-1">
             <h3 className="font-semibold">
-              Stage {s.index + 1}: {s.change === "added" ? "added" : s.change === "removed" ? "removed" : `${s.fields.length} field${s.fields.length === 1 ? "" : "s"} changed`}
+              Stage {s.index + 1}:{" "}
+              {s.change === "added"
+                ? "added"
+                : s.change === "removed"
+                  ? "removed"
+                  : `${s.fields.length} field${s.fields.length === 1 ? "" : "s"} changed`}
             </h3>
             {s.fields.length > 0 && <ChangesTable changes={s.fields} caption={`Stage ${s.index + 1} changes`} />}
           </div>
@@ -69,8 +81,16 @@ export function DiffView({ diff }: { diff: DiffResponse }) {
             const label = FLAG_INFO[flag as keyof typeof FLAG_INFO]?.label ?? flag;
             return (
               <li key={key}>
-                <span className="font-medium">{scope === "final" ? "Plan target" : `Stage ${Number(scope.split(".")[1]) + 1}`}</span>: {label}{" "}
-                {to ? <span className="text-signal-dark">now set</span> : <span className="text-seaglass-dark">now clear</span>} on pairs {formatPairRanges(items.map((i) => i.pair))}
+                <span className="font-medium">
+                  {scope === "final" ? "Plan target" : `Stage ${Number(scope.split(".")[1]) + 1}`}
+                </span>
+                : {label}{" "}
+                {to ? (
+                  <span className="text-signal-dark">now set</span>
+                ) : (
+                  <span className="text-seaglass-dark">now clear</span>
+                )}{" "}
+                on pairs {formatPairRanges(items.map((i) => i.pair))}
               </li>
             );
           })}
@@ -84,13 +104,15 @@ export function DiffView({ diff }: { diff: DiffResponse }) {
             <ul className="text-body">
               {diff.budget.stages.map((s) => (
                 <li key={s.index}>
-                  Stage {s.index + 1}: cost {s.costFrom === null ? "—" : formatMoney(s.costFrom)} → {s.costTo === null ? "—" : formatMoney(s.costTo)} ({signed(s.costDelta, formatMoney)}),
+                  Stage {s.index + 1}: cost {s.costFrom === null ? "—" : formatMoney(s.costFrom)} →{" "}
+                  {s.costTo === null ? "—" : formatMoney(s.costTo)} ({signed(s.costDelta, formatMoney)}),
                   accelerator-hours {signed(s.hoursDelta, formatHours)}
                 </li>
               ))}
             </ul>
             <p className="font-semibold">
-              Total cost {formatMoney(diff.budget.totals.costFrom)} → {formatMoney(diff.budget.totals.costTo)} ({signed(diff.budget.totals.costDelta, formatMoney)}), in the catalog’s currency; estimates.
+              Total cost {formatMoney(diff.budget.totals.costFrom)} → {formatMoney(diff.budget.totals.costTo)} (
+              {signed(diff.budget.totals.costDelta, formatMoney)}), in the catalog’s currency; estimates.
             </p>
           </>
         ) : (

@@ -1,17 +1,17 @@
 import { useState, type ReactNode } from "react";
 import { FormProvider, useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
-import type { RevisionResponse } from "../../../../../shared/schemas/plan-responses";
-import type { RevisionValues, UpdateRevisionRequest } from "../../../../../shared/schemas/plans";
-import { Button, SubmitButton } from "../../../components/button";
-import { Notice } from "../../../components/notice";
-import { isApiError } from "../../../lib/api-client";
-import { shortHash } from "../../../lib/format";
+import type { RevisionResponse } from "@shared/schemas/plan-responses";
+import type { RevisionValues, UpdateRevisionRequest } from "@shared/schemas/plans";
+import { Button, SubmitButton } from "@/components/button";
+import { Notice } from "@/components/notice";
+import { isApiError } from "@/lib/api-client";
+import { shortHash } from "@/lib/format";
 import { useUpdateRevision } from "../api/update-revision";
 import { actionErrorText } from "../lib/action-error";
 import { editRevisionFormSchema, revisionValuesOf } from "../lib/form-values";
 import { invalidSummary, placeServerErrors } from "../lib/server-errors";
-import { rotaryShapeOf } from "../../../../../shared/profile-shapes";
+import { rotaryShapeOf } from "@shared/profile-shapes";
 import { RevisionFields } from "./form/revision-fields";
 
 type DraftEditorProps = {
@@ -28,9 +28,13 @@ type DraftEditorProps = {
  * Only the fields edited since the last save go in the PUT (the audit trail then names them). A budget sheet
  * cleared back to "no accelerator" is sent as null, which is how the server removes it.
  */
-function changedFields(values: RevisionValues, dirty: Partial<Record<keyof RevisionValues, unknown>> | undefined): Omit<UpdateRevisionRequest, "version"> {
+function changedFields(
+  values: RevisionValues,
+  dirty: Partial<Record<keyof RevisionValues, unknown>> | undefined,
+): Omit<UpdateRevisionRequest, "version"> {
   const out: Record<string, unknown> = {};
-  for (const key of Object.keys(dirty ?? {}) as (keyof RevisionValues)[]) out[key] = values[key] ?? (key === "budget" ? null : undefined);
+  for (const key of Object.keys(dirty ?? {}) as (keyof RevisionValues)[])
+    out[key] = values[key] ?? (key === "budget" ? null : undefined);
   return out as Omit<UpdateRevisionRequest, "version">;
 }
 
@@ -45,65 +49,88 @@ export function DraftEditor({ planId, revision, onReload, onSaved, afterStages }
   const [version, setVersion] = useState(revision.version);
   const [problem, setProblem] = useState<Problem | null>(null);
   const [saved, setSaved] = useState<string | null>(null);
-  const form = useForm({ resolver: zodResolver(editRevisionFormSchema), defaultValues: { revision: revisionValuesOf(revision.content) } });
+  const form = useForm({
+    resolver: zodResolver(editRevisionFormSchema),
+    defaultValues: { revision: revisionValuesOf(revision.content) },
+  });
   // Read during render so react-hook-form keeps dirtyFields up to date (its form state is a subscription proxy).
   const { dirtyFields } = form.formState;
   const m = revision.content.model;
   const model = rotaryShapeOf(m);
 
-  const onSubmit = form.handleSubmit(({ revision: values }) => {
-    setProblem(null);
-    setSaved(null);
-    const changes = changedFields(values, dirtyFields.revision);
-    if (Object.keys(changes).length === 0) {
-      setSaved("Nothing changed since the last save.");
-      return;
-    }
-    update.mutate(
-      { id: planId, n: revision.number, changes: { version, ...changes } },
-      {
-        onSuccess: (r) => {
-          setVersion(r.version);
-          setSaved(`Saved as version ${r.version}; content hash ${shortHash(r.contentHash)}.`);
-          form.reset(form.getValues(), { keepValues: true });
-          onSaved?.();
+  const onSubmit = form.handleSubmit(
+    ({ revision: values }) => {
+      setProblem(null);
+      setSaved(null);
+      const changes = changedFields(values, dirtyFields.revision);
+      if (Object.keys(changes).length === 0) {
+        setSaved("Nothing changed since the last save.");
+        return;
+      }
+      update.mutate(
+        { id: planId, n: revision.number, changes: { version, ...changes } },
+        {
+          onSuccess: (r) => {
+            setVersion(r.version);
+            setSaved(`Saved as version ${r.version}; content hash ${shortHash(r.contentHash)}.`);
+            form.reset(form.getValues(), { keepValues: true });
+            onSaved?.();
+          },
+          onError: (e) => {
+            if (isApiError(e) && e.status === 409 && e.fields?.version) {
+              setProblem({
+                kind: "stale",
+                text: `This draft changed since you read it (${e.fields.version}; you had version ${version}). Reload to see the saved values; your unsaved edits here will be lost.`,
+              });
+            } else if (isApiError(e) && e.status === 409) {
+              setProblem({ kind: "refused", text: actionErrorText(e) });
+            } else {
+              const text = placeServerErrors(e, form.setError);
+              if (text) setProblem({ kind: "refused", text });
+            }
+          },
         },
-        onError: (e) => {
-          if (isApiError(e) && e.status === 409 && e.fields?.version) {
-            setProblem({ kind: "stale", text: `This draft changed since you read it (${e.fields.version}; you had version ${version}). Reload to see the saved values; your unsaved edits here will be lost.` });
-          } else if (isApiError(e) && e.status === 409) {
-            setProblem({ kind: "refused", text: actionErrorText(e) });
-          } else {
-            const text = placeServerErrors(e, form.setError);
-            if (text) setProblem({ kind: "refused", text });
-          }
-        },
-      },
-    );
-  }, (errors) => {
-    setSaved(null);
-    setProblem({ kind: "refused", text: invalidSummary(errors) });
-  });
+      );
+    },
+    (errors) => {
+      setSaved(null);
+      setProblem({ kind: "refused", text: invalidSummary(errors) });
+    },
+  );
 
   return (
     <FormProvider {...form}>
-      <form onSubmit={onSubmit} noValidate className="flex flex-col gap-6" aria-label={`Edit revision ${revision.number}`}>
+      <form
+        onSubmit={onSubmit}
+        noValidate
+        className="flex flex-col gap-6"
+        aria-label={`Edit revision ${revision.number}`}
+      >
         <p className="text-note text-ink-soft">
-          Editing version {version} of revision {revision.number}. The model is frozen in the revision: {m.name}, trained on {m.trainedContext} tokens.
+          Editing version {version} of revision {revision.number}. The model is frozen in the revision: {m.name},
+          trained on {m.trainedContext} tokens.
         </p>
         {problem?.kind === "stale" && (
           <Notice tone="alert" title="Changed since you read it — reload">
             <p>{problem.text}</p>
             <div className="mt-2">
-              <Button variant="secondary" size="sm" onClick={onReload}>Reload the saved draft</Button>
+              <Button variant="secondary" size="sm" onClick={onReload}>
+                Reload the saved draft
+              </Button>
             </div>
           </Notice>
         )}
-        {problem?.kind === "refused" && <Notice tone="alert" title="Not saved">{problem.text}</Notice>}
+        {problem?.kind === "refused" && (
+          <Notice tone="alert" title="Not saved">
+            {problem.text}
+          </Notice>
+        )}
         {saved && <Notice tone="success">{saved}</Notice>}
         <RevisionFields model={model} afterStages={afterStages} />
         <div className="flex flex-wrap gap-2 border-t border-rule pt-4">
-          <SubmitButton busy={update.isPending} busyLabel="Saving…">Save draft</SubmitButton>
+          <SubmitButton busy={update.isPending} busyLabel="Saving…">
+            Save draft
+          </SubmitButton>
         </div>
       </form>
     </FormProvider>

@@ -1,13 +1,13 @@
 import { useState, type ReactNode } from "react";
 import { FormProvider, useForm, useWatch } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
-import { createPlanRequestSchema } from "../../../../../shared/schemas/plans";
-import type { PlanDetail } from "../../../../../shared/schemas/plan-responses";
-import type { ModelProfile } from "../../../../../shared/schemas/models";
-import { SubmitButton } from "../../../components/button";
-import { SelectField, TextField } from "../../../components/field";
-import { Notice } from "../../../components/notice";
-import { formatCount } from "../../../lib/format";
+import { createPlanRequestSchema } from "@shared/schemas/plans";
+import type { PlanDetail } from "@shared/schemas/plan-responses";
+import type { ModelProfile } from "@shared/schemas/models";
+import { SubmitButton } from "@/components/button";
+import { SelectField, TextField } from "@/components/field";
+import { Notice } from "@/components/notice";
+import { formatCount } from "@/lib/format";
 import { useCreatePlan } from "../api/create-plan";
 import { blankRevision, toNumber } from "../lib/form-values";
 import { invalidSummary, placeServerErrors } from "../lib/server-errors";
@@ -28,49 +28,81 @@ export function NewPlanForm({ models, minApprovals, onCreated, afterStages }: Ne
   const [formError, setFormError] = useState<string | null>(null);
   const form = useForm({
     resolver: zodResolver(createPlanRequestSchema),
-    defaultValues: { title: "", purpose: "", modelId: undefined as unknown as number, requiredApprovals: minApprovals, revision: blankRevision() },
+    defaultValues: {
+      title: "",
+      purpose: "",
+      modelId: undefined as unknown as number,
+      requiredApprovals: minApprovals,
+      revision: blankRevision(),
+    },
   });
   const { register, handleSubmit, setError, formState, control } = form;
   const modelId = useWatch({ control, name: "modelId" });
   const model = models.find((m) => m.id === modelId);
 
-  const onSubmit = handleSubmit((values) => {
-    setFormError(null);
-    create.mutate(values, { onSuccess: onCreated, onError: (e) => setFormError(placeServerErrors(e, setError)) });
-  }, (errors) => setFormError(invalidSummary(errors)));
+  const onSubmit = handleSubmit(
+    (values) => {
+      setFormError(null);
+      create.mutate(values, { onSuccess: onCreated, onError: (e) => setFormError(placeServerErrors(e, setError)) });
+    },
+    (errors) => setFormError(invalidSummary(errors)),
+  );
 
   return (
     <FormProvider {...form}>
       <form onSubmit={onSubmit} noValidate className="flex flex-col gap-6" aria-label="New plan">
-        {formError && <Notice tone="alert" title="Not saved">{formError}</Notice>}
+        {formError && (
+          <Notice tone="alert" title="Not saved">
+            {formError}
+          </Notice>
+        )}
         <div className="grid gap-4 md:grid-cols-2">
           <TextField label="Title" error={formState.errors.title?.message} {...register("title")} />
           <SelectField
             label="Model"
             error={formState.errors.modelId?.message}
-            hint={model ? `${model.family}; trained on ${formatCount(model.trainedContext)} tokens, base ${formatCount(model.ropeTheta)}` : "The profile this plan extends"}
+            hint={
+              model
+                ? `${model.family}; trained on ${formatCount(model.trainedContext)} tokens, base ${formatCount(model.ropeTheta)}`
+                : "The profile this plan extends"
+            }
             {...register("modelId", { setValueAs: toNumber })}
           >
             <option value="">Pick a model profile</option>
-            {models.filter((m) => !m.retiredAt).map((m) => (
-              <option key={m.id} value={m.id}>{m.name}</option>
-            ))}
+            {models
+              .filter((m) => !m.retiredAt)
+              .map((m) => (
+                <option key={m.id} value={m.id}>
+                  {m.name}
+                </option>
+              ))}
           </SelectField>
-          <TextField label="Purpose" hint="Why this extension, in a sentence" error={formState.errors.purpose?.message} {...register("purpose")} />
+          <TextField
+            label="Purpose"
+            hint="Why this extension, in a sentence"
+            error={formState.errors.purpose?.message}
+            {...register("purpose")}
+          />
           <SelectField
             label="Approvals required"
             error={formState.errors.requiredApprovals?.message}
             hint={`The lab asks for at least ${minApprovals}.`}
             {...register("requiredApprovals", { setValueAs: toNumber })}
           >
-            {[1, 2, 3].filter((n) => n >= minApprovals).map((n) => (
-              <option key={n} value={n}>{n}</option>
-            ))}
+            {[1, 2, 3]
+              .filter((n) => n >= minApprovals)
+              .map((n) => (
+                <option key={n} value={n}>
+                  {n}
+                </option>
+              ))}
           </SelectField>
         </div>
         <RevisionFields model={model ? { modelId: model.id } : null} afterStages={afterStages} />
         <div className="border-t border-rule pt-4">
-          <SubmitButton busy={create.isPending} busyLabel="Saving draft…">Save draft</SubmitButton>
+          <SubmitButton busy={create.isPending} busyLabel="Saving draft…">
+            Save draft
+          </SubmitButton>
         </div>
       </form>
     </FormProvider>

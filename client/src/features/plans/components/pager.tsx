@@ -1,5 +1,5 @@
-import { Button } from "../../../components/button";
-import { formatCount } from "../../../lib/format";
+import { Button } from "@/components/button";
+import { formatCount } from "@/lib/format";
 
 type PagerProps = { page: number; pageSize: number; total: number; onPage: (page: number) => void; noun: string };
 
@@ -9,7 +9,10 @@ export function Pager({ page, pageSize, total, onPage, noun }: PagerProps) {
   const first = total === 0 ? 0 : (page - 1) * pageSize + 1;
   const last = Math.min(total, page * pageSize);
   return (
-    <nav aria-label={`${noun} pages`} className="flex flex-wrap items-center justify-between gap-3 text-note text-ink-soft">
+    <nav
+      aria-label={`${noun} pages`}
+      className="flex flex-wrap items-center justify-between gap-3 text-note text-ink-soft"
+    >
       <span>
         {noun} {formatCount(first)}–{formatCount(last)} of {formatCount(total)} · page {page} of {pages}
       </span>

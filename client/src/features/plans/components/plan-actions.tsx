@@ -1,10 +1,10 @@
 import { useState } from "react";
 import { Link, useNavigate } from "react-router-dom";
-import type { SessionUser } from "../../../../../shared/schemas/auth";
-import type { PlanDetail, RevisionSummary } from "../../../../../shared/schemas/plan-responses";
-import { Button } from "../../../components/button";
-import { Notice } from "../../../components/notice";
-import { apiPaths, paths } from "../../../config/paths";
+import type { SessionUser } from "@shared/schemas/auth";
+import type { PlanDetail, RevisionSummary } from "@shared/schemas/plan-responses";
+import { Button } from "@/components/button";
+import { Notice } from "@/components/notice";
+import { apiPaths, paths } from "@/config/paths";
 import { useStartRevision, useSubmitRevision, useWithdrawRevision } from "../api/workflow";
 import { actionErrorText } from "../lib/action-error";
 
@@ -34,7 +34,8 @@ export function PlanActions({ plan, revision, user, intact, onDecide }: PlanActi
   const researcher = user.roles.includes("researcher");
   const latest = plan.revisions[plan.revisions.length - 1];
   const mineToEdit = researcher && isAuthor && revision.state === "draft";
-  const canStart = researcher && plan.owner?.id === user.id && n === latest.number && !["draft", "in_review"].includes(latest.state);
+  const canStart =
+    researcher && plan.owner?.id === user.id && n === latest.number && !["draft", "in_review"].includes(latest.state);
   const alreadyDecided = revision.decisions.some((d) => d.round === revision.round && d.approver.id === user.id);
   const canDecide = user.roles.includes("approver") && revision.state === "in_review" && !isAuthor && !alreadyDecided;
   const signed = revision.state === "approved" || revision.state === "superseded";
@@ -49,13 +50,26 @@ export function PlanActions({ plan, revision, user, intact, onDecide }: PlanActi
             <Link to={paths.planEdit(plan.id, n)} className={secondaryLink}>
               Edit draft
             </Link>
-            <Button busy={submit.isPending} onClick={() => { setError(null); submit.mutate({ id: plan.id, n }, { onError }); }}>
+            <Button
+              busy={submit.isPending}
+              onClick={() => {
+                setError(null);
+                submit.mutate({ id: plan.id, n }, { onError });
+              }}
+            >
               Submit for review
             </Button>
           </>
         )}
         {researcher && isAuthor && revision.state === "in_review" && (
-          <Button variant="secondary" busy={withdraw.isPending} onClick={() => { setError(null); withdraw.mutate({ id: plan.id, n }, { onError }); }}>
+          <Button
+            variant="secondary"
+            busy={withdraw.isPending}
+            onClick={() => {
+              setError(null);
+              withdraw.mutate({ id: plan.id, n }, { onError });
+            }}
+          >
             Withdraw to draft
           </Button>
         )}
@@ -72,14 +86,18 @@ export function PlanActions({ plan, revision, user, intact, onDecide }: PlanActi
           </Button>
         )}
         {canDecide && onDecide && <Button onClick={onDecide}>Decide on revision {n}</Button>}
-        {alreadyDecided && revision.state === "in_review" && <span className="text-note text-ink-soft">You have decided on this round.</span>}
+        {alreadyDecided && revision.state === "in_review" && (
+          <span className="text-note text-ink-soft">You have decided on this round.</span>
+        )}
         {signed &&
           (intact ? (
             <a href={apiPaths.revisionExport(plan.id, n, true)} download className={primaryLink}>
               Download export (config patch JSON)
             </a>
           ) : (
-            <Button disabled title="Refused while the integrity check fails">Download export (config patch JSON)</Button>
+            <Button disabled title="Refused while the integrity check fails">
+              Download export (config patch JSON)
+            </Button>
           ))}
         <a href={apiPaths.revisionReport(plan.id, n)} target="_blank" rel="noreferrer" className={secondaryLink}>
           Open report

@@ -1,7 +1,7 @@
-import { REVISION_STATES, type RevisionState } from "../../../../../shared/schemas/plans";
-import { ChoiceField, Field, TextInput } from "../../../components/field";
-import { Button } from "../../../components/button";
-import { useDebouncedText } from "../../../lib/search-state";
+import { REVISION_STATES, type RevisionState } from "@shared/schemas/plans";
+import { ChoiceField, Field, TextInput } from "@/components/field";
+import { Button } from "@/components/button";
+import { useDebouncedText } from "@/lib/search-state";
 import type { PlanListParams } from "../api/list-plans";
 import { STATE_LABELS } from "./state-badge";
 
@@ -22,9 +22,22 @@ export function PlanFilters({ params, onChange, models, owners }: PlanFiltersPro
 
   const filtered = params.state || params.ownerId || params.modelId || params.q;
   return (
-    <form role="search" aria-label="Filter plans" className="grid gap-3 sm:grid-cols-2 lg:grid-cols-[2fr_1fr_1fr_1fr_auto] lg:items-end" onSubmit={(e) => e.preventDefault()}>
+    <form
+      role="search"
+      aria-label="Filter plans"
+      className="grid gap-3 sm:grid-cols-2 lg:grid-cols-[2fr_1fr_1fr_1fr_auto] lg:items-end"
+      onSubmit={(e) => e.preventDefault()}
+    >
       <Field label="Search plans">
-        {({ id }) => <TextInput id={id} type="search" placeholder="Title, purpose, model or owner" value={text} onChange={(e) => setText(e.target.value)} />}
+        {({ id }) => (
+          <TextInput
+            id={id}
+            type="search"
+            placeholder="Title, purpose, model or owner"
+            value={text}
+            onChange={(e) => setText(e.target.value)}
+          />
+        )}
       </Field>
       <ChoiceField
         label="State"
@@ -33,8 +46,20 @@ export function PlanFilters({ params, onChange, models, owners }: PlanFiltersPro
         options={REVISION_STATES.map((st) => ({ value: st, label: STATE_LABELS[st] }))}
         onChange={(v) => onChange({ state: (v || undefined) as RevisionState | undefined })}
       />
-      <ChoiceField label="Owner" emptyLabel="Anyone" value={String(params.ownerId ?? "")} options={asOptions(owners)} onChange={(v) => onChange({ ownerId: numberOrUndefined(v) })} />
-      <ChoiceField label="Model" emptyLabel="Any model" value={String(params.modelId ?? "")} options={asOptions(models)} onChange={(v) => onChange({ modelId: numberOrUndefined(v) })} />
+      <ChoiceField
+        label="Owner"
+        emptyLabel="Anyone"
+        value={String(params.ownerId ?? "")}
+        options={asOptions(owners)}
+        onChange={(v) => onChange({ ownerId: numberOrUndefined(v) })}
+      />
+      <ChoiceField
+        label="Model"
+        emptyLabel="Any model"
+        value={String(params.modelId ?? "")}
+        options={asOptions(models)}
+        onChange={(v) => onChange({ modelId: numberOrUndefined(v) })}
+      />
       <div className="pb-0.5">
         <Button
           variant="quiet"

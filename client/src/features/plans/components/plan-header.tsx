@@ -1,5 +1,5 @@
-import type { PlanDetail } from "../../../../../shared/schemas/plan-responses";
-import { formatDateTime } from "../../../lib/format";
+import type { PlanDetail } from "@shared/schemas/plan-responses";
+import { formatDateTime } from "@/lib/format";
 import { StateBadge } from "./state-badge";
 
 /** Who owns the plan, what it extends, and how many signatures it needs. */
@@ -8,9 +8,13 @@ export function PlanFacts({ plan }: { plan: PlanDetail }) {
   return (
     <div className="flex flex-col gap-2">
       <div className="flex flex-wrap items-center gap-2">
-        <span className="text-note font-semibold tracking-wide text-ink-soft uppercase">Latest revision {plan.latestRevision}</span>
+        <span className="text-note font-semibold tracking-wide text-ink-soft uppercase">
+          Latest revision {plan.latestRevision}
+        </span>
         <StateBadge state={plan.state} />
-        {plan.approvedRevision !== null && <span className="text-note text-ink-soft">signed revision: {plan.approvedRevision}</span>}
+        {plan.approvedRevision !== null && (
+          <span className="text-note text-ink-soft">signed revision: {plan.approvedRevision}</span>
+        )}
       </div>
       <dl className="grid grid-cols-[9rem_1fr] gap-y-1 text-body sm:grid-cols-[9rem_1fr_9rem_1fr]">
         <dt className="text-ink-soft">Owner</dt>
@@ -20,7 +24,12 @@ export function PlanFacts({ plan }: { plan: PlanDetail }) {
         <dt className="text-ink-soft">Approvals needed</dt>
         <dd>
           {plan.effectiveRequiredApprovals}
-          {raised && <span className="text-note text-ink-soft"> (plan asks {plan.requiredApprovals}; the lab minimum is higher)</span>}
+          {raised && (
+            <span className="text-note text-ink-soft">
+              {" "}
+              (plan asks {plan.requiredApprovals}; the lab minimum is higher)
+            </span>
+          )}
         </dd>
         <dt className="text-ink-soft">Last change</dt>
         <dd>{formatDateTime(plan.updatedAt)}</dd>

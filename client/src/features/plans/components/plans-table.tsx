@@ -1,9 +1,9 @@
 import { Link } from "react-router-dom";
 import { createColumnHelper, getCoreRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
-import { TableView } from "../../../components/table-view";
-import type { PlanListItem } from "../../../../../shared/schemas/plan-responses";
-import { paths } from "../../../config/paths";
-import { formatDate } from "../../../lib/format";
+import { TableView } from "@/components/table-view";
+import type { PlanListItem } from "@shared/schemas/plan-responses";
+import { paths } from "@/config/paths";
+import { formatDate } from "@/lib/format";
 import { StateBadge } from "./state-badge";
 
 export type PlanSort = "updatedAt" | "createdAt" | "title" | "state" | "owner" | "model";
@@ -24,7 +24,10 @@ const columns = [
     header: "Plan",
     cell: ({ row: { original: p } }) => (
       <span className="flex flex-col">
-        <Link to={paths.plan(p.id)} className="font-medium text-ink underline decoration-rule-strong underline-offset-4 hover:text-hemp-dark">
+        <Link
+          to={paths.plan(p.id)}
+          className="font-medium text-ink underline decoration-rule-strong underline-offset-4 hover:text-hemp-dark"
+        >
           {p.title}
         </Link>
         {p.purpose && <span className="line-clamp-1 text-note text-ink-soft">{p.purpose}</span>}
@@ -44,8 +47,14 @@ const columns = [
       </span>
     ),
   }),
-  column.accessor("updatedAt", { header: "Updated", cell: (c) => <span className="whitespace-nowrap">{formatDate(c.getValue())}</span> }),
-  column.accessor("createdAt", { header: "Created", cell: (c) => <span className="whitespace-nowrap">{formatDate(c.getValue())}</span> }),
+  column.accessor("updatedAt", {
+    header: "Updated",
+    cell: (c) => <span className="whitespace-nowrap">{formatDate(c.getValue())}</span>,
+  }),
+  column.accessor("createdAt", {
+    header: "Created",
+    cell: (c) => <span className="whitespace-nowrap">{formatDate(c.getValue())}</span>,
+  }),
 ];
 
 /**

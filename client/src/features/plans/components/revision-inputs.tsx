@@ -1,7 +1,7 @@
 import type { ReactNode } from "react";
-import type { RevisionContent } from "../../../../../shared/schemas/plan-responses";
-import { DEFAULT_BANDS } from "../../../../../shared/schemas/analysis";
-import { formatCount, sig3 } from "../../../lib/format";
+import type { RevisionContent } from "@shared/schemas/plan-responses";
+import { DEFAULT_BANDS } from "@shared/schemas/analysis";
+import { formatCount, sig3 } from "@/lib/format";
 import { describeParams, methodLabel } from "../lib/method-table";
 
 function Row({ label, children }: { label: string; children: ReactNode }) {
@@ -21,30 +21,44 @@ export function RevisionInputs({ content }: { content: RevisionContent }) {
   const support = results.baseSupport;
   return (
     <div className="grid gap-6 md:grid-cols-2">
-      <dl className="grid grid-cols-[11rem_1fr] gap-x-3 gap-y-1.5 text-body" aria-label="Model as frozen in this revision">
-        <Row label="Model">{model.name} <span className="text-ink-soft">({model.family})</span></Row>
+      <dl
+        className="grid grid-cols-[11rem_1fr] gap-x-3 gap-y-1.5 text-body"
+        aria-label="Model as frozen in this revision"
+      >
+        <Row label="Model">
+          {model.name} <span className="text-ink-soft">({model.family})</span>
+        </Row>
         <Row label="Trained context">{formatCount(model.trainedContext)} tokens</Row>
         <Row label="Base (rope_theta)">{formatCount(model.ropeTheta)}</Row>
-        <Row label="Head dimension">{model.headDim}{model.partialRotaryFactor !== 1 && ` × ${model.partialRotaryFactor} rotary`}</Row>
-        <Row label="Rotary dimension">{results.rotaryDim} ({results.rotaryDim / 2} pairs)</Row>
+        <Row label="Head dimension">
+          {model.headDim}
+          {model.partialRotaryFactor !== 1 && ` × ${model.partialRotaryFactor} rotary`}
+        </Row>
+        <Row label="Rotary dimension">
+          {results.rotaryDim} ({results.rotaryDim / 2} pairs)
+        </Row>
         <Row label="Critical dimension">
           {results.criticalDimension} <span className="text-note text-ink-soft">(Liu et al. 2023, Lemma 1)</span>
         </Row>
         <Row label="Base supports">
           {support.supportedLength === null
-            ? support.complete ? "every length checked" : `no failure below ${formatCount(support.checkedUpTo)} tokens (scan incomplete)`
+            ? support.complete
+              ? "every length checked"
+              : `no failure below ${formatCount(support.checkedUpTo)} tokens (scan incomplete)`
             : `${formatCount(support.supportedLength)} tokens`}{" "}
           <span className="text-note text-ink-soft">(Men et al. 2024 bound)</span>
         </Row>
       </dl>
       <dl className="grid grid-cols-[11rem_1fr] gap-x-3 gap-y-1.5 text-body" aria-label="Target and method">
         <Row label="Target context">
-          {formatCount(content.targetContext)} tokens <span className="text-ink-soft">(× {sig3(scale)} the trained window)</span>
+          {formatCount(content.targetContext)} tokens{" "}
+          <span className="text-ink-soft">(× {sig3(scale)} the trained window)</span>
         </Row>
         <Row label="Method">{methodLabel(content.method.method)}</Row>
         <Row label="Parameters">{describeParams(content.method)}</Row>
         <Row label="Band edges">
-          α {bands.alpha}, β {bands.beta} rotations <span className="text-note text-ink-soft">{content.bands ? "" : "(defaults)"}</span>
+          α {bands.alpha}, β {bands.beta} rotations{" "}
+          <span className="text-note text-ink-soft">{content.bands ? "" : "(defaults)"}</span>
         </Row>
         <Row label="Attention factor">×{sig3(results.final.attentionFactor)}</Row>
         <Row label="Engine">{content.engineVersion}</Row>

@@ -1,11 +1,19 @@
 import { Link } from "react-router-dom";
-import type { RevisionSummary } from "../../../../../shared/schemas/plan-responses";
-import { paths } from "../../../config/paths";
-import { formatDateTime, shortHash } from "../../../lib/format";
+import type { RevisionSummary } from "@shared/schemas/plan-responses";
+import { paths } from "@/config/paths";
+import { formatDateTime, shortHash } from "@/lib/format";
 import { StateBadge } from "./state-badge";
 
 /** Every revision, newest first, as a rope of knots: state, author, hash prefix and the decisions on it. */
-export function RevisionTimeline({ planId, revisions, selected }: { planId: number; revisions: RevisionSummary[]; selected: number }) {
+export function RevisionTimeline({
+  planId,
+  revisions,
+  selected,
+}: {
+  planId: number;
+  revisions: RevisionSummary[];
+  selected: number;
+}) {
   const newestFirst = [...revisions].reverse();
   return (
     <ol className="relative flex flex-col gap-3 border-l-2 border-hemp-light/60 pl-4" aria-label="Revisions">
@@ -15,7 +23,10 @@ export function RevisionTimeline({ planId, revisions, selected }: { planId: numb
         const asks = r.decisions.filter((d) => d.round === r.round && d.decision === "request_changes").length;
         return (
           <li key={r.number} className="relative">
-            <span aria-hidden className={`absolute top-2 -left-[1.45rem] size-3 rounded-full border-2 ${current ? "border-hemp bg-hemp" : "border-hemp-light bg-paper"}`} />
+            <span
+              aria-hidden
+              className={`absolute top-2 -left-[1.45rem] size-3 rounded-full border-2 ${current ? "border-hemp bg-hemp" : "border-hemp-light bg-paper"}`}
+            />
             <Link
               to={paths.plan(planId, r.number)}
               aria-current={current ? "true" : undefined}
@@ -30,7 +41,8 @@ export function RevisionTimeline({ planId, revisions, selected }: { planId: numb
               </span>
               <span className="block text-note text-ink-soft">
                 <code title={r.contentHash}>{shortHash(r.contentHash)}</code>
-                {r.round > 0 && ` · round ${r.round}: ${approvals} approval${approvals === 1 ? "" : "s"}${asks ? `, ${asks} asked for changes` : ""}`}
+                {r.round > 0 &&
+                  ` · round ${r.round}: ${approvals} approval${approvals === 1 ? "" : "s"}${asks ? `, ${asks} asked for changes` : ""}`}
               </span>
             </Link>
           </li>

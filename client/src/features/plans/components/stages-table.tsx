@@ -1,12 +1,12 @@
-import type { Stage } from "../../../../../shared/schemas/plans";
-import { stageTokens } from "../../../../../shared/stage-tokens";
-import { formatCount, formatScientific } from "../../../lib/format";
+import type { Stage } from "@shared/schemas/plans";
+import { stageTokens } from "@shared/stage-tokens";
+import { formatCount, formatScientific } from "@/lib/format";
 import { describeParams, methodShort } from "../lib/method-table";
-import { FramedTable } from "../../../components/framed-table";
-
+import { FramedTable } from "@/components/framed-table";
 
 export function StagesTable({ stages }: { stages: Stage[] }) {
-  if (stages.length === 0) return <p className="text-body text-ink-soft">No stages: the plan goes to its target in one step.</p>;
+  if (stages.length === 0)
+    return <p className="text-body text-ink-soft">No stages: the plan goes to its target in one step.</p>;
   return (
     <div className="flex flex-col gap-1">
       <FramedTable
@@ -27,7 +27,9 @@ export function StagesTable({ stages }: { stages: Stage[] }) {
       >
         {stages.map((s, i) => (
           <tr key={i} className="border-t border-rule/70 align-top">
-            <th scope="row" className="px-3 py-2 font-medium">{i + 1}</th>
+            <th scope="row" className="px-3 py-2 font-medium">
+              {i + 1}
+            </th>
             <td className="px-3 py-2">{formatCount(s.targetContext)}</td>
             <td className="px-3 py-2">
               {methodShort(s.method.method)}

@@ -1,4 +1,4 @@
-import type { RevisionState } from "../../../../../shared/schemas/plans";
+import type { RevisionState } from "@shared/schemas/plans";
 
 export const STATE_LABELS: Record<RevisionState, string> = {
   draft: "Draft",
@@ -19,7 +19,10 @@ const TONES: Record<RevisionState, string> = {
 /** A revision's state in words, tinted so the list can be scanned. */
 export function StateBadge({ state }: { state: RevisionState }) {
   return (
-    <span data-state={state} className={`inline-flex items-center rounded-full border px-2 py-0.5 text-note font-medium whitespace-nowrap ${TONES[state]}`}>
+    <span
+      data-state={state}
+      className={`inline-flex items-center rounded-full border px-2 py-0.5 text-note font-medium whitespace-nowrap ${TONES[state]}`}
+    >
       {STATE_LABELS[state]}
     </span>
   );

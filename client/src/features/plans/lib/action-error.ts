@@ -1,6 +1,6 @@
-import { isApiError } from "../../../lib/api-client";
+import { isApiError } from "@/lib/api-client";
 import { STATE_LABELS } from "../components/state-badge";
-import type { RevisionState } from "../../../../../shared/schemas/plans";
+import type { RevisionState } from "@shared/schemas/plans";
 
 /**
  * Plain words for a refused workflow step. A 409 names the revision's current state in `fields.state`

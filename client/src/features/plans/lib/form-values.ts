@@ -1,7 +1,7 @@
 import { z } from "zod";
-import type { MethodParams } from "../../../../../shared/schemas/analysis";
-import { revisionInputSchema, type RevisionInput, type StageInput } from "../../../../../shared/schemas/plans";
-import type { RevisionContent } from "../../../../../shared/schemas/plan-responses";
+import type { MethodParams } from "@shared/schemas/analysis";
+import { revisionInputSchema, type RevisionInput, type StageInput } from "@shared/schemas/plans";
+import type { RevisionContent } from "@shared/schemas/plan-responses";
 
 /** Both forms keep the revision under `revision`, so the revision fields are one set of components. */
 export type RevisionForm = { revision: RevisionInput };
@@ -13,16 +13,30 @@ export const toNumber = (v: unknown) => (v === "" || v === null || v === undefin
 export const toNumberList = (v: unknown) => {
   if (Array.isArray(v)) return v;
   const text = String(v ?? "").trim();
-  return text === "" ? undefined : text.split(/[\s,;]+/).filter(Boolean).map(Number);
+  return text === ""
+    ? undefined
+    : text
+        .split(/[\s,;]+/)
+        .filter(Boolean)
+        .map(Number);
 };
-export const toOptionalBoolean = (v: unknown) => (v === "true" || v === true ? true : v === "false" || v === false ? false : undefined);
+export const toOptionalBoolean = (v: unknown) =>
+  v === "true" || v === true ? true : v === "false" || v === false ? false : undefined;
 
 export const DEFAULT_TARGET = 32_768;
 
 /** A new stage that starts from the plan's own target and method; batch, steps and rate follow the YaRN recipe's scale (Peng et al. 2023). */
 export function newStage(targetContext: number | undefined, method: MethodParams | undefined): StageInput {
   const target = targetContext && Number.isFinite(targetContext) ? targetContext : DEFAULT_TARGET;
-  return { targetContext: target, method: method ?? { method: "yarn" }, steps: 400, globalBatch: 64, sequenceLength: target, learningRate: 2e-5, dataMix: "" };
+  return {
+    targetContext: target,
+    method: method ?? { method: "yarn" },
+    steps: 400,
+    globalBatch: 64,
+    sequenceLength: target,
+    learningRate: 2e-5,
+    dataMix: "",
+  };
 }
 
 export function blankRevision(): RevisionInput {
@@ -44,4 +58,5 @@ export function revisionValuesOf(content: RevisionContent): RevisionInput {
 
 const TOP_LEVEL = new Set(["title", "purpose", "modelId", "requiredApprovals"]);
 /** Server field names for revision values come bare ("stages.0.steps") or nested ("revision.stages.0.steps"). */
-export const formPathOf = (key: string) => (TOP_LEVEL.has(key) || key.startsWith("revision.") ? key : `revision.${key}`);
+export const formPathOf = (key: string) =>
+  TOP_LEVEL.has(key) || key.startsWith("revision.") ? key : `revision.${key}`;

@@ -1,6 +1,6 @@
-import { findMethod, METHOD_IDS, methodEntry, type AnyMethodEntry } from "../../../../../shared/methods";
+import { findMethod, METHOD_IDS, methodEntry, type AnyMethodEntry } from "@shared/methods";
 
-export type { ParamField } from "../../../../../shared/methods";
+export type { ParamField } from "@shared/methods";
 
 /** The methods in the catalog's order, with the catalog's names and form fields (the workbench shows the same). */
 export const METHOD_TABLE: readonly AnyMethodEntry[] = METHOD_IDS.map(methodEntry);

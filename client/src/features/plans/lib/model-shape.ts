@@ -1,6 +1,6 @@
-import type { AnalysisRequest } from "../../../../../shared/schemas/analysis";
-import type { RevisionContent } from "../../../../../shared/schemas/plan-responses";
-import { rotaryShapeOf } from "../../../../../shared/profile-shapes";
+import type { AnalysisRequest } from "@shared/schemas/analysis";
+import type { RevisionContent } from "@shared/schemas/plan-responses";
+import { rotaryShapeOf } from "@shared/profile-shapes";
 
 /** The engine run on a revision's frozen model, target and method: the same request the workbench makes. */
 export const analysisRequestOf = (content: RevisionContent): AnalysisRequest => ({

@@ -1,9 +1,20 @@
 import type { FieldValues, Path, UseFormSetError } from "react-hook-form";
-import { isApiError } from "../../../lib/api-client";
+import { isApiError } from "@/lib/api-client";
 import { formPathOf } from "./form-values";
 
 /** Form paths that have an input on screen; a server field under one of them is shown beside it. */
-const PLACED = ["title", "purpose", "modelId", "requiredApprovals", "revision.targetContext", "revision.method", "revision.bands", "revision.stages", "revision.acceptance", "revision.notes"];
+const PLACED = [
+  "title",
+  "purpose",
+  "modelId",
+  "requiredApprovals",
+  "revision.targetContext",
+  "revision.method",
+  "revision.bands",
+  "revision.stages",
+  "revision.acceptance",
+  "revision.notes",
+];
 
 /**
  * Puts a refused save's field messages beside their inputs and returns what to say above the form:

@@ -1,9 +1,9 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import type { z } from "zod";
-import type { decisionRequestSchema } from "../../../../../shared/schemas/plans";
-import { transitionResponseSchema } from "../../../../../shared/schemas/plan-responses";
-import { apiClient } from "../../../lib/api-client";
-import { apiPaths } from "../../../config/paths";
+import type { decisionRequestSchema } from "@shared/schemas/plans";
+import { transitionResponseSchema } from "@shared/schemas/plan-responses";
+import { apiClient } from "@/lib/api-client";
+import { apiPaths } from "@/config/paths";
 import { reviewKeys } from "./keys";
 
 type Args = { planId: number; n: number; body: z.input<typeof decisionRequestSchema> };
@@ -14,5 +14,8 @@ export const decide = ({ planId, n, body }: Args) =>
 
 export function useDecide() {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: decide, onSettled: () => queryClient.invalidateQueries({ queryKey: reviewKeys.queue() }) });
+  return useMutation({
+    mutationFn: decide,
+    onSettled: () => queryClient.invalidateQueries({ queryKey: reviewKeys.queue() }),
+  });
 }

@@ -1,7 +1,7 @@
 import { queryOptions } from "@tanstack/react-query";
-import { reviewQueueResponseSchema } from "../../../../../shared/schemas/plan-responses";
-import { apiClient } from "../../../lib/api-client";
-import { apiPaths } from "../../../config/paths";
+import { reviewQueueResponseSchema } from "@shared/schemas/plan-responses";
+import { apiClient } from "@/lib/api-client";
+import { apiPaths } from "@/config/paths";
 import { reviewKeys } from "./keys";
 
 export const fetchReviewQueue = (signal?: AbortSignal) =>

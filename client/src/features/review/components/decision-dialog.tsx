@@ -1,20 +1,29 @@
 import { useEffect, useRef, useState } from "react";
 import { useForm, useWatch } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
-import { decisionRequestSchema } from "../../../../../shared/schemas/plans";
-import { Button, SubmitButton } from "../../../components/button";
-import { Field } from "../../../components/field";
-import { Notice } from "../../../components/notice";
-import { isApiError } from "../../../lib/api-client";
+import { decisionRequestSchema } from "@shared/schemas/plans";
+import { Button, SubmitButton } from "@/components/button";
+import { Field } from "@/components/field";
+import { Notice } from "@/components/notice";
+import { isApiError } from "@/lib/api-client";
 import { useDecide } from "../api/decide";
 
-export type DecisionTarget = { planId: number; title: string; revision: number; contentHash: string; approvals: number; requiredApprovals: number };
+export type DecisionTarget = {
+  planId: number;
+  title: string;
+  revision: number;
+  contentHash: string;
+  approvals: number;
+  requiredApprovals: number;
+};
 
 // Sending a revision back without saying why leaves its author guessing; the server allows it, this form does not.
-const decisionFormSchema = decisionRequestSchema.omit({ contentHash: true }).refine((d) => d.decision === "approve" || d.comment.trim().length > 0, {
-  path: ["comment"],
-  message: "say what should change",
-});
+const decisionFormSchema = decisionRequestSchema
+  .omit({ contentHash: true })
+  .refine((d) => d.decision === "approve" || d.comment.trim().length > 0, {
+    path: ["comment"],
+    message: "say what should change",
+  });
 
 type DecisionDialogProps = { target: DecisionTarget; onClose: () => void; onDecided: (state: string) => void };
 
@@ -44,8 +53,12 @@ export function DecisionDialog({ target, onClose, onDecided }: DecisionDialogPro
       {
         onSuccess: (r) => onDecided(r.state),
         onError: (e) => {
-          if (isApiError(e) && e.code === "hash_mismatch") setError(`Not recorded: the revision changed after you opened it, so the hash above is no longer its content. Close this, read the revision again and decide on what it says now.`);
-          else if (isApiError(e) && e.status === 409 && e.fields?.state) setError(`Not recorded: the revision is now ${e.fields.state.replace("_", " ")}. ${e.message}.`);
+          if (isApiError(e) && e.code === "hash_mismatch")
+            setError(
+              `Not recorded: the revision changed after you opened it, so the hash above is no longer its content. Close this, read the revision again and decide on what it says now.`,
+            );
+          else if (isApiError(e) && e.status === 409 && e.fields?.state)
+            setError(`Not recorded: the revision is now ${e.fields.state.replace("_", " ")}. ${e.message}.`);
           else setError(isApiError(e) ? e.message : "Something went wrong. Try again.");
         },
       },
@@ -64,21 +77,33 @@ export function DecisionDialog({ target, onClose, onDecided }: DecisionDialogPro
           Decide on {target.title}, revision {target.revision}
         </h2>
         <div className="rounded-md border border-hemp/40 bg-hemp-pale/50 px-3 py-2">
-          <p className="text-note font-semibold tracking-wide text-hemp-dark uppercase">You are signing this content hash</p>
-          <code className="block text-body break-all" data-testid="hash-to-sign">{shownHash}</code>
-          <p className="mt-1 text-note text-ink-soft">SHA-256 of the revision’s canonical content: every input, the engine’s figures and the budget sheet. Approvals so far: {target.approvals} of {target.requiredApprovals}.</p>
+          <p className="text-note font-semibold tracking-wide text-hemp-dark uppercase">
+            You are signing this content hash
+          </p>
+          <code className="block text-body break-all" data-testid="hash-to-sign">
+            {shownHash}
+          </code>
+          <p className="mt-1 text-note text-ink-soft">
+            SHA-256 of the revision’s canonical content: every input, the engine’s figures and the budget sheet.
+            Approvals so far: {target.approvals} of {target.requiredApprovals}.
+          </p>
         </div>
         {error && <Notice tone="alert">{error}</Notice>}
         <fieldset className="flex flex-col gap-2">
           <legend className="mb-1 text-note font-semibold">Decision</legend>
           <label className="inline-flex items-center gap-2 text-body">
-            <input type="radio" value="approve" className="size-4 accent-hemp" {...register("decision")} /> Approve: this plan is ready for a tuning run
+            <input type="radio" value="approve" className="size-4 accent-hemp" {...register("decision")} /> Approve:
+            this plan is ready for a tuning run
           </label>
           <label className="inline-flex items-center gap-2 text-body">
-            <input type="radio" value="request_changes" className="size-4 accent-hemp" {...register("decision")} /> Request changes: send it back to its author
+            <input type="radio" value="request_changes" className="size-4 accent-hemp" {...register("decision")} />{" "}
+            Request changes: send it back to its author
           </label>
         </fieldset>
-        <Field label={decision === "approve" ? "Comment (optional)" : "What should change"} error={formState.errors.comment?.message}>
+        <Field
+          label={decision === "approve" ? "Comment (optional)" : "What should change"}
+          error={formState.errors.comment?.message}
+        >
           {({ id, describedBy, invalid }) => (
             <textarea
               id={id}
@@ -91,8 +116,12 @@ export function DecisionDialog({ target, onClose, onDecided }: DecisionDialogPro
           )}
         </Field>
         <div className="flex flex-wrap justify-end gap-2">
-          <Button variant="secondary" onClick={() => ref.current?.close()}>Cancel</Button>
-          <SubmitButton busy={decide.isPending} busyLabel="Recording…">{decision === "approve" ? "Sign and approve" : "Send back for changes"}</SubmitButton>
+          <Button variant="secondary" onClick={() => ref.current?.close()}>
+            Cancel
+          </Button>
+          <SubmitButton busy={decide.isPending} busyLabel="Recording…">
+            {decision === "approve" ? "Sign and approve" : "Send back for changes"}
+          </SubmitButton>
         </div>
       </form>
     </dialog>

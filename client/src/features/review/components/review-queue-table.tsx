@@ -1,29 +1,49 @@
 import { Link } from "react-router-dom";
 import { createColumnHelper } from "@tanstack/react-table";
-import type { ReviewQueueItem } from "../../../../../shared/schemas/plan-responses";
-import { Button } from "../../../components/button";
-import { DataTable } from "../../../components/data-table";
-import { paths } from "../../../config/paths";
-import { formatDateTime, shortHash } from "../../../lib/format";
+import type { ReviewQueueItem } from "@shared/schemas/plan-responses";
+import { Button } from "@/components/button";
+import { DataTable } from "@/components/data-table";
+import { paths } from "@/config/paths";
+import { formatDateTime, shortHash } from "@/lib/format";
 
 const column = createColumnHelper<ReviewQueueItem>();
 
 /** Revisions waiting for the signed-in approver, oldest submission first. */
-export function ReviewQueueTable({ items, onDecide }: { items: ReviewQueueItem[]; onDecide: (item: ReviewQueueItem) => void }) {
+export function ReviewQueueTable({
+  items,
+  onDecide,
+}: {
+  items: ReviewQueueItem[];
+  onDecide: (item: ReviewQueueItem) => void;
+}) {
   const columns = [
     column.accessor("title", {
       header: "Plan",
       cell: ({ row: { original: i } }) => (
-        <Link to={paths.plan(i.planId, i.revision)} className="font-medium text-ink underline decoration-rule-strong underline-offset-4 hover:text-hemp-dark">
+        <Link
+          to={paths.plan(i.planId, i.revision)}
+          className="font-medium text-ink underline decoration-rule-strong underline-offset-4 hover:text-hemp-dark"
+        >
           {i.title}
         </Link>
       ),
     }),
     column.accessor("revision", { header: "Revision", cell: (c) => `r${c.getValue()}` }),
     column.accessor("author", { header: "Author" }),
-    column.accessor("submittedAt", { header: "Submitted", cell: (c) => <span className="whitespace-nowrap">{formatDateTime(c.getValue())}</span>, enableGlobalFilter: false }),
-    column.accessor("contentHash", { header: "Content hash", cell: (c) => <code title={c.getValue()}>{shortHash(c.getValue())}</code> }),
-    column.accessor((i) => `${i.approvals} of ${i.requiredApprovals}`, { id: "approvals", header: "Approvals", enableGlobalFilter: false }),
+    column.accessor("submittedAt", {
+      header: "Submitted",
+      cell: (c) => <span className="whitespace-nowrap">{formatDateTime(c.getValue())}</span>,
+      enableGlobalFilter: false,
+    }),
+    column.accessor("contentHash", {
+      header: "Content hash",
+      cell: (c) => <code title={c.getValue()}>{shortHash(c.getValue())}</code>,
+    }),
+    column.accessor((i) => `${i.approvals} of ${i.requiredApprovals}`, {
+      id: "approvals",
+      header: "Approvals",
+      enableGlobalFilter: false,
+    }),
     column.display({
       id: "actions",
       header: () => <span className="sr-only">Actions</span>,

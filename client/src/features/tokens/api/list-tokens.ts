@@ -1,9 +1,11 @@
 import { queryOptions } from "@tanstack/react-query";
-import { tokenListResponseSchema } from "../../../../../shared/schemas/admin-views";
-import { apiClient } from "../../../lib/api-client";
-import { apiPaths } from "../../../config/paths";
+import { tokenListResponseSchema } from "@shared/schemas/admin-views";
+import { apiClient } from "@/lib/api-client";
+import { apiPaths } from "@/config/paths";
 import { tokensKeys } from "./keys";
 
-export const fetchTokens = (signal?: AbortSignal) => apiClient.get(apiPaths.tokens(), tokenListResponseSchema, signal).then((r) => r.tokens);
+export const fetchTokens = (signal?: AbortSignal) =>
+  apiClient.get(apiPaths.tokens(), tokenListResponseSchema, signal).then((r) => r.tokens);
 
-export const listTokensQuery = () => queryOptions({ queryKey: tokensKeys.list(), queryFn: ({ signal }) => fetchTokens(signal) });
+export const listTokensQuery = () =>
+  queryOptions({ queryKey: tokensKeys.list(), queryFn: ({ signal }) => fetchTokens(signal) });

@@ -1,11 +1,19 @@
-import { TOKEN_SCOPES, TOKEN_SCOPE_LABELS, type TokenScope } from "../../../../../shared/schemas/tokens";
-import { Checkbox } from "../../../components/field";
+import { TOKEN_SCOPES, TOKEN_SCOPE_LABELS, type TokenScope } from "@shared/schemas/tokens";
+import { Checkbox } from "@/components/field";
 
 /**
  * One checkbox per token scope. Controlled (value is always a TokenScope[]): react-hook-form turns a lone registered
  * checkbox into a string or boolean, and there is a single scope today.
  */
-export function ScopeCheckboxes({ value, onChange, error }: { value: TokenScope[]; onChange: (v: TokenScope[]) => void; error?: string }) {
+export function ScopeCheckboxes({
+  value,
+  onChange,
+  error,
+}: {
+  value: TokenScope[];
+  onChange: (v: TokenScope[]) => void;
+  error?: string;
+}) {
   return (
     <fieldset className="flex flex-col gap-2" aria-invalid={Boolean(error)}>
       <legend className="mb-1 text-note font-semibold text-ink">Scopes</legend>

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import { type CreateUserRequest, userResponseSchema } from "../../../../../shared/schemas/users";
-import { apiClient } from "../../../lib/api-client";
-import { apiPaths } from "../../../config/paths";
+import { type CreateUserRequest, userResponseSchema } from "@shared/schemas/users";
+import { apiClient } from "@/lib/api-client";
+import { apiPaths } from "@/config/paths";
 import { usersKeys } from "./keys";
 
 export const createUser = (body: CreateUserRequest) =>

@@ -1,7 +1,7 @@
 import { queryOptions } from "@tanstack/react-query";
-import { usersListResponseSchema } from "../../../../../shared/schemas/users";
-import { apiClient } from "../../../lib/api-client";
-import { apiPaths } from "../../../config/paths";
+import { usersListResponseSchema } from "@shared/schemas/users";
+import { apiClient } from "@/lib/api-client";
+import { apiPaths } from "@/config/paths";
 import { usersKeys } from "./keys";
 
 export const fetchUsers = (signal?: AbortSignal) =>

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import { type UpdateUserRequest, type User, userResponseSchema } from "../../../../../shared/schemas/users";
-import { apiClient } from "../../../lib/api-client";
-import { apiPaths } from "../../../config/paths";
+import { type UpdateUserRequest, type User, userResponseSchema } from "@shared/schemas/users";
+import { apiClient } from "@/lib/api-client";
+import { apiPaths } from "@/config/paths";
 import { usersKeys } from "./keys";
 
 export const updateUser = ({ id, changes }: { id: number; changes: UpdateUserRequest }) =>

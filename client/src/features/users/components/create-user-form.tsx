@@ -1,13 +1,13 @@
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
-import { createUserRequestSchema } from "../../../../../shared/schemas/users";
-import { PASSWORD_MIN } from "../../../../../shared/schemas/auth";
-import { SubmitButton } from "../../../components/button";
-import { TextField } from "../../../components/field";
-import { Notice } from "../../../components/notice";
-import { isApiError } from "../../../lib/api-client";
-import { applyApiErrors } from "../../../lib/form-errors";
+import { createUserRequestSchema } from "@shared/schemas/users";
+import { PASSWORD_MIN } from "@shared/schemas/auth";
+import { SubmitButton } from "@/components/button";
+import { TextField } from "@/components/field";
+import { Notice } from "@/components/notice";
+import { isApiError } from "@/lib/api-client";
+import { applyApiErrors } from "@/lib/form-errors";
 import { useCreateUser } from "../api/create-user";
 import { RoleCheckboxes } from "./role-checkboxes";
 
@@ -48,7 +48,13 @@ export function CreateUserForm() {
       {formError && <Notice tone="alert">{formError}</Notice>}
       <div className="grid gap-4 sm:grid-cols-2">
         <TextField label="Name" autoComplete="off" error={errors.name?.message} {...register("name")} />
-        <TextField label="E-mail" type="email" autoComplete="off" error={errors.email?.message} {...register("email")} />
+        <TextField
+          label="E-mail"
+          type="email"
+          autoComplete="off"
+          error={errors.email?.message}
+          {...register("email")}
+        />
         <TextField
           label="First password"
           type="password"

@@ -1,7 +1,7 @@
 import { useState } from "react";
 import { useQuery } from "@tanstack/react-query";
-import type { User } from "../../../../../shared/schemas/users";
-import { Loading, Notice } from "../../../components/notice";
+import type { User } from "@shared/schemas/users";
+import { Loading, Notice } from "@/components/notice";
 import { usersQueries } from "../api/queries";
 import { useUpdateUser } from "../api/update-user";
 import { RoleEditor } from "./role-editor";
@@ -18,7 +18,12 @@ export function ManageUsers({ currentUserId, onChanged }: { currentUserId: numbe
   const [message, setMessage] = useState<{ tone: "success" | "alert"; text: string } | null>(null);
 
   if (users.isPending) return <Loading label="Loading users…" />;
-  if (users.isError) return <Notice tone="alert" title="Could not load users">{users.error.message}</Notice>;
+  if (users.isError)
+    return (
+      <Notice tone="alert" title="Could not load users">
+        {users.error.message}
+      </Notice>
+    );
 
   const setActive = (user: User, active: boolean) => {
     setMessage(null);
@@ -27,7 +32,10 @@ export function ManageUsers({ currentUserId, onChanged }: { currentUserId: numbe
       {
         onSuccess: (u) => {
           onChanged?.(u);
-          setMessage({ tone: "success", text: `${u.name} is ${u.active ? "active again" : "deactivated and can no longer sign in"}.` });
+          setMessage({
+            tone: "success",
+            text: `${u.name} is ${u.active ? "active again" : "deactivated and can no longer sign in"}.`,
+          });
         },
         onError: (e) => setMessage({ tone: "alert", text: e.message }),
       },
@@ -37,14 +45,7 @@ export function ManageUsers({ currentUserId, onChanged }: { currentUserId: numbe
   return (
     <div className="flex flex-col gap-4">
       {message && <Notice tone={message.tone}>{message.text}</Notice>}
-      {editing && (
-        <RoleEditor
-          key={editing.id}
-          user={editing}
-          onDone={() => setEditing(null)}
-          onSaved={onChanged}
-        />
-      )}
+      {editing && <RoleEditor key={editing.id} user={editing} onDone={() => setEditing(null)} onSaved={onChanged} />}
       <UsersTable
         users={users.data}
         currentUserId={currentUserId}

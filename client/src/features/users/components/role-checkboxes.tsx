@@ -1,7 +1,7 @@
 import type { UseFormRegisterReturn } from "react-hook-form";
-import { ROLES, type Role } from "../../../../../shared/schemas/common";
-import { Checkbox } from "../../../components/field";
-import { roleLabel } from "../../../lib/format";
+import { ROLES, type Role } from "@shared/schemas/common";
+import { Checkbox } from "@/components/field";
+import { roleLabel } from "@/lib/format";
 
 const ROLE_DUTIES: Record<Role, string> = {
   admin: "manages accounts",
@@ -12,7 +12,15 @@ const ROLE_DUTIES: Record<Role, string> = {
 };
 
 /** One checkbox per role, all registered under one name so the form value is a Role[]. */
-export function RoleCheckboxes({ registration, error, legend = "Roles" }: { registration: UseFormRegisterReturn; error?: string; legend?: string }) {
+export function RoleCheckboxes({
+  registration,
+  error,
+  legend = "Roles",
+}: {
+  registration: UseFormRegisterReturn;
+  error?: string;
+  legend?: string;
+}) {
   return (
     <fieldset className="flex flex-col gap-2" aria-invalid={Boolean(error)}>
       <legend className="mb-1 text-note font-semibold text-ink">{legend}</legend>

@@ -1,17 +1,25 @@
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
-import { createUserRequestSchema, type User } from "../../../../../shared/schemas/users";
-import { Button } from "../../../components/button";
-import { Notice } from "../../../components/notice";
-import { applyApiErrors } from "../../../lib/form-errors";
+import { createUserRequestSchema, type User } from "@shared/schemas/users";
+import { Button } from "@/components/button";
+import { Notice } from "@/components/notice";
+import { applyApiErrors } from "@/lib/form-errors";
 import { useUpdateUser } from "../api/update-user";
 import { RoleCheckboxes } from "./role-checkboxes";
 
 // Same rules for roles as when creating a user.
 const rolesSchema = createUserRequestSchema.pick({ roles: true });
 
-export function RoleEditor({ user, onDone, onSaved }: { user: User; onDone: () => void; onSaved?: (user: User) => void }) {
+export function RoleEditor({
+  user,
+  onDone,
+  onSaved,
+}: {
+  user: User;
+  onDone: () => void;
+  onSaved?: (user: User) => void;
+}) {
   const update = useUpdateUser();
   const [formError, setFormError] = useState<string | null>(null);
   const { register, handleSubmit, setError, formState } = useForm({
@@ -34,9 +42,18 @@ export function RoleEditor({ user, onDone, onSaved }: { user: User; onDone: () =
   });
 
   return (
-    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-3 rounded-md border border-hemp/40 bg-hemp-pale/40 p-4" aria-label={`Roles of ${user.name}`}>
+    <form
+      onSubmit={onSubmit}
+      noValidate
+      className="flex flex-col gap-3 rounded-md border border-hemp/40 bg-hemp-pale/40 p-4"
+      aria-label={`Roles of ${user.name}`}
+    >
       {formError && <Notice tone="alert">{formError}</Notice>}
-      <RoleCheckboxes registration={register("roles")} error={formState.errors.roles?.message} legend={`Roles of ${user.name} (${user.email})`} />
+      <RoleCheckboxes
+        registration={register("roles")}
+        error={formState.errors.roles?.message}
+        legend={`Roles of ${user.name} (${user.email})`}
+      />
       <div className="flex gap-2">
         <Button type="submit" size="sm" busy={update.isPending}>
           Save roles

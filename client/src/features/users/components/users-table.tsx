@@ -1,9 +1,9 @@
 import { createColumnHelper } from "@tanstack/react-table";
-import type { User } from "../../../../../shared/schemas/users";
-import { Button } from "../../../components/button";
-import { DataTable } from "../../../components/data-table";
-import { Chip } from "../../../components/notice";
-import { formatDate, roleLabel } from "../../../lib/format";
+import type { User } from "@shared/schemas/users";
+import { Button } from "@/components/button";
+import { DataTable } from "@/components/data-table";
+import { Chip } from "@/components/notice";
+import { formatDate, roleLabel } from "@/lib/format";
 
 type UsersTableProps = {
   users: User[];
@@ -44,7 +44,12 @@ export function UsersTable({ users, currentUserId, busyUserId, onEditRoles, onSe
         const self = user.id === currentUserId;
         return (
           <span className="flex justify-end gap-2 whitespace-nowrap">
-            <Button variant="secondary" size="sm" onClick={() => onEditRoles(user)} aria-label={`Change roles of ${user.name}`}>
+            <Button
+              variant="secondary"
+              size="sm"
+              onClick={() => onEditRoles(user)}
+              aria-label={`Change roles of ${user.name}`}
+            >
               Change roles
             </Button>
             <Button
@@ -64,5 +69,13 @@ export function UsersTable({ users, currentUserId, busyUserId, onEditRoles, onSe
     }),
   ];
 
-  return <DataTable data={users} columns={columns} caption="Users" getRowId={(u) => String(u.id)} initialSorting={[{ id: "name", desc: false }]} />;
+  return (
+    <DataTable
+      data={users}
+      columns={columns}
+      caption="Users"
+      getRowId={(u) => String(u.id)}
+      initialSorting={[{ id: "name", desc: false }]}
+    />
+  );
 }

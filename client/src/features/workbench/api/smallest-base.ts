@@ -1,11 +1,14 @@
 import { queryOptions } from "@tanstack/react-query";
 import { z } from "zod";
 import {
-  boundProgressEventSchema, smallestBaseResponseSchema, type BoundProgress, type SmallestBaseResponse,
-} from "../../../../../shared/schemas/bounds";
-import { ApiError, apiClient } from "../../../lib/api-client";
+  boundProgressEventSchema,
+  smallestBaseResponseSchema,
+  type BoundProgress,
+  type SmallestBaseResponse,
+} from "@shared/schemas/bounds";
+import { ApiError, apiClient } from "@/lib/api-client";
 import { busyDelay, retryWhileBusy } from "./busy-retry";
-import { apiPaths } from "../../../config/paths";
+import { apiPaths } from "@/config/paths";
 import { workbenchKeys } from "./keys";
 import { readServerEvents } from "./server-events";
 
@@ -32,7 +35,11 @@ export async function streamSmallestBase(
       outcome.result = smallestBaseResponseSchema.parse(json);
     } else if (event === "error") {
       const e = streamErrorSchema.safeParse(json);
-      outcome.failure = new ApiError(500, e.success ? e.data.code : "stream_error", e.success ? e.data.message : "the search failed");
+      outcome.failure = new ApiError(
+        500,
+        e.success ? e.data.code : "stream_error",
+        e.success ? e.data.message : "the search failed",
+      );
     }
   });
   if (outcome.failure) throw outcome.failure;

@@ -1,7 +1,7 @@
 import { queryOptions } from "@tanstack/react-query";
-import { supportedLengthResponseSchema, type SupportedLengthResponse } from "../../../../../shared/schemas/bounds";
-import { apiClient } from "../../../lib/api-client";
-import { apiPaths } from "../../../config/paths";
+import { supportedLengthResponseSchema, type SupportedLengthResponse } from "@shared/schemas/bounds";
+import { apiClient } from "@/lib/api-client";
+import { apiPaths } from "@/config/paths";
 import { busyDelay, retryWhileBusy } from "./busy-retry";
 import { workbenchKeys } from "./keys";
 
@@ -17,7 +17,12 @@ export const supportedLengthsQuery = (rotaryDim: number, bases: number[]) =>
     queryFn: async (): Promise<SupportedLength[]> => {
       const out: SupportedLength[] = [];
       for (const base of bases) {
-        const r = await apiClient.send("POST", apiPaths.baseBound(), { rotaryDim, base }, supportedLengthResponseSchema);
+        const r = await apiClient.send(
+          "POST",
+          apiPaths.baseBound(),
+          { rotaryDim, base },
+          supportedLengthResponseSchema,
+        );
         out.push({ base, ...r });
       }
       return out;

@@ -22,23 +22,53 @@ export function FlagMarker({ flag, x, y, pair }: { flag: FlagId; x: number; y: n
     strokeWidth: 1.5,
   };
   const title = onChart ? <title>{`Pair ${pair}: ${label}`}</title> : null;
-  if (marker === "ring") return <circle {...props} cx={x} cy={y} r={6} fill="none">{title}</circle>;
+  if (marker === "ring")
+    return (
+      <circle {...props} cx={x} cy={y} r={6} fill="none">
+        {title}
+      </circle>
+    );
   const d =
     marker === "triangle"
       ? `M${x},${y - 7} L${x + 6},${y + 4} L${x - 6},${y + 4} Z`
       : `M${x},${y - 6} L${x + 5},${y} L${x},${y + 6} L${x - 5},${y} Z`;
   return (
-    <path {...props} d={d} fill={marker === "triangle" ? colour : "white"} fillOpacity={marker === "triangle" ? 0.85 : 1}>
+    <path
+      {...props}
+      d={d}
+      fill={marker === "triangle" ? colour : "white"}
+      fillOpacity={marker === "triangle" ? 0.85 : 1}
+    >
       {title}
     </path>
   );
 }
 
 /** A swatch for the HTML legends: a line, a wash, or a flag's marker. */
-export function Swatch({ kind, colour, flag, dashed }: { kind: "line" | "wash" | "marker"; colour?: string; flag?: FlagId; dashed?: boolean }) {
+export function Swatch({
+  kind,
+  colour,
+  flag,
+  dashed,
+}: {
+  kind: "line" | "wash" | "marker";
+  colour?: string;
+  flag?: FlagId;
+  dashed?: boolean;
+}) {
   return (
     <svg width={18} height={14} aria-hidden className="shrink-0">
-      {kind === "line" && <line x1={1} x2={17} y1={7} y2={7} stroke={colour} strokeWidth={2.5} strokeDasharray={dashed ? "4 3" : undefined} />}
+      {kind === "line" && (
+        <line
+          x1={1}
+          x2={17}
+          y1={7}
+          y2={7}
+          stroke={colour}
+          strokeWidth={2.5}
+          strokeDasharray={dashed ? "4 3" : undefined}
+        />
+      )}
       {kind === "wash" && <rect x={1} y={1} width={16} height={12} rx={2} fill={colour} stroke={RULE} />}
       {kind === "marker" && flag && <FlagMarker flag={flag} x={9} y={7} pair={-1} />}
     </svg>
@@ -72,7 +102,14 @@ export function ChartTooltip({ left, top, children }: { left: number; top: numbe
   );
 }
 
-type ReferenceLineProps = { y: number; width: number; colour: string; label: string; dashed?: string; labelAt?: "start" | "end" };
+type ReferenceLineProps = {
+  y: number;
+  width: number;
+  colour: string;
+  label: string;
+  dashed?: string;
+  labelAt?: "start" | "end";
+};
 
 /** A horizontal reference line across the plot, labelled at whichever end the data leaves free. */
 export function ReferenceLine({ y, width, colour, label, dashed = "6 4", labelAt = "end" }: ReferenceLineProps) {

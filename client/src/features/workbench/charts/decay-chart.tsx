@@ -5,7 +5,7 @@ import { Group } from "@visx/group";
 import { scaleLinear, scaleLog } from "@visx/scale";
 import { LinePath } from "@visx/shape";
 import { useTooltip } from "@visx/tooltip";
-import type { AnalysisResponse } from "../../../../../shared/schemas/analysis";
+import type { AnalysisResponse } from "@shared/schemas/analysis";
 import { decades, shortTick, sig, tokens } from "../figures";
 import { METHOD_LABELS } from "../state/method-fields";
 import { axisProps, ChartTooltip, Legend, MARGIN, Swatch } from "./chart-parts";
@@ -13,7 +13,19 @@ import { INK, methodColour, TARGET_LINE, TRAINED_LINE } from "./palette";
 import { useWidth } from "./use-width";
 
 /** A vertical reference line at a position, labelled at the top. */
-function PositionLine({ x, height, colour, label, dashed }: { x: number; height: number; colour: string; label: string; dashed: string }) {
+function PositionLine({
+  x,
+  height,
+  colour,
+  label,
+  dashed,
+}: {
+  x: number;
+  height: number;
+  colour: string;
+  label: string;
+  dashed: string;
+}) {
   return (
     <g>
       <line x1={x} x2={x} y1={0} y2={height} stroke={colour} strokeWidth={1.25} strokeDasharray={dashed} />
@@ -31,9 +43,11 @@ function PositionLine({ x, height, colour, label, dashed }: { x: number; height:
 export function DecayChart({ analysis, height = 300 }: { analysis: AnalysisResponse; height?: number }) {
   const { ref, width } = useWidth<HTMLDivElement>();
   const tip = useTooltip<number>();
-  const innerW = width - MARGIN.left - MARGIN.right, innerH = height - MARGIN.top - MARGIN.bottom;
+  const innerW = width - MARGIN.left - MARGIN.right,
+    innerH = height - MARGIN.top - MARGIN.bottom;
   const { positions, original, byMethod } = analysis.decay;
-  const L = analysis.model.trainedContext, target = analysis.targetContext;
+  const L = analysis.model.trainedContext,
+    target = analysis.targetContext;
 
   const series = useMemo(() => {
     const keep = positions.map((m, k) => (m >= 1 ? k : -1)).filter((k) => k >= 0);
@@ -58,7 +72,11 @@ export function DecayChart({ analysis, height = 300 }: { analysis: AnalysisRespo
     series.original.forEach((d, k) => {
       if (Math.abs(Math.log(d.m / m)) < Math.abs(Math.log(series.original[best].m / m))) best = k;
     });
-    tip.showTooltip({ tooltipData: best, tooltipLeft: MARGIN.left + x(series.original[best].m) + 12, tooltipTop: MARGIN.top + 8 });
+    tip.showTooltip({
+      tooltipData: best,
+      tooltipLeft: MARGIN.left + x(series.original[best].m) + 12,
+      tooltipTop: MARGIN.top + 8,
+    });
   };
   const hovered = tip.tooltipData;
 
@@ -68,17 +86,57 @@ export function DecayChart({ analysis, height = 300 }: { analysis: AnalysisRespo
         <svg width={width} height={height} role="img" aria-label="Long-term decay curve R(m), original and each method">
           <Group left={MARGIN.left} top={MARGIN.top}>
             <PositionLine x={x(L)} height={innerH} colour={TRAINED_LINE} label={`L = ${tokens(L)}`} dashed="6 4" />
-            <PositionLine x={x(target)} height={innerH} colour={TARGET_LINE} label={`L′ = ${tokens(target)}`} dashed="2 3" />
-            <LinePath data={series.original} x={(d) => x(d.m)} y={(d) => y(d.r)} stroke={INK} strokeWidth={1.75} strokeDasharray="4 3" />
+            <PositionLine
+              x={x(target)}
+              height={innerH}
+              colour={TARGET_LINE}
+              label={`L′ = ${tokens(target)}`}
+              dashed="2 3"
+            />
+            <LinePath
+              data={series.original}
+              x={(d) => x(d.m)}
+              y={(d) => y(d.r)}
+              stroke={INK}
+              strokeWidth={1.75}
+              strokeDasharray="4 3"
+            />
             {series.methods.map((data, k) => (
-              <LinePath key={k} data={data} x={(d) => x(d.m)} y={(d) => y(d.r)} stroke={methodColour(k)} strokeWidth={2.25} />
+              <LinePath
+                key={k}
+                data={data}
+                x={(d) => x(d.m)}
+                y={(d) => y(d.r)}
+                stroke={methodColour(k)}
+                strokeWidth={2.25}
+              />
             ))}
             {tip.tooltipOpen && hovered !== undefined && (
-              <line x1={x(series.original[hovered].m)} x2={x(series.original[hovered].m)} y1={0} y2={innerH} stroke={INK} strokeOpacity={0.35} />
+              <line
+                x1={x(series.original[hovered].m)}
+                x2={x(series.original[hovered].m)}
+                y1={0}
+                y2={innerH}
+                stroke={INK}
+                strokeOpacity={0.35}
+              />
             )}
             <AxisLeft scale={y} numTicks={5} label="R(m), relative bound" labelOffset={40} {...axisProps} />
-            <AxisBottom top={innerH} scale={x} tickValues={decades(1, x.domain()[1])} tickFormat={(v) => shortTick(Number(v))} label="relative distance m (tokens, log scale)" {...axisProps} />
-            <rect width={innerW} height={innerH} fill="transparent" onPointerMove={onMove} onPointerLeave={tip.hideTooltip} />
+            <AxisBottom
+              top={innerH}
+              scale={x}
+              tickValues={decades(1, x.domain()[1])}
+              tickFormat={(v) => shortTick(Number(v))}
+              label="relative distance m (tokens, log scale)"
+              {...axisProps}
+            />
+            <rect
+              width={innerW}
+              height={innerH}
+              fill="transparent"
+              onPointerMove={onMove}
+              onPointerLeave={tip.hideTooltip}
+            />
           </Group>
         </svg>
         {tip.tooltipOpen && hovered !== undefined && (
@@ -96,7 +154,11 @@ export function DecayChart({ analysis, height = 300 }: { analysis: AnalysisRespo
       <Legend
         items={[
           { key: "orig", swatch: <Swatch kind="line" colour={INK} dashed />, label: "original" },
-          ...analysis.methods.map((m, k) => ({ key: String(k), swatch: <Swatch kind="line" colour={methodColour(k)} />, label: `${k + 1}. ${METHOD_LABELS[m.method]}` })),
+          ...analysis.methods.map((m, k) => ({
+            key: String(k),
+            swatch: <Swatch kind="line" colour={methodColour(k)} />,
+            label: `${k + 1}. ${METHOD_LABELS[m.method]}`,
+          })),
         ]}
       />
     </div>

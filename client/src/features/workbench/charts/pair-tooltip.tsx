@@ -1,4 +1,4 @@
-import type { PairResult } from "../../../../../shared/schemas/analysis";
+import type { PairResult } from "@shared/schemas/analysis";
 import { sig, tokens } from "../figures";
 import { BAND_STYLE, FLAG_IDS, FLAG_STYLE } from "./palette";
 
@@ -15,7 +15,8 @@ export function PairTooltipBody({ pair, methodLabel }: { pair: PairResult; metho
       </p>
       <p>r = L/λ = {sig(pair.rotationsInTrainedWindow, 5)} turns in the trained window</p>
       <p>
-        θ = {pair.invFreq.toPrecision(6)} → θ′ = {pair.scaledInvFreq.toPrecision(6)} rad/token (θ′/θ = {sig(pair.scaledInvFreq / pair.invFreq, 5)})
+        θ = {pair.invFreq.toPrecision(6)} → θ′ = {pair.scaledInvFreq.toPrecision(6)} rad/token (θ′/θ ={" "}
+        {sig(pair.scaledInvFreq / pair.invFreq, 5)})
       </p>
       {flags.length > 0 ? (
         <ul className="mt-1 list-disc pl-4">

@@ -1,4 +1,4 @@
-import type { Band } from "../../../../../shared/schemas/analysis";
+import type { Band } from "@shared/schemas/analysis";
 
 /**
  * Ropewalk's chart colours, drawn from the workshop palette (index.css): ink for the original frequencies,
@@ -16,7 +16,12 @@ export const methodColour = (index: number) => METHOD_COLOURS[index % METHOD_COL
 export const BAND_STYLE: Record<Band, { wash: string; text: string; label: string; plain: string }> = {
   spinning: { wash: "#dcebe7", text: "#1f5c57", label: "Spinning", plain: "many turns in training (high frequency)" },
   turning: { wash: "#f1e2cd", text: "#7a4614", label: "Turning", plain: "a few turns in training" },
-  drifting: { wash: "#e4e1ee", text: "#4a4373", label: "Drifting", plain: "under one turn in training (low frequency)" },
+  drifting: {
+    wash: "#e4e1ee",
+    text: "#4a4373",
+    label: "Drifting",
+    plain: "under one turn in training (low frequency)",
+  },
 };
 
 export type FlagId = "exceedsTrainedWindow" | "unseenAngles" | "compressedResolution";

@@ -5,7 +5,7 @@ import { Group } from "@visx/group";
 import { scaleLinear, scaleLog } from "@visx/scale";
 import { LinePath } from "@visx/shape";
 import { useTooltip } from "@visx/tooltip";
-import type { AnalysisResponse } from "../../../../../shared/schemas/analysis";
+import type { AnalysisResponse } from "@shared/schemas/analysis";
 import { oneTwoFive, sig } from "../figures";
 import { METHOD_LABELS } from "../state/method-fields";
 import { axisProps, ChartTooltip, Legend, MARGIN, ReferenceLine, Swatch } from "./chart-parts";
@@ -16,15 +16,20 @@ import { useWidth } from "./use-width";
 export function RatioChart({ analysis, height = 280 }: { analysis: AnalysisResponse; height?: number }) {
   const { ref, width } = useWidth<HTMLDivElement>();
   const tip = useTooltip<number>();
-  const innerW = width - MARGIN.left - MARGIN.right, innerH = height - MARGIN.top - MARGIN.bottom;
+  const innerW = width - MARGIN.left - MARGIN.right,
+    innerH = height - MARGIN.top - MARGIN.bottom;
   const n = analysis.model.pairs;
   const series = useMemo(
     () => analysis.methods.map((m) => m.pairs.map((p) => ({ i: p.index, ratio: p.scaledInvFreq / p.invFreq }))),
     [analysis],
   );
   const { x, y } = useMemo(() => {
-    const values = series.flat().map((d) => d.ratio).concat([1, 1 / analysis.scale]);
-    const lo = Math.min(...values), hi = Math.max(...values);
+    const values = series
+      .flat()
+      .map((d) => d.ratio)
+      .concat([1, 1 / analysis.scale]);
+    const lo = Math.min(...values),
+      hi = Math.max(...values);
     return {
       x: scaleLinear({ domain: [0, n - 1], range: [0, innerW] }),
       y: scaleLog({ domain: [lo / 1.3, hi * 1.3], range: [innerH, 0] }),
@@ -45,16 +50,53 @@ export function RatioChart({ analysis, height = 280 }: { analysis: AnalysisRespo
         <svg width={width} height={height} role="img" aria-label="Scale ratio θ′/θ per pair, one line per method">
           <Group left={MARGIN.left} top={MARGIN.top}>
             <ReferenceLine y={y(1)} width={innerW} colour={INK} label="1: kept as trained" />
-            {analysis.scale > 1 && <ReferenceLine y={y(1 / analysis.scale)} width={innerW} colour={INK_SOFT} label={`1/s = 1/${sig(analysis.scale, 4)}`} dashed="2 3" labelAt="start" />}
+            {analysis.scale > 1 && (
+              <ReferenceLine
+                y={y(1 / analysis.scale)}
+                width={innerW}
+                colour={INK_SOFT}
+                label={`1/s = 1/${sig(analysis.scale, 4)}`}
+                dashed="2 3"
+                labelAt="start"
+              />
+            )}
             {series.map((data, k) => (
-              <LinePath key={k} data={data} x={(d) => x(d.i)} y={(d) => y(d.ratio)} stroke={methodColour(k)} strokeWidth={2.25} data-method={analysis.methods[k].method} />
+              <LinePath
+                key={k}
+                data={data}
+                x={(d) => x(d.i)}
+                y={(d) => y(d.ratio)}
+                stroke={methodColour(k)}
+                strokeWidth={2.25}
+                data-method={analysis.methods[k].method}
+              />
             ))}
             {tip.tooltipOpen && tip.tooltipData !== undefined && (
-              <line x1={x(tip.tooltipData)} x2={x(tip.tooltipData)} y1={0} y2={innerH} stroke={INK} strokeOpacity={0.35} />
+              <line
+                x1={x(tip.tooltipData)}
+                x2={x(tip.tooltipData)}
+                y1={0}
+                y2={innerH}
+                stroke={INK}
+                strokeOpacity={0.35}
+              />
             )}
-            <AxisLeft scale={y} tickValues={ticks} tickFormat={(v) => sig(Number(v), 2)} label="θ′/θ (log scale)" labelOffset={44} {...axisProps} />
+            <AxisLeft
+              scale={y}
+              tickValues={ticks}
+              tickFormat={(v) => sig(Number(v), 2)}
+              label="θ′/θ (log scale)"
+              labelOffset={44}
+              {...axisProps}
+            />
             <AxisBottom top={innerH} scale={x} numTicks={Math.min(n, 16)} label="pair index i" {...axisProps} />
-            <rect width={innerW} height={innerH} fill="transparent" onPointerMove={onMove} onPointerLeave={tip.hideTooltip} />
+            <rect
+              width={innerW}
+              height={innerH}
+              fill="transparent"
+              onPointerMove={onMove}
+              onPointerLeave={tip.hideTooltip}
+            />
           </Group>
         </svg>
         {tip.tooltipOpen && tip.tooltipData !== undefined && (
@@ -68,7 +110,13 @@ export function RatioChart({ analysis, height = 280 }: { analysis: AnalysisRespo
           </ChartTooltip>
         )}
       </div>
-      <Legend items={analysis.methods.map((m, k) => ({ key: String(k), swatch: <Swatch kind="line" colour={methodColour(k)} />, label: `${k + 1}. ${METHOD_LABELS[m.method]}` }))} />
+      <Legend
+        items={analysis.methods.map((m, k) => ({
+          key: String(k),
+          swatch: <Swatch kind="line" colour={methodColour(k)} />,
+          label: `${k + 1}. ${METHOD_LABELS[m.method]}`,
+        }))}
+      />
     </div>
   );
 }

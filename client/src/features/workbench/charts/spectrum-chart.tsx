@@ -5,7 +5,7 @@ import { Group } from "@visx/group";
 import { scaleLinear, scaleLog } from "@visx/scale";
 import { LinePath } from "@visx/shape";
 import { useTooltip } from "@visx/tooltip";
-import type { AnalysisResponse, Band, PairResult } from "../../../../../shared/schemas/analysis";
+import type { AnalysisResponse, Band, PairResult } from "@shared/schemas/analysis";
 import { decades, shortTick, tokens } from "../figures";
 import { METHOD_LABELS } from "../state/method-fields";
 import { axisProps, ChartTooltip, FlagMarker, Legend, MARGIN, ReferenceLine, Swatch } from "./chart-parts";
@@ -44,8 +44,10 @@ export function SpectrumChart({ analysis, methodIndex, height = 340 }: SpectrumC
   const index = Math.min(Math.max(methodIndex, 0), analysis.methods.length - 1);
   const method = analysis.methods[index];
   const pairs = method.pairs;
-  const L = analysis.model.trainedContext, target = analysis.targetContext;
-  const innerW = width - M.left - M.right, innerH = height - M.top - M.bottom;
+  const L = analysis.model.trainedContext,
+    target = analysis.targetContext;
+  const innerW = width - M.left - M.right,
+    innerH = height - M.top - M.bottom;
   const colour = methodColour(index);
   const label = METHOD_LABELS[method.method];
 
@@ -62,7 +64,11 @@ export function SpectrumChart({ analysis, methodIndex, height = 340 }: SpectrumC
     if (!point) return;
     const i = Math.round(x.invert(point.x - M.left));
     const pair = pairs[Math.min(Math.max(i, 0), pairs.length - 1)];
-    tip.showTooltip({ tooltipData: pair, tooltipLeft: M.left + x(pair.index) + 12, tooltipTop: M.top + y(pair.scaledWavelength) });
+    tip.showTooltip({
+      tooltipData: pair,
+      tooltipLeft: M.left + x(pair.index) + 12,
+      tooltipTop: M.top + y(pair.scaledWavelength),
+    });
   };
 
   return (
@@ -72,33 +78,112 @@ export function SpectrumChart({ analysis, methodIndex, height = 340 }: SpectrumC
           <Group left={M.left} top={M.top}>
             {bandRuns(pairs).map((run) => (
               <g key={`${run.band}-${run.from}`} data-band={run.band}>
-                <rect x={x(run.from - 0.5)} width={x(run.to + 0.5) - x(run.from - 0.5)} y={0} height={innerH} fill={BAND_STYLE[run.band].wash} />
+                <rect
+                  x={x(run.from - 0.5)}
+                  width={x(run.to + 0.5) - x(run.from - 0.5)}
+                  y={0}
+                  height={innerH}
+                  fill={BAND_STYLE[run.band].wash}
+                />
                 {x(run.to + 0.5) - x(run.from - 0.5) > 36 && (
-                  <text x={(x(run.from - 0.5) + x(run.to + 0.5)) / 2} y={-8} textAnchor="middle" fontSize={11} fontWeight={500} fill={BAND_STYLE[run.band].text} fontFamily="IBM Plex Sans, sans-serif">
+                  <text
+                    x={(x(run.from - 0.5) + x(run.to + 0.5)) / 2}
+                    y={-8}
+                    textAnchor="middle"
+                    fontSize={11}
+                    fontWeight={500}
+                    fill={BAND_STYLE[run.band].text}
+                    fontFamily="IBM Plex Sans, sans-serif"
+                  >
                     {BAND_STYLE[run.band].label}
                   </text>
                 )}
               </g>
             ))}
-            <ReferenceLine y={y(L)} width={innerW} colour={TRAINED_LINE} label={`trained L = ${tokens(L)}`} labelAt="start" />
-            <ReferenceLine y={y(target)} width={innerW} colour={TARGET_LINE} label={`target L′ = ${tokens(target)}`} dashed="2 3" labelAt="start" />
-            <LinePath data={pairs} x={(p) => x(p.index)} y={(p) => y(p.wavelength)} stroke={INK} strokeWidth={1.5} strokeDasharray="4 3" />
-            <LinePath data={pairs} x={(p) => x(p.index)} y={(p) => y(p.scaledWavelength)} stroke={colour} strokeWidth={2.25} />
+            <ReferenceLine
+              y={y(L)}
+              width={innerW}
+              colour={TRAINED_LINE}
+              label={`trained L = ${tokens(L)}`}
+              labelAt="start"
+            />
+            <ReferenceLine
+              y={y(target)}
+              width={innerW}
+              colour={TARGET_LINE}
+              label={`target L′ = ${tokens(target)}`}
+              dashed="2 3"
+              labelAt="start"
+            />
+            <LinePath
+              data={pairs}
+              x={(p) => x(p.index)}
+              y={(p) => y(p.wavelength)}
+              stroke={INK}
+              strokeWidth={1.5}
+              strokeDasharray="4 3"
+            />
+            <LinePath
+              data={pairs}
+              x={(p) => x(p.index)}
+              y={(p) => y(p.scaledWavelength)}
+              stroke={colour}
+              strokeWidth={2.25}
+            />
             {pairs.map((p) => (
               <g key={p.index}>
                 <circle cx={x(p.index)} cy={y(p.wavelength)} r={2} fill={INK} />
                 <circle cx={x(p.index)} cy={y(p.scaledWavelength)} r={2.75} fill={colour} />
-                {p.exceedsTrainedWindow && <FlagMarker flag="exceedsTrainedWindow" pair={p.index} x={x(p.index)} y={y(p.wavelength)} />}
-                {p.unseenAngles && <FlagMarker flag="unseenAngles" pair={p.index} x={x(p.index)} y={y(p.scaledWavelength) - 10} />}
-                {p.compressedResolution && <FlagMarker flag="compressedResolution" pair={p.index} x={x(p.index)} y={y(p.scaledWavelength) + 10} />}
+                {p.exceedsTrainedWindow && (
+                  <FlagMarker flag="exceedsTrainedWindow" pair={p.index} x={x(p.index)} y={y(p.wavelength)} />
+                )}
+                {p.unseenAngles && (
+                  <FlagMarker flag="unseenAngles" pair={p.index} x={x(p.index)} y={y(p.scaledWavelength) - 10} />
+                )}
+                {p.compressedResolution && (
+                  <FlagMarker
+                    flag="compressedResolution"
+                    pair={p.index}
+                    x={x(p.index)}
+                    y={y(p.scaledWavelength) + 10}
+                  />
+                )}
               </g>
             ))}
             {tip.tooltipOpen && tip.tooltipData && (
-              <line x1={x(tip.tooltipData.index)} x2={x(tip.tooltipData.index)} y1={0} y2={innerH} stroke={INK} strokeOpacity={0.35} />
+              <line
+                x1={x(tip.tooltipData.index)}
+                x2={x(tip.tooltipData.index)}
+                y1={0}
+                y2={innerH}
+                stroke={INK}
+                strokeOpacity={0.35}
+              />
             )}
-            <AxisLeft scale={y} tickValues={decades(y.domain()[0], y.domain()[1])} tickFormat={(v) => shortTick(Number(v))} label="wavelength λ (tokens, log scale)" labelOffset={40} {...axisProps} />
-            <AxisBottom top={innerH} scale={x} numTicks={Math.min(pairs.length, 16)} tickFormat={(v) => (Number.isInteger(Number(v)) ? String(v) : "")} label="pair index i (0 turns fastest)" {...axisProps} />
-            <rect width={innerW} height={innerH} fill="transparent" onPointerMove={onMove} onPointerLeave={tip.hideTooltip} data-testid="chart-hover" />
+            <AxisLeft
+              scale={y}
+              tickValues={decades(y.domain()[0], y.domain()[1])}
+              tickFormat={(v) => shortTick(Number(v))}
+              label="wavelength λ (tokens, log scale)"
+              labelOffset={40}
+              {...axisProps}
+            />
+            <AxisBottom
+              top={innerH}
+              scale={x}
+              numTicks={Math.min(pairs.length, 16)}
+              tickFormat={(v) => (Number.isInteger(Number(v)) ? String(v) : "")}
+              label="pair index i (0 turns fastest)"
+              {...axisProps}
+            />
+            <rect
+              width={innerW}
+              height={innerH}
+              fill="transparent"
+              onPointerMove={onMove}
+              onPointerLeave={tip.hideTooltip}
+              data-testid="chart-hover"
+            />
           </Group>
         </svg>
         {tip.tooltipOpen && tip.tooltipData && (

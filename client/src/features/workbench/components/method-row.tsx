@@ -1,6 +1,6 @@
-import { METHOD_IDS, type MethodId } from "../../../../../shared/schemas/analysis";
-import { Button } from "../../../components/button";
-import { TextAreaField, TextField, SelectField } from "../../../components/field";
+import { METHOD_IDS, type MethodId } from "@shared/schemas/analysis";
+import { Button } from "@/components/button";
+import { TextAreaField, TextField, SelectField } from "@/components/field";
 import { methodColour } from "../charts/palette";
 import { sig } from "../figures";
 import { defaultText, METHOD_LABELS, methodEntry, type FieldContext, type MethodField } from "../state/method-fields";
@@ -18,7 +18,19 @@ type MethodRowProps = {
 };
 
 /** The list fields of LongRoPE: d/2 numbers; two buttons fill them with neutral starting values. */
-function ListField({ field, value, error, context, onChange }: { field: MethodField; value: string; error?: string; context: FieldContext; onChange: (v: string) => void }) {
+function ListField({
+  field,
+  value,
+  error,
+  context,
+  onChange,
+}: {
+  field: MethodField;
+  value: string;
+  error?: string;
+  context: FieldContext;
+  onChange: (v: string) => void;
+}) {
   const fill = (x: number) => onChange(Array.from({ length: context.pairs ?? 0 }, () => sig(x, 6)).join(", "));
   return (
     <div className="flex flex-col gap-1 sm:col-span-2">
@@ -54,7 +66,11 @@ export function MethodRow({ index, row, context, errors, canRemove, onChange, on
   const set = (key: string, value: string) => onChange({ ...row, params: { ...row.params, [key]: value } });
   const fields = methodEntry(row.method).fields;
   return (
-    <fieldset className="flex flex-col gap-3 rounded-md border border-rule bg-white/40 p-3" style={{ borderLeft: `4px solid ${methodColour(index)}` }} data-testid={`method-row-${index}`}>
+    <fieldset
+      className="flex flex-col gap-3 rounded-md border border-rule bg-white/40 p-3"
+      style={{ borderLeft: `4px solid ${methodColour(index)}` }}
+      data-testid={`method-row-${index}`}
+    >
       <legend className="sr-only">Method {index + 1}</legend>
       <div className="flex items-end gap-2">
         <div className="flex-1">
@@ -72,7 +88,13 @@ export function MethodRow({ index, row, context, errors, canRemove, onChange, on
           </SelectField>
         </div>
         {canRemove && (
-          <Button variant="quiet" size="sm" onClick={onRemove} aria-label={`Remove method ${index + 1}`} className="mb-1">
+          <Button
+            variant="quiet"
+            size="sm"
+            onClick={onRemove}
+            aria-label={`Remove method ${index + 1}`}
+            className="mb-1"
+          >
             Remove
           </Button>
         )}
@@ -81,10 +103,26 @@ export function MethodRow({ index, row, context, errors, canRemove, onChange, on
         <div className="grid gap-3 sm:grid-cols-2">
           {fields.map((f) => {
             const value = row.params[f.key] ?? "";
-            if (f.kind === "list") return <ListField key={f.key} field={f} value={value} error={err(f.key)} context={context} onChange={(v) => set(f.key, v)} />;
+            if (f.kind === "list")
+              return (
+                <ListField
+                  key={f.key}
+                  field={f}
+                  value={value}
+                  error={err(f.key)}
+                  context={context}
+                  onChange={(v) => set(f.key, v)}
+                />
+              );
             if (f.kind === "boolean") {
               return (
-                <SelectField key={f.key} label={f.label} value={value} error={err(f.key)} onChange={(e) => set(f.key, e.target.value)}>
+                <SelectField
+                  key={f.key}
+                  label={f.label}
+                  value={value}
+                  error={err(f.key)}
+                  onChange={(e) => set(f.key, e.target.value)}
+                >
                   <option value="">default ({defaultText(f, context)})</option>
                   <option value="true">yes</option>
                   <option value="false">no</option>

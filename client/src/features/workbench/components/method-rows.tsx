@@ -1,5 +1,5 @@
-import { MAX_METHODS } from "../../../../../shared/schemas/analysis";
-import { Button } from "../../../components/button";
+import { MAX_METHODS } from "@shared/schemas/analysis";
+import { Button } from "@/components/button";
 import type { MethodRow as Row } from "../state/inputs";
 import type { FieldContext } from "../state/method-fields";
 import type { FieldErrors } from "../state/to-request";
@@ -11,7 +11,11 @@ type MethodRowsProps = { rows: Row[]; context: FieldContext; errors: FieldErrors
 export function MethodRows({ rows, context, errors, onChange }: MethodRowsProps) {
   return (
     <div className="flex flex-col gap-3">
-      {errors.methods && <p className="text-note text-signal" role="alert">{errors.methods}</p>}
+      {errors.methods && (
+        <p className="text-note text-signal" role="alert">
+          {errors.methods}
+        </p>
+      )}
       {rows.map((row, i) => (
         <MethodRow
           // Rows have no identity beyond their place; removing one re-keys the rest, which is what the URL does too.

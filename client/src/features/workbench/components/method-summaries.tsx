@@ -1,4 +1,4 @@
-import type { AnalysisResponse } from "../../../../../shared/schemas/analysis";
+import type { AnalysisResponse } from "@shared/schemas/analysis";
 import { methodColour } from "../charts/palette";
 import { HowComputed } from "../explain/how-computed";
 import { sig } from "../figures";
@@ -11,13 +11,20 @@ export function MethodSummaries({ analysis }: { analysis: AnalysisResponse }) {
   return (
     <div className="grid gap-4 lg:grid-cols-2">
       {analysis.methods.map((m, i) => (
-        <article key={i} className="flex flex-col gap-3 rounded-md border border-rule bg-white/50 p-4" style={{ borderTop: `4px solid ${methodColour(i)}` }} aria-label={`Method ${i + 1}: ${METHOD_LABELS[m.method]}`}>
+        <article
+          key={i}
+          className="flex flex-col gap-3 rounded-md border border-rule bg-white/50 p-4"
+          style={{ borderTop: `4px solid ${methodColour(i)}` }}
+          aria-label={`Method ${i + 1}: ${METHOD_LABELS[m.method]}`}
+        >
           <h3 className="text-lead font-semibold">
             {i + 1}. {METHOD_LABELS[m.method]}
           </h3>
           <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-body">
             <dt className="text-ink-soft">Attention factor a</dt>
-            <dd className="tabular-nums">{sig(m.attentionFactor, 5)} (logits scale by a² = {sig(m.attentionFactor ** 2, 5)})</dd>
+            <dd className="tabular-nums">
+              {sig(m.attentionFactor, 5)} (logits scale by a² = {sig(m.attentionFactor ** 2, 5)})
+            </dd>
             {m.effectiveBase !== null && (
               <>
                 <dt className="text-ink-soft">Effective base</dt>
@@ -25,11 +32,17 @@ export function MethodSummaries({ analysis }: { analysis: AnalysisResponse }) {
               </>
             )}
             <dt className="text-ink-soft">Reaches unseen angles</dt>
-            <dd className="tabular-nums">{m.summary.unseenAnglesPairs} of {n} pairs</dd>
+            <dd className="tabular-nums">
+              {m.summary.unseenAnglesPairs} of {n} pairs
+            </dd>
             <dt className="text-ink-soft">Resolution compressed</dt>
-            <dd className="tabular-nums">{m.summary.compressedResolutionPairs} of {n} pairs</dd>
+            <dd className="tabular-nums">
+              {m.summary.compressedResolutionPairs} of {n} pairs
+            </dd>
             <dt className="text-ink-soft">Longer than trained window</dt>
-            <dd className="tabular-nums">{m.summary.exceedsTrainedWindowPairs} of {n} pairs</dd>
+            <dd className="tabular-nums">
+              {m.summary.exceedsTrainedWindowPairs} of {n} pairs
+            </dd>
           </dl>
           {m.notes.length > 0 && (
             <ul className="list-disc pl-5 text-note text-ink-soft">

@@ -1,6 +1,6 @@
 import type { ReactNode } from "react";
-import type { ModelProfile } from "../../../../../shared/schemas/models";
-import { TextField, SelectField } from "../../../components/field";
+import type { ModelProfile } from "@shared/schemas/models";
+import { TextField, SelectField } from "@/components/field";
 import { tokens } from "../figures";
 import { EMPTY_SHAPE, type ModelChoice } from "../state/inputs";
 import type { FieldErrors } from "../state/to-request";
@@ -19,7 +19,8 @@ const SHAPE_FIELDS = [
   { key: "trainedContext", label: "Trained context L", placeholder: "4096" },
 ] as const;
 
-const describe = (p: ModelProfile) => `${p.name} — d ${p.rotaryDim}, b ${tokens(p.ropeTheta)}, L ${tokens(p.trainedContext)}`;
+const describe = (p: ModelProfile) =>
+  `${p.name} — d ${p.rotaryDim}, b ${tokens(p.ropeTheta)}, L ${tokens(p.trainedContext)}`;
 
 /** A saved profile, or a rotary shape typed in for a quick look. */
 export function ModelInput({ choice, profiles, onChange, errors }: ModelInputProps): ReactNode {
@@ -30,15 +31,24 @@ export function ModelInput({ choice, profiles, onChange, errors }: ModelInputPro
         label="Model"
         value={value}
         error={errors.model ?? errors["model.modelId"]}
-        onChange={(e) => onChange(e.target.value === "shape" ? EMPTY_SHAPE : { kind: "saved", id: e.target.value ? Number(e.target.value) : null })}
+        onChange={(e) =>
+          onChange(
+            e.target.value === "shape"
+              ? EMPTY_SHAPE
+              : { kind: "saved", id: e.target.value ? Number(e.target.value) : null },
+          )
+        }
       >
         <option value="">Pick a saved profile…</option>
         {/* Retired profiles leave the picker, except the one a link already names. */}
-        {profiles.filter((p) => !p.retiredAt || String(p.id) === value).map((p) => (
-          <option key={p.id} value={p.id}>
-            {describe(p)}{p.retiredAt ? " (retired)" : ""}
-          </option>
-        ))}
+        {profiles
+          .filter((p) => !p.retiredAt || String(p.id) === value)
+          .map((p) => (
+            <option key={p.id} value={p.id}>
+              {describe(p)}
+              {p.retiredAt ? " (retired)" : ""}
+            </option>
+          ))}
         <option value="shape">Type a shape in…</option>
       </SelectField>
       {choice.kind === "shape" && (

@@ -1,11 +1,17 @@
 import { useMemo, useState } from "react";
-import { getCoreRowModel, getSortedRowModel, useReactTable, type SortingState, type VisibilityState } from "@tanstack/react-table";
-import type { MethodResult } from "../../../../../shared/schemas/analysis";
-import { Button } from "../../../components/button";
-import { Checkbox } from "../../../components/field";
-import { TableView } from "../../../components/table-view";
+import {
+  getCoreRowModel,
+  getSortedRowModel,
+  useReactTable,
+  type SortingState,
+  type VisibilityState,
+} from "@tanstack/react-table";
+import type { MethodResult } from "@shared/schemas/analysis";
+import { Button } from "@/components/button";
+import { Checkbox } from "@/components/field";
+import { TableView } from "@/components/table-view";
 import { METHOD_LABELS } from "../state/method-fields";
-import { downloadText } from "../../../lib/download";
+import { downloadText } from "@/lib/download";
 import { tableToCsv } from "./csv-download";
 import { anyFlag, PAIR_COLUMNS } from "./pair-columns";
 
@@ -34,19 +40,32 @@ export function PairTable({ method, methodNumber, targetContext, flaggedOnly, on
     getSortedRowModel: getSortedRowModel(),
   });
   const rows = table.getRowModel().rows;
-  const download = () => downloadText(tableToCsv(table), `ropewalk-pairs-${methodNumber}-${method.method}-${targetContext}.csv`);
+  const download = () =>
+    downloadText(tableToCsv(table), `ropewalk-pairs-${methodNumber}-${method.method}-${targetContext}.csv`);
 
   return (
     <div className="flex flex-col gap-3">
       <div className="flex flex-wrap items-center justify-between gap-3">
         <div className="flex flex-wrap items-center gap-4">
-          <Checkbox label="Flagged pairs only" checked={flaggedOnly} onChange={(e) => onFlaggedOnly(e.target.checked)} />
+          <Checkbox
+            label="Flagged pairs only"
+            checked={flaggedOnly}
+            onChange={(e) => onFlaggedOnly(e.target.checked)}
+          />
           <details className="text-note">
             <summary className="cursor-pointer text-seaglass">Columns</summary>
             <div className="mt-1 flex flex-wrap gap-3">
-              {table.getAllLeafColumns().filter((c) => c.getCanHide()).map((c) => (
-                <Checkbox key={c.id} label={String(c.columnDef.header)} checked={c.getIsVisible()} onChange={c.getToggleVisibilityHandler()} />
-              ))}
+              {table
+                .getAllLeafColumns()
+                .filter((c) => c.getCanHide())
+                .map((c) => (
+                  <Checkbox
+                    key={c.id}
+                    label={String(c.columnDef.header)}
+                    checked={c.getIsVisible()}
+                    onChange={c.getToggleVisibilityHandler()}
+                  />
+                ))}
             </div>
           </details>
         </div>
@@ -64,7 +83,8 @@ export function PairTable({ method, methodNumber, targetContext, flaggedOnly, on
         rowAttributes={(row) => ({ "data-flagged": anyFlag(row.original) || undefined })}
       />
       <p className="text-note text-ink-soft" data-testid="pair-count">
-        {rows.length} of {method.pairs.length} pairs shown. Values show 4 significant figures; the CSV holds full precision.
+        {rows.length} of {method.pairs.length} pairs shown. Values show 4 significant figures; the CSV holds full
+        precision.
       </p>
     </div>
   );

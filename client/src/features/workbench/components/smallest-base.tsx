@@ -1,10 +1,18 @@
-import { Button } from "../../../components/button";
-import { Notice } from "../../../components/notice";
+import { Button } from "@/components/button";
+import { Notice } from "@/components/notice";
 import { sig, tokens } from "../figures";
 import { useSmallestBase } from "../hooks/use-smallest-base";
 
 /** Live search for the smallest base on the grid that supports the target, with progress and Cancel. */
-export function SmallestBase({ rotaryDim, targetContext, currentBase }: { rotaryDim: number; targetContext: number; currentBase: number }) {
+export function SmallestBase({
+  rotaryDim,
+  targetContext,
+  currentBase,
+}: {
+  rotaryDim: number;
+  targetContext: number;
+  currentBase: number;
+}) {
   const { query, progress, cancelled, cancel, restart } = useSmallestBase(rotaryDim, targetContext);
   const examined = progress && "candidatesExamined" in progress ? progress : null;
 
@@ -13,16 +21,21 @@ export function SmallestBase({ rotaryDim, targetContext, currentBase }: { rotary
     return (
       <div className="flex flex-col gap-1" data-testid="smallest-base">
         {r.smallestBase === null ? (
-          <p>No base on the grid (up to {sig(r.grid.to, 3)}) supports {tokens(targetContext)} tokens.</p>
+          <p>
+            No base on the grid (up to {sig(r.grid.to, 3)}) supports {tokens(targetContext)} tokens.
+          </p>
         ) : (
           <p>
-            Smallest base that supports {tokens(targetContext)} tokens: <strong className="tabular-nums">{sig(r.smallestBase, 4)}</strong>
-            {r.smallestBase <= currentBase ? " — the current base is at least that." : ` — the current base ${sig(currentBase, 4)} is below it.`}
+            Smallest base that supports {tokens(targetContext)} tokens:{" "}
+            <strong className="tabular-nums">{sig(r.smallestBase, 4)}</strong>
+            {r.smallestBase <= currentBase
+              ? " — the current base is at least that."
+              : ` — the current base ${sig(currentBase, 4)} is below it.`}
           </p>
         )}
         <p className="text-note text-ink-soft">
-          Grid {sig(r.grid.from, 3)} to {sig(r.grid.to, 3)}, {r.grid.perDecade} bases per decade, tried from the bottom up; {r.candidatesExamined} of{" "}
-          {r.candidatesTotal} tried.
+          Grid {sig(r.grid.from, 3)} to {sig(r.grid.to, 3)}, {r.grid.perDecade} bases per decade, tried from the bottom
+          up; {r.candidatesExamined} of {r.candidatesTotal} tried.
         </p>
       </div>
     );
@@ -40,7 +53,9 @@ export function SmallestBase({ rotaryDim, targetContext, currentBase }: { rotary
   if (cancelled) {
     return (
       <div className="flex items-center gap-3" data-testid="smallest-base">
-        <p className="text-ink-soft">Search cancelled{examined ? ` after ${examined.candidatesExamined} bases` : ""}.</p>
+        <p className="text-ink-soft">
+          Search cancelled{examined ? ` after ${examined.candidatesExamined} bases` : ""}.
+        </p>
         <Button variant="secondary" size="sm" onClick={restart}>
           Search again
         </Button>

@@ -1,4 +1,4 @@
-import { TextField } from "../../../components/field";
+import { TextField } from "@/components/field";
 import { sig, tokens } from "../figures";
 import type { FieldErrors } from "../state/to-request";
 

@@ -1,6 +1,6 @@
-import type { AnalysisResponse } from "../../../../../shared/schemas/analysis";
-import { Notice } from "../../../components/notice";
-import { Panel } from "../../../components/page";
+import type { AnalysisResponse } from "@shared/schemas/analysis";
+import { Notice } from "@/components/notice";
+import { Panel } from "@/components/page";
 import { DecayChart } from "../charts/decay-chart";
 import { RatioChart } from "../charts/ratio-chart";
 import { SpectrumChart } from "../charts/spectrum-chart";
@@ -10,7 +10,7 @@ import { METHOD_LABELS } from "../state/method-fields";
 import { BoundsPanel } from "./bounds-panel";
 import { MethodSummaries } from "./method-summaries";
 import { PairTable } from "./pair-table";
-import { SelectField } from "../../../components/field";
+import { SelectField } from "@/components/field";
 
 type ResultsProps = {
   analysis: AnalysisResponse;
@@ -43,7 +43,10 @@ export function WorkbenchResults({ analysis, view, onView, flaggedOnly, onFlagge
       <Panel title="Wavelength per pair" aside={<MethodPicker analysis={analysis} view={shown} onView={onView} />}>
         <div className="flex flex-col gap-3">
           <SpectrumChart analysis={analysis} methodIndex={shown} />
-          <HowComputed topics={["wavelength", "rotations", "bands", "flags"]} methods={[analysis.methods[shown].method]} />
+          <HowComputed
+            topics={["wavelength", "rotations", "bands", "flags"]}
+            methods={[analysis.methods[shown].method]}
+          />
         </div>
       </Panel>
       <div className="grid gap-6 xl:grid-cols-2">
@@ -65,7 +68,13 @@ export function WorkbenchResults({ analysis, view, onView, flaggedOnly, onFlagge
       </Panel>
       <Panel title="Pair by pair" aside={<MethodPicker analysis={analysis} view={shown} onView={onView} />}>
         <div className="flex flex-col gap-3">
-          <PairTable method={analysis.methods[shown]} methodNumber={shown + 1} targetContext={analysis.targetContext} flaggedOnly={flaggedOnly} onFlaggedOnly={onFlaggedOnly} />
+          <PairTable
+            method={analysis.methods[shown]}
+            methodNumber={shown + 1}
+            targetContext={analysis.targetContext}
+            flaggedOnly={flaggedOnly}
+            onFlaggedOnly={onFlaggedOnly}
+          />
           <HowComputed topics={["wavelength", "rotations", "bands", "flags", "ratio"]} />
         </div>
       </Panel>

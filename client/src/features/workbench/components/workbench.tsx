@@ -1,14 +1,14 @@
 import { useEffect, useMemo, useState, type ReactNode } from "react";
 import { useLocation, useNavigate } from "react-router-dom";
 import { useQuery } from "@tanstack/react-query";
-import type { ModelProfile } from "../../../../../shared/schemas/models";
-import { Loading, Notice } from "../../../components/notice";
-import { isApiError } from "../../../lib/api-client";
-import { analysesQueries } from "../../../lib/api/analyses";
+import type { ModelProfile } from "@shared/schemas/models";
+import { Loading, Notice } from "@/components/notice";
+import { isApiError } from "@/lib/api-client";
+import { analysesQueries } from "@/lib/api/analyses";
 import { sig } from "../figures";
-import { useDebounced } from "../../../lib/use-debounced";
+import { useDebounced } from "@/lib/use-debounced";
 import { withDefaults } from "../state/defaults";
-import { rotaryShapeOf } from "../../../../../shared/profile-shapes";
+import { rotaryShapeOf } from "@shared/profile-shapes";
 import type { WorkbenchInputs as Inputs } from "../state/inputs";
 import { toRequest } from "../state/to-request";
 import { inputsToParams, parseInputs } from "../state/url-codec";
@@ -25,7 +25,9 @@ type WorkbenchProps = {
 export function Workbench({ profiles, profileNotes }: WorkbenchProps) {
   const location = useLocation();
   const navigate = useNavigate();
-  const [inputs, setInputs] = useState<Inputs>(() => withDefaults(parseInputs(new URLSearchParams(location.search)), profiles));
+  const [inputs, setInputs] = useState<Inputs>(() =>
+    withDefaults(parseInputs(new URLSearchParams(location.search)), profiles),
+  );
 
   const search = inputsToParams(inputs).toString();
   useEffect(() => {
@@ -39,7 +41,8 @@ export function Workbench({ profiles, profileNotes }: WorkbenchProps) {
   const settled = useDebounced(request, 300, { holdWhileNull: true });
   const analysis = useQuery(analysesQueries.detail(settled));
 
-  const trainedContext = chosen?.trainedContext ?? (model.kind === "shape" ? Number(model.trainedContext) || null : null);
+  const trainedContext =
+    chosen?.trainedContext ?? (model.kind === "shape" ? Number(model.trainedContext) || null : null);
   const target = Number(inputs.target);
   const context = {
     scale: trainedContext && target > 0 ? target / trainedContext : null,
@@ -62,15 +65,27 @@ export function Workbench({ profiles, profileNotes }: WorkbenchProps) {
         errors={shownErrors}
         profileNotes={chosen && profileNotes ? profileNotes(chosen) : undefined}
       />
-      {missingProfile && <Notice tone="alert" title="That profile is gone">The link names a profile that no longer exists. Pick another.</Notice>}
-      <div className="flex min-h-6 flex-wrap items-center gap-3 text-note text-ink-soft" aria-live="polite" data-testid="analysis-status">
+      {missingProfile && (
+        <Notice tone="alert" title="That profile is gone">
+          The link names a profile that no longer exists. Pick another.
+        </Notice>
+      )}
+      <div
+        className="flex min-h-6 flex-wrap items-center gap-3 text-note text-ink-soft"
+        aria-live="polite"
+        data-testid="analysis-status"
+      >
         {analysis.data && (
           <span>
-            d = {analysis.data.model.rotaryDim} ({analysis.data.model.pairs} pairs), b = {sig(analysis.data.model.ropeTheta, 6)}, L = {analysis.data.model.trainedContext} → L′ = {analysis.data.targetContext}, s = {sig(analysis.data.scale, 4)}
+            d = {analysis.data.model.rotaryDim} ({analysis.data.model.pairs} pairs), b ={" "}
+            {sig(analysis.data.model.ropeTheta, 6)}, L = {analysis.data.model.trainedContext} → L′ ={" "}
+            {analysis.data.targetContext}, s = {sig(analysis.data.scale, 4)}
           </span>
         )}
         {analysis.isFetching && <span className="animate-pulse">Updating…</span>}
-        {request === null && analysis.data && <span className="text-signal">Some inputs need fixing; the figures below are for the last valid ones.</span>}
+        {request === null && analysis.data && (
+          <span className="text-signal">Some inputs need fixing; the figures below are for the last valid ones.</span>
+        )}
       </div>
       {analysis.isError && (
         <Notice tone="alert" title="The analysis was refused">

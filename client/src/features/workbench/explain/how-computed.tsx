@@ -1,4 +1,4 @@
-import type { MethodId } from "../../../../../shared/schemas/analysis";
+import type { MethodId } from "@shared/schemas/analysis";
 import { CAUTION, METHOD_TOPICS, TOPICS, type Topic, type TopicId } from "./topics";
 
 function TopicBlock({ topic }: { topic: Topic }) {
@@ -17,14 +17,18 @@ export function HowComputed({ topics = [], methods = [] }: { topics?: TopicId[];
   return (
     <details className="group rounded-md border border-rule bg-paper/60 text-body">
       <summary className="cursor-pointer list-none px-3 py-1.5 text-note font-medium text-seaglass select-none hover:text-seaglass-dark">
-        <span aria-hidden className="mr-1 inline-block transition-transform group-open:rotate-90">▸</span>
+        <span aria-hidden className="mr-1 inline-block transition-transform group-open:rotate-90">
+          ▸
+        </span>
         How is this computed?
       </summary>
       <div className="flex flex-col gap-3 border-t border-rule px-3 py-3">
         {blocks.map((b) => (
           <TopicBlock key={b.title} topic={b} />
         ))}
-        <p className="rounded border border-signal/30 bg-signal-pale/60 px-2 py-1 text-note text-signal-dark">{CAUTION}</p>
+        <p className="rounded border border-signal/30 bg-signal-pale/60 px-2 py-1 text-note text-signal-dark">
+          {CAUTION}
+        </p>
       </div>
     </details>
   );

@@ -1,6 +1,6 @@
 import { useCallback, useState } from "react";
 import { useQuery, useQueryClient } from "@tanstack/react-query";
-import type { BoundProgress } from "../../../../../shared/schemas/bounds";
+import type { BoundProgress } from "@shared/schemas/bounds";
 import { workbenchKeys } from "../api/keys";
 import { smallestBaseQuery } from "../api/smallest-base";
 

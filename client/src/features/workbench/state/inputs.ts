@@ -1,4 +1,4 @@
-import type { MethodId } from "../../../../../shared/schemas/analysis";
+import type { MethodId } from "@shared/schemas/analysis";
 
 /**
  * What the workbench's inputs hold: the text exactly as typed (so a half-typed number survives a reload),
@@ -26,7 +26,13 @@ export const DEFAULT_METHODS: MethodRow[] = [
   { method: "yarn", params: {} },
 ];
 
-export const EMPTY_SHAPE: ModelChoice = { kind: "shape", headDim: "", ropeTheta: "", trainedContext: "", partialRotaryFactor: "" };
+export const EMPTY_SHAPE: ModelChoice = {
+  kind: "shape",
+  headDim: "",
+  ropeTheta: "",
+  trainedContext: "",
+  partialRotaryFactor: "",
+};
 
 export const defaultInputs = (): WorkbenchInputs => ({
   model: { kind: "saved", id: null },

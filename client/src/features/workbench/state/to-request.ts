@@ -1,7 +1,10 @@
 import {
-  analysisRequestSchema, modelDependentIssues,
-  type AnalysisRequest, type MethodParams, type ModelShape,
-} from "../../../../../shared/schemas/analysis";
+  analysisRequestSchema,
+  modelDependentIssues,
+  type AnalysisRequest,
+  type MethodParams,
+  type ModelShape,
+} from "@shared/schemas/analysis";
 import type { MethodRow, WorkbenchInputs } from "./inputs";
 import { methodEntry } from "./method-fields";
 
@@ -9,13 +12,26 @@ import { methodEntry } from "./method-fields";
 export type FieldErrors = Record<string, string>;
 
 const toNumber = (raw: string) => (raw.trim() === "" ? undefined : Number(raw.replace(/[\s_]/g, "")));
-const toList = (raw: string) => (raw.trim() === "" ? undefined : raw.split(/[\s,;]+/).filter(Boolean).map(Number));
+const toList = (raw: string) =>
+  raw.trim() === ""
+    ? undefined
+    : raw
+        .split(/[\s,;]+/)
+        .filter(Boolean)
+        .map(Number);
 
 function methodBody(row: MethodRow): Record<string, unknown> {
   const body: Record<string, unknown> = { method: row.method };
   for (const field of methodEntry(row.method).fields) {
     const raw = row.params[field.key] ?? "";
-    const value = field.kind === "list" ? toList(raw) : field.kind === "boolean" ? (raw === "" ? undefined : raw === "true") : toNumber(raw);
+    const value =
+      field.kind === "list"
+        ? toList(raw)
+        : field.kind === "boolean"
+          ? raw === ""
+            ? undefined
+            : raw === "true"
+          : toNumber(raw);
     if (value !== undefined) body[field.key] = value;
   }
   return body;
@@ -38,7 +54,10 @@ const plain = (message: string) =>
  * The POST /api/analyses body for the inputs, checked with the shared contract. For a saved profile the rules that
  * need the model (target above the trained length, list lengths) run here too, on the profile's shape.
  */
-export function toRequest(inputs: WorkbenchInputs, savedShape: ModelShape | null): { request: AnalysisRequest | null; errors: FieldErrors } {
+export function toRequest(
+  inputs: WorkbenchInputs,
+  savedShape: ModelShape | null,
+): { request: AnalysisRequest | null; errors: FieldErrors } {
   const m = inputs.model;
   const model =
     m.kind === "saved"
@@ -49,7 +68,8 @@ export function toRequest(inputs: WorkbenchInputs, savedShape: ModelShape | null
           trainedContext: toNumber(m.trainedContext),
           ...(m.partialRotaryFactor.trim() ? { partialRotaryFactor: toNumber(m.partialRotaryFactor) } : {}),
         };
-  const alpha = toNumber(inputs.alpha), beta = toNumber(inputs.beta);
+  const alpha = toNumber(inputs.alpha),
+    beta = toNumber(inputs.beta);
   const body = {
     model,
     targetContext: toNumber(inputs.target),
@@ -67,7 +87,11 @@ export function toRequest(inputs: WorkbenchInputs, savedShape: ModelShape | null
     return { request: null, errors };
   }
   if (savedShape) {
-    for (const issue of modelDependentIssues(savedShape, parsed.data.targetContext, parsed.data.methods as MethodParams[])) {
+    for (const issue of modelDependentIssues(
+      savedShape,
+      parsed.data.targetContext,
+      parsed.data.methods as MethodParams[],
+    )) {
       errors[issue.path.join(".")] ??= issue.message;
     }
     if (Object.keys(errors).length) return { request: null, errors };

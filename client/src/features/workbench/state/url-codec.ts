@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { METHOD_IDS, MAX_METHODS } from "../../../../../shared/schemas/analysis";
+import { METHOD_IDS, MAX_METHODS } from "@shared/schemas/analysis";
 import { defaultInputs, DEFAULT_METHODS, type MethodRow, type ModelChoice, type WorkbenchInputs } from "./inputs";
 
 /**
@@ -10,9 +10,7 @@ import { defaultInputs, DEFAULT_METHODS, type MethodRow, type ModelChoice, type 
  *   methods=[["linear",{}],["yarn",{"betaFast":"32"}]]   one JSON param: [method, params as typed]
  *   view=1 flagged=1
  */
-const methodsParam = z
-  .array(z.tuple([z.enum(METHOD_IDS), z.record(z.string(), z.string())]))
-  .max(MAX_METHODS);
+const methodsParam = z.array(z.tuple([z.enum(METHOD_IDS), z.record(z.string(), z.string())])).max(MAX_METHODS);
 
 function parseMethods(raw: string | null): MethodRow[] {
   if (raw === null) return DEFAULT_METHODS;
@@ -49,7 +47,8 @@ export function parseInputs(params: URLSearchParams): WorkbenchInputs {
 }
 
 /** Drops empty strings so URLs stay short; the row order is kept. */
-const compactParams = (p: Record<string, string>) => Object.fromEntries(Object.entries(p).filter(([, v]) => v.trim() !== ""));
+const compactParams = (p: Record<string, string>) =>
+  Object.fromEntries(Object.entries(p).filter(([, v]) => v.trim() !== ""));
 
 export function inputsToParams(inputs: WorkbenchInputs): URLSearchParams {
   const out = new URLSearchParams();
@@ -57,7 +56,10 @@ export function inputsToParams(inputs: WorkbenchInputs): URLSearchParams {
   if (m.kind === "saved") {
     if (m.id !== null) out.set("model", String(m.id));
   } else {
-    out.set("shape", [m.headDim, m.ropeTheta, m.trainedContext, m.partialRotaryFactor].map((v) => v.replace(/,/g, "")).join(","));
+    out.set(
+      "shape",
+      [m.headDim, m.ropeTheta, m.trainedContext, m.partialRotaryFactor].map((v) => v.replace(/,/g, "")).join(","),
+    );
   }
   if (inputs.target) out.set("target", inputs.target);
   if (inputs.alpha) out.set("alpha", inputs.alpha);

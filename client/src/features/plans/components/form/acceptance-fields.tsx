@@ -1,8 +1,8 @@
 import { useFieldArray, useFormContext } from "react-hook-form";
-import { COMPARISONS } from "../../../../../../shared/schemas/plans";
-import { Button } from "../../../../components/button";
-import { SelectField } from "../../../../components/field";
-import type { RevisionForm } from "../../lib/form-values";
+import { COMPARISONS } from "@shared/schemas/plans";
+import { Button } from "@/components/button";
+import { SelectField } from "@/components/field";
+import type { RevisionForm } from "@/features/plans/lib/form-values";
 import { NumberField, TextFormField, useFieldError } from "./form-field";
 
 function ComparisonField({ index }: { index: number }) {
@@ -12,7 +12,9 @@ function ComparisonField({ index }: { index: number }) {
   return (
     <SelectField label="Comparison" error={error} {...register(name)}>
       {COMPARISONS.map((c) => (
-        <option key={c} value={c}>{c}</option>
+        <option key={c} value={c}>
+          {c}
+        </option>
       ))}
     </SelectField>
   );
@@ -25,22 +27,39 @@ export function AcceptanceFields() {
   return (
     <div className="flex flex-col gap-3">
       {fields.map((field, i) => (
-        <fieldset key={field.id} className="grid gap-3 rounded-md border border-rule bg-white/40 p-4 sm:grid-cols-2 lg:grid-cols-[2fr_1fr_1fr_6rem_1fr_auto] lg:items-end">
+        <fieldset
+          key={field.id}
+          className="grid gap-3 rounded-md border border-rule bg-white/40 p-4 sm:grid-cols-2 lg:grid-cols-[2fr_1fr_1fr_6rem_1fr_auto] lg:items-end"
+        >
           <legend className="px-1 text-body font-semibold">Criterion {i + 1}</legend>
-          <TextFormField name={`revision.acceptance.${i}.evaluation`} label="Evaluation" hint="e.g. passkey retrieval" />
+          <TextFormField
+            name={`revision.acceptance.${i}.evaluation`}
+            label="Evaluation"
+            hint="e.g. passkey retrieval"
+          />
           <NumberField name={`revision.acceptance.${i}.contextLength`} label="At context (tokens)" step="1" />
           <TextFormField name={`revision.acceptance.${i}.metric`} label="Metric" />
           <ComparisonField index={i} />
           <NumberField name={`revision.acceptance.${i}.threshold`} label="Threshold" />
           <div className="pb-0.5">
-            <Button variant="danger" size="sm" onClick={() => remove(i)}>Remove</Button>
+            <Button variant="danger" size="sm" onClick={() => remove(i)}>
+              Remove
+            </Button>
           </div>
         </fieldset>
       ))}
       <div>
         <Button
           variant="secondary"
-          onClick={() => append({ evaluation: "", contextLength: getValues("revision.targetContext") || 0, metric: "accuracy", comparison: ">=", threshold: 0.9 })}
+          onClick={() =>
+            append({
+              evaluation: "",
+              contextLength: getValues("revision.targetContext") || 0,
+              metric: "accuracy",
+              comparison: ">=",
+              threshold: 0.9,
+            })
+          }
         >
           Add acceptance criterion
         </Button>

@@ -1,8 +1,8 @@
 import { useState } from "react";
 import { useFormContext } from "react-hook-form";
-import { DEFAULT_BANDS } from "../../../../../../shared/schemas/analysis";
-import { TextField } from "../../../../components/field";
-import type { RevisionForm } from "../../lib/form-values";
+import { DEFAULT_BANDS } from "@shared/schemas/analysis";
+import { TextField } from "@/components/field";
+import type { RevisionForm } from "@/features/plans/lib/form-values";
 import { useFieldError } from "./form-field";
 
 /**
@@ -19,7 +19,10 @@ export function BandsField() {
   const bandsError = useFieldError("revision.bands");
   const betaError = betaOwnError ?? bandsError;
   const commit = (a: string, b: string) => {
-    const value = a.trim() === "" && b.trim() === "" ? undefined : { alpha: Number(a || DEFAULT_BANDS.alpha), beta: Number(b || DEFAULT_BANDS.beta) };
+    const value =
+      a.trim() === "" && b.trim() === ""
+        ? undefined
+        : { alpha: Number(a || DEFAULT_BANDS.alpha), beta: Number(b || DEFAULT_BANDS.beta) };
     setValue("revision.bands", value, { shouldDirty: true });
   };
   return (
@@ -30,7 +33,10 @@ export function BandsField() {
         inputMode="decimal"
         value={alpha}
         error={alphaError}
-        onChange={(e) => { setAlpha(e.target.value); commit(e.target.value, beta); }}
+        onChange={(e) => {
+          setAlpha(e.target.value);
+          commit(e.target.value, beta);
+        }}
       />
       <TextField
         label="Fast edge β (rotations, optional)"
@@ -38,7 +44,10 @@ export function BandsField() {
         inputMode="decimal"
         value={beta}
         error={betaError}
-        onChange={(e) => { setBeta(e.target.value); commit(alpha, e.target.value); }}
+        onChange={(e) => {
+          setBeta(e.target.value);
+          commit(alpha, e.target.value);
+        }}
       />
     </div>
   );

@@ -1,6 +1,6 @@
 import { get, useFormContext, type FieldValues } from "react-hook-form";
-import { TextField } from "../../../../components/field";
-import { toNumber } from "../../lib/form-values";
+import { TextField } from "@/components/field";
+import { toNumber } from "@/features/plans/lib/form-values";
 
 type NumberFieldProps = { name: string; label: string; hint?: string; step?: string; placeholder?: string };
 
@@ -14,7 +14,18 @@ export function useFieldError(name: string): string | undefined {
 export function NumberField({ name, label, hint, step = "any", placeholder }: NumberFieldProps) {
   const { register } = useFormContext<FieldValues>();
   const error = useFieldError(name);
-  return <TextField label={label} hint={hint} error={error} type="number" inputMode="decimal" step={step} placeholder={placeholder} {...register(name, { setValueAs: toNumber })} />;
+  return (
+    <TextField
+      label={label}
+      hint={hint}
+      error={error}
+      type="number"
+      inputMode="decimal"
+      step={step}
+      placeholder={placeholder}
+      {...register(name, { setValueAs: toNumber })}
+    />
+  );
 }
 
 /** A text input registered at `name`. */

@@ -1,8 +1,8 @@
 import { get, useFormContext, useWatch, type FieldValues } from "react-hook-form";
-import { Field, SelectField, TextInput } from "../../../../components/field";
-import { defaultText } from "../../../../../../shared/methods";
-import { METHOD_TABLE, methodEntry, type ParamField } from "../../lib/method-table";
-import { toNumberList, toOptionalBoolean } from "../../lib/form-values";
+import { Field, SelectField, TextInput } from "@/components/field";
+import { defaultText } from "@shared/methods";
+import { METHOD_TABLE, methodEntry, type ParamField } from "@/features/plans/lib/method-table";
+import { toNumberList, toOptionalBoolean } from "@/features/plans/lib/form-values";
 import { NumberField, useFieldError } from "./form-field";
 
 function ParamInput({ name, param }: { name: string; param: ParamField }) {
@@ -27,7 +27,14 @@ function ParamInput({ name, param }: { name: string; param: ParamField }) {
   }
   return (
     <Field label={label} hint={hint} error={error}>
-      {({ id, describedBy, invalid }) => <TextInput id={id} aria-describedby={describedBy} aria-invalid={invalid} {...register(path, { setValueAs: toNumberList })} />}
+      {({ id, describedBy, invalid }) => (
+        <TextInput
+          id={id}
+          aria-describedby={describedBy}
+          aria-invalid={invalid}
+          {...register(path, { setValueAs: toNumberList })}
+        />
+      )}
     </Field>
   );
 }
@@ -37,11 +44,21 @@ function ParamInput({ name, param }: { name: string; param: ParamField }) {
  * replaces the whole object, so parameters of the previous method never reach the strict schema.
  * `collapsed` folds the parameters away (stages repeat the plan's method more often than not).
  */
-export function MethodFields({ name, label = "Method", collapsed = false }: { name: string; label?: string; collapsed?: boolean }) {
+export function MethodFields({
+  name,
+  label = "Method",
+  collapsed = false,
+}: {
+  name: string;
+  label?: string;
+  collapsed?: boolean;
+}) {
   const { setValue, control, getValues, formState } = useFormContext<FieldValues>();
   const method = useWatch({ control, name: `${name}.method` }) as string;
   // Folded parameters open by themselves when the method already sets one, or when one of them is marked wrong.
-  const hasParams = Object.entries((getValues(name) as object | undefined) ?? {}).some(([k, v]) => k !== "method" && v !== undefined);
+  const hasParams = Object.entries((getValues(name) as object | undefined) ?? {}).some(
+    ([k, v]) => k !== "method" && v !== undefined,
+  );
   const marked = get(formState.errors, name) !== undefined;
   const rootError = useFieldError(name);
   const entry = methodEntry(method);
@@ -67,12 +84,18 @@ export function MethodFields({ name, label = "Method", collapsed = false }: { na
           </option>
         ))}
       </SelectField>
-      {entry && entry.fields.length > 0 && (collapsed ? (
-        <details className="rounded-md border border-rule px-3 py-2" open={hasParams || marked || undefined}>
-          <summary className="cursor-pointer text-note font-medium">{entry.short} parameters{hasParams ? "" : " (engine defaults)"}</summary>
-          <div className="pt-3">{params}</div>
-        </details>
-      ) : params)}
+      {entry &&
+        entry.fields.length > 0 &&
+        (collapsed ? (
+          <details className="rounded-md border border-rule px-3 py-2" open={hasParams || marked || undefined}>
+            <summary className="cursor-pointer text-note font-medium">
+              {entry.short} parameters{hasParams ? "" : " (engine defaults)"}
+            </summary>
+            <div className="pt-3">{params}</div>
+          </details>
+        ) : (
+          params
+        ))}
     </div>
   );
 }

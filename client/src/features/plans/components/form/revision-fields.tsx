@@ -1,7 +1,7 @@
 import type { ReactNode } from "react";
 import { useFormContext } from "react-hook-form";
-import { Field } from "../../../../components/field";
-import type { RevisionForm } from "../../lib/form-values";
+import { Field } from "@/components/field";
+import type { RevisionForm } from "@/features/plans/lib/form-values";
 import { AcceptanceFields } from "./acceptance-fields";
 import { BandsField } from "./bands-field";
 import { NumberField, useFieldError } from "./form-field";
@@ -28,9 +28,17 @@ export function RevisionFields({ model, afterStages }: { model: AnalysisModel | 
   const notesError = useFieldError("revision.notes");
   return (
     <div className="flex flex-col gap-6">
-      <Section title="Target and method" lead="Where the plan ends up, and how the rotary frequencies are rescaled to get there.">
+      <Section
+        title="Target and method"
+        lead="Where the plan ends up, and how the rotary frequencies are rescaled to get there."
+      >
         <div className="grid gap-3 sm:grid-cols-2">
-          <NumberField name="revision.targetContext" label="Target context (tokens)" step="1" hint="The context length the tuned model should handle" />
+          <NumberField
+            name="revision.targetContext"
+            label="Target context (tokens)"
+            step="1"
+            hint="The context length the tuned model should handle"
+          />
         </div>
         <MethodFields name="revision.method" />
         <details className="rounded-md border border-rule px-3 py-2">
@@ -45,7 +53,10 @@ export function RevisionFields({ model, afterStages }: { model: AnalysisModel | 
         <StagesFields />
       </Section>
       {afterStages}
-      <Section title="Acceptance criteria" lead="Figures here are estimates; only long-context evaluations of the tuned model confirm a plan.">
+      <Section
+        title="Acceptance criteria"
+        lead="Figures here are estimates; only long-context evaluations of the tuned model confirm a plan."
+      >
         <AcceptanceFields />
       </Section>
       <Section title="Notes">
