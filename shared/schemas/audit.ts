@@ -40,3 +40,12 @@ export const auditChainReportSchema = z.object({
     .optional(),
 });
 export type AuditChainReport = z.infer<typeof auditChainReportSchema>;
+
+/** GET /api/audit (server/features/audit/audit.router.ts). */
+export const auditPageSchema = z.object({
+  total: z.number(),
+  page: z.number(),
+  pageSize: z.number(),
+  events: z.array(auditEventSchema),
+});
+export type AuditPage = z.infer<typeof auditPageSchema>;

@@ -36,3 +36,6 @@ export const apiTokenSchema = z.object({
 });
 export type ApiToken = z.infer<typeof apiTokenSchema>;
 export const createdTokenSchema = apiTokenSchema.extend({ token: z.string() });
+
+/** GET /api/tokens (server/features/tokens/tokens.router.ts). */
+export const tokenListResponseSchema = z.object({ tokens: z.array(apiTokenSchema) });

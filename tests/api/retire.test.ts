@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { ROLES } from "../../shared/schemas";
 import { acceleratorListResponseSchema } from "../../shared/schemas/budget";
-import { modelsListResponseSchema } from "../../shared/schemas/model-responses";
+import { modelsListResponseSchema } from "../../shared/schemas/models";
 import { makeTestApp, type Agent } from "../setup/app";
 import { testDb } from "../setup/db";
 import { createPlan, createProfile, post, put } from "../setup/plans";

@@ -1,6 +1,6 @@
 import { route, type ApiFeature } from "../../http/route";
 import { auditChainReportSchema, auditQuerySchema } from "../../../shared/schemas";
-import { auditPageSchema } from "../../../shared/schemas/admin-views";
+import { auditPageSchema } from "../../../shared/schemas/audit";
 import { listAuditEvents, verifyTrail } from "./audit.service";
 
 /** Browse the append-only trail (admins and approvers); mounted at /api/audit. */

@@ -3,7 +3,7 @@ import type { z } from "zod";
 import type { AppDeps } from "../../deps";
 import { auditEvents, users } from "../../db/schema";
 import type { auditQuerySchema } from "../../../shared/schemas";
-import type { AuditPage } from "../../../shared/schemas/admin-views";
+import type { AuditPage } from "../../../shared/schemas/audit";
 import { verifyAuditChain } from "../../platform/audit-chain";
 
 /** One page of the append-only trail, newest first, filtered; actors by name. */

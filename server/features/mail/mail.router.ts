@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { route, type ApiFeature } from "../../http/route";
-import { deliveryResultSchema, mailViewSchema } from "../../../shared/schemas/admin-views";
+import { deliveryResultSchema, mailViewSchema } from "../../../shared/schemas/mail";
 import { deliverNow, listMail } from "./mail.service";
 
 const listQuery = z.object({ q: z.string().trim().max(200).optional() });

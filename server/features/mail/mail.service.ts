@@ -1,6 +1,6 @@
 import type { AppDeps } from "../../deps";
 import { DEFAULT_BATCH, deliverDueMail, type DeliveryResult } from "../../mail/outbox";
-import type { MailView } from "../../../shared/schemas/admin-views";
+import type { MailView } from "../../../shared/schemas/mail";
 import * as repo from "./mail.repo";
 
 /** The Mail page shows at most this many of each list, newest first. */

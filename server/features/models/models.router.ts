@@ -6,7 +6,7 @@ import {
   modelResponseSchema,
   modelRetiredResponseSchema,
   modelsListResponseSchema,
-} from "../../../shared/schemas/model-responses";
+} from "../../../shared/schemas/models";
 import { importFormSchema, readImportForm } from "./import-form";
 import * as service from "./models.service";
 

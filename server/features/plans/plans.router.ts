@@ -8,7 +8,7 @@ import {
   planSettingsSchema,
   updateRevisionRequestSchema,
 } from "../../../shared/schemas";
-import * as out from "../../../shared/schemas/plan-responses";
+import * as out from "../../../shared/schemas/plans";
 import * as plans from "./plans.service";
 import * as reads from "./reads.service";
 import * as workflow from "./workflow.service";

@@ -1,5 +1,5 @@
 import type { AppDeps } from "../../deps";
-import type { DiffResponse, ReviewQueueItem } from "../../../shared/schemas/plan-responses";
+import type { DiffResponse, ReviewQueueItem } from "../../../shared/schemas/plans";
 import { diffContents } from "./diff";
 import { planOwners, reviewQueue } from "./plans.list";
 import { minRequiredApprovals } from "./plans.repo";

@@ -10,12 +10,12 @@ import {
   type Bands,
 } from "../../../shared/schemas";
 import type { ModelRow } from "../models";
-import type { ModelSnapshot, RevisionContent } from "../../../shared/schemas/plan-responses";
+import type { ModelSnapshot, RevisionContent } from "../../../shared/schemas/plans";
 import { rotaryShapeOf } from "../../../shared/profile-shapes";
 
 /**
  * The profile values a revision freezes (later edits of the profile do not change a revision) and the content itself:
- * both contracts live in shared/schemas/plan-responses.ts.
+ * both contracts live in shared/schemas/plans/responses.ts.
  */
 export type { ModelSnapshot, RevisionContent };
 

@@ -1,5 +1,5 @@
 import { route, type ApiFeature } from "../../http/route";
-import { signingKeyResponseSchema } from "../../../shared/schemas/plan-responses";
+import { signingKeyResponseSchema } from "../../../shared/schemas/plans";
 import { signingKey } from "./signing";
 
 /**

@@ -1,7 +1,7 @@
 import { route, type ApiFeature } from "../../http/route";
 import { noStore } from "../../http/no-store";
 import { createdTokenSchema, createTokenRequestSchema, idParamSchema } from "../../../shared/schemas";
-import { tokenListResponseSchema } from "../../../shared/schemas/admin-views";
+import { tokenListResponseSchema } from "../../../shared/schemas/tokens";
 import { createToken, listTokens, revokeToken } from "./tokens.service";
 
 /** Mounted at /api/tokens: the signed-in user's own API tokens. */

@@ -1,5 +1,5 @@
 import { useQuery } from "@tanstack/react-query";
-import type { RevisionContent } from "@shared/schemas/plan-responses";
+import type { RevisionContent } from "@shared/schemas/plans";
 import { Loading, Notice } from "@/components/notice";
 import { analysesQueries } from "@/lib/api/analyses";
 import { analysisRequestOf } from "@/features/plans/lib/model-shape";

@@ -1,7 +1,7 @@
 import { useState } from "react";
 import { Link, useParams, useSearchParams } from "react-router-dom";
 import { useQuery } from "@tanstack/react-query";
-import type { RevisionContent } from "@shared/schemas/plan-responses";
+import type { RevisionContent } from "@shared/schemas/plans";
 import { ErrorView } from "@/components/error-view";
 import { Page, Panel } from "@/components/page";
 import { Loading, Notice } from "@/components/notice";

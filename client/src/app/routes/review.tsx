@@ -1,6 +1,6 @@
 import { useState } from "react";
 import { useQuery } from "@tanstack/react-query";
-import type { ReviewQueueItem } from "@shared/schemas/plan-responses";
+import type { ReviewQueueItem } from "@shared/schemas/plans";
 import { Page, Panel } from "@/components/page";
 import { Loading, Notice } from "@/components/notice";
 import { useRefreshPlan } from "@/features/plans/api/workflow";

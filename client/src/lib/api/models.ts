@@ -1,5 +1,5 @@
 import { queryOptions, type QueryClient } from "@tanstack/react-query";
-import { modelResponseSchema, modelsListResponseSchema } from "@shared/schemas/model-responses";
+import { modelResponseSchema, modelsListResponseSchema } from "@shared/schemas/models";
 import type { ModelProfile } from "@shared/schemas/models";
 import { apiClient } from "../api-client";
 import { apiPaths } from "@/config/paths";

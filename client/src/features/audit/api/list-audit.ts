@@ -1,7 +1,7 @@
 import { keepPreviousData, queryOptions } from "@tanstack/react-query";
 import type { z } from "zod";
 import type { auditQuerySchema } from "@shared/schemas/audit";
-import { auditPageSchema } from "@shared/schemas/admin-views";
+import { auditPageSchema } from "@shared/schemas/audit";
 import { apiClient } from "@/lib/api-client";
 import { apiPaths } from "@/config/paths";
 import { auditKeys } from "./keys";

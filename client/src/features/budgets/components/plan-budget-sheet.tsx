@@ -1,7 +1,7 @@
 import { useState } from "react";
 import { get, useFormContext, useWatch, type FieldErrors } from "react-hook-form";
 import type { Accelerator } from "@shared/schemas/budget";
-import type { ModelSnapshot } from "@shared/schemas/plan-responses";
+import type { ModelSnapshot } from "@shared/schemas/plans";
 import type { RevisionInput } from "@shared/schemas/plans";
 import {
   draftFromPlanBudget,

@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import { deliveryResultSchema } from "@shared/schemas/admin-views";
+import { deliveryResultSchema } from "@shared/schemas/mail";
 import { apiClient } from "@/lib/api-client";
 import { apiPaths } from "@/config/paths";
 import { mailKeys } from "./keys";

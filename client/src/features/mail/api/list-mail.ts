@@ -1,5 +1,5 @@
 import { keepPreviousData, queryOptions } from "@tanstack/react-query";
-import { mailViewSchema } from "@shared/schemas/admin-views";
+import { mailViewSchema } from "@shared/schemas/mail";
 import { apiClient } from "@/lib/api-client";
 import { apiPaths } from "@/config/paths";
 import { mailKeys } from "./keys";

@@ -1,5 +1,5 @@
 import { useState } from "react";
-import type { SinkMessage } from "@shared/schemas/admin-views";
+import type { SinkMessage } from "@shared/schemas/mail";
 import { formatDateTime } from "@/lib/format";
 
 /** Received messages on the left, the chosen one in full on the right. */

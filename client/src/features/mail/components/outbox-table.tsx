@@ -1,5 +1,5 @@
 import { createColumnHelper } from "@tanstack/react-table";
-import type { OutboxRow } from "@shared/schemas/admin-views";
+import type { OutboxRow } from "@shared/schemas/mail";
 import { DataTable } from "@/components/data-table";
 import { Chip } from "@/components/notice";
 import { formatDateTime } from "@/lib/format";

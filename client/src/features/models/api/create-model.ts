@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import type { ModelProfileValues } from "@shared/schemas/models";
-import { modelResponseSchema } from "@shared/schemas/model-responses";
+import { modelResponseSchema } from "@shared/schemas/models";
 import { apiClient } from "@/lib/api-client";
 import { apiPaths } from "@/config/paths";
 import { afterModelSaved } from "@/lib/api/models";

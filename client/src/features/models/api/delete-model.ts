@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import { modelResponseSchema, modelRetiredResponseSchema } from "@shared/schemas/model-responses";
+import { modelResponseSchema, modelRetiredResponseSchema } from "@shared/schemas/models";
 import { apiClient } from "@/lib/api-client";
 import { apiPaths } from "@/config/paths";
 import { afterModelDeleted, afterModelSaved } from "@/lib/api/models";

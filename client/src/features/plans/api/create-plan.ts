@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import type { CreatePlanRequest } from "@shared/schemas/plans";
-import { planDetailSchema } from "@shared/schemas/plan-responses";
+import { planDetailSchema } from "@shared/schemas/plans";
 import { apiClient } from "@/lib/api-client";
 import { apiPaths } from "@/config/paths";
 import { plansKeys } from "./keys";

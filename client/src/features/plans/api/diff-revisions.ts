@@ -1,5 +1,5 @@
 import { queryOptions } from "@tanstack/react-query";
-import { diffResponseSchema } from "@shared/schemas/plan-responses";
+import { diffResponseSchema } from "@shared/schemas/plans";
 import { apiClient } from "@/lib/api-client";
 import { apiPaths } from "@/config/paths";
 import { plansKeys } from "./keys";

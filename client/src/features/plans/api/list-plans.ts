@@ -1,7 +1,7 @@
 import { keepPreviousData, queryOptions } from "@tanstack/react-query";
 import type { z } from "zod";
 import type { planListQuerySchema } from "@shared/schemas/plans";
-import { planListResponseSchema } from "@shared/schemas/plan-responses";
+import { planListResponseSchema } from "@shared/schemas/plans";
 import { apiClient } from "@/lib/api-client";
 import { apiPaths } from "@/config/paths";
 import { plansKeys } from "./keys";

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import type { UpdateRevisionRequest } from "@shared/schemas/plans";
-import { draftSavedSchema } from "@shared/schemas/plan-responses";
+import { draftSavedSchema } from "@shared/schemas/plans";
 import { apiClient } from "@/lib/api-client";
 import { apiPaths } from "@/config/paths";
 import { plansKeys } from "./keys";

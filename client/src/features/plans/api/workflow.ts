@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import { newRevisionResponseSchema, transitionResponseSchema } from "@shared/schemas/plan-responses";
+import { newRevisionResponseSchema, transitionResponseSchema } from "@shared/schemas/plans";
 import { apiClient } from "@/lib/api-client";
 import { apiPaths } from "@/config/paths";
 import { plansKeys } from "./keys";

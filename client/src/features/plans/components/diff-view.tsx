@@ -1,4 +1,4 @@
-import type { DiffResponse, FieldChange } from "@shared/schemas/plan-responses";
+import type { DiffResponse, FieldChange } from "@shared/schemas/plans";
 import { formatMoney, formatHours, shortHash } from "@/lib/format";
 import { formatPairRanges } from "../lib/pair-ranges";
 import { FLAG_INFO } from "./flags-summary";

@@ -1,7 +1,7 @@
 import { useState, type ReactNode } from "react";
 import { FormProvider, useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
-import type { RevisionResponse } from "@shared/schemas/plan-responses";
+import type { RevisionResponse } from "@shared/schemas/plans";
 import type { RevisionValues, UpdateRevisionRequest } from "@shared/schemas/plans";
 import { Button, SubmitButton } from "@/components/button";
 import { Notice } from "@/components/notice";

@@ -2,7 +2,7 @@ import { useState, type ReactNode } from "react";
 import { FormProvider, useForm, useWatch } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { createPlanRequestSchema } from "@shared/schemas/plans";
-import type { PlanDetail } from "@shared/schemas/plan-responses";
+import type { PlanDetail } from "@shared/schemas/plans";
 import type { ModelProfile } from "@shared/schemas/models";
 import { SubmitButton } from "@/components/button";
 import { SelectField, TextField } from "@/components/field";

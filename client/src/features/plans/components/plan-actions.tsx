@@ -1,7 +1,7 @@
 import { useState } from "react";
 import { Link, useNavigate } from "react-router-dom";
 import type { SessionUser } from "@shared/schemas/auth";
-import type { PlanDetail, RevisionSummary } from "@shared/schemas/plan-responses";
+import type { PlanDetail, RevisionSummary } from "@shared/schemas/plans";
 import { Button } from "@/components/button";
 import { Notice } from "@/components/notice";
 import { apiPaths, paths } from "@/config/paths";

@@ -1,4 +1,4 @@
-import type { PlanDetail } from "@shared/schemas/plan-responses";
+import type { PlanDetail } from "@shared/schemas/plans";
 import { formatDateTime } from "@/lib/format";
 import { StateBadge } from "./state-badge";
 

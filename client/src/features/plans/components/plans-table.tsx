@@ -1,7 +1,7 @@
 import { Link } from "react-router-dom";
 import { createColumnHelper, getCoreRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
 import { TableView } from "@/components/table-view";
-import type { PlanListItem } from "@shared/schemas/plan-responses";
+import type { PlanListItem } from "@shared/schemas/plans";
 import { paths } from "@/config/paths";
 import { formatDate } from "@/lib/format";
 import { StateBadge } from "./state-badge";

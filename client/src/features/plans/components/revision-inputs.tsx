@@ -1,5 +1,5 @@
 import type { ReactNode } from "react";
-import type { RevisionContent } from "@shared/schemas/plan-responses";
+import type { RevisionContent } from "@shared/schemas/plans";
 import { DEFAULT_BANDS } from "@shared/schemas/analysis";
 import { formatCount, sig3 } from "@/lib/format";
 import { describeParams, methodLabel } from "../lib/method-table";

@@ -1,5 +1,5 @@
 import { Link } from "react-router-dom";
-import type { RevisionSummary } from "@shared/schemas/plan-responses";
+import type { RevisionSummary } from "@shared/schemas/plans";
 import { paths } from "@/config/paths";
 import { formatDateTime, shortHash } from "@/lib/format";
 import { StateBadge } from "./state-badge";

@@ -1,4 +1,4 @@
-import type { VerifyResponse } from "@shared/schemas/plan-responses";
+import type { VerifyResponse } from "@shared/schemas/plans";
 import { Notice } from "@/components/notice";
 
 /**

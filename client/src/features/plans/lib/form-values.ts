@@ -1,7 +1,7 @@
 import { z } from "zod";
 import type { MethodParams } from "@shared/schemas/analysis";
 import { revisionInputSchema, type RevisionInput, type StageInput } from "@shared/schemas/plans";
-import type { RevisionContent } from "@shared/schemas/plan-responses";
+import type { RevisionContent } from "@shared/schemas/plans";
 
 /** Both forms keep the revision under `revision`, so the revision fields are one set of components. */
 export type RevisionForm = { revision: RevisionInput };

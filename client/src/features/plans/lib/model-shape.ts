@@ -1,5 +1,5 @@
 import type { AnalysisRequest } from "@shared/schemas/analysis";
-import type { RevisionContent } from "@shared/schemas/plan-responses";
+import type { RevisionContent } from "@shared/schemas/plans";
 import { rotaryShapeOf } from "@shared/profile-shapes";
 
 /** The engine run on a revision's frozen model, target and method: the same request the workbench makes. */

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import type { z } from "zod";
 import type { decisionRequestSchema } from "@shared/schemas/plans";
-import { transitionResponseSchema } from "@shared/schemas/plan-responses";
+import { transitionResponseSchema } from "@shared/schemas/plans";
 import { apiClient } from "@/lib/api-client";
 import { apiPaths } from "@/config/paths";
 import { reviewKeys } from "./keys";

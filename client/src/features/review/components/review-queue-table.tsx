@@ -1,6 +1,6 @@
 import { Link } from "react-router-dom";
 import { createColumnHelper } from "@tanstack/react-table";
-import type { ReviewQueueItem } from "@shared/schemas/plan-responses";
+import type { ReviewQueueItem } from "@shared/schemas/plans";
 import { Button } from "@/components/button";
 import { DataTable } from "@/components/data-table";
 import { paths } from "@/config/paths";

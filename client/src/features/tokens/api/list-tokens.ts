@@ -1,5 +1,5 @@
 import { queryOptions } from "@tanstack/react-query";
-import { tokenListResponseSchema } from "@shared/schemas/admin-views";
+import { tokenListResponseSchema } from "@shared/schemas/tokens";
 import { apiClient } from "@/lib/api-client";
 import { apiPaths } from "@/config/paths";
 import { tokensKeys } from "./keys";

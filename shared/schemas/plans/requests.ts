@@ -1,7 +1,7 @@
 import { z } from "zod";
-import { bandsSchema, configPatchSchema, lengthSchema, methodParamsSchema } from "./analysis";
-import { budgetClusterSchema, budgetSettingsFields } from "./budget";
-import { dbIdParam, dbIdSchema, MAX_DB_ID } from "./common";
+import { bandsSchema, configPatchSchema, lengthSchema, methodParamsSchema } from "../analysis";
+import { budgetClusterSchema, budgetSettingsFields } from "../budget";
+import { dbIdParam, dbIdSchema, MAX_DB_ID } from "../common";
 
 export const REVISION_STATES = ["draft", "in_review", "approved", "changes_requested", "superseded"] as const;
 export const revisionStateSchema = z.enum(REVISION_STATES);

@@ -1,6 +1,6 @@
 import { z } from "zod";
-import { bandsSchema, configPatchSchema, methodParamsSchema } from "./analysis";
-import { revisionBudgetSchema } from "./budget";
+import { bandsSchema, configPatchSchema, methodParamsSchema } from "../analysis";
+import { revisionBudgetSchema } from "../budget";
 import {
   acceptanceCriterionSchema,
   decisionSchema,
@@ -8,11 +8,11 @@ import {
   stageResultSchema,
   stageSchema,
   userRefSchema,
-} from "./plans";
+} from "./requests";
 
 /*
  * Response bodies of /api/plans, as server/features/plans/{plans.router,plans.service,export.service,diff,workflow.service}.ts
- * write them. Requests are in plans.ts.
+ * write them. Requests are in requests.ts.
  */
 
 const ref = z.object({ id: z.number(), name: z.string() });

@@ -1,21 +1,6 @@
 import { z } from "zod";
-import { auditEventSchema } from "./audit";
-import { apiTokenSchema } from "./tokens";
 
-/*
- * Response bodies that had no schema: GET /api/tokens (server/features/tokens/tokens.router.ts),
- * GET /api/audit (server/features/audit/audit.router.ts) and the admin mail views (server/features/mail/mail.service.ts).
- */
-
-export const tokenListResponseSchema = z.object({ tokens: z.array(apiTokenSchema) });
-
-export const auditPageSchema = z.object({
-  total: z.number(),
-  page: z.number(),
-  pageSize: z.number(),
-  events: z.array(auditEventSchema),
-});
-export type AuditPage = z.infer<typeof auditPageSchema>;
+/* The admin mail views: the local sink's messages and the outbox (server/features/mail/mail.service.ts). */
 
 export const sinkMessageSchema = z.object({
   id: z.number(),
