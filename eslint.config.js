@@ -49,7 +49,12 @@ const POLICIES = [
   },
   {
     from: { element: { type: "server-engine" } },
-    allow: [to("server-engine", "shared"), { to: { module: { origin: "external", source: "zod" } } }],
+    allow: [
+      to("server-engine", "shared"),
+      { to: { module: { origin: "external", source: "zod" } } },
+      // SHA-256 for the rotary fingerprint (server/engine/fingerprint.ts): deterministic, no I/O.
+      { to: { module: { origin: "core", source: "node:crypto" } } },
+    ],
   },
   // Contracts are shared by both sides, so they may depend on neither.
   {

@@ -20,6 +20,7 @@ const CASES: [from: string, source: string, refused: boolean][] = [
   ["server/engine/x.ts", "../features/users/users.service", true],
   ["server/engine/x.ts", "../../scripts/start", true],
   ["server/engine/x.ts", "node:fs", true],
+  ["server/engine/x.ts", "node:crypto", false],
   ["server/engine/x.ts", "express", true],
   ["server/engine/x.ts", "zod", false],
   ["server/engine/x.ts", "../../shared/schemas/common", false],
