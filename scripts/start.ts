@@ -10,7 +10,7 @@ import { createDb } from "../server/db/client";
 import { migrateDatabase, migrationUrl } from "../server/db/migrate";
 import { DEMO_LAB, DEMO_PASSWORD, DEMO_USERS, seedDemo } from "../server/db/seed";
 import { startServer } from "../server/index";
-import { startMailSink } from "../server/mail/sink";
+import { startMailSink } from "../server/mailer/sink";
 
 const root = path.resolve(import.meta.dirname, "..");
 

@@ -11,7 +11,8 @@ import { plansFeature, plansUsingModel } from "./features/plans";
 import { tokensFeature } from "./features/tokens";
 import { auditFeature } from "./features/audit/audit.router";
 import { mailFeature } from "./features/mail/mail.router";
-import { acceleratorsFeature, budgetsFeature } from "./features/budgets";
+import { budgetsFeature } from "./features/budgets";
+import { acceleratorsFeature } from "./features/accelerators";
 import { signingKeyFeature } from "./features/plans/signing-key.router";
 
 /** The document describing every operation, itself included. */

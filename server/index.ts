@@ -2,7 +2,7 @@ import type { Server } from "node:http";
 import { loadConfig } from "./config";
 import { createDb } from "./db/client";
 import { createApp } from "./app";
-import { startOutboxWorker } from "./mail/worker";
+import { startOutboxWorker } from "./mailer/worker";
 import { createLogger } from "./logger";
 import { signingKey } from "./features/plans/signing";
 

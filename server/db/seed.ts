@@ -8,7 +8,7 @@ import { users } from "./schema";
 import { recordAudit } from "../platform/audit";
 import type { Role } from "../../shared/schemas";
 import { seedModelProfiles } from "../features/models/models.seed";
-import { seedAccelerators } from "../features/budgets/accelerators.seed";
+import { seedAccelerators } from "../features/accelerators/accelerators.seed";
 import { seedPlans } from "../features/plans/plans.seed";
 
 /** The demo scenario: Saltmarsh Applied Language Lab, a fictional lab stretching its own fictional model families. */

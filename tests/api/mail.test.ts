@@ -5,10 +5,10 @@ import crypto from "node:crypto";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { makeTestApp } from "../setup/app";
 import { testDb } from "../setup/db";
-import { deliverDueMail, enqueueMail, outboxMessageId } from "../../server/mail/outbox";
-import { startMailSink, type MailSink } from "../../server/mail/sink";
-import { startOutboxWorker, type WorkerClock } from "../../server/mail/worker";
-import { approvedMail, changesRequestedMail, planReadyMail, reviewRequestedMail } from "../../server/mail/messages";
+import { deliverDueMail, enqueueMail, outboxMessageId } from "../../server/mailer/outbox";
+import { startMailSink, type MailSink } from "../../server/mailer/sink";
+import { startOutboxWorker, type WorkerClock } from "../../server/mailer/worker";
+import { approvedMail, changesRequestedMail, planReadyMail, reviewRequestedMail } from "../../server/mailer/messages";
 import type { AppDeps } from "../../server/deps";
 
 const { pool, db } = testDb();

@@ -7,8 +7,8 @@ import { testConfig } from "../setup/app";
 import { testDb } from "../setup/db";
 import { startTestServer } from "../setup/server";
 import { createTestUser, type TestUser } from "../setup/users";
-import { deliverDueMail, enqueueMail } from "../../server/mail/outbox";
-import { startMailSink, type MailSink } from "../../server/mail/sink";
+import { deliverDueMail, enqueueMail } from "../../server/mailer/outbox";
+import { startMailSink, type MailSink } from "../../server/mailer/sink";
 
 const { pool, db } = testDb();
 const tag = crypto.randomBytes(5).toString("hex");

@@ -7,8 +7,8 @@ import type { Agent } from "../setup/app";
 import { startTestServer } from "../setup/server";
 import { createTestUser, type TestUser } from "../setup/users";
 import { testDb } from "../setup/db";
-import { deliverDueMail } from "../../server/mail/outbox";
-import { startMailSink, type MailSink } from "../../server/mail/sink";
+import { deliverDueMail } from "../../server/mailer/outbox";
+import { startMailSink, type MailSink } from "../../server/mailer/sink";
 
 // The browser clicks through the real built client served by the real app; only the model profile is made through the API.
 const PLAN_MAIL = ["plan.review_requested", "plan.changes_requested", "plan.approved", "plan.ready"];

@@ -2,7 +2,7 @@ import { BUDGET_RECIPES, estimateBudget, RECIPE_CAUTION } from "../../engine/bud
 import type { Executor } from "../../db/client";
 import { Invalid } from "../../platform/errors";
 import { findModelRow } from "../models";
-import { findAccelerator } from "./accelerators.service";
+import { findAccelerator } from "../accelerators";
 import type { ParsedBudgetEstimateRequest } from "../../../shared/schemas/budget";
 import { budgetShapeOf } from "../../../shared/profile-shapes";
 

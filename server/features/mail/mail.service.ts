@@ -1,5 +1,5 @@
 import type { AppDeps } from "../../deps";
-import { DEFAULT_BATCH, deliverDueMail, type DeliveryResult } from "../../mail/outbox";
+import { DEFAULT_BATCH, deliverDueMail, type DeliveryResult } from "../../mailer/outbox";
 import type { MailView } from "../../../shared/schemas/mail";
 import * as repo from "./mail.repo";
 

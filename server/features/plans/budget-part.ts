@@ -2,7 +2,7 @@ import type { Executor } from "../../db/client";
 import { resolveAndEstimate } from "../budgets";
 import { budgetShapeOf } from "../../../shared/profile-shapes";
 import { Conflict, Invalid } from "../../platform/errors";
-import { findAccelerator } from "../budgets";
+import { findAccelerator } from "../accelerators";
 import { parseOr400 } from "../../platform/validate";
 import { budgetEstimateRequestSchema } from "../../../shared/schemas/budget";
 import type { RevisionValues } from "../../../shared/schemas";

@@ -1,13 +1,13 @@
 import type { AppDeps } from "../../deps";
 import type { Executor } from "../../db/client";
-import { enqueueMail } from "../../mail/outbox";
+import { enqueueMail } from "../../mailer/outbox";
 import {
   approvedMail,
   changesRequestedMail,
   planReadyMail,
   reviewRequestedMail,
   type PlanMailInput,
-} from "../../mail/messages";
+} from "../../mailer/messages";
 import type { PlanRow, RevisionRow } from "./plans.repo";
 
 export type NoticeKind = "review_requested" | "changes_requested" | "approved" | "ready";

@@ -4,8 +4,8 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { makeTestApp } from "../../setup/app";
 import { testDb } from "../../setup/db";
 import { createPlan, createProfile, decide, post, put } from "../../setup/plans";
-import { deliverDueMail } from "../../../server/mail/outbox";
-import { startMailSink, type MailSink } from "../../../server/mail/sink";
+import { deliverDueMail } from "../../../server/mailer/outbox";
+import { startMailSink, type MailSink } from "../../../server/mailer/sink";
 
 const { pool, db } = testDb();
 const freePort = () =>

@@ -7,7 +7,7 @@ import {
   planReadyMail,
   reviewRequestedMail,
   type PlanMailInput,
-} from "../../../server/mail/messages";
+} from "../../../server/mailer/messages";
 
 const input: PlanMailInput = {
   planId: 12,

@@ -1,7 +1,7 @@
 // Exponential backoff with a cap: common practice, no source. Values worked by hand below.
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { MAX_RETRY_DELAY_MS, retryDelayMs } from "../../../server/mail/retry";
+import { MAX_RETRY_DELAY_MS, retryDelayMs } from "../../../server/mailer/retry";
 
 describe("retryDelayMs", () => {
   it("doubles from the base and stops at ten minutes", () => {

@@ -20,7 +20,7 @@ import { RevisionInputs } from "@/features/plans/components/revision-inputs";
 import { RevisionTimeline } from "@/features/plans/components/revision-timeline";
 import { StagesTable } from "@/features/plans/components/stages-table";
 import { VerifyStatus } from "@/features/plans/components/verify-status";
-import { DecisionDialog } from "@/features/review/components/decision-dialog";
+import { DecisionDialog } from "@/features/plans/components/decision-dialog";
 import { RevisionCharts } from "./plan-charts";
 
 const flagRows = (content: RevisionContent) => [

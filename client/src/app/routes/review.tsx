@@ -4,9 +4,9 @@ import type { ReviewQueueItem } from "@shared/schemas/plans";
 import { Page, Panel } from "@/components/page";
 import { Loading, Notice } from "@/components/notice";
 import { useRefreshPlan } from "@/features/plans/api/workflow";
-import { reviewQueries } from "@/features/review/api/queries";
-import { DecisionDialog } from "@/features/review/components/decision-dialog";
-import { ReviewQueueTable } from "@/features/review/components/review-queue-table";
+import { plansQueries } from "@/features/plans/api/queries";
+import { DecisionDialog } from "@/features/plans/components/decision-dialog";
+import { ReviewQueueTable } from "@/features/plans/components/review-queue-table";
 
 const SAID: Record<string, string> = {
   approved: "approved and signed; its export is ready",
@@ -15,7 +15,7 @@ const SAID: Record<string, string> = {
 };
 
 export function ReviewRoute() {
-  const queue = useQuery(reviewQueries.queue());
+  const queue = useQuery(plansQueries.reviewQueue());
   const refreshPlan = useRefreshPlan();
   const [deciding, setDeciding] = useState<ReviewQueueItem | null>(null);
   const [notice, setNotice] = useState<string | null>(null);

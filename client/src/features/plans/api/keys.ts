@@ -12,4 +12,6 @@ export const plansKeys = {
   diff: (id: number, a: number, b: number) => [...plansKeys.detail(id), "diff", a, b] as const,
   settings: () => [...plansKeys.all, "settings"] as const,
   owners: () => [...plansKeys.all, "owners"] as const,
+  /** Under `all`, so a plan change that invalidates every plan read refreshes the approver's queue too. */
+  reviewQueue: () => [...plansKeys.all, "review-queue"] as const,
 };

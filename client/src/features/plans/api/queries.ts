@@ -4,6 +4,7 @@ import { revisionQuery } from "./get-revision";
 import { listPlansQuery } from "./list-plans";
 import { planOwnersQuery } from "./list-owners";
 import { planSettingsQuery } from "./plan-settings";
+import { reviewQueueQuery } from "./review-queue";
 import { verifyQuery } from "./verify-revision";
 
 /** The plans feature's query factory: `useQuery(plansQueries.detail(id))`. */
@@ -15,4 +16,5 @@ export const plansQueries = {
   diff: diffQuery,
   settings: planSettingsQuery,
   owners: planOwnersQuery,
+  reviewQueue: reviewQueueQuery,
 };

@@ -4,7 +4,7 @@ import type { decisionRequestSchema } from "@shared/schemas/plans";
 import { transitionResponseSchema } from "@shared/schemas/plans";
 import { apiClient } from "@/lib/api-client";
 import { apiPaths } from "@/config/paths";
-import { reviewKeys } from "./keys";
+import { plansKeys } from "./keys";
 
 type Args = { planId: number; n: number; body: z.input<typeof decisionRequestSchema> };
 
@@ -16,6 +16,6 @@ export function useDecide() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: decide,
-    onSettled: () => queryClient.invalidateQueries({ queryKey: reviewKeys.queue() }),
+    onSettled: () => queryClient.invalidateQueries({ queryKey: plansKeys.reviewQueue() }),
   });
 }
