@@ -14,6 +14,21 @@ export const currentScalingSchema = z.object({
 });
 export type CurrentScaling = z.infer<typeof currentScalingSchema>;
 
+/**
+ * One set of layers that share a rotary setting. `kind` is the config's layer type (`full_attention`,
+ * `sliding_attention`, …) or `no_rope` for layers without any position encoding (never scaled: ropeTheta null,
+ * rotaryDim 0). `layers` are 0-based layer indices; `currentScaling` is null when the group runs unscaled.
+ */
+export const layerGroupSchema = z.object({
+  kind: z.string().trim().min(1).max(80),
+  layers: z.array(z.number().int().nonnegative().max(10_000)).min(1).max(10_000),
+  ropeTheta: finite().gt(1, "must be above 1").max(1e15).nullable(),
+  rotaryDim: z.number().int().nonnegative().max(4096),
+  slidingWindow: posInt().nullable(),
+  currentScaling: currentScalingSchema.nullable(),
+});
+export type LayerGroup = z.infer<typeof layerGroupSchema>;
+
 const profileFields = z.object({
   name: z.string().trim().min(1).max(120),
   family: z.string().trim().min(1).max(80),
@@ -32,6 +47,14 @@ const profileFields = z.object({
   bytesPerElement: finite().positive().min(0.125, "at least 0.125 (one bit)").max(16).default(2),
   provenance: z.string().max(4000).default(""),
   currentScaling: currentScalingSchema.nullable().optional(),
+  /** Per-layer-type rotary settings; null or absent means one full_attention group over every layer. */
+  layerGroups: z.array(layerGroupSchema).min(1).max(64).nullable().optional(),
+  /** Multimodal rotary sections (pairs per position axis), or null for text-only rotary. */
+  mropeSection: z.array(posInt(4096)).min(1).max(8).nullable().optional(),
+  /** Whether the sections' pairs interleave (t, h, w, t, h, w, …) instead of lying in contiguous blocks. */
+  mropeInterleaved: z.boolean().optional(),
+  /** Latent attention: the cached width per token and layer (kv_lora_rank + qk_rope_head_dim), or null. */
+  kvLatentDim: posInt(1_000_000).nullable().optional(),
 });
 
 /** Cross-field rules, each reported on the field a user would fix. */
@@ -48,6 +71,20 @@ function checkShape(v: z.infer<typeof profileFields>, ctx: z.RefinementCtx) {
     ctx.addIssue({ code: "custom", path: ["kvHeads"], message: "cannot exceed attentionHeads" });
   else if (v.attentionHeads % v.kvHeads !== 0)
     ctx.addIssue({ code: "custom", path: ["kvHeads"], message: "attentionHeads must be a multiple of kvHeads" });
+  for (const [i, g] of (v.layerGroups ?? []).entries()) {
+    if (g.layers.some((l) => l >= v.layers))
+      ctx.addIssue({
+        code: "custom",
+        path: ["layerGroups", i, "layers"],
+        message: `layer indices must be below ${v.layers}`,
+      });
+    if (g.rotaryDim % 2 !== 0 || g.rotaryDim > v.headDim)
+      ctx.addIssue({
+        code: "custom",
+        path: ["layerGroups", i, "rotaryDim"],
+        message: `must be an even number of dimensions, at most headDim ${v.headDim}`,
+      });
+  }
   if (v.parametersTotal != null && v.parametersTotal < v.parameters)
     ctx.addIssue({ code: "custom", path: ["parametersTotal"], message: "cannot be below the non-embedding count" });
 }
@@ -60,6 +97,10 @@ export const importWarningSchema = z.object({ code: z.string(), message: z.strin
 export type ImportWarning = z.infer<typeof importWarningSchema>;
 
 export const modelProfileSchema = profileFields.extend({
+  layerGroups: z.array(layerGroupSchema),
+  mropeSection: z.array(z.number().int()).nullable(),
+  mropeInterleaved: z.boolean(),
+  kvLatentDim: z.number().int().nullable(),
   id: z.number().int(),
   rotaryDim: z.number().int(),
   pairs: z.number().int(),
@@ -95,6 +136,8 @@ export const importPreviewProfileSchema = profileFields
     name: z.string(),
     family: z.string(),
     provenance: z.string(),
+    /** The dimension that rotates (qk_rope_head_dim, head_dim × partial_rotary_factor or rotary_pct). */
+    rotaryDim: finite(),
   })
   .partial();
 export type ImportPreviewProfile = z.infer<typeof importPreviewProfileSchema>;

@@ -1,4 +1,4 @@
-import { doublePrecision, integer, jsonb, pgTable, serial, text, timestamp } from "drizzle-orm/pg-core";
+import { boolean, doublePrecision, integer, jsonb, pgTable, serial, text, timestamp } from "drizzle-orm/pg-core";
 import { users } from "./users";
 
 export const modelProfiles = pgTable("model_profiles", {
@@ -19,6 +19,11 @@ export const modelProfiles = pgTable("model_profiles", {
   bytesPerElement: doublePrecision("bytes_per_element").notNull().default(2),
   provenance: text("provenance").notNull().default(""),
   currentScaling: jsonb("current_scaling"),
+  /** Per-layer-type rotary settings (shared/schemas/models.ts layerGroupSchema); null = one full_attention group. */
+  layerGroups: jsonb("layer_groups"),
+  mropeSection: jsonb("mrope_section"),
+  mropeInterleaved: boolean("mrope_interleaved").notNull().default(false),
+  kvLatentDim: integer("kv_latent_dim"),
   sourceFileName: text("source_file_name"),
   sourceConfig: text("source_config"),
   importWarnings: jsonb("import_warnings").notNull().default([]),

@@ -3,17 +3,20 @@
  * Pure: no I/O. The warnings follow the "what practitioners get wrong" list of the domain notes.
  */
 import type { CurrentScaling, ImportPreviewProfile, ImportWarning } from "../../../shared/schemas";
-import { COMMON_SCALING_KEYS, methodForRopeType } from "../../../shared/methods";
-import { ropeScalingKnownKeys, suggestKey } from "./rope-scaling-keys";
-import { scalingWarnings } from "./scaling-warnings";
+import { FULL_ATTENTION } from "../../../shared/layer-groups";
 import { isObj, num, type Json, type Warn } from "./config-values";
-import { checkKvHeads, readHeadDim } from "./head-shape";
 import { findHostile } from "../../platform/hostile";
+import { nonRotaryScheme, notRotaryMessage } from "./position-scheme";
+import { readRotaryShape } from "./rotary-shape";
+import { readScalingBlock } from "./scaling-block";
+import { nestedRopeParameters, readLayerGroups } from "./layer-layout";
 
 export class ConfigImportError extends Error {
   constructor(
     message: string,
     readonly fields: Record<string, string>,
+    /** The API error code: "invalid", or "not_rotary" for a model whose positions are not rotary. */
+    readonly code: "invalid" | "not_rotary" = "invalid",
   ) {
     super(message);
   }
@@ -21,14 +24,9 @@ export class ConfigImportError extends Error {
 
 const DTYPE_BYTES: Record<string, number> = { bfloat16: 2, float16: 2, float32: 4, float8_e4m3fn: 1, int8: 1 };
 
-/** rope_scaling keys that place the method rather than parametrise it: left out of the imported parameters. */
-const NOT_PARAMETERS: readonly string[] = COMMON_SCALING_KEYS.filter((k) => k !== "factor");
-
 /** A table lookup by untrusted text: own keys only, so "constructor" or "__proto__" finds nothing. */
 const lookup = <T>(table: Record<string, T>, key: string): T | undefined =>
   Object.hasOwn(table, key) ? table[key] : undefined;
-
-const camel = (k: string) => k.replace(/_([a-z])/g, (_m, c: string) => c.toUpperCase());
 
 /**
  * Non-embedding parameters estimated from the shape: attention q/o (hidden × heads·headDim each), k/v (hidden × kv·headDim each),
@@ -68,6 +66,39 @@ function readJson(text: string): Json {
   return c;
 }
 
+/**
+ * The scaling block of the scaled layers. rope_scaling wins over rope_parameters (RotaryEmbeddingConfigMixin,
+ * v5 line: `rope_parameters = rope_scaling or rope_parameters`); nested rope_parameters give the full-attention
+ * entry. A flat block without a rope_type only carries the base.
+ */
+function scaledBlock(cfg: Json): { block: Json | undefined; scaling: Json | undefined } {
+  const nested = nestedRopeParameters(cfg);
+  const rp = nested ? nested[FULL_ATTENTION] : isObj(cfg.rope_parameters) ? cfg.rope_parameters : undefined;
+  if (isObj(cfg.rope_scaling)) return { block: rp, scaling: cfg.rope_scaling };
+  return { block: rp, scaling: rp && (rp.rope_type ?? rp.type) ? rp : undefined };
+}
+
+/**
+ * Multimodal sections: pairs per position axis (time, height, width), which must add up to the rotating pairs:
+ * huggingface/transformers, models/qwen2_vl/modeling_qwen2_vl.py, apply_multimodal_rotary_pos_emb splits cos/sin
+ * by `mrope_section * 2` over the head's rotary dimension (v4.4x line, read through stored copies).
+ */
+function readSections(src: Json | undefined, rotaryDim: number | undefined, warn: Warn) {
+  const sec = src?.mrope_section;
+  if (!Array.isArray(sec) || !sec.length || !sec.every((x) => Number.isInteger(x) && (x as number) > 0))
+    return { mropeSection: null, mropeInterleaved: false };
+  const sections = sec as number[];
+  const sum = sections.reduce((a, b) => a + b, 0);
+  if (rotaryDim !== undefined && sum * 2 !== rotaryDim) {
+    warn(
+      "mrope_section_sum",
+      `mrope_section [${sections.join(", ")}] adds up to ${sum} pairs, but the rotary dimension ${rotaryDim} has ${rotaryDim / 2}.`,
+      `The sections must add up to rotaryDim / 2 = ${rotaryDim / 2}; check them against the model card before planning, or the axes rotate the wrong pairs.`,
+    );
+  }
+  return { mropeSection: sections, mropeInterleaved: src?.mrope_interleaved === true };
+}
+
 export function parseModelConfig(
   text: string,
   fileName = "config.json",
@@ -76,6 +107,9 @@ export function parseModelConfig(
   const warnings: ImportWarning[] = [];
   const warn: Warn = (code, message, fix) => warnings.push({ code, message, fix });
 
+  const notRotary = nonRotaryScheme(cfg);
+  if (notRotary)
+    throw new ConfigImportError(notRotaryMessage(notRotary), { [notRotary.key]: notRotary.why }, "not_rotary");
   const missing: Record<string, string> = {};
   for (const key of ["hidden_size", "num_attention_heads", "num_hidden_layers", "max_position_embeddings"]) {
     const v = num(cfg[key]);
@@ -87,84 +121,39 @@ export function parseModelConfig(
   }
   const hidden = num(cfg.hidden_size)!;
   const heads = num(cfg.num_attention_heads)!;
-  const kvHeads = num(cfg.num_key_value_heads) ?? heads;
-  // An odd head shape is a warning, never a refusal: the preview always renders, and saving waits for head_dim.
-  const headDim = readHeadDim(hidden, heads, num(cfg.head_dim), warn);
-  checkKvHeads(heads, kvHeads, warn);
-  const ropeParams = isObj(cfg.rope_parameters) ? cfg.rope_parameters : undefined;
-  let ropeTheta = num(cfg.rope_theta) ?? num(ropeParams?.rope_theta);
-  if (ropeTheta === undefined) {
-    ropeTheta = 10_000;
-    warn(
-      "rope_theta_missing",
-      "The config has no rope_theta; loaders then use the RoFormer default of 10 000.",
-      "Check the model card: if the model was trained with another base, enter it before analysing.",
-    );
-  }
-  let prf = num(cfg.partial_rotary_factor) ?? num(ropeParams?.partial_rotary_factor);
-  if (prf === undefined && num(cfg.rotary_pct) !== undefined) {
-    prf = num(cfg.rotary_pct);
-    warn(
-      "rotary_pct_alias",
-      `The rotary fraction is given as rotary_pct (${prf}), an older spelling of partial_rotary_factor.`,
-      "Ropewalk reads it as partial_rotary_factor; keep both keys consistent if you edit the config.",
-    );
-  }
-  prf ??= 1;
-  if (prf < 1 && headDim !== undefined) {
-    warn(
-      "partial_rotation",
-      `Only ${prf * 100}% of each head rotates (partial_rotary_factor ${prf}): the rotary dimension is ${headDim * prf}, not ${headDim}.`,
-      `Every pair count, band and bound here uses d = ${headDim * prf}; make sure your own scripts do too.`,
-    );
-  }
+  const layers = num(cfg.num_hidden_layers)!;
+  const { block, scaling } = scaledBlock(cfg);
+  const shape = readRotaryShape(cfg, block, warn);
 
   const maxPos = num(cfg.max_position_embeddings)!;
   let trainedContext = maxPos;
   let currentScaling: CurrentScaling | null = null;
-  const rs = isObj(cfg.rope_scaling)
-    ? cfg.rope_scaling
-    : ropeParams && (ropeParams.rope_type ?? ropeParams.type)
-      ? ropeParams
-      : undefined;
-  if (rs) {
-    const type = String(rs.rope_type ?? rs.type ?? "default");
-    const original = num(rs.original_max_position_embeddings) ?? num(cfg.original_max_position_embeddings);
-    if (original !== undefined) trainedContext = original;
-    const method = methodForRopeType(type)?.id;
-    const known = ropeScalingKnownKeys(type);
-    for (const key of Object.keys(rs)) {
-      if (known && !known.includes(key)) {
-        const near = suggestKey(key, known);
-        warn(
-          "unknown_scaling_key",
-          `rope_scaling has the key "${key}", which ${type} does not read; loaders ignore it silently.`,
-          near
-            ? `Did you mean "${near}"? Rename it, or the value you meant to set is not used.`
-            : "Remove it, or check the spelling against the method's keys.",
-        );
-      }
-    }
-    if (!known)
-      warn(
-        "unknown_rope_type",
-        `rope_type "${type}" is not one Ropewalk knows.`,
-        "Analyse with one of the known methods and compare.",
-      );
-    scalingWarnings(method, type, rs, maxPos, original, warn);
-    const params: Record<string, unknown> = {};
-    for (const [k, v] of Object.entries(rs)) {
-      if (!NOT_PARAMETERS.includes(k)) params[camel(k)] = v;
-    }
-    currentScaling = { method: method ?? type, params, raw: rs };
+  if (scaling) {
+    const read = readScalingBlock(cfg, scaling, maxPos, shape.latent, warn);
+    currentScaling = read.currentScaling;
+    if (read.original !== undefined) trainedContext = read.original;
   }
+  const sections = readSections(scaling ?? block, shape.rotaryDim, warn);
+  const layerGroups = readLayerGroups(
+    cfg,
+    {
+      layers,
+      headDim: shape.headDim ?? 0,
+      partialRotaryFactor: shape.partialRotaryFactor,
+      ropeTheta: shape.ropeTheta,
+      currentScaling,
+    },
+    warn,
+  );
   const dtype = String(cfg.torch_dtype ?? cfg.dtype ?? "");
   const name =
     String(cfg._name_or_path ?? "")
       .split("/")
       .pop() || fileName.replace(/\.json$/i, "");
   // Without a trusted head_dim the estimate uses hidden_size / heads; it is replaced once the author gives head_dim.
-  const parameters = estimateNonEmbeddingParameters(cfg, headDim ?? hidden / heads, heads, kvHeads);
+  // Latent attention's projections are not shaped by the rotary head dimension, so the estimate uses hidden / heads.
+  const estimateHead = shape.latent ? hidden / heads : (shape.headDim ?? hidden / heads);
+  const parameters = estimateNonEmbeddingParameters(cfg, estimateHead, heads, shape.kvHeads);
   warn(
     "parameters_estimated",
     `The config carries no parameter count; ${(parameters / 1e9).toFixed(2)} B non-embedding parameters were estimated from its shape.`,
@@ -175,20 +164,24 @@ export function parseModelConfig(
     profile: {
       name,
       family: String(cfg.model_type ?? "unknown"),
-      headDim,
-      partialRotaryFactor: prf,
-      ropeTheta,
+      headDim: shape.headDim,
+      partialRotaryFactor: shape.partialRotaryFactor,
+      rotaryDim: shape.rotaryDim,
+      ropeTheta: shape.ropeTheta,
       trainedContext,
       maxPositionEmbeddings: maxPos,
-      layers: num(cfg.num_hidden_layers)!,
+      layers,
       attentionHeads: heads,
-      kvHeads,
+      kvHeads: shape.kvHeads,
       hiddenSize: hidden,
       parameters,
       parametersTotal: null,
       bytesPerElement: lookup(DTYPE_BYTES, dtype) ?? 2,
       provenance: `imported from ${fileName}`,
       currentScaling,
+      layerGroups,
+      ...sections,
+      kvLatentDim: shape.kvLatentDim,
     },
     warnings,
   };

@@ -1,6 +1,6 @@
 import type { AppDeps } from "../../deps";
 import type { Executor } from "../../db/client";
-import { Conflict, Invalid, NotFound } from "../../platform/errors";
+import { Conflict, HttpError, Invalid, NotFound } from "../../platform/errors";
 import { parseOr400 } from "../../platform/validate";
 import { findHostile, MAX_JSON_DEPTH } from "../../platform/hostile";
 import { recordAudit } from "../../platform/audit";
@@ -16,6 +16,7 @@ import {
 import { ConfigImportError, parseModelConfig } from "./config-import";
 import * as repo from "./models.repo";
 import { rotaryShapeOf } from "../../../shared/profile-shapes";
+import { layerGroupsOf } from "../../../shared/layer-groups";
 import { isUniqueViolation } from "../../db/errors";
 
 /**
@@ -36,6 +37,12 @@ export function toModelProfile(row: repo.ModelRow): ModelProfile {
   return {
     ...rest,
     currentScaling: unreadable ? null : ((row.currentScaling as ModelProfile["currentScaling"]) ?? null),
+    layerGroups: layerGroupsOf({
+      ...row,
+      currentScaling: unreadable ? null : (row.currentScaling as ModelProfile["currentScaling"]),
+      layerGroups: row.layerGroups as ModelProfile["layerGroups"] | null,
+    }),
+    mropeSection: (row.mropeSection as number[] | null) ?? null,
     importWarnings: unreadable ? [...warnings, UNREADABLE_SCALING] : warnings,
     retiredAt: row.retiredAt?.toISOString() ?? null,
     rotaryDim: d,
@@ -44,6 +51,15 @@ export function toModelProfile(row: repo.ModelRow): ModelProfile {
     updatedAt: row.updatedAt.toISOString(),
   };
 }
+
+/** The layout columns as stored: the scaled group follows the top-level fields the author edits (layerGroupsOf). */
+const layoutColumns = (input: ModelProfileValues) => ({
+  currentScaling: input.currentScaling ?? null,
+  layerGroups: input.layerGroups?.length ? layerGroupsOf(input) : null,
+  mropeSection: input.mropeSection ?? null,
+  mropeInterleaved: input.mropeInterleaved ?? false,
+  kvLatentDim: input.kvLatentDim ?? null,
+});
 
 const nameTaken = () => new Conflict("a profile with this name already exists", { name: "already taken" });
 
@@ -78,7 +94,7 @@ export async function createModel(
     return await deps.db.transaction(async (tx) => {
       const row = await repo.insertModelRow(tx, {
         ...input,
-        currentScaling: input.currentScaling ?? null,
+        ...layoutColumns(input),
         createdBy: actor.id,
         sourceFileName: source?.fileName ?? null,
         sourceConfig: source?.text ?? null,
@@ -103,7 +119,7 @@ export async function updateModel(deps: AppDeps, actor: SessionUser, id: number,
   await mustFind(deps, id);
   try {
     return await deps.db.transaction(async (tx) => {
-      const row = await repo.updateModelRow(tx, id, { ...input, currentScaling: input.currentScaling ?? null });
+      const row = await repo.updateModelRow(tx, id, { ...input, ...layoutColumns(input) });
       await recordAudit(tx, {
         actorId: actor.id,
         action: "model.updated",
@@ -196,7 +212,7 @@ export async function importConfig(
   try {
     parsed = parseModelConfig(text, file.originalname);
   } catch (e) {
-    if (e instanceof ConfigImportError) throw new Invalid(e.message, e.fields);
+    if (e instanceof ConfigImportError) throw new HttpError(400, e.code, e.message, e.fields);
     throw e;
   }
   const profile = { ...parsed.profile, ...overrides };

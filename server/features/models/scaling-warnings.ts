@@ -11,6 +11,7 @@ export function scalingWarnings(
   rs: Record<string, unknown>,
   maxPos: number,
   original: number | undefined,
+  latent: boolean,
   warn: Warn,
 ) {
   const factor = num(rs.factor);
@@ -58,6 +59,8 @@ export function scalingWarnings(
       "Both attention_factor and mscale / mscale_all_dim are set: two sources for the same temperature.",
       "Keep one. Apply the attention factor once — to cos/sin (logits scale by its square) — and not again in the softmax scale.",
     );
+  } else if (method === "yarn" && latent && num(rs.mscale_all_dim)) {
+    softmaxTemperature(rs, warn);
   } else if (method === "yarn" && num(rs.mscale) !== undefined && num(rs.mscale) === num(rs.mscale_all_dim)) {
     warn(
       "attention_factor_cancels",
@@ -65,4 +68,29 @@ export function scalingWarnings(
       "If the model was tuned with a temperature, check where your attention code applies it.",
     );
   }
+}
+
+/** YaRN's mscale(s, m) = 0.1·m·ln s + 1 (Peng et al. 2023, "YaRN", eq. 22 with the per-model multiplier m; equation number from memory). */
+const mscaleOf = (s: number, m: number) => (s <= 1 ? 1 : 0.1 * m * Math.log(s) + 1);
+
+/**
+ * Latent-attention models put YaRN's temperature into the softmax scale, not into cos/sin: huggingface/transformers,
+ * src/transformers/models/deepseek_v3/modeling_deepseek_v3.py at f5a9ec5, DeepseekV3Attention.__init__:
+ * `scaling = qk_head_dim^-0.5 · mscale(factor, mscale_all_dim)²`; cos/sin carry mscale(s, mscale) / mscale(s,
+ * mscale_all_dim) (the yarn initialiser in modeling_rope_utils.py, from memory of the v4.5x line), which is 1 when
+ * the two are equal.
+ */
+function softmaxTemperature(rs: Record<string, unknown>, warn: Warn) {
+  const s = num(rs.factor) ?? 1;
+  const all = num(rs.mscale_all_dim)!;
+  const m = mscaleOf(s, all);
+  // With both multipliers the initialiser divides them; with mscale_all_dim alone cos/sin get the plain mscale(s, 1).
+  const mscale = num(rs.mscale);
+  const cosSin = mscale ? mscaleOf(s, mscale) / m : mscaleOf(s, 1);
+  warn(
+    "softmax_temperature",
+    `This latent-attention model applies the YaRN temperature in the softmax scale: 1/√d_qk is multiplied by mscale(${s}, mscale_all_dim ${all})² = ${(m * m).toFixed(4)}, ` +
+      `while cos/sin carry ${cosSin.toFixed(4)}${cosSin === 1 ? " (mscale equals mscale_all_dim, so nothing)" : ""}.`,
+    "Keep the temperature in the attention's softmax scale when you serve or export; do not also fold it into cos/sin, or the logits are sharpened twice.",
+  );
 }
