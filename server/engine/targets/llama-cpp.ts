@@ -1,4 +1,131 @@
-import { pendingTarget } from "./stub";
+import type { CompileInput, CompileResult, ExportTarget, TargetArtifact } from "./types";
+import { explicitYarnAttention, factorOf, isRecord, paramsOf, resolvePlan } from "./engines/plan-facts";
+import { launchArtifact } from "./engines/launch-text";
+import { yarnGetMscale } from "./engines/engine-rope";
+import { convertedFreqFactors, ggufArch, key, type Metadata } from "./engines/gguf";
+import { readLlamaCpp } from "./engines/llama-cpp-reader";
 
-/** Placeholder until the llama.cpp reader and compiler land (same file, same export name). */
-export const llamaCppTarget = pendingTarget("llama-cpp", "llama.cpp", "llama.cpp", "launch-args");
+/**
+ * llama.cpp (the GGUF runtime), read at ggml-org/llama.cpp master (docs/export-targets-engines.md). Artifact:
+ * `{ args, metadata }`: flags for llama-server / llama-cli, and the same facts as GGUF metadata keys for a rewritten
+ * file. `--override-kv <arch>.context_length` raises the training length the runtime checks n_ctx against, so it
+ * neither warns nor (llama-server) caps the slot context at the old length.
+ */
+const fl = (n: number) => String(n);
+
+function compileParts(input: CompileInput): { args: string[]; metadata: Metadata; unsupported?: [string, string] } {
+  const p = resolvePlan(input);
+  const arch = ggufArch(input.config);
+  const { trained: L, target } = p;
+  const args = ["-c", String(target), "--override-kv", `${key(arch, "context_length")}=int:${target}`];
+  const metadata: Metadata = { [key(arch, "context_length")]: target };
+  const plainBase = (base: number) => {
+    args.push("--rope-scaling", "none", "--rope-freq-base", fl(base));
+    Object.assign(metadata, { [key(arch, "rope.scaling.type")]: "none", [key(arch, "rope.freq_base")]: base });
+  };
+  switch (p.params.method) {
+    case "default":
+    case "ntk":
+    case "base":
+      plainBase(p.effectiveBase ?? p.base);
+      return { args, metadata };
+    case "dynamic":
+      // The plan's base at its running length, held fixed: the closest a static base comes.
+      plainBase(p.effectiveBase ?? p.base);
+      return {
+        args,
+        metadata,
+        unsupported: [
+          "llama.cpp has no dynamic NTK scaling: its base is fixed when the context is made (llama-context.cpp)",
+          `run the plan's base at ${paramsOf(p, "dynamic").sequenceLength} tokens as a fixed --rope-freq-base (the artifact does this); shorter prompts then also run the larger base`,
+        ],
+      };
+    case "linear": {
+      const s = factorOf(p);
+      args.push("--rope-scaling", "linear", "--rope-scale", fl(s), "--rope-freq-base", fl(p.base));
+      Object.assign(metadata, {
+        [key(arch, "rope.scaling.type")]: "linear",
+        [key(arch, "rope.scaling.factor")]: s,
+        [key(arch, "rope.freq_base")]: p.base,
+      });
+      return { args, metadata };
+    }
+    case "yarn": {
+      const y = paramsOf(p, "yarn");
+      const explicit = explicitYarnAttention(p);
+      // ggml multiplies the attention factor by 1 + 0.1·ln(1/freq_scale) itself (rope_yarn): pass the remainder.
+      const attn = explicit === null ? 1 : explicit / yarnGetMscale(factorOf(p));
+      args.push(
+        ...["--rope-scaling", "yarn", "--rope-scale", fl(factorOf(p)), "--rope-freq-base", fl(p.base)],
+        ...["--yarn-orig-ctx", String(L), "--yarn-ext-factor", "1.0", "--yarn-attn-factor", fl(attn)],
+        ...["--yarn-beta-fast", fl(y.betaFast ?? 32), "--yarn-beta-slow", fl(y.betaSlow ?? 1)],
+      );
+      Object.assign(metadata, {
+        [key(arch, "rope.scaling.type")]: "yarn",
+        [key(arch, "rope.scaling.factor")]: factorOf(p),
+        [key(arch, "rope.scaling.original_context_length")]: L,
+        [key(arch, "rope.freq_base")]: p.base,
+      });
+      const unsupported: [string, string] | undefined =
+        y.truncate === false
+          ? [
+              "llama.cpp always rounds YaRN's ramp ends to whole pairs (ggml_rope_yarn_corr_dims floors and ceils); truncate: false cannot be expressed",
+              "plan with truncate on (the default), or serve with vLLM or SGLang, which read truncate",
+            ]
+          : undefined;
+      return { args, metadata, unsupported };
+    }
+    case "llama3":
+      return {
+        args,
+        metadata,
+        unsupported: [
+          "llama.cpp takes the llama3 divisors from the rope_freqs tensor convert_hf_to_gguf.py writes; no flag or metadata key sets them",
+          `convert again from a config.json carrying this rope_scaling block and a top-level original_max_position_embeddings of ${L} (the converter reads the length there, default 8192)`,
+        ],
+      };
+    case "longrope":
+      return {
+        args,
+        metadata,
+        unsupported: [
+          "llama.cpp takes LongRoPE's per-pair factors from the rope_factors_long/short tensors the converter writes; no flag sets them",
+          "convert again from a config.json carrying this longrope block",
+        ],
+      };
+  }
+}
+
+function compile(input: CompileInput): CompileResult {
+  const { args, metadata, unsupported } = compileParts(input);
+  const method = input.method.method;
+  if (method === "llama3" || method === "longrope") {
+    return { ok: false, cause: unsupported![0], workaround: unsupported![1] };
+  }
+  const artifact = launchArtifact('llama-server -m "$MODEL_GGUF"', args, { metadata });
+  if (unsupported) return { ok: false, cause: unsupported[0], workaround: unsupported[1], artifact };
+  // A model converted from a llama3 config carries rope_freqs: ggml divides by it on top of any flag.
+  if (
+    isRecord(input.config.rope_scaling) &&
+    convertedFreqFactors(input.config, input.plan.rotaryDim, input.plan.base)
+  ) {
+    return {
+      ok: false,
+      cause:
+        "the converted GGUF carries the model's own llama3 rope_freqs tensor, which llama.cpp applies on top of these flags",
+      workaround: "convert again from a config.json without the llama3 rope_scaling block, then use these flags",
+      artifact,
+    };
+  }
+  return { ok: true, artifact };
+}
+
+export const llamaCppTarget: ExportTarget = {
+  id: "llama-cpp",
+  label: "llama.cpp (GGUF flags and metadata)",
+  consumer: "llama.cpp",
+  versions: ["master (common/arg.cpp, src/llama-context.cpp, src/llama-model.cpp, ggml-cpu rope)"],
+  artifactKind: "launch-args",
+  compile,
+  read: (config: Record<string, unknown>, artifact: TargetArtifact) => readLlamaCpp(config, artifact),
+};

@@ -1,4 +1,233 @@
-import { pendingTarget } from "./stub";
+import type { CompileInput, CompileResult, ConsumerReading, ExportTarget, TargetArtifact } from "./types";
+import {
+  explicitYarnAttention,
+  factorOf,
+  headSize,
+  isRecord,
+  numberOr,
+  paramsOf,
+  resolvePlan,
+} from "./engines/plan-facts";
+import { argsOf, compactJson, flagValue, launchArtifact, parseJsonArgument } from "./engines/launch-text";
+import {
+  llama3InvFreq,
+  longropeReading,
+  plainInvFreq,
+  staticDynamicBase,
+  yarnGetMscale,
+  yarnInvFreq,
+} from "./engines/engine-rope";
 
-/** Placeholder until the SGLang reader and compiler land (same file, same export name). */
-export const sglangTarget = pendingTarget("sglang", "SGLang", "SGLang", "launch-args");
+/**
+ * SGLang, read at sgl-project/sglang main (files at the commits named beside each rule;
+ * docs/export-targets-engines.md). Artifact: `--json-model-override-args <json> --context-length <target>`.
+ * Models take `rope_theta` from the top level and pass `config.rope_scaling` to get_rope, so the override sets both.
+ */
+function overridesFor(input: CompileInput): Record<string, unknown> {
+  const p = resolvePlan(input);
+  const { trained: L, target } = p;
+  const plain = (base: number) => ({ rope_scaling: null, rope_theta: base, max_position_embeddings: target });
+  switch (p.params.method) {
+    case "default":
+    case "ntk":
+    case "base":
+      return plain(p.effectiveBase ?? p.base);
+    case "linear":
+      return {
+        rope_scaling: { rope_type: "linear", factor: factorOf(p) },
+        rope_theta: p.base,
+        max_position_embeddings: target,
+      };
+    case "dynamic":
+      // No original_max_position_embeddings in the block: get_context_length then derives factor × max_position_embeddings.
+      return {
+        rope_scaling: { rope_type: "dynamic", factor: factorOf(p) },
+        rope_theta: p.base,
+        max_position_embeddings: L,
+      };
+    case "yarn": {
+      const y = paramsOf(p, "yarn");
+      const explicit = explicitYarnAttention(p);
+      const block: Record<string, unknown> = {
+        rope_type: "yarn",
+        factor: factorOf(p),
+        original_max_position_embeddings: L,
+        beta_fast: y.betaFast,
+        beta_slow: y.betaSlow,
+        truncate: y.truncate,
+      };
+      // SGLang ignores attention_factor, mscale and mscale_all_dim for "yarn"; its magnitude is g(s) × attn_factor.
+      if (explicit !== null) block.attn_factor = explicit / yarnGetMscale(factorOf(p));
+      return { rope_scaling: block, rope_theta: p.base, max_position_embeddings: target };
+    }
+    case "llama3": {
+      const l3 = paramsOf(p, "llama3");
+      const block = {
+        rope_type: "llama3",
+        factor: factorOf(p),
+        low_freq_factor: l3.lowFreqFactor,
+        high_freq_factor: l3.highFreqFactor,
+        original_max_position_embeddings: L,
+      };
+      return { rope_scaling: block, rope_theta: p.base, max_position_embeddings: target };
+    }
+    case "longrope": {
+      const lr = paramsOf(p, "longrope");
+      // SGLang switches to the long factors per batch once a position passes the original length, so keys cached
+      // earlier were turned with the short ones. Past the trained length the plan uses the long factors throughout:
+      // writing them as both lists makes every batch agree.
+      const used = target > L ? lr.longFactor : lr.shortFactor;
+      const block = {
+        rope_type: "longrope",
+        long_factor: used,
+        short_factor: used,
+        original_max_position_embeddings: L,
+      };
+      return { rope_scaling: block, rope_theta: p.base, max_position_embeddings: target };
+    }
+  }
+}
+
+function compile(input: CompileInput): CompileResult {
+  const overrides = overridesFor(input);
+  const args = [
+    "--json-model-override-args",
+    compactJson(overrides),
+    "--context-length",
+    String(input.plan.targetContext),
+  ];
+  const artifact = launchArtifact('python -m sglang.launch_server --model-path "$MODEL"', args, {
+    modelOverrides: overrides,
+  });
+  return { ok: true, artifact };
+}
+
+/** The keys get_context_length tries, first found wins (python/sglang/srt/utils/hf_transformers_utils.py). */
+const CONTEXT_KEYS = [
+  "max_sequence_length",
+  "seq_length",
+  "max_seq_len",
+  "model_max_length",
+  "max_position_embeddings",
+];
+
+/**
+ * get_context_length: the first length key, times rope_scaling.factor unless the block names an
+ * original_max_position_embeddings or is llama3; 2048 without any key.
+ */
+function derivedContextLength(config: Record<string, unknown>): number {
+  const rs = isRecord(config.rope_scaling) ? config.rope_scaling : null;
+  let factor = rs ? numberOr(rs.factor, 1) : 1;
+  if (rs && ("original_max_position_embeddings" in rs || rs.rope_type === "llama3")) factor = 1;
+  for (const key of CONTEXT_KEYS) {
+    const v = config[key];
+    if (typeof v === "number") return Math.floor(factor * v);
+  }
+  return 2048;
+}
+
+function read(config: Record<string, unknown>, artifact: TargetArtifact, runningLength?: number): ConsumerReading {
+  const args = argsOf(artifact);
+  const warnings: string[] = [];
+  const text = flagValue(args, "--json-model-override-args");
+  const { value: overrides, intFloats } = text ? parseJsonArgument(text) : { value: {}, intFloats: [] };
+  for (const p of intFloats) warnings.push(`${p} is written as an integer where the config types a float`);
+  // ModelConfig → get_config: `config.update(model_override_args)`, top-level keys replaced whole
+  // (python/sglang/srt/configs/model_config.py, 001adf5).
+  const merged = { ...config, ...overrides };
+  const derived = derivedContextLength(merged);
+  const contextText = flagValue(args, "--context-length");
+  const contextLength = contextText !== undefined ? Number(contextText) : derived;
+  if (contextLength > derived) {
+    warnings.push(
+      `context_length ${contextLength} is greater than the derived context_length ${derived}: SGLang refuses to start unless SGLANG_ALLOW_OVERWRITE_LONGER_CONTEXT_LEN=1`,
+    );
+  }
+
+  const base = numberOr(merged.rope_theta, 10000);
+  // get_rope (rotary_embedding/factory.py, eb047c1): rotary dim × partial_rotary_factor when it is below 1.
+  const partial = numberOr(merged.partial_rotary_factor, 1);
+  const head = headSize(merged);
+  const d = partial < 1 ? Math.floor(head * partial) : head;
+  const maxPosition = numberOr(merged.max_position_embeddings, 2048);
+  const rs = isRecord(merged.rope_scaling) ? merged.rope_scaling : null;
+  const type = rs
+    ? typeof rs.rope_type === "string"
+      ? rs.rope_type
+      : typeof rs.type === "string"
+        ? rs.type
+        : null
+    : "default";
+  if (type === null) throw new Error("rope_scaling has neither rope_type nor type: SGLang refuses it");
+  const need = (key: string) => {
+    if (!rs || !(key in rs)) throw new Error(`SGLang's get_rope needs ${key} for rope_type ${type}`);
+    return rs[key] as number;
+  };
+  const reading = (invFreq: number[], attentionFactor: number, originalLength: number | null): ConsumerReading => ({
+    rotaryDim: d,
+    base,
+    originalLength,
+    method: type,
+    invFreq,
+    attentionFactor,
+    warnings,
+  });
+  switch (type) {
+    case "default":
+      return reading(plainInvFreq(d, base), 1, null);
+    case "linear":
+      return reading(
+        plainInvFreq(d, base).map((t) => t / need("factor")),
+        1,
+        null,
+      );
+    case "dynamic":
+      return reading(plainInvFreq(d, staticDynamicBase(base, need("factor"), d)), 1, maxPosition);
+    case "yarn": {
+      const f = need("factor");
+      const L = need("original_max_position_embeddings");
+      const ext = numberOr(rs?.extrapolation_factor, 1);
+      const inv = yarnInvFreq(
+        d,
+        base,
+        f,
+        L,
+        numberOr(rs?.beta_fast, 32),
+        numberOr(rs?.beta_slow, 1),
+        rs?.truncate !== false,
+        ext,
+      );
+      // attention_factor, mscale and mscale_all_dim are not read for "yarn" (factory.py): silently ignored.
+      return reading(inv, yarnGetMscale(f) * numberOr(rs?.attn_factor, 1), L);
+    }
+    case "llama3": {
+      const L = need("original_max_position_embeddings");
+      return reading(
+        llama3InvFreq(d, base, need("factor"), need("low_freq_factor"), need("high_freq_factor"), L),
+        1,
+        L,
+      );
+    }
+    case "longrope": {
+      const L = need("original_max_position_embeddings");
+      // rope_variant.py forward (0b1fd02): the long cache once any position in the batch passes the original length.
+      const long = (runningLength ?? contextLength) > L;
+      const factors = (long ? rs?.long_factor : rs?.short_factor) as number[];
+      const explicit = long ? rs?.long_mscale : rs?.short_mscale;
+      const r = longropeReading(d, base, factors, maxPosition, L, typeof explicit === "number" ? explicit : undefined);
+      return reading(r.invFreq, r.attentionFactor, L);
+    }
+    default:
+      throw new Error(`rope_type ${type} is outside what this reader follows`);
+  }
+}
+
+export const sglangTarget: ExportTarget = {
+  id: "sglang",
+  label: "SGLang (--json-model-override-args)",
+  consumer: "SGLang",
+  versions: ["main @ eb047c1 (rotary_embedding/factory.py)", "configs/model_config.py @ 001adf5"],
+  artifactKind: "launch-args",
+  compile,
+  read,
+};

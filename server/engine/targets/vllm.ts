@@ -1,4 +1,203 @@
-import { pendingTarget } from "./stub";
+import type { CompileInput, CompileResult, ConsumerReading, ExportTarget, TargetArtifact } from "./types";
+import { explicitYarnAttention, factorOf, headSize, numberOr, paramsOf, resolvePlan } from "./engines/plan-facts";
+import { argsOf, compactJson, flagValue, launchArtifact, parseJsonArgument } from "./engines/launch-text";
+import { derivedMaxModelLen, vllmRopeParameters } from "./engines/vllm-config";
+import {
+  llama3InvFreq,
+  longropeReading,
+  plainInvFreq,
+  staticDynamicBase,
+  yarnGetMscale,
+  yarnInvFreq,
+} from "./engines/engine-rope";
 
-/** Placeholder until the vLLM reader and compiler land (same file, same export name). */
-export const vllmTarget = pendingTarget("vllm", "vLLM", "vLLM", "launch-args");
+/**
+ * vLLM, read at vllm-project/vllm main (files at the commits named beside each rule; docs/export-targets-engines.md).
+ * Artifact: `--hf-overrides <json> --max-model-len <target>`. The overrides carry the block both as `rope_parameters`
+ * (what get_rope reads, and the key vLLM's own context-extension example overrides) and as `rope_scaling` (with
+ * transformers v4 installed, patch_rope_parameters copies rope_scaling over rope_parameters), plus the top-level
+ * rope_theta that v4 installs copy into the block.
+ */
+function ropeBlock(input: CompileInput): { block: Record<string, unknown>; maxPosition: number } {
+  const p = resolvePlan(input);
+  const { trained: L, target } = p;
+  switch (p.params.method) {
+    case "default":
+    case "ntk":
+    case "base":
+      return { block: { rope_type: "default", rope_theta: p.effectiveBase ?? p.base }, maxPosition: target };
+    case "linear":
+      return { block: { rope_type: "linear", factor: factorOf(p), rope_theta: p.base }, maxPosition: target };
+    case "dynamic":
+      // get_rope builds dynamic NTK from the model's max_position_embeddings: it must stay the trained length.
+      return { block: { rope_type: "dynamic", factor: factorOf(p), rope_theta: p.base }, maxPosition: L };
+    case "yarn": {
+      const y = paramsOf(p, "yarn");
+      const explicit = explicitYarnAttention(p);
+      const block: Record<string, unknown> = {
+        rope_type: "yarn",
+        factor: factorOf(p),
+        original_max_position_embeddings: L,
+        beta_fast: y.betaFast,
+        beta_slow: y.betaSlow,
+        truncate: y.truncate,
+        rope_theta: p.base,
+      };
+      // vLLM reads attention_factor (it wins), else the mscale pair: write the plan's own value once.
+      if (explicit !== null) block.attention_factor = explicit;
+      return { block, maxPosition: target };
+    }
+    case "llama3": {
+      const l3 = paramsOf(p, "llama3");
+      return {
+        block: {
+          rope_type: "llama3",
+          factor: factorOf(p),
+          low_freq_factor: l3.lowFreqFactor,
+          high_freq_factor: l3.highFreqFactor,
+          original_max_position_embeddings: L,
+          rope_theta: p.base,
+        },
+        maxPosition: target,
+      };
+    }
+    case "longrope": {
+      const lr = paramsOf(p, "longrope");
+      return {
+        block: {
+          rope_type: "longrope",
+          long_factor: lr.longFactor,
+          short_factor: lr.shortFactor,
+          original_max_position_embeddings: L,
+          rope_theta: p.base,
+        },
+        // the magnitude is √(1 + ln(max_position/original)/ln original): max_position must be the target.
+        maxPosition: target,
+      };
+    }
+  }
+}
+
+function compile(input: CompileInput): CompileResult {
+  const { block, maxPosition } = ropeBlock(input);
+  const overrides: Record<string, unknown> = {
+    rope_parameters: block,
+    rope_scaling: block,
+    rope_theta: block.rope_theta,
+    max_position_embeddings: maxPosition,
+  };
+  // transformers-v4 installs copy a top-level original_max_position_embeddings over the block's (config.py).
+  if ("original_max_position_embeddings" in input.config && "original_max_position_embeddings" in block) {
+    overrides.original_max_position_embeddings = block.original_max_position_embeddings;
+  }
+  const args = ["--hf-overrides", compactJson(overrides), "--max-model-len", String(input.plan.targetContext)];
+  return { ok: true, artifact: launchArtifact('vllm serve "$MODEL"', args, { hfOverrides: overrides }) };
+}
+
+function read(config: Record<string, unknown>, artifact: TargetArtifact): ConsumerReading {
+  const args = argsOf(artifact);
+  const warnings: string[] = [];
+  const overridesText = flagValue(args, "--hf-overrides");
+  const { value: overrides, intFloats } = overridesText
+    ? parseJsonArgument(overridesText)
+    : { value: {}, intFloats: [] };
+  for (const p of intFloats) warnings.push(`${p} is written as an integer; transformers' validate_rope wants a float`);
+  // get_config: `config.update(hf_overrides_kw)` sets top-level keys, replacing whole values (vllm/transformers_utils/config.py, 18ec662).
+  const merged = { ...config, ...overrides };
+  const { rp, warnings: patchWarnings } = vllmRopeParameters(merged);
+  warnings.push(...patchWarnings);
+
+  const maxModelLenText = flagValue(args, "--max-model-len");
+  const derived = derivedMaxModelLen(merged, rp);
+  const maxModelLen = maxModelLenText !== undefined ? Number(maxModelLenText) : Math.floor(derived);
+  if (maxModelLen > derived) {
+    warnings.push(
+      `max_model_len ${maxModelLen} is greater than the derived max_model_len ${derived}: vLLM refuses to start unless VLLM_ALLOW_LONG_MAX_MODEL_LEN=1`,
+    );
+  }
+
+  // get_rope (rotary_embedding/__init__.py, 0cd5784): rope_theta default 10000, rotary dim from rope_dim or head size × partial factor.
+  const base = numberOr(rp.rope_theta, 10000);
+  const type = typeof rp.rope_type === "string" ? rp.rope_type : "default";
+  const partial = numberOr(rp.partial_rotary_factor, 1);
+  const d = typeof rp.rope_dim === "number" ? rp.rope_dim : Math.floor(headSize(merged) * partial);
+  // Models pass max_position = config.max_position_embeddings to get_rope (vllm/model_executor/models/llama.py).
+  const maxPosition = numberOr(merged.max_position_embeddings, 8192);
+  const need = (key: string) => {
+    if (!(key in rp)) throw new Error(`vLLM's get_rope needs ${key} for rope_type ${type}`);
+    return rp[key] as number;
+  };
+  const reading = (invFreq: number[], attentionFactor: number, originalLength: number | null): ConsumerReading => ({
+    rotaryDim: d,
+    base,
+    originalLength,
+    method: type,
+    invFreq,
+    attentionFactor,
+    warnings,
+  });
+  switch (type) {
+    case "default":
+      return reading(plainInvFreq(d, base), 1, null);
+    case "linear":
+      return reading(
+        plainInvFreq(d, base).map((t) => t / need("factor")),
+        1,
+        null,
+      );
+    case "dynamic":
+      return reading(plainInvFreq(d, staticDynamicBase(base, need("factor"), d)), 1, maxPosition);
+    case "yarn": {
+      const f = need("factor");
+      const L = need("original_max_position_embeddings");
+      const inv = yarnInvFreq(
+        d,
+        base,
+        f,
+        L,
+        numberOr(rp.beta_fast, 32),
+        numberOr(rp.beta_slow, 1),
+        rp.truncate !== false,
+      );
+      // yarn_scaling_rope.py (0cd5784): attention_factor wins, else mscale/mscale_all_dim when both are non-zero, else g(s).
+      const m = numberOr(rp.mscale, 0);
+      const mAll = numberOr(rp.mscale_all_dim, 0);
+      const a =
+        typeof rp.attention_factor === "number"
+          ? rp.attention_factor
+          : m && mAll
+            ? yarnGetMscale(f, m) / yarnGetMscale(f, mAll)
+            : yarnGetMscale(f);
+      return reading(inv, a, L);
+    }
+    case "llama3": {
+      const L = need("original_max_position_embeddings");
+      return reading(
+        llama3InvFreq(d, base, need("factor"), need("low_freq_factor"), need("high_freq_factor"), L),
+        1,
+        L,
+      );
+    }
+    case "longrope": {
+      const L = need("original_max_position_embeddings");
+      // phi3_long_rope_scaled_rope.py (17d618b): long factors for every position once max_model_len > original.
+      const long = maxModelLen > L;
+      const factors = (long ? rp.long_factor : rp.short_factor) as number[];
+      const explicit = long ? rp.long_mscale : rp.short_mscale;
+      const r = longropeReading(d, base, factors, maxPosition, L, typeof explicit === "number" ? explicit : undefined);
+      return reading(r.invFreq, r.attentionFactor, L);
+    }
+    default:
+      throw new Error(`rope_type ${type} is outside what this reader follows`);
+  }
+}
+
+export const vllmTarget: ExportTarget = {
+  id: "vllm",
+  label: "vLLM (--hf-overrides)",
+  consumer: "vLLM",
+  versions: ["main @ 0cd5784 (rotary_embedding/__init__.py)", "config/model.py @ 0052a5b"],
+  artifactKind: "launch-args",
+  compile,
+  read,
+};
