@@ -5,6 +5,7 @@ import { createApp } from "./app";
 import { startOutboxWorker } from "./mailer/worker";
 import { createLogger } from "./logger";
 import { signingKey } from "./features/plans/signing";
+import { warmBoundPool } from "./features/bounds/bounds.pool";
 
 /** Starts the HTTP server; resolves once it listens. Used by `npm start` and production. */
 export async function startServer(config = loadConfig()) {
@@ -17,6 +18,8 @@ export async function startServer(config = loadConfig()) {
     const s = app.listen(config.port, config.host, () => resolve(s));
     s.on("error", reject);
   });
+  // The search pool keeps one thread ready, so the first search does not pay for starting it.
+  warmBoundPool();
   const mailWorker = startOutboxWorker({ config, db });
   let closing = false;
   const shutdown = async (signal: string) => {

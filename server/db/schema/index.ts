@@ -2,3 +2,4 @@ export * from "./users";
 export * from "./models";
 export * from "./plans";
 export * from "./accelerators";
+export * from "./bounds";

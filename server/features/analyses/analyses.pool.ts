@@ -1,6 +1,7 @@
 import os from "node:os";
 import { Piscina } from "piscina";
 import { HttpError } from "../../platform/errors";
+import { workerEntry } from "../../platform/worker-entry";
 import type { AnalysisResponse, ResolvedAnalysisRequest } from "../../../shared/schemas/analysis";
 
 /** Thrown when the caller aborted (its client went away) before the pool thread finished. */
@@ -16,7 +17,7 @@ const MAX_QUEUE = 64;
 let pool: Piscina | undefined;
 const getPool = () =>
   (pool ??= new Piscina({
-    filename: new URL("./analyses.worker-boot.mjs", import.meta.url).href,
+    filename: workerEntry(import.meta.url, "analyses.worker"),
     minThreads: 0,
     maxThreads: Math.max(1, Math.min(4, os.availableParallelism() - 1)),
     idleTimeout: 60_000,

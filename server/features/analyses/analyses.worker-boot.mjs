@@ -1,5 +1,5 @@
-// Entry of an analysis pool thread. As for the bound-search worker, Node 20 does not apply `--import tsx` to a
-// worker's entry module, so this plain-JS file registers tsx inside the thread and re-exports the TypeScript task.
+// Entry of an analysis pool thread when running from source (see server/platform/worker-entry.ts): Node 20 does not
+// apply `--import tsx` to a worker's entry module, so this plain-JS file registers tsx and re-exports the task.
 import { register } from "tsx/esm/api";
 
 register();

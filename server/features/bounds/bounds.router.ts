@@ -15,14 +15,14 @@ export const boundsFeature: ApiFeature = {
       access: "signed-in",
       body: baseBoundRequestSchema,
       responses: { 200: baseBoundResponseSchema },
-      handler: async ({ res, body }) => {
+      handler: async ({ deps, res, body }) => {
         const abort = new AbortController();
         // As for the stream: the connection closing before we answered means nobody waits for the result.
         res.on("close", () => {
           if (!res.writableEnded) abort.abort();
         });
         try {
-          return { status: 200, body: await runBaseBound(body, { signal: abort.signal }) };
+          return { status: 200, body: await runBaseBound(deps.db, body, { signal: abort.signal }) };
         } catch (e) {
           if (e instanceof SearchCancelled) return CLIENT_GONE;
           throw e;
@@ -42,9 +42,9 @@ export const boundsFeature: ApiFeature = {
             "Events `progress` (boundProgressEventSchema), then one `result` (as POST /api/bounds/base) or `error` ({ code, message })",
         },
       },
-      handler: async ({ res, body }) => {
+      handler: async ({ deps, res, body }) => {
         const abort = new AbortController();
-        const pending = runBaseBound(body, { signal: abort.signal, onProgress: (p) => send("progress", p) });
+        const pending = runBaseBound(deps.db, body, { signal: abort.signal, onProgress: (p) => send("progress", p) });
         // 'close' before the end means the client went away: stop the worker
         res.on("close", () => {
           if (!res.writableEnded) abort.abort();

@@ -1,129 +1,139 @@
-import { EventEmitter } from "node:events";
-import os from "node:os";
-import { Worker } from "node:worker_threads";
+import { setTimeout as sleep } from "node:timers/promises";
+import type { Db } from "../../db/client";
+import { ENGINE_VERSION } from "../../engine";
 import { HttpError } from "../../platform/errors";
-import type { BaseBoundQuery, BaseBoundResponse, BoundProgress } from "../../../shared/schemas/bounds";
+import type {
+  BaseBoundQuery,
+  BaseBoundResponse,
+  BoundProgress,
+  SmallestBaseResponse,
+} from "../../../shared/schemas/bounds";
+import { SearchCancelled, SEARCH_TIMEOUT_MS, searchOffThread } from "./bounds.pool";
+import {
+  CLAIM_POLL_MS,
+  CLAIM_REFRESH_MS,
+  claim,
+  dropClaim,
+  findKept,
+  keepAnswer,
+  refreshClaim,
+  type SearchKey,
+} from "./bounds.repo";
 
-/** Thrown when the caller aborted (e.g. the stream's client went away); the worker is already terminated. */
-export class SearchCancelled extends Error {
-  constructor() {
-    super("search cancelled");
-  }
-}
-
-export const SEARCH_TIMEOUT_MS = 120_000;
-const MAX_WORKERS = Math.max(2, os.availableParallelism());
-// A plain-JS boot file registers tsx inside the thread, so the TypeScript worker runs under both `node --import tsx` and vitest.
-const WORKER_URL = new URL("./bounds.worker-boot.mjs", import.meta.url);
-
-let liveWorkers = 0;
-/** Workers spawned and not yet exited (tests use it to see that a cancelled search really stopped). */
-export const activeBoundSearches = () => liveWorkers;
-/** "start" once a search's worker thread exists, "exit" once it has exited: tests wait on these, never on the clock. */
-export const boundSearchEvents = new EventEmitter<{ start: []; exit: [] }>();
-
-// Searches beyond the worker limit wait their turn (a short queue) instead of failing at once.
-export const QUEUE_WAIT_MS = 15_000;
-const MAX_QUEUED = 32;
-const waiting: (() => void)[] = [];
-function releaseSlot() {
-  liveWorkers--;
-  waiting.shift()?.();
-}
-function takeSlot(signal?: AbortSignal): Promise<void> {
-  if (liveWorkers < MAX_WORKERS) {
-    liveWorkers++;
-    return Promise.resolve();
-  }
-  if (waiting.length >= MAX_QUEUED)
-    return Promise.reject(new HttpError(503, "busy", "all bound searches are busy; try again shortly"));
-  return new Promise((resolve, reject) => {
-    const go = () => {
-      clearTimeout(timer);
-      signal?.removeEventListener("abort", cancel);
-      liveWorkers++;
-      resolve();
-    };
-    const leave = (e: Error) => {
-      const i = waiting.indexOf(go);
-      if (i >= 0) waiting.splice(i, 1);
-      signal?.removeEventListener("abort", cancel);
-      reject(e);
-    };
-    const cancel = () => {
-      clearTimeout(timer);
-      leave(new SearchCancelled());
-    };
-    const timer = setTimeout(
-      () => leave(new HttpError(503, "busy", "all bound searches are busy; try again shortly")),
-      QUEUE_WAIT_MS,
-    );
-    signal?.addEventListener("abort", cancel, { once: true });
-    waiting.push(go);
-  });
-}
+export { SearchCancelled, SEARCH_TIMEOUT_MS };
+export { activeBoundSearches, boundSearchEvents, boundSearchesStarted, warmBoundPool } from "./bounds.pool";
 
 export interface SearchOptions {
   onProgress?: (p: BoundProgress) => void;
   signal?: AbortSignal;
-  timeoutMs?: number;
 }
 
+/** One computation that several identical questions in this process wait on; aborted when the last one leaves. */
+interface Shared {
+  answer: Promise<SmallestBaseResponse>;
+  stop: AbortController;
+  listeners: Set<(p: BoundProgress) => void>;
+  waiting: number;
+}
+// Per database handle, so two apps in one process (tests playing two instances) keep separate maps like two processes.
+const inflightByDb = new WeakMap<Db, Map<string, Shared>>();
+
 /**
- * Runs one base-bound query in its own worker thread so the event loop keeps serving requests.
- * When every worker is busy the query waits in a short queue (up to QUEUE_WAIT_MS), then answers 503.
+ * Answers a base-bound query. Supported-length scans run in a pool thread. Smallest-base answers are kept in
+ * PostgreSQL: a repeated question is a lookup, identical questions in flight share one computation in this process,
+ * and a claim row makes other instances wait for that computation instead of repeating it.
  */
-export async function runBaseBound(query: BaseBoundQuery, opts: SearchOptions = {}): Promise<BaseBoundResponse> {
+export async function runBaseBound(
+  db: Db,
+  query: BaseBoundQuery,
+  opts: SearchOptions = {},
+): Promise<BaseBoundResponse> {
+  if (query.kind === "supportedLength") return searchOffThread(query, opts);
   if (opts.signal?.aborted) throw new SearchCancelled();
-  await takeSlot(opts.signal);
-  let worker: Worker;
-  try {
-    worker = new Worker(WORKER_URL, { workerData: query });
-  } catch (e) {
-    releaseSlot();
-    throw e;
+  const key: SearchKey = {
+    engineVersion: ENGINE_VERSION,
+    rotaryDim: query.rotaryDim,
+    targetContext: query.targetContext,
+    grid: query.grid,
+  };
+  const kept = await findKept(db, key);
+  if (kept) return kept;
+
+  let inflight = inflightByDb.get(db);
+  if (!inflight) inflightByDb.set(db, (inflight = new Map()));
+  const id = JSON.stringify(key);
+  let shared = inflight.get(id);
+  // A computation whose last waiter left is being torn down: a new question starts afresh.
+  if (!shared || shared.stop.signal.aborted) {
+    const created: Shared = { stop: new AbortController(), listeners: new Set(), waiting: 0, answer: undefined! };
+    created.answer = computeOnce(db, query, key, created);
+    created.answer.catch(() => undefined).finally(() => inflight.get(id) === created && inflight.delete(id));
+    inflight.set(id, (shared = created));
   }
-  worker.once("exit", () => {
-    releaseSlot();
-    boundSearchEvents.emit("exit");
-  });
-  boundSearchEvents.emit("start");
+  return join(shared, opts);
+}
 
+function join(shared: Shared, opts: SearchOptions): Promise<SmallestBaseResponse> {
+  shared.waiting++;
+  if (opts.onProgress) shared.listeners.add(opts.onProgress);
   return new Promise((resolve, reject) => {
-    let settled = false;
-    const settle = (outcome: () => void) => {
-      if (settled) return;
-      settled = true;
-      clearTimeout(timer);
+    let left = false;
+    const leave = () => {
+      if (left) return;
+      left = true;
       opts.signal?.removeEventListener("abort", onAbort);
-      void worker.terminate();
-      outcome();
+      if (opts.onProgress) shared.listeners.delete(opts.onProgress);
+      if (--shared.waiting === 0) shared.stop.abort();
     };
-    const onAbort = () => settle(() => reject(new SearchCancelled()));
-    const timer = setTimeout(
-      () =>
-        settle(() =>
-          reject(
-            new HttpError(
-              503,
-              "search_timeout",
-              `the search took longer than ${(opts.timeoutMs ?? SEARCH_TIMEOUT_MS) / 1000} s`,
-            ),
-          ),
-        ),
-      opts.timeoutMs ?? SEARCH_TIMEOUT_MS,
-    );
+    const onAbort = () => {
+      leave();
+      reject(new SearchCancelled());
+    };
     opts.signal?.addEventListener("abort", onAbort, { once: true });
-
-    worker.on(
-      "message",
-      (msg: { type: string; progress?: BoundProgress; result?: BaseBoundResponse; message?: string }) => {
-        if (msg.type === "progress" && msg.progress) opts.onProgress?.(msg.progress);
-        else if (msg.type === "result" && msg.result) settle(() => resolve(msg.result!));
-        else if (msg.type === "error") settle(() => reject(new Error(`bound search failed: ${msg.message}`)));
+    shared.answer.then(
+      (a) => {
+        leave();
+        resolve(a);
+      },
+      (e) => {
+        leave();
+        reject(e);
       },
     );
-    worker.on("error", (e) => settle(() => reject(e)));
-    worker.on("exit", (code) => settle(() => reject(new Error(`bound search worker exited with code ${code}`))));
   });
+}
+
+async function computeOnce(
+  db: Db,
+  query: BaseBoundQuery,
+  key: SearchKey,
+  shared: Shared,
+): Promise<SmallestBaseResponse> {
+  const signal = shared.stop.signal;
+  const deadline = Date.now() + SEARCH_TIMEOUT_MS;
+  for (;;) {
+    if (signal.aborted) throw new SearchCancelled();
+    const kept = await findKept(db, key);
+    if (kept) return kept;
+    if (await claim(db, key)) {
+      const refresh = setInterval(() => void refreshClaim(db, key).catch(() => undefined), CLAIM_REFRESH_MS);
+      try {
+        const answer = (await searchOffThread(query, {
+          signal,
+          onProgress: (p) => shared.listeners.forEach((l) => l(p)),
+        })) as SmallestBaseResponse;
+        await keepAnswer(db, key, answer);
+        return answer;
+      } catch (e) {
+        await dropClaim(db, key).catch(() => undefined);
+        throw e;
+      } finally {
+        clearInterval(refresh);
+      }
+    }
+    // Another instance is computing this key: look again shortly (its claim goes stale if it dies).
+    if (Date.now() > deadline)
+      throw new HttpError(503, "search_timeout", `the search took longer than ${SEARCH_TIMEOUT_MS / 1000} s`);
+    await sleep(CLAIM_POLL_MS, undefined, { signal }).catch(() => undefined);
+  }
 }

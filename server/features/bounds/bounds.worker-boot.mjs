@@ -1,6 +1,7 @@
-// Entry of the bound-search worker thread. On Node 20, hooks passed as execArgv ["--import", "tsx"] are not applied
-// to a worker's entry module, so this plain-JS file registers tsx inside the thread and then loads the TypeScript worker.
+// Entry of a bound-search pool thread when running from source (see server/platform/worker-entry.ts): Node 20 does
+// not apply `--import tsx` to a worker's entry module, so this plain-JS file registers tsx and re-exports the task.
 import { register } from "tsx/esm/api";
 
 register();
-await import("./bounds.worker.ts");
+const task = await import("./bounds.worker.ts");
+export default task.default;
