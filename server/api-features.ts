@@ -7,7 +7,7 @@ import { usersFeature } from "./features/users";
 import { modelsFeature } from "./features/models";
 import { analysesFeature } from "./features/analyses/analyses.router";
 import { boundsFeature } from "./features/bounds/bounds.router";
-import { plansFeature, plansUsingModel } from "./features/plans";
+import { conformanceFeature, plansFeature, plansUsingModel } from "./features/plans";
 import { tokensFeature } from "./features/tokens";
 import { auditFeature } from "./features/audit/audit.router";
 import { mailFeature } from "./features/mail/mail.router";
@@ -42,6 +42,7 @@ export const SESSION_FEATURES: readonly ApiFeature[] = [
   analysesFeature,
   boundsFeature,
   plansFeature,
+  conformanceFeature,
   tokensFeature,
   auditFeature,
   mailFeature,

@@ -16,6 +16,11 @@ const READ = ["GET", "HEAD"] as const;
  */
 const GRANTS: Record<TokenScope, readonly Grant[]> = {
   "export:read": [{ methods: READ, path: /^\/plans(?:\/|$)/ }],
+  // Probe results only: one POST route, and the plan's check list to read back what was recorded.
+  "conformance:write": [
+    { methods: ["POST"], path: /^\/plans\/\d+\/revisions\/\d+\/conformance-checks$/ },
+    { methods: READ, path: /^\/plans\/\d+\/conformance-checks$/ },
+  ],
 };
 
 export const scopesAllow = (scopes: readonly TokenScope[], method: string, path: string) =>

@@ -6,7 +6,7 @@ import { z } from "zod";
  * or mail, even when the owner is an admin). Later features add members here (e.g. `evidence:write`) together with
  * the routes each one grants in server/http/token-scopes.ts.
  */
-export const TOKEN_SCOPES = ["export:read"] as const;
+export const TOKEN_SCOPES = ["export:read", "conformance:write"] as const;
 export const tokenScopeSchema = z.enum(TOKEN_SCOPES);
 export type TokenScope = z.infer<typeof tokenScopeSchema>;
 export const DEFAULT_TOKEN_SCOPES: TokenScope[] = ["export:read"];
@@ -14,6 +14,7 @@ export const DEFAULT_TOKEN_SCOPES: TokenScope[] = ["export:read"];
 /** Plain-language line per scope for the token page. */
 export const TOKEN_SCOPE_LABELS: Record<TokenScope, string> = {
   "export:read": "Read plans and fetch approved exports",
+  "conformance:write": "Post probe results as conformance checks on plan revisions",
 };
 
 export const createTokenRequestSchema = z.strictObject({

@@ -7,6 +7,7 @@
 import { decisionRequestSchema } from "../../shared/schemas";
 import { sampleProfile } from "../fixtures/profiles";
 import { twoStageRevision } from "../setup/plans";
+import { probeDocument } from "../setup/probe";
 
 export const VERSION_MARK = 987654321;
 
@@ -108,6 +109,7 @@ export function fuzzBases(ids: FuzzIds): Record<string, object[]> {
     "post /api/plans/{id}/revisions/{n}/decisions": [
       { decision: "request_changes", comment: "fuzz", ...(hasHash ? { contentHash: ids.reviewHash } : {}) },
     ],
+    "post /api/plans/{id}/revisions/{n}/conformance-checks": [probeDocument()],
     "post /api/tokens": [{ name: "fuzz @@U@@" }],
     "post /api/budgets/estimate": [
       { model: budgetModel, cluster, ...settings, trainedContext: 4096, targetContext: 32768, growthPoints: 9, stages },

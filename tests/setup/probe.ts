@@ -118,3 +118,20 @@ export function runProbe(args: string[], pythonPath: string | null): ProbeRun {
   const r = spawnSync(PYTHON, ["-S", PROBE_SCRIPT, ...args], { env, encoding: "utf8" });
   return { status: r.status, stdout: r.stdout, stderr: r.stderr };
 }
+
+/** A probe document as the probe writes it, for θ_i = b^(−2i/d) divided by `divide` (bodies for route tests). */
+export function probeDocument(rotaryDim = 128, base = 10000, divide = 1) {
+  const invFreq = Array.from({ length: rotaryDim / 2 }, (_, i) => base ** ((-2 * i) / rotaryDim) / divide);
+  return {
+    probe: "ropewalk-probe/1",
+    library: "transformers",
+    libraryVersion: "4.46.3+stand-in",
+    ropeType: divide === 1 ? "default" : "linear",
+    runningLength: 32768,
+    rotaryDim,
+    attentionFactor: 1,
+    invFreq,
+    planFingerprint: null,
+    readFingerprint: "0".repeat(64),
+  };
+}

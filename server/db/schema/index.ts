@@ -3,3 +3,4 @@ export * from "./models";
 export * from "./plans";
 export * from "./accelerators";
 export * from "./bounds";
+export * from "./conformance";

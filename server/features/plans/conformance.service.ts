@@ -1,0 +1,107 @@
+import type { AppDeps } from "../../deps";
+import { recordAudit } from "../../platform/audit";
+import type { SessionUser } from "../../../shared/schemas";
+import type { ConformanceCheck, ProbeResult } from "../../../shared/schemas/conformance";
+import { mustPlan, mustRevision } from "./plans.service";
+import type { RevisionContent } from "./revision-content";
+import { compareProbe, revisionRotary } from "./conformance-compare";
+import * as repo from "./conformance.repo";
+
+/**
+ * Records a probe result as a conformance check on revision n: compared with the revision's own θ′ and attention
+ * factor, written with its audit event in one transaction (the revision row locked, so a draft edit cannot slip
+ * between the comparison and the record).
+ */
+export async function recordCheck(
+  deps: AppDeps,
+  actor: SessionUser,
+  planId: number,
+  n: number,
+  probe: ProbeResult,
+  via: "session" | "token",
+): Promise<ConformanceCheck> {
+  return deps.db.transaction(async (tx) => {
+    await mustPlan(tx, planId);
+    const rev = await mustRevision(tx, planId, n, true);
+    const content = rev.content as RevisionContent;
+    const rotary = revisionRotary(content.model, content.targetContext, content.method);
+    const result = compareProbe(rotary, probe);
+    const fingerprintMatches = null; // set once revisions carry their rotary fingerprint
+    const at = new Date();
+    const id = await repo.insertCheck(tx, {
+      planId,
+      revisionId: rev.id,
+      contentHash: rev.contentHash,
+      byUserId: actor.id,
+      via,
+      ...result,
+      library: probe.library,
+      libraryVersion: probe.libraryVersion,
+      ropeType: probe.ropeType,
+      runningLength: probe.runningLength,
+      planFingerprint: probe.planFingerprint,
+      readFingerprint: probe.readFingerprint,
+      fingerprintMatches,
+      upload: probe,
+      createdAt: at,
+    });
+    await recordAudit(tx, {
+      actorId: actor.id,
+      action: "conformance.recorded",
+      subjectType: "plan",
+      subjectId: planId,
+      detail: {
+        revision: n,
+        check: id,
+        via,
+        passed: result.passed,
+        maxRelativeError: result.maxRelativeError,
+        worstPair: result.worstPair,
+        library: `${probe.library} ${probe.libraryVersion}`,
+        readFingerprint: probe.readFingerprint,
+      },
+    });
+    return {
+      id,
+      revision: n,
+      contentHash: rev.contentHash,
+      ...result,
+      library: probe.library,
+      libraryVersion: probe.libraryVersion,
+      ropeType: probe.ropeType,
+      runningLength: probe.runningLength,
+      planFingerprint: probe.planFingerprint,
+      readFingerprint: probe.readFingerprint,
+      fingerprintMatches,
+      by: { id: actor.id, name: actor.name },
+      via,
+      at: at.toISOString(),
+    };
+  });
+}
+
+export async function listChecks(deps: AppDeps, planId: number): Promise<{ checks: ConformanceCheck[] }> {
+  await mustPlan(deps.db, planId);
+  const rows = await repo.checksOfPlan(deps.db, planId);
+  return {
+    checks: rows.map(({ check: c, revision, byName }) => ({
+      id: c.id,
+      revision,
+      contentHash: c.contentHash,
+      passed: c.passed,
+      maxRelativeError: c.maxRelativeError,
+      worstPair: c.worstPair,
+      cause: c.cause,
+      library: c.library,
+      libraryVersion: c.libraryVersion,
+      ropeType: c.ropeType,
+      runningLength: c.runningLength,
+      planFingerprint: c.planFingerprint,
+      readFingerprint: c.readFingerprint,
+      fingerprintMatches: c.fingerprintMatches,
+      by: { id: c.byUserId, name: byName },
+      via: c.via,
+      at: c.createdAt.toISOString(),
+    })),
+  };
+}

@@ -1,0 +1,72 @@
+import { z } from "zod";
+import { dbIdSchema } from "./common";
+
+/*
+ * Conformance checks (issue 10): the JSON tools/probe/ropewalk_probe.py writes in the user's environment, uploaded on a
+ * plan revision, and the check Ropewalk records from it. The probe's format is `ropewalk-probe/1` (tools/probe/README.md).
+ */
+
+const hex64 = z.string().regex(/^[0-9a-f]{64}$/, "64 lower-case hex digits (a SHA-256)");
+const text = (max: number) => z.string().trim().min(1).max(max);
+
+/** One probe result, as the probe writes it; unknown keys are dropped. */
+export const probeResultSchema = z
+  .object({
+    probe: z.literal("ropewalk-probe/1", {
+      error: 'expected "ropewalk-probe/1" (a file written by the Ropewalk probe)',
+    }),
+    library: text(80),
+    libraryVersion: text(80),
+    python: z.string().max(40).optional(),
+    ropeType: text(40),
+    readFrom: z.string().max(160).optional(),
+    layerType: z.string().max(80).nullable().optional(),
+    runningLength: z
+      .number()
+      .int()
+      .positive()
+      .max(2 ** 31 - 1),
+    rotaryDim: z
+      .number()
+      .int()
+      .min(2)
+      .max(8192)
+      .refine((d) => d % 2 === 0, "an even number"),
+    attentionFactor: z.number().finite().positive(),
+    invFreq: z.array(z.number().finite().positive()).min(1).max(4096),
+    planFingerprint: hex64.nullable(),
+    readFingerprint: hex64,
+  })
+  .refine((r) => r.invFreq.length * 2 === r.rotaryDim, {
+    path: ["invFreq"],
+    message: "needs rotaryDim / 2 frequencies",
+  });
+export type ProbeResult = z.infer<typeof probeResultSchema>;
+
+/** A recorded check: pass when every θ′ and the attention factor agree with the revision's at float32 tolerance. */
+export const conformanceCheckSchema = z.object({
+  id: dbIdSchema,
+  revision: z.number().int(),
+  /** the revision's content hash when the check was recorded (a draft may change afterwards) */
+  contentHash: z.string(),
+  passed: z.boolean(),
+  /** largest |probe − revision| / |revision| over θ′ and the attention factor; null when the shapes differ */
+  maxRelativeError: z.number().nullable(),
+  /** the pair index with that error; null when it is the attention factor, or nothing could be paired */
+  worstPair: z.number().int().nullable(),
+  cause: z.string(),
+  library: z.string(),
+  libraryVersion: z.string(),
+  ropeType: z.string(),
+  runningLength: z.number().int(),
+  planFingerprint: z.string().nullable(),
+  readFingerprint: z.string(),
+  /** whether the fingerprint the probe was asked to check is this revision's; null when it was given none */
+  fingerprintMatches: z.boolean().nullable(),
+  by: z.object({ id: z.number(), name: z.string() }),
+  via: z.enum(["session", "token"]),
+  at: z.string(),
+});
+export type ConformanceCheck = z.infer<typeof conformanceCheckSchema>;
+export const conformanceCheckListSchema = z.object({ checks: z.array(conformanceCheckSchema) });
+export type ConformanceCheckList = z.infer<typeof conformanceCheckListSchema>;
