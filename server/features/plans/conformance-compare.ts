@@ -71,5 +71,6 @@ export function compareProbe(rev: RevisionRotary, probe: ProbeResult): ProbeComp
       `the probe ran at ${probe.runningLength} tokens, the revision's frequencies are for ${rev.targetContext}`,
     );
   }
-  return { passed, maxRelativeError: max, worstPair, cause: notes.join("; ") };
+  // An error beyond float64's range (a reading near 1e308) is reported as unmeasurable, never as Infinity in JSON.
+  return { passed, maxRelativeError: Number.isFinite(max) ? max : null, worstPair, cause: notes.join("; ") };
 }
