@@ -1,0 +1,182 @@
+import type { CompileInput, CompileResult, TargetArtifact } from "../types";
+import { runMethod } from "../../methods";
+import { writeJsonText, type JsonPath } from "../json-text";
+import { isObj, type Obj } from "./config-view";
+
+/** Which rule set a config patch is written for (the matching readers are read-v4.ts and read-v5.ts). */
+export type HfRules = "early" | "v4" | "v5";
+
+/**
+ * Keys the library's validators type as float (`isinstance(x, float)` in the 4.x validators; v5 still requires it
+ * for attention_factor): written with a decimal point, e.g. `"factor": 8.0`. Lengths stay integers.
+ */
+const FLOAT_KEYS = new Set([
+  "factor",
+  "attention_factor",
+  "beta_fast",
+  "beta_slow",
+  "mscale",
+  "mscale_all_dim",
+  "low_freq_factor",
+  "high_freq_factor",
+  "rope_theta",
+  "long_factor",
+  "short_factor",
+  "partial_rotary_factor",
+]);
+export const isFloatKey = (path: JsonPath) => {
+  const key = [...path].reverse().find((p) => typeof p === "string");
+  return key !== undefined && FLOAT_KEYS.has(key);
+};
+
+/** Keys of an old block that the new one does not set become null in the patch (RFC 7396: remove). */
+function clearStale(existing: unknown, block: Obj, keep: string[] = []): Obj {
+  const out: Obj = {};
+  if (isObj(existing)) for (const k of Object.keys(existing)) if (!(k in block) && !keep.includes(k)) out[k] = null;
+  return { ...out, ...block };
+}
+
+interface Placed {
+  /** the scaling keys (rope_type first), or null for plain RoPE */
+  block: Obj | null;
+  base: number;
+  maxPos: number;
+  /** top-level original_max_position_embeddings to write (longrope on configs that carry one) */
+  topOriginal?: number;
+  unsupported?: { cause: string; workaround: string };
+}
+
+/** Where each method's numbers go for one rule set: the heart of "put the original length where that version reads it". */
+function place(input: CompileInput, rules: HfRules): Placed {
+  const { plan, config } = input;
+  const L = plan.trainedContext;
+  const target = plan.targetContext;
+  const ctx = { d: plan.rotaryDim, base: plan.base, trainedContext: L, targetContext: target };
+  const out = runMethod(ctx, input.method);
+  const p = out.params as Record<string, unknown>;
+  const ratio = target / L;
+  const hasTopOriginal = typeof config.original_max_position_embeddings === "number";
+  switch (out.params.method) {
+    case "default":
+      return { block: null, base: plan.base, maxPos: target };
+    case "base":
+    case "ntk":
+      return { block: null, base: out.effectiveBase!, maxPos: target };
+    case "linear":
+      return { block: { rope_type: "linear", factor: p.factor }, base: plan.base, maxPos: target };
+    case "dynamic":
+      // Every line uses max_position_embeddings as the L of the dynamic formula, so it keeps the trained length.
+      return { block: { rope_type: "dynamic", factor: p.factor }, base: plan.base, maxPos: L };
+    case "llama3":
+      return {
+        block: {
+          rope_type: "llama3",
+          factor: p.factor,
+          low_freq_factor: p.lowFreqFactor,
+          high_freq_factor: p.highFreqFactor,
+          original_max_position_embeddings: L,
+        },
+        base: plan.base,
+        maxPos: target,
+      };
+    case "yarn":
+      return placeYarn(p, rules, L, target, ratio, plan.base, out.attentionFactor, "attentionFactor" in input.method);
+    case "longrope": {
+      const block: Obj = { rope_type: "longrope", long_factor: p.longFactor, short_factor: p.shortFactor };
+      if (rules === "v5") {
+        return {
+          block: { ...block, factor: ratio, original_max_position_embeddings: L },
+          base: plan.base,
+          maxPos: target,
+          topOriginal: hasTopOriginal ? L : undefined,
+        };
+      }
+      // 4.x reads the original length only from the top level; without one it takes max_position_embeddings.
+      if (hasTopOriginal) return { block, base: plan.base, maxPos: target, topOriginal: L };
+      return { block: { ...block, factor: ratio }, base: plan.base, maxPos: L };
+    }
+  }
+}
+
+function placeYarn(
+  p: Record<string, unknown>,
+  rules: HfRules,
+  L: number,
+  target: number,
+  ratio: number,
+  base: number,
+  a: number,
+  explicitA: boolean,
+): Placed {
+  const factor = p.factor as number;
+  const block: Obj = { rope_type: "yarn", factor, beta_fast: p.betaFast, beta_slow: p.betaSlow };
+  if (rules === "early") {
+    // 4.45 reads the ramp length from max_position_embeddings and knows neither truncate nor mscale: the attention
+    // factor goes in explicitly and max_position_embeddings holds the trained length.
+    const placed: Placed = { block: { ...block, attention_factor: a }, base, maxPos: L };
+    if (p.truncate === false) {
+      placed.unsupported = {
+        cause:
+          "the 4.4x rules always round the ramp ends to whole pairs; this plan keeps them fractional (truncate: false)",
+        workaround: "export for transformers-v4 (4.55 or later) or transformers-v5, or plan with truncate on",
+      };
+    }
+    return placed;
+  }
+  if (p.truncate === false) block.truncate = false;
+  if (p.mscale !== undefined) block.mscale = p.mscale;
+  if (p.mscaleAllDim !== undefined) block.mscale_all_dim = p.mscaleAllDim;
+  // An attention factor the plan set by hand is written; one that follows from mscale or g(s) is left to the reader.
+  const fromFormula = p.mscale && p.mscaleAllDim ? true : a === (factor <= 1 ? 1 : 0.1 * Math.log(factor) + 1);
+  if (explicitA || !fromFormula) block.attention_factor = a;
+  // 4.51+ replaces the factor by max_position_embeddings / original when the block names the original length, and
+  // v5 warns when the two disagree: a factor other than target/trained keeps max_position_embeddings at the trained
+  // length (the ramp then reads it as the original length, and the implicit ratio is 1).
+  if (factor === ratio) return { block: { ...block, original_max_position_embeddings: L }, base, maxPos: target };
+  return { block: rules === "v5" ? { ...block, original_max_position_embeddings: L } : block, base, maxPos: L };
+}
+
+/** The merge patch for the 4.x layout: `rope_scaling` beside a top-level `rope_theta`. */
+export function compileV4(input: CompileInput, rules: "early" | "v4"): CompileResult {
+  const placed = place(input, rules);
+  const patch: Obj = {
+    rope_theta: placed.base,
+    max_position_embeddings: placed.maxPos,
+    rope_scaling: placed.block === null ? null : clearStale(input.config.rope_scaling, placed.block),
+  };
+  if (placed.topOriginal !== undefined) patch.original_max_position_embeddings = placed.topOriginal;
+  return result(patch, placed);
+}
+
+/** The merge patch for the v5 layout: everything inside `rope_parameters`, nested by layer type when the config has them. */
+export function compileV5(input: CompileInput): CompileResult {
+  const placed = place(input, "v5");
+  const { config } = input;
+  const block: Obj = { ...(placed.block ?? { rope_type: "default" }), rope_theta: placed.base };
+  const layerTypes = Array.isArray(config.layer_types) ? [...new Set(config.layer_types.map(String))] : [];
+  const existing = isObj(config.rope_parameters) ? config.rope_parameters : {};
+  // partial_rotary_factor lives inside rope_parameters in v5 and is the model's, not the plan's: it is kept.
+  const keep = ["partial_rotary_factor"];
+  let rp: Obj;
+  if (layerTypes.length) {
+    const nested = layerTypes.every((t) => isObj(existing[t]));
+    rp = nested ? {} : clearStale(existing, {}, layerTypes);
+    for (const t of layerTypes) rp[t] = clearStale(nested ? existing[t] : {}, block, keep);
+  } else {
+    rp = clearStale(existing, block, keep);
+  }
+  const patch: Obj = { rope_parameters: rp, max_position_embeddings: placed.maxPos };
+  // A config.json that still has rope_scaling would win over rope_parameters when v5 converts it.
+  if ("rope_scaling" in config) patch.rope_scaling = null;
+  if (placed.topOriginal !== undefined) patch.original_max_position_embeddings = placed.topOriginal;
+  return result(patch, placed);
+}
+
+function result(patch: Obj, placed: Placed): CompileResult {
+  const artifact: TargetArtifact = {
+    kind: "config-merge-patch",
+    content: patch,
+    text: writeJsonText(patch, isFloatKey),
+  };
+  return placed.unsupported ? { ok: false, ...placed.unsupported, artifact } : { ok: true, artifact };
+}
