@@ -1,11 +1,11 @@
 import type { NextFunction, Request, Response } from "express";
 import type { Role, SessionUser } from "../../shared/schemas";
-import { Forbidden, Unauthorized } from "../platform/errors";
+import { Forbidden, NotSignedIn } from "../platform/errors";
 
 /** The signed-in user, set by the session loader (or a bearer token) on res.locals.user. */
 export function currentUser(res: Response): SessionUser {
   const user = res.locals.user as SessionUser | undefined;
-  if (!user) throw new Unauthorized();
+  if (!user) throw new NotSignedIn();
   return user;
 }
 

@@ -1,6 +1,6 @@
 import type { NextFunction, Request, Response } from "express";
 import type { AppDeps } from "../deps";
-import { HttpError, Unauthorized } from "../platform/errors";
+import { AppError, NotSignedIn } from "../platform/errors";
 import { activeSessionUser, liveToken } from "../platform/identity";
 import { onlyReads, scopesAllow } from "./token-scopes";
 
@@ -17,21 +17,21 @@ export function bearerAuth(deps: AppDeps) {
     const m = /^Bearer +([A-Za-z0-9_\-.~+/]+=*) *$/i.exec(header);
     if (!m) {
       return next(
-        new HttpError(401, "unauthorized", "the Authorization header is malformed", {
+        new AppError("unauthenticated", "unauthorized", "the Authorization header is malformed", {
           authorization: 'expected "Bearer <token>"',
         }),
       );
     }
     const token = await liveToken(deps.db, m[1]);
     const user = token ? await activeSessionUser(deps.db, token.userId) : undefined;
-    if (!token || !user) return next(new Unauthorized("the API token is unknown, revoked or its owner is deactivated"));
+    if (!token || !user) return next(new NotSignedIn("the API token is unknown, revoked or its owner is deactivated"));
     if (!scopesAllow(token.scopes, req.method, req.path)) {
       if (onlyReads(token.scopes) && req.method !== "GET" && req.method !== "HEAD") {
-        return next(new HttpError(403, "read_only_token", "this API token is read-only"));
+        return next(new AppError("forbidden", "read_only_token", "this API token is read-only"));
       }
       return next(
-        new HttpError(
-          403,
+        new AppError(
+          "forbidden",
           "token_scope",
           `this API token's scopes (${token.scopes.join(", ")}) do not allow ${req.method} /api${req.path}`,
         ),

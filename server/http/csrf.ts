@@ -1,6 +1,6 @@
 import crypto from "node:crypto";
 import type { NextFunction, Request, Response } from "express";
-import { HttpError } from "../platform/errors";
+import { AppError } from "../platform/errors";
 import { csrfFromCookie } from "./csrf-cookie";
 
 const SAFE = new Set(["GET", "HEAD", "OPTIONS"]);
@@ -11,7 +11,7 @@ const sameToken = (a: string, b: string) => {
   return x.length === y.length && crypto.timingSafeEqual(x, y);
 };
 
-const refuse = (message: string) => new HttpError(403, "csrf", message);
+const refuse = (message: string) => new AppError("forbidden", "csrf", message);
 
 /**
  * Where a state-changing request comes from. Browsers send `Origin` on every POST/PUT/PATCH/DELETE (Fetch standard,

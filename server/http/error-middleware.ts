@@ -1,6 +1,7 @@
 import type { NextFunction, Request, Response } from "express";
 import { ZodError } from "zod";
-import { HttpError, TooManyRequests } from "../platform/errors";
+import { AppError, RateLimited } from "../platform/errors";
+import { httpStatusOf } from "./error-status";
 import { issuesToFields } from "../platform/validate";
 import { isDatabaseUnavailable } from "../db/errors";
 
@@ -13,8 +14,9 @@ export function errorMiddleware(err: unknown, req: Request, res: Response, _next
   const send = (status: number, code: string, message: string, fields?: Record<string, string>) =>
     res.status(status).json({ error: fields ? { code, message, fields } : { code, message } });
 
-  if (err instanceof TooManyRequests) res.set("Retry-After", String(err.retryAfterSeconds));
-  if (err instanceof HttpError) return send(err.status, err.code, err.message, err.fields);
+  if (err instanceof RateLimited && err.retryAfterSeconds !== undefined)
+    res.set("Retry-After", String(err.retryAfterSeconds));
+  if (err instanceof AppError) return send(httpStatusOf(err), err.code, err.message, err.fields);
   if (err instanceof ZodError) {
     const fields = issuesToFields(err);
     return send(400, "invalid", `invalid input: ${Object.keys(fields).join(", ")}`, fields);

@@ -1,4 +1,4 @@
-import { TooManyRequests } from "../../platform/errors";
+import { RateLimited } from "../../platform/errors";
 
 /** Large analyses one user may have running at once; more answer 429 so one client cannot take every pool thread. */
 export const HEAVY_ANALYSES_PER_USER = 2;
@@ -11,7 +11,7 @@ const running = new Map<number, number>();
 export function takeHeavySlot(userId: number): () => void {
   const n = running.get(userId) ?? 0;
   if (n >= HEAVY_ANALYSES_PER_USER) {
-    throw new TooManyRequests(
+    throw new RateLimited(
       `you already have ${n} large analyses running; wait for one to finish`,
       HEAVY_RETRY_AFTER_SECONDS,
       "too_many_analyses",

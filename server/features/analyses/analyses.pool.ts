@@ -1,6 +1,6 @@
 import os from "node:os";
 import { Piscina } from "piscina";
-import { HttpError } from "../../platform/errors";
+import { Unavailable } from "../../platform/errors";
 import { workerEntry } from "../../platform/worker-entry";
 import type { AnalysisResponse, ResolvedAnalysisRequest } from "../../../shared/schemas/analysis";
 
@@ -34,7 +34,7 @@ export async function analyseOffThread(
   signal?: AbortSignal,
 ): Promise<AnalysisResponse> {
   const p = getPool();
-  if (p.queueSize >= MAX_QUEUE) throw new HttpError(503, "busy", "the analysis workers are busy; try again shortly");
+  if (p.queueSize >= MAX_QUEUE) throw new Unavailable("busy", "the analysis workers are busy; try again shortly");
   offloaded++;
   try {
     return (await p.run(request, { signal })) as AnalysisResponse;

@@ -1,12 +1,12 @@
 import type { Request, RequestHandler, Response } from "express";
 import { rateLimit, ipKeyGenerator } from "express-rate-limit";
 import type { AppDeps } from "../../deps";
-import { HttpError } from "../../platform/errors";
+import { RateLimited } from "../../platform/errors";
 
 // Counts live in express-rate-limit's in-process memory store unless `deps.limiterStore` hands out a shared one
 // (a later change moves them into PostgreSQL); each limiter asks for its store by name.
 const tooMany = (what: string) =>
-  new HttpError(429, "rate_limited", `too many ${what}; wait a few minutes and try again`);
+  new RateLimited(`too many ${what}; wait a few minutes and try again`, undefined, "rate_limited");
 const emailOf = (req: Request) =>
   String((req.body as { email?: unknown } | undefined)?.email ?? "")
     .trim()

@@ -1,6 +1,6 @@
 import type { AppDeps } from "../../deps";
 import { optionalUser } from "../../http/auth";
-import { HttpError } from "../../platform/errors";
+import { AppError } from "../../platform/errors";
 import { route, type ApiFeature } from "../../http/route";
 import { noStore } from "../../http/no-store";
 import { destroySession, newCsrfToken, regenerate, saveSession, SESSION_COOKIE } from "../../http/session";
@@ -34,9 +34,14 @@ export const authFeature: ApiFeature = {
       handler: async ({ deps, req, res }) => {
         // A bearer-token request has no session (bearerAuth skips the session middleware), so there is none to describe.
         if (res.locals.viaToken) {
-          throw new HttpError(400, "no_session", "API tokens carry no session; this route is for browser sign-in", {
-            authorization: "send no bearer token here",
-          });
+          throw new AppError(
+            "invalid",
+            "no_session",
+            "API tokens carry no session; this route is for browser sign-in",
+            {
+              authorization: "send no bearer token here",
+            },
+          );
         }
         const user = optionalUser(res) ?? null;
         if (user && req.session.userId) {

@@ -1,6 +1,6 @@
 import bcrypt from "bcryptjs";
 import type { AppDeps } from "../../deps";
-import { HttpError } from "../../platform/errors";
+import { AppError } from "../../platform/errors";
 import { recordAudit } from "../../platform/audit";
 import { findUserByEmail } from "../users";
 import { toSessionUser } from "../../platform/identity";
@@ -14,9 +14,9 @@ function dummyHash(cost: number): Promise<string> {
   return hash;
 }
 
-export class InvalidCredentials extends HttpError {
+export class InvalidCredentials extends AppError {
   constructor() {
-    super(401, "invalid_credentials", "e-mail or password is wrong");
+    super("unauthenticated", "invalid_credentials", "e-mail or password is wrong");
   }
 }
 

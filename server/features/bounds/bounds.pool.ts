@@ -2,7 +2,7 @@ import { EventEmitter } from "node:events";
 import os from "node:os";
 import { MessageChannel } from "node:worker_threads";
 import { Piscina } from "piscina";
-import { HttpError } from "../../platform/errors";
+import { Unavailable } from "../../platform/errors";
 import { workerEntry } from "../../platform/worker-entry";
 import type { BaseBoundQuery, BaseBoundResponse, BoundProgress } from "../../../shared/schemas/bounds";
 import type { BoundTask } from "./bounds.worker";
@@ -57,7 +57,7 @@ export interface PoolSearchOptions {
 export async function searchOffThread(query: BaseBoundQuery, opts: PoolSearchOptions = {}): Promise<BaseBoundResponse> {
   if (opts.signal?.aborted) throw new SearchCancelled();
   const p = getPool();
-  if (p.queueSize >= MAX_QUEUE) throw new HttpError(503, "busy", "all bound searches are busy; try again shortly");
+  if (p.queueSize >= MAX_QUEUE) throw new Unavailable("busy", "all bound searches are busy; try again shortly");
   const timeoutMs = opts.timeoutMs ?? SEARCH_TIMEOUT_MS;
   const timeout = AbortSignal.timeout(timeoutMs);
   const signal = opts.signal ? AbortSignal.any([opts.signal, timeout]) : timeout;
@@ -70,8 +70,7 @@ export async function searchOffThread(query: BaseBoundQuery, opts: PoolSearchOpt
     return await p.run({ query, progress: port2 }, { transferList: [port2], signal });
   } catch (e) {
     if (opts.signal?.aborted) throw new SearchCancelled();
-    if (timeout.aborted)
-      throw new HttpError(503, "search_timeout", `the search took longer than ${timeoutMs / 1000} s`);
+    if (timeout.aborted) throw new Unavailable("search_timeout", `the search took longer than ${timeoutMs / 1000} s`);
     throw e;
   } finally {
     port1.close();

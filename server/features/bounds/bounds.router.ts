@@ -1,4 +1,4 @@
-import { HttpError } from "../../platform/errors";
+import { AppError } from "../../platform/errors";
 import { route, CLIENT_GONE, type ApiFeature } from "../../http/route";
 import { baseBoundRequestSchema, baseBoundResponseSchema } from "../../../shared/schemas/bounds";
 import { runBaseBound, SearchCancelled } from "./bounds.service";
@@ -62,7 +62,7 @@ export const boundsFeature: ApiFeature = {
           send("result", await pending);
         } catch (e) {
           if (e instanceof SearchCancelled) return CLIENT_GONE;
-          const known = e instanceof HttpError;
+          const known = e instanceof AppError;
           if (!known) console.error("[bounds] stream search failed:", e);
           send("error", {
             code: known ? e.code : "internal",

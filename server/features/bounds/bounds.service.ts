@@ -1,7 +1,7 @@
 import { setTimeout as sleep } from "node:timers/promises";
 import type { Db } from "../../db/client";
 import { ENGINE_VERSION } from "../../engine";
-import { HttpError } from "../../platform/errors";
+import { Unavailable } from "../../platform/errors";
 import type {
   BaseBoundQuery,
   BaseBoundResponse,
@@ -133,7 +133,7 @@ async function computeOnce(
     }
     // Another instance is computing this key: look again shortly (its claim goes stale if it dies).
     if (Date.now() > deadline)
-      throw new HttpError(503, "search_timeout", `the search took longer than ${SEARCH_TIMEOUT_MS / 1000} s`);
+      throw new Unavailable("search_timeout", `the search took longer than ${SEARCH_TIMEOUT_MS / 1000} s`);
     await sleep(CLAIM_POLL_MS, undefined, { signal }).catch(() => undefined);
   }
 }

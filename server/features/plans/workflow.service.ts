@@ -1,5 +1,5 @@
 import type { AppDeps } from "../../deps";
-import { Conflict, Forbidden, HttpError } from "../../platform/errors";
+import { AppError, Conflict, Forbidden } from "../../platform/errors";
 import { hasRole } from "../../platform/roles";
 import { recordAudit } from "../../platform/audit";
 import type { SessionUser } from "../../../shared/schemas";
@@ -97,8 +97,8 @@ export async function decide(
     if (rev.state !== "in_review") throw wrongState(n, rev.state, "in_review");
     // The approver signs what they read; content changed since (withdraw, edit, resubmit) is not what they saw.
     if (input.contentHash !== rev.contentHash) {
-      throw new HttpError(
-        409,
+      throw new AppError(
+        "conflict",
         "hash_mismatch",
         `revision ${n} changed since you read it: you saw ${input.contentHash.slice(0, 12)}…, it is now ${rev.contentHash.slice(0, 12)}…; reopen it and read it again`,
         { contentHash: `current is ${rev.contentHash}` },

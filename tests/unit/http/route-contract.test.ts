@@ -9,7 +9,8 @@ import { z } from "zod";
 import { afterEach, describe, expect, it, vi } from "vitest";
 import type { NextFunction, Request, Response } from "express";
 import { mountFeature, ResponseMismatch, route, type ApiFeature } from "../../../server/http/route";
-import { HttpError } from "../../../server/platform/errors";
+import { AppError } from "../../../server/platform/errors";
+import { httpStatusOf } from "../../../server/http/error-status";
 import type { AppDeps } from "../../../server/deps";
 
 const thing = z.object({ id: z.number(), state: z.enum(["draft", "approved"]) });
@@ -55,8 +56,10 @@ function appFor(env: "test" | "development" | "production") {
   app.use(feature.prefix, mountFeature(feature, { config: { env } } as AppDeps));
   app.use((err: unknown, _req: Request, res: Response, _next: NextFunction) => {
     caught.push(err);
-    if (err instanceof HttpError)
-      return res.status(err.status).json({ error: { code: err.code, message: err.message, fields: err.fields } });
+    if (err instanceof AppError)
+      return res
+        .status(httpStatusOf(err))
+        .json({ error: { code: err.code, message: err.message, fields: err.fields } });
     res.status(500).json({ error: { code: "internal", message: "failed" } });
   });
   return app;
