@@ -1,6 +1,6 @@
 import type { AppDeps } from "../../deps";
 import type { Executor } from "../../db/client";
-import { Conflict, HttpError, Invalid, NotFound } from "../../platform/errors";
+import { AppError, Conflict, Invalid, NotFound } from "../../platform/errors";
 import { parseOr400 } from "../../platform/validate";
 import { findHostile, MAX_JSON_DEPTH } from "../../platform/hostile";
 import { recordAudit } from "../../platform/audit";
@@ -212,7 +212,7 @@ export async function importConfig(
   try {
     parsed = parseModelConfig(text, file.originalname);
   } catch (e) {
-    if (e instanceof ConfigImportError) throw new HttpError(400, e.code, e.message, e.fields);
+    if (e instanceof ConfigImportError) throw new AppError("invalid", e.code, e.message, e.fields);
     throw e;
   }
   const profile = { ...parsed.profile, ...overrides };
