@@ -15,8 +15,6 @@ const ELEMENTS = [
   { type: "client-feature", pattern: "client/src/features/*", capture: ["feature"] },
   { type: "client-shared", pattern: ["client/src/components", "client/src/lib", "client/src/config"] },
   { type: "server-engine", pattern: "server/engine" },
-  // A feature's public face (index.ts) is its own element, so other features can be let in there and nowhere else.
-  { type: "server-feature-face", pattern: "server/features/*/index.ts", mode: "file", capture: ["feature"] },
   { type: "server-feature", pattern: "server/features/*", capture: ["feature"] },
   { type: "server-http", pattern: "server/http" },
   { type: "server-platform", pattern: "server/platform" },
@@ -24,9 +22,15 @@ const ELEMENTS = [
   { type: "shared", pattern: "shared" },
 ];
 
+/**
+ * Files with a role inside their element (plugin v7 file descriptors, which replace v6's `mode: "file"` elements):
+ * a feature's public face (index.ts) is the one file of a server feature that other features may import.
+ */
+const FILES = [{ category: "feature-face", pattern: "server/features/*/index.ts" }];
+
 const to = (...types) => ({ to: { element: { types: { anyOf: types } } } });
 const client = ["client-app", "client-feature", "client-shared"];
-const server = ["server", "server-engine", "server-feature", "server-feature-face", "server-http", "server-platform"];
+const server = ["server", "server-engine", "server-feature", "server-http", "server-platform"];
 
 const POLICIES = [
   // Client: shared UI and lib → features → app routes, never back. Imports inside one feature folder
@@ -74,21 +78,23 @@ const POLICIES = [
     message: "client code may not import server code; share contracts through shared/",
   },
   // Files inside one feature folder are internal to its element, so any server-feature → server-feature import crosses
-  // features: it must go through the other feature's index.ts.
+  // features: it must go through the other feature's index.ts (the file the `feature-face` descriptor names).
   {
-    from: { element: { types: { anyOf: ["server-feature", "server-feature-face"] } } },
+    from: { element: { type: "server-feature" } },
     disallow: [{ to: { element: { type: "server-feature", captured: { feature: "!{{ from.captured.feature }}" } } } }],
     message: "import another server feature only through its index.ts",
   },
+  // A later policy wins over an earlier one: a feature's face is let back in.
+  { from: { element: { type: "server-feature" } }, allow: [{ to: { file: { categories: "feature-face" } } }] },
   // The web layer (middleware) and the platform layer (audit, errors, identity) sit below every feature.
   {
     from: { element: { type: "server-http" } },
-    disallow: [to("server-feature", "server-feature-face")],
+    disallow: [to("server-feature")],
     message: "server/http may not import features; put shared pieces in server/platform",
   },
   {
     from: { element: { type: "server-platform" } },
-    disallow: [to("server-feature", "server-feature-face", "server-http")],
+    disallow: [to("server-feature", "server-http")],
     message: "server/platform may not import features or server/http",
   },
 ];
@@ -142,6 +148,7 @@ export default defineConfig(
     plugins: { boundaries },
     settings: {
       "boundaries/elements": ELEMENTS,
+      "boundaries/files": FILES,
       // The TypeScript resolver follows tsconfig.json's paths, so `@/` and `@shared/` imports meet the same walls.
       "import/resolver": { typescript: { project: "tsconfig.json" } },
       "boundaries/legacy-templates": false,
