@@ -11,8 +11,10 @@ import { migrateDatabase, migrationUrl } from "../server/db/migrate";
 import { DEMO_LAB, DEMO_PASSWORD, DEMO_USERS, seedDemo } from "../server/db/seed";
 import { startServer } from "../server/index";
 import { startMailSink } from "../server/mailer/sink";
+import { projectRoot } from "../server/platform/project-root";
 
-const root = path.resolve(import.meta.dirname, "..");
+// The same folder whether this runs from source or from the bundle in dist/server (scripts/launch.mjs).
+const root = projectRoot();
 
 function portInUse(port: number, host: string) {
   return new Promise<boolean>((resolve) => {

@@ -4,8 +4,9 @@ import { migrate } from "drizzle-orm/node-postgres/migrator";
 import type { Config } from "../config";
 import { createDb, MIGRATION_DB_TIMEOUTS, type Db } from "./client";
 import { grantAppRole, roleOfUrl } from "./grants";
+import { projectRoot } from "../platform/project-root";
 
-export const MIGRATIONS_DIR = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "../../migrations");
+export const MIGRATIONS_DIR = path.join(projectRoot(), "migrations");
 
 /** Every database (start, tests, production) is built by running migrations/ and nothing else. */
 export async function runMigrations(db: Db, migrationsFolder = MIGRATIONS_DIR) {
