@@ -9,6 +9,7 @@ import { budgetSection } from "./report-budget";
 import type { RevisionContent } from "./revision-content";
 import { checkRevision } from "./integrity";
 import { signingKey } from "./signing";
+import { layeredExport } from "./group-export";
 
 export const EXPORT_CAUTION =
   "Estimates, not guarantees: this patch is what was signed; the extension is confirmed only by long-context evaluations of the tuned model.";
@@ -92,6 +93,7 @@ export async function exportRevision(
     method: content.method,
     config: content.results.final.patch,
     attentionFactor: content.results.final.attentionFactor,
+    ...layeredExport(content),
     keyId: c.keyId,
     // Each signature covers the RFC 8785 canonical JSON of its payload; README "Verifying an export offline".
     signedBy: decisions.map((d) => ({

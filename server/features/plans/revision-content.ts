@@ -8,10 +8,13 @@ import {
   type RevisionValues,
   type StageResult,
   type Bands,
+  type ModelShape,
+  type LayerGroup,
 } from "../../../shared/schemas";
 import type { ModelRow } from "../models";
 import type { ModelSnapshot, RevisionContent } from "../../../shared/schemas/plans";
 import { rotaryShapeOf } from "../../../shared/profile-shapes";
+import { groupMethodIssues, groupResults } from "./group-results";
 
 /**
  * The profile values a revision freezes (later edits of the profile do not change a revision) and the content itself:
@@ -34,6 +37,8 @@ export const snapshotOf = (m: ModelRow): ModelSnapshot => ({
   parameters: m.parameters,
   parametersTotal: m.parametersTotal,
   bytesPerElement: m.bytesPerElement,
+  // Only layered models carry their groups, so a single-group snapshot (and its content hash) is as before.
+  ...(Array.isArray(m.layerGroups) && m.layerGroups.length > 1 ? { layerGroups: m.layerGroups as LayerGroup[] } : {}),
 });
 
 /** Model-dependent rules for the plan target and every stage, reported on the field to fix. */
@@ -48,6 +53,7 @@ export function checkAgainstModel(model: ModelSnapshot, v: RevisionValues) {
   };
   add("", v.targetContext, v.method);
   v.stages.forEach((s, i) => add(`stages.${i}`, s.targetContext, s.method));
+  Object.assign(fields, groupMethodIssues(model, v));
   v.acceptance.forEach((a, i) => {
     if (a.contextLength > v.targetContext)
       fields[`acceptance.${i}.contextLength`] = `beyond the plan's target (${v.targetContext})`;
@@ -56,8 +62,9 @@ export function checkAgainstModel(model: ModelSnapshot, v: RevisionValues) {
     throw new Invalid(`the revision does not fit the model: ${Object.keys(fields).join(", ")}`, fields);
 }
 
-function stageResult(model: ModelSnapshot, target: number, method: MethodParams, bands?: Bands) {
-  const a = analyse({ model: rotaryShapeOf(model), targetContext: target, methods: [method], bands });
+/** The engine's result for one rotary shape, target and method, in the stored form. */
+export function stageResult(shape: ModelShape, target: number, method: MethodParams, bands?: Bands) {
+  const a = analyse({ model: shape, targetContext: target, methods: [method], bands });
   const m = a.methods[0];
   const idx = (f: "unseenAngles" | "compressedResolution" | "exceedsTrainedWindow") =>
     m.pairs.filter((p) => p[f]).map((p) => p.index);
@@ -82,7 +89,8 @@ function stageResult(model: ModelSnapshot, target: number, method: MethodParams,
 /** Runs the engine for the plan target and each stage; the results are frozen into the content. */
 export function buildContent(model: ModelSnapshot, v: RevisionValues): RevisionContent {
   checkAgainstModel(model, v);
-  const final = stageResult(model, v.targetContext, v.method, v.bands);
+  const final = stageResult(rotaryShapeOf(model), v.targetContext, v.method, v.bands);
+  const groups = groupResults(model, v, final.result, stageResult);
   const { budget: _inputs, ...rest } = v;
   return {
     ...rest,
@@ -98,7 +106,8 @@ export function buildContent(model: ModelSnapshot, v: RevisionValues): RevisionC
         complete: final.analysis.baseSupport.complete,
       },
       final: final.result,
-      stages: v.stages.map((s) => stageResult(model, s.targetContext, s.method, v.bands).result),
+      stages: v.stages.map((s) => stageResult(rotaryShapeOf(model), s.targetContext, s.method, v.bands).result),
+      ...(groups ? { groups } : {}),
     },
   };
 }

@@ -25,6 +25,17 @@ export const stageSchema = z.strictObject({
 export type Stage = z.infer<typeof stageSchema>;
 export type StageInput = z.input<typeof stageSchema>;
 
+/**
+ * The method for one layer group other than the scaled one (shared/layer-groups.ts scaledGroupIndex), named by the
+ * group's kind. A group not listed keeps its trained frequencies: local-window layers stay as trained by default.
+ */
+export const groupMethodSchema = z.strictObject({
+  kind: z.string().trim().min(1).max(80),
+  method: methodParamsSchema,
+});
+export type GroupMethod = z.infer<typeof groupMethodSchema>;
+const groupMethodsSchema = z.array(groupMethodSchema).max(64);
+
 export const COMPARISONS = [">=", ">", "<=", "<"] as const;
 export const acceptanceCriterionSchema = z.strictObject({
   evaluation: z.string().trim().min(1).max(200),
@@ -43,6 +54,7 @@ export const MAX_STAGES = 32;
 const revisionFields = {
   targetContext: lengthSchema,
   method: methodParamsSchema,
+  groupMethods: groupMethodsSchema.optional(),
   bands: bandsSchema.optional(),
   stages: z.array(stageSchema).max(MAX_STAGES, `at most ${MAX_STAGES} stages`).default([]),
   acceptance: z.array(acceptanceCriterionSchema).max(50).default([]),
@@ -67,6 +79,7 @@ export const updateRevisionRequestSchema = z.strictObject({
   version: dbIdSchema,
   targetContext: revisionFields.targetContext.optional(),
   method: methodParamsSchema.optional(),
+  groupMethods: groupMethodsSchema.optional(),
   bands: bandsSchema.optional(),
   stages: z.array(stageSchema).max(MAX_STAGES, `at most ${MAX_STAGES} stages`).optional(),
   acceptance: z.array(acceptanceCriterionSchema).max(50).optional(),

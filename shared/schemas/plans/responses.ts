@@ -1,9 +1,11 @@
 import { z } from "zod";
 import { bandsSchema, configPatchSchema, methodParamsSchema } from "../analysis";
 import { revisionBudgetSchema } from "../budget";
+import { layerGroupSchema } from "../models";
 import {
   acceptanceCriterionSchema,
   decisionSchema,
+  groupMethodSchema,
   revisionStateSchema,
   stageResultSchema,
   stageSchema,
@@ -96,12 +98,31 @@ export const modelSnapshotSchema = z.object({
   parameters: z.number(),
   parametersTotal: z.number().nullable(),
   bytesPerElement: z.number(),
+  /** The profile's layer groups, frozen with it; only present when the model has more than one. */
+  layerGroups: z.array(layerGroupSchema).optional(),
 });
 export type ModelSnapshot = z.infer<typeof modelSnapshotSchema>;
+
+/**
+ * One layer group's frozen result: which layers, with which base and rotary dimension, the method the plan gives
+ * them, and its flags. `checkedUpTo` is the longest distance the group's layers attend over: the plan target, or the
+ * sliding window when that is shorter (keys beyond the window are masked, so those layers never see farther).
+ */
+export const groupResultSchema = stageResultSchema.extend({
+  kind: z.string(),
+  layers: z.array(z.number()),
+  ropeTheta: z.number().nullable(),
+  rotaryDim: z.number(),
+  slidingWindow: z.number().nullable(),
+  checkedUpTo: z.number(),
+  scaled: z.boolean(),
+});
+export type GroupResult = z.infer<typeof groupResultSchema>;
 
 export const revisionContentSchema = z.object({
   targetContext: z.number(),
   method: methodParamsSchema,
+  groupMethods: z.array(groupMethodSchema).optional(),
   bands: bandsSchema.optional(),
   stages: z.array(stageSchema),
   acceptance: z.array(acceptanceCriterionSchema),
@@ -115,6 +136,8 @@ export const revisionContentSchema = z.object({
     baseSupport: z.object({ supportedLength: z.number().nullable(), checkedUpTo: z.number(), complete: z.boolean() }),
     final: stageResultSchema,
     stages: z.array(stageResultSchema),
+    /** Every layer group's result at the plan target (the scaled group repeats `final`); only for layered models. */
+    groups: z.array(groupResultSchema).optional(),
   }),
   /** The budget sheet, frozen with the catalog numbers it used (schema owned by the budget contract). */
   budget: revisionBudgetSchema.optional(),
@@ -201,6 +224,21 @@ export const exportEnvelopeSchema = z.object({
   method: methodParamsSchema,
   config: configPatchSchema,
   attentionFactor: z.number(),
+  /** Layered models only: each layer group's block as signed (local layers as trained unless the plan says otherwise). */
+  layerGroups: z
+    .array(
+      z.object({
+        kind: z.string(),
+        layers: z.array(z.number()),
+        method: z.string(),
+        attentionFactor: z.number(),
+        ropeTheta: z.number().nullable(),
+        config: configPatchSchema,
+      }),
+    )
+    .optional(),
+  /** Layered models only: the same groups as transformers v5's rope_parameters nested by layer type. */
+  ropeParametersByLayerType: z.record(z.string(), z.record(z.string(), z.unknown())).optional(),
   /** The key that signed the decisions below (GET /api/signing-key serves its public half). */
   keyId: z.string(),
   /** Each approval of the exported round: `signature` is base64 Ed25519 over the RFC 8785 canonical JSON of `payload`. */
