@@ -102,7 +102,7 @@ function compile(input: CompileInput): CompileResult {
   return { ok: true, artifact };
 }
 
-/** The keys get_context_length tries, first found wins (python/sglang/srt/utils/hf_transformers_utils.py). */
+/** The keys get_context_length tries, first found wins (python/sglang/srt/utils/hf_transformers_utils.py, 2aa2e2d). */
 const CONTEXT_KEYS = [
   "max_sequence_length",
   "seq_length",
@@ -132,8 +132,8 @@ function read(config: Record<string, unknown>, artifact: TargetArtifact, running
   const text = flagValue(args, "--json-model-override-args");
   const { value: overrides, intFloats } = text ? parseJsonArgument(text) : { value: {}, intFloats: [] };
   for (const p of intFloats) warnings.push(`${p} is written as an integer where the config types a float`);
-  // ModelConfig → get_config: `config.update(model_override_args)`, top-level keys replaced whole
-  // (python/sglang/srt/configs/model_config.py, 001adf5).
+  // ModelConfig (configs/model_config.py, 001adf5) → get_config (utils/hf_transformers_utils.py, 2aa2e2d):
+  // `config.update(model_override_args)`, top-level keys replaced whole.
   const merged = { ...config, ...overrides };
   const derived = derivedContextLength(merged);
   const contextText = flagValue(args, "--context-length");

@@ -102,7 +102,7 @@ function read(config: Record<string, unknown>, artifact: TargetArtifact): Consum
     ? parseJsonArgument(overridesText)
     : { value: {}, intFloats: [] };
   for (const p of intFloats) warnings.push(`${p} is written as an integer; transformers' validate_rope wants a float`);
-  // get_config: `config.update(hf_overrides_kw)` sets top-level keys, replacing whole values (vllm/transformers_utils/config.py, 18ec662).
+  // get_config: `config.update(hf_overrides_kw)` sets top-level keys, replacing whole values (vllm/transformers_utils/config.py, rope_parameters era; our stored copy names no commit).
   const merged = { ...config, ...overrides };
   const { rp, warnings: patchWarnings } = vllmRopeParameters(merged);
   warnings.push(...patchWarnings);
@@ -140,6 +140,10 @@ function read(config: Record<string, unknown>, artifact: TargetArtifact): Consum
     case "default":
       return reading(plainInvFreq(d, base), 1, null);
     case "linear":
+      // linear_scaling_rope.py (0f17ee0) wraps only a float factor in a list; an int one is iterated and fails.
+      if (intFloats.some((p) => p.endsWith("/factor"))) {
+        throw new Error("an integer linear factor fails in vLLM's LinearScalingRotaryEmbedding (it wraps only floats)");
+      }
       return reading(
         plainInvFreq(d, base).map((t) => t / need("factor")),
         1,

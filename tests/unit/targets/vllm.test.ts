@@ -125,11 +125,19 @@ describe("vLLM consumer rules (vllm-project/vllm, cited in docs/export-targets-e
   it("whole-number floats are written with a decimal point; an integer factor draws the validator's warning", () => {
     const { compiled } = roundTrip(vllmTarget, inputFor({ method: "linear" }, 16_384));
     expect(compiled.artifact!.content.args).toEqual(expect.arrayContaining([expect.stringContaining('"factor":4.0')]));
+    const yarn = [
+      "--hf-overrides",
+      '{"rope_scaling":{"rope_type":"yarn","factor":4,"original_max_position_embeddings":4096}}',
+    ];
+    const reading = vllmTarget.read(LLAMA2_LIKE, { kind: "launch-args", content: { args: yarn }, text: "" });
+    expect(reading.warnings.join()).toMatch(/factor.*float/);
+  });
+
+  it("linear_scaling_rope.py wraps only a float factor in a list: an integer factor makes vLLM fail", () => {
     const args = [
       "--hf-overrides",
       '{"rope_scaling":{"rope_type":"linear","factor":4},"max_position_embeddings":16384}',
     ];
-    const reading = vllmTarget.read(LLAMA2_LIKE, { kind: "launch-args", content: { args }, text: "" });
-    expect(reading.warnings.join()).toMatch(/factor.*float/);
+    expect(() => vllmTarget.read(LLAMA2_LIKE, { kind: "launch-args", content: { args }, text: "" })).toThrow(/integer/);
   });
 });

@@ -68,13 +68,19 @@ export function readLlamaCpp(config: Record<string, unknown>, artifact: TargetAr
   if (!["none", "linear", "yarn"].includes(type))
     throw new Error(`--rope-scaling ${type}: llama.cpp knows none, linear, yarn`);
   if (type === "none") freqScale = 1;
-  // Negative means "not set": ext factor 1 for yarn, else 0; attention factor 1; β 32 and 1.
-  const orDefault = (v: number | undefined, fallback: number) => f32(v !== undefined && v >= 0 ? v : fallback);
-  const extFlag = flagNumber(args, "--yarn-ext-factor") ?? -1;
-  const ext = f32(extFlag < 0 ? (type === "yarn" ? 1 : 0) : extFlag);
-  const attn = orDefault(flagNumber(args, "--yarn-attn-factor"), 1);
-  const betaFast = orDefault(flagNumber(args, "--yarn-beta-fast"), 32);
-  const betaSlow = orDefault(flagNumber(args, "--yarn-beta-slow"), 1);
+  // llama-context.cpp (4c7103b): a negative flag means "from the model": hparams.yarn_* (the rope.scaling.yarn_* keys
+  // of llama-arch.cpp; defaults ext −1, attention 1, β 32 and 1 — the key loading is from memory); ext still negative
+  // → 1 for yarn, else 0; the attention factor is then multiplied by rope.scaling.attn_factor (llama-model.cpp).
+  const fromModel = (flag: string, metaKey: string, fallback: number) => {
+    const v = flagNumber(args, flag);
+    return v !== undefined && v >= 0 ? v : (metaNumber(meta, key(arch, metaKey)) ?? fallback);
+  };
+  const extSet = fromModel("--yarn-ext-factor", "rope.scaling.yarn_ext_factor", -1);
+  const ext = f32(extSet < 0 ? (type === "yarn" ? 1 : 0) : extSet);
+  const ropeAttn = f32(metaNumber(meta, key(arch, "rope.scaling.attn_factor")) ?? 1);
+  const attn = f32(f32(fromModel("--yarn-attn-factor", "rope.scaling.yarn_attn_factor", 1)) * ropeAttn);
+  const betaFast = f32(fromModel("--yarn-beta-fast", "rope.scaling.yarn_beta_fast", 32));
+  const betaSlow = f32(fromModel("--yarn-beta-slow", "rope.scaling.yarn_beta_slow", 1));
 
   if (nCtx > nCtxTrain) {
     warnings.push(`n_ctx_seq (${nCtx}) > n_ctx_train (${nCtxTrain}) -- possible training context overflow`);

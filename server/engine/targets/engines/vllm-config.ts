@@ -6,7 +6,7 @@ import { isRecord, numberOr } from "./plan-facts";
  */
 
 /**
- * `patch_rope_parameters` (vllm/transformers_utils/config.py, 18ec662) with transformers v4 installed: a non-null
+ * `patch_rope_parameters` (vllm/transformers_utils/config.py, rope_parameters era; our stored copy names no commit) with transformers v4 installed: a non-null
  * rope_scaling replaces rope_parameters; then the top-level rope_theta, partial_rotary_factor and
  * original_max_position_embeddings are copied into the block; `patch_rope_parameters_dict` turns a legacy `type` into
  * `rope_type` and "su" into "longrope". With transformers v5 installed the block is rope_parameters as given; a config
