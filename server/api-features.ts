@@ -14,6 +14,7 @@ import { mailFeature } from "./features/mail/mail.router";
 import { budgetsFeature } from "./features/budgets";
 import { acceleratorsFeature } from "./features/accelerators";
 import { signingKeyFeature } from "./features/plans/signing-key.router";
+import { exportsFeature } from "./features/exports";
 
 /** The document describing every operation, itself included. */
 const docsFeature: ApiFeature = {
@@ -48,6 +49,7 @@ export const SESSION_FEATURES: readonly ApiFeature[] = [
   mailFeature,
   budgetsFeature,
   acceleratorsFeature,
+  exportsFeature,
 ];
 
 /** Every route the server answers under /api; the OpenAPI document is generated from this list. */

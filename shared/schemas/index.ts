@@ -6,3 +6,4 @@ export * from "./plans";
 export * from "./analysis";
 export * from "./tokens";
 export * from "./audit";
+export * from "./exports";

@@ -96,6 +96,10 @@ export function fuzzBases(ids: FuzzIds): Record<string, object[]> {
       { model: inlineModel, targetContext: 32768, bands: { alpha: 1, beta: 32 }, methods },
       { model: { modelId: ids.model }, targetContext: 32768, methods: [{ method: "yarn" }] },
     ],
+    "post /api/exports": [
+      { model: inlineModel, targetContext: 32768, method: { method: "yarn" }, targets: ["transformers-v4"] },
+      { model: { modelId: ids.model }, targetContext: 32768, method: { method: "linear" } },
+    ],
     "post /api/bounds/base": [{ rotaryDim: 128, targetContext: 8192, grid: { from: 1e3, to: 1e5, perDecade: 10 } }],
     "post /api/bounds/base/stream": [{ rotaryDim: 128, base: 10_000, maxLength: 8192 }],
     "post /api/plans": [

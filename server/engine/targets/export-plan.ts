@@ -1,0 +1,73 @@
+import type { MethodParams, ModelShape } from "../../../shared/schemas/analysis";
+import { rotaryDimension } from "../../../shared/schemas/analysis";
+import { runMethod } from "../methods";
+import { rotaryFingerprint } from "../fingerprint";
+import type { CompileInput, TargetId } from "./types";
+import { TARGET_IDS } from "./types";
+import { exportForTargets, type TargetExport } from "./registry";
+
+/**
+ * config.json as the open config format spells a profile, for models that were not imported from a file (and as the
+ * base an imported file's own keys are laid over). hidden_size falls back to head_dim × heads, which is what
+ * readers that ignore head_dim (the 4.4x rules) divide back.
+ */
+export function configOfShape(m: ModelShape): Record<string, unknown> {
+  const heads = m.attentionHeads ?? 1;
+  const config: Record<string, unknown> = {
+    hidden_size: m.hiddenSize ?? m.headDim * heads,
+    num_attention_heads: heads,
+    head_dim: m.headDim,
+    rope_theta: m.ropeTheta,
+    max_position_embeddings: m.trainedContext,
+  };
+  if (m.kvHeads !== undefined) config.num_key_value_heads = m.kvHeads;
+  if (m.layers !== undefined) config.num_hidden_layers = m.layers;
+  if (m.partialRotaryFactor !== undefined && m.partialRotaryFactor !== 1)
+    config.partial_rotary_factor = m.partialRotaryFactor;
+  return config;
+}
+
+export interface PlanExport {
+  invFreq: number[];
+  attentionFactor: number;
+  rotaryDim: number;
+  fingerprint: string;
+  targets: TargetExport[];
+}
+
+/**
+ * The plan's own θ′, attention factor and fingerprint, and each requested target's artifact, read-back and conformance.
+ * `config` is the model's config.json when known (an imported file); the profile's values are laid over it.
+ */
+export function exportPlan(p: {
+  model: ModelShape;
+  config?: Record<string, unknown>;
+  targetContext: number;
+  method: MethodParams;
+  targets?: readonly TargetId[];
+}): PlanExport {
+  const d = rotaryDimension(p.model);
+  if (d === null) throw new RangeError("rotary dimension must be a positive even integer (validate the model first)");
+  const ctx = { d, base: p.model.ropeTheta, trainedContext: p.model.trainedContext, targetContext: p.targetContext };
+  const out = runMethod(ctx, p.method);
+  const invFreq = Array.from(out.invFreq);
+  const input: CompileInput = {
+    config: { ...(p.config ?? {}), ...configOfShape(p.model) },
+    method: p.method,
+    plan: {
+      rotaryDim: d,
+      base: p.model.ropeTheta,
+      trainedContext: p.model.trainedContext,
+      targetContext: p.targetContext,
+      invFreq,
+      attentionFactor: out.attentionFactor,
+    },
+  };
+  return {
+    invFreq,
+    attentionFactor: out.attentionFactor,
+    rotaryDim: d,
+    fingerprint: rotaryFingerprint([{ rotaryDim: d, attentionFactor: out.attentionFactor, invFreq }]),
+    targets: exportForTargets(input, p.targets ?? TARGET_IDS),
+  };
+}

@@ -1,0 +1,66 @@
+import type { AppDeps } from "../../deps";
+import { Invalid, NotFound } from "../../platform/errors";
+import { exportPlan, TARGETS, TARGET_IDS } from "../../engine/targets";
+import { modelDependentIssues, rotaryShapeSchema, type ModelShape } from "../../../shared/schemas/analysis";
+import type { ExportRequest, ExportResponse } from "../../../shared/schemas/exports";
+import { findModelRow, type ModelRow } from "../models";
+import { rotaryShapeOf } from "../../../shared/profile-shapes";
+
+/** The target list: id, label, consumer, the versions its reader follows and the kind of artifact. */
+export const listTargets = () => ({
+  targets: TARGET_IDS.map((id) => {
+    const t = TARGETS[id];
+    return { id, label: t.label, consumer: t.consumer, versions: t.versions, artifactKind: t.artifactKind };
+  }),
+});
+
+/** An imported profile's own config.json, so readers see its real keys (layer types, rope_parameters …). */
+function sourceConfigOf(row: ModelRow): Record<string, unknown> | undefined {
+  if (!row.sourceConfig) return undefined;
+  try {
+    const parsed: unknown = JSON.parse(row.sourceConfig);
+    return typeof parsed === "object" && parsed !== null && !Array.isArray(parsed)
+      ? (parsed as Record<string, unknown>)
+      : undefined;
+  } catch {
+    return undefined; // the import accepted it, so this is only a stored file that no longer parses: use the profile
+  }
+}
+
+async function resolveModel(deps: AppDeps, input: ExportRequest["model"]) {
+  if (!("modelId" in input)) return { model: input };
+  const row = await findModelRow(deps.db, input.modelId);
+  if (!row) throw new NotFound("no such model profile");
+  const parsed = rotaryShapeSchema.safeParse(rotaryShapeOf(row));
+  if (!parsed.success) {
+    const fields = Object.fromEntries(parsed.error.issues.map((i) => [["model", ...i.path].join("."), i.message]));
+    throw new Invalid("the stored model profile cannot be exported", fields);
+  }
+  return { model: parsed.data, config: sourceConfigOf(row) };
+}
+
+/**
+ * POST /api/exports: compiles the plan for each requested target (all when none are named) and reads each artifact
+ * back. A stateless computation: nothing is stored, so nothing is audited.
+ */
+export async function exportRequest(deps: AppDeps, input: ExportRequest): Promise<ExportResponse> {
+  const { model, config } = await resolveModel(deps, input.model);
+  refuseMisfits(model, input);
+  return exportPlan({
+    model,
+    config,
+    targetContext: input.targetContext,
+    method: input.method,
+    targets: input.targets,
+  });
+}
+
+/** The analysis rules that need the model (rotary dim, factor lists sized to the pairs …), named on the export's fields. */
+function refuseMisfits(model: ModelShape, input: ExportRequest) {
+  const issues = modelDependentIssues(model, input.targetContext, [input.method]);
+  if (!issues.length) return;
+  const fields = Object.fromEntries(
+    issues.map((i) => [(i.path[0] === "methods" ? ["method", ...i.path.slice(2)] : i.path).join("."), i.message]),
+  );
+  throw new Invalid(`invalid body: ${Object.keys(fields).join(", ")}`, fields);
+}

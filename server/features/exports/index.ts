@@ -1,0 +1,2 @@
+// Public face of the exports feature.
+export { exportsFeature } from "./exports.router";
