@@ -38,6 +38,11 @@ export interface ConsumerReading {
   attentionFactor: number;
   /** what the consumer's own validation would warn about or reject; empty means it accepts the artifact silently */
   warnings: string[];
+  /**
+   * Layered configs (issue 11, additive): every layer type's own reading. The fields above are the scaled
+   * (full-attention) layers', which the plan is compared with.
+   */
+  layerGroups?: { layerType: string; base: number; method: string; invFreq: number[]; attentionFactor: number }[];
 }
 
 /** What the plan means, as our engine computes it: the reference a reading is compared with. */

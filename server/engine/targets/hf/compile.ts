@@ -148,6 +148,23 @@ export function compileV4(input: CompileInput, rules: "early" | "v4"): CompileRe
   return result(patch, placed);
 }
 
+const FULL_ATTENTION = "full_attention";
+
+/**
+ * What a non-scaled layer type of a flat config was trained with: its own base when the config gives one
+ * (`rope_local_base_freq`, used unscaled: huggingface/transformers models/gemma3/modeling_gemma3.py builds the local
+ * rotary embedding with rope_type "default", v4.5x line), else the model's one shared rotary setting, scaling included.
+ */
+function trainedBlock(config: Obj, existing: Obj): Obj {
+  const local = typeof config.rope_local_base_freq === "number" ? config.rope_local_base_freq : undefined;
+  if (local !== undefined) return { rope_type: "default", rope_theta: local };
+  const shared: Obj =
+    isObj(config.rope_scaling) && Object.keys(config.rope_scaling).length ? config.rope_scaling : existing;
+  const { type, rope_type: ropeType, ...rest } = shared;
+  const theta = typeof existing.rope_theta === "number" ? existing.rope_theta : config.rope_theta;
+  return { ...rest, rope_type: ropeType ?? type ?? "default", rope_theta: typeof theta === "number" ? theta : 10000 };
+}
+
 /** The merge patch for the v5 layout: everything inside `rope_parameters`, nested by layer type when the config has them. */
 export function compileV5(input: CompileInput): CompileResult {
   const placed = place(input, "v5");
@@ -161,7 +178,14 @@ export function compileV5(input: CompileInput): CompileResult {
   if (layerTypes.length) {
     const nested = layerTypes.every((t) => isObj(existing[t]));
     rp = nested ? {} : clearStale(existing, {}, layerTypes);
-    for (const t of layerTypes) rp[t] = clearStale(nested ? existing[t] : {}, block, keep);
+    // The plan scales the full-attention layers only (issue 11, shared/layer-groups.ts): every other layer type keeps
+    // exactly what it was trained with. A nested entry is simply left out of the merge patch (RFC 7396: untouched);
+    // a flat config gets the local layers' trained setting written under their type.
+    const scaled = layerTypes.includes(FULL_ATTENTION) ? FULL_ATTENTION : layerTypes[0];
+    for (const t of layerTypes) {
+      if (t === scaled) rp[t] = clearStale(nested ? existing[t] : {}, block, keep);
+      else if (!nested) rp[t] = trainedBlock(config, existing);
+    }
   } else {
     rp = clearStale(existing, block, keep);
   }

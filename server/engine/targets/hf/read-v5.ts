@@ -47,16 +47,22 @@ export function readV5(view: ConfigView, runningLength?: number): ConsumerReadin
     validateV5(view, dict, path, cfg.partial_rotary_factor !== undefined, warnings);
     return readGroup(cfg, dict, maxPos, runningLength ?? maxPos, warnings);
   });
-  // One plan rotates every layer alike; a config whose layer types read differently is reported, first type shown.
-  for (let i = 1; i < readings.length; i++) {
-    if (
-      readings[i].invFreq.some((f, j) => f !== readings[0].invFreq[j]) ||
-      readings[i].attentionFactor !== readings[0].attentionFactor
-    ) {
-      warnings.push(`layer type ${groups[i][0]} rotates differently from ${groups[0][0]}`);
-    }
-  }
-  return readings[0];
+  // The plan scales the full-attention layers (issue 11); other layer types are read too and reported beside it, so
+  // a check can see that they kept their trained frequencies.
+  const scaled = Math.max(
+    0,
+    groups.findIndex(([t]) => t === "full_attention"),
+  );
+  const reading = readings[scaled];
+  if (groups.length > 1)
+    reading.layerGroups = groups.map(([t], i) => ({
+      layerType: t!,
+      base: readings[i].base,
+      method: readings[i].method,
+      invFreq: readings[i].invFreq,
+      attentionFactor: readings[i].attentionFactor,
+    }));
+  return reading;
 }
 
 function readGroup(cfg: Obj, dict: Obj, maxPos: number, seqLen: number, warnings: string[]): ConsumerReading {
