@@ -1,5 +1,5 @@
 import { useState } from "react";
-import { useForm } from "react-hook-form";
+import { Controller, useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { createUserRequestSchema } from "@shared/schemas/users";
 import { PASSWORD_MIN } from "@shared/schemas/auth";
@@ -17,7 +17,7 @@ export function CreateUserForm() {
   const create = useCreateUser();
   const [formError, setFormError] = useState<string | null>(null);
   const [created, setCreated] = useState<string | null>(null);
-  const { register, handleSubmit, setError, reset, formState } = useForm({
+  const { register, control, handleSubmit, setError, reset, formState } = useForm({
     resolver: zodResolver(createUserRequestSchema),
     defaultValues: { name: "", email: "", password: "", roles: [] },
   });
@@ -64,7 +64,13 @@ export function CreateUserForm() {
           {...register("password")}
         />
       </div>
-      <RoleCheckboxes registration={register("roles")} error={errors.roles?.message} />
+      <Controller
+        control={control}
+        name="roles"
+        render={({ field, fieldState }) => (
+          <RoleCheckboxes value={field.value} onChange={field.onChange} error={fieldState.error?.message} />
+        )}
+      />
       <div>
         <SubmitButton busy={create.isPending} busyLabel="Adding…">
           Add user

@@ -1,6 +1,5 @@
-import type { UseFormRegisterReturn } from "react-hook-form";
 import { ROLES, type Role } from "@shared/schemas/common";
-import { Checkbox } from "@/components/field";
+import { CheckboxGroup } from "@/components/checkbox-group";
 import { roleLabel } from "@/lib/format";
 
 const ROLE_DUTIES: Record<Role, string> = {
@@ -11,38 +10,31 @@ const ROLE_DUTIES: Record<Role, string> = {
   viewer: "reads signed plans",
 };
 
-/** One checkbox per role, all registered under one name so the form value is a Role[]. */
+/** One checkbox per role, with what the role does; the value is a Role[] (use through react-hook-form's Controller). */
 export function RoleCheckboxes({
-  registration,
+  value,
+  onChange,
   error,
   legend = "Roles",
 }: {
-  registration: UseFormRegisterReturn;
+  value: Role[];
+  onChange: (v: Role[]) => void;
   error?: string;
   legend?: string;
 }) {
   return (
-    <fieldset className="flex flex-col gap-2" aria-invalid={Boolean(error)}>
-      <legend className="mb-1 text-note font-semibold text-ink">{legend}</legend>
-      <div className="flex flex-wrap gap-x-5 gap-y-2">
-        {ROLES.map((role) => (
-          <Checkbox
-            key={role}
-            value={role}
-            {...registration}
-            label={
-              <span>
-                {roleLabel(role)} <span className="text-note text-ink-soft">— {ROLE_DUTIES[role]}</span>
-              </span>
-            }
-          />
-        ))}
-      </div>
-      {error && (
-        <p className="text-note text-signal" role="alert">
-          {error}
-        </p>
+    <CheckboxGroup
+      legend={legend}
+      name="roles"
+      options={ROLES}
+      value={value}
+      onChange={onChange}
+      error={error}
+      label={(role) => (
+        <span>
+          {roleLabel(role)} <span className="text-note text-ink-soft">— {ROLE_DUTIES[role]}</span>
+        </span>
       )}
-    </fieldset>
+    />
   );
 }

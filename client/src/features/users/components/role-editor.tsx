@@ -1,5 +1,5 @@
 import { useState } from "react";
-import { useForm } from "react-hook-form";
+import { Controller, useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { createUserRequestSchema, type User } from "@shared/schemas/users";
 import { Button } from "@/components/button";
@@ -22,7 +22,7 @@ export function RoleEditor({
 }) {
   const update = useUpdateUser();
   const [formError, setFormError] = useState<string | null>(null);
-  const { register, handleSubmit, setError, formState } = useForm({
+  const { control, handleSubmit, setError } = useForm({
     resolver: zodResolver(rolesSchema),
     defaultValues: { roles: user.roles },
   });
@@ -49,10 +49,17 @@ export function RoleEditor({
       aria-label={`Roles of ${user.name}`}
     >
       {formError && <Notice tone="alert">{formError}</Notice>}
-      <RoleCheckboxes
-        registration={register("roles")}
-        error={formState.errors.roles?.message}
-        legend={`Roles of ${user.name} (${user.email})`}
+      <Controller
+        control={control}
+        name="roles"
+        render={({ field, fieldState }) => (
+          <RoleCheckboxes
+            value={field.value}
+            onChange={field.onChange}
+            error={fieldState.error?.message}
+            legend={`Roles of ${user.name} (${user.email})`}
+          />
+        )}
       />
       <div className="flex gap-2">
         <Button type="submit" size="sm" busy={update.isPending}>
