@@ -4,6 +4,10 @@ import { ESLint } from "eslint";
 import { apiPaths } from "../../../client/src/config/paths";
 import { afterModelDeleted, afterModelSaved, modelsQueries } from "../../../client/src/lib/api/models";
 import { analysesQueries } from "../../../client/src/lib/api/analyses";
+import { budgetEstimateQueries } from "../../../client/src/lib/api/budgets";
+import { afterCatalogChanged } from "../../../client/src/features/accelerators/api/save-accelerator";
+import { acceleratorsKeys } from "../../../client/src/features/accelerators/api/keys";
+import type { BudgetEstimateRequest } from "../../../shared/schemas/budget";
 import type { ModelProfile } from "../../../shared/schemas/models";
 import type { AnalysisRequest } from "../../../shared/schemas/analysis";
 
@@ -32,11 +36,16 @@ const request: AnalysisRequest = {
   methods: [],
 } as unknown as AnalysisRequest;
 
+// An estimate names its profile and accelerator by id; the server reads their current figures each time.
+const estimateRequest = { model: { modelId: 7 }, cluster: { acceleratorId: 3 } } as unknown as BudgetEstimateRequest;
+
 function seeded() {
   const client = new QueryClient();
   client.setQueryData(modelsQueries.list().queryKey, [profile]);
   client.setQueryData(modelsQueries.detail(7).queryKey, profile);
   client.setQueryData(analysesQueries.detail(request).queryKey, { figures: "old" } as never);
+  client.setQueryData(budgetEstimateQueries.detail(estimateRequest).queryKey, { stages: "old" } as never);
+  client.setQueryData(acceleratorsKeys.list(), [] as never);
   return client;
 }
 const invalidated = (client: QueryClient, key: readonly unknown[]) => client.getQueryState(key)?.isInvalidated;
@@ -55,6 +64,7 @@ describe("model profiles: one cache, invalidated through the factory", () => {
     expect(client.getQueryData(modelsQueries.detail(7).queryKey)).toEqual(renamed);
     expect(invalidated(client, modelsQueries.list().queryKey)).toBe(true);
     expect(invalidated(client, analysesQueries.detail(request).queryKey)).toBe(true);
+    expect(invalidated(client, budgetEstimateQueries.detail(estimateRequest).queryKey)).toBe(true);
   });
 
   it("deleting a profile drops its detail and refreshes the list", async () => {
@@ -62,6 +72,19 @@ describe("model profiles: one cache, invalidated through the factory", () => {
     await afterModelDeleted(client, 7);
     expect(client.getQueryState(modelsQueries.detail(7).queryKey)).toBeUndefined();
     expect(invalidated(client, modelsQueries.list().queryKey)).toBe(true);
+    expect(invalidated(client, budgetEstimateQueries.detail(estimateRequest).queryKey)).toBe(true);
+  });
+});
+
+describe("budget estimates: cached as never stale, refreshed when what they read changes", () => {
+  // The defect: editing an accelerator's price or a profile's layers left the estimator showing the old figures.
+  it("an accelerator change refreshes the catalog and every estimate", async () => {
+    const client = seeded();
+    expect(invalidated(client, budgetEstimateQueries.detail(estimateRequest).queryKey)).toBe(false);
+    await afterCatalogChanged(client);
+    expect(invalidated(client, acceleratorsKeys.list())).toBe(true);
+    expect(invalidated(client, budgetEstimateQueries.detail(estimateRequest).queryKey)).toBe(true);
+    expect(invalidated(client, analysesQueries.detail(request).queryKey)).toBe(false);
   });
 });
 

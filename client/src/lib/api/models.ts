@@ -4,6 +4,7 @@ import type { ModelProfile } from "@shared/schemas/models";
 import { apiClient } from "../api-client";
 import { apiPaths } from "@/config/paths";
 import { analysesQueries } from "./analyses";
+import { afterEstimateInputsChanged } from "./budgets";
 
 /*
  * Model profiles are read by the models pages, the workbench, the plan forms and the estimator, so their one
@@ -30,18 +31,23 @@ export const modelsQueries = {
 
 /**
  * After a profile is created, edited or imported: its detail is the server's answer, and every list of profiles
- * and every analysis that may have read the profile by id is refetched (analyses are cached as never stale).
+ * and every analysis and budget estimate that may have read the profile by id is refetched (both are cached as never
+ * stale).
  */
 export function afterModelSaved(queryClient: QueryClient, model: ModelProfile) {
   queryClient.setQueryData(modelsQueries.detail(model.id).queryKey, model);
   return Promise.all([
     queryClient.invalidateQueries({ queryKey: modelsQueries.all() }),
     queryClient.invalidateQueries({ queryKey: analysesQueries.all() }),
+    afterEstimateInputsChanged(queryClient),
   ]);
 }
 
-/** After a profile is deleted: its detail is dropped and the lists are refetched. */
+/** After a profile is deleted: its detail is dropped, the lists and the estimates that named it are refetched. */
 export function afterModelDeleted(queryClient: QueryClient, id: number) {
   queryClient.removeQueries({ queryKey: modelsQueries.detail(id).queryKey });
-  return queryClient.invalidateQueries({ queryKey: modelsQueries.lists() });
+  return Promise.all([
+    queryClient.invalidateQueries({ queryKey: modelsQueries.lists() }),
+    afterEstimateInputsChanged(queryClient),
+  ]);
 }

@@ -1,4 +1,4 @@
-import { useMutation, useQueryClient } from "@tanstack/react-query";
+import { useMutation, useQueryClient, type QueryClient } from "@tanstack/react-query";
 import {
   acceleratorResponseSchema,
   acceleratorRetiredResponseSchema,
@@ -7,6 +7,7 @@ import {
 } from "@shared/schemas/budget";
 import { apiClient } from "@/lib/api-client";
 import { apiPaths } from "@/config/paths";
+import { afterEstimateInputsChanged } from "@/lib/api/budgets";
 import { acceleratorsKeys } from "./keys";
 
 export const createAccelerator = (body: AcceleratorInput) =>
@@ -26,12 +27,16 @@ export const restoreAccelerator = (id: number) =>
     .send("POST", apiPaths.acceleratorRestore(id), undefined, acceleratorResponseSchema)
     .then((r) => r.accelerator);
 
+/** After any catalog change: the catalog, and the estimates (they name an accelerator by id; the server reads its figures). */
+export const afterCatalogChanged = (queryClient: QueryClient) =>
+  Promise.all([
+    queryClient.invalidateQueries({ queryKey: acceleratorsKeys.all }),
+    afterEstimateInputsChanged(queryClient),
+  ]);
+
 function useCatalogMutation<A, R>(fn: (args: A) => Promise<R>) {
   const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: fn,
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: acceleratorsKeys.all }),
-  });
+  return useMutation({ mutationFn: fn, onSuccess: () => afterCatalogChanged(queryClient) });
 }
 
 export const useCreateAccelerator = () => useCatalogMutation(createAccelerator);

@@ -1,8 +1,5 @@
-import type { BudgetEstimateRequest } from "@shared/schemas/budget";
-
-/** Query keys for the budgets feature, general to specific. */
+/** Query keys for the budgets feature, general to specific (estimates are cached in lib/api/budgets.ts). */
 export const budgetsKeys = {
   all: ["budgets"] as const,
   recipes: () => [...budgetsKeys.all, "recipes"] as const,
-  estimate: (request: BudgetEstimateRequest | null) => [...budgetsKeys.all, "estimate", request] as const,
 };
