@@ -9,6 +9,8 @@ export interface AppDeps {
   config: Config;
   pool: pg.Pool;
   db: Db;
+  /** A small pool for the session store only (server/http/session.ts); unset = the main pool. */
+  sessionPool?: pg.Pool;
   /** Shared store for the sign-in limiters (one per limiter name); unset = in-process memory. */
   /** Structured logger; createApp makes one from config.logLevel when unset. */
   logger?: Logger;

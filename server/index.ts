@@ -12,8 +12,10 @@ export async function startServer(config = loadConfig()) {
   // Created at first start (mode 0600); a bad key file stops the start here rather than at the first decision.
   signingKey(config.signingKeyFile);
   const { pool, db } = createDb(config.databaseUrl, 10, config.db);
+  // Sessions get their own 3 connections, so signed-in requests never wait behind slow queries for their session.
+  const { pool: sessionPool } = createDb(config.databaseUrl, 3, config.db);
   const logger = createLogger({ level: config.logLevel });
-  const app = createApp({ config, pool, db, logger });
+  const app = createApp({ config, pool, db, sessionPool, logger });
   const server: Server = await new Promise((resolve, reject) => {
     const s = app.listen(config.port, config.host, () => resolve(s));
     s.on("error", reject);
@@ -31,6 +33,7 @@ export async function startServer(config = loadConfig()) {
     setTimeout(() => server.closeAllConnections(), 5000).unref();
     await mailWorker.stop();
     await pool.end().catch(() => undefined);
+    await sessionPool.end().catch(() => undefined);
     process.exit(0);
   };
   process.on("SIGTERM", () => void shutdown("SIGTERM"));

@@ -1,7 +1,7 @@
 import crypto from "node:crypto";
 import type { NextFunction, Request, Response } from "express";
 import session from "express-session";
-import connectPgSimple from "connect-pg-simple";
+import { throttledPgStore } from "./session-store";
 import type { AppDeps } from "../deps";
 import { activeSessionUser } from "../platform/identity";
 
@@ -15,18 +15,15 @@ declare module "express-session" {
 export const SESSION_COOKIE = "rw.sid";
 export const newCsrfToken = () => crypto.randomBytes(32).toString("base64url");
 
+/**
+ * Sessions live in PostgreSQL, so every instance sees every session. They use their own small pool when the server
+ * gives one (server/index.ts): reading a session never queues behind slow list queries on the main pool.
+ */
 export function sessionMiddleware(deps: AppDeps) {
-  const PgStore = connectPgSimple(session);
   return session({
     name: SESSION_COOKIE,
     secret: deps.config.sessionSecret,
-    store: new PgStore({
-      pool: deps.pool,
-      tableName: "session",
-      createTableIfMissing: false,
-      // Expired sessions are pruned every 15 minutes; tests build many apps and skip the timer.
-      pruneSessionInterval: deps.config.env === "test" ? false : 15 * 60,
-    }),
+    store: throttledPgStore(deps.sessionPool ?? deps.pool, { prune: deps.config.env !== "test" }),
     resave: false,
     saveUninitialized: false,
     rolling: true,

@@ -1,9 +1,11 @@
 import { z } from "zod";
-import { dbIdParam, MAX_DB_ID } from "./common";
+import { dbIdParam, MAX_DB_ID, pagedTotal } from "./common";
 
 export const auditQuerySchema = z.object({
   page: z.coerce.number().int().min(1).max(MAX_DB_ID).default(1),
   pageSize: z.coerce.number().int().min(1).max(200).default(50),
+  /** Keyset paging: events older than this id (the previous page's `nextBefore`); `page` then only labels the page. */
+  before: dbIdParam.optional(),
   action: z.string().max(80).optional(),
   actorId: dbIdParam.optional(),
   subjectType: z.string().max(40).optional(),
@@ -43,7 +45,9 @@ export type AuditChainReport = z.infer<typeof auditChainReportSchema>;
 
 /** GET /api/audit (server/features/audit/audit.router.ts). */
 export const auditPageSchema = z.object({
-  total: z.number(),
+  ...pagedTotal,
+  /** Pass as `before` for the next page: keyset paging, as cheap at any depth (null on the last page). */
+  nextBefore: z.number().nullable(),
   page: z.number(),
   pageSize: z.number(),
   events: z.array(auditEventSchema),

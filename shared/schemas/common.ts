@@ -26,3 +26,13 @@ export const idParamSchema = z.object({ id: dbIdParam });
 
 /** GET /api/health: 200 when PostgreSQL answers, 503 (same shape) when it does not. */
 export const healthResponseSchema = z.object({ ok: z.boolean(), db: z.enum(["up", "down"]) });
+
+/** `total` counts matches up to a cap; `totalCapped` says there are more (server/platform/paging.ts). */
+export const pagedTotal = { total: z.number(), totalCapped: z.boolean() };
+
+/** `?page=&pageSize=` for lists that used to answer every row; page counts from 1. */
+export const pageQuerySchema = (defaultSize: number, maxSize = 200) =>
+  z.object({
+    page: z.coerce.number().int().min(1).max(MAX_DB_ID).default(1),
+    pageSize: z.coerce.number().int().min(1).max(maxSize).default(defaultSize),
+  });

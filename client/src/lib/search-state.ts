@@ -24,7 +24,11 @@ export function useSearchState<S extends z.ZodObject>(schema: S) {
         if (v === undefined || v === null || v === "") next.delete(k);
         else next.set(k, String(v));
       }
-      if (!("page" in changes)) next.delete("page");
+      // A keyset cursor (`before`) belongs to the page it was read for, so it goes with the page.
+      if (!("page" in changes)) {
+        next.delete("page");
+        next.delete("before");
+      }
       return next;
     });
   return { params: params as Params, update };

@@ -15,20 +15,44 @@ export const settings = pgTable("settings", {
   updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
 });
 
-export const plans = pgTable("plans", {
-  id: serial("id").primaryKey(),
-  title: text("title").notNull(),
-  purpose: text("purpose").notNull().default(""),
-  ownerId: integer("owner_id")
-    .notNull()
-    .references(() => users.id),
-  modelId: integer("model_id")
-    .notNull()
-    .references(() => modelProfiles.id, { onDelete: "restrict" }),
-  requiredApprovals: integer("required_approvals").notNull().default(1),
-  createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
-  updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
-});
+export const plans = pgTable(
+  "plans",
+  {
+    id: serial("id").primaryKey(),
+    title: text("title").notNull(),
+    purpose: text("purpose").notNull().default(""),
+    ownerId: integer("owner_id")
+      .notNull()
+      .references(() => users.id),
+    modelId: integer("model_id")
+      .notNull()
+      .references(() => modelProfiles.id, { onDelete: "restrict" }),
+    requiredApprovals: integer("required_approvals").notNull().default(1),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+    /**
+     * The latest revision's number and state, and the newest approved revision, stored so lists read one row per
+     * plan. A trigger on plan_revisions (migration 0013) keeps them in the transaction that changes a revision.
+     */
+    latestNumber: integer("latest_number").notNull().default(1),
+    latestState: text("latest_state").$type<RevisionState>().notNull().default("draft"),
+    approvedNumber: integer("approved_number"),
+  },
+  (t) => [
+    // One index per sort key of the plans list (id breaks ties, so a page is a range scan).
+    index("plans_updated_idx").on(t.updatedAt, t.id),
+    index("plans_created_idx").on(t.createdAt, t.id),
+    index("plans_title_idx").on(sql`lower(${t.title})`, t.id),
+    index("plans_state_idx").on(t.latestState, t.id),
+    index("plans_state_updated_idx").on(t.latestState, t.updatedAt, t.id),
+    index("plans_owner_idx").on(t.ownerId, t.updatedAt, t.id),
+    index("plans_model_idx").on(t.modelId, t.updatedAt, t.id),
+    // Trigram indexes make ILIKE '%…%' an index search (pg_trgm, created by the migration).
+    index("plans_title_trgm").using("gin", t.title.op("gin_trgm_ops")),
+    index("plans_purpose_trgm").using("gin", t.purpose.op("gin_trgm_ops")),
+    check("plans_latest_state_known", sql`${t.latestState} IN (${inList(REVISION_STATES)})`),
+  ],
+);
 
 /** Content is immutable once submitted; contentHash = SHA-256 of its RFC 8785 canonical form. */
 export const planRevisions = pgTable(
@@ -56,6 +80,10 @@ export const planRevisions = pgTable(
   (t) => [
     uniqueIndex("plan_revisions_plan_number").on(t.planId, t.number),
     index("plan_revisions_state").on(t.state),
+    // The review queue: revisions in review, oldest submission first.
+    index("plan_revisions_in_review")
+      .on(t.submittedAt, t.id)
+      .where(sql`${t.state} = 'in_review'`),
     // The column stays text (no type change under live triggers); the CHECK keeps it to the shared list.
     check("plan_revisions_state_known", sql`${t.state} IN (${inList(REVISION_STATES)})`),
   ],
@@ -127,13 +155,21 @@ export const mailOutbox = pgTable(
 );
 
 /** What the local SMTP sink received (development and tests only). */
-export const mailSinkMessages = pgTable("mail_sink_messages", {
-  id: serial("id").primaryKey(),
-  receivedAt: timestamp("received_at", { withTimezone: true }).notNull().defaultNow(),
-  messageId: text("message_id"),
-  fromAddress: text("from_address").notNull(),
-  toAddresses: text("to_addresses").array().notNull(),
-  subject: text("subject").notNull(),
-  text: text("text").notNull(),
-  raw: text("raw").notNull(),
-});
+export const mailSinkMessages = pgTable(
+  "mail_sink_messages",
+  {
+    id: serial("id").primaryKey(),
+    receivedAt: timestamp("received_at", { withTimezone: true }).notNull().defaultNow(),
+    messageId: text("message_id"),
+    fromAddress: text("from_address").notNull(),
+    toAddresses: text("to_addresses").array().notNull(),
+    subject: text("subject").notNull(),
+    text: text("text").notNull(),
+    raw: text("raw").notNull(),
+  },
+  (t) => [
+    index("mail_sink_subject_trgm").using("gin", t.subject.op("gin_trgm_ops")),
+    // rw_text_list is an IMMUTABLE array_to_string (migration 0013); the Mail page's search uses the same expression.
+    index("mail_sink_to_trgm").using("gin", sql`rw_text_list(${t.toAddresses}) gin_trgm_ops`),
+  ],
+);

@@ -1,3 +1,4 @@
+import { sql } from "drizzle-orm";
 import {
   boolean,
   index,
@@ -11,16 +12,23 @@ import {
   bigserial,
 } from "drizzle-orm/pg-core";
 
-export const users = pgTable("users", {
-  id: serial("id").primaryKey(),
-  email: text("email").notNull().unique(),
-  name: text("name").notNull(),
-  passwordHash: text("password_hash").notNull(),
-  roles: text("roles").array().notNull(),
-  active: boolean("active").notNull().default(true),
-  createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
-  updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
-});
+export const users = pgTable(
+  "users",
+  {
+    id: serial("id").primaryKey(),
+    email: text("email").notNull().unique(),
+    name: text("name").notNull(),
+    passwordHash: text("password_hash").notNull(),
+    roles: text("roles").array().notNull(),
+    active: boolean("active").notNull().default(true),
+    createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    index("users_name_idx").on(sql`lower(${t.name})`, t.id),
+    index("users_name_trgm").using("gin", t.name.op("gin_trgm_ops")),
+  ],
+);
 
 /** connect-pg-simple's table, created by migration (createTableIfMissing is off). */
 export const session = pgTable(
@@ -48,5 +56,10 @@ export const auditEvents = pgTable(
     prevHash: text("prev_hash").notNull(),
     hash: text("hash").notNull(),
   },
-  (t) => [index("audit_events_at_idx").on(t.at), index("audit_events_subject_idx").on(t.subjectType, t.subjectId)],
+  (t) => [
+    index("audit_events_at_idx").on(t.at),
+    index("audit_events_subject_idx").on(t.subjectType, t.subjectId),
+    // One person's actions, newest first, without walking everyone's.
+    index("audit_events_actor_idx").on(t.actorId, t.id),
+  ],
 );

@@ -1,12 +1,17 @@
-import { and, desc, eq, gte, like, lte, sql, type SQL } from "drizzle-orm";
+import { and, desc, eq, gte, inArray, like, lt, lte, type SQL } from "drizzle-orm";
 import type { z } from "zod";
 import type { AppDeps } from "../../deps";
 import { auditEvents, users } from "../../db/schema";
 import type { auditQuerySchema } from "../../../shared/schemas";
 import type { AuditPage } from "../../../shared/schemas/audit";
 import { verifyAuditChain } from "../../platform/audit-chain";
+import { cappedCount } from "../../platform/paging";
 
-/** One page of the append-only trail, newest first, filtered; actors by name. */
+/**
+ * One page of the append-only trail, newest first, filtered; actors by name. With `before` the page is a keyset range
+ * (id < before) on the primary key, so the thousandth page costs what the first does; without it `page` is an OFFSET,
+ * kept for links into the first pages. The page's ids are chosen first and only its rows meet the users table.
+ */
 export async function listAuditEvents(deps: AppDeps, q: z.output<typeof auditQuerySchema>): Promise<AuditPage> {
   const where: SQL[] = [];
   if (q.action) where.push(like(auditEvents.action, `${q.action.replace(/[\\%_]/g, (c) => `\\${c}`)}%`));
@@ -15,16 +20,27 @@ export async function listAuditEvents(deps: AppDeps, q: z.output<typeof auditQue
   if (q.subjectId) where.push(eq(auditEvents.subjectId, q.subjectId));
   if (q.from) where.push(gte(auditEvents.at, new Date(q.from)));
   if (q.to) where.push(lte(auditEvents.at, new Date(q.to)));
-  const rows = await deps.db
-    .select({ e: auditEvents, name: users.name, total: sql<number>`count(*) OVER ()::int` })
+  const filtered = where.length ? and(...where) : undefined;
+  const pageIds = deps.db
+    .select({ id: auditEvents.id })
     .from(auditEvents)
-    .leftJoin(users, eq(users.id, auditEvents.actorId))
-    .where(where.length ? and(...where) : undefined)
+    .where(q.before ? and(filtered, lt(auditEvents.id, q.before)) : filtered)
     .orderBy(desc(auditEvents.id))
     .limit(q.pageSize)
-    .offset((q.page - 1) * q.pageSize);
+    .offset(q.before ? 0 : (q.page - 1) * q.pageSize);
+  const [rows, count] = await Promise.all([
+    deps.db
+      .select({ e: auditEvents, name: users.name })
+      .from(auditEvents)
+      .leftJoin(users, eq(users.id, auditEvents.actorId))
+      .where(inArray(auditEvents.id, pageIds))
+      .orderBy(desc(auditEvents.id)),
+    cappedCount(deps.db, deps.db.select({ one: auditEvents.id }).from(auditEvents).where(filtered).getSQL()),
+  ]);
+  const last = rows[rows.length - 1];
   return {
-    total: rows[0]?.total ?? 0,
+    ...count,
+    nextBefore: rows.length === q.pageSize && last ? last.e.id : null,
     page: q.page,
     pageSize: q.pageSize,
     events: rows.map(({ e, name }) => ({

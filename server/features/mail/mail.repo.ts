@@ -1,15 +1,14 @@
 import { desc, ilike, or, sql } from "drizzle-orm";
+import { containsPattern } from "../../platform/paging";
 import type { Executor } from "../../db/client";
 import { mailOutbox, mailSinkMessages } from "../../db/schema";
-
-/** ILIKE treats % and _ as wildcards; a search for "a_b" means those three characters. */
-const containsPattern = (q: string) => `%${q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
 
 export function listSinkMessages(ex: Executor, limit: number, q?: string) {
   const where = q
     ? or(
         ilike(mailSinkMessages.subject, containsPattern(q)),
-        sql`array_to_string(${mailSinkMessages.toAddresses}, ' ') ilike ${containsPattern(q)}`,
+        // The expression of the trigram index mail_sink_to_trgm (migration 0013), so the search is an index look-up.
+        sql`rw_text_list(${mailSinkMessages.toAddresses}) ilike ${containsPattern(q)}`,
       )
     : undefined;
   return ex

@@ -2,14 +2,19 @@ import { sql, type SQL } from "drizzle-orm";
 import type { Executor } from "../../db/client";
 import type { planListQuerySchema, RevisionState } from "../../../shared/schemas";
 import type { z } from "zod";
+import { cappedCount, containsPattern } from "../../platform/paging";
 
 type Query = z.output<typeof planListQuerySchema>;
 
+/**
+ * Sort keys, each backed by an index (server/db/schema/plans.ts) so a page is a short index range; owner and model
+ * sort through an index on the name. Keys come from this fixed table, never from input.
+ */
 const SORT: Record<Query["sort"], string> = {
   updatedAt: "p.updated_at",
   createdAt: "p.created_at",
   title: "lower(p.title)",
-  state: "lr.state",
+  state: "p.latest_state",
   owner: "lower(u.name)",
   model: "lower(m.name)",
 };
@@ -28,39 +33,67 @@ export type PlanListRow = {
   latest_number: number;
   latest_state: RevisionState;
   approved_number: number | null;
-  total: number;
 };
 
-/** One page of plans, the state being that of the latest revision. Sort columns come from a fixed table, never from input. */
-export async function listPlanPage(ex: Executor, q: Query) {
+/**
+ * Plans matching the filters, as conditions on `plans p` alone. The text search is a union of four trigram-indexed
+ * look-ups (title, purpose, owner name, model name) rather than one OR over a four-table join, which no index serves.
+ */
+function filters(q: Query): SQL {
   const where: SQL[] = [sql`true`];
-  if (q.state) where.push(sql`lr.state = ${q.state}`);
+  if (q.state) where.push(sql`p.latest_state = ${q.state}`);
   if (q.ownerId) where.push(sql`p.owner_id = ${q.ownerId}`);
   if (q.modelId) where.push(sql`p.model_id = ${q.modelId}`);
   if (q.q) {
-    const like = `%${q.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
-    where.push(sql`(p.title ILIKE ${like} OR p.purpose ILIKE ${like} OR m.name ILIKE ${like} OR u.name ILIKE ${like})`);
+    const like = containsPattern(q.q);
+    where.push(sql`p.id IN (
+      SELECT id FROM plans WHERE title ILIKE ${like} OR purpose ILIKE ${like}
+      UNION SELECT id FROM plans WHERE owner_id IN (SELECT id FROM users WHERE name ILIKE ${like})
+      UNION SELECT id FROM plans WHERE model_id IN (SELECT id FROM model_profiles WHERE name ILIKE ${like}))`);
   }
-  const order = sql.raw(
-    `${SORT[q.sort]} ${q.dir === "asc" ? "ASC" : "DESC"}, p.id ${q.dir === "asc" ? "ASC" : "DESC"}`,
-  );
+  return sql.join(where, sql` AND `);
+}
+
+/** One page of plans with the stored latest state: the page is chosen first, names are joined to its rows only. */
+export async function listPlanPage(ex: Executor, q: Query) {
+  const dir = q.dir === "asc" ? "ASC" : "DESC";
+  const order = sql.raw(`${SORT[q.sort]} ${dir}, p.id ${dir}`);
+  // Owner and model sorts need the name to choose the page; the others choose it from plans alone.
+  const sortJoin =
+    q.sort === "owner"
+      ? sql`JOIN users u ON u.id = p.owner_id`
+      : q.sort === "model"
+        ? sql`JOIN model_profiles m ON m.id = p.model_id`
+        : sql``;
   const res = await ex.execute<PlanListRow>(sql`
-    SELECT p.id, p.title, p.purpose, p.owner_id, u.name AS owner_name, p.model_id, m.name AS model_name, p.required_approvals,
-           p.created_at, p.updated_at, lr.number AS latest_number, lr.state AS latest_state, ap.number AS approved_number,
-           count(*) OVER ()::int AS total
-    FROM plans p
+    WITH page AS (
+      SELECT p.id FROM plans p ${sortJoin}
+      WHERE ${filters(q)}
+      ORDER BY ${order}
+      LIMIT ${q.pageSize} OFFSET ${(q.page - 1) * q.pageSize})
+    SELECT p.id, p.title, p.purpose, p.owner_id, u.name AS owner_name, p.model_id, m.name AS model_name,
+           p.required_approvals, p.created_at, p.updated_at, p.latest_number, p.latest_state, p.approved_number
+    FROM page JOIN plans p ON p.id = page.id
     JOIN users u ON u.id = p.owner_id
     JOIN model_profiles m ON m.id = p.model_id
-    JOIN LATERAL (SELECT number, state FROM plan_revisions r WHERE r.plan_id = p.id ORDER BY number DESC LIMIT 1) lr ON true
-    LEFT JOIN LATERAL (SELECT number FROM plan_revisions r WHERE r.plan_id = p.id AND r.state = 'approved' ORDER BY number DESC LIMIT 1) ap ON true
-    WHERE ${sql.join(where, sql` AND `)}
-    ORDER BY ${order}
-    LIMIT ${q.pageSize} OFFSET ${(q.page - 1) * q.pageSize}`);
+    ORDER BY ${order}`);
   return res.rows;
 }
 
-/** Revisions waiting for a decision that this approver has not yet made (and did not author). */
-export async function reviewQueue(ex: Executor, approverId: number) {
+/** How many plans match, counted up to a cap (see cappedCount). */
+export const countPlans = (ex: Executor, q: Query) => cappedCount(ex, sql`SELECT 1 FROM plans p WHERE ${filters(q)}`);
+
+/** The review queue's rows: in review, not this approver's own, not yet decided by them this round. */
+const waitingFor = (approverId: number) => sql`
+  FROM plan_revisions r
+  WHERE r.state = 'in_review' AND r.author_id <> ${approverId}
+    AND NOT EXISTS (SELECT 1 FROM plan_decisions d WHERE d.revision_id = r.id AND d.round = r.round AND d.approver_id = ${approverId})`;
+
+export const reviewQueueCount = (ex: Executor, approverId: number) =>
+  cappedCount(ex, sql`SELECT 1 ${waitingFor(approverId)}`);
+
+/** One page of the review queue, oldest submission first (partial index plan_revisions_in_review). */
+export async function reviewQueue(ex: Executor, approverId: number, page: { limit: number; offset: number }) {
   const res = await ex.execute<{
     plan_id: number;
     title: string;
@@ -71,19 +104,22 @@ export async function reviewQueue(ex: Executor, approverId: number) {
     required_approvals: number;
     approvals: number;
   }>(sql`
-    SELECT p.id AS plan_id, p.title, r.number, a.name AS author_name, r.submitted_at, r.content_hash,
+    WITH queue AS (
+      SELECT r.id, r.plan_id, r.number, r.author_id, r.submitted_at, r.content_hash, r.round ${waitingFor(approverId)}
+      ORDER BY r.submitted_at ASC, r.id ASC
+      LIMIT ${page.limit} OFFSET ${page.offset})
+    SELECT p.id AS plan_id, p.title, q.number, a.name AS author_name, q.submitted_at, q.content_hash,
            GREATEST(p.required_approvals, COALESCE((SELECT (value #>> '{}')::int FROM settings WHERE key = 'minRequiredApprovals'), 1)) AS required_approvals,
-           (SELECT count(*)::int FROM plan_decisions d WHERE d.revision_id = r.id AND d.round = r.round AND d.decision = 'approve') AS approvals
-    FROM plan_revisions r JOIN plans p ON p.id = r.plan_id JOIN users a ON a.id = r.author_id
-    WHERE r.state = 'in_review' AND r.author_id <> ${approverId}
-      AND NOT EXISTS (SELECT 1 FROM plan_decisions d WHERE d.revision_id = r.id AND d.round = r.round AND d.approver_id = ${approverId})
-    ORDER BY r.submitted_at ASC`);
+           (SELECT count(*)::int FROM plan_decisions d WHERE d.revision_id = q.id AND d.round = q.round AND d.decision = 'approve') AS approvals
+    FROM queue q JOIN plans p ON p.id = q.plan_id JOIN users a ON a.id = q.author_id
+    ORDER BY q.submitted_at ASC, q.id ASC`);
   return res.rows;
 }
 
 /** People who own at least one plan, for the list's owner filter (readable by everyone signed in). */
 export async function planOwners(ex: Executor) {
+  // One probe of the owner index per user, instead of a DISTINCT over every plan.
   const res = await ex.execute<{ id: number; name: string }>(sql`
-    SELECT DISTINCT u.id, u.name FROM plans p JOIN users u ON u.id = p.owner_id ORDER BY u.name`);
+    SELECT u.id, u.name FROM users u WHERE EXISTS (SELECT 1 FROM plans p WHERE p.owner_id = u.id) ORDER BY u.name`);
   return res.rows;
 }

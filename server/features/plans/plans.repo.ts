@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, sql } from "drizzle-orm";
+import { and, asc, desc, eq, getTableColumns, sql } from "drizzle-orm";
 import { planDecisions, planRevisions, plans, settings, users } from "../../db/schema";
 import type { Executor } from "../../db/client";
 
@@ -11,8 +11,16 @@ export const findPlan = async (ex: Executor, id: number) =>
 export const lockPlan = async (ex: Executor, id: number) =>
   (await ex.select().from(plans).where(eq(plans.id, id)).for("update").limit(1))[0];
 
-export const revisionsOf = (ex: Executor, planId: number) =>
-  ex.select().from(planRevisions).where(eq(planRevisions.planId, planId)).orderBy(asc(planRevisions.number));
+/** Every column of a revision but its content, which the plan page does not show (it can be tens of kB each). */
+const { content: _content, ...revisionHead } = getTableColumns(planRevisions);
+export type RevisionHead = Omit<RevisionRow, "content">;
+
+export const revisionsOf = (ex: Executor, planId: number): Promise<RevisionHead[]> =>
+  ex
+    .select(revisionHead)
+    .from(planRevisions)
+    .where(eq(planRevisions.planId, planId))
+    .orderBy(asc(planRevisions.number));
 
 export const findRevision = async (ex: Executor, planId: number, n: number) =>
   (

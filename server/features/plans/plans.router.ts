@@ -4,6 +4,7 @@ import {
   createPlanRequestSchema,
   dbIdParam,
   decisionRequestSchema,
+  pageQuerySchema,
   planListQuerySchema,
   planSettingsSchema,
   updateRevisionRequestSchema,
@@ -15,6 +16,7 @@ import * as workflow from "./workflow.service";
 import { exportRevision, revisionReport, verifyRevision } from "./export.service";
 
 const planParams = z.object({ id: dbIdParam });
+const reviewQueueQuerySchema = pageQuerySchema(50);
 const revParams = planParams.extend({ n: dbIdParam });
 const diffParams = planParams.extend({ a: dbIdParam, b: dbIdParam });
 /** `?download=1` adds Content-Disposition: attachment with a file name. */
@@ -77,10 +79,14 @@ export const plansFeature: ApiFeature = {
     route({
       method: "get",
       path: "/review-queue",
-      summary: "Revisions awaiting my decision (approver)",
+      summary: "Revisions awaiting my decision, paged (approver)",
       access: approver,
+      query: reviewQueueQuerySchema,
       responses: { 200: out.reviewQueueResponseSchema },
-      handler: async ({ deps, user }) => ({ status: 200, body: await reads.listReviewQueue(deps, user.id) }),
+      handler: async ({ deps, user, query }) => ({
+        status: 200,
+        body: await reads.listReviewQueue(deps, user.id, query),
+      }),
     }),
     route({
       method: "get",

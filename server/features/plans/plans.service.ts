@@ -12,7 +12,7 @@ import {
 } from "../../../shared/schemas";
 import type { z } from "zod";
 import * as repo from "./plans.repo";
-import { listPlanPage } from "./plans.list";
+import { countPlans, listPlanPage } from "./plans.list";
 import { buildContent, hashContent, snapshotOf, type ModelSnapshot, type RevisionContent } from "./revision-content";
 import { budgetPart, keptAcceleratorOf, refuseRetiredAccelerator } from "./budget-part";
 import { signatureStatus, signingKey } from "./signing";
@@ -194,9 +194,9 @@ export async function updatePlanSettings(deps: AppDeps, actor: SessionUser, min:
 }
 
 export async function listPlans(deps: AppDeps, q: z.output<typeof planListQuerySchema>) {
-  const rows = await listPlanPage(deps.db, q);
+  const [rows, count] = await Promise.all([listPlanPage(deps.db, q), countPlans(deps.db, q)]);
   return {
-    total: rows[0]?.total ?? 0,
+    ...count,
     page: q.page,
     pageSize: q.pageSize,
     plans: rows.map((r) => ({

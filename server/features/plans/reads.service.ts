@@ -1,9 +1,10 @@
 import type { AppDeps } from "../../deps";
 import type { DiffResponse, ReviewQueueItem } from "../../../shared/schemas/plans";
 import { diffContents } from "./diff";
-import { planOwners, reviewQueue } from "./plans.list";
+import { planOwners, reviewQueue, reviewQueueCount } from "./plans.list";
 import { minRequiredApprovals } from "./plans.repo";
 import { getRevision } from "./plans.service";
+import { pageWindow } from "../../platform/paging";
 
 /** Lab-wide plan settings as everyone may read them. */
 export const planSettings = async (deps: AppDeps) => ({ minRequiredApprovals: await minRequiredApprovals(deps.db) });
@@ -11,21 +12,23 @@ export const planSettings = async (deps: AppDeps) => ({ minRequiredApprovals: aw
 /** People who own plans (for the list's filter). */
 export const listPlanOwners = async (deps: AppDeps) => ({ owners: await planOwners(deps.db) });
 
-/** Revisions awaiting this approver's decision, oldest submission first. */
-export async function listReviewQueue(deps: AppDeps, approverId: number): Promise<{ items: ReviewQueueItem[] }> {
-  const rows = await reviewQueue(deps.db, approverId);
-  return {
-    items: rows.map((q) => ({
-      planId: q.plan_id,
-      title: q.title,
-      revision: q.number,
-      author: q.author_name,
-      submittedAt: new Date(q.submitted_at).toISOString(),
-      contentHash: q.content_hash,
-      approvals: q.approvals,
-      requiredApprovals: q.required_approvals,
-    })),
-  };
+/** Revisions awaiting this approver's decision, oldest submission first, one page. */
+export async function listReviewQueue(deps: AppDeps, approverId: number, q: { page: number; pageSize: number }) {
+  const [rows, count] = await Promise.all([
+    reviewQueue(deps.db, approverId, pageWindow(q.page, q.pageSize)),
+    reviewQueueCount(deps.db, approverId),
+  ]);
+  const items: ReviewQueueItem[] = rows.map((q) => ({
+    planId: q.plan_id,
+    title: q.title,
+    revision: q.number,
+    author: q.author_name,
+    submittedAt: new Date(q.submitted_at).toISOString(),
+    contentHash: q.content_hash,
+    approvals: q.approvals,
+    requiredApprovals: q.required_approvals,
+  }));
+  return { ...count, page: q.page, pageSize: q.pageSize, items };
 }
 
 /** Field, stage, flag and budget differences between revisions a and b of one plan. */

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { bandsSchema, configPatchSchema, methodParamsSchema } from "../analysis";
 import { revisionBudgetSchema } from "../budget";
+import { pagedTotal } from "../common";
 import { layerGroupSchema } from "../models";
 import {
   acceptanceCriterionSchema,
@@ -35,7 +36,7 @@ export const planListItemSchema = z.object({
 export type PlanListItem = z.infer<typeof planListItemSchema>;
 
 export const planListResponseSchema = z.object({
-  total: z.number(),
+  ...pagedTotal,
   page: z.number(),
   pageSize: z.number(),
   plans: z.array(planListItemSchema),
@@ -276,7 +277,12 @@ export const reviewQueueItemSchema = z.object({
   requiredApprovals: z.number(),
 });
 export type ReviewQueueItem = z.infer<typeof reviewQueueItemSchema>;
-export const reviewQueueResponseSchema = z.object({ items: z.array(reviewQueueItemSchema) });
+export const reviewQueueResponseSchema = z.object({
+  ...pagedTotal,
+  page: z.number(),
+  pageSize: z.number(),
+  items: z.array(reviewQueueItemSchema),
+});
 
 /** GET /api/signing-key: the public half of the key that signs decisions. */
 export const signingKeyResponseSchema = z.object({

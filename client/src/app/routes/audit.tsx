@@ -52,7 +52,14 @@ export function AuditRoute() {
             page={page.data.page}
             pageSize={params.pageSize ?? DEFAULT_PAGE_SIZE}
             total={page.data.total}
-            onPage={(p) => update({ page: p })}
+            totalCapped={page.data.totalCapped}
+            // The next page follows the server's cursor (as cheap at any depth); other moves go by page number.
+            onPage={(p) =>
+              update({
+                page: p,
+                before: p === page.data.page + 1 && page.data.nextBefore ? page.data.nextBefore : undefined,
+              })
+            }
             noun="Events"
           />
         </div>

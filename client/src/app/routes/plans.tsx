@@ -70,6 +70,7 @@ export function PlansRoute() {
             page={list.data.page}
             pageSize={params.pageSize ?? DEFAULT_PAGE_SIZE}
             total={list.data.total}
+            totalCapped={list.data.totalCapped}
             onPage={(page) => update({ page })}
             noun="Plans"
           />

@@ -7,6 +7,7 @@ import { useRefreshPlan } from "@/features/plans/api/workflow";
 import { plansQueries } from "@/features/plans/api/queries";
 import { DecisionDialog } from "@/features/plans/components/decision-dialog";
 import { ReviewQueueTable } from "@/features/plans/components/review-queue-table";
+import { Pager } from "@/features/plans/components/pager";
 
 const SAID: Record<string, string> = {
   approved: "approved and signed; its export is ready",
@@ -15,7 +16,8 @@ const SAID: Record<string, string> = {
 };
 
 export function ReviewRoute() {
-  const queue = useQuery(plansQueries.reviewQueue());
+  const [page, setPage] = useState(1);
+  const queue = useQuery(plansQueries.reviewQueue(page));
   const refreshPlan = useRefreshPlan();
   const [deciding, setDeciding] = useState<ReviewQueueItem | null>(null);
   const [notice, setNotice] = useState<string | null>(null);
@@ -33,13 +35,25 @@ export function ReviewRoute() {
           </Notice>
         )}
         {queue.data && (
-          <ReviewQueueTable
-            items={queue.data}
-            onDecide={(item) => {
-              setNotice(null);
-              setDeciding(item);
-            }}
-          />
+          <div className="flex flex-col gap-3">
+            <ReviewQueueTable
+              items={queue.data.items}
+              onDecide={(item) => {
+                setNotice(null);
+                setDeciding(item);
+              }}
+            />
+            {(queue.data.total > queue.data.pageSize || page > 1) && (
+              <Pager
+                page={queue.data.page}
+                pageSize={queue.data.pageSize}
+                total={queue.data.total}
+                totalCapped={queue.data.totalCapped}
+                onPage={setPage}
+                noun="Revisions"
+              />
+            )}
+          </div>
         )}
       </Panel>
       {deciding && (

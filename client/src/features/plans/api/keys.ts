@@ -14,4 +14,5 @@ export const plansKeys = {
   owners: () => [...plansKeys.all, "owners"] as const,
   /** Under `all`, so a plan change that invalidates every plan read refreshes the approver's queue too. */
   reviewQueue: () => [...plansKeys.all, "review-queue"] as const,
+  reviewQueuePage: (page: number) => [...plansKeys.reviewQueue(), page] as const,
 };

@@ -1,16 +1,20 @@
-import { queryOptions } from "@tanstack/react-query";
+import { keepPreviousData, queryOptions } from "@tanstack/react-query";
 import { reviewQueueResponseSchema } from "@shared/schemas/plans";
 import { apiClient } from "@/lib/api-client";
 import { apiPaths } from "@/config/paths";
 import { plansKeys } from "./keys";
 
-export const fetchReviewQueue = (signal?: AbortSignal) =>
-  apiClient.get(apiPaths.reviewQueue(), reviewQueueResponseSchema, signal).then((r) => r.items);
+/** Rows per page of the queue (the server's default too). */
+export const REVIEW_PAGE_SIZE = 50;
 
-/** Revisions waiting for this approver: in review, not theirs, not yet decided by them this round. */
-export const reviewQueueQuery = () =>
+export const fetchReviewQueue = (page: number, signal?: AbortSignal) =>
+  apiClient.get(apiPaths.reviewQueue({ page, pageSize: REVIEW_PAGE_SIZE }), reviewQueueResponseSchema, signal);
+
+/** Revisions waiting for this approver: in review, not theirs, not yet decided by them this round; one page. */
+export const reviewQueueQuery = (page = 1) =>
   queryOptions({
-    queryKey: plansKeys.reviewQueue(),
-    queryFn: ({ signal }) => fetchReviewQueue(signal),
+    queryKey: plansKeys.reviewQueuePage(page),
+    queryFn: ({ signal }) => fetchReviewQueue(page, signal),
     staleTime: 5_000,
+    placeholderData: keepPreviousData,
   });

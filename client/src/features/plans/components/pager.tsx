@@ -1,26 +1,35 @@
 import { Button } from "@/components/button";
 import { formatCount } from "@/lib/format";
 
-type PagerProps = { page: number; pageSize: number; total: number; onPage: (page: number) => void; noun: string };
+type PagerProps = {
+  page: number;
+  pageSize: number;
+  total: number;
+  /** The server counted up to `total` and stopped: there are more, so there is no last page to name. */
+  totalCapped?: boolean;
+  onPage: (page: number) => void;
+  noun: string;
+};
 
-/** "Plans 21–40 of 57" with previous / next. Pages count from 1, as the server's `page` does. */
-export function Pager({ page, pageSize, total, onPage, noun }: PagerProps) {
+/** "Plans 21–40 of 57" (or "of 10,000+") with previous / next. Pages count from 1, as the server's `page` does. */
+export function Pager({ page, pageSize, total, totalCapped = false, onPage, noun }: PagerProps) {
   const pages = Math.max(1, Math.ceil(total / pageSize));
   const first = total === 0 ? 0 : (page - 1) * pageSize + 1;
-  const last = Math.min(total, page * pageSize);
+  const last = totalCapped ? page * pageSize : Math.min(total, page * pageSize);
+  const of = totalCapped ? `${formatCount(total)}+` : `${formatCount(total)} · page ${page} of ${pages}`;
   return (
     <nav
       aria-label={`${noun} pages`}
       className="flex flex-wrap items-center justify-between gap-3 text-note text-ink-soft"
     >
       <span>
-        {noun} {formatCount(first)}–{formatCount(last)} of {formatCount(total)} · page {page} of {pages}
+        {noun} {formatCount(first)}–{formatCount(last)} of {of}
       </span>
       <span className="flex gap-2">
         <Button variant="secondary" size="sm" disabled={page <= 1} onClick={() => onPage(page - 1)}>
           Previous page
         </Button>
-        <Button variant="secondary" size="sm" disabled={page >= pages} onClick={() => onPage(page + 1)}>
+        <Button variant="secondary" size="sm" disabled={!totalCapped && page >= pages} onClick={() => onPage(page + 1)}>
           Next page
         </Button>
       </span>

@@ -1,0 +1,180 @@
+import { describe, expect, it } from "vitest";
+import { sql } from "drizzle-orm";
+import { makeTestApp } from "../../setup/app";
+import { testDb } from "../../setup/db";
+import { createPlan, createProfile, decide, post } from "../../setup/plans";
+import { cappedCount } from "../../../server/platform/paging";
+
+const { agentAs } = makeTestApp();
+const { db } = testDb();
+
+/** The stored columns against the definition they replace: the latest revision's state, computed per plan. */
+async function storedAndComputed(planId: number) {
+  const r = await db.execute<Record<string, unknown>>(sql`
+    SELECT p.latest_number, p.latest_state, p.approved_number,
+           (SELECT number FROM plan_revisions WHERE plan_id = p.id ORDER BY number DESC LIMIT 1) AS computed_number,
+           (SELECT state FROM plan_revisions WHERE plan_id = p.id ORDER BY number DESC LIMIT 1) AS computed_state,
+           (SELECT max(number) FROM plan_revisions WHERE plan_id = p.id AND state = 'approved') AS computed_approved
+    FROM plans p WHERE p.id = ${planId}`);
+  const row = r.rows[0];
+  return {
+    stored: [row.latest_number, row.latest_state, row.approved_number],
+    computed: [row.computed_number, row.computed_state, row.computed_approved],
+  };
+}
+
+describe("stored latest state on plans", () => {
+  it("follows every revision change in the same transaction, whichever path makes it", async () => {
+    const researcher = await agentAs(["researcher"]);
+    const approver = await agentAs(["approver"]);
+    const model = await createProfile(researcher);
+    const plan = await createPlan(researcher, model.id);
+    const base = `/api/plans/${plan.id}`;
+    const check = async (expected: unknown[]) => {
+      const s = await storedAndComputed(plan.id);
+      expect(s.stored).toEqual(s.computed);
+      expect(s.stored).toEqual(expected);
+      const listed = await researcher.get(`/api/plans?ownerId=${researcher.user!.id}`).expect(200);
+      const item = listed.body.plans.find((p: { id: number }) => p.id === plan.id);
+      expect([item.latestRevision, item.state, item.approvedRevision]).toEqual(expected);
+    };
+    await check([1, "draft", null]);
+    await post(researcher, `${base}/revisions/1/submit`).expect(200);
+    await check([1, "in_review", null]);
+    await decide(approver, `${base}/revisions/1/decisions`, { decision: "approve" }).expect(200);
+    await check([1, "approved", 1]);
+    await post(researcher, `${base}/revisions`).expect(201);
+    await check([2, "draft", 1]);
+    // A change outside the services (an administrator's fix in SQL) is followed too: the trigger does it.
+    await db.execute(sql`UPDATE plan_revisions SET state = 'superseded' WHERE plan_id = ${plan.id} AND number = 1`);
+    await check([2, "draft", null]);
+    // A rolled-back change leaves the stored state as it was.
+    await db
+      .transaction(async (tx) => {
+        await tx.execute(sql`UPDATE plan_revisions SET state = 'in_review' WHERE plan_id = ${plan.id} AND number = 2`);
+        throw new Error("roll back");
+      })
+      .catch(() => undefined);
+    await check([2, "draft", null]);
+  });
+
+  it("the state filter reads the stored state: each listed plan's latest revision is in that state", async () => {
+    const researcher = await agentAs(["researcher"]);
+    const model = await createProfile(researcher);
+    const a = await createPlan(researcher, model.id);
+    const b = await createPlan(researcher, model.id);
+    await post(researcher, `/api/plans/${b.id}/revisions/1/submit`).expect(200);
+    const r = await researcher.get(`/api/plans?state=in_review&modelId=${model.id}`).expect(200);
+    expect(r.body.plans.map((p: { id: number }) => p.id)).toEqual([b.id]);
+    expect(r.body).toMatchObject({ total: 1, totalCapped: false });
+    const drafts = await researcher.get(`/api/plans?state=draft&modelId=${model.id}`).expect(200);
+    expect(drafts.body.plans.map((p: { id: number }) => p.id)).toEqual([a.id]);
+  });
+});
+
+describe("plan list search and sorts", () => {
+  it("q finds plans by title, purpose, owner name and model name, escaping % and _", async () => {
+    const tag = `kx${Math.random().toString(36).slice(2, 8)}`;
+    const owner = await agentAs(["researcher"]);
+    const model = await createProfile(owner, { name: `Model ${tag}_m` });
+    const byTitle = await createPlan(owner, model.id, { title: `Title ${tag}` });
+    const byPurpose = await createPlan(owner, model.id, { title: "plain", purpose: `for ${tag} runs` });
+    const ids = async (q: string) =>
+      (await owner.get(`/api/plans?pageSize=100&q=${encodeURIComponent(q)}`).expect(200)).body.plans
+        .map((p: { id: number }) => p.id)
+        .sort((x: number, y: number) => x - y);
+    // Every plan of the model matches through the model's name.
+    expect(await ids(`${tag}_m`)).toEqual([byTitle.id, byPurpose.id].sort((x, y) => x - y));
+    expect(await ids(`Title ${tag}`)).toEqual([byTitle.id]);
+    expect(await ids(`for ${tag}`)).toEqual([byPurpose.id]);
+    // "_" is a character, not a wildcard: "<tag>xm" matches nothing.
+    expect(await ids(`${tag}xm`)).toEqual([]);
+    const ownerName = (await owner.get("/api/auth/session").expect(200)).body.user.name as string;
+    expect(await ids(ownerName)).toEqual(expect.arrayContaining([byTitle.id, byPurpose.id]));
+  });
+
+  it("every sort key answers pages that tile the list without gaps or repeats", async () => {
+    const researcher = await agentAs(["researcher"]);
+    const model = await createProfile(researcher);
+    for (let i = 0; i < 5; i++) await createPlan(researcher, model.id, { title: `Same title` });
+    for (const sort of ["updatedAt", "createdAt", "title", "state", "owner", "model"]) {
+      for (const dir of ["asc", "desc"]) {
+        const url = `/api/plans?modelId=${model.id}&sort=${sort}&dir=${dir}&pageSize=2`;
+        const seen: number[] = [];
+        for (let page = 1; page <= 3; page++) {
+          const r = await researcher.get(`${url}&page=${page}`).expect(200);
+          expect(r.body.total).toBe(5);
+          seen.push(...r.body.plans.map((p: { id: number }) => p.id));
+        }
+        expect(new Set(seen).size).toBe(5);
+      }
+    }
+  });
+});
+
+describe("capped totals", () => {
+  it("count exactly up to the cap, then say there are more", async () => {
+    // Identity: generate_series(1, n) has n rows.
+    expect(await cappedCount(db, sql`SELECT generate_series(1, 7)`, 10)).toEqual({ total: 7, totalCapped: false });
+    expect(await cappedCount(db, sql`SELECT generate_series(1, 10)`, 10)).toEqual({ total: 10, totalCapped: false });
+    expect(await cappedCount(db, sql`SELECT generate_series(1, 11)`, 10)).toEqual({ total: 10, totalCapped: true });
+  });
+});
+
+describe("audit keyset paging", () => {
+  it("following nextBefore gives the same events as the offset pages, newest first", async () => {
+    const admin = await agentAs(["admin"]);
+    const researcher = await agentAs(["researcher"]);
+    const model = await createProfile(researcher);
+    for (let i = 0; i < 3; i++) await createPlan(researcher, model.id);
+    const filter = `actorId=${researcher.user!.id}&pageSize=2`;
+    const byOffset: number[] = [];
+    for (let page = 1; page <= 3; page++) {
+      const r = await admin.get(`/api/audit?${filter}&page=${page}`).expect(200);
+      byOffset.push(...r.body.events.map((e: { id: number }) => e.id));
+    }
+    const byKey: number[] = [];
+    let before: number | null = null;
+    for (let page = 1; page <= 3; page++) {
+      const url = `/api/audit?${filter}&page=${page}${before ? `&before=${before}` : ""}`;
+      const body = (await admin.get(url).expect(200)).body as {
+        total: number;
+        events: { id: number }[];
+        nextBefore: number | null;
+      };
+      expect(body.total).toBe(byOffset.length);
+      byKey.push(...body.events.map((e) => e.id));
+      before = body.nextBefore;
+      if (!before) break;
+    }
+    expect(byKey).toEqual(byOffset);
+    expect([...byKey].sort((x, y) => y - x)).toEqual(byKey);
+    // A bad cursor is a 400 naming the field.
+    const bad = await admin.get(`/api/audit?before=abc`);
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields.before).toBeTruthy();
+  });
+});
+
+describe("review queue paging", () => {
+  it("pages the queue oldest first with a total", async () => {
+    const researcher = await agentAs(["researcher"]);
+    const approver = await agentAs(["approver"]);
+    const model = await createProfile(researcher);
+    const all = (await approver.get("/api/plans/review-queue?pageSize=200").expect(200)).body;
+    const before = all.total as number;
+    for (let i = 0; i < 3; i++) {
+      const p = await createPlan(researcher, model.id);
+      await post(researcher, `/api/plans/${p.id}/revisions/1/submit`).expect(200);
+    }
+    const first = (await approver.get("/api/plans/review-queue?pageSize=1").expect(200)).body;
+    expect(first.items).toHaveLength(1);
+    expect(first.total).toBeGreaterThanOrEqual(before + 3);
+    const everything = (await approver.get("/api/plans/review-queue?pageSize=200").expect(200)).body.items;
+    const submitted = everything.map((i: { submittedAt: string }) => i.submittedAt);
+    expect([...submitted].sort()).toEqual(submitted);
+    const bad = await approver.get("/api/plans/review-queue?pageSize=0");
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields.pageSize).toBeTruthy();
+  });
+});
