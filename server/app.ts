@@ -1,7 +1,6 @@
-import fs from "node:fs";
-import path from "node:path";
 import express from "express";
 import helmet from "helmet";
+import compression from "compression";
 import cookieParser from "cookie-parser";
 import type { AppDeps } from "./deps";
 import { NotFound } from "./platform/errors";
@@ -14,6 +13,7 @@ import { bearerAuth, unlessBearer } from "./http/bearer";
 import { rejectHostileInput } from "./http/hostile";
 import { requestLog } from "./http/request-log";
 import { createLogger } from "./logger";
+import { serveClient } from "./http/static-client";
 
 export const JSON_LIMIT = "512kb";
 
@@ -36,6 +36,10 @@ export function createApp(deps: AppDeps) {
     }),
   );
 
+  // gzip/brotli for API answers and index.html; precompressed assets already carry Content-Encoding and are left
+  // alone, as are server-sent events (their Cache-Control says no-transform).
+  app.use(compression());
+
   const api = express.Router();
   for (const f of OPEN_FEATURES) api.use(f.prefix || "/", mountFeature(f, deps));
   api.use(bearerAuth(deps));
@@ -49,11 +53,7 @@ export function createApp(deps: AppDeps) {
   api.use((_req, _res, next) => next(new NotFound("no such API route")));
   app.use("/api", api);
 
-  const index = path.join(deps.config.clientDir, "index.html");
-  if (fs.existsSync(index)) {
-    app.use(express.static(deps.config.clientDir, { index: false, maxAge: "1h" }));
-    app.get("/{*splat}", (_req, res) => res.sendFile(index));
-  }
+  serveClient(app, deps.config.clientDir);
   app.use(errorMiddleware);
   return app;
 }

@@ -1,28 +1,32 @@
+import { lazy } from "react";
 import { createBrowserRouter, RouterProvider } from "react-router-dom";
 import { RouteErrorBoundary } from "../components/error-view";
 import { paths, routes } from "../config/paths";
 import { AppLayout } from "./layout/app-layout";
 import { RoleGate } from "./layout/role-gate";
-import { AcceleratorsRoute } from "./routes/accelerators";
-import { AuditRoute } from "./routes/audit";
-import { MailRoute } from "./routes/mail";
-import { PlanRoute } from "./routes/plan";
-import { PlanDiffRoute } from "./routes/plan-diff";
-import { PlanEditRoute } from "./routes/plan-edit";
-import { PlanNewRoute } from "./routes/plan-new";
-import { PlansRoute } from "./routes/plans";
-import { ReviewRoute } from "./routes/review";
-import { EstimatorRoute } from "./routes/estimator";
-import { HomeRoute } from "./routes/home";
-import { ModelsRoute } from "./routes/models";
-import { ModelDetailRoute } from "./routes/models-detail";
-import { ModelImportRoute } from "./routes/models-import";
-import { ModelNewRoute } from "./routes/models-new";
-import { NotFoundRoute } from "./routes/not-found";
-import { ProfileRoute } from "./routes/profile";
 import { SignInRoute } from "./routes/sign-in";
-import { UsersRoute } from "./routes/users";
-import { WorkbenchRoute } from "./routes/workbench";
+
+// Every screen but sign-in is its own chunk, fetched when first visited (AppLayout shows a Suspense fallback
+// meanwhile): the first page pulls only the sign-in form, the layout and the libraries they use.
+const AcceleratorsRoute = lazy(() => import("./routes/accelerators").then((m) => ({ default: m.AcceleratorsRoute })));
+const AuditRoute = lazy(() => import("./routes/audit").then((m) => ({ default: m.AuditRoute })));
+const MailRoute = lazy(() => import("./routes/mail").then((m) => ({ default: m.MailRoute })));
+const PlanRoute = lazy(() => import("./routes/plan").then((m) => ({ default: m.PlanRoute })));
+const PlanDiffRoute = lazy(() => import("./routes/plan-diff").then((m) => ({ default: m.PlanDiffRoute })));
+const PlanEditRoute = lazy(() => import("./routes/plan-edit").then((m) => ({ default: m.PlanEditRoute })));
+const PlanNewRoute = lazy(() => import("./routes/plan-new").then((m) => ({ default: m.PlanNewRoute })));
+const PlansRoute = lazy(() => import("./routes/plans").then((m) => ({ default: m.PlansRoute })));
+const ReviewRoute = lazy(() => import("./routes/review").then((m) => ({ default: m.ReviewRoute })));
+const EstimatorRoute = lazy(() => import("./routes/estimator").then((m) => ({ default: m.EstimatorRoute })));
+const HomeRoute = lazy(() => import("./routes/home").then((m) => ({ default: m.HomeRoute })));
+const ModelsRoute = lazy(() => import("./routes/models").then((m) => ({ default: m.ModelsRoute })));
+const ModelDetailRoute = lazy(() => import("./routes/models-detail").then((m) => ({ default: m.ModelDetailRoute })));
+const ModelImportRoute = lazy(() => import("./routes/models-import").then((m) => ({ default: m.ModelImportRoute })));
+const ModelNewRoute = lazy(() => import("./routes/models-new").then((m) => ({ default: m.ModelNewRoute })));
+const NotFoundRoute = lazy(() => import("./routes/not-found").then((m) => ({ default: m.NotFoundRoute })));
+const ProfileRoute = lazy(() => import("./routes/profile").then((m) => ({ default: m.ProfileRoute })));
+const UsersRoute = lazy(() => import("./routes/users").then((m) => ({ default: m.UsersRoute })));
+const WorkbenchRoute = lazy(() => import("./routes/workbench").then((m) => ({ default: m.WorkbenchRoute })));
 
 // Each route has its own error boundary so one broken screen keeps the header and navigation.
 const routeError = <RouteErrorBoundary homeHref={paths.home()} />;

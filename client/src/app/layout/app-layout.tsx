@@ -1,4 +1,4 @@
-import { useState } from "react";
+import { Suspense, useState } from "react";
 import { Navigate, Outlet, useLocation, useNavigate } from "react-router-dom";
 import { AppShell } from "@/components/app-shell";
 import { Button } from "@/components/button";
@@ -63,7 +63,10 @@ export function AppLayout() {
 
   return (
     <AppShell homeHref={paths.home()} account={account} nav={<NavStrand entries={visibleNav(user.roles)} />}>
-      <Outlet />
+      {/* screens are loaded on first visit (router.tsx); the header stays while one arrives */}
+      <Suspense fallback={<Loading />}>
+        <Outlet />
+      </Suspense>
     </AppShell>
   );
 }

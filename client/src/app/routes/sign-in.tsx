@@ -1,6 +1,6 @@
 import { Navigate, useNavigate, useSearchParams } from "react-router-dom";
 import { AppShell } from "@/components/app-shell";
-import { Loading, Notice } from "@/components/notice";
+import { Notice } from "@/components/notice";
 import { paths, safeNext } from "@/config/paths";
 import { SignInForm } from "@/features/auth/components/sign-in-form";
 import { useSession } from "@/features/auth/hooks/use-session";
@@ -11,12 +11,8 @@ export function SignInRoute() {
   const [params] = useSearchParams();
   const next = safeNext(params.get("next"));
 
-  if (session.isPending)
-    return (
-      <AppShell homeHref={paths.home()}>
-        <Loading />
-      </AppShell>
-    );
+  // The form shows at once, while the session is still being read: a visitor who turns out to be signed in is
+  // sent on when the answer comes (the form's first POST fetches the CSRF token itself if it is not known yet).
   if (session.data?.user) return <Navigate to={next} replace />;
 
   return (
