@@ -1,5 +1,4 @@
 import type { BUDGET_RECIPE_IDS, BudgetRecipeResponse } from "../../../shared/schemas/budget";
-import type { StageInput } from "./types";
 
 export type BudgetRecipeId = (typeof BUDGET_RECIPE_IDS)[number];
 /** What a paper reported for its own runs. Shown beside a plan as a starting point, never as a prediction. */
@@ -47,14 +46,5 @@ export function findRecipe(id: BudgetRecipeId): BudgetRecipe {
   return recipe;
 }
 
-/**
- * A stage built from a recipe: the paper's length when it gave one, else the plan's target;
- * the paper's global batch when it gave one, else `fallbackGlobalBatch`; steps when reported, else tokens.
- */
-export function recipeStage(recipe: BudgetRecipe, targetContext: number, fallbackGlobalBatch: number): StageInput {
-  const sequenceLength = recipe.reported.sequenceLength ?? targetContext;
-  const globalBatch = recipe.reported.globalBatch ?? fallbackGlobalBatch;
-  if (recipe.reported.steps !== undefined) return { sequenceLength, globalBatch, steps: recipe.reported.steps };
-  if (recipe.reported.tokens !== undefined) return { sequenceLength, globalBatch, tokens: recipe.reported.tokens };
-  throw new RangeError(`recipe ${recipe.id} reports neither steps nor tokens`);
-}
+// A stage built from a recipe is the same rule for the engine and the budget sheets: shared/recipe-stage.ts.
+export { recipeStage } from "../../../shared/recipe-stage";

@@ -1,6 +1,7 @@
 import type { Executor } from "../../db/client";
 import { resolveAndEstimate } from "../budgets";
 import { budgetShapeOf } from "../../../shared/profile-shapes";
+import { planBudgetContexts } from "../../../shared/plan-budget";
 import { Conflict, Invalid } from "../../platform/errors";
 import { findAccelerator } from "../accelerators";
 import { parseOr400 } from "../../platform/validate";
@@ -30,8 +31,11 @@ export async function budgetPart(
   const request = {
     ...v.budget,
     model: budgetShapeOf(model),
-    trainedContext: model.trainedContext,
-    targetContext: Math.max(v.targetContext, ...v.stages.map((s) => s.sequenceLength)),
+    ...planBudgetContexts(
+      model.trainedContext,
+      v.targetContext,
+      v.stages.map((s) => s.sequenceLength),
+    ),
     stages: v.stages.map((s) => ({ sequenceLength: s.sequenceLength, steps: s.steps, globalBatch: s.globalBatch })),
   };
   let out;

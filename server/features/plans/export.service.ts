@@ -10,6 +10,7 @@ import type { RevisionContent } from "./revision-content";
 import { checkRevision } from "./integrity";
 import { signingKey } from "./signing";
 import { layeredExport } from "./group-export";
+import { isSigned, latestApproved } from "../../../shared/plan-rules";
 
 export const EXPORT_CAUTION =
   "Estimates, not guarantees: this patch is what was signed; the extension is confirmed only by long-context evaluations of the tuned model.";
@@ -54,12 +55,12 @@ export async function exportRevision(
   const plan = await mustPlan(deps.db, planId);
   let number: number;
   if (n === "approved") {
-    const approved = (await repo.revisionsOf(deps.db, planId)).filter((r) => r.state === "approved").pop();
+    const approved = latestApproved(await repo.revisionsOf(deps.db, planId));
     if (!approved) throw new Conflict("this plan has no approved revision yet", { state: "no approved revision" });
     number = approved.number;
   } else number = n;
   const rev = await mustRevision(deps.db, planId, number);
-  if (rev.state !== "approved" && rev.state !== "superseded") {
+  if (!isSigned(rev.state)) {
     throw new Conflict(`revision ${number} is ${rev.state}; only signed revisions export`, { state: rev.state });
   }
   const c = await check(deps, planId, rev);

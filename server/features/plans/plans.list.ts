@@ -109,7 +109,7 @@ export async function reviewQueue(ex: Executor, approverId: number, page: { limi
       ORDER BY r.submitted_at ASC, r.id ASC
       LIMIT ${page.limit} OFFSET ${page.offset})
     SELECT p.id AS plan_id, p.title, q.number, a.name AS author_name, q.submitted_at, q.content_hash,
-           GREATEST(p.required_approvals, COALESCE((SELECT (value #>> '{}')::int FROM settings WHERE key = 'minRequiredApprovals'), 1)) AS required_approvals,
+           p.required_approvals,
            (SELECT count(*)::int FROM plan_decisions d WHERE d.revision_id = q.id AND d.round = q.round AND d.decision = 'approve') AS approvals
     FROM queue q JOIN plans p ON p.id = q.plan_id JOIN users a ON a.id = q.author_id
     ORDER BY q.submitted_at ASC, q.id ASC`);

@@ -17,6 +17,7 @@ import { buildContent, hashContent, snapshotOf, type ModelSnapshot, type Revisio
 import { budgetPart, keptAcceleratorOf, refuseRetiredAccelerator } from "./budget-part";
 import { signatureStatus, signingKey } from "./signing";
 import { decisionPayload } from "./integrity";
+import { effectiveRequiredApprovals, latestApproved } from "../../../shared/plan-rules";
 
 /** Engine results and budget figures for revision values; what gets hashed. */
 export async function makeContent(
@@ -32,7 +33,7 @@ export async function makeContent(
 }
 
 export async function effectiveApprovals(ex: Executor, plan: repo.PlanRow) {
-  return Math.max(plan.requiredApprovals, await repo.minRequiredApprovals(ex));
+  return effectiveRequiredApprovals(plan.requiredApprovals, await repo.minRequiredApprovals(ex));
 }
 
 export async function mustPlan(ex: Executor, id: number) {
@@ -241,7 +242,7 @@ export async function getPlan(deps: AppDeps, id: number) {
   const authors = new Map(await Promise.all(authorIds.map(async (a) => [a, await repo.userRef(deps.db, a)] as const)));
   const key = signingKey(deps.config.signingKeyFile);
   const latest = revs[revs.length - 1];
-  const approved = [...revs].reverse().find((r) => r.state === "approved");
+  const approved = latestApproved(revs);
   return {
     id: plan.id,
     title: plan.title,

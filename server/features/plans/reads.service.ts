@@ -5,6 +5,7 @@ import { planOwners, reviewQueue, reviewQueueCount } from "./plans.list";
 import { minRequiredApprovals } from "./plans.repo";
 import { getRevision } from "./plans.service";
 import { pageWindow } from "../../platform/paging";
+import { effectiveRequiredApprovals } from "../../../shared/plan-rules";
 
 /** Lab-wide plan settings as everyone may read them. */
 export const planSettings = async (deps: AppDeps) => ({ minRequiredApprovals: await minRequiredApprovals(deps.db) });
@@ -14,9 +15,10 @@ export const listPlanOwners = async (deps: AppDeps) => ({ owners: await planOwne
 
 /** Revisions awaiting this approver's decision, oldest submission first, one page. */
 export async function listReviewQueue(deps: AppDeps, approverId: number, q: { page: number; pageSize: number }) {
-  const [rows, count] = await Promise.all([
+  const [rows, count, labMinimum] = await Promise.all([
     reviewQueue(deps.db, approverId, pageWindow(q.page, q.pageSize)),
     reviewQueueCount(deps.db, approverId),
+    minRequiredApprovals(deps.db),
   ]);
   const items: ReviewQueueItem[] = rows.map((q) => ({
     planId: q.plan_id,
@@ -26,7 +28,7 @@ export async function listReviewQueue(deps: AppDeps, approverId: number, q: { pa
     submittedAt: new Date(q.submitted_at).toISOString(),
     contentHash: q.content_hash,
     approvals: q.approvals,
-    requiredApprovals: q.required_approvals,
+    requiredApprovals: effectiveRequiredApprovals(q.required_approvals, labMinimum),
   }));
   return { ...count, page: q.page, pageSize: q.pageSize, items };
 }

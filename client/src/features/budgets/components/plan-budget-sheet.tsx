@@ -14,6 +14,7 @@ import { type SheetDraft, type StageDraft } from "../lib/sheet-draft";
 import { BudgetSheet } from "./budget-sheet";
 import { parseNumberText } from "@/lib/number-text";
 import { budgetShapeOf } from "@shared/profile-shapes";
+import { planBudgetContexts } from "@shared/plan-budget";
 
 type PlanForm = { revision: RevisionInput; modelId?: number };
 /** The model fields the budget uses: a revision's frozen snapshot, or a profile. */
@@ -88,12 +89,14 @@ export function PlanBudgetSheet({ model: given, models, accelerators, disabled }
     setRecipes(next.stages.map((s) => s.recipeId));
   };
 
-  const lengths = stages.map((s) => s.sequenceLength).filter((n): n is number => Number.isFinite(n));
+  // The same lengths the server costs the plan between when it freezes the revision (shared/plan-budget.ts).
   const context = model && {
     model: budgetShapeOf(model),
-    // The server's own choice for a plan (budget-part.ts): the trained length to the larger of the plan target and the longest stage.
-    trainedContext: model.trainedContext,
-    targetContext: Math.max(model.trainedContext, target && Number.isFinite(target) ? target : 0, ...lengths),
+    ...planBudgetContexts(
+      model.trainedContext,
+      target,
+      stages.map((s) => s.sequenceLength),
+    ),
   };
   const issues = {
     ...flatErrors(formState.errors, "revision.budget", (k) => k),

@@ -1,27 +1,23 @@
 import type { BudgetRecipeResponse } from "@shared/schemas/budget";
+import { recipeStage } from "@shared/recipe-stage";
 import { parseNumberText } from "@/lib/number-text";
 import type { StageDraft } from "./sheet-draft";
 
-/**
- * A stage from what a paper reported, as the server's recipeStage does: the paper's length when it gave one,
- * else `targetLength`; its global batch, else `fallbackBatch`; its steps, else its token count.
- * `stepsOnly` (a plan's stages are given by steps) turns a token count into whole steps.
- */
+/** A sheet row from what a paper reported: shared/recipe-stage.ts's stage, as the sheet's texts. */
 export function recipeStageDraft(
   recipe: BudgetRecipeResponse,
   targetLength: number,
   fallbackBatch: number,
   stepsOnly = false,
 ): StageDraft {
-  const length = recipe.reported.sequenceLength ?? targetLength;
-  const batch = recipe.reported.globalBatch ?? fallbackBatch;
-  const base = { sequenceLength: String(length), globalBatch: String(batch), recipeId: recipe.id };
-  if (recipe.reported.steps !== undefined)
-    return { ...base, by: "steps", steps: String(recipe.reported.steps), tokens: "" };
-  const tokens = recipe.reported.tokens ?? 0;
-  if (stepsOnly)
-    return { ...base, by: "steps", steps: String(Math.max(1, Math.ceil(tokens / (batch * length)))), tokens: "" };
-  return { ...base, by: "tokens", steps: "", tokens: String(tokens) };
+  const stage = recipeStage(recipe, targetLength, fallbackBatch, stepsOnly);
+  const base = {
+    sequenceLength: String(stage.sequenceLength),
+    globalBatch: String(stage.globalBatch),
+    recipeId: recipe.id,
+  };
+  if (stage.steps !== undefined) return { ...base, by: "steps", steps: String(stage.steps), tokens: "" };
+  return { ...base, by: "tokens", steps: "", tokens: String(stage.tokens) };
 }
 
 /** True while the row still holds exactly what the paper reported (a length or batch it did not report may be anything). */

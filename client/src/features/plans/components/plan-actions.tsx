@@ -2,6 +2,7 @@ import { useState } from "react";
 import { Link, useNavigate } from "react-router-dom";
 import type { SessionUser } from "@shared/schemas/auth";
 import type { PlanDetail, RevisionSummary } from "@shared/schemas/plans";
+import { isSigned } from "@shared/plan-rules";
 import { Button } from "@/components/button";
 import { Notice } from "@/components/notice";
 import { apiPaths, paths } from "@/config/paths";
@@ -38,7 +39,7 @@ export function PlanActions({ plan, revision, user, intact, onDecide }: PlanActi
     researcher && plan.owner?.id === user.id && n === latest.number && !["draft", "in_review"].includes(latest.state);
   const alreadyDecided = revision.decisions.some((d) => d.round === revision.round && d.approver.id === user.id);
   const canDecide = user.roles.includes("approver") && revision.state === "in_review" && !isAuthor && !alreadyDecided;
-  const signed = revision.state === "approved" || revision.state === "superseded";
+  const signed = isSigned(revision.state);
   const onError = (e: unknown) => setError(actionErrorText(e));
 
   return (
