@@ -19,6 +19,7 @@ import { PlanFacts } from "@/features/plans/components/plan-header";
 import { RevisionInputs } from "@/features/plans/components/revision-inputs";
 import { RevisionTimeline } from "@/features/plans/components/revision-timeline";
 import { StagesTable } from "@/features/plans/components/stages-table";
+import { GroupResults } from "@/features/plans/components/group-results";
 import { VerifyStatus } from "@/features/plans/components/verify-status";
 import { DecisionDialog } from "@/features/plans/components/decision-dialog";
 import { RevisionCharts } from "./plan-charts";
@@ -141,6 +142,11 @@ export function PlanRoute() {
               <Panel title="Stages">
                 <StagesTable stages={content.stages} />
               </Panel>
+              {content.results.groups && (
+                <Panel title="Layer groups">
+                  <GroupResults groups={content.results.groups} />
+                </Panel>
+              )}
               <Panel title="Pair flags per stage">
                 <FlagsSummary rows={flagRows(content)} pairs={content.results.rotaryDim / 2} />
               </Panel>

@@ -5,6 +5,7 @@ import { isApiError } from "@/lib/api-client";
 import { useImportConfig } from "../api/import-config";
 import { previewInput } from "./blank-profile";
 import { CurrentScalingNote } from "./current-scaling";
+import { ProfileLayerGroups } from "./profile-layer-groups";
 import { ImportWarnings } from "./import-warnings";
 import { ProfileForm } from "./profile-form";
 
@@ -93,6 +94,7 @@ export function ImportConfig({ onSaved }: { onSaved: (model: ModelProfile) => vo
         <>
           <ImportWarnings warnings={parsed.result.warnings} title="Read these before saving" />
           <CurrentScalingNote scaling={parsed.result.profile.currentScaling} />
+          <ProfileLayerGroups groups={parsed.result.profile.layerGroups} />
           <div className="flex flex-col gap-2">
             <h3 className="text-lead font-semibold text-ink">What Ropewalk read from {parsed.file.name}</h3>
             <p className="text-body text-ink-soft">

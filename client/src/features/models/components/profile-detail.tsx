@@ -7,6 +7,7 @@ import { useUpdateModel } from "../api/update-model";
 import { profileInput } from "./blank-profile";
 import { CurrentScalingNote } from "./current-scaling";
 import { DeleteProfile } from "./delete-profile";
+import { ProfileLayerGroups } from "./profile-layer-groups";
 import { ImportWarnings } from "./import-warnings";
 import { ProfileFacts } from "./profile-facts";
 import { ProfileForm } from "./profile-form";
@@ -32,7 +33,10 @@ export function ProfileDetail({ model, canEdit, onDeleted, actions }: ProfileDet
         </Notice>
       )}
       <Panel title="At a glance" aside={actions}>
-        <ProfileFacts model={model} />
+        <div className="flex flex-col gap-4">
+          <ProfileFacts model={model} />
+          <ProfileLayerGroups groups={model.layerGroups} />
+        </div>
       </Panel>
       {model.sourceFileName && (
         <Panel title="Imported from a config file">

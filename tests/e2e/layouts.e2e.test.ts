@@ -1,0 +1,135 @@
+import path from "node:path";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Browser, BrowserContext, Page } from "playwright-core";
+import { downloadedText, launchBrowser, requireBuiltClient, screenshot, signIn } from "../setup/browser";
+import { startTestServer } from "../setup/server";
+import { createTestUser, type TestUser } from "../setup/users";
+
+/*
+ * Issue 11 end to end: a layered model (five local-window layers with their own base 10 000 per full-attention layer
+ * with base 1e6, trained 16 384) goes from its config.json through the import screen, a plan drafted in the form and
+ * an approval, to an export whose local layers are exactly as trained.
+ */
+const fixture = path.resolve(import.meta.dirname, "../fixtures/configs/sliding-full-local-base.json");
+
+let server: Awaited<ReturnType<typeof startTestServer>>;
+let browser: Browser;
+let researcher: TestUser;
+let approver: TestUser;
+const contexts: BrowserContext[] = [];
+const errors: string[] = [];
+const stamp = Date.now().toString(36);
+const modelName = `Windowed ${stamp}`;
+const title = `Windowed to 64k ${stamp}`;
+
+beforeAll(async () => {
+  requireBuiltClient();
+  [server, browser, researcher, approver] = await Promise.all([
+    startTestServer(),
+    launchBrowser(),
+    createTestUser(["researcher"], "Lena Layers"),
+    createTestUser(["approver"], "Otis Approver"),
+  ]);
+});
+
+afterAll(async () => {
+  for (const c of contexts) await c.close().catch(() => undefined);
+  await browser?.close();
+  await server?.close();
+});
+
+async function signedIn(who: TestUser, to: string): Promise<Page> {
+  const context = await browser.newContext({ viewport: { width: 1360, height: 900 }, acceptDownloads: true });
+  contexts.push(context);
+  const page = await context.newPage();
+  page.on("pageerror", (e) => errors.push(`${who.name}: ${e.message}`));
+  page.on("console", (m) => {
+    if (m.type() === "error" && !m.text().startsWith("Failed to load resource"))
+      errors.push(`${who.name}: ${m.text()}`);
+  });
+  await page.goto(`${server.url}${to}`);
+  await signIn(page, who);
+  return page;
+}
+
+describe("a layered model from import to an approved export", () => {
+  let planId = 0;
+
+  it("imports the config: the preview shows the local and full layers apart, and the profile keeps them", async () => {
+    const page = await signedIn(researcher, "/models/import");
+    await page.getByRole("heading", { level: 1, name: "Import a config.json" }).waitFor();
+    await page.getByLabel("config.json to import").setInputFiles(fixture);
+    const groups = page.getByTestId("profile-layer-groups");
+    await groups.waitFor();
+    const local = groups.locator('tr[data-kind="sliding_attention"]');
+    await expect.poll(() => local.textContent(), { timeout: 15_000 }).toContain("plain RoPE, unscaled");
+    expect(await local.textContent()).toContain("0–4, 6–10");
+    expect(await groups.locator('tr[data-kind="full_attention"]').textContent()).toContain("linear ×8");
+    await screenshot(page, "layouts-import-preview");
+
+    const form = page.getByRole("form", { name: "Imported profile" });
+    await form.getByLabel("Name", { exact: true }).fill(modelName);
+    await form.getByRole("button", { name: "Save profile" }).click();
+    await page.getByRole("heading", { level: 1, name: modelName }).waitFor();
+    await page.getByTestId("profile-layer-groups").waitFor();
+  }, 60_000);
+
+  it("drafts a plan in the form; the plan page shows the local layers kept as trained; submits it", async () => {
+    const page = await signedIn(researcher, "/plans");
+    await page.getByRole("link", { name: "New plan" }).click();
+    const form = page.getByRole("form", { name: "New plan" });
+    await form.waitFor();
+    await form.getByLabel("Title").fill(title);
+    await form.getByLabel("Model", { exact: true }).selectOption({ label: modelName });
+    await form.getByLabel("Method", { exact: true }).selectOption("yarn");
+    await form.getByLabel("Target context (tokens)").first().fill("65536");
+    await form.getByRole("button", { name: "Save draft" }).click();
+    await page.waitForURL(/\/plans\/\d+$/);
+    planId = Number(new URL(page.url()).pathname.split("/").pop());
+    const groups = page.getByTestId("group-results");
+    await groups.waitFor({ timeout: 15_000 });
+    const local = groups.locator('tr[data-kind="sliding_attention"]');
+    expect(await local.textContent()).toContain("kept as trained");
+    // Local layers attend over their 1 024-token window, inside the trained 16 384: nothing is flagged.
+    expect(await local.textContent()).toContain("no pair sees unseen angles");
+    expect(await groups.locator('tr[data-kind="full_attention"]').textContent()).toContain("takes the plan's method");
+    await screenshot(page, "layouts-plan-groups");
+    await page.getByRole("button", { name: "Submit for review" }).click();
+    await expect
+      .poll(() => page.getByRole("list", { name: "Revisions" }).textContent(), { timeout: 15_000 })
+      .toContain("In review");
+  }, 60_000);
+
+  it("an approver signs it; the export nests rope_parameters by layer type with the local layers untouched", async () => {
+    expect(planId).toBeGreaterThan(0);
+    const page = await signedIn(approver, `/plans/${planId}`);
+    await page.getByRole("button", { name: "Decide on revision 1" }).click();
+    const dialog = page.getByRole("dialog");
+    await dialog.waitFor();
+    await dialog.getByRole("button", { name: "Sign and approve" }).click();
+    await page.getByText("Revision 1 is approved and signed.").waitFor();
+
+    const owner = await signedIn(researcher, `/plans/${planId}`);
+    await expect
+      .poll(() => owner.getByRole("list", { name: "Revisions" }).textContent(), { timeout: 15_000 })
+      .toContain("Approved");
+    const [download] = await Promise.all([
+      owner.waitForEvent("download"),
+      owner.getByRole("link", { name: "Download export (config patch JSON)" }).click(),
+    ]);
+    const envelope = JSON.parse(await downloadedText(download));
+    // The local layers: exactly their trained setting, plain RoPE over their own base, no scaling block.
+    expect(envelope.ropeParametersByLayerType.sliding_attention).toEqual({ rope_type: "default", rope_theta: 10000 });
+    const local = envelope.layerGroups.find((g: { kind: string }) => g.kind === "sliding_attention");
+    expect(local).toMatchObject({ method: "default", ropeTheta: 10000, layers: [0, 1, 2, 3, 4, 6, 7, 8, 9, 10] });
+    expect(local.config.rope_scaling).toBeNull();
+    // The full-attention layers: YaRN over base 1e6 from the pre-training length 16 384 to 65 536 (factor 4).
+    expect(envelope.ropeParametersByLayerType.full_attention).toMatchObject({
+      rope_type: "yarn",
+      rope_theta: 1000000,
+      factor: 4,
+      original_max_position_embeddings: 16384,
+    });
+    expect(errors).toEqual([]);
+  }, 60_000);
+});
