@@ -99,8 +99,12 @@ export const apiPaths = {
     withQuery(`${rev(id, n)}/report`, { download: download ? 1 : undefined }),
   revisionExport: (id: number, n: number, download = false) =>
     withQuery(`${rev(id, n)}/export`, { download: download ? 1 : undefined }),
-  approvedExport: (id: number, download = false) =>
-    withQuery(`/plans/${id}/approved/export`, { download: download ? 1 : undefined }),
+  approvedExport: (id: number, download = false, target?: string) =>
+    withQuery(`/plans/${id}/approved/export`, { download: download ? 1 : undefined, target }),
+  exportTargets: () => api("/export-targets"),
+  exports: () => api("/exports"),
+  conformanceChecks: (id: number) => api(`/plans/${id}/conformance-checks`),
+  revisionConformanceChecks: (id: number, n: number) => api(`${rev(id, n)}/conformance-checks`),
   tokens: () => api("/tokens"),
   token: (id: number) => api(`/tokens/${id}`),
   audit: (query?: QueryValues) => withQuery("/audit", query),

@@ -22,6 +22,10 @@ import { StagesTable } from "@/features/plans/components/stages-table";
 import { GroupResults } from "@/features/plans/components/group-results";
 import { VerifyStatus } from "@/features/plans/components/verify-status";
 import { DecisionDialog } from "@/features/plans/components/decision-dialog";
+import { ProbeChecks } from "@/features/plans/components/probe-checks";
+import { exportRequestOf } from "@/features/plans/lib/export-request";
+import { ExportTargets } from "@/components/export-targets";
+import { exportsQueries } from "@/lib/api/exports";
 import { RevisionCharts } from "./plan-charts";
 
 const flagRows = (content: RevisionContent) => [
@@ -41,6 +45,9 @@ export function PlanRoute() {
   const n = plan.data ? (plan.data.revisions.some((r) => r.number === asked) ? asked : plan.data.latestRevision) : 0;
   const revision = useQuery({ ...plansQueries.revision(id, n), enabled: n > 0 });
   const verify = useQuery({ ...plansQueries.verify(id, n), enabled: n > 0 });
+  const exportRequest = revision.data ? exportRequestOf(revision.data.content) : null;
+  // Shared with the matrix below (same key): the fingerprint the probe command asks to check.
+  const compiled = useQuery(exportsQueries.detail(exportRequest));
 
   if (plan.isError) {
     return (
@@ -152,6 +159,18 @@ export function PlanRoute() {
               </Panel>
               <Panel title="What the engine shows at the plan target">
                 <RevisionCharts content={content} />
+              </Panel>
+              <Panel title="Rigging for each stack">
+                <ExportTargets request={exportRequest} />
+              </Panel>
+              <Panel title="Probe checks">
+                <ProbeChecks
+                  planId={p.id}
+                  revision={n}
+                  targetContext={content.targetContext}
+                  fingerprint={compiled.data?.fingerprint ?? null}
+                  canUpload={user.roles.includes("researcher") || user.roles.includes("approver")}
+                />
               </Panel>
               <Panel title="Acceptance criteria">
                 <AcceptanceList criteria={content.acceptance} />

@@ -10,6 +10,7 @@ export const plansKeys = {
   revision: (id: number, n: number) => [...plansKeys.detail(id), "revision", n] as const,
   verify: (id: number, n: number) => [...plansKeys.detail(id), "verify", n] as const,
   diff: (id: number, a: number, b: number) => [...plansKeys.detail(id), "diff", a, b] as const,
+  conformanceChecks: (id: number) => [...plansKeys.detail(id), "conformance-checks"] as const,
   settings: () => [...plansKeys.all, "settings"] as const,
   owners: () => [...plansKeys.all, "owners"] as const,
   /** Under `all`, so a plan change that invalidates every plan read refreshes the approver's queue too. */

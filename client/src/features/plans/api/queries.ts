@@ -1,3 +1,4 @@
+import { conformanceChecksQuery } from "./conformance-checks";
 import { diffQuery } from "./diff-revisions";
 import { planQuery } from "./get-plan";
 import { revisionQuery } from "./get-revision";
@@ -17,4 +18,5 @@ export const plansQueries = {
   settings: planSettingsQuery,
   owners: planOwnersQuery,
   reviewQueue: reviewQueueQuery,
+  conformanceChecks: conformanceChecksQuery,
 };

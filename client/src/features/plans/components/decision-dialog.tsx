@@ -1,12 +1,16 @@
 import { useEffect, useRef, useState } from "react";
 import { useForm, useWatch } from "react-hook-form";
+import { useQuery } from "@tanstack/react-query";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { decisionRequestSchema } from "@shared/schemas/plans";
 import { Button, SubmitButton } from "@/components/button";
 import { Field } from "@/components/field";
 import { Notice } from "@/components/notice";
 import { isApiError } from "@/lib/api-client";
+import { ExportTargets } from "@/components/export-targets";
 import { useDecide } from "../api/decide";
+import { plansQueries } from "../api/queries";
+import { exportRequestOf } from "../lib/export-request";
 
 export type DecisionTarget = {
   planId: number;
@@ -39,6 +43,7 @@ export function DecisionDialog({ target, onClose, onDecided }: DecisionDialogPro
     defaultValues: { decision: "approve" as const, comment: "" },
   });
   const decision = useWatch({ control, name: "decision" });
+  const revision = useQuery(plansQueries.revision(target.planId, target.revision));
 
   useEffect(() => {
     const dialog = ref.current;
@@ -70,7 +75,7 @@ export function DecisionDialog({ target, onClose, onDecided }: DecisionDialogPro
       ref={ref}
       onClose={onClose}
       aria-labelledby="decision-title"
-      className="m-auto w-[min(40rem,calc(100vw-2rem))] rounded-lg border border-rule bg-paper p-0 text-ink shadow-xl backdrop:bg-ink/40"
+      className="m-auto max-h-[calc(100vh-2rem)] w-[min(56rem,calc(100vw-2rem))] overflow-y-auto rounded-lg border border-rule bg-paper p-0 text-ink shadow-xl backdrop:bg-ink/40"
     >
       <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4 p-6" aria-label="Decision">
         <h2 id="decision-title" className="text-title font-semibold">
@@ -88,6 +93,10 @@ export function DecisionDialog({ target, onClose, onDecided }: DecisionDialogPro
             Approvals so far: {target.approvals} of {target.requiredApprovals}.
           </p>
         </div>
+        <section className="flex flex-col gap-2" aria-label="How each stack reads this revision">
+          <h3 className="text-body font-semibold">How each stack reads this revision</h3>
+          <ExportTargets request={revision.data ? exportRequestOf(revision.data.content) : null} matrixOnly />
+        </section>
         {error && <Notice tone="alert">{error}</Notice>}
         <fieldset className="flex flex-col gap-2">
           <legend className="mb-1 text-note font-semibold">Decision</legend>

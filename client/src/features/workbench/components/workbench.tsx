@@ -3,6 +3,9 @@ import { useLocation, useNavigate } from "react-router-dom";
 import { useQuery } from "@tanstack/react-query";
 import type { ModelProfile } from "@shared/schemas/models";
 import { Loading, Notice } from "@/components/notice";
+import { Panel } from "@/components/page";
+import { ExportTargets } from "@/components/export-targets";
+import type { ExportRequest } from "@shared/schemas/exports";
 import { isApiError } from "@/lib/api-client";
 import { analysesQueries } from "@/lib/api/analyses";
 import { sig } from "../figures";
@@ -40,6 +43,15 @@ export function Workbench({ profiles, profileNotes }: WorkbenchProps) {
   const { request, errors } = useMemo(() => toRequest(inputs, savedShape), [inputs, savedShape]);
   const settled = useDebounced(request, 300, { holdWhileNull: true });
   const analysis = useQuery(analysesQueries.detail(settled));
+  // The stacks are compiled for the method on show (the picker above the charts), with the analysed inputs.
+  const shownMethod = settled ? settled.methods[Math.min(inputs.view, settled.methods.length - 1)] : null;
+  const exportRequest = useMemo<ExportRequest | null>(
+    () =>
+      settled && shownMethod
+        ? { model: settled.model, targetContext: settled.targetContext, method: shownMethod }
+        : null,
+    [settled, shownMethod],
+  );
 
   const trainedContext =
     chosen?.trainedContext ?? (model.kind === "shape" ? Number(model.trainedContext) || null : null);
@@ -104,6 +116,11 @@ export function Workbench({ profiles, profileNotes }: WorkbenchProps) {
         <Loading label="Computing…" />
       ) : (
         request === null && <p className="text-body text-ink-soft">Fill in the inputs above to see the figures.</p>
+      )}
+      {analysis.data && (
+        <Panel title="Rigging for each stack">
+          <ExportTargets request={exportRequest} />
+        </Panel>
       )}
     </div>
   );

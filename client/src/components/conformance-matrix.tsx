@@ -1,0 +1,89 @@
+import type { ExportResponse, TargetExportBody } from "@shared/schemas/exports";
+
+type ConformanceStatus = TargetExportBody["conformance"]["status"];
+import { FramedTable } from "./framed-table";
+
+/** The four statuses are fixed by the API; the words under them are ours. */
+export const STATUS_WORDS: Record<ConformanceStatus, { label: string; meaning: string; tone: string }> = {
+  exact: {
+    label: "exact",
+    meaning: "reads the plan's frequencies to 1e-12",
+    tone: "bg-hemp text-paper border-hemp",
+  },
+  equivalent: {
+    label: "equivalent",
+    meaning: "float32 cannot tell it from the plan (≤ 1e-6)",
+    tone: "bg-seaglass-pale text-seaglass-dark border-seaglass/40",
+  },
+  differs: {
+    label: "differs",
+    meaning: "the stack turns the pairs differently from the plan",
+    tone: "bg-signal-pale text-signal-dark border-signal/40",
+  },
+  unsupported: {
+    label: "unsupported",
+    meaning: "the stack cannot carry this plan",
+    tone: "bg-paper-deep text-ink-soft border-rule-strong",
+  },
+};
+
+export function StatusBadge({ status }: { status: ConformanceStatus }) {
+  const w = STATUS_WORDS[status];
+  return (
+    <span
+      data-status={status}
+      title={w.meaning}
+      className={`inline-flex items-center rounded-full border px-2 py-0.5 text-note font-medium whitespace-nowrap ${w.tone}`}
+    >
+      {w.label}
+    </span>
+  );
+}
+
+const errorText = (e: number | null) => (e === null ? "—" : e === 0 ? "0" : e.toExponential(2));
+
+/**
+ * Targets × status: how each stack reads the plan once its artifact is applied, with the worst relative error over
+ * θ′ and the attention factor, the reason in plain words and the nearest workaround.
+ */
+export function ConformanceMatrix({ result, caption }: { result: ExportResponse; caption: string }) {
+  return (
+    <div className="flex flex-col gap-2" data-testid="conformance-matrix">
+      <FramedTable
+        caption={caption}
+        head={
+          <>
+            <th scope="col">Stack</th>
+            <th scope="col">Status</th>
+            <th scope="col">Worst relative error</th>
+            <th scope="col">Why</th>
+            <th scope="col">Workaround</th>
+          </>
+        }
+      >
+        {result.targets.map((t) => (
+          <tr key={t.id} data-target={t.id} className="border-t border-rule align-top [&_td]:px-3 [&_td]:py-2">
+            <td className="font-medium">{t.label}</td>
+            <td>
+              <StatusBadge status={t.conformance.status} />
+            </td>
+            <td className="font-mono text-note whitespace-nowrap">
+              {errorText(t.conformance.maxRelativeError)}
+              {t.conformance.worstPair !== null && (
+                <span className="text-ink-soft"> (pair {t.conformance.worstPair})</span>
+              )}
+            </td>
+            <td className="text-note">{t.conformance.cause || "—"}</td>
+            <td className="text-note">{t.conformance.workaround || "—"}</td>
+          </tr>
+        ))}
+      </FramedTable>
+      <p className="text-note break-all text-ink-soft">
+        Rotary fingerprint{" "}
+        <code className="text-ink" data-testid="rotary-fingerprint">
+          {result.fingerprint}
+        </code>
+      </p>
+    </div>
+  );
+}

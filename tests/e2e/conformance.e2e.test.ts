@@ -1,0 +1,119 @@
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Browser, BrowserContext, Page } from "playwright-core";
+import { launchBrowser, screenshot, signIn, requireBuiltClient } from "../setup/browser";
+import { makeTestApp } from "../setup/app";
+import { createPlan, createProfile, post } from "../setup/plans";
+import { probeDocument } from "../setup/probe";
+import { startTestServer } from "../setup/server";
+import { createTestUser, type TestUser } from "../setup/users";
+
+// The conformance matrix in its three places (workbench, plan page, decision dialog), the export menu and a probe upload.
+const TARGETS = ["transformers-v4-early", "transformers-v4", "transformers-v5", "vllm", "sglang", "llama-cpp"];
+const STATUSES = ["exact", "equivalent", "differs", "unsupported"];
+
+let server: Awaited<ReturnType<typeof startTestServer>>;
+let browser: Browser;
+let researcher: TestUser;
+let approver: TestUser;
+let planId = 0;
+const contexts: BrowserContext[] = [];
+const errors: string[] = [];
+
+beforeAll(async () => {
+  requireBuiltClient();
+  [server, browser, researcher, approver] = await Promise.all([
+    startTestServer(),
+    launchBrowser(),
+    createTestUser(["researcher"], "Rhea Rigger"),
+    createTestUser(["approver"], "Abel Checker"),
+  ]);
+  // Sample profile: 128-dim heads, base 10 000, trained on 4096 tokens; a linear ×8 plan to 32k, in review.
+  const api = await makeTestApp().signIn(researcher);
+  const profile = await createProfile(api);
+  const revision = { targetContext: 32768, method: { method: "linear", factor: 8 }, stages: [], acceptance: [], notes: "" };
+  planId = (await createPlan(api, profile.id, { revision })).id;
+  await post(api, `/api/plans/${planId}/revisions/1/submit`).expect(200);
+});
+
+afterAll(async () => {
+  for (const c of contexts) await c.close().catch(() => undefined);
+  await browser?.close();
+  await server?.close();
+});
+
+async function signedIn(who: TestUser, to: string): Promise<Page> {
+  const context = await browser.newContext({ viewport: { width: 1280, height: 900 }, acceptDownloads: true });
+  contexts.push(context);
+  const page = await context.newPage();
+  page.on("pageerror", (e) => errors.push(`${who.name}: ${e.message}`));
+  await page.goto(`${server.url}${to}`);
+  await signIn(page, who);
+  return page;
+}
+
+/** Every target has a row with one of the four fixed statuses, and the fingerprint is a SHA-256. */
+async function expectMatrix(scope: ReturnType<Page["getByTestId"]>) {
+  const matrix = scope.getByTestId("conformance-matrix");
+  await matrix.waitFor({ timeout: 20_000 });
+  for (const id of TARGETS) {
+    const status = await matrix.locator(`tr[data-target="${id}"] [data-status]`).getAttribute("data-status");
+    expect(STATUSES).toContain(status);
+  }
+  expect(await matrix.getByTestId("rotary-fingerprint").textContent()).toMatch(/^[0-9a-f]{64}$/);
+  return matrix;
+}
+
+describe("conformance matrix in the three screens", () => {
+  it("workbench: the matrix follows the method on show, with each stack's artifact", async () => {
+    const methods = encodeURIComponent(JSON.stringify([["linear", { factor: 8 }]]));
+    const page = await signedIn(researcher, `/workbench?shape=128,10000,4096,1&target=32768&methods=${methods}`);
+    const panel = page.locator("section", { has: page.getByRole("heading", { name: "Rigging for each stack" }) });
+    const matrix = await expectMatrix(panel);
+    // plain linear interpolation is the one method every reader carries: the 4.4x-era library reads it as planned
+    const early = await matrix.locator('tr[data-target="transformers-v4-early"] [data-status]').getAttribute("data-status");
+    expect(["exact", "equivalent"]).toContain(early);
+    await panel.getByLabel("Stack to rig").selectOption("vllm");
+    expect(await panel.getByTestId("target-artifact-text").textContent()).toContain("--max-model-len");
+    await screenshot(page, "conformance-workbench");
+  }, 60_000);
+
+  it("plan page: matrix, export menu with copy, probe command with the fingerprint, and a recorded probe check", async () => {
+    const page = await signedIn(researcher, `/plans/${planId}`);
+    const panel = page.locator("section", { has: page.getByRole("heading", { name: "Rigging for each stack" }) });
+    const matrix = await expectMatrix(panel);
+    const fingerprint = (await matrix.getByTestId("rotary-fingerprint").textContent())!;
+    await panel.getByLabel("Stack to rig").selectOption("transformers-v5");
+    expect(await panel.getByTestId("target-artifact-text").textContent()).toContain("rope_parameters");
+    await panel.getByRole("button", { name: /^Copy the config\.json merge patch/ }).waitFor();
+
+    const checks = page.getByTestId("probe-checks");
+    expect(await checks.locator("pre").textContent()).toContain(`--length 32768 --fingerprint ${fingerprint}`);
+    await checks.getByText("No probe checks recorded yet.").waitFor();
+    const body = { ...probeDocument(128, 10000, 8), planFingerprint: fingerprint };
+    await checks.locator('input[type="file"]').setInputFiles({
+      name: "probe.json",
+      mimeType: "application/json",
+      buffer: Buffer.from(JSON.stringify(body)),
+    });
+    await checks.getByRole("button", { name: "Record the check" }).click();
+    await checks.getByText(/^Recorded: the library's frequencies hold/).waitFor();
+    await checks.locator('tr[data-check] [data-passed="true"]').waitFor();
+    await screenshot(page, "conformance-plan");
+  }, 60_000);
+
+  it("decision dialog: the approver sees the matrix before signing", async () => {
+    const page = await signedIn(approver, `/plans/${planId}`);
+    await page.getByRole("button", { name: "Decide on revision 1" }).click();
+    const dialog = page.getByRole("dialog");
+    const section = dialog.getByRole("region", { name: "How each stack reads this revision" });
+    await expectMatrix(section);
+    // the matrix comes before the signature controls
+    const [matrixTop, signTop] = await Promise.all([
+      section.boundingBox().then((b) => b!.y),
+      dialog.getByRole("button", { name: "Sign and approve" }).boundingBox().then((b) => b!.y),
+    ]);
+    expect(matrixTop).toBeLessThan(signTop);
+    await screenshot(page, "conformance-decision");
+    expect(errors).toEqual([]);
+  }, 60_000);
+});
