@@ -30,7 +30,13 @@ beforeAll(async () => {
   // Sample profile: 128-dim heads, base 10 000, trained on 4096 tokens; a linear ×8 plan to 32k, in review.
   const api = await makeTestApp().signIn(researcher);
   const profile = await createProfile(api);
-  const revision = { targetContext: 32768, method: { method: "linear", factor: 8 }, stages: [], acceptance: [], notes: "" };
+  const revision = {
+    targetContext: 32768,
+    method: { method: "linear", factor: 8 },
+    stages: [],
+    acceptance: [],
+    notes: "",
+  };
   planId = (await createPlan(api, profile.id, { revision })).id;
   await post(api, `/api/plans/${planId}/revisions/1/submit`).expect(200);
 });
@@ -70,7 +76,9 @@ describe("conformance matrix in the three screens", () => {
     const panel = page.locator("section", { has: page.getByRole("heading", { name: "Rigging for each stack" }) });
     const matrix = await expectMatrix(panel);
     // plain linear interpolation is the one method every reader carries: the 4.4x-era library reads it as planned
-    const early = await matrix.locator('tr[data-target="transformers-v4-early"] [data-status]').getAttribute("data-status");
+    const early = await matrix
+      .locator('tr[data-target="transformers-v4-early"] [data-status]')
+      .getAttribute("data-status");
     expect(["exact", "equivalent"]).toContain(early);
     await panel.getByLabel("Stack to rig").selectOption("vllm");
     expect(await panel.getByTestId("target-artifact-text").textContent()).toContain("--max-model-len");
@@ -110,7 +118,10 @@ describe("conformance matrix in the three screens", () => {
     // the matrix comes before the signature controls
     const [matrixTop, signTop] = await Promise.all([
       section.boundingBox().then((b) => b!.y),
-      dialog.getByRole("button", { name: "Sign and approve" }).boundingBox().then((b) => b!.y),
+      dialog
+        .getByRole("button", { name: "Sign and approve" })
+        .boundingBox()
+        .then((b) => b!.y),
     ]);
     expect(matrixTop).toBeLessThan(signTop);
     await screenshot(page, "conformance-decision");

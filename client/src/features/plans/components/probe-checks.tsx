@@ -59,7 +59,7 @@ function ChecksTable({ checks }: { checks: ConformanceCheck[] }) {
             {c.library} {c.libraryVersion} · {c.ropeType} at {c.runningLength}
           </td>
           <td className="font-mono text-note whitespace-nowrap">
-            {c.maxRelativeError === null ? "—" : c.maxRelativeError.toExponential(2)}
+            {c.maxRelativeError === null ? "—" : c.maxRelativeError === 0 ? "0" : c.maxRelativeError.toExponential(2)}
             {c.worstPair !== null && <span className="text-ink-soft"> (pair {c.worstPair})</span>}
           </td>
           <td className="text-note">{c.cause || "—"}</td>
