@@ -1,6 +1,7 @@
 import { createHash } from "node:crypto";
 import { describe, expect, it } from "vitest";
 import { runProbe, writeConfig, writeStandIn } from "../setup/probe";
+import { rotaryFingerprint } from "../../server/engine/fingerprint";
 
 /*
  * The probe (tools/probe/ropewalk_probe.py) under Debian's python3. `transformers` is a stand-in written by
@@ -48,6 +49,8 @@ describe("probe: what it reads and writes", () => {
     expect(out.invFreq[0]).toBe(1);
     expect(out.invFreq[1]).toBeCloseTo(500000 ** (-2 / 64), 15);
     expect(out.readFingerprint).toBe(expectedFingerprint(64, 1, out.invFreq));
+    // and the server's own implementation agrees, so a float64 library reproduces a revision's fingerprint exactly
+    expect(out.readFingerprint).toBe(rotaryFingerprint([{ rotaryDim: 64, attentionFactor: 1, invFreq: out.invFreq }]));
   });
 
   it("reads the old `type` spelling from rope_scaling (v4 era)", () => {
