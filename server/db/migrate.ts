@@ -4,6 +4,7 @@ import { migrate } from "drizzle-orm/node-postgres/migrator";
 import type { Config } from "../config";
 import { createDb, MIGRATION_DB_TIMEOUTS, type Db } from "./client";
 import { grantAppRole, roleOfUrl } from "./grants";
+import { backfillFingerprints } from "./backfill-fingerprints";
 import { projectRoot } from "../platform/project-root";
 
 export const MIGRATIONS_DIR = path.join(projectRoot(), "migrations");
@@ -18,6 +19,7 @@ export async function migrateDatabase(ownerUrl: string, appUrl: string) {
   const { pool, db } = createDb(ownerUrl, 1, MIGRATION_DB_TIMEOUTS);
   try {
     await runMigrations(db);
+    await backfillFingerprints(db);
     await grantAppRole(db, roleOfUrl(appUrl));
   } finally {
     await pool.end();

@@ -1,4 +1,6 @@
 import { createHash } from "node:crypto";
+import { rotaryDimension, type MethodParams, type ModelShape } from "../../shared/schemas/analysis";
+import { runMethod } from "./methods";
 
 /**
  * The rotary fingerprint (docs/fingerprint.md): SHA-256 over a fixed byte layout of what the attention layers actually
@@ -41,4 +43,16 @@ export function fingerprintBytes(groups: readonly RotaryGroup[]): Uint8Array {
 /** Lower-case hex SHA-256 of fingerprintBytes(groups). */
 export function rotaryFingerprint(groups: readonly RotaryGroup[]): string {
   return createHash("sha256").update(fingerprintBytes(groups)).digest("hex");
+}
+
+/**
+ * The fingerprint of a plan: its final block's θ′ and attention factor on the model's rotary dimension (one layer
+ * group until profiles carry several). Throws when the model has no valid rotary dimension.
+ */
+export function planFingerprint(model: ModelShape, targetContext: number, method: MethodParams): string {
+  const d = rotaryDimension(model);
+  if (d === null) throw new RangeError("rotary dimension must be a positive even integer");
+  const ctx = { d, base: model.ropeTheta, trainedContext: model.trainedContext, targetContext };
+  const out = runMethod(ctx, method);
+  return rotaryFingerprint([{ rotaryDim: d, attentionFactor: out.attentionFactor, invFreq: out.invFreq }]);
 }

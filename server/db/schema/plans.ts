@@ -72,6 +72,8 @@ export const planRevisions = pgTable(
     content: jsonb("content").notNull(),
     contentHash: text("content_hash").notNull(),
     engineVersion: text("engine_version").notNull(),
+    /** SHA-256 of the final block's rotary layout (docs/fingerprint.md); kept beside the content, outside its hash. */
+    rotaryFingerprint: text("rotary_fingerprint"),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
     submittedAt: timestamp("submitted_at", { withTimezone: true }),

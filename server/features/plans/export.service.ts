@@ -9,6 +9,7 @@ import { budgetSection } from "./report-budget";
 import type { RevisionContent } from "./revision-content";
 import { checkRevision } from "./integrity";
 import { signingKey } from "./signing";
+import { targetBlock, type ExportChoice } from "./export-target";
 import { layeredExport } from "./group-export";
 import { isSigned, latestApproved } from "../../../shared/plan-rules";
 
@@ -51,6 +52,7 @@ export async function exportRevision(
   planId: number,
   n: number | "approved",
   via: "session" | "token",
+  choice: ExportChoice = {},
 ) {
   const plan = await mustPlan(deps.db, planId);
   let number: number;
@@ -72,12 +74,19 @@ export async function exportRevision(
   }
   const content = rev.content as RevisionContent;
   const decisions = c.decisions.filter((d) => d.decision === "approve" && d.round === rev.round);
+  const block = await targetBlock(deps, plan.modelId, content, choice);
   await recordAudit(deps.db, {
     actorId: actor.id,
     action: "revision.exported",
     subjectType: "plan",
     subjectId: planId,
-    detail: { revision: number, via, hash: rev.contentHash },
+    detail: {
+      revision: number,
+      via,
+      hash: rev.contentHash,
+      target: choice.target ?? null,
+      stage: choice.stage ?? null,
+    },
   });
   return {
     plan: { id: plan.id, title: plan.title },
@@ -90,10 +99,13 @@ export async function exportRevision(
       trainedContext: content.model.trainedContext,
       ropeTheta: content.model.ropeTheta,
     },
-    targetContext: content.targetContext,
-    method: content.method,
-    config: content.results.final.patch,
-    attentionFactor: content.results.final.attentionFactor,
+    targetContext: block.targetContext,
+    method: block.method,
+    config: block.config,
+    attentionFactor: block.attentionFactor,
+    stage: choice.stage ?? null,
+    fingerprint: block.fingerprint,
+    ...(block.target ? { target: block.target } : {}),
     ...layeredExport(content),
     keyId: c.keyId,
     // Each signature covers the RFC 8785 canonical JSON of its payload; README "Verifying an export offline".

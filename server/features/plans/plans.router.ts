@@ -9,6 +9,7 @@ import {
   planSettingsSchema,
   updateRevisionRequestSchema,
 } from "../../../shared/schemas";
+import { targetIdSchema } from "../../../shared/schemas/exports";
 import * as out from "../../../shared/schemas/plans";
 import * as plans from "./plans.service";
 import * as reads from "./reads.service";
@@ -21,6 +22,13 @@ const revParams = planParams.extend({ n: dbIdParam });
 const diffParams = planParams.extend({ a: dbIdParam, b: dbIdParam });
 /** `?download=1` adds Content-Disposition: attachment with a file name. */
 const downloadQuery = z.object({ download: z.string().max(8).optional() });
+/** `?target=<id>` compiles the block for one consumer; `?stage=<n>` (1-based) exports that stage's block. */
+const exportQuery = downloadQuery.extend({
+  target: targetIdSchema.optional(),
+  stage: z.coerce.number().int("a whole stage number").positive("stages count from 1").max(1000).optional(),
+});
+const exportFileName = (id: number, n: number, q: z.infer<typeof exportQuery>) =>
+  `ropewalk-plan-${id}-r${n}${q.stage ? `-stage${q.stage}` : ""}-${q.target ?? "config-patch"}.json`;
 const researcher = ["researcher"] as const;
 const approver = ["approver"] as const;
 const via = (locals: Record<string, unknown>) => (locals.viaToken ? "token" : "session") as "token" | "session";
@@ -103,11 +111,11 @@ export const plansFeature: ApiFeature = {
       summary: "Configuration patch of the latest approved revision (bearer token accepted)",
       access: "signed-in",
       params: planParams,
-      query: downloadQuery,
+      query: exportQuery,
       responses: { 200: out.exportEnvelopeSchema },
       handler: async ({ deps, res, user, params, query }) => {
-        const body = await exportRevision(deps, user, params.id, "approved", via(res.locals));
-        if (query.download) res.attachment(`ropewalk-plan-${params.id}-r${body.revision}-config-patch.json`);
+        const body = await exportRevision(deps, user, params.id, "approved", via(res.locals), query);
+        if (query.download) res.attachment(exportFileName(params.id, body.revision, query));
         return { status: 200, body };
       },
     }),
@@ -197,11 +205,11 @@ export const plansFeature: ApiFeature = {
       summary: "Configuration patch of a signed revision",
       access: "signed-in",
       params: revParams,
-      query: downloadQuery,
+      query: exportQuery,
       responses: { 200: out.exportEnvelopeSchema },
       handler: async ({ deps, res, user, params, query }) => {
-        const body = await exportRevision(deps, user, params.id, params.n, via(res.locals));
-        if (query.download) res.attachment(`ropewalk-plan-${params.id}-r${params.n}-config-patch.json`);
+        const body = await exportRevision(deps, user, params.id, params.n, via(res.locals), query);
+        if (query.download) res.attachment(exportFileName(params.id, params.n, query));
         return { status: 200, body };
       },
     }),

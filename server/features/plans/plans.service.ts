@@ -13,7 +13,15 @@ import {
 import type { z } from "zod";
 import * as repo from "./plans.repo";
 import { countPlans, listPlanPage } from "./plans.list";
-import { buildContent, hashContent, snapshotOf, type ModelSnapshot, type RevisionContent } from "./revision-content";
+import {
+  buildContent,
+  fingerprintContent,
+  fingerprintOfRow,
+  hashContent,
+  snapshotOf,
+  type ModelSnapshot,
+  type RevisionContent,
+} from "./revision-content";
 import { budgetPart, keptAcceleratorOf, refuseRetiredAccelerator } from "./budget-part";
 import { signatureStatus, signingKey } from "./signing";
 import { decisionPayload } from "./integrity";
@@ -87,6 +95,7 @@ export async function createPlan(
       authorId: actor.id,
       content,
       contentHash: hashContent(content),
+      rotaryFingerprint: fingerprintContent(content),
       engineVersion: content.engineVersion,
     });
     await recordAudit(tx, {
@@ -121,6 +130,7 @@ export async function newRevision(deps: AppDeps, actor: SessionUser, planId: num
       authorId: actor.id,
       content,
       contentHash: hashContent(content),
+      rotaryFingerprint: fingerprintContent(content),
       engineVersion: content.engineVersion,
     });
     await repo.touchPlan(tx, planId);
@@ -164,6 +174,7 @@ export async function updateDraft(
     const row = await repo.updateRevision(tx, rev.id, {
       content,
       contentHash: hashContent(content),
+      rotaryFingerprint: fingerprintContent(content),
       engineVersion: content.engineVersion,
       version: rev.version + 1,
     });
@@ -265,6 +276,7 @@ export async function getPlan(deps: AppDeps, id: number) {
         round: r.round,
         contentHash: r.contentHash,
         engineVersion: r.engineVersion,
+        rotaryFingerprint: fingerprintOfRow(r),
         author: authors.get(r.authorId),
         createdAt: r.createdAt.toISOString(),
         submittedAt: r.submittedAt?.toISOString() ?? null,
@@ -295,6 +307,7 @@ export async function getRevision(deps: AppDeps, planId: number, n: number) {
     round: r.round,
     contentHash: r.contentHash,
     engineVersion: r.engineVersion,
+    rotaryFingerprint: fingerprintOfRow(r),
     authorId: r.authorId,
     content: r.content as RevisionContent,
   };

@@ -1,6 +1,7 @@
 import crypto from "node:crypto";
 import canonicalize from "canonicalize";
 import { analyse, ENGINE_VERSION } from "../../engine";
+import { planFingerprint } from "../../engine/fingerprint";
 import { Invalid } from "../../platform/errors";
 import {
   modelDependentIssues,
@@ -118,3 +119,14 @@ export function hashContent(content: unknown): string {
   if (canonical === undefined) throw new Error("content cannot be canonicalised");
   return crypto.createHash("sha256").update(canonical, "utf8").digest("hex");
 }
+
+/**
+ * The revision's rotary fingerprint (docs/fingerprint.md), from its frozen model snapshot and final block. Stored in
+ * its own column, outside the hashed content, so revisions made before fingerprints existed keep their content hash.
+ */
+export const fingerprintContent = (content: RevisionContent) =>
+  planFingerprint(rotaryShapeOf(content.model), content.targetContext, content.method);
+
+/** The stored fingerprint, or for a row written before the column existed and not yet backfilled, computed now. */
+export const fingerprintOfRow = (row: { rotaryFingerprint: string | null; content: unknown }) =>
+  row.rotaryFingerprint ?? fingerprintContent(row.content as RevisionContent);

@@ -2,6 +2,7 @@ import { z } from "zod";
 import { bandsSchema, configPatchSchema, methodParamsSchema } from "../analysis";
 import { revisionBudgetSchema } from "../budget";
 import { pagedTotal } from "../common";
+import { targetExportSchema } from "../exports";
 import { layerGroupSchema } from "../models";
 import {
   acceptanceCriterionSchema,
@@ -51,6 +52,8 @@ const revisionHead = {
   round: z.number(),
   contentHash: z.string(),
   engineVersion: z.string(),
+  /** SHA-256 of the final block's rotary layout (docs/fingerprint.md): what the probe and every export carry. */
+  rotaryFingerprint: z.string(),
 };
 
 export const revisionSummarySchema = z.object({
@@ -225,6 +228,12 @@ export const exportEnvelopeSchema = z.object({
   method: methodParamsSchema,
   config: configPatchSchema,
   attentionFactor: z.number(),
+  /** `?stage=n`: the stage whose block this is (1-based); null for the plan's final target */
+  stage: z.number().nullable(),
+  /** the exported block's rotary fingerprint (docs/fingerprint.md) */
+  fingerprint: z.string(),
+  /** `?target=<id>`: that consumer's artifact (`text` is the exact file), its read-back and conformance */
+  target: targetExportSchema.optional(),
   /** Layered models only: each layer group's block as signed (local layers as trained unless the plan says otherwise). */
   layerGroups: z
     .array(
