@@ -276,7 +276,7 @@ export async function getPlan(deps: AppDeps, id: number) {
         round: r.round,
         contentHash: r.contentHash,
         engineVersion: r.engineVersion,
-        rotaryFingerprint: fingerprintOfRow(r),
+        rotaryFingerprint: r.rotaryFingerprint,
         author: authors.get(r.authorId),
         createdAt: r.createdAt.toISOString(),
         submittedAt: r.submittedAt?.toISOString() ?? null,

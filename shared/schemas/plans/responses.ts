@@ -52,8 +52,11 @@ const revisionHead = {
   round: z.number(),
   contentHash: z.string(),
   engineVersion: z.string(),
-  /** SHA-256 of the final block's rotary layout (docs/fingerprint.md): what the probe and every export carry. */
-  rotaryFingerprint: z.string(),
+  /**
+   * SHA-256 of the final block's rotary layout (docs/fingerprint.md): what the probe and every export carry. Null only
+   * in plan listings for a revision older than fingerprints until the post-migration backfill has filled it.
+   */
+  rotaryFingerprint: z.string().nullable(),
 };
 
 export const revisionSummarySchema = z.object({
