@@ -1,8 +1,16 @@
 // `npm run bench`: each bench file exports one run function; add new ones to this list.
+// `npm run bench -- speed` (or engine, budget, api) runs one of them.
 import { runEngineBench } from "./engine.bench";
 import { runBudgetBench } from "./budget.bench";
 import { runApiBench } from "./api.bench";
+import { runSpeedBench } from "./speed.bench";
 
-await runEngineBench();
-await runBudgetBench();
-await runApiBench();
+const benches: Record<string, () => Promise<void> | void> = {
+  engine: runEngineBench,
+  budget: runBudgetBench,
+  api: runApiBench,
+  speed: runSpeedBench,
+};
+const only = process.argv[2];
+if (only && !benches[only]) throw new Error(`no bench named ${only}; one of ${Object.keys(benches).join(", ")}`);
+for (const [name, run] of Object.entries(benches)) if (!only || only === name) await run();

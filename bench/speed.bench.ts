@@ -1,0 +1,206 @@
+import { execFileSync, spawn, type ChildProcess } from "node:child_process";
+import crypto from "node:crypto";
+import fs from "node:fs";
+import net from "node:net";
+import os from "node:os";
+import path from "node:path";
+import { performance } from "node:perf_hooks";
+import pg from "pg";
+import { LOCAL_APP_ROLE, LOCAL_OWNER_ROLE } from "../server/config";
+import { DEFAULT_GRID } from "../shared/schemas/bounds";
+import { smallestSupportingBase } from "../server/engine/base-search";
+import { METHOD_IDS } from "../shared/schemas/analysis";
+import { load, median, send, signIn } from "./http-client";
+
+// The figures of the speed table, each as a ratio against a baseline measured in the same run:
+//  - smallest-base search over HTTP (a fresh computation) against the same search in-process;
+//  - a repeated question (a kept answer) against the in-process search;
+//  - JavaScript the first page pulls, bytes on the wire against the uncompressed bytes; immutable caching of hashed files;
+//  - POST /api/analyses at 50 connections against a bare Express route answering the same JSON.
+// The app runs as production runs it (`npm start`, compiled, NODE_ENV=production) in a child process on the loopback
+// cluster's `ropewalk` database; BENCH_URL=http://host:port measures an already running instance instead (kept
+// answers are then not cleared between fresh searches). Demo accounts must exist there (RW_SEED).
+
+const root = path.resolve(import.meta.dirname, "..");
+const DEMO = { email: "researcher@ropewalk.test", password: "ropewalk-demo" };
+const FRESH_RUNS = 3;
+
+const freePort = () =>
+  new Promise<number>((resolve) => {
+    const s = net.createServer().listen(0, "127.0.0.1", () => {
+      const { port } = s.address() as net.AddressInfo;
+      s.close(() => resolve(port));
+    });
+  });
+
+async function waitFor(url: string, child: ChildProcess) {
+  for (let i = 0; i < 600; i++) {
+    if (child.exitCode !== null) throw new Error(`the server exited (${child.exitCode})`);
+    try {
+      if ((await send(url)).status < 500) return;
+    } catch {
+      // not listening yet
+    }
+    await new Promise((r) => setTimeout(r, 250));
+  }
+  throw new Error(`${url} did not answer`);
+}
+
+async function startApp(pgPort: string) {
+  execFileSync("bash", [path.join(root, "docker-free-db-scripts/start.sh"), "ropewalk"], {
+    stdio: ["ignore", "ignore", "inherit"],
+  });
+  const port = await freePort();
+  const child = spawn("node", ["scripts/launch.mjs"], {
+    cwd: root,
+    stdio: ["ignore", "ignore", "inherit"],
+    env: {
+      ...process.env,
+      NODE_ENV: "production",
+      PORT: String(port),
+      DATABASE_URL: `postgres://${LOCAL_APP_ROLE}@127.0.0.1:${pgPort}/ropewalk`,
+      MIGRATION_DATABASE_URL: `postgres://${LOCAL_OWNER_ROLE}@127.0.0.1:${pgPort}/ropewalk`,
+      SESSION_SECRET: crypto.randomBytes(24).toString("hex"),
+      TRUST_PROXY: "true",
+      RW_SEED: "true",
+      LOGIN_LIMIT_PER_ADDRESS: "100000",
+      LOG_LEVEL: "warn",
+    },
+  });
+  const base = `http://127.0.0.1:${port}`;
+  await waitFor(`${base}/api/health`, child);
+  return { base, child };
+}
+
+async function startBareJson(body: Buffer) {
+  const file = path.join(os.tmpdir(), `ropewalk-bench-body-${process.pid}.json`);
+  fs.writeFileSync(file, body);
+  const port = await freePort();
+  const child = spawn("node", [path.join(root, "bench/bare-json-server.mjs"), String(port), file], {
+    cwd: root,
+    stdio: ["ignore", "ignore", "inherit"],
+  });
+  const base = `http://127.0.0.1:${port}`;
+  await waitFor(base, child);
+  return { base, child };
+}
+
+const ratio = (x: number, baseline: number) => `${(x / baseline).toFixed(2)}×`;
+const line = (label: string, figure: string, vs: string) =>
+  console.log(`  ${label.padEnd(52)} ${figure.padEnd(34)} ${vs}`);
+
+export async function runSpeedBench() {
+  const pgPort = process.env.PGPORT ?? "54329";
+  const external = process.env.BENCH_URL;
+  const app = external ? { base: external, child: null } : await startApp(pgPort);
+  const owner = external
+    ? null
+    : new pg.Client({ connectionString: `postgres://${LOCAL_OWNER_ROLE}@127.0.0.1:${pgPort}/ropewalk` });
+  await owner?.connect();
+  const forget = async () => void (await owner?.query("DELETE FROM base_search_results"));
+  try {
+    // Behind a TLS proxy as in production: the session cookie is Secure, so say the request came over https.
+    const headers = await signIn(app.base, DEMO.email, DEMO.password, { "x-forwarded-proto": "https" });
+    const post = (p: string, body: unknown, extra: Record<string, string> = {}) =>
+      send(`${app.base}${p}`, { method: "POST", headers: { ...headers, ...extra }, body: JSON.stringify(body) });
+
+    console.log(`\nSpeed table (${external ? external : "npm start, compiled, NODE_ENV=production"})`);
+    await post("/api/bounds/base", { rotaryDim: 64, targetContext: 4096 }); // first thread, first connection
+    for (const target of [32_768, 1_048_576]) {
+      const question = { rotaryDim: 128, targetContext: target };
+      const engine: number[] = [];
+      for (let i = 0; i < FRESH_RUNS; i++) {
+        const t = performance.now();
+        smallestSupportingBase(128, target, DEFAULT_GRID);
+        engine.push(performance.now() - t);
+      }
+      const http: number[] = [];
+      for (let i = 0; i < FRESH_RUNS; i++) {
+        await forget();
+        const r = await post("/api/bounds/base", question);
+        if (r.status !== 200) throw new Error(`search answered ${r.status}`);
+        http.push(r.ms);
+      }
+      line(
+        `smallest base, d = 128, L = ${target}, fresh, HTTP`,
+        `median ${median(http).toFixed(0)} ms`,
+        `${ratio(median(http), median(engine))} the in-process engine (${median(engine).toFixed(0)} ms)`,
+      );
+      if (target === 1_048_576) {
+        const again: number[] = [];
+        for (let i = 0; i < 20; i++) again.push((await post("/api/bounds/base", question)).ms);
+        line(
+          `same question again (L = ${target})`,
+          `median ${median(again).toFixed(1)} ms`,
+          `${ratio(median(again), median(engine))} the in-process engine`,
+        );
+      }
+    }
+
+    // First page: the script and the module preloads index.html names, as a browser accepting br fetches them.
+    const html = (await send(`${app.base}/signin`, { headers: { "accept-encoding": "identity" } })).body.toString();
+    const js = [...html.matchAll(/<(?:script[^>]*src|link[^>]*rel="modulepreload"[^>]*href)="([^"]+\.js)"/g)].map(
+      (m) => m[1],
+    );
+    let rawBytes = 0;
+    let wireBytes = 0;
+    for (const src of js) {
+      rawBytes += (await send(`${app.base}${src}`, { headers: { "accept-encoding": "identity" } })).body.length;
+      wireBytes += (await send(`${app.base}${src}`, { headers: { "accept-encoding": "br, gzip" } })).body.length;
+    }
+    line(
+      `JavaScript of the first page (${js.length} files)`,
+      `${(wireBytes / 1024).toFixed(0)} kB on the wire`,
+      `${ratio(wireBytes, rawBytes)} uncompressed (${(rawBytes / 1024).toFixed(0)} kB)`,
+    );
+    const assets = [...html.matchAll(/(?:src|href)="(\/assets\/[^"]+)"/g)].map((m) => m[1]);
+    let immutable = 0;
+    for (const a of assets)
+      if (/immutable/.test(String((await send(`${app.base}${a}`)).headers["cache-control"]))) immutable++;
+    const indexCache = (await send(`${app.base}/`)).headers["cache-control"] ?? "none";
+    line(`hashed assets cached immutably`, `${immutable} of ${assets.length}`, `index.html: ${indexCache}`);
+
+    // POST /api/analyses with the 8 methods at 50 connections, against a bare Express route answering the same body.
+    const ramp = Array.from({ length: 64 }, (_, i) => 1 + i / 2);
+    const analysis = {
+      model: { headDim: 128, ropeTheta: 500000, trainedContext: 8192 },
+      targetContext: 1_048_576,
+      methods: METHOD_IDS.map((m) =>
+        m === "longrope"
+          ? { method: m, longFactor: ramp, shortFactor: ramp.map(() => 1) }
+          : m === "base"
+            ? { method: m, base: 5e7 }
+            : { method: m },
+      ),
+    };
+    const sample = await post("/api/analyses", analysis, { "accept-encoding": "identity" });
+    const zipped = await post("/api/analyses", analysis, { "accept-encoding": "gzip" });
+    const bare = await startBareJson(sample.body);
+    try {
+      const N = 1000;
+      const mine = await load(N, 50, () => post("/api/analyses", analysis, { "accept-encoding": "gzip" }));
+      const baseline = await load(N, 50, () =>
+        send(`${bare.base}/api/analyses`, {
+          method: "POST",
+          headers: { "content-type": "application/json" },
+          body: JSON.stringify(analysis),
+        }),
+      );
+      line(
+        `POST /api/analyses (${analysis.methods.length} methods), 50 connections`,
+        `${mine.rps.toFixed(0)} req/s, p99 ${mine.p99.toFixed(0)} ms${mine.failed ? ` (not 200: ${mine.failed})` : ""}`,
+        `${ratio(mine.rps, baseline.rps)} the req/s of a bare Express JSON route (${baseline.rps.toFixed(0)} req/s, p99 ${baseline.p99.toFixed(0)} ms)`,
+      );
+      line(
+        `  its answer`,
+        `${(sample.body.length / 1024).toFixed(0)} kB JSON, ${(zipped.body.length / 1024).toFixed(0)} kB gzip`,
+        zipped.headers["content-encoding"] ? "compressed by the server" : "not compressed by the server",
+      );
+    } finally {
+      bare.child.kill("SIGTERM");
+    }
+  } finally {
+    await owner?.end();
+    app.child?.kill("SIGTERM");
+  }
+}
