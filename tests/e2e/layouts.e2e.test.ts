@@ -72,7 +72,19 @@ describe("a layered model from import to an approved export", () => {
     await form.getByRole("button", { name: "Save profile" }).click();
     await page.getByRole("heading", { level: 1, name: modelName }).waitFor();
     await page.getByTestId("profile-layer-groups").waitFor();
-  }, 60_000);
+
+    // The workbench analyses one group at a time; it opens on the group plans scale (full attention, base 1e6).
+    await page.getByRole("link", { name: "Open in the workbench" }).click();
+    const picker = page.getByLabel("Layer group");
+    await picker.waitFor();
+    expect(await picker.inputValue()).toBe("full_attention");
+    const status = page.getByTestId("analysis-status");
+    await expect.poll(() => status.textContent(), { timeout: 15_000 }).toContain("d = 256 (128 pairs), b = 1 × 10⁶");
+    await picker.selectOption("sliding_attention");
+    await page.waitForURL((u) => u.searchParams.get("group") === "sliding_attention");
+    await expect.poll(() => status.textContent(), { timeout: 15_000 }).toMatch(/b = 10[,\s\u202f]?000,/);
+    await screenshot(page, "layouts-workbench-local-group");
+  }, 120_000);
 
   it("drafts a plan in the form; the plan page shows the local layers kept as trained; submits it", async () => {
     const page = await signedIn(researcher, "/plans");

@@ -11,7 +11,8 @@ import { analysesQueries } from "@/lib/api/analyses";
 import { sig } from "../figures";
 import { useDebounced } from "@/lib/use-debounced";
 import { withDefaults } from "../state/defaults";
-import { rotaryShapeOf } from "@shared/profile-shapes";
+import { layerGroupsOf } from "@shared/layer-groups";
+import { GroupPicker, groupShape, pickGroup } from "./group-picker";
 import type { WorkbenchInputs as Inputs } from "../state/inputs";
 import { toRequest } from "../state/to-request";
 import { inputsToParams, parseInputs } from "../state/url-codec";
@@ -39,7 +40,9 @@ export function Workbench({ profiles, profileNotes }: WorkbenchProps) {
 
   const model = inputs.model;
   const chosen = model.kind === "saved" ? (profiles.find((p) => p.id === model.id) ?? null) : null;
-  const savedShape = useMemo(() => (chosen ? rotaryShapeOf(chosen) : null), [chosen]);
+  const groups = useMemo(() => (chosen ? layerGroupsOf(chosen) : []), [chosen]);
+  const group = pickGroup(groups, model.kind === "saved" ? model.group : undefined);
+  const savedShape = useMemo(() => (chosen ? groupShape(chosen, group) : null), [chosen, group]);
   const { request, errors } = useMemo(() => toRequest(inputs, savedShape), [inputs, savedShape]);
   const settled = useDebounced(request, 300, { holdWhileNull: true });
   const analysis = useQuery(analysesQueries.detail(settled));
@@ -77,6 +80,13 @@ export function Workbench({ profiles, profileNotes }: WorkbenchProps) {
         errors={shownErrors}
         profileNotes={chosen && profileNotes ? profileNotes(chosen) : undefined}
       />
+      {chosen && groups.length > 1 && model.kind === "saved" && (
+        <GroupPicker
+          groups={groups}
+          value={group?.kind ?? ""}
+          onChange={(kind) => setInputs({ ...inputs, model: { ...model, group: kind } })}
+        />
+      )}
       {missingProfile && (
         <Notice tone="alert" title="That profile is gone">
           The link names a profile that no longer exists. Pick another.

@@ -5,7 +5,8 @@ import type { MethodId } from "@shared/schemas/analysis";
  * turned into a request only when it is valid.
  */
 export type ModelChoice =
-  | { kind: "saved"; id: number | null }
+  /** `group`: the layer group analysed (its kind); absent = the group scaling applies to. */
+  | { kind: "saved"; id: number | null; group?: string }
   | { kind: "shape"; headDim: string; ropeTheta: string; trainedContext: string; partialRotaryFactor: string };
 
 export type MethodRow = { method: MethodId; params: Record<string, string> };

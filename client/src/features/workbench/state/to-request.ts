@@ -59,15 +59,19 @@ export function toRequest(
   savedShape: ModelShape | null,
 ): { request: AnalysisRequest | null; errors: FieldErrors } {
   const m = inputs.model;
+  // A layer group other than the scaled one is sent as its own shape (its base and rotary dimension); the stored
+  // profile's top level is the scaled group's.
   const model =
-    m.kind === "saved"
-      ? { modelId: m.id ?? undefined }
-      : {
-          headDim: toNumber(m.headDim),
-          ropeTheta: toNumber(m.ropeTheta),
-          trainedContext: toNumber(m.trainedContext),
-          ...(m.partialRotaryFactor.trim() ? { partialRotaryFactor: toNumber(m.partialRotaryFactor) } : {}),
-        };
+    m.kind === "saved" && m.group && savedShape
+      ? savedShape
+      : m.kind === "saved"
+        ? { modelId: m.id ?? undefined }
+        : {
+            headDim: toNumber(m.headDim),
+            ropeTheta: toNumber(m.ropeTheta),
+            trainedContext: toNumber(m.trainedContext),
+            ...(m.partialRotaryFactor.trim() ? { partialRotaryFactor: toNumber(m.partialRotaryFactor) } : {}),
+          };
   const alpha = toNumber(inputs.alpha),
     beta = toNumber(inputs.beta);
   const body = {

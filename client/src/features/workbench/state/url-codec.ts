@@ -4,7 +4,7 @@ import { defaultInputs, DEFAULT_METHODS, type MethodRow, type ModelChoice, type 
 
 /**
  * The workbench's inputs as URL search params, so a link reproduces the view:
- *   model=7                      a saved profile, or
+ *   model=7 group=sliding_attention   a saved profile (and the layer group analysed, absent = the scaled one), or
  *   shape=128,10000,4096,1       headDim, ropeTheta, trainedContext, partialRotaryFactor typed in
  *   target=32768 alpha=1 beta=32 (empty = default)
  *   methods=[["linear",{}],["yarn",{"betaFast":"32"}]]   one JSON param: [method, params as typed]
@@ -29,7 +29,8 @@ function parseModel(params: URLSearchParams): ModelChoice {
     return { kind: "shape", headDim, ropeTheta, trainedContext, partialRotaryFactor };
   }
   const id = Number(params.get("model"));
-  return { kind: "saved", id: Number.isInteger(id) && id > 0 ? id : null };
+  const group = params.get("group");
+  return { kind: "saved", id: Number.isInteger(id) && id > 0 ? id : null, ...(group ? { group } : {}) };
 }
 
 export function parseInputs(params: URLSearchParams): WorkbenchInputs {
@@ -55,6 +56,7 @@ export function inputsToParams(inputs: WorkbenchInputs): URLSearchParams {
   const m = inputs.model;
   if (m.kind === "saved") {
     if (m.id !== null) out.set("model", String(m.id));
+    if (m.id !== null && m.group) out.set("group", m.group);
   } else {
     out.set(
       "shape",
