@@ -21,6 +21,7 @@ const envSchema = z.object({
   SIGNING_KEY_FILE: z.string().min(1).optional(),
   TRUST_PROXY: bool.optional(),
   LOG_LEVEL: z.enum(["fatal", "error", "warn", "info", "debug", "trace", "silent"]).optional(),
+  RATE_LIMIT_STORE: z.enum(["postgres", "memory"]).optional(),
   LOGIN_LIMIT_PER_ACCOUNT_ADDRESS: z.coerce.number().int().positive().default(10),
   LOGIN_LIMIT_PER_ADDRESS: z.coerce.number().int().positive().default(100),
   LOGIN_WINDOW_MINUTES: z.coerce.number().positive().default(15),
@@ -73,6 +74,8 @@ export interface Config {
   bcryptCost: number;
   /** pino level (LOG_LEVEL); tests are silent unless LOG_LEVEL says otherwise. */
   logLevel: string;
+  /** Where sign-in limit counters live (RATE_LIMIT_STORE): PostgreSQL, shared by instances; memory under tests. */
+  rateLimitStore: "postgres" | "memory";
   /** PostgreSQL connection and statement timeouts (DB_CONNECT_TIMEOUT_MS, DB_STATEMENT_TIMEOUT_MS). */
   db: DbTimeouts;
 }
@@ -100,6 +103,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
     cookieSecure: production,
     trustProxy: e.TRUST_PROXY ?? false,
     logLevel: e.LOG_LEVEL ?? (e.NODE_ENV === "test" ? "silent" : "info"),
+    rateLimitStore: e.RATE_LIMIT_STORE ?? (e.NODE_ENV === "test" ? "memory" : "postgres"),
     smtpUrl: e.SMTP_URL ?? (production ? undefined : `smtp://127.0.0.1:${e.MAIL_SINK_PORT}`),
     mailFrom: e.MAIL_FROM,
     mailSinkPort: e.MAIL_SINK_PORT,

@@ -63,3 +63,17 @@ export const auditEvents = pgTable(
     index("audit_events_actor_idx").on(t.actorId, t.id),
   ],
 );
+
+/**
+ * Sign-in rate-limit counters shared by every app instance (server/platform/rate-limit-store.ts): one row per limiter
+ * key with its hits in the current window. Rows past their window are reset on the next hit and pruned now and then.
+ */
+export const rateLimitHits = pgTable(
+  "rate_limit_hits",
+  {
+    key: text("key").primaryKey(),
+    hits: integer("hits").notNull(),
+    resetAt: timestamp("reset_at", { withTimezone: true }).notNull(),
+  },
+  (t) => [index("rate_limit_hits_reset_idx").on(t.resetAt)],
+);

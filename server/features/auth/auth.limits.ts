@@ -2,9 +2,11 @@ import type { Request, RequestHandler, Response } from "express";
 import { rateLimit, ipKeyGenerator } from "express-rate-limit";
 import type { AppDeps } from "../../deps";
 import { RateLimited } from "../../platform/errors";
+import { PgRateLimitStore } from "../../platform/rate-limit-store";
 
-// Counts live in express-rate-limit's in-process memory store unless `deps.limiterStore` hands out a shared one
-// (a later change moves them into PostgreSQL); each limiter asks for its store by name.
+// Counts live in PostgreSQL (rate_limit_hits), shared by every instance on the database, unless `deps.limiterStore`
+// hands out another store or config.rateLimitStore is "memory" (the default under NODE_ENV=test, so parallel test
+// files do not share counters); each limiter asks for its store by name.
 const tooMany = (what: string) =>
   new RateLimited(`too many ${what}; wait a few minutes and try again`, undefined, "rate_limited");
 const emailOf = (req: Request) =>
@@ -28,7 +30,9 @@ function limiter(
     legacyHeaders: false,
     // Only failures count: a correct password never uses up anyone's allowance.
     skipSuccessfulRequests: true,
-    store: deps.limiterStore?.(name),
+    store:
+      deps.limiterStore?.(name) ??
+      (deps.config.rateLimitStore === "postgres" ? new PgRateLimitStore(deps.pool, `${name}:`) : undefined),
     keyGenerator: (req, res) => `${name}:${key(req, res)}`,
     handler: (_req, _res, next) => next(tooMany(what)),
   });
