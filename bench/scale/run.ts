@@ -59,7 +59,10 @@ async function prepare() {
 
 async function signIn(base: string, email: string) {
   const s = await fetch(`${base}/api/auth/session`);
-  const cookie = s.headers.get("set-cookie")!.split(";")[0];
+  const cookie = s.headers
+    .getSetCookie()
+    .map((line) => line.split(";")[0])
+    .join("; ");
   const csrf = ((await s.json()) as { csrfToken: string }).csrfToken;
   const login = await fetch(`${base}/api/auth/login`, {
     method: "POST",
@@ -67,7 +70,11 @@ async function signIn(base: string, email: string) {
     body: JSON.stringify({ email, password: DEMO_PASSWORD }),
   });
   if (login.status !== 200) throw new Error(`sign-in as ${email}: ${login.status}`);
-  return login.headers.get("set-cookie")!.split(";")[0];
+  // Every cookie the sign-in set (session and CSRF), not just the first Set-Cookie line.
+  return login.headers
+    .getSetCookie()
+    .map((line) => line.split(";")[0])
+    .join("; ");
 }
 
 async function timings(base: string, cookie: string, url: string, n = 60) {
@@ -78,6 +85,7 @@ async function timings(base: string, cookie: string, url: string, n = 60) {
     const r = await fetch(base + url, { headers: { cookie } });
     await r.arrayBuffer();
     status = r.status;
+    if (status !== 200) throw new Error(`${url}: ${status}`);
     if (i >= 5) ms.push(performance.now() - t); // the first five warm caches and plans
   }
   return { status, p50: quantile(ms, 0.5), p95: quantile(ms, 0.95) };
@@ -113,9 +121,16 @@ if (servePort !== undefined) {
   console.log("endpoint                          status    p50 ms    p95 ms");
   for (const [label, url, cookie] of lists) {
     const t = await timings(base, cookie, url);
-    console.log(`${label.padEnd(32)}  ${String(t.status).padEnd(6)} ${t.p50.toFixed(1).padStart(8)}  ${t.p95.toFixed(1).padStart(8)}`);
+    console.log(
+      `${label.padEnd(32)}  ${String(t.status).padEnd(6)} ${t.p50.toFixed(1).padStart(8)}  ${t.p95.toFixed(1).padStart(8)}`,
+    );
   }
-  const load = await autocannon({ url: `${base}/api/plans`, connections: 50, duration: 15, headers: { cookie: admin } });
+  const load = await autocannon({
+    url: `${base}/api/plans`,
+    connections: 50,
+    duration: 15,
+    headers: { cookie: admin },
+  });
   console.log(
     `/api/plans at 50 connections: ${load.requests.average.toFixed(0)} req/s, p99 ${load.latency.p99} ms, ` +
       `${load.non2xx} non-2xx, ${load.errors} errors, ${load.timeouts} timeouts`,
