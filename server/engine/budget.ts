@@ -8,23 +8,29 @@ export {
   acceleratorCost,
   acceleratorHours,
   attentionFlopsPerToken,
+  checkpointingFlopsPerToken,
   flopsPerToken,
+  measuredUtilization,
   parameterFlopsPerToken,
-  recomputeMultiplier,
   wallClockHours,
   type FlopOptions,
 } from "./budget/flops";
 export {
   dataParallelRanks,
-  kvCacheBytesPerSequence,
-  kvCacheBytesPerToken,
-  minSequenceSharding,
-  servingSequencesPerAccelerator,
-  shardingDegrees,
+  hiddenSizeOf,
+  largestMemoryTerm,
   trainingMemoryPerAccelerator,
-  weightBytes,
   type TrainingMemoryInput,
 } from "./budget/memory";
+export {
+  kvCacheBytesPerSequence,
+  kvCacheBytesPerToken,
+  longestServableContext,
+  servingSequencesPerAccelerator,
+  weightBytes,
+} from "./budget/kv-cache";
+export { cheapestFit } from "./budget/fit";
+export { BUDGET_CONVENTIONS } from "./budget/conventions";
 export { cumulativeTokens, stageTokens, tokensPerStep, type StageTokens } from "../../shared/stage-tokens";
 export { growthCurve, logSpacedLengths } from "./budget/growth";
 export {

@@ -1,5 +1,6 @@
 import { z } from "zod";
 import { dbIdSchema } from "./common";
+import { revisionBudgetV1Schema } from "./budget-v1";
 
 /*
  * Budget contract: POST /api/budgets/estimate and the accelerator catalog.
@@ -22,6 +23,8 @@ const amount = (max: number) => z.number().positive().max(max);
 export const MIN_PEAK_FLOPS = 1e9;
 export const MIN_UTILIZATION = 1e-3;
 export const MIN_BYTES_PER_ELEMENT = 0.125;
+/** A measured throughput below this (and any that implies under MIN_UTILIZATION) is refused, for the same reason. */
+export const MIN_TOKENS_PER_SECOND = 1e-3;
 const id = dbIdSchema;
 const length = count(MAX_SEQUENCE_LENGTH);
 
@@ -56,6 +59,27 @@ export type Accelerator = z.infer<typeof acceleratorSchema>;
  * type error (NaN, null, 2.5 where an integer goes) zod names only the object, never the field.
  */
 
+/** Layer types whose cache holds every token (kinds come from a profile's layer groups; a window caps the rest). */
+const layerGroupSchema = z.strictObject({
+  /** The config's layer type, e.g. full_attention, sliding_attention; informative: the window decides. */
+  kind: z.string().trim().min(1).max(80),
+  /** How many layers, or their indices as a model profile lists them (shared/schemas/models.ts layerGroupSchema). */
+  layers: z.union([count(10_000), z.array(z.number().int().nonnegative().max(10_000)).min(1).max(10_000)]),
+  /** Tokens a local-window layer keeps; null or absent: the layer keeps the whole sequence. */
+  slidingWindow: length.nullable().optional(),
+});
+export type LayerGroup = z.output<typeof layerGroupSchema>;
+
+/** Fields a `{ modelId }` reference may still carry: what a stored profile may lack. */
+const modelExtraFields = {
+  /** Vocabulary size V: the logits are s·b·V fp32 values. */
+  vocabSize: count(10_000_000).optional(),
+  /** Layer groups of the model; absent: every layer is full attention. Their layers sum to `layers`. */
+  layerGroups: z.array(layerGroupSchema).min(1).max(64).optional(),
+  /** Latent attention: cached elements per token per layer (kv_lora_rank + qk_rope_head_dim); replaces 2·kvHeads·headDim. */
+  kvLatentDim: count(1_000_000).nullable().optional(),
+};
+
 const modelShapeFields = {
   /** Used for both FLOPs (6N) and weight memory. */
   parameters: count(1e15),
@@ -65,16 +89,34 @@ const modelShapeFields = {
   headDim: count(65_536),
   /** Residual width; default attentionHeads × headDim. */
   hiddenSize: count(1_000_000).optional(),
-  /** Bytes per stored element of weights, activations and KV cache; default 2 (bf16/fp16). */
+  /** Bytes per stored element of weights and activations (and KV cache unless kvCacheBytesPerElement); default 2. */
   bytesPerElement: amount(16).min(MIN_BYTES_PER_ELEMENT, "at least 0.125 (one bit)").optional(),
+  ...modelExtraFields,
 };
 const REQUIRED_MODEL_FIELDS = ["parameters", "layers", "attentionHeads", "kvHeads", "headDim"] as const;
 
-type HeadCounts = { attentionHeads?: number; kvHeads?: number };
+/** Layers in a group, given as a count or as the layers' indices. */
+export const groupLayerCount = (g: { layers: number | number[] }) =>
+  typeof g.layers === "number" ? g.layers : g.layers.length;
+
+type HeadCounts = {
+  attentionHeads?: number;
+  kvHeads?: number;
+  layers?: number;
+  layerGroups?: { layers: number | number[] }[];
+};
 function checkKvGroups(model: HeadCounts, ctx: z.RefinementCtx) {
-  if (model.attentionHeads === undefined || model.kvHeads === undefined) return;
-  if (model.attentionHeads % model.kvHeads !== 0) {
+  if (model.attentionHeads !== undefined && model.kvHeads !== undefined && model.attentionHeads % model.kvHeads !== 0) {
     ctx.addIssue({ code: "custom", path: ["kvHeads"], message: "kvHeads must divide attentionHeads" });
+  }
+  if (model.layers === undefined || !model.layerGroups) return;
+  const sum = model.layerGroups.reduce((total, g) => total + groupLayerCount(g), 0);
+  if (sum !== model.layers) {
+    ctx.addIssue({
+      code: "custom",
+      path: ["layerGroups"],
+      message: `the groups' layers sum to ${sum}, the model has ${model.layers}`,
+    });
   }
 }
 
@@ -86,7 +128,12 @@ export type BudgetModelShape = z.output<typeof budgetModelShapeSchema>;
  * `{ ...ref }` or the shape's fields, never both; the shape's `required` fields must all be there
  * when the ref is absent. Strict, so a misspelled field is an error.
  */
-function refOrShape<R extends z.ZodRawShape, S extends z.ZodRawShape>(ref: R, shape: S, required: readonly string[]) {
+function refOrShape<R extends z.ZodRawShape, S extends z.ZodRawShape>(
+  ref: R,
+  shape: S,
+  required: readonly string[],
+  extras: readonly string[] = [],
+) {
   const refKeys = Object.keys(ref);
   return z
     .strictObject({ ...ref, ...shape })
@@ -94,7 +141,7 @@ function refOrShape<R extends z.ZodRawShape, S extends z.ZodRawShape>(ref: R, sh
     .superRefine((value, ctx) => {
       const given = (key: string) => (value as Record<string, unknown>)[key] !== undefined;
       if (refKeys.some(given)) {
-        for (const key of Object.keys(shape).filter(given)) {
+        for (const key of Object.keys(shape).filter((k) => given(k) && !extras.includes(k))) {
           ctx.addIssue({ code: "custom", path: [key], message: `give ${refKeys.join(", ")} or ${key}, not both` });
         }
         return;
@@ -105,8 +152,15 @@ function refOrShape<R extends z.ZodRawShape, S extends z.ZodRawShape>(ref: R, sh
     });
 }
 
-export type ModelRequest = { modelId: number } | BudgetModelShape;
-export const budgetModelSchema = refOrShape({ modelId: id }, modelShapeFields, REQUIRED_MODEL_FIELDS)
+export type ModelExtras = Pick<BudgetModelShape, "vocabSize" | "layerGroups" | "kvLatentDim">;
+/** A stored profile by id (with what the profile may lack), or the shape's fields. */
+export type ModelRequest = ({ modelId: number } & ModelExtras) | BudgetModelShape;
+export const budgetModelSchema = refOrShape(
+  { modelId: id },
+  modelShapeFields,
+  REQUIRED_MODEL_FIELDS,
+  Object.keys(modelExtraFields),
+)
   .superRefine(checkKvGroups)
   .transform((model) => model as ModelRequest);
 
@@ -147,18 +201,79 @@ export const budgetStageRequestSchema = z
   })
   .transform((stage) => stage as StageRequest);
 
+export const ACTIVATION_CHECKPOINTING = ["none", "selective", "full"] as const;
+export type ActivationCheckpointing = (typeof ACTIVATION_CHECKPOINTING)[number];
+
 /** Cluster size and training conventions: shared by the estimator and a plan's budget sheet. */
 export const budgetSettingsFields = {
   accelerators: count(1_000_000),
-  /** Model FLOPs utilisation in (0, 1]. */
+  /** Model FLOPs utilisation in (0, 1]; ignored when measuredTokensPerSecond is given. */
   utilization: z.number().positive().min(MIN_UTILIZATION, "at least 0.001").max(1).optional(),
   convention: z.enum(FLOP_CONVENTIONS).optional(),
-  recomputeFraction: z.number().min(0).max(1).optional(),
+  /** What is kept for the backward pass (Korthikanti et al. 2022, Table 2); default full. */
+  activationCheckpointing: z.enum(ACTIVATION_CHECKPOINTING).optional(),
+  /** Fused attention: the a·s² attention scores are never stored; default true. */
+  flashAttention: z.boolean().optional(),
+  /** Degree over which each sequence is split, ring-attention style; default 1. */
+  contextParallel: count(1_000_000).optional(),
+  /** The loss computed over this many chunks of the sequence, so only one chunk's fp32 logits live at once; default 1. */
+  lossChunks: count(1_000_000).optional(),
+  /** Bytes per cached key/value element when serving (1 for an 8-bit cache); default the model's bytesPerElement. */
+  kvCacheBytesPerElement: amount(16).min(MIN_BYTES_PER_ELEMENT, "at least 0.125 (one bit)").optional(),
+  /** Measured training throughput, tokens per second per accelerator: utilisation is derived from it. */
+  measuredTokensPerSecond: amount(1e9).min(MIN_TOKENS_PER_SECOND, `at least ${MIN_TOKENS_PER_SECOND}`).optional(),
+  /** Sequence length the throughput was measured at; default the first stage's. */
+  measuredSequenceLength: length.optional(),
   optimizerBytesPerParameter: amount(64).optional(),
-  /** Sequence-parallel degree for the reported training memory; default 1. */
-  sequenceSharding: count(1_000_000).optional(),
   /** Sequences per micro-batch on one data-parallel rank; default 1. */
   microBatchSequences: count(1_000_000).optional(),
+  /** Budget model 1's name for contextParallel, still accepted; give one of the two. */
+  sequenceSharding: count(1_000_000).optional(),
+  /** Budget model 1's recomputed fraction, still accepted: 0 means none, 1 means full; nothing in between. */
+  recomputeFraction: z.number().min(0).max(1).optional(),
+};
+
+type SettingsSeen = {
+  accelerators: number;
+  contextParallel?: number;
+  sequenceSharding?: number;
+  recomputeFraction?: number;
+  activationCheckpointing?: string;
+};
+/** Rules between settings: the old names against the new ones, and the degree against the cluster. */
+export function checkSettings(settings: SettingsSeen, ctx: z.RefinementCtx, lengths: number[] = []) {
+  const issue = (field: string, message: string) => ctx.addIssue({ code: "custom", path: [field], message });
+  if (settings.contextParallel !== undefined && settings.sequenceSharding !== undefined)
+    issue("sequenceSharding", "give contextParallel (its new name) or sequenceSharding, not both");
+  if (settings.recomputeFraction !== undefined) {
+    if (settings.activationCheckpointing !== undefined)
+      issue("recomputeFraction", "give activationCheckpointing (its replacement) or recomputeFraction, not both");
+    else if (settings.recomputeFraction !== 0 && settings.recomputeFraction !== 1)
+      issue("recomputeFraction", "only 0 (none) or 1 (full) maps to activationCheckpointing; give that instead");
+  }
+  const degree = settings.contextParallel ?? settings.sequenceSharding;
+  const field = settings.contextParallel !== undefined ? "contextParallel" : "sequenceSharding";
+  if (degree === undefined) return;
+  if (degree > settings.accelerators) issue(field, `${field} cannot exceed accelerators`);
+  // Ring attention with causal masking balances work by cutting each sequence into 2 × degree equal chunks and
+  // giving rank r chunks r and 2·degree − 1 − r (one early, one late): see docs/budget-conventions.md.
+  const bad = degree > 1 ? lengths.findIndex((s) => s % (2 * degree) !== 0) : -1;
+  if (bad >= 0)
+    issue(
+      field,
+      `stage ${bad + 1}'s ${lengths[bad]} tokens do not divide by 2 × ${degree} = ${2 * degree}: each rank takes ` +
+        "one early and one late chunk of 2 × degree equal chunks, so the causal work is balanced",
+    );
+}
+
+/**
+ * A plan's budget sheet inputs: the settings, the cluster, and the vocabulary size when the model profile does not
+ * carry one (stages come from the plan, the model from its snapshot).
+ */
+export const planBudgetFields = {
+  cluster: budgetClusterSchema,
+  ...budgetSettingsFields,
+  vocabSize: modelExtraFields.vocabSize,
 };
 
 export const budgetEstimateRequestSchema = z
@@ -175,15 +290,9 @@ export const budgetEstimateRequestSchema = z
     stages: z.array(budgetStageRequestSchema).min(1).max(MAX_BUDGET_STAGES),
   })
   .superRefine((request, ctx) => {
-    if (request.sequenceSharding !== undefined && request.sequenceSharding > request.accelerators) {
-      ctx.addIssue({
-        code: "custom",
-        path: ["sequenceSharding"],
-        message: "sequenceSharding cannot exceed accelerators",
-      });
-    }
-    // Same fallbacks as the engine: shortest and longest stage lengths.
     const lengths = request.stages.map((s) => s.sequenceLength);
+    checkSettings(request, ctx, lengths);
+    // Same fallbacks as the engine: shortest and longest stage lengths.
     const trained = request.trainedContext ?? Math.min(...lengths);
     const target = request.targetContext ?? Math.max(...lengths);
     if (trained > target) {
@@ -198,6 +307,47 @@ export type ParsedBudgetEstimateRequest = z.output<typeof budgetEstimateRequestS
 
 const nonNegative = z.number().nonnegative();
 
+/** The version of the memory and compute model; frozen revisions keep the version they were signed with. */
+export const BUDGET_MODEL_VERSION = 2;
+export const MEMORY_TERMS = ["modelStates", "activationCheckpoints", "recomputeWorkspace", "logits"] as const;
+export const UTILIZATION_BASES = ["assumed", "measured"] as const;
+
+/**
+ * Each convention a sheet rests on, stated once; figures link to it by id (`#budget-convention-<id>`).
+ * `basis`: a published source, a convention we state, or common practice without a source.
+ */
+export const BUDGET_CONVENTION_IDS = [
+  "tokens",
+  "flops",
+  "checkpointing-flops",
+  "utilisation",
+  "cost",
+  "model-states",
+  "activations",
+  "logits",
+  "context-parallel",
+  "fit",
+  "kv-cache",
+  "serving",
+] as const;
+export type BudgetConventionId = (typeof BUDGET_CONVENTION_IDS)[number];
+export const budgetConventionSchema = z.object({
+  id: z.enum(BUDGET_CONVENTION_IDS),
+  title: z.string(),
+  statement: z.string(),
+  basis: z.enum(["published", "stated", "common practice"]),
+  source: z.string().nullable(),
+});
+
+/** Per accelerator, bytes; the terms of Korthikanti et al. 2022 (Table 2) plus model states and logits. */
+export const trainingMemorySchema = z.object({
+  modelStates: nonNegative,
+  activationCheckpoints: nonNegative,
+  recomputeWorkspace: nonNegative,
+  logits: nonNegative,
+  total: nonNegative,
+});
+
 export const budgetStageEstimateSchema = z.object({
   index: z.number().int().nonnegative(),
   sequenceLength: z.number(),
@@ -208,21 +358,35 @@ export const budgetStageEstimateSchema = z.object({
   /** Tokens actually trained: steps × globalBatch × sequenceLength. */
   tokens: nonNegative,
   cumulativeTokens: nonNegative,
+  /** Including the checkpointing recompute of the chosen mode. */
   flopsPerToken: nonNegative,
-  /** The attention term of flopsPerToken, before the recomputation factor. */
+  /** The attention term of flopsPerToken, before any recompute. */
   attentionFlopsPerToken: nonNegative,
   flops: nonNegative,
   acceleratorHours: nonNegative,
   wallClockHours: nonNegative,
   cost: nonNegative,
+  /** Whether hours and cost rest on an assumed utilisation or on the measured throughput. */
+  utilizationBasis: z.enum(UTILIZATION_BASES),
+  /** Cache bytes per token while every layer still holds every token (below the smallest window). */
   kvCacheBytesPerToken: nonNegative,
+  /** One sequence at this stage's length, windows applied. */
   kvCacheBytesPerSequence: nonNegative,
+  /** Whole sequences at this length whose cache fits beside one copy of the weights. */
   servingSequencesPerAccelerator: z.number().int().nonnegative(),
   trainingMemoryPerAccelerator: nonNegative,
-  /** modelStates: weights + grads + optimizer states; activations: layer-input checkpoints; both per accelerator. */
-  trainingMemory: z.object({ modelStates: nonNegative, activations: nonNegative, total: nonNegative }),
+  trainingMemory: trainingMemorySchema,
   fits: z.boolean(),
-  minSequenceSharding: z.number().int().positive().nullable(),
+  largestMemoryTerm: z.enum(MEMORY_TERMS),
+  /** When it does not fit: the cheapest settings that do (see the `fit` convention), or null when none does. */
+  fitChange: z
+    .object({
+      activationCheckpointing: z.enum(ACTIVATION_CHECKPOINTING),
+      contextParallel: z.number().int().positive(),
+      lossChunks: z.number().int().positive(),
+      total: nonNegative,
+    })
+    .nullable(),
   warnings: z.array(z.string()),
 });
 
@@ -243,31 +407,49 @@ export const budgetGrowthPointSchema = z.object({
   costPerBillionTokens: nonNegative,
 });
 
+export const budgetServingSchema = z.object({
+  weightBytes: nonNegative,
+  kvCacheBytesPerElement: nonNegative,
+  /** The longest single sequence whose cache fits beside the weights on one accelerator (0: the weights do not fit). */
+  longestServableContext: z.number().int().nonnegative(),
+});
+
 export const budgetAssumptionsSchema = z.object({
   convention: z.enum(FLOP_CONVENTIONS),
   conventionFormula: z.string(),
   conventionSource: z.string(),
   utilization: z.number(),
+  utilizationBasis: z.enum(UTILIZATION_BASES),
   utilizationSource: z.string(),
-  recomputeFraction: z.number(),
+  measuredTokensPerSecond: z.number().nullable(),
+  measuredSequenceLength: z.number().nullable(),
+  activationCheckpointing: z.enum(ACTIVATION_CHECKPOINTING),
+  flashAttention: z.boolean(),
+  contextParallel: z.number(),
+  lossChunks: z.number(),
+  dataParallelRanks: z.number(),
   optimizerBytesPerParameter: z.number(),
   optimizerBytesSource: z.string(),
   bytesPerElement: z.number(),
+  kvCacheBytesPerElement: z.number(),
   hiddenSize: z.number(),
-  sequenceSharding: z.number(),
+  /** null: not given, so the logits are not counted (a warning says so). */
+  vocabSize: z.number().nullable(),
   microBatchSequences: z.number(),
   trainedContext: z.number(),
   targetContext: z.number(),
   /** Inputs that were left out and took their default. */
   defaulted: z.array(z.string()),
-  memoryModel: z.array(z.string()),
-  notes: z.array(z.string()),
+  /** Each convention once; figures link to them by id. */
+  conventions: z.array(budgetConventionSchema),
 });
 
 export const budgetEstimateSchema = z.object({
+  budgetModel: z.literal(BUDGET_MODEL_VERSION),
   stages: z.array(budgetStageEstimateSchema),
   totals: budgetTotalsSchema,
   growth: z.array(budgetGrowthPointSchema),
+  serving: budgetServingSchema,
   assumptions: budgetAssumptionsSchema,
 });
 export type BudgetEstimateResponse = z.infer<typeof budgetEstimateSchema>;
@@ -303,8 +485,17 @@ export const acceleratorRetiredResponseSchema = z.object({
 
 export const budgetRecipesResponseSchema = z.object({ recipes: z.array(budgetRecipeSchema), caution: z.string() });
 
+/** ISO 4217 code of the workspace currency every price and cost is in. */
+export const currencySchema = z
+  .string()
+  .trim()
+  .regex(/^[A-Z]{3}$/, "three capital letters, an ISO 4217 code such as EUR");
+export const workspaceCurrencySchema = z.strictObject({ currency: currencySchema });
+
 /** POST /api/budgets/estimate: the estimate plus the numbers that `modelId` / `acceleratorId` stood for. */
 export const budgetEstimateResultSchema = budgetEstimateSchema.extend({
+  /** The workspace currency of `pricePerHour` and every cost. */
+  currency: z.string(),
   resolved: z.object({
     model: z.object(modelShapeFields),
     cluster: clusterSpecSchema,
@@ -314,18 +505,24 @@ export const budgetEstimateResultSchema = budgetEstimateSchema.extend({
 export type BudgetEstimateResult = z.infer<typeof budgetEstimateResultSchema>;
 
 /** A plan's budget inputs as stored in a revision (same fields as plans' planBudgetSchema). */
-const storedBudgetInputsSchema = z.object({ cluster: budgetClusterSchema, ...budgetSettingsFields });
+const storedBudgetInputsSchema = z.object(planBudgetFields);
 
 /**
- * `content.budget` of a plan revision: the figures with the catalog numbers copied in at edit time,
- * or why they were skipped (a plan with no stages).
+ * `content.budget` of a plan revision: the figures with the catalog numbers and the currency copied in at edit
+ * time, or why they were skipped (a plan with no stages). Revisions frozen under budget model 1 keep that shape.
  */
-export const revisionBudgetSchema = z.union([
+export const revisionBudgetV2Schema = z.union([
   z.object({
+    budgetModel: z.literal(BUDGET_MODEL_VERSION),
     inputs: storedBudgetInputsSchema,
     cluster: z.object({ name: z.string().nullable(), ...clusterSpecFields }),
+    currency: z.string(),
     estimate: budgetEstimateSchema,
   }),
-  z.object({ inputs: storedBudgetInputsSchema, skipped: z.string() }),
+  z.object({ budgetModel: z.literal(BUDGET_MODEL_VERSION), inputs: storedBudgetInputsSchema, skipped: z.string() }),
 ]);
+export type RevisionBudgetV2 = z.infer<typeof revisionBudgetV2Schema>;
+export const revisionBudgetSchema = z.union([revisionBudgetV2Schema, revisionBudgetV1Schema]);
 export type RevisionBudget = z.infer<typeof revisionBudgetSchema>;
+/** Budget model 1 stored no version; those revisions are read and shown with their own schema. */
+export const isBudgetV2 = (b: RevisionBudget): b is RevisionBudgetV2 => "budgetModel" in b && b.budgetModel === 2;

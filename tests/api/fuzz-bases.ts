@@ -26,9 +26,14 @@ const settings = {
   accelerators: 64,
   utilization: 0.4,
   convention: "causal",
-  recomputeFraction: 0,
+  activationCheckpointing: "full",
+  flashAttention: true,
+  contextParallel: 1,
+  lossChunks: 1,
+  kvCacheBytesPerElement: 2,
+  measuredTokensPerSecond: 1000,
+  measuredSequenceLength: 4096,
   optimizerBytesPerParameter: 12,
-  sequenceSharding: 1,
   microBatchSequences: 1,
 };
 const budget = { cluster, ...settings };
@@ -106,6 +111,7 @@ export function fuzzBases(ids: FuzzIds): Record<string, object[]> {
       { title: "Fuzz @@U@@", purpose: "fuzz", modelId: ids.model, requiredApprovals: 1, revision: revision() },
     ],
     "put /api/plans/settings": [{ minRequiredApprovals: 1 }],
+    "put /api/budgets/currency": [{ currency: "USD" }],
     "put /api/plans/{id}/revisions/{n}": [
       { version: VERSION_MARK, notes: "fuzz", acceptance: twoStageRevision().acceptance, budget },
       { version: VERSION_MARK, budget: { cluster: { acceleratorId: ids.accelerator }, accelerators: 8 } },

@@ -91,6 +91,7 @@ const CASES: Case[] = [
   ["GET /api/mail", (w) => w.me.get("/api/mail"), ["admin"], 200],
   ["POST /api/budgets/estimate", (w) => post(w.me, "/api/budgets/estimate", budget), all, 200],
   ["GET /api/budgets/recipes", (w) => w.me.get("/api/budgets/recipes"), all, 200],
+  ["GET /api/budgets/currency", (w) => w.me.get("/api/budgets/currency"), all, 200],
   ["GET /api/accelerators", (w) => w.me.get("/api/accelerators"), all, 200],
   [
     "POST /api/accelerators",

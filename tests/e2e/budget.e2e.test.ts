@@ -155,8 +155,14 @@ describe("budget sheet in a browser", () => {
       .poll(() => page.getByTestId("convention-formula").textContent(), { timeout: 15_000 })
       .toContain("Kaplan et al. 2020");
     await expect
-      .poll(() => page.getByTestId("assumption-line").first().textContent(), { timeout: 15_000 })
-      .toContain("utilisation 0.4 (assumed)");
+      .poll(() => page.getByTestId("assumptions").textContent(), { timeout: 15_000 })
+      .toContain("0.400 (assumed)");
+    // Each convention is stated once; the figures link to it instead of repeating it.
+    await expect(page.locator("#budget-convention-activations").count()).resolves.toBe(1);
+    await expect(page.getByTestId("convention-links").count()).resolves.toBeGreaterThan(1);
+    await expect(page.getByTestId("assumptions").textContent()).resolves.toContain("Korthikanti et al. 2022");
+    // Every cost carries the workspace currency (an ISO code).
+    await expect(page.getByTestId("total-cost").textContent()).resolves.toMatch(/ [A-Z]{3}$/);
     await page.getByText("These are estimates").first().waitFor();
 
     const [download] = await Promise.all([
@@ -173,8 +179,10 @@ describe("budget sheet in a browser", () => {
     expect(Number(s1.tokens)).toBe(200 * 64 * 16384);
     expect(Number(s2.steps)).toBe(954);
     expect(Number(total.tokens)).toBe(200 * 64 * 16384 + 954 * 32 * 32768);
-    // Kaplan et al. 2020, Eq. 2.2 with training ≈ 3 × forward: 6N + 6·n_layer·n_ctx·d_attn, d_attn = 32 × 128.
-    expect(Number(s1["FLOPs per token"])).toBeCloseTo(6 * 6.5e9 + 6 * 32 * 16384 * 4096, -3);
+    // Kaplan et al. 2020, Eq. 2.2 with training ≈ 3 × forward: 6N + 6·n_layer·n_ctx·d_attn, d_attn = 32 × 128;
+    // × 4/3 for the default full checkpointing (one more forward pass).
+    expect(Number(s1["FLOPs per token"])).toBeCloseTo(((6 * 6.5e9 + 6 * 32 * 16384 * 4096) * 4) / 3, -3);
+    expect(s1["activation checkpointing"]).toBe("full");
     // Accelerator-hours = FLOPs / (peak × utilisation × 3600) with the default utilisation 0.4.
     expect(Number(s1["accelerator-hours"])).toBeCloseTo(Number(s1.FLOPs) / (300e12 * 0.4 * 3600), 6);
     expect(s1["FLOP convention"]).toContain("causal");
@@ -182,7 +190,7 @@ describe("budget sheet in a browser", () => {
     // Switching to the full count (PaLM, App. B) raises the attention term: 12·n_layer·n_heads·head_dim·n_ctx.
     const before = await totalText(page, "compute");
     // click, not check(): the choice goes through the URL, so the radio turns on a moment after the click.
-    await page.getByLabel(/^Full/).click();
+    await page.getByLabel(/^Full \(every position/).click();
     await page.waitForFunction(
       (b) => document.querySelector('[data-testid="total-compute"]')?.textContent !== b,
       before,
@@ -223,14 +231,14 @@ describe("budget sheet in a browser", () => {
     });
     const created = await createPlan(api, profile.id, {
       revision: {
-        targetContext: 262144,
+        targetContext: 131072,
         method: yarn,
-        stages: [stage(65536, 65536, 64), stage(262144, 131072, 32)],
+        stages: [stage(65536, 65536, 64), stage(131072, 131072, 32)],
         notes: "budget browser test",
         acceptance: [
           {
             evaluation: "passkey retrieval",
-            contextLength: 262144,
+            contextLength: 131072,
             metric: "accuracy",
             comparison: ">=",
             threshold: 0.9,
@@ -248,27 +256,40 @@ describe("budget sheet in a browser", () => {
     await sheet.getByLabel("Accelerators", { exact: true }).fill("32");
     // 100 × 64 × 65536 + 100 × 32 × 131072 = 838 860 800 tokens.
     await expect(settledTokens(page)).resolves.toBe("839 million");
-    await expect(sheet.getByText("does not fit in accelerator memory").count()).resolves.toBe(0);
 
-    // Memory model (assumptions.memoryModel): 6.5e9 × 16 B ÷ 32 ranks = 3.03 GiB of model states, plus activations
-    // 32 layers × 262144 × 4096 × 2 B = 64 GiB: 67 GiB > 48 GiB. Sharding each sequence over 2 halves the activations
-    // but also the ranks: 6.05 + 32 = 38 GiB, which fits.
-    await sheet.getByLabel("Stage 2 sequence length", { exact: true }).fill("262144");
-    await expect(settledTokens(page)).resolves.toBe("1.26 billion");
+    // The 128k stage on 32 accelerators of 48 GiB, full checkpointing and flash attention by default
+    // (Korthikanti et al. 2022, Table 2; docs/budget-conventions.md), s = 131 072, h = 4096, l = 32:
+    //   model states 6.5e9 × 16 ÷ 32 = 3.25e9, checkpoints 2·s·h·l = 34 359 738 368, workspace 34·s·h = 18 253 611 008
+    //   → 55.9e9 > 48 GiB (51.5e9): the checkpoints (32 GiB) are the largest term; context parallelism 2 halves s:
+    //   6.5e9 + 17.2e9 + 9.1e9 = 32.8e9 fits.
     const misfit = sheet.getByRole("alert").filter({ hasText: "Stage 2 does not fit in accelerator memory" });
     await misfit.waitFor();
-    await expect(misfit.textContent()).resolves.toMatch(/67(\.\d)? GiB.*48 GiB.*over 2 accelerators/);
-    // The sheet edits the plan's own stage: the stage field above shows the new length.
+    await expect
+      .poll(() => misfit.textContent(), { timeout: 15_000 })
+      .toMatch(
+        /largest term is the activation checkpoints \(32 GiB\).*cheapest change that fits: context parallelism 2 \(/,
+      );
+    // With the vocabulary the logits count: 131 072 × 128 256 × 4 = 67 243 081 728 bytes (62.6 GiB), now the largest;
+    // cheapest fit: degree 2 and 2 chunks, 6.5e9 + 17.2e9 + 9.1e9 + 33.6e9 ÷ 2 = 49.6e9 ≤ 51.5e9.
+    await sheet.getByLabel("Vocabulary size", { exact: true }).fill("128256");
+    await expect
+      .poll(() => misfit.textContent(), { timeout: 15_000 })
+      .toMatch(/largest term is the logits \(62\.6 GiB\).*context parallelism 2 and loss chunks 2/);
+    // The sheet edits the plan's own stage: the stage field above shows its length.
     await expect(
       page.getByRole("group", { name: "Stage 2" }).getByLabel("Sequence length (tokens)").inputValue(),
-    ).resolves.toBe("262144");
+    ).resolves.toBe("131072");
     await screenshot(page, "plan-budget-misfit");
     // The sheet alone, for a person checking the warning and the figures without scrolling the whole editor.
     await sheet.screenshot({ path: path.join(SCREENSHOT_DIR, "plan-budget-sheet-misfit.png"), animations: "disabled" });
 
-    await sheet.getByLabel("Sequence sharding", { exact: true }).fill("2");
+    // Raise context parallelism and loss chunks: 6.5e9 + 17.2e9 + 9.1e9 + 33.6e9 ÷ 8 = 37.0e9 — it fits.
+    await sheet.getByLabel("Context parallelism", { exact: true }).fill("2");
+    await sheet.getByLabel("Loss chunks", { exact: true }).fill("8");
     await misfit.waitFor({ state: "detached" });
     await settledTokens(page);
+    await expect(sheet.getByText("does not fit in accelerator memory").count()).resolves.toBe(0);
+    await expect(sheet.getByTestId("fit-cell").allTextContents()).resolves.toEqual(["fits", "fits"]);
     await page.getByRole("button", { name: "Save draft" }).click();
     // The editor starts again from the saved version (it is keyed by version).
     await page.getByText("Editing version 2 of revision 1").waitFor();
@@ -281,12 +302,15 @@ describe("budget sheet in a browser", () => {
     expect(saved.content.budget.inputs).toEqual({
       cluster: { acceleratorId: acc.id },
       accelerators: 32,
-      sequenceSharding: 2,
+      contextParallel: 2,
+      lossChunks: 8,
+      vocabSize: 128256,
     });
-    expect(saved.content.stages[1].sequenceLength).toBe(262144);
+    expect(saved.content.budget.budgetModel).toBe(2);
     expect(saved.content.budget.cluster).toMatchObject({ name: acceleratorName, memoryBytes: 48 * GIB });
-    expect(saved.content.budget.estimate.totals.tokens).toBe(100 * 64 * 65536 + 100 * 32 * 262144);
+    expect(saved.content.budget.estimate.totals.tokens).toBe(100 * 64 * 65536 + 100 * 32 * 131072);
     expect(saved.content.budget.estimate.stages.map((x: any) => x.fits)).toEqual([true, true]);
+    expect(saved.content.budget.estimate.stages[1].trainingMemory.logits).toBe(67_243_081_728 / 2 / 8);
 
     // Someone saves in between (another tab): this page's version is stale, and it says so.
     await put(api, `/api/plans/${created.id}/revisions/1`, { version: 2, notes: "edited elsewhere" }).expect(200);
@@ -297,7 +321,10 @@ describe("budget sheet in a browser", () => {
     await page.getByText("Editing version 3 of revision 1").waitFor();
     // The reloaded sheet starts from the stored budget block.
     await expect(
-      page.getByRole("region", { name: "Budget sheet" }).getByLabel("Sequence sharding", { exact: true }).inputValue(),
+      page
+        .getByRole("region", { name: "Budget sheet" })
+        .getByLabel("Context parallelism", { exact: true })
+        .inputValue(),
     ).resolves.toBe("2");
     await expect(
       page.getByRole("region", { name: "Budget sheet" }).getByLabel("Stage 1 steps", { exact: true }).inputValue(),
@@ -384,6 +411,9 @@ describe("budget sheet in a browser", () => {
     await expect
       .poll(() => page.getByTestId("budget-panel").textContent(), { timeout: 15_000 })
       .toContain(acceleratorName);
+    // The frozen figures carry the currency they were costed in and state each convention once.
+    await expect(page.getByTestId("budget-panel").textContent()).resolves.toMatch(/Cost \([A-Z]{3}\)/);
+    await expect(page.locator("#frozen-convention-activations").count()).resolves.toBe(1);
     const rev = (await api.get(`/api/plans/${id}/revisions/1`).expect(200)).body;
     expect(rev.content.budget.inputs).toMatchObject({ accelerators: 8 });
     expect(rev.content.budget.cluster.name).toBe(acceleratorName);
@@ -400,6 +430,10 @@ describe("budget sheet in a browser", () => {
     await expect(page.getByRole("form").count()).resolves.toBe(0);
     await expect(page.getByRole("button", { name: /^(Edit|Delete) / }).count()).resolves.toBe(0);
     await page.getByText("Infra leads and admins keep this list.").waitFor();
+    // The workspace currency is shown, not offered for change (admins change it).
+    await expect
+      .poll(() => page.getByTestId("workspace-currency").textContent(), { timeout: 15_000 })
+      .toMatch(/in [A-Z]{3}, the workspace currency/);
     expect(errors).toEqual([]);
     await context.close();
   });

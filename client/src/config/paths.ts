@@ -79,6 +79,7 @@ export const apiPaths = {
   // budget sheet, estimator and accelerator catalog
   budgetEstimate: () => api("/budgets/estimate"),
   budgetRecipes: () => api("/budgets/recipes"),
+  budgetCurrency: () => api("/budgets/currency"),
   accelerators: () => api("/accelerators"),
   accelerator: (id: number) => api(`/accelerators/${encodeURIComponent(String(id))}`),
   acceleratorRestore: (id: number) => api(`/accelerators/${encodeURIComponent(String(id))}/restore`),

@@ -81,9 +81,10 @@ export function formatHours(hours: number): string {
 }
 
 /** An amount of money in the workspace's currency (no symbol: the catalog does not record one). */
-export function formatMoney(amount: number): string {
-  if (amount >= 100) return grouped.format(amount);
-  return amount.toFixed(2);
+/** An amount of money; with `currency` (the workspace's ISO code) the code follows it: "1,204 EUR". */
+export function formatMoney(amount: number, currency?: string): string {
+  const figure = amount >= 100 ? grouped.format(amount) : amount.toFixed(2);
+  return currency ? `${figure} ${currency}` : figure;
 }
 
 const dateTimeFormat = new Intl.DateTimeFormat("en-GB", {

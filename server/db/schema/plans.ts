@@ -8,12 +8,22 @@ import { modelProfiles } from "./models";
 const inList = (values: readonly string[]) => sql.raw(values.map((v) => `'${v}'`).join(", "));
 
 /** Lab-wide settings (one row per key). */
-export const settings = pgTable("settings", {
-  key: text("key").primaryKey(),
-  value: jsonb("value").notNull(),
-  updatedBy: integer("updated_by").references(() => users.id),
-  updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
-});
+export const settings = pgTable(
+  "settings",
+  {
+    key: text("key").primaryKey(),
+    value: jsonb("value").notNull(),
+    updatedBy: integer("updated_by").references(() => users.id),
+    updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    // The workspace currency is an ISO 4217 code: three capital letters, as a JSON string.
+    check(
+      "settings_currency_code",
+      sql`${t.key} <> 'currency' OR (jsonb_typeof(${t.value}) = 'string' AND ${t.value} #>> '{}' ~ '^[A-Z]{3}$')`,
+    ),
+  ],
+);
 
 export const plans = pgTable(
   "plans",

@@ -1,6 +1,7 @@
-import { BUDGET_DEFAULTS, GROWTH_REACH } from "./defaults";
-import { hiddenSizeOf } from "./memory";
-import type { BudgetAssumptions, FlopConvention, ResolvedBudgetInput } from "./types";
+import { BUDGET_CONVENTIONS } from "./conventions";
+import { BUDGET_DEFAULTS } from "./defaults";
+import { dataParallelRanks, hiddenSizeOf } from "./memory";
+import type { ActivationCheckpointing, BudgetAssumptions, FlopConvention, ResolvedBudgetInput } from "./types";
 
 const CONVENTIONS: Record<FlopConvention, { formula: string; source: string }> = {
   causal: {
@@ -24,22 +25,38 @@ export function resolveOptions(input: ResolvedBudgetInput) {
   };
   const d = BUDGET_DEFAULTS;
   const { model } = input;
+  // Budget model 1's names, still accepted (the schema refuses both names at once and fractions between 0 and 1).
+  const legacyMode = input.recomputeFraction === undefined ? undefined : input.recomputeFraction >= 1 ? "full" : "none";
+  const bytesPerElement = given("model.bytesPerElement", model.bytesPerElement, d.bytesPerElement);
+  const contextParallel = given("contextParallel", input.contextParallel ?? input.sequenceSharding, d.contextParallel);
   return {
     utilization: given("utilization", input.utilization, d.utilization),
     convention: given<FlopConvention>("convention", input.convention, d.convention),
-    recomputeFraction: given("recomputeFraction", input.recomputeFraction, d.recomputeFraction),
+    activationCheckpointing: given<ActivationCheckpointing>(
+      "activationCheckpointing",
+      input.activationCheckpointing ?? legacyMode,
+      d.activationCheckpointing,
+    ),
+    flashAttention: given<boolean>("flashAttention", input.flashAttention, d.flashAttention),
+    contextParallel,
+    lossChunks: given("lossChunks", input.lossChunks, d.lossChunks),
+    measuredTokensPerSecond: input.measuredTokensPerSecond ?? null,
+    measuredSequenceLength:
+      input.measuredTokensPerSecond === undefined ? null : (input.measuredSequenceLength ?? lengths[0]),
     optimizerBytesPerParameter: given(
       "optimizerBytesPerParameter",
       input.optimizerBytesPerParameter,
       d.optimizerBytesPerParameter,
     ),
-    sequenceSharding: given("sequenceSharding", input.sequenceSharding, d.sequenceSharding),
     microBatchSequences: given("microBatchSequences", input.microBatchSequences, d.microBatchSequences),
     growthPoints: given("growthPoints", input.growthPoints, d.growthPoints),
     trainedContext: given("trainedContext", input.trainedContext, Math.min(...lengths)),
     targetContext: given("targetContext", input.targetContext, Math.max(...lengths)),
-    bytesPerElement: given("model.bytesPerElement", model.bytesPerElement, d.bytesPerElement),
+    bytesPerElement,
+    kvCacheBytesPerElement: given("kvCacheBytesPerElement", input.kvCacheBytesPerElement, bytesPerElement),
     hiddenSize: given("model.hiddenSize", model.hiddenSize, hiddenSizeOf(model)),
+    vocabSize: given<number | null>("model.vocabSize", model.vocabSize, null),
+    dataParallelRanks: dataParallelRanks(input.accelerators, contextParallel),
     defaulted,
   };
 }
@@ -47,44 +64,29 @@ export function resolveOptions(input: ResolvedBudgetInput) {
 export type ResolvedOptions = ReturnType<typeof resolveOptions>;
 
 /** The assumptions block: every figure the estimate rests on, and where it comes from. */
-export function describeAssumptions(options: ResolvedOptions): BudgetAssumptions {
+export function describeAssumptions(options: ResolvedOptions, utilization: number): BudgetAssumptions {
   const convention = CONVENTIONS[options.convention];
-  const utilizationGiven = !options.defaulted.includes("utilization");
   const optimizerGiven = !options.defaulted.includes("optimizerBytesPerParameter");
+  const measured = options.measuredTokensPerSecond !== null;
+  const utilizationSource = measured
+    ? `derived from the measured ${options.measuredTokensPerSecond} tokens/s per accelerator at ${options.measuredSequenceLength} tokens`
+    : options.defaulted.includes("utilization")
+      ? "assumed model FLOPs utilisation of 0.4: common practice, no source"
+      : "assumed: given with the request";
+  const { defaulted, growthPoints: _points, measuredTokensPerSecond, measuredSequenceLength, ...settings } = options;
   return {
-    convention: options.convention,
+    ...settings,
     conventionFormula: convention.formula,
     conventionSource: convention.source,
-    utilization: options.utilization,
-    utilizationSource: utilizationGiven
-      ? "given with the request"
-      : "assumed model FLOPs utilisation of 0.4: common practice, no source",
-    recomputeFraction: options.recomputeFraction,
-    optimizerBytesPerParameter: options.optimizerBytesPerParameter,
+    utilization,
+    utilizationBasis: measured ? "measured" : "assumed",
+    utilizationSource,
+    measuredTokensPerSecond,
+    measuredSequenceLength,
     optimizerBytesSource: optimizerGiven
       ? "given with the request"
       : "16 bytes per parameter: bf16 weights and gradients, fp32 master weights and Adam m, v — common practice, no source",
-    bytesPerElement: options.bytesPerElement,
-    hiddenSize: options.hiddenSize,
-    sequenceSharding: options.sequenceSharding,
-    microBatchSequences: options.microBatchSequences,
-    trainedContext: options.trainedContext,
-    targetContext: options.targetContext,
-    defaulted: options.defaulted,
-    memoryModel: [
-      "Model states per accelerator = parameters × optimizerBytesPerParameter ÷ data-parallel ranks, " +
-        "data-parallel ranks = floor(accelerators ÷ sequence sharding).",
-      "Activations per accelerator, full recomputation: one checkpoint of each layer's input = " +
-        "layers × microBatchSequences × sequenceLength × hiddenSize × bytesPerElement ÷ sequence sharding.",
-      "Not counted: the recomputed layer's working set, logits, communication buffers, fragmentation.",
-      "Serving: one whole copy of the weights per accelerator; the rest holds KV cache of whole sequences.",
-    ],
-    notes: [
-      "N is the parameter count given; Kaplan et al. count non-embedding parameters, so a total count overstates 6N slightly.",
-      `Recomputation adds recomputeFraction × forward FLOPs, forward = 1/3 of the training figure (factor 1 + r/3).`,
-      "Accelerator-hours = FLOPs ÷ (peak FLOP/s × utilisation × 3600); wall-clock = accelerator-hours ÷ accelerators; cost = accelerator-hours × price per hour.",
-      "A token target is met with whole steps: steps = ceil(tokens ÷ (globalBatch × sequenceLength)); FLOPs use the tokens of those steps.",
-      `Growth curve: log-spaced lengths from the trained length to ${GROWTH_REACH} × the target, both ends included.`,
-    ],
+    defaulted: measured ? defaulted.filter((d) => d !== "utilization") : defaulted,
+    conventions: [...BUDGET_CONVENTIONS],
   };
 }

@@ -1,81 +1,106 @@
 import { describeAssumptions, resolveOptions, type ResolvedOptions } from "./assumptions";
-import { acceleratorCost, acceleratorHours, attentionFlopsPerToken, flopsPerToken, wallClockHours } from "./flops";
+import { cheapestFit } from "./fit";
+import {
+  acceleratorCost,
+  acceleratorHours,
+  attentionFlopsPerToken,
+  flopsPerToken,
+  measuredUtilization,
+  wallClockHours,
+} from "./flops";
 import { growthCurve } from "./growth";
 import {
   kvCacheBytesPerSequence,
   kvCacheBytesPerToken,
-  minSequenceSharding,
+  longestServableContext,
   servingSequencesPerAccelerator,
-  trainingMemoryPerAccelerator,
   weightBytes,
-} from "./memory";
+} from "./kv-cache";
+import { largestMemoryTerm, trainingMemoryPerAccelerator } from "./memory";
+import { fitWarning } from "./warnings";
+import { BUDGET_MODEL_VERSION } from "../../../shared/schemas/budget";
 import { cumulativeTokens, stageTokens } from "../../../shared/stage-tokens";
 import type { BudgetEstimate, BudgetTotals, ResolvedBudgetInput, StageEstimate, StageInput } from "./types";
 
 const GIB = 2 ** 30;
 const gib = (bytes: number) => `${(bytes / GIB).toFixed(1)} GiB`;
 
+type Settings = ResolvedOptions & { utilization: number };
+
 /** Cost, time and memory of a multi-stage context-extension run. Pure: no I/O, no clock, no randomness. */
 export function estimateBudget(input: ResolvedBudgetInput): BudgetEstimate {
   if (input.stages.length === 0) throw new RangeError("a budget needs at least one stage");
   const options = resolveOptions(input);
-  const model = { ...input.model, bytesPerElement: options.bytesPerElement, hiddenSize: options.hiddenSize };
-  const perStage = input.stages.map((stage, index) => estimateStage({ ...input, model }, options, stage, index));
+  const model = {
+    ...input.model,
+    bytesPerElement: options.bytesPerElement,
+    hiddenSize: options.hiddenSize,
+    ...(options.vocabSize === null ? {} : { vocabSize: options.vocabSize }),
+  };
+  const settings: Settings = { ...options, utilization: utilizationOf(input, options, model) };
+  const perStage = input.stages.map((stage, index) => estimateStage({ ...input, model }, settings, stage, index));
   const running = cumulativeTokens(perStage.map((s) => s.tokens));
   const stages = perStage.map((stage, k) => ({ ...stage, cumulativeTokens: running[k] }));
   return {
+    budgetModel: BUDGET_MODEL_VERSION,
     stages,
     totals: sumTotals(stages),
     growth: growthCurve({
       model,
       cluster: input.cluster,
-      utilization: options.utilization,
+      utilization: settings.utilization,
       convention: options.convention,
-      recomputeFraction: options.recomputeFraction,
+      activationCheckpointing: options.activationCheckpointing,
       trainedContext: options.trainedContext,
       targetContext: options.targetContext,
       points: options.growthPoints,
     }),
-    assumptions: describeAssumptions(options),
+    serving: {
+      weightBytes: weightBytes(model),
+      kvCacheBytesPerElement: options.kvCacheBytesPerElement,
+      longestServableContext: longestServableContext(model, input.cluster.memoryBytes, options.kvCacheBytesPerElement),
+    },
+    assumptions: describeAssumptions(options, settings.utilization),
   };
 }
 
-function estimateStage(
-  input: ResolvedBudgetInput,
-  options: ResolvedOptions,
-  stage: StageInput,
-  index: number,
-): StageEstimate {
+/** The assumed utilisation, or the one a measured throughput implies (may exceed 1: the service refuses that). */
+function utilizationOf(input: ResolvedBudgetInput, o: ResolvedOptions, model: ResolvedBudgetInput["model"]) {
+  if (o.measuredTokensPerSecond === null || o.measuredSequenceLength === null) return o.utilization;
+  const { convention, activationCheckpointing } = o;
+  const perToken = flopsPerToken(model, o.measuredSequenceLength, { convention, activationCheckpointing });
+  return measuredUtilization(o.measuredTokensPerSecond, perToken, input.cluster.peakFlops);
+}
+
+function estimateStage(input: ResolvedBudgetInput, o: Settings, stage: StageInput, index: number): StageEstimate {
   const { model, cluster, accelerators } = input;
   const { sequenceLength } = stage;
   const { steps, tokenTarget, tokens } = stageTokens(stage);
-  const { convention, recomputeFraction } = options;
-  const perToken = flopsPerToken(model, sequenceLength, { convention, recomputeFraction });
+  const { convention, activationCheckpointing } = o;
+  const perToken = flopsPerToken(model, sequenceLength, { convention, activationCheckpointing });
   const flops = perToken * tokens;
-  const hours = acceleratorHours(flops, cluster.peakFlops, options.utilization);
+  const hours = acceleratorHours(flops, cluster.peakFlops, o.utilization);
   const memoryInput = {
     model,
     sequenceLength,
     accelerators,
-    microBatchSequences: options.microBatchSequences,
-    optimizerBytesPerParameter: options.optimizerBytesPerParameter,
+    activationCheckpointing,
+    flashAttention: o.flashAttention,
+    contextParallel: o.contextParallel,
+    lossChunks: o.lossChunks,
+    microBatchSequences: o.microBatchSequences,
+    optimizerBytesPerParameter: o.optimizerBytesPerParameter,
   };
-  const memory = trainingMemoryPerAccelerator({ ...memoryInput, sequenceSharding: options.sequenceSharding });
+  const memory = trainingMemoryPerAccelerator(memoryInput);
   const fits = memory.total <= cluster.memoryBytes;
-  const smallestFit = minSequenceSharding(memoryInput, cluster.memoryBytes);
-  const serving = servingSequencesPerAccelerator(model, sequenceLength, cluster.memoryBytes);
+  const largest = largestMemoryTerm(memory);
+  const fitChange = fits ? null : cheapestFit(memoryInput, cluster.memoryBytes);
+  const kvBytes = o.kvCacheBytesPerElement;
+  const serving = servingSequencesPerAccelerator(model, sequenceLength, cluster.memoryBytes, kvBytes);
 
   const warnings: string[] = [];
-  if (!fits) {
-    const remedy =
-      smallestFit === null
-        ? `no power-of-two sequence sharding up to ${accelerators} accelerators fits`
-        : `sequence sharding of ${smallestFit} fits`;
-    warnings.push(
-      `training needs ${gib(memory.total)} per accelerator at sequence sharding ${options.sequenceSharding}, ` +
-        `has ${gib(cluster.memoryBytes)}; ${remedy}`,
-    );
-  }
+  if (!fits) warnings.push(fitWarning(memory, largest, cluster.memoryBytes, memoryInput, fitChange));
+  if (o.vocabSize === null) warnings.push("the vocabulary size is not given, so the logits are not counted");
   if (weightBytes(model) >= cluster.memoryBytes) {
     warnings.push(`the weights (${gib(weightBytes(model))}) do not fit on one accelerator for serving`);
   } else if (serving === 0) {
@@ -96,13 +121,15 @@ function estimateStage(
     acceleratorHours: hours,
     wallClockHours: wallClockHours(hours, accelerators),
     cost: acceleratorCost(hours, cluster.pricePerHour),
-    kvCacheBytesPerToken: kvCacheBytesPerToken(model),
-    kvCacheBytesPerSequence: kvCacheBytesPerSequence(model, sequenceLength),
+    utilizationBasis: o.measuredTokensPerSecond === null ? "assumed" : "measured",
+    kvCacheBytesPerToken: kvCacheBytesPerToken(model, kvBytes),
+    kvCacheBytesPerSequence: kvCacheBytesPerSequence(model, sequenceLength, kvBytes),
     servingSequencesPerAccelerator: serving,
     trainingMemoryPerAccelerator: memory.total,
     trainingMemory: memory,
     fits,
-    minSequenceSharding: smallestFit,
+    largestMemoryTerm: largest,
+    fitChange,
     warnings,
   };
 }

@@ -1,5 +1,5 @@
 import { BUDGET_DEFAULTS } from "./defaults";
-import type { FlopConvention, ModelShape } from "./types";
+import type { ActivationCheckpointing, FlopConvention, ModelShape } from "./types";
 
 type AttentionShape = Pick<ModelShape, "layers" | "attentionHeads" | "headDim">;
 
@@ -27,26 +27,49 @@ export function attentionFlopsPerToken(
 }
 
 /**
- * Recomputation re-runs `recomputeFraction` of the forward pass during backward; the forward pass is
- * one third of the training figure (the same 2N-of-6N split as above), so the factor is 1 + r/3.
+ * Recompute FLOPs per token added by activation checkpointing; the forward pass is one third of a training figure
+ * (the 2N-of-6N split above, applied to the attention term alike):
+ * - none: nothing is re-run;
+ * - selective: the attention core (scores, softmax, weighted sum) is re-run in backward (Korthikanti et al. 2022,
+ *   Sec. 5), i.e. one forward pass of the attention term = attention ÷ 3;
+ * - full: the whole forward pass is re-run = (6N + attention) ÷ 3, so training becomes 4/3 of the plain figure.
  */
-export function recomputeMultiplier(recomputeFraction: number): number {
-  return 1 + recomputeFraction / 3;
+export function checkpointingFlopsPerToken(
+  model: Pick<ModelShape, "parameters"> & AttentionShape,
+  sequenceLength: number,
+  convention: FlopConvention,
+  mode: ActivationCheckpointing,
+): number {
+  const attention = attentionFlopsPerToken(model, sequenceLength, convention);
+  if (mode === "none") return 0;
+  if (mode === "selective") return attention / 3;
+  return (parameterFlopsPerToken(model.parameters) + attention) / 3;
 }
 
 export interface FlopOptions {
   convention?: FlopConvention;
-  recomputeFraction?: number;
+  activationCheckpointing?: ActivationCheckpointing;
 }
 
-/** Training FLOPs per token: (6N + attention term) × recomputation factor. */
+/** Training FLOPs per token: 6N + attention term + the recompute of the checkpointing mode. */
 export function flopsPerToken(
   model: Pick<ModelShape, "parameters"> & AttentionShape,
   sequenceLength: number,
-  { convention = BUDGET_DEFAULTS.convention, recomputeFraction = BUDGET_DEFAULTS.recomputeFraction }: FlopOptions = {},
+  {
+    convention = BUDGET_DEFAULTS.convention,
+    activationCheckpointing = BUDGET_DEFAULTS.activationCheckpointing,
+  }: FlopOptions = {},
 ): number {
   const base = parameterFlopsPerToken(model.parameters) + attentionFlopsPerToken(model, sequenceLength, convention);
-  return base * recomputeMultiplier(recomputeFraction);
+  return base + checkpointingFlopsPerToken(model, sequenceLength, convention, activationCheckpointing);
+}
+
+/**
+ * Utilisation implied by a measured throughput: tokens/s per accelerator × FLOPs per token ÷ peak FLOP/s, with the
+ * FLOPs per token of the measured length under the same settings, so hours at that length are tokens ÷ throughput.
+ */
+export function measuredUtilization(tokensPerSecond: number, perToken: number, peakFlops: number): number {
+  return (tokensPerSecond * perToken) / peakFlops;
 }
 
 /** Accelerator-hours = FLOPs / (peak FLOP/s × utilisation × 3600 s). */

@@ -1,6 +1,6 @@
 import { BILLION, GROWTH_REACH } from "./defaults";
 import { acceleratorCost, acceleratorHours, attentionFlopsPerToken, flopsPerToken } from "./flops";
-import type { ClusterSpec, FlopConvention, GrowthPoint, ModelShape } from "./types";
+import type { ActivationCheckpointing, ClusterSpec, FlopConvention, GrowthPoint, ModelShape } from "./types";
 
 /**
  * `points` sequence lengths spaced evenly in log from `from` to `to`, rounded to whole tokens,
@@ -18,7 +18,7 @@ export function logSpacedLengths(from: number, to: number, points: number): numb
 export interface GrowthInput {
   model: ModelShape;
   convention: FlopConvention;
-  recomputeFraction: number;
+  activationCheckpointing: ActivationCheckpointing;
   cluster: ClusterSpec;
   utilization: number;
   trainedContext: number;
@@ -28,12 +28,12 @@ export interface GrowthInput {
 
 /** FLOPs per token and cost per billion tokens from the trained length to GROWTH_REACH × the target. */
 export function growthCurve(input: GrowthInput): GrowthPoint[] {
-  const { model, cluster, utilization, convention, recomputeFraction } = input;
+  const { model, cluster, utilization, convention, activationCheckpointing } = input;
   const lengths = logSpacedLengths(input.trainedContext, GROWTH_REACH * input.targetContext, input.points);
   return lengths.map((sequenceLength) => {
-    const perToken = flopsPerToken(model, sequenceLength, { convention, recomputeFraction });
-    // Recomputation scales both terms alike, so the attention share is taken without it.
-    const withoutRecompute = flopsPerToken(model, sequenceLength, { convention });
+    const perToken = flopsPerToken(model, sequenceLength, { convention, activationCheckpointing });
+    // The attention share is taken before any recompute, of the plain training figure.
+    const withoutRecompute = flopsPerToken(model, sequenceLength, { convention, activationCheckpointing: "none" });
     const hours = acceleratorHours(BILLION * perToken, cluster.peakFlops, utilization);
     return {
       sequenceLength,

@@ -1,85 +1,73 @@
 import { BUDGET_DEFAULTS } from "./defaults";
-import type { ModelShape, TrainingMemory } from "./types";
+import { bytesOf } from "./kv-cache";
+import type { ActivationCheckpointing, MemoryTerm, ModelShape, TrainingMemory } from "./types";
 
-type KvShape = Pick<ModelShape, "layers" | "kvHeads" | "headDim" | "bytesPerElement">;
-
-const bytesOf = (model: { bytesPerElement?: number }) => model.bytesPerElement ?? BUDGET_DEFAULTS.bytesPerElement;
 export const hiddenSizeOf = (model: Pick<ModelShape, "attentionHeads" | "headDim" | "hiddenSize">) =>
   model.hiddenSize ?? model.attentionHeads * model.headDim;
-
-/** KV cache per token: a key and a value (the 2) per layer per KV head of headDim elements. */
-export function kvCacheBytesPerToken(model: KvShape): number {
-  return 2 * model.layers * model.kvHeads * model.headDim * bytesOf(model);
-}
-
-export function kvCacheBytesPerSequence(model: KvShape, sequenceLength: number): number {
-  return kvCacheBytesPerToken(model) * sequenceLength;
-}
-
-export function weightBytes(model: Pick<ModelShape, "parameters" | "bytesPerElement">): number {
-  return model.parameters * bytesOf(model);
-}
-
-/**
- * Whole sequences of KV cache that fit beside one full copy of the weights on one accelerator;
- * 0 when the weights alone do not fit. Ignores serving activations and fragmentation.
- */
-export function servingSequencesPerAccelerator(
-  model: KvShape & Pick<ModelShape, "parameters">,
-  sequenceLength: number,
-  memoryBytes: number,
-): number {
-  const free = memoryBytes - weightBytes(model);
-  if (free <= 0) return 0;
-  return Math.floor(free / kvCacheBytesPerSequence(model, sequenceLength));
-}
 
 export interface TrainingMemoryInput {
   model: ModelShape;
   sequenceLength: number;
   accelerators: number;
-  sequenceSharding?: number;
+  activationCheckpointing?: ActivationCheckpointing;
+  flashAttention?: boolean;
+  contextParallel?: number;
+  lossChunks?: number;
   microBatchSequences?: number;
   optimizerBytesPerParameter?: number;
 }
 
-/** Data-parallel ranks: whole groups of `sequenceSharding` accelerators (a remainder sits idle). */
-export function dataParallelRanks(accelerators: number, sequenceSharding: number): number {
-  return Math.max(1, Math.floor(accelerators / sequenceSharding));
+/** Data-parallel ranks: whole groups of `contextParallel` accelerators (a remainder sits idle). */
+export function dataParallelRanks(accelerators: number, contextParallel: number): number {
+  return Math.max(1, Math.floor(accelerators / contextParallel));
 }
 
 /**
- * Training memory per accelerator under a simple stated model (common practice, no source):
- * model states = parameters × optimizerBytesPerParameter, sharded over the data-parallel ranks;
- * activations with full recomputation = one checkpoint of each layer's input,
- * layers × (microBatchSequences × sequenceLength) × hiddenSize × bytes, split over the sequence-sharding degree.
- * Not counted: the working set of the layer being recomputed, logits, buffers, fragmentation.
+ * Activation bytes of one transformer layer, all kept, following Korthikanti et al. 2022, "Reducing Activation
+ * Recomputation in Large Transformer Models", Table 2 (no tensor parallelism, t = 1): s·b·h·(34 + 5·a·s/h) at
+ * 16-bit activations, i.e. 34·s·b·h + 5·a·s²·b; the 5·a·s²·b term is the attention scores, softmax and its
+ * dropout mask, which a fused (flash) attention kernel never stores. Scaled by bytesPerElement ÷ 2 for other widths
+ * (our convention).
+ */
+function layerActivationBytes(s: number, b: number, h: number, a: number, flash: boolean, scale: number): number {
+  return scale * (34 * s * b * h + (flash ? 0 : 5 * a * s * s * b));
+}
+
+/**
+ * Training memory per accelerator, in bytes. s = sequenceLength ÷ contextParallel (each rank holds its share of
+ * every sequence), b = micro-batch sequences, h = hidden size, a = heads, l = layers, V = vocabulary.
+ * - modelStates: parameters × optimizer bytes ÷ data-parallel ranks (common practice, no source).
+ * - activationCheckpoints (Korthikanti et al. 2022, Table 2): none → l·(34sbh + 5as²b, the latter dropped with flash
+ *   attention); selective (attention internals recomputed) → 34·s·b·h·l; full → 2·s·b·h·l, the layer inputs.
+ * - recomputeWorkspace: full only, the one layer rebuilt at a time during backward: 34·s·b·h (+ 5·a·s²·b without
+ *   flash attention).
+ * - logits: s·b·V fp32 values (4 bytes) ÷ lossChunks, a stated convention; 0 when V is unknown.
  */
 export function trainingMemoryPerAccelerator(input: TrainingMemoryInput): TrainingMemory {
-  const sharding = input.sequenceSharding ?? BUDGET_DEFAULTS.sequenceSharding;
-  const micro = input.microBatchSequences ?? BUDGET_DEFAULTS.microBatchSequences;
-  const optimizerBytes = input.optimizerBytesPerParameter ?? BUDGET_DEFAULTS.optimizerBytesPerParameter;
+  const d = BUDGET_DEFAULTS;
+  const cp = input.contextParallel ?? d.contextParallel;
+  const b = input.microBatchSequences ?? d.microBatchSequences;
+  const mode = input.activationCheckpointing ?? d.activationCheckpointing;
+  const flash = input.flashAttention ?? d.flashAttention;
+  const chunks = input.lossChunks ?? d.lossChunks;
+  const optimizerBytes = input.optimizerBytesPerParameter ?? d.optimizerBytesPerParameter;
   const { model } = input;
-  const modelStates = (model.parameters * optimizerBytes) / dataParallelRanks(input.accelerators, sharding);
-  const tokensPerMicroBatch = micro * input.sequenceLength;
-  const activations = (model.layers * tokensPerMicroBatch * hiddenSizeOf(model) * bytesOf(model)) / sharding;
-  return { modelStates, activations, total: modelStates + activations };
+  const s = input.sequenceLength / cp;
+  const h = hiddenSizeOf(model);
+  const l = model.layers;
+  const scale = bytesOf(model) / 2;
+  const modelStates = (model.parameters * optimizerBytes) / dataParallelRanks(input.accelerators, cp);
+  const fullLayer = layerActivationBytes(s, b, h, model.attentionHeads, flash, scale);
+  const activationCheckpoints =
+    mode === "none" ? l * fullLayer : mode === "selective" ? scale * 34 * s * b * h * l : scale * 2 * s * b * h * l;
+  const recomputeWorkspace = mode === "full" ? fullLayer : 0;
+  const logits = (s * b * (model.vocabSize ?? 0) * 4) / chunks;
+  const total = modelStates + activationCheckpoints + recomputeWorkspace + logits;
+  return { modelStates, activationCheckpoints, recomputeWorkspace, logits, total };
 }
 
-/** Powers of two from 1 up to and including the largest one ≤ accelerators. */
-export function shardingDegrees(accelerators: number): number[] {
-  const degrees: number[] = [];
-  for (let degree = 1; degree <= accelerators; degree *= 2) degrees.push(degree);
-  return degrees;
-}
-
-/** Smallest power-of-two sequence-sharding degree ≤ accelerators whose training memory fits, else null. */
-export function minSequenceSharding(
-  input: Omit<TrainingMemoryInput, "sequenceSharding">,
-  memoryBytes: number,
-): number | null {
-  for (const degree of shardingDegrees(input.accelerators)) {
-    if (trainingMemoryPerAccelerator({ ...input, sequenceSharding: degree }).total <= memoryBytes) return degree;
-  }
-  return null;
+/** The term that takes the most memory (the first of equals, in the schema's order). */
+export function largestMemoryTerm(memory: TrainingMemory): MemoryTerm {
+  const terms = ["modelStates", "activationCheckpoints", "recomputeWorkspace", "logits"] as const;
+  return terms.reduce((best, t) => (memory[t] > memory[best] ? t : best), terms[0]);
 }

@@ -5,6 +5,7 @@
  */
 import type { z } from "zod";
 import type {
+  ACTIVATION_CHECKPOINTING,
   budgetAssumptionsSchema,
   budgetGrowthPointSchema,
   budgetStageEstimateSchema,
@@ -13,12 +14,17 @@ import type {
   clusterSpecSchema,
   FLOP_CONVENTIONS,
   BudgetModelShape,
+  LayerGroup,
+  MEMORY_TERMS,
   ParsedBudgetEstimateRequest,
   StageRequest,
 } from "../../../shared/schemas/budget";
 
 export type FlopConvention = (typeof FLOP_CONVENTIONS)[number];
+export type ActivationCheckpointing = (typeof ACTIVATION_CHECKPOINTING)[number];
+export type MemoryTerm = (typeof MEMORY_TERMS)[number];
 export type ModelShape = BudgetModelShape;
+export type { LayerGroup };
 export type ClusterSpec = z.output<typeof clusterSpecSchema>;
 export type StageInput = StageRequest;
 
@@ -29,6 +35,7 @@ export type ResolvedBudgetInput = Omit<ParsedBudgetEstimateRequest, "model" | "c
 
 export type StageEstimate = z.output<typeof budgetStageEstimateSchema>;
 export type TrainingMemory = StageEstimate["trainingMemory"];
+export type FitChange = NonNullable<StageEstimate["fitChange"]>;
 export type BudgetTotals = z.output<typeof budgetTotalsSchema>;
 export type GrowthPoint = z.output<typeof budgetGrowthPointSchema>;
 export type BudgetAssumptions = z.output<typeof budgetAssumptionsSchema>;

@@ -1,3 +1,3 @@
-// Public face of the budgets feature (estimates and recipes): other features import only from here.
-export { resolveAndEstimate } from "./budgets.service";
+// Public face of the budgets feature (estimates, recipes and the workspace currency): other features import only from here.
+export { profileExtras, resolveAndEstimate } from "./budgets.service";
 export { budgetsFeature } from "./budgets.router";

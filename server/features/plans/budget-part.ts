@@ -1,25 +1,25 @@
 import type { Executor } from "../../db/client";
-import { resolveAndEstimate } from "../budgets";
+import { profileExtras, resolveAndEstimate } from "../budgets";
+import { findModelRow } from "../models";
 import { budgetShapeOf } from "../../../shared/profile-shapes";
 import { planBudgetContexts } from "../../../shared/plan-budget";
 import { Conflict, Invalid } from "../../platform/errors";
 import { findAccelerator } from "../accelerators";
 import { parseOr400 } from "../../platform/validate";
-import { budgetEstimateRequestSchema } from "../../../shared/schemas/budget";
+import {
+  BUDGET_MODEL_VERSION,
+  budgetEstimateRequestSchema,
+  type RevisionBudgetV2,
+} from "../../../shared/schemas/budget";
 import type { RevisionValues } from "../../../shared/schemas";
 import type { ModelSnapshot } from "./revision-content";
 
-export type BudgetPart =
-  | {
-      inputs: NonNullable<RevisionValues["budget"]>;
-      cluster: { name: string | null; peakFlops: number; memoryBytes: number; pricePerHour: number };
-      estimate: Omit<Awaited<ReturnType<typeof resolveAndEstimate>>, "resolved">;
-    }
-  | { inputs: NonNullable<RevisionValues["budget"]>; skipped: string };
+export type BudgetPart = RevisionBudgetV2;
 
 /**
- * The budget figures of a revision: the plan's stages on the chosen cluster, with the catalog's numbers copied in,
- * so a later price change in the catalog never alters a submitted revision.
+ * The budget figures of a revision: the plan's stages on the chosen cluster, with the catalog's numbers and the
+ * workspace currency copied in, so a later price or currency change never alters a submitted revision. The part
+ * carries its budget model version: revisions frozen under an older model are shown as they were signed.
  */
 export async function budgetPart(
   ex: Executor,
@@ -27,10 +27,15 @@ export async function budgetPart(
   v: RevisionValues,
 ): Promise<BudgetPart | undefined> {
   if (!v.budget) return undefined;
-  if (!v.stages.length) return { inputs: v.budget, skipped: "the plan has no stages to cost" };
+  const budgetModel = BUDGET_MODEL_VERSION;
+  if (!v.stages.length) return { budgetModel, inputs: v.budget, skipped: "the plan has no stages to cost" };
+  const { vocabSize, ...settings } = v.budget;
+  // The profile's vocabulary, layer groups and latent cache width; a vocabulary typed on the sheet wins.
+  const row = await findModelRow(ex, model.id);
+  const extras = row ? profileExtras(row) : {};
   const request = {
-    ...v.budget,
-    model: budgetShapeOf(model),
+    ...settings,
+    model: { ...budgetShapeOf(model), ...extras, ...(vocabSize ? { vocabSize } : {}) },
     ...planBudgetContexts(
       model.trainedContext,
       v.targetContext,
@@ -42,17 +47,26 @@ export async function budgetPart(
   try {
     out = await resolveAndEstimate(ex, parseOr400(budgetEstimateRequestSchema, request, "budget"));
   } catch (e) {
-    // Name the plan's fields: budget.cluster.acceleratorId, budget.sequenceSharding, stages.N.…
+    // Name the plan's fields: budget.cluster.acceleratorId, budget.contextParallel, stages.N.…
     if (e instanceof Invalid) {
       const fields = Object.fromEntries(
-        Object.entries(e.fields ?? {}).map(([k, m]) => [k.startsWith("stages.") ? k : `budget.${k}`, m]),
+        Object.entries(e.fields ?? {}).map(([k, m]) => [
+          k.startsWith("stages.") ? k : k === "model.vocabSize" ? "budget.vocabSize" : `budget.${k}`,
+          m,
+        ]),
       );
       throw new Invalid(`the budget sheet is not valid: ${Object.keys(fields).join(", ")}`, fields);
     }
     throw e;
   }
-  const { resolved, ...estimate } = out;
-  return { inputs: v.budget, cluster: { name: resolved.acceleratorName, ...resolved.cluster }, estimate };
+  const { resolved, currency, ...estimate } = out;
+  return {
+    budgetModel,
+    inputs: v.budget,
+    cluster: { name: resolved.acceleratorName, ...resolved.cluster },
+    currency,
+    estimate,
+  };
 }
 
 const catalogId = (inputs: RevisionValues["budget"] | undefined) => {

@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { bandsSchema, configPatchSchema, lengthSchema, methodParamsSchema } from "../analysis";
-import { budgetClusterSchema, budgetSettingsFields } from "../budget";
+import { checkSettings, planBudgetFields } from "../budget";
 import { dbIdParam, dbIdSchema, MAX_DB_ID } from "../common";
 
 export const REVISION_STATES = ["draft", "in_review", "approved", "changes_requested", "superseded"] as const;
@@ -47,7 +47,9 @@ export const acceptanceCriterionSchema = z.strictObject({
 export type AcceptanceCriterion = z.infer<typeof acceptanceCriterionSchema>;
 
 /** A plan's budget sheet inputs; stages come from the plan's own stages, the model from its snapshot. */
-export const planBudgetSchema = z.strictObject({ cluster: budgetClusterSchema, ...budgetSettingsFields });
+export const planBudgetSchema = z
+  .strictObject(planBudgetFields)
+  .superRefine((budget, ctx) => checkSettings(budget, ctx));
 export type PlanBudgetInput = z.input<typeof planBudgetSchema>;
 
 export const MAX_STAGES = 32;

@@ -37,7 +37,9 @@ describe("FLOPs per token for the stated 7e9 shape at n_ctx = 65 536", () => {
   //   total = 42 000 000 000 + 51 539 607 552 = 93 539 607 552
   it("causal convention: 93 539 607 552", () => {
     expect(attentionFlopsPerToken(SHAPE_7B, 65_536, "causal")).toBe(51_539_607_552);
-    expect(flopsPerToken(SHAPE_7B, 65_536, { convention: "causal" })).toBe(93_539_607_552);
+    expect(flopsPerToken(SHAPE_7B, 65_536, { convention: "causal", activationCheckpointing: "none" })).toBe(
+      93_539_607_552,
+    );
   });
 
   // full (Chowdhery et al. 2022, PaLM App. B): 12 · n_layer · n_heads · head_dim · n_ctx
@@ -45,18 +47,23 @@ describe("FLOPs per token for the stated 7e9 shape at n_ctx = 65 536", () => {
   //   total = 42 000 000 000 + 103 079 215 104 = 145 079 215 104
   it("full convention: 145 079 215 104", () => {
     expect(attentionFlopsPerToken(SHAPE_7B, 65_536, "full")).toBe(103_079_215_104);
-    expect(flopsPerToken(SHAPE_7B, 65_536, { convention: "full" })).toBe(145_079_215_104);
+    expect(flopsPerToken(SHAPE_7B, 65_536, { convention: "full", activationCheckpointing: "none" })).toBe(
+      145_079_215_104,
+    );
   });
 
-  it("the causal convention is the default", () => {
-    expect(flopsPerToken(SHAPE_7B, 65_536)).toBe(93_539_607_552);
+  it("the causal convention and full checkpointing are the defaults", () => {
+    expect(flopsPerToken(SHAPE_7B, 65_536)).toBe(124_719_476_736);
   });
 
-  // Full recomputation re-runs the whole forward pass = 1/3 of training (identity): × 4/3.
-  //   93 539 607 552 × 4/3 = 124 719 476 736; half recomputation: × 7/6 = 109 129 542 144
-  it("recomputation adds recomputeFraction × forward FLOPs, forward = 1/3 of training", () => {
-    expect(flopsPerToken(SHAPE_7B, 65_536, { recomputeFraction: 1 })).toBeCloseTo(124_719_476_736, 0);
-    expect(flopsPerToken(SHAPE_7B, 65_536, { recomputeFraction: 0.5 })).toBeCloseTo(109_129_542_144, 0);
+  // Full checkpointing re-runs the whole forward pass = 1/3 of training (identity): × 4/3.
+  //   93 539 607 552 × 4/3 = 124 719 476 736
+  // Selective re-runs the attention core (Korthikanti et al. 2022, Sec. 5): + attention ÷ 3
+  //   = 93 539 607 552 + 51 539 607 552 ÷ 3 = 93 539 607 552 + 17 179 869 184 = 110 719 476 736
+  it("checkpointing adds its recompute: full × 4/3, selective + attention ÷ 3, none nothing", () => {
+    expect(flopsPerToken(SHAPE_7B, 65_536, { activationCheckpointing: "full" })).toBe(124_719_476_736);
+    expect(flopsPerToken(SHAPE_7B, 65_536, { activationCheckpointing: "selective" })).toBe(110_719_476_736);
+    expect(flopsPerToken(SHAPE_7B, 65_536, { activationCheckpointing: "none" })).toBe(93_539_607_552);
   });
 
   it("head count and head dimension enter as d_attn = n_heads · head_dim, not hiddenSize", () => {

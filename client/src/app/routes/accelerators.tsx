@@ -1,5 +1,6 @@
 import { Page } from "@/components/page";
 import { ManageAccelerators } from "@/features/accelerators/components/manage-accelerators";
+import { CurrencySetting } from "@/features/budgets/components/currency-setting";
 import { useCurrentUser } from "@/features/auth/hooks/use-session";
 
 /** Who may change the catalog; the server enforces the same rule on every write. */
@@ -8,6 +9,8 @@ const KEEPERS = ["infra", "admin"] as const;
 export function AcceleratorsRoute() {
   const user = useCurrentUser();
   const canEdit = user.roles.some((r) => (KEEPERS as readonly string[]).includes(r));
+  // The currency is a workspace setting: admins only (the server checks the same).
+  const isAdmin = user.roles.includes("admin");
   return (
     <Page
       title="Accelerators"
@@ -21,7 +24,10 @@ export function AcceleratorsRoute() {
         </>
       }
     >
-      <ManageAccelerators canEdit={canEdit} />
+      <div className="flex flex-col gap-5">
+        <CurrencySetting canEdit={isAdmin} />
+        <ManageAccelerators canEdit={canEdit} />
+      </div>
     </Page>
   );
 }

@@ -2,4 +2,5 @@
 export const budgetsKeys = {
   all: ["budgets"] as const,
   recipes: () => [...budgetsKeys.all, "recipes"] as const,
+  currency: () => [...budgetsKeys.all, "currency"] as const,
 };

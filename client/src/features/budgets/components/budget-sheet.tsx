@@ -27,7 +27,7 @@ export type BudgetSheetProps = {
   context: SheetContext | null;
   accelerators: Accelerator[];
   rowLabels?: string[];
-  /** Field messages from elsewhere (a refused save), keyed like the request: "stages.0.steps", "sequenceSharding". */
+  /** Field messages from elsewhere (a refused save), keyed like the request: "stages.0.steps", "contextParallel". */
   extraIssues?: Record<string, string>;
   /** Controls under the cluster settings: the plan's save button. */
   actions?: ReactNode;
@@ -88,6 +88,7 @@ export function BudgetSheet({
           settings={value.settings}
           accelerators={accelerators}
           assumptions={data?.assumptions}
+          currency={data?.currency}
           issues={issues}
           disabled={disabled}
           onCluster={(cluster) => onChange({ ...value, cluster })}
@@ -101,6 +102,7 @@ export function BudgetSheet({
           <StageTable
             stages={value.stages}
             figures={data?.stages}
+            currency={data?.currency}
             issues={issues}
             recipes={recipes.data?.recipes ?? []}
             fixedRows={mode === "plan"}

@@ -5,20 +5,30 @@ import { formatCount, formatHours, formatMoney, formatScientific } from "@/lib/f
 export function BudgetTotals({
   totals,
   accelerators,
+  currency,
+  basis,
 }: {
   totals: BudgetEstimateResponse["totals"];
   accelerators?: number;
+  currency: string;
+  /** Whether hours rest on an assumed utilisation or a measured throughput. */
+  basis: BudgetEstimateResponse["assumptions"]["utilizationBasis"];
 }) {
+  const hoursNote = basis === "measured" ? "from the measured throughput" : "at the assumed utilisation";
   const items = [
     { label: "Tokens", value: formatCount(totals.tokens), unit: "tokens trained" },
     { label: "Compute", value: formatScientific(totals.flops), unit: "training FLOPs" },
-    { label: "Accelerator-hours", value: formatHours(totals.acceleratorHours), unit: "summed over accelerators" },
+    {
+      label: "Accelerator-hours",
+      value: formatHours(totals.acceleratorHours),
+      unit: `summed over accelerators, ${hoursNote}`,
+    },
     {
       label: "Wall-clock",
       value: formatHours(totals.wallClockHours),
       unit: accelerators ? `on ${accelerators} accelerators` : "at full cluster",
     },
-    { label: "Cost", value: formatMoney(totals.cost), unit: "workspace currency" },
+    { label: "Cost", value: formatMoney(totals.cost, currency), unit: `workspace currency, ${hoursNote}` },
   ];
   return (
     <dl className="grid gap-3 sm:grid-cols-5" aria-label="Totals" data-testid="budget-totals">

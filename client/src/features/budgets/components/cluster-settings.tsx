@@ -3,6 +3,7 @@ import type { Accelerator, BudgetEstimateResponse } from "@shared/schemas/budget
 import { formatBytes, formatMoney, sig3, TFLOPS } from "@/lib/format";
 import { EXAMPLE_CLUSTER, type ClusterDraft, type Convention, type SettingsDraft } from "../lib/sheet-draft";
 import { Radio } from "./radio";
+import { MemorySettings } from "./memory-settings";
 import { SheetInput } from "./sheet-input";
 import { ChoiceField } from "@/components/field";
 
@@ -12,6 +13,8 @@ type Props = {
   settings: SettingsDraft;
   accelerators: Accelerator[];
   assumptions: BudgetEstimateResponse["assumptions"] | undefined;
+  /** The workspace currency, once an estimate has said it. */
+  currency?: string;
   issues: Issues;
   disabled?: boolean;
   onCluster: (next: ClusterDraft) => void;
@@ -29,6 +32,7 @@ export function ClusterSettings({
   settings,
   accelerators,
   assumptions,
+  currency,
   issues,
   disabled,
   onCluster,
@@ -95,7 +99,7 @@ export function ClusterSettings({
               value={cluster.pricePerHour}
               onChange={(t) => onCluster({ ...cluster, pricePerHour: t })}
               error={issues["cluster.pricePerHour"]}
-              hint="Workspace currency"
+              hint={currency ? `In ${currency}, the workspace currency` : "In the workspace currency"}
             />
           </div>
         )}
@@ -118,11 +122,11 @@ export function ClusterSettings({
         {cluster.kind === "catalog" && picked && (
           <p className="text-note text-ink-soft" data-testid="picked-accelerator">
             {picked.name}: {sig3(picked.peakFlops / TFLOPS)} TFLOP/s dense peak, {formatBytes(picked.memoryBytes)},{" "}
-            {formatMoney(picked.pricePerHour)} per hour
+            {formatMoney(picked.pricePerHour, currency)} per hour
             {picked.notes ? ` — ${picked.notes}` : ""}
           </p>
         )}
-        <div className="grid gap-3 sm:grid-cols-3">
+        <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
           <SheetInput
             label="Accelerators"
             value={settings.accelerators}
@@ -136,15 +140,21 @@ export function ClusterSettings({
             onChange={set("utilization")}
             error={issues.utilization}
             placeholder="0.4"
-            hint="Blank: 0.4, an assumed figure (common practice, no source)"
+            hint="Blank: 0.4, an assumed figure (common practice, no source); ignored with a measured throughput"
           />
           <SheetInput
-            label="Recomputed fraction of the forward pass"
-            value={settings.recomputeFraction}
-            onChange={set("recomputeFraction")}
-            error={issues.recomputeFraction}
-            placeholder="0"
-            hint="0 to 1; blank: 0"
+            label="Measured tokens/s per accelerator"
+            value={settings.measuredTokensPerSecond}
+            onChange={set("measuredTokensPerSecond")}
+            error={issues.measuredTokensPerSecond}
+            hint="From a real step: utilisation is then derived, not assumed"
+          />
+          <SheetInput
+            label="Measured at sequence length"
+            value={settings.measuredSequenceLength}
+            onChange={set("measuredSequenceLength")}
+            error={issues.measuredSequenceLength}
+            hint="Blank: the first stage's length"
           />
         </div>
       </fieldset>
@@ -169,33 +179,7 @@ export function ClusterSettings({
         )}
       </fieldset>
 
-      <fieldset className="grid gap-3 sm:grid-cols-3" disabled={disabled}>
-        <legend className="mb-2 text-body font-semibold">Memory model</legend>
-        <SheetInput
-          label="Optimizer bytes per parameter"
-          value={settings.optimizerBytesPerParameter}
-          onChange={set("optimizerBytesPerParameter")}
-          error={issues.optimizerBytesPerParameter}
-          placeholder="16"
-          hint="Blank: 16 (bf16 weights and grads, fp32 master and Adam states)"
-        />
-        <SheetInput
-          label="Sequence sharding"
-          value={settings.sequenceSharding}
-          onChange={set("sequenceSharding")}
-          error={issues.sequenceSharding}
-          placeholder="1"
-          hint="Accelerators sharing one sequence; blank: 1"
-        />
-        <SheetInput
-          label="Sequences per micro-batch"
-          value={settings.microBatchSequences}
-          onChange={set("microBatchSequences")}
-          error={issues.microBatchSequences}
-          placeholder="1"
-          hint="Per data-parallel rank; blank: 1"
-        />
-      </fieldset>
+      <MemorySettings settings={settings} issues={issues} disabled={disabled} onSettings={onSettings} />
     </div>
   );
 }

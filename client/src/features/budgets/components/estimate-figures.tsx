@@ -1,13 +1,13 @@
 import type { ReactNode } from "react";
-import type { BudgetEstimateResponse } from "@shared/schemas/budget";
-import { AssumptionLine, AssumptionsList } from "./assumptions";
+import type { BudgetEstimateResult } from "@shared/schemas/budget";
+import { AssumptionsList, ConventionLinks } from "./assumptions";
 import { BudgetTotals } from "./budget-totals";
 import { GrowthChart } from "./growth-chart";
 import { MemoryFit } from "./memory-fit";
 import { StageShareChart } from "./stage-chart";
 
 type Props = {
-  estimate: BudgetEstimateResponse;
+  estimate: BudgetEstimateResult;
   memoryBytes: number;
   accelerators: number;
   /** True while newer inputs are being computed: the figures shown are the previous ones. */
@@ -25,9 +25,9 @@ function Section({ title, children }: { title: string; children: ReactNode }) {
   );
 }
 
-/** Totals, charts, memory and assumptions of one estimate; the assumptions line sits under every figure. */
+/** Totals, charts, memory and the conventions of one estimate: each figure links to the conventions it rests on. */
 export function EstimateFigures({ estimate, memoryBytes, accelerators, stale, actions }: Props) {
-  const line = <AssumptionLine assumptions={estimate.assumptions} accelerators={accelerators} />;
+  const a = estimate.assumptions;
   return (
     <div
       className={`flex flex-col gap-5 transition-opacity ${stale ? "opacity-60" : ""}`}
@@ -35,32 +35,37 @@ export function EstimateFigures({ estimate, memoryBytes, accelerators, stale, ac
       data-testid="estimate-figures"
     >
       <Section title="Totals">
-        <BudgetTotals totals={estimate.totals} accelerators={accelerators} />
-        {line}
+        <BudgetTotals
+          totals={estimate.totals}
+          accelerators={accelerators}
+          currency={estimate.currency}
+          basis={a.utilizationBasis}
+        />
+        <ConventionLinks assumptions={a} ids={["tokens", "flops", "checkpointing-flops", "utilisation", "cost"]} />
         {actions}
       </Section>
       <Section title="Where the tokens and the hours go">
         <StageShareChart stages={estimate.stages} />
-        {line}
+        <ConventionLinks assumptions={a} ids={["tokens", "utilisation"]} />
       </Section>
       <Section title="Growth with sequence length">
         <GrowthChart
           growth={estimate.growth}
-          trainedContext={estimate.assumptions.trainedContext}
-          targetContext={estimate.assumptions.targetContext}
+          trainedContext={a.trainedContext}
+          targetContext={a.targetContext}
+          currency={estimate.currency}
         />
-        {line}
+        <ConventionLinks assumptions={a} ids={["flops", "checkpointing-flops", "cost"]} />
       </Section>
       <Section title="Memory fit and serving">
-        <MemoryFit
-          stages={estimate.stages}
-          memoryBytes={memoryBytes}
-          sequenceSharding={estimate.assumptions.sequenceSharding}
+        <MemoryFit estimate={estimate} memoryBytes={memoryBytes} />
+        <ConventionLinks
+          assumptions={a}
+          ids={["model-states", "activations", "logits", "context-parallel", "fit", "kv-cache", "serving"]}
         />
-        {line}
       </Section>
-      <Section title="Assumptions">
-        <AssumptionsList assumptions={estimate.assumptions} />
+      <Section title="Settings and conventions">
+        <AssumptionsList assumptions={a} />
       </Section>
     </div>
   );

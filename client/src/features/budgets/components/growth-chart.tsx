@@ -102,10 +102,13 @@ export function GrowthChart({
   growth,
   trainedContext,
   targetContext,
+  currency,
 }: {
   growth: Growth;
   trainedContext: number;
   targetContext: number;
+  /** The workspace currency of the cost curve. */
+  currency: string;
 }) {
   const markers = [
     { x: trainedContext, label: "trained" },
@@ -123,7 +126,7 @@ export function GrowthChart({
       <LogLinePanel
         title="Cost per billion tokens"
         points={growth.map((g) => ({ x: g.sequenceLength, y: g.costPerBillionTokens }))}
-        yFormat={formatMoney}
+        yFormat={(v) => formatMoney(v, currency)}
         markers={markers}
         color="var(--color-seaglass)"
       />

@@ -12,6 +12,8 @@ type Props = {
   stages: StageDraft[];
   /** Figures for the rows, by index; may lag the inputs by one request. */
   figures: BudgetEstimateResponse["stages"] | undefined;
+  /** The workspace currency of the cost column, once an estimate has said it. */
+  currency?: string;
   issues: Record<string, string>;
   recipes: BudgetRecipeResponse[];
   /** Plan mode: the plan owns its rows (no adding or removing; stages are given by steps). */
@@ -21,7 +23,17 @@ type Props = {
   onChange: (stages: StageDraft[]) => void;
 };
 
-export function StageTable({ stages, figures, issues, recipes, fixedRows, rowLabels, disabled, onChange }: Props) {
+export function StageTable({
+  stages,
+  figures,
+  currency,
+  issues,
+  recipes,
+  fixedRows,
+  rowLabels,
+  disabled,
+  onChange,
+}: Props) {
   const update = (i: number, patch: Partial<StageDraft>) =>
     onChange(stages.map((s, k) => (k === i ? { ...s, ...patch } : s)));
   const remove = (i: number) => onChange(stages.filter((_, k) => k !== i));
@@ -130,7 +142,7 @@ export function StageTable({ stages, figures, issues, recipes, fixedRows, rowLab
               </td>
               <td className="px-2 py-2 tabular-nums">{f ? formatCount(f.tokens) : "—"}</td>
               <td className="px-2 py-2 tabular-nums">{f ? formatHours(f.acceleratorHours) : "—"}</td>
-              <td className="px-2 py-2 tabular-nums">{f ? formatMoney(f.cost) : "—"}</td>
+              <td className="px-2 py-2 tabular-nums">{f ? formatMoney(f.cost, currency) : "—"}</td>
               {!fixedRows && (
                 <td className="px-2 py-2">
                   <Button

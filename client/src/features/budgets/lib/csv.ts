@@ -1,18 +1,25 @@
 import Papa from "papaparse";
-import type { BudgetEstimateResponse } from "@shared/schemas/budget";
+import type { BudgetEstimateResult } from "@shared/schemas/budget";
 
 /**
  * The stage table with its figures, one row per stage and a totals row, in base units (bytes, FLOPs, hours).
  * Every row repeats the conventions used, so a pasted row still says what it assumed.
  */
-export function stagesCsv(estimate: BudgetEstimateResponse, clusterLabel: string): string {
+export function stagesCsv(estimate: BudgetEstimateResult, clusterLabel: string): string {
   const a = estimate.assumptions;
   const conventions = {
     "FLOP convention": `${a.convention}: ${a.conventionFormula} (${a.conventionSource})`,
-    "model FLOPs utilisation": a.utilization,
+    "model FLOPs utilisation": `${a.utilization} (${a.utilizationBasis}: ${a.utilizationSource})`,
+    "activation checkpointing": a.activationCheckpointing,
+    "flash attention": a.flashAttention ? "on" : "off",
+    "context parallelism": a.contextParallel,
+    "loss chunks": a.lossChunks,
+    "vocabulary size": a.vocabSize ?? "not given",
     "optimizer bytes per parameter": a.optimizerBytesPerParameter,
     "bytes per element": a.bytesPerElement,
-    "sequence sharding": a.sequenceSharding,
+    "KV cache bytes per element": a.kvCacheBytesPerElement,
+    currency: estimate.currency,
+    "budget model": estimate.budgetModel,
     cluster: clusterLabel,
   };
   const rows = estimate.stages.map((s) => ({
@@ -29,8 +36,16 @@ export function stagesCsv(estimate: BudgetEstimateResponse, clusterLabel: string
     "wall-clock hours": s.wallClockHours,
     cost: s.cost,
     "training memory per accelerator (bytes)": s.trainingMemoryPerAccelerator,
+    "model states (bytes)": s.trainingMemory.modelStates,
+    "activation checkpoints (bytes)": s.trainingMemory.activationCheckpoints,
+    "recompute workspace (bytes)": s.trainingMemory.recomputeWorkspace,
+    "logits (bytes)": s.trainingMemory.logits,
     fits: s.fits ? "yes" : "no",
-    "smallest sequence sharding that fits": s.minSequenceSharding ?? "none",
+    "cheapest change that fits": s.fitChange
+      ? `${s.fitChange.activationCheckpointing} checkpointing, context parallelism ${s.fitChange.contextParallel}, loss chunks ${s.fitChange.lossChunks}`
+      : s.fits
+        ? ""
+        : "none",
     "KV cache per token (bytes)": s.kvCacheBytesPerToken,
     "KV cache per sequence (bytes)": s.kvCacheBytesPerSequence,
     "serving sequences per accelerator": s.servingSequencesPerAccelerator,

@@ -48,5 +48,5 @@ export function modelRequest(draft: ModelDraft): ModelRequest | null {
     const v = parseNumberText(draft[field]);
     if (v !== undefined) shape[field] = v;
   }
-  return shape as ModelRequest;
+  return shape as unknown as ModelRequest;
 }

@@ -40,9 +40,18 @@ export function draftFromPlanBudget(budget: PlanBudgetInput | undefined): {
       accelerators: text(budget.accelerators),
       utilization: text(budget.utilization),
       convention: budget.convention ?? "",
-      recomputeFraction: text(budget.recomputeFraction),
+      // Budget model 1's names read as their replacements, so saving again writes only the new ones.
+      activationCheckpointing:
+        budget.activationCheckpointing ??
+        (budget.recomputeFraction === undefined ? "" : budget.recomputeFraction >= 1 ? "full" : "none"),
+      flashAttention: budget.flashAttention === undefined ? "" : budget.flashAttention ? "on" : "off",
+      contextParallel: text(budget.contextParallel ?? budget.sequenceSharding),
+      lossChunks: text(budget.lossChunks),
+      kvCacheBytesPerElement: text(budget.kvCacheBytesPerElement),
+      measuredTokensPerSecond: text(budget.measuredTokensPerSecond),
+      measuredSequenceLength: text(budget.measuredSequenceLength),
+      vocabSize: text(budget.vocabSize),
       optimizerBytesPerParameter: text(budget.optimizerBytesPerParameter),
-      sequenceSharding: text(budget.sequenceSharding),
       microBatchSequences: text(budget.microBatchSequences),
     },
   };

@@ -3,6 +3,7 @@ import {
   budgetEstimateRequestSchema,
   type BudgetEstimateRequest,
   type BUDGET_RECIPE_IDS,
+  type ActivationCheckpointing,
   type FLOP_CONVENTIONS,
   type ModelRequest,
 } from "@shared/schemas/budget";
@@ -39,9 +40,17 @@ export type SettingsDraft = {
   accelerators: string;
   utilization: string;
   convention: Convention | "";
-  recomputeFraction: string;
+  activationCheckpointing: ActivationCheckpointing | "";
+  /** "" = the server's default (on). */
+  flashAttention: "" | "on" | "off";
+  contextParallel: string;
+  lossChunks: string;
+  kvCacheBytesPerElement: string;
+  measuredTokensPerSecond: string;
+  measuredSequenceLength: string;
+  /** The model's vocabulary when the profile does not carry one (the logits need it). */
+  vocabSize: string;
   optimizerBytesPerParameter: string;
-  sequenceSharding: string;
   microBatchSequences: string;
 };
 
@@ -69,9 +78,15 @@ export const defaultSettings = (): SettingsDraft => ({
   accelerators: "8",
   utilization: "",
   convention: "",
-  recomputeFraction: "",
+  activationCheckpointing: "",
+  flashAttention: "",
+  contextParallel: "",
+  lossChunks: "",
+  kvCacheBytesPerElement: "",
+  measuredTokensPerSecond: "",
+  measuredSequenceLength: "",
+  vocabSize: "",
   optimizerBytesPerParameter: "",
-  sequenceSharding: "",
   microBatchSequences: "",
 });
 
@@ -96,9 +111,15 @@ export function settingsRequest(draft: Pick<SheetDraft, "cluster" | "settings">)
     accelerators: parseNumberText(s.accelerators) as number,
     utilization: parseNumberText(s.utilization),
     convention: s.convention || undefined,
-    recomputeFraction: parseNumberText(s.recomputeFraction),
+    activationCheckpointing: s.activationCheckpointing || undefined,
+    flashAttention: s.flashAttention === "" ? undefined : s.flashAttention === "on",
+    contextParallel: parseNumberText(s.contextParallel),
+    lossChunks: parseNumberText(s.lossChunks),
+    kvCacheBytesPerElement: parseNumberText(s.kvCacheBytesPerElement),
+    measuredTokensPerSecond: parseNumberText(s.measuredTokensPerSecond),
+    measuredSequenceLength: parseNumberText(s.measuredSequenceLength),
+    vocabSize: parseNumberText(s.vocabSize),
     optimizerBytesPerParameter: parseNumberText(s.optimizerBytesPerParameter),
-    sequenceSharding: parseNumberText(s.sequenceSharding),
     microBatchSequences: parseNumberText(s.microBatchSequences),
   };
 }
@@ -127,9 +148,10 @@ export type BuiltRequest = { request: BudgetEstimateRequest | null; issues: Reco
  * `issues` are keyed by the request path ("stages.1.globalBatch", "cluster.peakFlops") for the inputs to show.
  */
 export function buildRequest(draft: SheetDraft, context: SheetContext): BuiltRequest {
-  const { cluster, ...settings } = settingsRequest(draft);
+  // The estimate request carries the vocabulary on the model; a plan's sheet stores it beside the settings.
+  const { cluster, vocabSize, ...settings } = settingsRequest(draft);
   const candidate = compact({
-    model: context.model,
+    model: vocabSize === undefined ? context.model : ({ ...context.model, vocabSize } as ModelRequest),
     cluster: compact(cluster as Record<string, unknown>) as BudgetEstimateRequest["cluster"],
     ...compact(settings),
     trainedContext: context.trainedContext,
@@ -144,7 +166,7 @@ export function buildRequest(draft: SheetDraft, context: SheetContext): BuiltReq
 export function issuesByPath(error: z.ZodError): Record<string, string> {
   const issues: Record<string, string> = {};
   for (const issue of error.issues) {
-    const key = issue.path.join(".");
+    const key = issue.path.join(".") === "model.vocabSize" ? "vocabSize" : issue.path.join(".");
     issues[key] ??= plainMessage(issue);
   }
   return issues;

@@ -13,16 +13,24 @@ import {
  * The estimator's inputs live in the URL so a figure can be shared by its link:
  *   model=<id> | shape=<parameters>_<layers>_<heads>_<kvHeads>_<headDim>[_<hidden>[_<bytes>]]
  *   acc=<id> | peak=<TFLOP/s>&mem=<GiB>&price=<per hour>
- *   n, util, conv, rf, opt, sp, mb   (accelerators and settings; absent = default)
+ *   n, util, conv, ckpt, fa, cp, lc, kvb, tps, tpl, vocab, opt, mb   (accelerators and settings; absent = default)
+ *   (links made before budget model 2 may carry sp = context parallelism and rf = 0 | 1 = none | full)
  *   st=<length>_<batch>_<steps | t<tokens>>[_<recipe id>]   (one per stage, in order)
  */
 
-const SETTING_KEYS: Record<Exclude<keyof SettingsDraft, "convention">, string> = {
+const SETTING_KEYS: Record<
+  Exclude<keyof SettingsDraft, "convention" | "activationCheckpointing" | "flashAttention">,
+  string
+> = {
   accelerators: "n",
   utilization: "util",
-  recomputeFraction: "rf",
+  contextParallel: "cp",
+  lossChunks: "lc",
+  kvCacheBytesPerElement: "kvb",
+  measuredTokensPerSecond: "tps",
+  measuredSequenceLength: "tpl",
+  vocabSize: "vocab",
   optimizerBytesPerParameter: "opt",
-  sequenceSharding: "sp",
   microBatchSequences: "mb",
 };
 const RECIPES: readonly RecipeId[] = ["position-interpolation", "yarn", "adjusted-base"];
@@ -85,6 +93,11 @@ export function sheetFromSearch(params: URLSearchParams): SheetDraft {
   }
   const conv = params.get("conv");
   if (conv === "causal" || conv === "full") settings.convention = conv;
+  const ckpt = params.get("ckpt") ?? { "0": "none", "1": "full" }[params.get("rf") ?? ""];
+  if (ckpt === "none" || ckpt === "selective" || ckpt === "full") settings.activationCheckpointing = ckpt;
+  const fa = params.get("fa");
+  if (fa === "on" || fa === "off") settings.flashAttention = fa;
+  if (!params.has("cp") && params.has("sp")) settings.contextParallel = params.get("sp") ?? "";
   const stages = params.getAll("st").map(stageFromText);
   return { cluster, settings, stages: stages.length ? stages : DEFAULT_STAGES };
 }
@@ -113,6 +126,8 @@ export function toSearch(model: ModelDraft, sheet: SheetDraft): URLSearchParams 
     if (sheet.settings[field] !== "") p.set(key, sheet.settings[field]);
   }
   if (sheet.settings.convention) p.set("conv", sheet.settings.convention);
+  if (sheet.settings.activationCheckpointing) p.set("ckpt", sheet.settings.activationCheckpointing);
+  if (sheet.settings.flashAttention) p.set("fa", sheet.settings.flashAttention);
   for (const s of sheet.stages) p.append("st", stageToText(s));
   return p;
 }
