@@ -1,6 +1,6 @@
 -- bench:scale volumes (issue 14): a busy lab's year. Fictional rows only; every name and address is made up.
 -- 500 users, 2 000 model profiles, 100 000 plans with 1-3 revisions each, 1 000 000 audit rows, 200 000 outbox rows
--- and 200 000 sink messages. Revision content is a small stand-in (lists never read it); audit hashes are random,
+-- and 200 000 sink messages. Revision content and fingerprint are small stand-ins (lists never read them); audit hashes are random,
 -- so /api/audit/verify reports this trail as broken (bench data is never verified).
 SET synchronous_commit = off;
 
@@ -36,12 +36,13 @@ FROM generate_series(1, 100000) g;
 ALTER TABLE plan_revisions DISABLE TRIGGER plan_revisions_keep_latest;
 
 -- 1-3 revisions per plan; the older ones decided, the latest in any state (about 5 000 in review).
-INSERT INTO plan_revisions (plan_id, number, state, author_id, content, content_hash, engine_version, submitted_at, created_at)
+INSERT INTO plan_revisions (plan_id, number, state, author_id, content, content_hash, engine_version, rotary_fingerprint,
+                            submitted_at, created_at)
 SELECT p.id, r.n,
        CASE WHEN r.n < 1 + p.id % 3 THEN (ARRAY['superseded','changes_requested'])[1 + (p.id + r.n) % 2]
             ELSE (ARRAY['draft','approved','in_review','draft','approved','changes_requested','draft','approved','approved',
                         'draft','approved','draft','approved','draft','approved','draft','approved','draft','approved','draft'])[1 + p.id % 20] END,
-       p.owner_id, '{"bench": true}'::jsonb, md5(p.id::text || '/' || r.n), 'bench',
+       p.owner_id, '{"bench": true}'::jsonb, md5(p.id::text || '/' || r.n), 'bench', 'bench',
        p.created_at + make_interval(mins => r.n), p.created_at
 FROM plans p CROSS JOIN LATERAL generate_series(1, 1 + p.id % 3) AS r(n)
 WHERE p.title LIKE '% lot %';
