@@ -90,6 +90,8 @@ describe("conformance matrix in the three screens", () => {
     const panel = page.locator("section", { has: page.getByRole("heading", { name: "Rigging for each stack" }) });
     const matrix = await expectMatrix(panel);
     const fingerprint = (await matrix.getByTestId("rotary-fingerprint").textContent())!;
+    // the revision's stored fingerprint is the one its final block compiles to
+    expect(await page.getByTestId("revision-fingerprint").textContent()).toBe(fingerprint);
     await panel.getByLabel("Stack to rig").selectOption("transformers-v5");
     expect(await panel.getByTestId("target-artifact-text").textContent()).toContain("rope_parameters");
     await panel.getByRole("button", { name: /^Copy the config\.json merge patch/ }).waitFor();
@@ -114,7 +116,10 @@ describe("conformance matrix in the three screens", () => {
     await page.getByRole("button", { name: "Decide on revision 1" }).click();
     const dialog = page.getByRole("dialog");
     const section = dialog.getByRole("region", { name: "How each stack reads this revision" });
-    await expectMatrix(section);
+    const matrix = await expectMatrix(section);
+    expect(await dialog.getByTestId("fingerprint-to-sign").textContent()).toBe(
+      await matrix.getByTestId("rotary-fingerprint").textContent(),
+    );
     // the matrix comes before the signature controls
     const [matrixTop, signTop] = await Promise.all([
       section.boundingBox().then((b) => b!.y),

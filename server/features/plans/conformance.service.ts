@@ -3,7 +3,7 @@ import { recordAudit } from "../../platform/audit";
 import type { SessionUser } from "../../../shared/schemas";
 import type { ConformanceCheck, ProbeResult } from "../../../shared/schemas/conformance";
 import { mustPlan, mustRevision } from "./plans.service";
-import type { RevisionContent } from "./revision-content";
+import { fingerprintOfRow, type RevisionContent } from "./revision-content";
 import { compareProbe, revisionRotary } from "./conformance-compare";
 import * as repo from "./conformance.repo";
 
@@ -26,7 +26,8 @@ export async function recordCheck(
     const content = rev.content as RevisionContent;
     const rotary = revisionRotary(content.model, content.targetContext, content.method);
     const result = compareProbe(rotary, probe);
-    const fingerprintMatches = null; // set once revisions carry their rotary fingerprint
+    // Whether the probe was pointed at this revision (the fingerprint the plan page's probe command carries).
+    const fingerprintMatches = probe.planFingerprint === null ? null : probe.planFingerprint === fingerprintOfRow(rev);
     const at = new Date();
     const id = await repo.insertCheck(tx, {
       planId,

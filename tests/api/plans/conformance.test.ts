@@ -46,8 +46,18 @@ describe("conformance checks: probe results recorded on a revision", () => {
     expect(audit).toHaveLength(1);
     expect(audit[0].detail).toMatchObject({ revision: 1, check: r.body.id, passed: true, via: "session" });
 
+    // the probe was given no fingerprint to check; pointed at this revision's, the check says it matches
+    expect(r.body.fingerprintMatches).toBeNull();
+    const { body: rev } = await researcher.get(`/api/plans/${plan.id}/revisions/1`).expect(200);
+    const aimed = { ...JSON.parse(run.stdout), planFingerprint: rev.rotaryFingerprint };
+    const again = await post(researcher, `/api/plans/${plan.id}/revisions/1/conformance-checks`, aimed).expect(201);
+    expect(again.body.fingerprintMatches).toBe(true);
+    const elsewhere = { ...aimed, planFingerprint: "f".repeat(64) };
+    const wrong = await post(researcher, `/api/plans/${plan.id}/revisions/1/conformance-checks`, elsewhere);
+    expect(wrong.body.fingerprintMatches).toBe(false);
+
     const list = await researcher.get(`/api/plans/${plan.id}/conformance-checks`).expect(200);
-    expect(list.body.checks).toHaveLength(1);
+    expect(list.body.checks).toHaveLength(3);
     expect(list.body.checks[0]).toMatchObject({ id: r.body.id, revision: 1, passed: true });
   });
 

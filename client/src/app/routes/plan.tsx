@@ -46,8 +46,9 @@ export function PlanRoute() {
   const revision = useQuery({ ...plansQueries.revision(id, n), enabled: n > 0 });
   const verify = useQuery({ ...plansQueries.verify(id, n), enabled: n > 0 });
   const exportRequest = revision.data ? exportRequestOf(revision.data.content) : null;
-  // Shared with the matrix below (same key): the fingerprint the probe command asks to check.
+  // Shared with the matrix below (same key); its fingerprint stands in until the revision's own has been stored.
   const compiled = useQuery(exportsQueries.detail(exportRequest));
+  const revisionFingerprint = revision.data?.rotaryFingerprint ?? compiled.data?.fingerprint ?? null;
 
   if (plan.isError) {
     return (
@@ -133,6 +134,14 @@ export function PlanRoute() {
                 {summary.contentHash}
               </code>
             </p>
+            {revisionFingerprint && (
+              <p className="-mt-3 mb-4 text-note break-all text-ink-soft">
+                Rotary fingerprint{" "}
+                <code className="text-ink" data-testid="revision-fingerprint">
+                  {revisionFingerprint}
+                </code>
+              </p>
+            )}
             {revision.isError && (
               <Notice tone="alert" title="Could not load this revision">
                 {revision.error.message}
@@ -168,7 +177,7 @@ export function PlanRoute() {
                   planId={p.id}
                   revision={n}
                   targetContext={content.targetContext}
-                  fingerprint={compiled.data?.fingerprint ?? null}
+                  fingerprint={revisionFingerprint}
                   canUpload={user.roles.includes("researcher") || user.roles.includes("approver")}
                 />
               </Panel>

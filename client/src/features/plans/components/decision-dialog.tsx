@@ -92,6 +92,14 @@ export function DecisionDialog({ target, onClose, onDecided }: DecisionDialogPro
             SHA-256 of the revision’s canonical content: every input, the engine’s figures and the budget sheet.
             Approvals so far: {target.approvals} of {target.requiredApprovals}.
           </p>
+          {revision.data?.rotaryFingerprint && (
+            <p className="mt-1 text-note break-all text-ink-soft">
+              Rotary fingerprint{" "}
+              <code className="text-ink" data-testid="fingerprint-to-sign">
+                {revision.data.rotaryFingerprint}
+              </code>
+            </p>
+          )}
         </div>
         <section className="flex flex-col gap-2" aria-label="How each stack reads this revision">
           <h3 className="text-body font-semibold">How each stack reads this revision</h3>

@@ -57,6 +57,9 @@ function ChecksTable({ checks }: { checks: ConformanceCheck[] }) {
           </td>
           <td className="text-note">
             {c.library} {c.libraryVersion} · {c.ropeType} at {c.runningLength}
+            {c.fingerprintMatches === false && (
+              <span className="block text-signal-dark">run for another revision&apos;s fingerprint</span>
+            )}
           </td>
           <td className="font-mono text-note whitespace-nowrap">
             {c.maxRelativeError === null ? "—" : c.maxRelativeError === 0 ? "0" : c.maxRelativeError.toExponential(2)}
