@@ -15,6 +15,7 @@ import { budgetsFeature } from "./features/budgets";
 import { acceleratorsFeature } from "./features/accelerators";
 import { signingKeyFeature } from "./features/plans/signing-key.router";
 import { exportsFeature } from "./features/exports";
+import { evidenceFeature } from "./features/evidence";
 
 /** The document describing every operation, itself included. */
 const docsFeature: ApiFeature = {
@@ -44,6 +45,7 @@ export const SESSION_FEATURES: readonly ApiFeature[] = [
   boundsFeature,
   plansFeature,
   conformanceFeature,
+  evidenceFeature,
   tokensFeature,
   auditFeature,
   mailFeature,

@@ -6,7 +6,12 @@ import type { Db } from "./client";
  * the app role lacks UPDATE, DELETE and TRUNCATE here, and a trigger refuses UPDATE/DELETE even by the owner
  * (the owner can still disable that trigger, which is why audit rows are also hash-chained).
  */
-export const APPEND_ONLY_TABLES = ["audit_events", "conformance_checks"] as const;
+export const APPEND_ONLY_TABLES = [
+  "audit_events",
+  "conformance_checks",
+  "revision_evidence",
+  "revision_proofs",
+] as const;
 
 const ident = (name: string) => sql.raw(`"${name.replace(/"/g, '""')}"`);
 

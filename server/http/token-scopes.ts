@@ -21,6 +21,8 @@ const GRANTS: Record<TokenScope, readonly Grant[]> = {
     { methods: ["POST"], path: /^\/plans\/\d+\/revisions\/\d+\/conformance-checks$/ },
     { methods: READ, path: /^\/plans\/\d+\/conformance-checks$/ },
   ],
+  // Evaluation results from a training job: the upload, and the revision's evidence list to read the verdicts back.
+  "evidence:write": [{ methods: ["POST", ...READ], path: /^\/plans\/\d+\/revisions\/\d+\/evidence$/ }],
 };
 
 export const scopesAllow = (scopes: readonly TokenScope[], method: string, path: string) =>

@@ -22,7 +22,8 @@ export interface PlanMail {
   body: string;
 }
 
-export type PlanMailKind = "plan.review_requested" | "plan.changes_requested" | "plan.approved" | "plan.ready";
+export type PlanMailKind =
+  "plan.review_requested" | "plan.changes_requested" | "plan.approved" | "plan.ready" | "plan.proven" | "plan.unproven";
 
 const SUBJECT_TITLE_MAX = 100;
 
@@ -93,5 +94,21 @@ export function planReadyMail(m: PlanMailInput): PlanMail {
     "",
     "The plan's figures are estimates. The longer context is confirmed only by long-context",
     "evaluations of the tuned model, not by this approval.",
+  ]);
+}
+
+/** To the plan's people, when an approver finds every acceptance criterion met by the uploaded evidence. */
+export function provenMail(m: PlanMailInput): PlanMail {
+  return compose("plan.proven", "Proven", m, [
+    `${m.actorName} marked revision ${m.revision} of the plan "${m.planTitle}" proven: the evaluation evidence meets every acceptance criterion.`,
+    "",
+    "The decision is signed over the content hash below and the evidence it looked at.",
+  ]);
+}
+
+/** To the plan's people, when an approver finds the evidence short of the criteria. */
+export function unprovenMail(m: PlanMailInput): PlanMail {
+  return compose("plan.unproven", "Not proven", m, [
+    `${m.actorName} marked revision ${m.revision} of the plan "${m.planTitle}" not proven.`,
   ]);
 }

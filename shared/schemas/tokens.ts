@@ -6,7 +6,7 @@ import { z } from "zod";
  * or mail, even when the owner is an admin). Later features add members here (e.g. `evidence:write`) together with
  * the routes each one grants in server/http/token-scopes.ts.
  */
-export const TOKEN_SCOPES = ["export:read", "conformance:write"] as const;
+export const TOKEN_SCOPES = ["export:read", "conformance:write", "evidence:write"] as const;
 export const tokenScopeSchema = z.enum(TOKEN_SCOPES);
 export type TokenScope = z.infer<typeof tokenScopeSchema>;
 export const DEFAULT_TOKEN_SCOPES: TokenScope[] = ["export:read"];
@@ -15,6 +15,7 @@ export const DEFAULT_TOKEN_SCOPES: TokenScope[] = ["export:read"];
 export const TOKEN_SCOPE_LABELS: Record<TokenScope, string> = {
   "export:read": "Read plans and fetch approved exports",
   "conformance:write": "Post probe results as conformance checks on plan revisions",
+  "evidence:write": "Upload evaluation results to approved plan revisions",
 };
 
 export const createTokenRequestSchema = z.strictObject({

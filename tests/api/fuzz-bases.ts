@@ -120,6 +120,9 @@ export function fuzzBases(ids: FuzzIds): Record<string, object[]> {
       { decision: "request_changes", comment: "fuzz", ...(hasHash ? { contentHash: ids.reviewHash } : {}) },
     ],
     "post /api/plans/{id}/revisions/{n}/conformance-checks": [probeDocument()],
+    "post /api/plans/{id}/revisions/{n}/proof": [
+      { verdict: "unproven", reason: "fuzz", contentHash: ids.reviewHash, evidenceIds: [] },
+    ],
     "post /api/tokens": [{ name: "fuzz @@U@@" }],
     "post /api/budgets/estimate": [
       { model: budgetModel, cluster, ...settings, trainedContext: 4096, targetContext: 32768, growthPoints: 9, stages },
@@ -143,5 +146,5 @@ export function fuzzParams(path: string, ids: FuzzIds): Record<string, string> {
           : path.endsWith("/decisions")
             ? ids.reviewPlan
             : ids.draftPlan;
-  return { id: String(id), n: "1", a: "1", b: "1" };
+  return { id: String(id), n: "1", a: "1", b: "1", evidenceId: "1" };
 }

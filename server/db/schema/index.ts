@@ -4,3 +4,4 @@ export * from "./plans";
 export * from "./accelerators";
 export * from "./bounds";
 export * from "./conformance";
+export * from "./evidence";

@@ -1,6 +1,7 @@
 import { sql } from "drizzle-orm";
 import { check, index, integer, jsonb, pgTable, serial, text, timestamp, uniqueIndex } from "drizzle-orm/pg-core";
 import { DECISIONS, REVISION_STATES, type RevisionState } from "../../../shared/schemas/plans";
+import { PROOF_STATES, type ProofState } from "../../../shared/schemas/evidence-api";
 import { users } from "./users";
 import { modelProfiles } from "./models";
 
@@ -84,6 +85,8 @@ export const planRevisions = pgTable(
     engineVersion: text("engine_version").notNull(),
     /** SHA-256 of the final block's rotary layout (docs/fingerprint.md); kept beside the content, outside its hash. */
     rotaryFingerprint: text("rotary_fingerprint"),
+    /** After approval: proven or unproven by the latest proof decision (revision_proofs); null until one is made. */
+    proof: text("proof").$type<ProofState>(),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
     submittedAt: timestamp("submitted_at", { withTimezone: true }),
@@ -98,6 +101,9 @@ export const planRevisions = pgTable(
       .where(sql`${t.state} = 'in_review'`),
     // The column stays text (no type change under live triggers); the CHECK keeps it to the shared list.
     check("plan_revisions_state_known", sql`${t.state} IN (${inList(REVISION_STATES)})`),
+    // Proof follows approval: only an approved (or later superseded) revision carries one.
+    check("plan_revisions_proof_known", sql`${t.proof} IS NULL OR ${t.proof} IN (${inList(PROOF_STATES)})`),
+    check("plan_revisions_proof_after_approval", sql`${t.proof} IS NULL OR ${t.state} IN ('approved', 'superseded')`),
   ],
 );
 

@@ -5,18 +5,22 @@ import {
   approvedMail,
   changesRequestedMail,
   planReadyMail,
+  provenMail,
+  unprovenMail,
   reviewRequestedMail,
   type PlanMailInput,
 } from "../../mailer/messages";
 import type { PlanRow, RevisionRow } from "./plans.repo";
 
-export type NoticeKind = "review_requested" | "changes_requested" | "approved" | "ready";
+export type NoticeKind = "review_requested" | "changes_requested" | "approved" | "ready" | "proven" | "unproven";
 
 const BUILDERS = {
   review_requested: reviewRequestedMail,
   changes_requested: changesRequestedMail,
   approved: approvedMail,
   ready: planReadyMail,
+  proven: provenMail,
+  unproven: unprovenMail,
 } satisfies Record<NoticeKind, (m: PlanMailInput) => unknown>;
 
 /** Queues the workflow's mail in the same transaction as the state change, so it is sent only if the change commits. */

@@ -23,6 +23,8 @@ export interface DecisionPayload {
   decision: string;
   round: number;
   time: string;
+  /** proof decisions only: the evidence the approver read (absent from approval payloads, whose bytes stay as they were) */
+  evidenceIds?: number[];
 }
 
 /** Key id: SHA-256 (hex) of the public key's DER SubjectPublicKeyInfo, i.e. `openssl pkey -pubin -outform DER | sha256sum`. */
@@ -89,6 +91,7 @@ export function payloadBytes(p: DecisionPayload): Buffer {
     decision: p.decision,
     round: p.round,
     time: p.time,
+    ...(p.evidenceIds ? { evidenceIds: p.evidenceIds } : {}),
   });
   if (canonical === undefined) throw new Error("decision payload cannot be canonicalised");
   return Buffer.from(canonical, "utf8");

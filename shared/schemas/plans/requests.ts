@@ -2,6 +2,7 @@ import { z } from "zod";
 import { bandsSchema, configPatchSchema, lengthSchema, methodParamsSchema } from "../analysis";
 import { checkSettings, planBudgetFields } from "../budget";
 import { dbIdParam, dbIdSchema, MAX_DB_ID } from "../common";
+import { evidenceKindSchema } from "../evidence";
 
 export const REVISION_STATES = ["draft", "in_review", "approved", "changes_requested", "superseded"] as const;
 export const revisionStateSchema = z.enum(REVISION_STATES);
@@ -43,6 +44,17 @@ export const acceptanceCriterionSchema = z.strictObject({
   metric: z.string().trim().min(1).max(120),
   comparison: z.enum(COMPARISONS),
   threshold: z.number().finite(),
+  /**
+   * What the criterion measures (issue 12; shared/schemas/evidence.ts). Optional only so criteria written before kinds
+   * existed still read; such a criterion has no evidence to compare and lists as no_data.
+   */
+  kind: evidenceKindSchema.optional(),
+  /** needle: minimum (default) or mean of the length × depth cells */
+  aggregate: z.enum(["min", "mean"]).optional(),
+  /** perplexity: the perplexity itself (default) or its ratio to the trained-length perplexity */
+  measure: z.enum(["perplexity", "ratio"]).optional(),
+  /** short_regression: the benchmarks that must not lose more than the threshold (default: all in the evidence) */
+  benchmarks: z.array(z.string().trim().min(1).max(200)).max(50).optional(),
 });
 export type AcceptanceCriterion = z.infer<typeof acceptanceCriterionSchema>;
 

@@ -1,0 +1,1 @@
+export { evidenceFeature } from "./evidence.router";
