@@ -158,3 +158,16 @@ describe("models whose positions are not rotary", () => {
     });
   }
 });
+
+describe("a file claiming an absurd layer count", () => {
+  it("previews without listing two billion layers (no groups; saving refuses the count)", () => {
+    const text = JSON.stringify({
+      hidden_size: 1024,
+      num_attention_heads: 8,
+      num_hidden_layers: 2 ** 31 - 1,
+      max_position_embeddings: 4096,
+    });
+    const { profile } = parseModelConfig(text);
+    expect(profile.layerGroups).toBeUndefined();
+  });
+});

@@ -17,6 +17,8 @@ import { toCurrentScaling } from "./scaling-block";
  * Layers without layer types share one full_attention group (and one rotary embedding, scaling included).
  */
 
+const MAX_LAYERS = 10_000;
+
 type Top = {
   layers: number;
   headDim: number;
@@ -54,7 +56,10 @@ export function nestedRopeParameters(c: Json): Record<string, Json> | undefined 
 }
 
 /** Builds the groups; the scaled group (full attention, see shared/layer-groups.ts) carries `top`'s values. */
-export function readLayerGroups(c: Json, top: Top, warn: Warn): LayerGroup[] {
+export function readLayerGroups(c: Json, top: Top, warn: Warn): LayerGroup[] | undefined {
+  // One entry per layer is listed, so a file claiming more layers than a profile may hold (10 000) gets no groups:
+  // the preview still renders and saving refuses num_hidden_layers.
+  if (top.layers > MAX_LAYERS) return undefined;
   const kinds = layerTypesOf(c, top.layers, warn) ?? Array.from({ length: top.layers }, () => FULL_ATTENTION);
   const nr = c.no_rope_layers;
   if (Array.isArray(nr) && nr.length === top.layers)
