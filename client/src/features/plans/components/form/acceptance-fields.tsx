@@ -1,5 +1,6 @@
-import { useFieldArray, useFormContext } from "react-hook-form";
+import { useFieldArray, useFormContext, useWatch } from "react-hook-form";
 import { COMPARISONS } from "@shared/schemas/plans";
+import { EVIDENCE_KINDS, EVIDENCE_KIND_INFO } from "@shared/schemas/evidence";
 import { Button } from "@/components/button";
 import { SelectField } from "@/components/field";
 import type { RevisionForm } from "@/features/plans/lib/form-values";
@@ -17,6 +18,36 @@ function ComparisonField({ index }: { index: number }) {
         </option>
       ))}
     </SelectField>
+  );
+}
+
+/** The fixed kind decides which uploaded evidence is compared; its meaning shows beside the picker. */
+function KindField({ index }: { index: number }) {
+  const { register, control } = useFormContext<RevisionForm>();
+  const name = `revision.acceptance.${index}.kind` as const;
+  const error = useFieldError(name);
+  const kind = useWatch({ control, name });
+  const info = kind ? EVIDENCE_KIND_INFO[kind] : null;
+  return (
+    <div className="sm:col-span-2 lg:col-span-6">
+      <SelectField
+        label="Kind"
+        error={error}
+        {...register(name, { setValueAs: (v: string) => (v === "" ? undefined : v) })}
+      >
+        <option value="">none (free text, no evidence decides it)</option>
+        {EVIDENCE_KINDS.map((k) => (
+          <option key={k} value={k}>
+            {EVIDENCE_KIND_INFO[k].label}
+          </option>
+        ))}
+      </SelectField>
+      {info && (
+        <p className="mt-1 text-body text-ink-soft" data-testid={`kind-explains-${index}`}>
+          {info.explains} Compared: {info.observed}.
+        </p>
+      )}
+    </div>
   );
 }
 
@@ -46,6 +77,7 @@ export function AcceptanceFields() {
               Remove
             </Button>
           </div>
+          <KindField index={i} />
         </fieldset>
       ))}
       <div>
@@ -58,6 +90,7 @@ export function AcceptanceFields() {
               metric: "accuracy",
               comparison: ">=",
               threshold: 0.9,
+              kind: "passkey",
             })
           }
         >
