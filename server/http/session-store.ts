@@ -14,7 +14,14 @@ const FORGET_AFTER_MS = 10 * TOUCH_EVERY_MS;
  * user costs one small write a minute instead of one per request, and a slow pool never holds a reply. The stored
  * expiry can lag the cookie by at most TOUCH_EVERY_MS of a 12-hour lifetime.
  */
-export function throttledPgStore(pool: pg.Pool, opts: { prune: boolean; now?: () => number }) {
+export function throttledPgStore(
+  pool: pg.Pool,
+  opts: {
+    prune: boolean;
+    now?: () => number;
+    /** called when a background expiry write has finished (tests) */ written?: (sid: string) => void;
+  },
+) {
   const PgStore = connectPgSimple(session);
   const now = opts.now ?? Date.now;
   const lastTouch = new Map<string, number>();
@@ -31,7 +38,7 @@ export function throttledPgStore(pool: pg.Pool, opts: { prune: boolean; now?: ()
       if (last === undefined || t - last >= TOUCH_EVERY_MS) {
         lastTouch.set(sid, t);
         // The library logs a failed write through errorLog; the session simply stays as it was stored.
-        super.touch(sid, sess, () => undefined);
+        super.touch(sid, sess, () => opts.written?.(sid));
       }
       callback?.();
     }
