@@ -42,6 +42,13 @@ export type PlanListRow = {
 function filters(q: Query): SQL {
   const where: SQL[] = [sql`true`];
   if (q.state) where.push(sql`p.latest_state = ${q.state}`);
+  // Proof belongs to the plan's approved revision (plans.approved_number); "none" is approved but not yet decided.
+  if (q.proof)
+    where.push(
+      sql`EXISTS (SELECT 1 FROM plan_revisions ar WHERE ar.plan_id = p.id AND ar.number = p.approved_number AND ${
+        q.proof === "none" ? sql`ar.proof IS NULL` : sql`ar.proof = ${q.proof}`
+      })`,
+    );
   if (q.ownerId) where.push(sql`p.owner_id = ${q.ownerId}`);
   if (q.modelId) where.push(sql`p.model_id = ${q.modelId}`);
   if (q.q) {

@@ -122,6 +122,8 @@ export const planListQuerySchema = z.object({
   sort: z.enum(["updatedAt", "createdAt", "title", "state", "owner", "model"]).default("updatedAt"),
   dir: z.enum(["asc", "desc"]).default("desc"),
   state: revisionStateSchema.optional(),
+  /** the approved revision's proof: proven, unproven, or none (approved, no proof decision yet) */
+  proof: z.enum(["proven", "unproven", "none"]).optional(),
   ownerId: dbIdParam.optional(),
   modelId: dbIdParam.optional(),
   q: z.string().max(200).optional(),

@@ -85,6 +85,10 @@ describe("proof: an approved revision whose criteria pass is proven; one that fa
       `%/plans/${p.planId}?%`,
     ]);
     expect(mail[0].body).toContain("the bar is 0.99");
+    const listed = await p.researcher.get("/api/plans?proof=unproven&pageSize=100").expect(200);
+    expect(JSON.stringify(listed.body)).toContain(`"id":${p.planId},`);
+    const proven = await p.researcher.get("/api/plans?proof=proven&pageSize=100").expect(200);
+    expect(JSON.stringify(proven.body)).not.toContain(`"id":${p.planId},`);
   });
 
   it("the database refuses an unknown proof state, and a proof on a revision that was never approved", async () => {
