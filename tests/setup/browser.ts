@@ -49,7 +49,15 @@ export async function screenshot(page: Page, name: string): Promise<string> {
   fs.mkdirSync(SCREENSHOT_DIR, { recursive: true });
   const file = path.join(SCREENSHOT_DIR, `${name}.png`);
   // "disabled" fast-forwards CSS transitions so a pill caught mid-hover does not look washed out.
-  await page.screenshot({ path: file, fullPage: true, animations: "disabled" });
+  // Very long pages (a mail list holding every test file's messages) are pictured as far as 4000 px: a full capture
+  // of tens of thousands of pixels takes longer than the screenshot timeout on a busy 2-core machine.
+  const height = await page.evaluate(() => document.documentElement.scrollHeight);
+  const width = page.viewportSize()?.width ?? 1280;
+  await page.screenshot({
+    path: file,
+    animations: "disabled",
+    ...(height > 4000 ? { clip: { x: 0, y: 0, width, height: 4000 }, fullPage: true } : { fullPage: true }),
+  });
   return file;
 }
 
