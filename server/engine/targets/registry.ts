@@ -1,4 +1,4 @@
-import type { CompileInput, ExportTarget, TargetArtifact, TargetId } from "./types";
+import type { CompileInput, CompileResult, ExportTarget, TargetArtifact, TargetId } from "./types";
 import { TARGET_IDS } from "./types";
 import { conformance, type Conformance } from "./conformance";
 import { transformersV4EarlyTarget } from "./transformers-v4-early";
@@ -34,12 +34,23 @@ export interface TargetExport {
 
 /**
  * Compiles the plan for each target, reads the artifact back with that target's reader (applied to the model's own
- * config) and compares the reading with the plan. A reader that throws counts as "unsupported" with its message.
+ * config) and compares the reading with the plan. A compiler or reader that throws counts as "unsupported" with its message.
  */
 export function exportForTargets(input: CompileInput, ids: readonly TargetId[] = TARGET_IDS): TargetExport[] {
   return ids.map((id) => {
     const target = TARGETS[id];
-    const compiled = target.compile(input);
+    // A compiler that throws on this model's config (say, one whose GGUF would carry factor tensors no flag sets) marks
+    // its own target unsupported, like a reader that throws; the other targets are still compiled.
+    let compiled: CompileResult;
+    try {
+      compiled = target.compile(input);
+    } catch (e) {
+      compiled = {
+        ok: false,
+        cause: `it cannot compile this plan: ${e instanceof Error ? e.message : String(e)}`,
+        workaround: "",
+      };
+    }
     const artifact = compiled.artifact ?? null;
     if (!artifact)
       return {

@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { METHOD_IDS, type MethodId } from "../../../shared/schemas/analysis";
 import { llamaCppTarget } from "../../../server/engine/targets/llama-cpp";
+import { exportForTargets } from "../../../server/engine/targets/registry";
 import { inverseFrequencies } from "../../../server/engine/frequencies";
 import type { TargetArtifact } from "../../../server/engine/targets/types";
 import {
@@ -132,5 +133,24 @@ describe("llama.cpp consumer rules (ggml-org/llama.cpp, cited in docs/export-tar
     const metadataOnly: TargetArtifact = { ...artifact, content: { args: [], metadata: artifact.content.metadata } };
     const r = llamaCppTarget.read(LLAMA2_LIKE, metadataOnly);
     expect(maxRelError(r, input.plan)).toBeLessThanOrEqual(FLOAT32);
+  });
+});
+
+describe("a compiler that cannot handle the model's config", () => {
+  it("marks only its own target unsupported: a LongRoPE config.json (factor tensors in the GGUF) with a yarn plan", () => {
+    const longropeConfig = {
+      ...LLAMA2_LIKE,
+      rope_scaling: {
+        rope_type: "longrope",
+        short_factor: [1],
+        long_factor: [1],
+        original_max_position_embeddings: 4096,
+      },
+    };
+    const out = exportForTargets(inputFor(exampleOf("yarn"), 16_384, longropeConfig));
+    const llama = out.find((t) => t.id === "llama-cpp")!;
+    expect(llama.conformance.status).toBe("unsupported");
+    expect(llama.conformance.cause).toMatch(/factor tensors/);
+    expect(out.filter((t) => t.id !== "llama-cpp").every((t) => t.artifact !== null)).toBe(true);
   });
 });
