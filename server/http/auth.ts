@@ -1,6 +1,7 @@
 import type { NextFunction, Request, Response } from "express";
 import type { Role, SessionUser } from "../../shared/schemas";
 import { Forbidden, NotSignedIn } from "../platform/errors";
+import { hasRole } from "../platform/roles";
 
 /** The signed-in user, set by the session loader (or a bearer token) on res.locals.user. */
 export function currentUser(res: Response): SessionUser {
@@ -22,7 +23,7 @@ export function requireAuth(_req: Request, res: Response, next: NextFunction) {
 export function requireRole(...roles: Role[]) {
   return (_req: Request, res: Response, next: NextFunction) => {
     const user = currentUser(res);
-    if (!roles.some((r) => user.roles.includes(r))) {
+    if (!hasRole(user, ...roles)) {
       throw new Forbidden(`needs one of the roles: ${roles.join(", ")}`);
     }
     next();

@@ -1,10 +1,5 @@
 import type { RevisionBudgetV1 } from "../../../shared/schemas/budget-v1";
-
-const esc = (v: unknown) =>
-  String(v ?? "").replace(/[&<>"]/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;" })[c]!);
-const sci = (v: number) =>
-  Math.abs(v) >= 1e6 ? v.toExponential(3) : v.toLocaleString("en-US", { maximumFractionDigits: 2 });
-const gib = (b: number) => `${(b / 2 ** 30).toFixed(2)} GiB`;
+import { esc, gib, sci } from "./report-format";
 
 /**
  * The budget section of a revision frozen under budget model 1, printed as it was signed (its own figures and

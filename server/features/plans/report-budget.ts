@@ -2,12 +2,8 @@ import { isBudgetV2, type RevisionBudgetV2 } from "../../../shared/schemas/budge
 import type { RevisionBudgetV1 } from "../../../shared/schemas/budget-v1";
 import { budgetSectionV1 } from "./report-budget-v1";
 import type { RevisionContent } from "./revision-content";
+import { esc, gib, sci } from "./report-format";
 
-const esc = (v: unknown) =>
-  String(v ?? "").replace(/[&<>"]/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;" })[c]!);
-const sci = (v: number) =>
-  Math.abs(v) >= 1e6 ? v.toExponential(3) : v.toLocaleString("en-US", { maximumFractionDigits: 2 });
-const gib = (b: number) => `${(b / 2 ** 30).toFixed(2)} GiB`;
 /** A link to the convention a figure rests on, stated once below the table. */
 const see = (id: string) => `<a href="#budget-convention-${id}">†</a>`;
 
