@@ -3,7 +3,7 @@ import { Invalid, NotFound } from "../../platform/errors";
 import { exportPlan, TARGETS, TARGET_IDS } from "../../engine/targets";
 import { modelDependentIssues, rotaryShapeSchema, type ModelShape } from "../../../shared/schemas/analysis";
 import type { ExportRequest, ExportResponse } from "../../../shared/schemas/exports";
-import { findModelRow, type ModelRow } from "../models";
+import { findModelRow, sourceConfigOf } from "../models";
 import { rotaryShapeOf } from "../../../shared/profile-shapes";
 
 /** The target list: id, label, consumer, the versions its reader follows and the kind of artifact. */
@@ -13,19 +13,6 @@ export const listTargets = () => ({
     return { id, label: t.label, consumer: t.consumer, versions: t.versions, artifactKind: t.artifactKind };
   }),
 });
-
-/** An imported profile's own config.json, so readers see its real keys (layer types, rope_parameters …). */
-function sourceConfigOf(row: ModelRow): Record<string, unknown> | undefined {
-  if (!row.sourceConfig) return undefined;
-  try {
-    const parsed: unknown = JSON.parse(row.sourceConfig);
-    return typeof parsed === "object" && parsed !== null && !Array.isArray(parsed)
-      ? (parsed as Record<string, unknown>)
-      : undefined;
-  } catch {
-    return undefined; // the import accepted it, so this is only a stored file that no longer parses: use the profile
-  }
-}
 
 async function resolveModel(deps: AppDeps, input: ExportRequest["model"]) {
   if (!("modelId" in input)) return { model: input };

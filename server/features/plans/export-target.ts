@@ -2,7 +2,7 @@ import type { AppDeps } from "../../deps";
 import { Invalid } from "../../platform/errors";
 import { exportPlan, type TargetId } from "../../engine/targets";
 import { rotaryShapeOf } from "../../../shared/profile-shapes";
-import { findModelRow } from "../models";
+import { findModelRow, sourceConfigOf } from "../models";
 import type { RevisionContent } from "./revision-content";
 
 /** `?target=<id>&stage=<n>` of the export routes: a consumer to compile for, and a stage (1-based) instead of the final block. */
@@ -11,18 +11,10 @@ export interface ExportChoice {
   stage?: number;
 }
 
-/** An imported profile's own config.json, so the readers see the model's real keys (layer types, rope_parameters …). */
+/** An imported profile's own config.json (see sourceConfigOf), or undefined. */
 async function sourceConfig(deps: AppDeps, modelId: number): Promise<Record<string, unknown> | undefined> {
   const row = await findModelRow(deps.db, modelId);
-  if (!row?.sourceConfig) return undefined;
-  try {
-    const parsed: unknown = JSON.parse(row.sourceConfig);
-    return typeof parsed === "object" && parsed !== null && !Array.isArray(parsed)
-      ? (parsed as Record<string, unknown>)
-      : undefined;
-  } catch {
-    return undefined;
-  }
+  return row ? sourceConfigOf(row) : undefined;
 }
 
 /**
