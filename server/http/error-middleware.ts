@@ -4,6 +4,7 @@ import { AppError, RateLimited } from "../platform/errors";
 import { httpStatusOf } from "./error-status";
 import { issuesToFields } from "../platform/validate";
 import { isDatabaseUnavailable } from "../db/errors";
+import { sizeLabel } from "./file-upload";
 
 type BodyParserError = Error & { type?: string; status?: number };
 type MulterLike = Error & { code?: string; field?: string; name: string };
@@ -29,8 +30,12 @@ export function errorMiddleware(err: unknown, req: Request, res: Response, _next
     return send(415, "unsupported", bp.message);
   const mu = err as MulterLike;
   if (mu?.name === "MulterError") {
-    if (mu.code === "LIMIT_FILE_SIZE")
-      return send(413, "too_large", "the uploaded file is too large", { [mu.field ?? "file"]: "too large" });
+    // An oversize file is bad input like any other: 400 naming the part (issue 12), the same for every upload.
+    if (mu.code === "LIMIT_FILE_SIZE") {
+      const limit =
+        typeof res.locals.uploadLimitBytes === "number" ? ` than ${sizeLabel(res.locals.uploadLimitBytes)}` : "";
+      return send(400, "too_large", `the uploaded file is larger${limit}`, { [mu.field ?? "file"]: `larger${limit}` });
+    }
     return send(400, "invalid_upload", mu.message, { [mu.field ?? "file"]: mu.message });
   }
   if (typeof bp?.status === "number" && bp.status >= 400 && bp.status < 500)

@@ -144,7 +144,8 @@ describe("config.json import", () => {
     expect(none.body.error.fields).toHaveProperty("file");
   });
 
-  it("an oversized file (over 1 MB) → 413, nothing written", async () => {
+  // One answer for every oversize upload: a 400 naming the part (issue 12's bad-input list; the evidence upload shares it).
+  it("an oversized file (over 1 MB) → 400 naming the file part, nothing written", async () => {
     const a = await agentAs(["researcher"]);
     const before = await count();
     const big = Buffer.from(JSON.stringify({ hidden_size: 1, pad: "x".repeat(1024 * 1024 + 10) }));
@@ -152,7 +153,8 @@ describe("config.json import", () => {
       .post("/api/models/import?save=true")
       .set("X-CSRF-Token", a.csrf)
       .attach("file", big, "config.json");
-    expect(r.status).toBe(413);
+    expect(r.status).toBe(400);
+    expect(r.body.error).toMatchObject({ code: "too_large", fields: { file: "larger than 1 MB" } });
     expect(await count()).toBe(before);
   });
 });

@@ -1,8 +1,6 @@
-import multer from "multer";
-import type { RequestHandler } from "express";
 import { z } from "zod";
 import { route, type ApiFeature } from "../../http/route";
-import { Invalid } from "../../platform/errors";
+import { singleFileUpload } from "../../http/file-upload";
 import { dbIdParam } from "../../../shared/schemas";
 import {
   evidenceFormSchema,
@@ -18,24 +16,6 @@ import { decideProof } from "./proof.service";
 const revParams = z.object({ id: dbIdParam, n: dbIdParam });
 const fileParams = revParams.extend({ evidenceId: dbIdParam });
 
-const multipart = multer({
-  storage: multer.memoryStorage(),
-  limits: { fileSize: MAX_EVIDENCE_BYTES, files: 1, fields: 8, fieldSize: 256 * 1024 },
-}).single("file");
-
-/** The upload limit is a bad file like any other: a 400 naming the part, not the generic 413 (issue 12, bad input). */
-const upload: RequestHandler = (req, res, next) =>
-  multipart(req, res, (err?: unknown) => {
-    const code = (err as { code?: string } | undefined)?.code;
-    if (code === "LIMIT_FILE_SIZE")
-      return next(
-        new Invalid(`the file is larger than ${MAX_EVIDENCE_BYTES / 1024 / 1024} MB`, {
-          file: `larger than ${MAX_EVIDENCE_BYTES / 1024 / 1024} MB`,
-        }),
-      );
-    next(err);
-  });
-
 /** Mounted at /api/plans: evaluation evidence on an approved revision, the verdict per criterion, and proof. */
 export const evidenceFeature: ApiFeature = {
   prefix: "/plans",
@@ -48,7 +28,7 @@ export const evidenceFeature: ApiFeature = {
       access: ["researcher"],
       params: revParams,
       form: { contentType: "multipart/form-data", schema: evidenceFormSchema },
-      middleware: () => [upload],
+      middleware: () => singleFileUpload("file", MAX_EVIDENCE_BYTES, { fields: 8, fieldSize: 256 * 1024 }),
       responses: { 201: evidenceUploadResponseSchema },
       handler: async ({ deps, req, res, user, params }) => ({
         status: 201,

@@ -1,4 +1,4 @@
-import multer from "multer";
+import { singleFileUpload } from "../../http/file-upload";
 import { Invalid } from "../../platform/errors";
 import { route, type ApiFeature } from "../../http/route";
 import { idParamSchema, importResponseSchema, modelProfileInputSchema } from "../../../shared/schemas";
@@ -12,9 +12,7 @@ import * as service from "./models.service";
 
 export const MAX_CONFIG_BYTES = 1024 * 1024;
 
-const upload = multer({
-  storage: multer.memoryStorage(),
-  limits: { fileSize: MAX_CONFIG_BYTES, files: 1, fields: 4 },
+const upload = singleFileUpload("file", MAX_CONFIG_BYTES, {
   fileFilter: (_req, file, cb) => {
     const ok = /\.json$/i.test(file.originalname) || /json/.test(file.mimetype);
     if (ok) cb(null, true);
@@ -46,7 +44,7 @@ export const modelsFeature = (usage: service.ModelUsage): ApiFeature => ({
       summary: "Parse (and optionally save) a config.json upload (multipart field 'file')",
       access: editors,
       form: { contentType: "multipart/form-data", schema: importFormSchema },
-      middleware: () => [upload.single("file")],
+      middleware: () => upload,
       responses: {
         200: importResponseSchema.describe("Preview, nothing saved"),
         201: importResponseSchema.describe("Saved as a new profile"),

@@ -13,7 +13,7 @@ const MAX_BYTES = 1024 * 1024;
 
 /** Why a file could not be read, in words: the server names the file problem or each missing key. */
 function uploadProblem(error: unknown): { title: string; lines: string[] } {
-  if (isApiError(error) && error.status === 413)
+  if (isApiError(error) && error.code === "too_large")
     return {
       title: "The file is too large",
       lines: [
