@@ -17,24 +17,37 @@ export function floatText(n: number): string {
 }
 
 /**
- * JSON.stringify(value, null, 2) plus a final newline, except that numbers at paths where `isFloat(path)` holds keep
- * a decimal point. Keys keep their insertion order.
+ * JSON.stringify(value, null, 2) plus a final newline (or, `compact`, JSON.stringify(value) as one line without it),
+ * except that numbers at paths where `isFloat(path)` holds keep a decimal point. Keys keep their insertion order.
  */
-export function writeJsonText(value: unknown, isFloat: (path: JsonPath) => boolean): string {
+export function writeJsonText(
+  value: unknown,
+  isFloat: (path: JsonPath) => boolean,
+  { compact = false }: { compact?: boolean } = {},
+): string {
+  const [nl, colon] = compact ? ["", ":"] : ["\n", ": "];
   const write = (v: unknown, path: (string | number)[], indent: string): string => {
     if (typeof v === "number") return isFloat(path) ? floatText(v) : JSON.stringify(v);
     if (v === null || typeof v !== "object") return JSON.stringify(v);
-    const inner = indent + "  ";
-    if (Array.isArray(v)) {
-      if (v.length === 0) return "[]";
-      return `[\n${v.map((x, i) => inner + write(x, [...path, i], inner)).join(",\n")}\n${indent}]`;
-    }
+    const inner = compact ? "" : indent + "  ";
+    const block = (open: string, items: string[], close: string) =>
+      items.length === 0
+        ? open + close
+        : `${open}${nl}${items.map((x) => inner + x).join("," + nl)}${nl}${indent}${close}`;
+    if (Array.isArray(v))
+      return block(
+        "[",
+        v.map((x, i) => write(x, [...path, i], inner)),
+        "]",
+      );
     const entries = Object.entries(v).filter(([, x]) => x !== undefined);
-    if (entries.length === 0) return "{}";
-    const body = entries.map(([k, x]) => `${inner}${JSON.stringify(k)}: ${write(x, [...path, k], inner)}`);
-    return `{\n${body.join(",\n")}\n${indent}}`;
+    return block(
+      "{",
+      entries.map(([k, x]) => `${JSON.stringify(k)}${colon}${write(x, [...path, k], inner)}`),
+      "}",
+    );
   };
-  return write(value, [], "") + "\n";
+  return write(value, [], "") + (compact ? "" : "\n");
 }
 
 /** The parsed value and the JSON Pointers of every number that was written as an int. */

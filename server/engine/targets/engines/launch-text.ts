@@ -1,40 +1,10 @@
-import { floatText, parseJsonTyped, pointer, type JsonPath } from "../json-text";
+import { parseJsonTyped, pointer, writeJsonText } from "../json-text";
+import { ENGINE_FLOAT_KEYS, floatKeyTest } from "../float-keys";
 import type { TargetArtifact } from "../types";
 
-/**
- * Keys the Python engines and the model library type as floats. Written with a decimal point ("8.0") so that
- * json.loads hands the engine a float, as a config.json written by the library itself would.
- */
-const FLOAT_KEYS = new Set([
-  "factor",
-  "rope_theta",
-  "attention_factor",
-  "attn_factor",
-  "mscale",
-  "mscale_all_dim",
-  "beta_fast",
-  "beta_slow",
-  "low_freq_factor",
-  "high_freq_factor",
-  "long_factor",
-  "short_factor",
-  "partial_rotary_factor",
-]);
-
-/** The last key on a path (array items are typed by the key that holds the array). */
-const keyOf = (path: JsonPath) => [...path].reverse().find((p): p is string => typeof p === "string");
-export const isFloatKey = (path: JsonPath) => FLOAT_KEYS.has(keyOf(path) ?? "");
-
-/** One-line JSON for a command-line argument, floats of FLOAT_KEYS keeping their decimal point. */
-export function compactJson(value: unknown, path: (string | number)[] = []): string {
-  if (typeof value === "number") return isFloatKey(path) ? floatText(value) : JSON.stringify(value);
-  if (value === null || typeof value !== "object") return JSON.stringify(value);
-  if (Array.isArray(value)) return `[${value.map((v, i) => compactJson(v, [...path, i])).join(",")}]`;
-  const body = Object.entries(value)
-    .filter(([, v]) => v !== undefined)
-    .map(([k, v]) => `${JSON.stringify(k)}:${compactJson(v, [...path, k])}`);
-  return `{${body.join(",")}}`;
-}
+/** One-line JSON for a command-line argument, the engines' float-typed keys keeping their decimal point. */
+export const compactJson = (value: unknown): string =>
+  writeJsonText(value, floatKeyTest(ENGINE_FLOAT_KEYS), { compact: true });
 
 /** A JSON argument parsed as Python's json.loads types it, with the float-typed keys that arrived as ints. */
 export function parseJsonArgument(text: string): { value: Record<string, unknown>; intFloats: string[] } {
@@ -42,7 +12,7 @@ export function parseJsonArgument(text: string): { value: Record<string, unknown
   if (typeof value !== "object" || value === null || Array.isArray(value))
     throw new Error("the JSON argument is not an object");
   const intFloats = [...intPaths].filter((p) =>
-    FLOAT_KEYS.has(
+    ENGINE_FLOAT_KEYS.has(
       p
         .split("/")
         .filter((s) => !/^\d+$/.test(s))

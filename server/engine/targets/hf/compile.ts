@@ -1,33 +1,11 @@
 import type { CompileInput, CompileResult, TargetArtifact } from "../types";
 import { runMethod } from "../../methods";
-import { writeJsonText, type JsonPath } from "../json-text";
+import { writeJsonText } from "../json-text";
+import { CONFIG_FLOAT_KEYS, floatKeyTest } from "../float-keys";
 import { isObj, type Obj } from "./config-view";
 
 /** Which rule set a config patch is written for (the matching readers are read-v4.ts and read-v5.ts). */
 export type HfRules = "early" | "v4" | "v5";
-
-/**
- * Keys the library's validators type as float (`isinstance(x, float)` in the 4.x validators; v5 still requires it
- * for attention_factor): written with a decimal point, e.g. `"factor": 8.0`. Lengths stay integers.
- */
-const FLOAT_KEYS = new Set([
-  "factor",
-  "attention_factor",
-  "beta_fast",
-  "beta_slow",
-  "mscale",
-  "mscale_all_dim",
-  "low_freq_factor",
-  "high_freq_factor",
-  "rope_theta",
-  "long_factor",
-  "short_factor",
-  "partial_rotary_factor",
-]);
-export const isFloatKey = (path: JsonPath) => {
-  const key = [...path].reverse().find((p) => typeof p === "string");
-  return key !== undefined && FLOAT_KEYS.has(key);
-};
 
 /** Keys of an old block that the new one does not set become null in the patch (RFC 7396: remove). */
 function clearStale(existing: unknown, block: Obj, keep: string[] = []): Obj {
@@ -200,7 +178,7 @@ function result(patch: Obj, placed: Placed): CompileResult {
   const artifact: TargetArtifact = {
     kind: "config-merge-patch",
     content: patch,
-    text: writeJsonText(patch, isFloatKey),
+    text: writeJsonText(patch, floatKeyTest(CONFIG_FLOAT_KEYS)),
   };
   return placed.unsupported ? { ok: false, ...placed.unsupported, artifact } : { ok: true, artifact };
 }

@@ -7,6 +7,8 @@ import {
   TARGETS,
   TARGET_IDS,
 } from "../../../../server/engine/targets";
+import { CONFIG_FLOAT_KEYS, ENGINE_FLOAT_KEYS } from "../../../../server/engine/targets/float-keys";
+import { compactJson } from "../../../../server/engine/targets/engines/launch-text";
 import { fingerprintBytes, rotaryFingerprint } from "../../../../server/engine/fingerprint";
 import { inverseFrequencies } from "../../../../server/engine/frequencies";
 
@@ -52,6 +54,18 @@ describe("JSON text with Python's int/float distinction", () => {
     // Same layout as JSON.stringify(…, null, 2) when nothing is float-typed.
     const v = { x: [1, { y: "z", e: [] }], o: {} };
     expect(writeJsonText(v, () => false)).toBe(JSON.stringify(v, null, 2) + "\n");
+  });
+  it("writes the one-line form as JSON.stringify does, float-typed keys keeping their point", () => {
+    const v = { x: [1, { y: "z", e: [] }], o: {}, u: undefined };
+    expect(writeJsonText(v, () => false, { compact: true })).toBe(JSON.stringify(v));
+    expect(compactJson({ rope_scaling: { factor: 4, attn_factor: 1, original_max_position_embeddings: 4096 } })).toBe(
+      '{"rope_scaling":{"factor":4.0,"attn_factor":1.0,"original_max_position_embeddings":4096}}',
+    );
+  });
+  it("types the engines' keys as the library's plus SGLang's attn_factor, and nothing else", () => {
+    // sgl-project/sglang rotary_embedding/factory.py (eb047c1) reads attn_factor; transformers has no such key.
+    expect([...ENGINE_FLOAT_KEYS].filter((k) => !CONFIG_FLOAT_KEYS.has(k))).toEqual(["attn_factor"]);
+    expect([...CONFIG_FLOAT_KEYS].every((k) => ENGINE_FLOAT_KEYS.has(k))).toBe(true);
   });
   it("reads back which numbers were written as ints (JSON Pointer paths)", () => {
     const { value, intPaths } = parseJsonTyped('{"f": 8, "g": 8.0, "h": 1e3, "l": [1, 2.0], "a/b": -0, "s": "7"}');
