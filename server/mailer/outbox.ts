@@ -15,6 +15,9 @@ export interface OutgoingMail {
   to: string[];
   subject: string;
   body: string;
+  /** The plan and revision a workflow message is about; the Mail page groups deliveries by plan. */
+  planId?: number;
+  revision?: number;
 }
 
 export interface DeliverOptions {
@@ -39,7 +42,14 @@ const ERROR_TEXT_MAX = 500;
 export async function enqueueMail(ex: Executor, m: OutgoingMail): Promise<void> {
   const to = [...new Set(m.to.map((a) => a.trim()).filter(Boolean))];
   if (to.length === 0) return;
-  await ex.insert(mailOutbox).values({ kind: m.kind, toAddresses: to, subject: m.subject, body: m.body });
+  await ex.insert(mailOutbox).values({
+    kind: m.kind,
+    toAddresses: to,
+    subject: m.subject,
+    body: m.body,
+    planId: m.planId ?? null,
+    revision: m.revision ?? null,
+  });
 }
 
 /** Stable per row, so a receiver can recognise a resend after a crash between sending and committing. */

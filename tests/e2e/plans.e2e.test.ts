@@ -326,11 +326,11 @@ describe("plan workflow in a browser", () => {
     await page.getByLabel("Search received mail").fill(title);
     const received = page.getByRole("list", { name: "Received messages" });
     await received.getByText(approverA.email, { exact: false }).first().waitFor();
-    // Review requested (to the approvers) and approved (to the author); "ready" goes to infra leads, if any.
+    // For inspection (to the approvers) and passed (to the author); "ready" goes to infra leads, if any.
     const subjects = await received.locator("li button span:first-child").allTextContents();
-    expect(subjects).toContain(`Review requested: "${title}" rev. 1`);
-    expect(subjects).toContain(`Approved: "${title}" rev. 1`);
-    await received.getByRole("button", { name: new RegExp(`^Approved: "${title}"`) }).click();
+    expect(subjects).toContain(`For inspection: "${title}" rev. 1, round 1`);
+    expect(subjects).toContain(`Passed: "${title}" rev. 1`);
+    await received.getByRole("button", { name: new RegExp(`^Passed: "${title}"`) }).click();
     await expect
       .poll(() => page.getByRole("article", { name: "Message" }).textContent(), { timeout: 15_000 })
       .toContain(`/plans/${planId}`);

@@ -168,8 +168,11 @@ export const mailOutbox = pgTable(
     lastError: text("last_error"),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
     sentAt: timestamp("sent_at", { withTimezone: true }),
+    /** The plan and revision the message is about (workflow mail), so the Mail page lays deliveries out per plan. */
+    planId: integer("plan_id").references(() => plans.id, { onDelete: "set null" }),
+    revision: integer("revision"),
   },
-  (t) => [index("mail_outbox_due").on(t.status, t.nextAttemptAt)],
+  (t) => [index("mail_outbox_due").on(t.status, t.nextAttemptAt), index("mail_outbox_plan").on(t.planId, t.revision)],
 );
 
 /** What the local SMTP sink received (development and tests only). */

@@ -6,7 +6,7 @@ import type { SessionUser } from "../../../shared/schemas";
 import * as repo from "./plans.repo";
 import { effectiveApprovals, makeContent, mustPlan, mustRevision, revisionValues } from "./plans.service";
 import { hashContent, type RevisionContent } from "./revision-content";
-import { notify } from "./notify";
+import { askedReviewers, notify } from "./notify";
 import { refuseRetiredAccelerator } from "./budget-part";
 import { signingKey, signPayload } from "./signing";
 
@@ -59,9 +59,13 @@ export async function submit(deps: AppDeps, actor: SessionUser, planId: number, 
   });
 }
 
-/** in_review → draft, by the author. Decisions already made stay on record but belong to the closed round. */
+/**
+ * in_review → draft, by the author. Decisions already made stay on record but belong to the closed round.
+ * The approvers who were asked hear that nothing waits for them any more.
+ */
 export async function withdraw(deps: AppDeps, actor: SessionUser, planId: number, n: number) {
   return deps.db.transaction(async (tx) => {
+    const plan = await mustPlan(tx, planId);
     const rev = await mustRevision(tx, planId, n, true);
     if (rev.authorId !== actor.id) throw new Forbidden("only the revision's author withdraws it");
     if (rev.state !== "in_review") throw wrongState(n, rev.state, "in_review");
@@ -74,6 +78,11 @@ export async function withdraw(deps: AppDeps, actor: SessionUser, planId: number
       subjectId: planId,
       detail: { revision: n, round: rev.round },
     });
+    // Mail queued before the outbox knew its plan has no row to read: then every active approver but the author.
+    const asked =
+      (await askedReviewers(tx, planId, n)) ??
+      (await repo.activeUsersWithRole(tx, "approver")).filter((u) => u.id !== actor.id).map((u) => u.email);
+    await notify(deps, tx, "withdrawn", asked, { plan, revision: row, actorName: actor.name });
     return { number: n, state: row.state, version: row.version };
   });
 }

@@ -84,4 +84,36 @@ describe("plan workflow mail through the local SMTP sink", () => {
       2,
     ); // review of r1 and r2
   });
+
+  // Defects (issue 15): a resubmission's mail had the same subject as the first one, and withdrawing sent nothing
+  // to the approvers who had been asked.
+  it("resubmitting numbers the round in the subject; withdrawing tells the approvers who were asked, and only them", async () => {
+    const { agentAs } = app;
+    sink ??= await startMailSink({ db, port });
+    const researcher = await agentAs(["researcher"]);
+    const asked = await agentAs(["approver"]);
+    const title = `Rounds ${Date.now()}`;
+    const plan = await createPlan(researcher, (await createProfile(researcher)).id, { title });
+    const base = `/api/plans/${plan.id}/revisions/1`;
+    await post(researcher, `${base}/submit`).expect(200);
+    // An approver who joins after the submission was not asked, so the withdrawal is not theirs to hear about.
+    const late = await agentAs(["approver"]);
+    await post(researcher, `${base}/withdraw`).expect(200);
+    await post(researcher, `${base}/submit`).expect(200);
+    await deliverDueMail(app.deps, { limit: 5000 });
+
+    const mine = async (address: string) => (await received(address, title)).map((m) => m.subject as string).sort();
+    expect(await mine(asked.user!.email)).toEqual([
+      `For inspection: "${title}" rev. 1, round 1`,
+      `For inspection: "${title}" rev. 1, round 2`,
+      `Taken back from inspection: "${title}" rev. 1, round 1`,
+    ]);
+    expect(await mine(late.user!.email)).toEqual([`For inspection: "${title}" rev. 1, round 2`]);
+    expect(await mine(researcher.user!.email)).toEqual([]);
+    const [withdrawn] = await received(asked.user!.email, "Taken back");
+    expect(withdrawn.text).toContain(`/plans/${plan.id}?revision=1`);
+    expect(withdrawn.text).toContain("nothing is waiting for your decision");
+    const again = (await received(asked.user!.email, "round 2"))[0];
+    expect(again.text).toContain("This is round 2 of this revision");
+  });
 });

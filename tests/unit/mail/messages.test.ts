@@ -6,6 +6,7 @@ import {
   changesRequestedMail,
   planReadyMail,
   reviewRequestedMail,
+  withdrawnMail,
   type PlanMailInput,
 } from "../../../server/mailer/messages";
 
@@ -16,14 +17,15 @@ const input: PlanMailInput = {
   actorName: "Tomasz Ferreira",
   contentHash: "0f".repeat(32),
   url: "http://127.0.0.1:3000/plans/12",
+  round: 1,
 };
-const BUILDERS = { reviewRequestedMail, changesRequestedMail, approvedMail, planReadyMail };
+const BUILDERS = { reviewRequestedMail, withdrawnMail, changesRequestedMail, approvedMail, planReadyMail };
 
 describe("plan workflow mail", () => {
-  it("gives four distinct kinds and subjects naming the plan and revision", () => {
+  it("gives five distinct kinds and subjects naming the plan and revision", () => {
     const mails = Object.values(BUILDERS).map((b) => b(input));
-    expect(new Set(mails.map((m) => m.kind)).size).toBe(4);
-    expect(new Set(mails.map((m) => m.subject)).size).toBe(4);
+    expect(new Set(mails.map((m) => m.kind)).size).toBe(5);
+    expect(new Set(mails.map((m) => m.subject)).size).toBe(5);
     for (const m of mails) expect(m.subject).toContain(`"${input.planTitle}" rev. 4`);
   });
 
@@ -38,6 +40,19 @@ describe("plan workflow mail", () => {
       expect(commented.body).toContain("Comment from Tomasz Ferreira:\n  > Bound looks tight.\n  > Re-run at 96k.");
     });
   }
+
+  // Defect (issue 15): a resubmission's mail had the same subject as the first submission.
+  it("numbers the inspection round, so a resubmission's subject differs from the first and says it is a later round", () => {
+    const first = reviewRequestedMail(input);
+    const again = reviewRequestedMail({ ...input, round: 2 });
+    expect(first.subject).toBe(`For inspection: "${input.planTitle}" rev. 4, round 1`);
+    expect(again.subject).toBe(`For inspection: "${input.planTitle}" rev. 4, round 2`);
+    expect(again.body).toContain("This is round 2 of this revision");
+    expect(first.body).not.toContain("This is round");
+    expect(withdrawnMail({ ...input, round: 2 }).subject).toBe(
+      `Taken back from inspection: "${input.planTitle}" rev. 4, round 2`,
+    );
+  });
 
   it("keeps the subject on one bounded line whatever the title", () => {
     const m = reviewRequestedMail({ ...input, planTitle: `Two\nlines ${"x".repeat(300)}` });
