@@ -10,14 +10,13 @@ import { createDb } from "../server/db/client";
 import { migrateDatabase } from "../server/db/migrate";
 import { insertUser } from "../server/features/users/users.repo";
 import { METHOD_IDS } from "../shared/schemas/analysis";
+import { quantile, signIn } from "./http-client";
 
 // The API under load on this machine: POST /api/analyses (all methods, d = 128, target 1 048 576) with 16 requests
 // in flight, and how long /api/health takes while a smallest-base search runs in its worker thread.
 // Uses a scratch database on the loopback cluster (ropewalk_bench), rebuilt from migrations each run.
 
 const root = path.resolve(import.meta.dirname, "..");
-const quantile = (xs: number[], p: number) =>
-  [...xs].sort((a, b) => a - b)[Math.min(xs.length - 1, Math.floor(p * xs.length))];
 
 export async function runApiBench() {
   const port = process.env.PGPORT ?? "54329";
@@ -46,17 +45,7 @@ export async function runApiBench() {
   await new Promise((r) => server.once("listening", r));
   const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
 
-  const s = await fetch(`${base}/api/auth/session`);
-  let cookie = s.headers.get("set-cookie")!.split(";")[0];
-  let csrf = ((await s.json()) as { csrfToken: string }).csrfToken;
-  const login = await fetch(`${base}/api/auth/login`, {
-    method: "POST",
-    headers: { "content-type": "application/json", cookie, "x-csrf-token": csrf },
-    body: JSON.stringify({ email: "bench@example.test", password: "bench-password-1" }),
-  });
-  cookie = login.headers.get("set-cookie")!.split(";")[0];
-  csrf = ((await login.json()) as { csrfToken: string }).csrfToken;
-  const headers = { "content-type": "application/json", cookie, "x-csrf-token": csrf };
+  const headers = await signIn(base, "bench@example.test", "bench-password-1");
   const ramp = Array.from({ length: 64 }, (_, i) => 1 + i / 2);
   const methods = METHOD_IDS.map((m) =>
     m === "longrope"
@@ -109,5 +98,6 @@ export async function runApiBench() {
     `  GET /api/health during a smallest-base search (worker thread): ${health.length} answers, p50 ${quantile(health, 0.5).toFixed(1)} ms, max ${Math.max(...health).toFixed(1)} ms`,
   );
   server.close();
+  server.closeAllConnections();
   await pool.end();
 }

@@ -6,6 +6,7 @@ import fs from "node:fs";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { build } from "esbuild";
+import { newestMtime } from "./newest-mtime.mjs";
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 export const SERVER_OUT = path.join(root, "dist/server");
@@ -18,14 +19,6 @@ const entryPoints = [
   { in: "server/features/analyses/analyses.worker.ts", out: "analyses.worker" },
 ];
 const SOURCES = ["server", "shared", "scripts", "package-lock.json", "tsconfig.json"];
-
-function newestMtime(p) {
-  const stat = fs.statSync(p);
-  if (!stat.isDirectory()) return stat.mtimeMs;
-  let newest = 0;
-  for (const entry of fs.readdirSync(p)) newest = Math.max(newest, newestMtime(path.join(p, entry)));
-  return newest;
-}
 
 export function serverBuildIsStale() {
   if (!fs.existsSync(SERVER_ENTRY)) return true;

@@ -12,6 +12,7 @@ import { DEMO_LAB, DEMO_PASSWORD, DEMO_USERS, seedDemo } from "../server/db/seed
 import { startServer } from "../server/index";
 import { startMailSink } from "../server/mailer/sink";
 import { projectRoot } from "../server/platform/project-root";
+import { newestMtime } from "./newest-mtime.mjs";
 
 // The same folder whether this runs from source or from the bundle in dist/server (scripts/launch.mjs).
 const root = projectRoot();
@@ -34,15 +35,6 @@ async function isRopewalk(url: string) {
   } catch {
     return false;
   }
-}
-
-function newestMtime(dir: string): number {
-  let newest = 0;
-  for (const entry of fs.readdirSync(dir, { withFileTypes: true })) {
-    const p = path.join(dir, entry.name);
-    newest = Math.max(newest, entry.isDirectory() ? newestMtime(p) : fs.statSync(p).mtimeMs);
-  }
-  return newest;
 }
 
 function buildClientIfStale(clientDir: string) {

@@ -14,6 +14,7 @@ import { LOCAL_APP_ROLE, LOCAL_OWNER_ROLE, loadConfig } from "../../server/confi
 import { createDb } from "../../server/db/client";
 import { migrateDatabase } from "../../server/db/migrate";
 import { DEMO_PASSWORD, seedDemo } from "../../server/db/seed";
+import { quantile, signIn } from "../http-client";
 
 const root = path.resolve(import.meta.dirname, "../..");
 const DB = "ropewalk_bench_scale";
@@ -21,8 +22,6 @@ const port = process.env.PGPORT ?? "54329";
 const ownerUrl = `postgres://${LOCAL_OWNER_ROLE}@127.0.0.1:${port}/${DB}`;
 const args = process.argv.slice(2);
 const servePort = args.includes("--serve") ? Number(args[args.indexOf("--serve") + 1]) : undefined;
-const quantile = (xs: number[], p: number) =>
-  [...xs].sort((a, b) => a - b)[Math.min(xs.length - 1, Math.floor(p * xs.length))];
 
 async function prepare() {
   execFileSync("bash", [path.join(root, "docker-free-db-scripts/start.sh"), "postgres"], {
@@ -57,25 +56,8 @@ async function prepare() {
   return { config, pool, db, sessionPool };
 }
 
-async function signIn(base: string, email: string) {
-  const s = await fetch(`${base}/api/auth/session`);
-  const cookie = s.headers
-    .getSetCookie()
-    .map((line) => line.split(";")[0])
-    .join("; ");
-  const csrf = ((await s.json()) as { csrfToken: string }).csrfToken;
-  const login = await fetch(`${base}/api/auth/login`, {
-    method: "POST",
-    headers: { "content-type": "application/json", cookie, "x-csrf-token": csrf },
-    body: JSON.stringify({ email, password: DEMO_PASSWORD }),
-  });
-  if (login.status !== 200) throw new Error(`sign-in as ${email}: ${login.status}`);
-  // Every cookie the sign-in set (session and CSRF), not just the first Set-Cookie line.
-  return login.headers
-    .getSetCookie()
-    .map((line) => line.split(";")[0])
-    .join("; ");
-}
+/** The cookies of a signed-in demo account (session and CSRF), for GET requests. */
+const cookieOf = async (base: string, email: string) => (await signIn(base, email, DEMO_PASSWORD)).cookie;
 
 async function timings(base: string, cookie: string, url: string, n = 60) {
   const ms: number[] = [];
@@ -99,8 +81,8 @@ if (servePort !== undefined) {
   console.log(`serving ${DB} on ${base} (demo accounts, password "${DEMO_PASSWORD}"); Ctrl-C stops`);
   process.on("SIGINT", () => process.exit(0));
 } else {
-  const admin = await signIn(base, "admin@ropewalk.test");
-  const approver = await signIn(base, "approver@ropewalk.test");
+  const admin = await cookieOf(base, "admin@ropewalk.test");
+  const approver = await cookieOf(base, "approver@ropewalk.test");
   const midAudit = (await deps.pool.query("SELECT max(id) / 2 AS id FROM audit_events")).rows[0].id as string;
   const lists: [string, string, string][] = [
     ["/api/plans", "/api/plans", admin],
