@@ -15,10 +15,10 @@ export class PgRateLimitStore implements Store {
   /** Counts are shared, never per process. */
   readonly localKeys = false;
 
-  constructor(
-    private readonly pool: pg.Pool,
-    readonly prefix: string,
-  ) {}
+  // No key prefix of its own: the limiter's keyGenerator already starts every key with the limiter's name
+  // (auth.limits.ts), and express-rate-limit 8.7.5's double-count check (validations.singleCount) compares
+  // `(store.prefix ?? "") + key`, which those names already keep apart.
+  constructor(private readonly pool: pg.Pool) {}
 
   init(options: Options) {
     this.windowMs = options.windowMs;
@@ -27,7 +27,7 @@ export class PgRateLimitStore implements Store {
   async get(key: string): Promise<ClientRateLimitInfo | undefined> {
     const r = await this.pool.query<{ hits: number; reset_at: Date }>(
       "SELECT hits, reset_at FROM rate_limit_hits WHERE key = $1 AND reset_at > now()",
-      [this.prefix + key],
+      [key],
     );
     return r.rows[0] ? { totalHits: r.rows[0].hits, resetTime: r.rows[0].reset_at } : undefined;
   }
@@ -40,7 +40,7 @@ export class PgRateLimitStore implements Store {
          hits = CASE WHEN h.reset_at <= now() THEN 1 ELSE h.hits + 1 END,
          reset_at = CASE WHEN h.reset_at <= now() THEN EXCLUDED.reset_at ELSE h.reset_at END
        RETURNING hits, reset_at`,
-      [this.prefix + key, this.windowMs],
+      [key, this.windowMs],
     );
     if (Math.random() < 1 / PRUNE_ONE_IN) {
       void this.pool.query("DELETE FROM rate_limit_hits WHERE reset_at < now() - interval '1 hour'").catch(() => {});
@@ -51,11 +51,11 @@ export class PgRateLimitStore implements Store {
   async decrement(key: string) {
     await this.pool.query(
       "UPDATE rate_limit_hits SET hits = hits - 1 WHERE key = $1 AND hits > 0 AND reset_at > now()",
-      [this.prefix + key],
+      [key],
     );
   }
 
   async resetKey(key: string) {
-    await this.pool.query("DELETE FROM rate_limit_hits WHERE key = $1", [this.prefix + key]);
+    await this.pool.query("DELETE FROM rate_limit_hits WHERE key = $1", [key]);
   }
 }

@@ -32,7 +32,8 @@ function limiter(
     skipSuccessfulRequests: true,
     store:
       deps.limiterStore?.(name) ??
-      (deps.config.rateLimitStore === "postgres" ? new PgRateLimitStore(deps.pool, `${name}:`) : undefined),
+      (deps.config.rateLimitStore === "postgres" ? new PgRateLimitStore(deps.pool) : undefined),
+    // The one place a key gets the limiter's name (the store adds nothing): `login-addr:<address>` and so on.
     keyGenerator: (req, res) => `${name}:${key(req, res)}`,
     handler: (_req, _res, next) => next(tooMany(what)),
   });
