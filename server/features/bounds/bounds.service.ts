@@ -58,6 +58,8 @@ export async function runBaseBound(
   };
   const kept = await findKept(db, key);
   if (kept) return kept;
+  // A caller that left during the lookup would never hear its "abort" event again: it must not join.
+  if (opts.signal?.aborted) throw new SearchCancelled();
 
   let inflight = inflightByDb.get(db);
   if (!inflight) inflightByDb.set(db, (inflight = new Map()));
@@ -111,10 +113,10 @@ async function computeOnce(
 ): Promise<SmallestBaseResponse> {
   const signal = shared.stop.signal;
   const deadline = Date.now() + SEARCH_TIMEOUT_MS;
+  // runBaseBound has just looked for a kept answer, so the loop claims first and looks again only when the claim
+  // fails: the row then exists, either kept meanwhile or claimed by another instance.
   for (;;) {
     if (signal.aborted) throw new SearchCancelled();
-    const kept = await findKept(db, key);
-    if (kept) return kept;
     if (await claim(db, key)) {
       const refresh = setInterval(() => void refreshClaim(db, key).catch(() => undefined), CLAIM_REFRESH_MS);
       try {
@@ -131,6 +133,8 @@ async function computeOnce(
         clearInterval(refresh);
       }
     }
+    const kept = await findKept(db, key);
+    if (kept) return kept;
     // Another instance is computing this key: look again shortly (its claim goes stale if it dies).
     if (Date.now() > deadline)
       throw new Unavailable("search_timeout", `the search took longer than ${SEARCH_TIMEOUT_MS / 1000} s`);
