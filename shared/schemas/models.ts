@@ -37,6 +37,12 @@ const profileFields = z.object({
   ropeTheta: finite().gt(1, "must be above 1").max(1e15),
   trainedContext: posInt(),
   maxPositionEmbeddings: posInt().nullable().optional(),
+  /**
+   * Lineage: the length the model is served at now. For a model that ships scaling it is longer than
+   * trainedContext, which stays the length its base was pre-trained at (the L every consumer's formula uses).
+   * Null or absent: served at max_position_embeddings, else at the trained length.
+   */
+  servedContext: posInt().nullable().optional(),
   layers: posInt(10_000),
   attentionHeads: posInt(10_000),
   kvHeads: posInt(10_000),
@@ -101,6 +107,9 @@ export const modelProfileSchema = profileFields.extend({
   mropeSection: z.array(z.number().int()).nullable(),
   mropeInterleaved: z.boolean(),
   kvLatentDim: z.number().int().nullable(),
+  /** Lineage (shared/lineage.ts): the length the base was pre-trained at (= trainedContext) and the one served now. */
+  pretrainedContext: z.number().int(),
+  servedContext: z.number().int(),
   id: z.number().int(),
   rotaryDim: z.number().int(),
   pairs: z.number().int(),
@@ -126,6 +135,9 @@ export const importPreviewProfileSchema = profileFields
     ropeTheta: finite(),
     trainedContext: finite(),
     maxPositionEmbeddings: finite().nullable(),
+    /** Lineage: the length the base was pre-trained at (what trainedContext holds) and the length served now. */
+    pretrainedContext: finite(),
+    servedContext: finite().nullable(),
     layers: finite(),
     attentionHeads: finite(),
     kvHeads: finite(),

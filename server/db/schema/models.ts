@@ -13,6 +13,8 @@ export const modelProfiles = pgTable(
     ropeTheta: doublePrecision("rope_theta").notNull(),
     trainedContext: integer("trained_context").notNull(),
     maxPositionEmbeddings: integer("max_position_embeddings"),
+    /** Lineage: the length served now, when it differs from the pre-trained trainedContext (shared/lineage.ts). */
+    servedContext: integer("served_context"),
     layers: integer("layers").notNull(),
     attentionHeads: integer("attention_heads").notNull(),
     kvHeads: integer("kv_heads").notNull(),

@@ -10,6 +10,7 @@ import { nonRotaryScheme, notRotaryMessage } from "./position-scheme";
 import { readRotaryShape } from "./rotary-shape";
 import { readScalingBlock } from "./scaling-block";
 import { nestedRopeParameters, readLayerGroups } from "./layer-layout";
+import { lineageLengths } from "./lineage-lengths";
 
 export class ConfigImportError extends Error {
   constructor(
@@ -126,13 +127,15 @@ export function parseModelConfig(
   const shape = readRotaryShape(cfg, block, warn);
 
   const maxPos = num(cfg.max_position_embeddings)!;
-  let trainedContext = maxPos;
   let currentScaling: CurrentScaling | null = null;
+  let original: number | undefined;
   if (scaling) {
     const read = readScalingBlock(cfg, scaling, maxPos, shape.latent, warn);
     currentScaling = read.currentScaling;
-    if (read.original !== undefined) trainedContext = read.original;
+    original = read.original;
   }
+  const lengths = lineageLengths(maxPos, original, scaling, currentScaling?.method);
+  const trainedContext = lengths.pretrainedContext;
   const sections = readSections(scaling ?? block, shape.rotaryDim, warn);
   const layerGroups = readLayerGroups(
     cfg,
@@ -169,6 +172,8 @@ export function parseModelConfig(
       rotaryDim: shape.rotaryDim,
       ropeTheta: shape.ropeTheta,
       trainedContext,
+      pretrainedContext: trainedContext,
+      servedContext: lengths.servedContext,
       maxPositionEmbeddings: maxPos,
       layers,
       attentionHeads: heads,

@@ -47,6 +47,8 @@ export function toModelProfile(row: repo.ModelRow): ModelProfile {
     retiredAt: row.retiredAt?.toISOString() ?? null,
     rotaryDim: d,
     pairs: d / 2,
+    pretrainedContext: row.trainedContext,
+    servedContext: row.servedContext ?? row.maxPositionEmbeddings ?? row.trainedContext,
     createdAt: row.createdAt.toISOString(),
     updatedAt: row.updatedAt.toISOString(),
   };

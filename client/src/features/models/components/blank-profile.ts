@@ -7,6 +7,7 @@ export const BLANK_PROFILE: Partial<ModelProfileInput> = {
   partialRotaryFactor: 1,
   ropeTheta: 10_000,
   maxPositionEmbeddings: null,
+  servedContext: null,
   parametersTotal: null,
   bytesPerElement: 2,
   provenance: "",

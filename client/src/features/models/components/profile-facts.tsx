@@ -1,5 +1,23 @@
 import type { ModelProfile } from "@shared/schemas/models";
 import { formatCount, formatDate } from "@/lib/format";
+import { shippedMethod, shippedText } from "@shared/lineage";
+
+/**
+ * Lineage: the length the base was pre-trained at and the length the model is served at now. They differ only when
+ * the config ships scaling; a plan may extend from either (shared/lineage.ts).
+ */
+function lineageFacts(model: ModelProfile): [string, string][] {
+  const shipped = shippedMethod(model.currentScaling);
+  return [
+    ["Pre-trained length", `${formatCount(model.pretrainedContext)} tokens`],
+    [
+      "Served length",
+      model.servedContext === model.pretrainedContext
+        ? `${formatCount(model.servedContext)} tokens (as trained)`
+        : `${formatCount(model.servedContext)} tokens (as shipped${shipped ? `: ${shippedText(shipped)}` : ""})`,
+    ],
+  ];
+}
 
 /** The figures a reader looks for first, with the derived rotary dimension and pairs. */
 export function ProfileFacts({ model }: { model: ModelProfile }) {
@@ -9,6 +27,7 @@ export function ProfileFacts({ model }: { model: ModelProfile }) {
     ["Rotating pairs", String(model.pairs)],
     ["Base b (rope_theta)", formatCount(model.ropeTheta)],
     ["Trained context L", `${formatCount(model.trainedContext)} tokens`],
+    ...lineageFacts(model),
     [
       "Advertised length",
       model.maxPositionEmbeddings ? `${formatCount(model.maxPositionEmbeddings)} tokens` : "not given",

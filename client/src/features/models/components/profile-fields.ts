@@ -51,6 +51,12 @@ export const PROFILE_SECTIONS: { title: string; fields: ProfileFieldSpec[] }[] =
         kind: "optional-number",
         hint: "Optional.",
       },
+      {
+        name: "servedContext",
+        label: "Served length (tokens)",
+        kind: "optional-number",
+        hint: "The length the model is served at now, when it already ships scaling; empty: the advertised length.",
+      },
     ],
   },
   {
