@@ -4,6 +4,7 @@ import { planBudgetContexts } from "../../shared/plan-budget";
 import { recipeStage } from "../../shared/recipe-stage";
 import { findRecipe } from "../../server/engine/budget";
 import { recipeStageDraft } from "../../client/src/features/budgets/lib/recipes";
+import { isObj, num, numberOr } from "../../shared/json-values";
 import { REVISION_STATES, type RevisionState } from "../../shared/schemas/plans";
 
 /*
@@ -91,5 +92,20 @@ describe("sign-off rules (shared/plan-rules.ts)", () => {
     expect(effectiveRequiredApprovals(1, 2)).toBe(2);
     expect(effectiveRequiredApprovals(3, 2)).toBe(3);
     expect(effectiveRequiredApprovals(2, 2)).toBe(2);
+  });
+});
+
+describe("JSON value readers (shared/json-values.ts)", () => {
+  it("an object is neither null nor an array; a number is any JS number, NaN and Infinity included", () => {
+    expect([{}, { a: 1 }, null, [], "x", 1].map(isObj)).toEqual([true, true, false, false, false, false]);
+    // JSON.parse("1e999") is Infinity: the targets' readers take it as json.load would (a float inf).
+    expect([1.5, JSON.parse("1e999"), "8", null, undefined].map((v) => num(v))).toEqual([
+      1.5,
+      Infinity,
+      undefined,
+      undefined,
+      undefined,
+    ]);
+    expect([numberOr(0, 32), numberOr("32", 1), numberOr(null, 10000)]).toEqual([0, 1, 10000]);
   });
 });

@@ -1,5 +1,6 @@
 import type { CompileInput, CompileResult, ExportTarget, TargetArtifact } from "./types";
-import { explicitYarnAttention, factorOf, isRecord, paramsOf, resolvePlan } from "./engines/plan-facts";
+import { explicitYarnAttention, factorOf, paramsOf, resolvePlan } from "./engines/plan-facts";
+import { isObj } from "../../../shared/json-values";
 import { launchArtifact } from "./engines/launch-text";
 import { yarnGetMscale } from "./engines/engine-rope";
 import { convertedFreqFactors, ggufArch, key, type Metadata } from "./engines/gguf";
@@ -105,10 +106,7 @@ function compile(input: CompileInput): CompileResult {
   const artifact = launchArtifact('llama-server -m "$MODEL_GGUF"', args, { metadata });
   if (unsupported) return { ok: false, cause: unsupported[0], workaround: unsupported[1], artifact };
   // A model converted from a llama3 config carries rope_freqs: ggml divides by it on top of any flag.
-  if (
-    isRecord(input.config.rope_scaling) &&
-    convertedFreqFactors(input.config, input.plan.rotaryDim, input.plan.base)
-  ) {
+  if (isObj(input.config.rope_scaling) && convertedFreqFactors(input.config, input.plan.rotaryDim, input.plan.base)) {
     return {
       ok: false,
       cause:

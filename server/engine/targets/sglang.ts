@@ -1,13 +1,6 @@
 import type { CompileInput, CompileResult, ConsumerReading, ExportTarget, TargetArtifact } from "./types";
-import {
-  explicitYarnAttention,
-  factorOf,
-  headSize,
-  isRecord,
-  numberOr,
-  paramsOf,
-  resolvePlan,
-} from "./engines/plan-facts";
+import { explicitYarnAttention, factorOf, headSize, paramsOf, resolvePlan } from "./engines/plan-facts";
+import { isObj, numberOr } from "../../../shared/json-values";
 import { argsOf, compactJson, flagValue, launchArtifact, parseJsonArgument } from "./engines/launch-text";
 import { derivedContextLength } from "./engines/sglang-config";
 import {
@@ -127,7 +120,7 @@ function read(config: Record<string, unknown>, artifact: TargetArtifact, running
   const head = headSize(merged);
   const d = partial < 1 ? Math.floor(head * partial) : head;
   const maxPosition = numberOr(merged.max_position_embeddings, 2048);
-  const rs = isRecord(merged.rope_scaling) ? merged.rope_scaling : null;
+  const rs = isObj(merged.rope_scaling) ? merged.rope_scaling : null;
   const type = rs
     ? typeof rs.rope_type === "string"
       ? rs.rope_type

@@ -1,5 +1,6 @@
 import type { CompileInput, CompileResult, ConsumerReading, ExportTarget, TargetArtifact } from "./types";
-import { explicitYarnAttention, factorOf, headSize, numberOr, paramsOf, resolvePlan } from "./engines/plan-facts";
+import { explicitYarnAttention, factorOf, headSize, paramsOf, resolvePlan } from "./engines/plan-facts";
+import { numberOr } from "../../../shared/json-values";
 import { argsOf, compactJson, flagValue, launchArtifact, parseJsonArgument } from "./engines/launch-text";
 import { derivedMaxModelLen, vllmRopeParameters } from "./engines/vllm-config";
 import {

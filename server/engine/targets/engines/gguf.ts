@@ -1,4 +1,5 @@
-import { headSize, isRecord, numberOr } from "./plan-facts";
+import { headSize } from "./plan-facts";
+import { isObj, numberOr } from "../../../../shared/json-values";
 
 /**
  * GGUF side of the llama.cpp target: the architecture prefix of the metadata keys, the rope metadata the converter
@@ -29,7 +30,7 @@ export function convertedMetadata(config: Record<string, unknown>): Metadata {
     meta[key(arch, "context_length")] = config.max_position_embeddings;
   if (typeof config.rope_theta === "number") meta[key(arch, "rope.freq_base")] = config.rope_theta;
   meta[key(arch, "rope.dimension_count")] = Math.floor(headSize(config) * numberOr(config.partial_rotary_factor, 1));
-  const rs = isRecord(config.rope_scaling) ? config.rope_scaling : null;
+  const rs = isObj(config.rope_scaling) ? config.rope_scaling : null;
   const type = rs && (rs.rope_type ?? rs.type);
   // The converter writes linear and yarn blocks as metadata (convert_hf_to_gguf.py, TextModel.set_gguf_parameters).
   if (rs && (type === "linear" || type === "yarn") && typeof rs.factor === "number") {
@@ -49,7 +50,7 @@ export function convertedMetadata(config: Record<string, unknown>): Metadata {
  * rope_factors_long/short tensors are not followed here.
  */
 export function convertedFreqFactors(config: Record<string, unknown>, d: number, base: number): number[] | null {
-  const rs = isRecord(config.rope_scaling) ? config.rope_scaling : null;
+  const rs = isObj(config.rope_scaling) ? config.rope_scaling : null;
   const type = rs && (rs.rope_type ?? rs.type);
   if (!rs || type === undefined || type === null) return null;
   if (type === "longrope" || type === "su")

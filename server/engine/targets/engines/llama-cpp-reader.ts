@@ -1,7 +1,7 @@
 import type { ConsumerReading, TargetArtifact } from "../types";
 import { argsOf, flagValue } from "./launch-text";
 import { convertedFreqFactors, convertedMetadata, key, parseKvOverride, type Metadata } from "./gguf";
-import { isRecord } from "./plan-facts";
+import { isObj } from "../../../../shared/json-values";
 
 /**
  * What llama.cpp runs for a GGUF converted from `config` with the artifact applied: metadata first (the file as
@@ -13,7 +13,7 @@ const f32 = Math.fround;
 function applyArtifactMetadata(config: Record<string, unknown>, artifact: TargetArtifact, args: string[]): Metadata {
   const meta: Metadata = { ...convertedMetadata(config) };
   const written = artifact.content.metadata;
-  if (isRecord(written)) {
+  if (isObj(written)) {
     for (const [k, v] of Object.entries(written)) {
       if (typeof v === "number" || typeof v === "string" || typeof v === "boolean") meta[k] = v;
     }

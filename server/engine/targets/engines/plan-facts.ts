@@ -65,9 +65,5 @@ export function headSize(config: Record<string, unknown>): number {
   return Math.floor(hidden / heads);
 }
 
-export const numberOr = (v: unknown, fallback: number): number => (typeof v === "number" ? v : fallback);
-export const isRecord = (v: unknown): v is Record<string, unknown> =>
-  typeof v === "object" && v !== null && !Array.isArray(v);
-
 /** The factor the engine ran with (it fills the default s = target ÷ trained; the type keeps it optional). */
 export const factorOf = (p: ResolvedPlan): number => (p.params as { factor?: number }).factor ?? p.target / p.trained;

@@ -1,4 +1,4 @@
-import { isRecord, numberOr } from "./plan-facts";
+import { isObj, numberOr } from "../../../../shared/json-values";
 
 /** The keys get_context_length tries, first found wins (python/sglang/srt/utils/hf_transformers_utils.py, 2aa2e2d). */
 const CONTEXT_KEYS = [
@@ -14,7 +14,7 @@ const CONTEXT_KEYS = [
  * original_max_position_embeddings or is llama3; 2048 without any key.
  */
 export function derivedContextLength(config: Record<string, unknown>): number {
-  const rs = isRecord(config.rope_scaling) ? config.rope_scaling : null;
+  const rs = isObj(config.rope_scaling) ? config.rope_scaling : null;
   let factor = rs ? numberOr(rs.factor, 1) : 1;
   if (rs && ("original_max_position_embeddings" in rs || rs.rope_type === "llama3")) factor = 1;
   for (const key of CONTEXT_KEYS) {

@@ -1,4 +1,4 @@
-import { isRecord, numberOr } from "./plan-facts";
+import { isObj, numberOr } from "../../../../shared/json-values";
 
 /**
  * How vLLM turns a config (after `--hf-overrides`) into the rope parameters get_rope sees, and the longest
@@ -17,8 +17,8 @@ export function vllmRopeParameters(config: Record<string, unknown>): {
   warnings: string[];
 } {
   const warnings: string[] = [];
-  const scaling = isRecord(config.rope_scaling) ? config.rope_scaling : null;
-  const params = isRecord(config.rope_parameters) ? config.rope_parameters : null;
+  const scaling = isObj(config.rope_scaling) ? config.rope_scaling : null;
+  const params = isObj(config.rope_parameters) ? config.rope_parameters : null;
   const v4: Record<string, unknown> = { ...(scaling ?? params ?? { rope_type: "default" }) };
   for (const key of ["rope_theta", "partial_rotary_factor", "original_max_position_embeddings"]) {
     if (config[key] !== undefined && config[key] !== null) v4[key] = config[key];

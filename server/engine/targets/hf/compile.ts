@@ -2,7 +2,8 @@ import type { CompileInput, CompileResult, TargetArtifact } from "../types";
 import { runMethod } from "../../methods";
 import { writeJsonText } from "../json-text";
 import { CONFIG_FLOAT_KEYS, floatKeyTest } from "../float-keys";
-import { isObj, type Obj } from "./config-view";
+import { type Obj } from "./config-view";
+import { isObj } from "../../../../shared/json-values";
 
 /** Which rule set a config patch is written for (the matching readers are read-v4.ts and read-v5.ts). */
 export type HfRules = "early" | "v4" | "v5";

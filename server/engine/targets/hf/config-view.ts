@@ -1,10 +1,9 @@
+import { isObj, type JsonObject } from "../../../../shared/json-values";
 import type { TargetArtifact } from "../types";
 import { applyMergePatch } from "../merge-patch";
 import { parseJsonTyped, pointer, type JsonPath } from "../json-text";
 
-export type Obj = Record<string, unknown>;
-export const isObj = (v: unknown): v is Obj => typeof v === "object" && v !== null && !Array.isArray(v);
-export const num = (v: unknown): number | undefined => (typeof v === "number" ? v : undefined);
+export type Obj = JsonObject;
 
 /**
  * config.json with our merge patch applied, as the library's `from_pretrained` would load it. The patch is read from

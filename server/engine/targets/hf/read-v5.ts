@@ -1,6 +1,7 @@
 import type { ConsumerReading } from "../types";
 import type { JsonPath } from "../json-text";
-import { isObj, num, rotaryDimension, type ConfigView, type Obj } from "./config-view";
+import { rotaryDimension, type ConfigView, type Obj } from "./config-view";
+import { isObj, num } from "../../../../shared/json-values";
 import { defaultInvFreq, dynamicInvFreq, llama3InvFreq, longropeReading, mscaleOf, yarnInvFreq } from "./formulas";
 
 /**
