@@ -14,6 +14,8 @@ import { rejectHostileInput } from "./http/hostile";
 import { requestLog } from "./http/request-log";
 import { createLogger } from "./logger";
 import { serveClient } from "./http/static-client";
+// Our own validation wording for every zod parse on the server (installs a global zod error map).
+import "../shared/validation-messages";
 
 export const JSON_LIMIT = "512kb";
 

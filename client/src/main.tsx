@@ -5,6 +5,8 @@ import "@fontsource/ibm-plex-sans/400.css";
 import "@fontsource/ibm-plex-sans/500.css";
 import "@fontsource/ibm-plex-sans/600.css";
 import "./index.css";
+// Our own validation wording for every zod parse in the browser (installs a global zod error map).
+import "@shared/validation-messages";
 import { AppProvider } from "./app/provider";
 import { AppRouter } from "./app/router";
 

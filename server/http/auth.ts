@@ -24,7 +24,9 @@ export function requireRole(...roles: Role[]) {
   return (_req: Request, res: Response, next: NextFunction) => {
     const user = currentUser(res);
     if (!hasRole(user, ...roles)) {
-      throw new Forbidden(`needs one of the roles: ${roles.join(", ")}`);
+      // Any one role suffices, so the roles are alternatives: "this needs the admin or approver role".
+      const named = roles.length > 1 ? `${roles.slice(0, -1).join(", ")} or ${roles[roles.length - 1]}` : roles[0];
+      throw new Forbidden(`This needs the ${named} role.`);
     }
     next();
   };

@@ -3,6 +3,7 @@ import { ZodError } from "zod";
 import { AppError, RateLimited } from "../platform/errors";
 import { httpStatusOf } from "./error-status";
 import { issuesToFields } from "../platform/validate";
+import { summarizeFields } from "../../shared/validation-messages";
 import { isDatabaseUnavailable } from "../db/errors";
 import { sizeLabel } from "./file-upload";
 
@@ -20,7 +21,7 @@ export function errorMiddleware(err: unknown, req: Request, res: Response, _next
   if (err instanceof AppError) return send(httpStatusOf(err), err.code, err.message, err.fields);
   if (err instanceof ZodError) {
     const fields = issuesToFields(err);
-    return send(400, "invalid", `invalid input: ${Object.keys(fields).join(", ")}`, fields);
+    return send(400, "invalid", summarizeFields(fields), fields);
   }
   const bp = err as BodyParserError;
   if (bp?.type === "entity.parse.failed")

@@ -1,4 +1,6 @@
 import { z } from "zod";
+// Side effect: our own validation wording for every parse (see the module).
+import "../validation-messages";
 
 /** Every error the API returns has this shape. */
 export const apiErrorSchema = z.object({

@@ -99,7 +99,7 @@ describe("plan workflow in a browser", () => {
 
     // The shared schema speaks before the server is asked.
     await form.getByRole("button", { name: "Save draft" }).click();
-    await form.getByText("Too small: expected string to have >=1 characters").waitFor();
+    await form.getByText("Title is required.").waitFor();
 
     await form.getByLabel("Title").fill(title);
     await form.getByLabel("Model", { exact: true }).selectOption({ label: profile.name });

@@ -1,4 +1,5 @@
 import type { FieldValues, Path, UseFormSetError } from "react-hook-form";
+import { pathOfKey, plainSentence } from "@shared/validation-messages";
 import { isApiError } from "./api-client";
 
 /**
@@ -13,7 +14,9 @@ export function applyApiErrors<T extends FieldValues>(
   if (!isApiError(error)) return "Something went wrong. Try again.";
   let placed = false;
   const leftover: string[] = [];
-  for (const [key, message] of Object.entries(error.fields ?? {})) {
+  for (const [key, raw] of Object.entries(error.fields ?? {})) {
+    // The server already speaks in sentences for what it parsed; a service's short reason ("retired") gets one too.
+    const message = plainSentence(pathOfKey(key), raw);
     const name = fieldNames.find((f) => f === key || key.startsWith(`${f}.`));
     if (name) {
       setError(name, { type: "server", message });

@@ -10,10 +10,10 @@ export const ROLE_LABELS: Record<Role, string> = {
 
 export const roleLabel = (role: Role) => ROLE_LABELS[role];
 
-/** "Researcher, Approver and Viewer" */
-export function formatList(items: readonly string[]): string {
+/** "Researcher, Approver and Viewer"; with "or" for alternatives: "admin or approver". */
+export function formatList(items: readonly string[], joiner: "and" | "or" = "and"): string {
   if (items.length <= 1) return items.join("");
-  return `${items.slice(0, -1).join(", ")} and ${items[items.length - 1]}`;
+  return `${items.slice(0, -1).join(", ")} ${joiner} ${items[items.length - 1]}`;
 }
 
 const dateFormat = new Intl.DateTimeFormat("en-GB", { day: "numeric", month: "short", year: "numeric" });

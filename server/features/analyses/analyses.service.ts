@@ -1,5 +1,6 @@
 import { analyse } from "../../engine";
 import { Invalid } from "../../platform/errors";
+import { invalidFields } from "../../platform/validate";
 import { analyseOffThread } from "./analyses.pool";
 import { takeHeavySlot } from "./analyses.limits";
 import {
@@ -23,8 +24,10 @@ function toModelShape(stored: Partial<Record<keyof ModelShape, unknown>>): Model
   for (const key of SHAPE_KEYS) if (stored[key] !== null && stored[key] !== undefined) picked[key] = stored[key];
   const parsed = rotaryShapeSchema.safeParse(picked);
   if (!parsed.success) {
-    const fields = Object.fromEntries(parsed.error.issues.map((i) => [["model", ...i.path].join("."), i.message]));
-    throw new Invalid("the stored model profile cannot be analysed", fields);
+    const { fields } = invalidFields(
+      parsed.error.issues.map((i) => ({ path: ["model", ...i.path], message: i.message })),
+    );
+    throw new Invalid("The stored model profile cannot be analysed.", fields);
   }
   return parsed.data;
 }
@@ -51,8 +54,7 @@ export async function analyseRequest(
   const model = "modelId" in input.model ? toModelShape(await resolveModel(input.model.modelId)) : input.model;
   const issues = modelDependentIssues(model, input.targetContext, input.methods);
   if (issues.length) {
-    const fields = Object.fromEntries(issues.map((i) => [i.path.join("."), i.message]));
-    throw new Invalid(`invalid body: ${Object.keys(fields).join(", ")}`, fields);
+    throw invalidFields(issues);
   }
   const request = { model, targetContext: input.targetContext, bands: input.bands, methods: input.methods };
   if (analysisWork(model, input.methods.length) <= ANALYSIS_INLINE_WORK) return analyse(request);

@@ -1,5 +1,6 @@
 import type { AppDeps } from "../../deps";
 import { Invalid, NotFound } from "../../platform/errors";
+import { invalidFields } from "../../platform/validate";
 import { exportPlan, TARGETS, TARGET_IDS } from "../../engine/targets";
 import { modelDependentIssues, rotaryShapeSchema, type ModelShape } from "../../../shared/schemas/analysis";
 import type { ExportRequest, ExportResponse } from "../../../shared/schemas/exports";
@@ -20,8 +21,10 @@ async function resolveModel(deps: AppDeps, input: ExportRequest["model"]) {
   if (!row) throw new NotFound("no such model profile");
   const parsed = rotaryShapeSchema.safeParse(rotaryShapeOf(row));
   if (!parsed.success) {
-    const fields = Object.fromEntries(parsed.error.issues.map((i) => [["model", ...i.path].join("."), i.message]));
-    throw new Invalid("the stored model profile cannot be exported", fields);
+    const { fields } = invalidFields(
+      parsed.error.issues.map((i) => ({ path: ["model", ...i.path], message: i.message })),
+    );
+    throw new Invalid("The stored model profile cannot be exported.", fields);
   }
   return { model: parsed.data, config: sourceConfigOf(row) };
 }
@@ -46,8 +49,10 @@ export async function exportRequest(deps: AppDeps, input: ExportRequest): Promis
 function refuseMisfits(model: ModelShape, input: ExportRequest) {
   const issues = modelDependentIssues(model, input.targetContext, [input.method]);
   if (!issues.length) return;
-  const fields = Object.fromEntries(
-    issues.map((i) => [(i.path[0] === "methods" ? ["method", ...i.path.slice(2)] : i.path).join("."), i.message]),
+  throw invalidFields(
+    issues.map((i) => ({
+      path: i.path[0] === "methods" ? ["method", ...i.path.slice(2)] : i.path,
+      message: i.message,
+    })),
   );
-  throw new Invalid(`invalid body: ${Object.keys(fields).join(", ")}`, fields);
 }

@@ -3,6 +3,7 @@ import { describe, expect, it } from "vitest";
 import { makeTestApp } from "../../setup/app";
 import { ownerTestDb, testDb } from "../../setup/db";
 import { createPlan, createProfile, decide, post } from "../../setup/plans";
+import { exportCurlExample } from "../../../client/src/features/tokens/curl-example";
 
 const { app, agentAs } = makeTestApp();
 
@@ -48,6 +49,20 @@ describe("API tokens", () => {
       .get(`/api/plans/${plan.id}/approved/export`)
       .set("Authorization", `Bearer ${secret}`);
     expect(after.status).toBe(401);
+  });
+
+  it("the profile page's curl line names a route a new token may call, with the header it needs", async () => {
+    const plan = await approvedPlan();
+    const infra = await agentAs(["infra"]);
+    const secret: string = (await post(infra, "/api/tokens", { name: "from the example" }).expect(201)).body.token;
+    const line = exportCurlExample("https://ropewalk.lab.test");
+    expect(line).toContain('-H "Authorization: Bearer $ROPEWALK_TOKEN"');
+    const url = new URL(line.match(/"(https:[^"]+)"/)![1]);
+    const exp = await request(app)
+      .get(`${url.pathname.replace("/42/", `/${plan.id}/`)}${url.search}`)
+      .set("Authorization", `Bearer ${secret}`)
+      .expect(200);
+    expect(exp.body.target.id).toBe(url.searchParams.get("target"));
   });
 
   it("a token cannot write, and a made-up token gets 401", async () => {

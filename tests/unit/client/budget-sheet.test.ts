@@ -50,8 +50,8 @@ describe("budget sheet inputs", () => {
     const built = (q: string) => buildRequest(sheetFromSearch(new URLSearchParams(q)), { model: { modelId: 1 } });
     const typo = built("acc=1&n=8&st=16384_6x4_200&st=32768__100");
     expect(typo.request).toBeNull();
-    expect(typo.issues["stages.0.globalBatch"]).toBe("not a number");
-    expect(typo.issues["stages.1.globalBatch"]).toBe("required");
+    expect(typo.issues["stages.0.globalBatch"]).toBe("Global batch of stage 1 must be a number.");
+    expect(typo.issues["stages.1.globalBatch"]).toBe("Global batch of stage 2 is required.");
     const tooWide = built("acc=1&n=8&sp=16&st=16384_64_200");
     expect(tooWide.request).toBeNull();
     expect(tooWide.issues.contextParallel).toMatch(/cannot exceed accelerators/);

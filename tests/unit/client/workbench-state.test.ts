@@ -45,7 +45,7 @@ describe("workbench state", () => {
     });
     const bad = toRequest({ ...base, target: "2048", methods: [{ method: "yarn", params: { factor: "x" } }] }, null);
     expect(bad.request).toBeNull();
-    expect(bad.errors["methods.0.factor"]).toBe("enter a number");
+    expect(bad.errors["methods.0.factor"]).toBe("Factor of method 1 must be a number.");
     const short = toRequest({ ...base, target: "2048" }, null);
     expect(Object.keys(short.errors)).toEqual(["targetContext"]);
   });

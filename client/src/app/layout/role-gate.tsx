@@ -15,7 +15,8 @@ export function RoleGate({ screen, children }: { screen: NavId; children: ReactN
   const audience = audienceOf(screen);
   if (canSee(audience, user.roles)) return children;
   const label = NAV.find((e) => e.id === screen)?.label ?? screen;
-  const needed = audience === "everyone" ? [] : audience.map(roleLabel);
+  // Any one of the listed roles opens the screen, so they are alternatives: "the admin or approver role".
+  const needed = audience === "everyone" ? [] : audience.map((r) => roleLabel(r).toLowerCase());
   return (
     <ErrorView
       eyebrow="Roped off"
@@ -24,8 +25,8 @@ export function RoleGate({ screen, children }: { screen: NavId; children: ReactN
       message={
         <>
           <p>
-            {label} is not allowed for your roles ({formatList(user.roles.map(roleLabel))}). It needs the{" "}
-            {formatList(needed)} role.
+            {label} is not allowed for your roles ({formatList(user.roles.map((r) => roleLabel(r).toLowerCase()))}). It
+            needs the {formatList(needed, "or")} role.
           </p>
           <p className="mt-2 text-body">If you need it, ask an admin to add the role to your account.</p>
         </>

@@ -27,7 +27,7 @@ const POINTERS: Record<Role, Pointer> = {
     link: { to: paths.review(), label: "Open the review queue" },
   },
   viewer: {
-    text: "Read plans, their figures and who signed them.",
+    text: "Read every plan as it stands, drafts and reviews included, with its figures and who signed which revision.",
     link: { to: paths.plans(), label: "Browse plans" },
   },
 };

@@ -9,7 +9,7 @@ export function ProfileEditorsOnly() {
       eyebrow="Roped off"
       testId="not-allowed"
       title="Not allowed"
-      message="Creating and importing profiles needs the Researcher, Infra lead or Admin role. You can still read every profile and analyse it in the workbench."
+      message="Creating and importing profiles needs the researcher, infra lead or admin role. You can still read every profile and analyse it in the workbench."
       action={
         <Link className="text-seaglass underline underline-offset-4" to={paths.models()}>
           Back to profiles

@@ -24,7 +24,7 @@ export function PlanNewRoute() {
         eyebrow="Roped off"
         testId="not-allowed"
         title="Not allowed"
-        message={<p>Drafting a plan needs the Researcher role. Ask an admin to add it if you need it.</p>}
+        message={<p>Drafting a plan needs the researcher role. Ask an admin to add it if you need it.</p>}
         action={
           <Link className="text-seaglass underline underline-offset-4" to={paths.plans()}>
             Back to plans

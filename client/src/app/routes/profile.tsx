@@ -4,6 +4,7 @@ import { roleLabel } from "@/lib/format";
 import { ChangePasswordForm } from "@/features/auth/components/change-password-form";
 import { useCurrentUser } from "@/features/auth/hooks/use-session";
 import { TokenManager } from "@/features/tokens/components/token-manager";
+import { TokenUsage } from "@/features/tokens/components/token-usage";
 
 export function ProfileRoute() {
   const user = useCurrentUser();
@@ -32,6 +33,9 @@ export function ProfileRoute() {
           and can only read.
         </p>
         <TokenManager />
+        <div className="mt-6">
+          <TokenUsage />
+        </div>
       </Panel>
     </Page>
   );

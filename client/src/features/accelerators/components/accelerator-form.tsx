@@ -1,6 +1,6 @@
 import { useState } from "react";
 import { Controller, useForm } from "react-hook-form";
-import { zodResolver } from "@hookform/resolvers/zod";
+import { formResolver } from "@/lib/form-resolver";
 import { acceleratorInputSchema, type Accelerator } from "@shared/schemas/budget";
 import { Button, SubmitButton } from "@/components/button";
 import { TextField } from "@/components/field";
@@ -20,7 +20,7 @@ export function AcceleratorForm({ editing, onDone, onCancel }: Props) {
   const update = useUpdateAccelerator();
   const [formError, setFormError] = useState<string | null>(null);
   const { register, control, handleSubmit, setError, formState } = useForm({
-    resolver: zodResolver(acceleratorInputSchema),
+    resolver: formResolver(acceleratorInputSchema),
     defaultValues: editing
       ? {
           name: editing.name,

@@ -1,6 +1,6 @@
 import { useState } from "react";
 import { useForm } from "react-hook-form";
-import { zodResolver } from "@hookform/resolvers/zod";
+import { formResolver } from "@/lib/form-resolver";
 import { z } from "zod";
 import { changePasswordRequestSchema, PASSWORD_MIN } from "@shared/schemas/auth";
 import { SubmitButton } from "@/components/button";
@@ -25,7 +25,7 @@ export function ChangePasswordForm() {
   const [formError, setFormError] = useState<string | null>(null);
   const [done, setDone] = useState(false);
   const { register, handleSubmit, setError, reset, formState } = useForm({
-    resolver: zodResolver(formSchema),
+    resolver: formResolver(formSchema),
     defaultValues: { currentPassword: "", newPassword: "", confirmPassword: "" },
   });
   const { errors } = formState;

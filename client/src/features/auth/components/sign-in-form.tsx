@@ -1,6 +1,6 @@
 import { useState } from "react";
 import { useForm } from "react-hook-form";
-import { zodResolver } from "@hookform/resolvers/zod";
+import { formResolver } from "@/lib/form-resolver";
 import { loginRequestSchema, type SessionUser } from "@shared/schemas/auth";
 import { SubmitButton } from "@/components/button";
 import { TextField } from "@/components/field";
@@ -21,7 +21,7 @@ export function SignInForm({ onSignedIn }: { onSignedIn: (user: SessionUser) => 
   const login = useLogin();
   const [formError, setFormError] = useState<string | null>(null);
   const { register, handleSubmit, setError, formState } = useForm({
-    resolver: zodResolver(loginRequestSchema),
+    resolver: formResolver(loginRequestSchema),
     defaultValues: { email: "", password: "" },
   });
   const { errors } = formState;

@@ -8,6 +8,7 @@ import {
   type ModelRequest,
 } from "@shared/schemas/budget";
 import { GIB, TFLOPS } from "@/lib/format";
+import { plainSentence } from "@shared/validation-messages";
 import { parseNumberText } from "@/lib/number-text";
 
 export type RecipeId = (typeof BUDGET_RECIPE_IDS)[number];
@@ -167,21 +168,7 @@ export function issuesByPath(error: z.ZodError): Record<string, string> {
   const issues: Record<string, string> = {};
   for (const issue of error.issues) {
     const key = issue.path.join(".") === "model.vocabSize" ? "vocabSize" : issue.path.join(".");
-    issues[key] ??= plainMessage(issue);
+    issues[key] ??= plainSentence(issue.path, issue.message);
   }
   return issues;
-}
-
-/** zod's wording, shortened for a message under a small input. */
-function plainMessage(issue: z.core.$ZodIssue): string {
-  if (issue.code === "invalid_type") {
-    if (issue.expected === "int") return "must be a whole number";
-    // zod 4 leaves the input out of issues unless asked; its message names what it received.
-    return /received undefined/.test(issue.message) ? "required" : "not a number";
-  }
-  if (issue.code === "too_small")
-    return `must be ${issue.inclusive === false ? "above" : "at least"} ${Number(issue.minimum)}`;
-  if (issue.code === "too_big") return `must be at most ${Number(issue.maximum).toLocaleString("en-GB")}`;
-  if (issue.code === "invalid_value") return "pick one";
-  return issue.message;
 }

@@ -1,6 +1,6 @@
 import { useState } from "react";
 import { useForm, useWatch, type FieldNamesMarkedBoolean } from "react-hook-form";
-import { zodResolver } from "@hookform/resolvers/zod";
+import { formResolver } from "@/lib/form-resolver";
 import { modelProfileInputSchema, type ModelProfileInput, type ModelProfileValues } from "@shared/schemas/models";
 import { SubmitButton } from "@/components/button";
 import { TextAreaField, TextField } from "@/components/field";
@@ -8,16 +8,6 @@ import { Notice } from "@/components/notice";
 import { applyApiErrors } from "@/lib/form-errors";
 import { PROFILE_FIELD_NAMES, PROFILE_SECTIONS, toNumber } from "./profile-fields";
 import { RotaryShapeSummary } from "./rotary-shape-summary";
-
-/** Plainer words than zod's defaults for the two things people do most: leave a box empty, or type a non-number. */
-const friendlyErrors = {
-  error: (issue: { code: string; input?: unknown; origin?: string }) => {
-    if (issue.code === "invalid_type" && issue.input === undefined) return "required";
-    if (issue.code === "invalid_type" && typeof issue.input === "number") return "enter a number";
-    if (issue.code === "too_small" && issue.origin === "string") return "required";
-    return undefined;
-  },
-};
 
 export type ProfileFormProps = {
   defaultValues: Partial<ModelProfileInput>;
@@ -47,7 +37,7 @@ export function ProfileForm({ defaultValues, submitLabel, busyLabel, busy, onSub
     unknown,
     ModelProfileValues
   >({
-    resolver: zodResolver(modelProfileInputSchema, friendlyErrors),
+    resolver: formResolver(modelProfileInputSchema),
     defaultValues,
   });
   const { errors, dirtyFields } = formState;

@@ -1,7 +1,7 @@
 import { useEffect, useRef, useState } from "react";
 import { useForm, useWatch } from "react-hook-form";
 import { useQuery } from "@tanstack/react-query";
-import { zodResolver } from "@hookform/resolvers/zod";
+import { formResolver } from "@/lib/form-resolver";
 import { decisionRequestSchema } from "@shared/schemas/plans";
 import { Button, SubmitButton } from "@/components/button";
 import { Field } from "@/components/field";
@@ -39,7 +39,7 @@ export function DecisionDialog({ target, onClose, onDecided }: DecisionDialogPro
   // The hash shown when the dialog opened is the one signed, even if the page refreshes underneath.
   const [shownHash] = useState(target.contentHash);
   const { register, handleSubmit, control, formState } = useForm({
-    resolver: zodResolver(decisionFormSchema),
+    resolver: formResolver(decisionFormSchema),
     defaultValues: { decision: "approve" as const, comment: "" },
   });
   const decision = useWatch({ control, name: "decision" });

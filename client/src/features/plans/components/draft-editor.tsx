@@ -1,6 +1,6 @@
 import { useState, type ReactNode } from "react";
 import { FormProvider, useForm } from "react-hook-form";
-import { zodResolver } from "@hookform/resolvers/zod";
+import { formResolver } from "@/lib/form-resolver";
 import type { RevisionResponse } from "@shared/schemas/plans";
 import type { RevisionValues, UpdateRevisionRequest } from "@shared/schemas/plans";
 import { Button, SubmitButton } from "@/components/button";
@@ -50,7 +50,7 @@ export function DraftEditor({ planId, revision, onReload, onSaved, afterStages }
   const [problem, setProblem] = useState<Problem | null>(null);
   const [saved, setSaved] = useState<string | null>(null);
   const form = useForm({
-    resolver: zodResolver(editRevisionFormSchema),
+    resolver: formResolver(editRevisionFormSchema),
     defaultValues: { revision: revisionValuesOf(revision.content) },
   });
   // Read during render so react-hook-form keeps dirtyFields up to date (its form state is a subscription proxy).

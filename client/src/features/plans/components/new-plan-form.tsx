@@ -1,6 +1,6 @@
 import { useState, type ReactNode } from "react";
 import { FormProvider, useForm, useWatch } from "react-hook-form";
-import { zodResolver } from "@hookform/resolvers/zod";
+import { formResolver } from "@/lib/form-resolver";
 import { createPlanRequestSchema } from "@shared/schemas/plans";
 import type { PlanDetail } from "@shared/schemas/plans";
 import type { ModelProfile } from "@shared/schemas/models";
@@ -27,7 +27,7 @@ export function NewPlanForm({ models, minApprovals, onCreated, afterStages }: Ne
   const create = useCreatePlan();
   const [formError, setFormError] = useState<string | null>(null);
   const form = useForm({
-    resolver: zodResolver(createPlanRequestSchema),
+    resolver: formResolver(createPlanRequestSchema),
     defaultValues: {
       title: "",
       purpose: "",

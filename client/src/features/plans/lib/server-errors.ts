@@ -1,5 +1,6 @@
 import type { FieldValues, Path, UseFormSetError } from "react-hook-form";
 import { isApiError } from "@/lib/api-client";
+import { fieldLabel, pathOfKey, plainSentence } from "@shared/validation-messages";
 import { formPathOf } from "./form-values";
 
 /** Form paths that have an input on screen; a server field under one of them is shown beside it. */
@@ -24,14 +25,15 @@ export function placeServerErrors<T extends FieldValues>(error: unknown, setErro
   if (!isApiError(error)) return "Something went wrong. Try again.";
   const leftover: string[] = [];
   let placed = 0;
-  for (const [key, message] of Object.entries(error.fields ?? {})) {
+  for (const [key, raw] of Object.entries(error.fields ?? {})) {
+    const message = plainSentence(pathOfKey(key), raw);
     const path = formPathOf(key);
     if (PLACED.some((p) => path === p || path.startsWith(`${p}.`))) {
       setError(path as Path<T>, { type: "server", message });
       placed += 1;
-    } else leftover.push(`${key}: ${message}`);
+    } else leftover.push(message);
   }
-  if (leftover.length) return `${error.message} (${leftover.join("; ")})`;
+  if (leftover.length) return leftover.join(" ");
   return placed ? null : error.message;
 }
 
@@ -49,6 +51,7 @@ export function errorPaths(errors: object, prefix = ""): string[] {
 
 /** The line above a form that did not pass its own checks, so a mark further down the page is not missed. */
 export const invalidSummary = (errors: object) => {
-  const paths = errorPaths(errors).map((p) => p.replace(/^revision\./, ""));
-  return `Nothing was saved: ${paths.length} value${paths.length === 1 ? " needs" : "s need"} fixing (${paths.join(", ")}); each is marked beside its field.`;
+  const labels = [...new Set(errorPaths(errors).map((p) => fieldLabel(pathOfKey(p.replace(/^revision\./, "")))))];
+  const named = labels.length > 1 ? `${labels.slice(0, -1).join(", ")} and ${labels[labels.length - 1]}` : labels[0];
+  return `Nothing was saved: check ${named}; each is marked beside its field.`;
 };

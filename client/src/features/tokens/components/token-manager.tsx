@@ -1,7 +1,7 @@
 import { useState } from "react";
 import { useQuery } from "@tanstack/react-query";
 import { Controller, useForm } from "react-hook-form";
-import { zodResolver } from "@hookform/resolvers/zod";
+import { formResolver } from "@/lib/form-resolver";
 import { createColumnHelper } from "@tanstack/react-table";
 import { createTokenRequestSchema, DEFAULT_TOKEN_SCOPES, type ApiToken } from "@shared/schemas/tokens";
 import { Button, SubmitButton } from "@/components/button";
@@ -26,7 +26,7 @@ export function TokenManager() {
   const [fresh, setFresh] = useState<{ name: string; token: string } | null>(null);
   const [message, setMessage] = useState<{ tone: "success" | "alert"; text: string } | null>(null);
   const { register, control, handleSubmit, setError, reset, formState } = useForm({
-    resolver: zodResolver(createTokenRequestSchema),
+    resolver: formResolver(createTokenRequestSchema),
     defaultValues: { name: "", scopes: DEFAULT_TOKEN_SCOPES },
   });
 

@@ -1,6 +1,6 @@
 import { useState } from "react";
 import { Controller, useForm } from "react-hook-form";
-import { zodResolver } from "@hookform/resolvers/zod";
+import { formResolver } from "@/lib/form-resolver";
 import { createUserRequestSchema } from "@shared/schemas/users";
 import { PASSWORD_MIN } from "@shared/schemas/auth";
 import { SubmitButton } from "@/components/button";
@@ -18,7 +18,7 @@ export function CreateUserForm() {
   const [formError, setFormError] = useState<string | null>(null);
   const [created, setCreated] = useState<string | null>(null);
   const { register, control, handleSubmit, setError, reset, formState } = useForm({
-    resolver: zodResolver(createUserRequestSchema),
+    resolver: formResolver(createUserRequestSchema),
     defaultValues: { name: "", email: "", password: "", roles: [] },
   });
   const { errors } = formState;

@@ -7,7 +7,8 @@ const ROLE_DUTIES: Record<Role, string> = {
   researcher: "drafts scaling plans",
   infra: "owns budgets and accelerators",
   approver: "reviews and signs plans",
-  viewer: "reads signed plans",
+  // Viewers read every plan as it stands, drafts included (the API lets them), and change nothing.
+  viewer: "reads every plan, drafts included; changes nothing",
 };
 
 /** One checkbox per role, with what the role does; the value is a Role[] (use through react-hook-form's Controller). */

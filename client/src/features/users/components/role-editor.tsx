@@ -1,6 +1,6 @@
 import { useState } from "react";
 import { Controller, useForm } from "react-hook-form";
-import { zodResolver } from "@hookform/resolvers/zod";
+import { formResolver } from "@/lib/form-resolver";
 import { createUserRequestSchema, type User } from "@shared/schemas/users";
 import { Button } from "@/components/button";
 import { Notice } from "@/components/notice";
@@ -23,7 +23,7 @@ export function RoleEditor({
   const update = useUpdateUser();
   const [formError, setFormError] = useState<string | null>(null);
   const { control, handleSubmit, setError } = useForm({
-    resolver: zodResolver(rolesSchema),
+    resolver: formResolver(rolesSchema),
     defaultValues: { roles: user.roles },
   });
 

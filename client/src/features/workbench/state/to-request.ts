@@ -5,6 +5,7 @@ import {
   type MethodParams,
   type ModelShape,
 } from "@shared/schemas/analysis";
+import { plainSentence } from "@shared/validation-messages";
 import type { MethodRow, WorkbenchInputs } from "./inputs";
 import { methodEntry } from "./method-fields";
 
@@ -37,19 +38,6 @@ function methodBody(row: MethodRow): Record<string, unknown> {
   return body;
 }
 
-/** Plainer words than zod's defaults for an empty or non-numeric box. */
-const friendly = {
-  error: (issue: { code: string; input?: unknown }) => {
-    if (issue.code === "invalid_type" && issue.input === undefined) return "required";
-    if (issue.code === "invalid_type" && typeof issue.input === "number") return "enter a number";
-    return undefined;
-  },
-};
-
-/** The same for messages made inside the model's own parse (the inline shape). */
-const plain = (message: string) =>
-  /received undefined/.test(message) ? "required" : /received NaN/.test(message) ? "enter a number" : message;
-
 /**
  * The POST /api/analyses body for the inputs, checked with the shared contract. For a saved profile the rules that
  * need the model (target above the trained length, list lengths) run here too, on the profile's shape.
@@ -80,14 +68,14 @@ export function toRequest(
     ...(alpha !== undefined || beta !== undefined ? { bands: { alpha: alpha ?? 1, beta: beta ?? 32 } } : {}),
     methods: inputs.methods.map(methodBody),
   };
-  const parsed = analysisRequestSchema.safeParse(body, friendly);
+  const parsed = analysisRequestSchema.safeParse(body);
   const errors: FieldErrors = {};
   if (!parsed.success) {
     for (const issue of parsed.error.issues) {
       const key = issue.path.join(".") || "(body)";
-      errors[key] ??= plain(issue.message);
+      errors[key] ??= plainSentence(issue.path, issue.message);
     }
-    if (m.kind === "saved" && m.id === null) errors.model = "pick a profile";
+    if (m.kind === "saved" && m.id === null) errors.model = "Pick a model profile.";
     return { request: null, errors };
   }
   if (savedShape) {
@@ -96,7 +84,7 @@ export function toRequest(
       parsed.data.targetContext,
       parsed.data.methods as MethodParams[],
     )) {
-      errors[issue.path.join(".")] ??= issue.message;
+      errors[issue.path.join(".")] ??= plainSentence(issue.path, issue.message);
     }
     if (Object.keys(errors).length) return { request: null, errors };
   }

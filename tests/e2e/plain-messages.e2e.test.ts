@@ -1,0 +1,80 @@
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Browser, BrowserContext, Page } from "playwright-core";
+import { launchBrowser, requireBuiltClient, screenshot, signIn } from "../setup/browser";
+import { startTestServer } from "../setup/server";
+import { createTestUser, type TestUser } from "../setup/users";
+import { RAW_VALIDATOR_TEXT } from "../setup/raw-validator-text";
+
+/*
+ * Every form sent empty answers in plain sentences that name the field ("Title is required."), never in the
+ * validator's own words ("Too small: expected string to have >=1 characters") or a list of raw keys ("(title, modelId)").
+ */
+let server: Awaited<ReturnType<typeof startTestServer>>;
+let browser: Browser;
+let everyone: TestUser;
+const contexts: BrowserContext[] = [];
+
+beforeAll(async () => {
+  requireBuiltClient();
+  [server, browser, everyone] = await Promise.all([
+    startTestServer(),
+    launchBrowser(),
+    createTestUser(["admin", "researcher", "infra", "approver"], "Plain Words"),
+  ]);
+});
+
+afterAll(async () => {
+  for (const c of contexts) await c.close().catch(() => undefined);
+  await browser?.close();
+  await server?.close();
+});
+
+async function newPage(): Promise<Page> {
+  const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+  contexts.push(context);
+  return context.newPage();
+}
+
+/** Sends every form on the screen with its boxes as they are (empty), and returns what the screen then says. */
+async function submitEveryForm(page: Page): Promise<string> {
+  const forms = page.locator("form");
+  const count = await forms.count();
+  for (let i = 0; i < count; i++) {
+    const submit = forms.nth(i).locator('button[type="submit"]').first();
+    if (await submit.isVisible()) await submit.click();
+  }
+  await page.waitForTimeout(300);
+  return page.locator("body").innerText();
+}
+
+describe("empty forms answer in plain sentences", () => {
+  it("the sign-in form", async () => {
+    const page = await newPage();
+    await page.goto(`${server.url}/sign-in`);
+    await page.getByLabel("E-mail").waitFor();
+    const text = await submitEveryForm(page);
+    expect(text).toContain("E-mail is required.");
+    expect(text).not.toMatch(RAW_VALIDATOR_TEXT);
+  }, 60_000);
+
+  it("new plan, new profile, accelerators, users and profile forms", async () => {
+    const page = await newPage();
+    await page.goto(`${server.url}/plans/new`);
+    await signIn(page, everyone);
+    const expected: Record<string, string[]> = {
+      "/plans/new": ["Title is required.", "Model is required.", "Nothing was saved: check title"],
+      "/models/new": ["Name is required."],
+      "/accelerators": ["Name is required."],
+      "/users": ["E-mail is required.", "Name is required."],
+      "/profile": ["Name is required."],
+    };
+    for (const [url, sentences] of Object.entries(expected)) {
+      await page.goto(`${server.url}${url}`);
+      await page.locator("form").first().waitFor({ timeout: 20_000 });
+      const text = await submitEveryForm(page);
+      await screenshot(page, `plain-messages${url.replace(/\//g, "-")}`);
+      expect(text.match(RAW_VALIDATOR_TEXT)?.[0] ?? null, url).toBeNull();
+      for (const sentence of sentences) expect(text, url).toContain(sentence);
+    }
+  }, 180_000);
+});
