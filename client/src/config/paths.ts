@@ -106,6 +106,10 @@ export const apiPaths = {
   exports: () => api("/exports"),
   conformanceChecks: (id: number) => api(`/plans/${id}/conformance-checks`),
   revisionConformanceChecks: (id: number, n: number) => api(`${rev(id, n)}/conformance-checks`),
+  // evaluation evidence and proof of an approved revision
+  revisionEvidence: (id: number, n: number) => api(`${rev(id, n)}/evidence`),
+  evidenceFile: (id: number, n: number, evidenceId: number) => api(`${rev(id, n)}/evidence/${evidenceId}/file`),
+  revisionProof: (id: number, n: number) => api(`${rev(id, n)}/proof`),
   tokens: () => api("/tokens"),
   token: (id: number) => api(`/tokens/${id}`),
   audit: (query?: QueryValues) => withQuery("/audit", query),

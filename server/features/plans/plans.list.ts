@@ -2,6 +2,7 @@ import { sql, type SQL } from "drizzle-orm";
 import type { Executor } from "../../db/client";
 import type { planListQuerySchema, RevisionState } from "../../../shared/schemas";
 import type { z } from "zod";
+import type { ProofState } from "../../../shared/schemas/evidence-api";
 import { cappedCount, containsPattern } from "../../platform/paging";
 
 type Query = z.output<typeof planListQuerySchema>;
@@ -33,6 +34,8 @@ export type PlanListRow = {
   latest_number: number;
   latest_state: RevisionState;
   approved_number: number | null;
+  /** the approved revision's proof (null: none yet, or no approved revision) */
+  approved_proof: ProofState | null;
 };
 
 /**
@@ -79,8 +82,10 @@ export async function listPlanPage(ex: Executor, q: Query) {
       ORDER BY ${order}
       LIMIT ${q.pageSize} OFFSET ${(q.page - 1) * q.pageSize})
     SELECT p.id, p.title, p.purpose, p.owner_id, u.name AS owner_name, p.model_id, m.name AS model_name,
-           p.required_approvals, p.created_at, p.updated_at, p.latest_number, p.latest_state, p.approved_number
+           p.required_approvals, p.created_at, p.updated_at, p.latest_number, p.latest_state, p.approved_number,
+           ar.proof AS approved_proof
     FROM page JOIN plans p ON p.id = page.id
+    LEFT JOIN plan_revisions ar ON ar.plan_id = p.id AND ar.number = p.approved_number
     JOIN users u ON u.id = p.owner_id
     JOIN model_profiles m ON m.id = p.model_id
     ORDER BY ${order}`);

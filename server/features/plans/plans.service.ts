@@ -221,6 +221,7 @@ export async function listPlans(deps: AppDeps, q: z.output<typeof planListQueryS
       state: r.latest_state,
       latestRevision: r.latest_number,
       approvedRevision: r.approved_number,
+      proof: r.approved_proof,
       createdAt: new Date(r.created_at).toISOString(),
       updatedAt: new Date(r.updated_at).toISOString(),
     })),

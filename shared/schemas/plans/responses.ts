@@ -4,6 +4,7 @@ import { revisionBudgetSchema } from "../budget";
 import { pagedTotal } from "../common";
 import { targetExportSchema } from "../exports";
 import { layerGroupSchema } from "../models";
+import { PROOF_STATES } from "../evidence-api";
 import {
   acceptanceCriterionSchema,
   decisionSchema,
@@ -31,6 +32,8 @@ export const planListItemSchema = z.object({
   state: revisionStateSchema,
   latestRevision: z.number(),
   approvedRevision: z.number().nullable(),
+  /** the approved revision's proof decision; null while it has none (or nothing is approved) */
+  proof: z.enum(PROOF_STATES).nullable(),
   createdAt: z.string(),
   updatedAt: z.string(),
 });

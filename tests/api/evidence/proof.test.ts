@@ -87,6 +87,15 @@ describe("proof: an approved revision whose criteria pass is proven; one that fa
     expect(mail[0].body).toContain("the bar is 0.99");
     const listed = await p.researcher.get("/api/plans?proof=unproven&pageSize=100").expect(200);
     expect(JSON.stringify(listed.body)).toContain(`"id":${p.planId},`);
+    // Each listed plan carries its approved revision's proof, so the list can show it beside the state.
+    const item = (listed.body.plans as { id: number; proof: string | null }[]).find((x) => x.id === p.planId);
+    expect(item?.proof).toBe("unproven");
+    const undecided = await approvedPlanWith(agentAs, []);
+    const none = await p.researcher.get("/api/plans?proof=none&pageSize=100").expect(200);
+    const undecidedItem = (none.body.plans as { id: number; proof: string | null }[]).find(
+      (x) => x.id === undecided.planId,
+    );
+    expect(undecidedItem?.proof).toBeNull();
     const proven = await p.researcher.get("/api/plans?proof=proven&pageSize=100").expect(200);
     expect(JSON.stringify(proven.body)).not.toContain(`"id":${p.planId},`);
   });

@@ -26,6 +26,7 @@ import { ProbeChecks } from "@/features/plans/components/probe-checks";
 import { exportRequestOf } from "@/features/plans/lib/export-request";
 import { ExportTargets } from "@/components/export-targets";
 import { exportsQueries } from "@/lib/api/exports";
+import { EvidenceSection } from "@/features/evidence";
 import { RevisionCharts } from "./plan-charts";
 
 const flagRows = (content: RevisionContent) => [
@@ -184,6 +185,27 @@ export function PlanRoute() {
               <Panel title="Acceptance criteria">
                 <AcceptanceList criteria={content.acceptance} />
               </Panel>
+              {(summary.state === "approved" || summary.state === "superseded") && (
+                <Panel title="Evidence and proof">
+                  <EvidenceSection
+                    planId={p.id}
+                    n={n}
+                    criteria={content.acceptance}
+                    canUpload={
+                      user.roles.includes("researcher") && (p.owner?.id === user.id || summary.author?.id === user.id)
+                    }
+                    canProve={user.roles.includes("approver") && summary.author?.id !== user.id}
+                    onProofRecorded={(verdict) => {
+                      setNotice(
+                        verdict === "proven"
+                          ? `Revision ${n} is proven and the decision is signed.`
+                          : `Revision ${n} is marked not proven; the reason is signed with it.`,
+                      );
+                      void refreshPlan(p.id);
+                    }}
+                  />
+                </Panel>
+              )}
               {content.budget && (
                 <Panel title="Budget">
                   <BudgetPanel budget={content.budget} />

@@ -1,4 +1,6 @@
 import { REVISION_STATES, type RevisionState } from "@shared/schemas/plans";
+import { PROOF_LABELS } from "@shared/schemas/evidence-api";
+import { PROOF_NONE_LABEL } from "@/components/proof-badge";
 import { ChoiceField, Field, TextInput } from "@/components/field";
 import { Button } from "@/components/button";
 import { useDebouncedText } from "@/lib/search-state";
@@ -20,12 +22,12 @@ const asOptions = (items: Option[]) => items.map((o) => ({ value: String(o.id), 
 export function PlanFilters({ params, onChange, models, owners }: PlanFiltersProps) {
   const [text, setText] = useDebouncedText(params.q ?? "", (q) => onChange({ q }));
 
-  const filtered = params.state || params.ownerId || params.modelId || params.q;
+  const filtered = params.state || params.proof || params.ownerId || params.modelId || params.q;
   return (
     <form
       role="search"
       aria-label="Filter plans"
-      className="grid gap-3 sm:grid-cols-2 lg:grid-cols-[2fr_1fr_1fr_1fr_auto] lg:items-end"
+      className="grid gap-3 sm:grid-cols-2 lg:grid-cols-[2fr_1fr_1fr_1fr_1fr_auto] lg:items-end"
       onSubmit={(e) => e.preventDefault()}
     >
       <Field label="Search plans">
@@ -47,6 +49,17 @@ export function PlanFilters({ params, onChange, models, owners }: PlanFiltersPro
         onChange={(v) => onChange({ state: (v || undefined) as RevisionState | undefined })}
       />
       <ChoiceField
+        label="Proof"
+        emptyLabel="Any proof"
+        value={params.proof ?? ""}
+        options={[
+          { value: "proven", label: PROOF_LABELS.proven },
+          { value: "unproven", label: PROOF_LABELS.unproven },
+          { value: "none", label: `${PROOF_NONE_LABEL} (approved)` },
+        ]}
+        onChange={(v) => onChange({ proof: (v || undefined) as PlanListParams["proof"] })}
+      />
+      <ChoiceField
         label="Owner"
         emptyLabel="Anyone"
         value={String(params.ownerId ?? "")}
@@ -66,7 +79,7 @@ export function PlanFilters({ params, onChange, models, owners }: PlanFiltersPro
           disabled={!filtered}
           onClick={() => {
             setText("");
-            onChange({ state: undefined, ownerId: undefined, modelId: undefined, q: undefined });
+            onChange({ state: undefined, proof: undefined, ownerId: undefined, modelId: undefined, q: undefined });
           }}
         >
           Clear filters

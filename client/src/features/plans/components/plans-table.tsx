@@ -4,6 +4,7 @@ import { TableView } from "@/components/table-view";
 import type { PlanListItem } from "@shared/schemas/plans";
 import { paths } from "@/config/paths";
 import { formatDate } from "@/lib/format";
+import { ProofBadge } from "@/components/proof-badge";
 import { StateBadge } from "./state-badge";
 
 export type PlanSort = "updatedAt" | "createdAt" | "title" | "state" | "owner" | "model";
@@ -35,6 +36,13 @@ const columns = [
     ),
   }),
   column.accessor("state", { header: "State", cell: (c) => <StateBadge state={c.getValue()} /> }),
+  column.display({
+    id: "proof",
+    header: "Proof",
+    // Only a plan with an approved revision can be proof-tested; the rest have nothing to show here.
+    cell: ({ row: { original: p } }) =>
+      p.approvedRevision === null ? <span className="text-ink-soft">—</span> : <ProofBadge proof={p.proof} />,
+  }),
   column.accessor((p) => p.owner.name, { id: "owner", header: "Owner" }),
   column.accessor((p) => p.model.name, { id: "model", header: "Model" }),
   column.display({

@@ -1,0 +1,75 @@
+import { AxisBottom } from "@visx/axis";
+import { scaleLog } from "@visx/scale";
+import { Line } from "@visx/shape";
+import { AXIS, lengthLabel } from "./chart-frame";
+
+/** Powers of two from lo to hi, thinned to at most `max` ticks. */
+export function powerOfTwoTicks(lo: number, hi: number, max: number): number[] {
+  const ticks: number[] = [];
+  for (let p = 2 ** Math.ceil(Math.log2(lo)); p <= hi; p *= 2) ticks.push(p);
+  const step = Math.ceil(ticks.length / Math.max(1, max));
+  return ticks.filter((_, i) => i % step === 0);
+}
+
+/** A log2 length scale covering the measured lengths and the marked ones, padded a little either side. */
+export function lengthScale(values: number[], innerW: number) {
+  const lo = Math.min(...values);
+  const hi = Math.max(...values);
+  const domain: [number, number] = [lo / 1.25, hi === lo ? hi * 2 : hi * 1.25];
+  return scaleLog<number>({ domain, range: [0, innerW], base: 2 });
+}
+
+export function LengthAxis({
+  scale,
+  top,
+  maxTicks,
+}: {
+  scale: ReturnType<typeof lengthScale>;
+  top: number;
+  maxTicks: number;
+}) {
+  const [lo, hi] = scale.domain() as [number, number];
+  return (
+    <AxisBottom
+      top={top}
+      scale={scale}
+      tickValues={powerOfTwoTicks(lo, hi, maxTicks)}
+      tickFormat={(v) => lengthLabel(Number(v))}
+      label="context length (tokens, log scale)"
+      {...AXIS}
+      tickLabelProps={{ ...AXIS.tickLabelProps, textAnchor: "middle" }}
+    />
+  );
+}
+
+/** A vertical line at a length, labelled at the top. */
+export function LengthMarker({
+  x,
+  height,
+  colour,
+  label,
+  dashed = false,
+  anchor = "start",
+}: {
+  x: number;
+  height: number;
+  colour: string;
+  label: string;
+  dashed?: boolean;
+  anchor?: "start" | "end";
+}) {
+  return (
+    <g data-marker={label.split(" ")[0]}>
+      <Line
+        from={{ x, y: 0 }}
+        to={{ x, y: height }}
+        stroke={colour}
+        strokeWidth={1.5}
+        strokeDasharray={dashed ? "5 3" : undefined}
+      />
+      <text x={x} dx={anchor === "start" ? 3 : -3} y={10} textAnchor={anchor} fontSize={10} fill={colour}>
+        {label}
+      </text>
+    </g>
+  );
+}

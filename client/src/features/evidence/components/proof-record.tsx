@@ -1,0 +1,50 @@
+import type { Proof, ProofState } from "@shared/schemas/evidence-api";
+import { ProofBadge } from "@/components/proof-badge";
+import { formatDateTime, shortHash } from "@/lib/format";
+
+const SIGNATURE_WORDS: Record<Proof["signatureStatus"], string> = {
+  valid: "signature holds",
+  invalid: "SIGNATURE DOES NOT HOLD",
+  missing: "no signature",
+  unknown_key: "signed with a key this server does not know",
+};
+
+/** The revision's proof state and every proof decision, newest first, each with what it signed and whether it holds. */
+export function ProofRecord({ proof, proofs }: { proof: ProofState | null; proofs: Proof[] }) {
+  const latest = proofs.at(-1);
+  return (
+    <div className="flex flex-col gap-2" data-testid="proof-record">
+      <p className="flex flex-wrap items-center gap-2 text-body">
+        <ProofBadge proof={proof} />
+        {latest ? (
+          <span className="text-note text-ink-soft">
+            by {latest.by.name} · {formatDateTime(latest.at)} ·{" "}
+            <span
+              data-testid="proof-signature"
+              data-signature={latest.signatureStatus}
+              className={latest.signatureStatus === "valid" ? "text-seaglass-dark" : "font-semibold text-signal-dark"}
+            >
+              {SIGNATURE_WORDS[latest.signatureStatus]}
+            </span>{" "}
+            (key {latest.keyId})
+          </span>
+        ) : (
+          <span className="text-note text-ink-soft">No approver has proof-tested this revision yet.</span>
+        )}
+      </p>
+      {proofs.length > 0 && (
+        <ol className="flex flex-col gap-1 text-note text-ink-soft" aria-label="Proof decisions">
+          {[...proofs].reverse().map((p) => (
+            <li key={p.id} data-proof-decision={p.id}>
+              {p.verdict === "proven" ? "Proven" : "Not proven"} by {p.by.name}, {formatDateTime(p.at)}: signed hash{" "}
+              <code title={p.contentHash}>{shortHash(p.contentHash)}</code> over evidence{" "}
+              {p.evidenceIds.length ? p.evidenceIds.map((id) => `#${id}`).join(", ") : "none"} ·{" "}
+              {SIGNATURE_WORDS[p.signatureStatus]}
+              {p.reason && <span className="block pl-3 text-ink">“{p.reason}”</span>}
+            </li>
+          ))}
+        </ol>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,2 @@
+/** What routes compose from the evidence feature. */
+export { EvidenceSection } from "./components/evidence-section";
