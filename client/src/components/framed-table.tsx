@@ -14,7 +14,7 @@ type FramedTableProps = {
 /** A plain figures table in the app's frame: scrolls sideways on narrow screens, small upper-case headers. */
 export function FramedTable({ caption, head, children, foot }: FramedTableProps) {
   return (
-    <div className="overflow-x-auto rounded-md border border-rule">
+    <div className="relative overflow-x-auto rounded-md border border-rule">
       <table className="w-full border-collapse text-left text-body">
         <caption className="sr-only">{caption}</caption>
         <thead className="bg-paper-deep text-note font-semibold tracking-wide text-ink-soft uppercase [&_th]:px-3 [&_th]:py-2 [&_th]:text-left">

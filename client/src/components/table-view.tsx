@@ -30,7 +30,7 @@ export function TableView<T>({
   const rows = table.getRowModel().rows;
   const headerText = headerCase === "upper" ? "tracking-wide uppercase" : "whitespace-nowrap";
   return (
-    <div className={`overflow-auto rounded-md border border-rule ${maxHeight ?? ""}`}>
+    <div className={`relative overflow-auto rounded-md border border-rule ${maxHeight ?? ""}`}>
       <table className="w-full border-collapse text-left text-body">
         <caption className="sr-only">{caption}</caption>
         <thead className={`bg-paper-deep ${maxHeight ? "sticky top-0" : ""}`}>

@@ -1,3 +1,4 @@
+import { useState } from "react";
 import { METHOD_IDS, type MethodId } from "@shared/schemas/analysis";
 import { Button } from "@/components/button";
 import { TextAreaField, TextField, SelectField } from "@/components/field";
@@ -60,11 +61,21 @@ function ListField({
   );
 }
 
+/** "2 set" / "defaults": what a folded row hides. */
+const paramCount = (row: Row) => {
+  const set = Object.values(row.params).filter((v) => v.trim() !== "").length;
+  return set ? `${set} set` : "defaults";
+};
+
 /** One method to compare: pick the method, then only its own parameters; empty boxes use the default shown. */
 export function MethodRow({ index, row, context, errors, canRemove, onChange, onRemove }: MethodRowProps) {
   const err = (key: string) => errors[`methods.${index}.${key}`];
   const set = (key: string, value: string) => onChange({ ...row, params: { ...row.params, [key]: value } });
   const fields = methodEntry(row.method).fields;
+  const [folded, setFolded] = useState(false);
+  // A row with a field marked wrong never hides it.
+  const marked = fields.some((f) => err(f.key) !== undefined);
+  const open = !folded || marked;
   return (
     <fieldset
       className="flex flex-col gap-3 rounded-md border border-rule bg-white/40 p-3"
@@ -73,7 +84,7 @@ export function MethodRow({ index, row, context, errors, canRemove, onChange, on
     >
       <legend className="sr-only">Method {index + 1}</legend>
       <div className="flex items-end gap-2">
-        <div className="flex-1">
+        <div className="min-w-0 flex-1">
           <SelectField
             label={`Method ${index + 1}`}
             value={row.method}
@@ -87,6 +98,19 @@ export function MethodRow({ index, row, context, errors, canRemove, onChange, on
             ))}
           </SelectField>
         </div>
+        {fields.length > 0 && (
+          <Button
+            variant="quiet"
+            size="sm"
+            onClick={() => setFolded(open)}
+            aria-expanded={open}
+            aria-controls={`method-row-${index}-fields`}
+            aria-label={`${open ? "Fold" : "Unfold"} the parameters of method ${index + 1}`}
+            className="mb-1"
+          >
+            {open ? "Fold" : `Unfold (${paramCount(row)})`}
+          </Button>
+        )}
         {canRemove && (
           <Button
             variant="quiet"
@@ -99,8 +123,8 @@ export function MethodRow({ index, row, context, errors, canRemove, onChange, on
           </Button>
         )}
       </div>
-      {fields.length > 0 && (
-        <div className="grid gap-3 sm:grid-cols-2">
+      {fields.length > 0 && open && (
+        <div className="grid gap-3 sm:grid-cols-2" id={`method-row-${index}-fields`}>
           {fields.map((f) => {
             const value = row.params[f.key] ?? "";
             if (f.kind === "list")

@@ -1,25 +1,34 @@
-import type { AnalysisResponse } from "@shared/schemas/analysis";
+import type { AnalysisResponse, MethodId } from "@shared/schemas/analysis";
 import { methodColour } from "../charts/palette";
 import { HowComputed } from "../explain/how-computed";
 import { sig } from "../figures";
 import { METHOD_LABELS } from "../state/method-fields";
 import { ExportBlock } from "./export-block";
+import { StaleRowNote } from "./stale-results";
 
 /** One card per method: attention factor, how many pairs each flag hit, the engine's notes, and the export block. */
-export function MethodSummaries({ analysis }: { analysis: AnalysisResponse }) {
+export function MethodSummaries({
+  analysis,
+  currentMethods = null,
+}: {
+  analysis: AnalysisResponse;
+  /** Set while the figures are stale: the methods the input rows ask for now. */
+  currentMethods?: MethodId[] | null;
+}) {
   const n = analysis.model.pairs;
   return (
     <div className="grid gap-4 lg:grid-cols-2">
       {analysis.methods.map((m, i) => (
         <article
           key={i}
-          className="flex flex-col gap-3 rounded-md border border-rule bg-white/50 p-4"
+          className="flex min-w-0 flex-col gap-3 rounded-md border border-rule bg-white/50 p-4"
           style={{ borderTop: `4px solid ${methodColour(i)}` }}
           aria-label={`Method ${i + 1}: ${METHOD_LABELS[m.method]}`}
         >
           <h3 className="text-lead font-semibold">
             {i + 1}. {METHOD_LABELS[m.method]}
           </h3>
+          {currentMethods && <StaleRowNote index={i} shown={m.method} now={currentMethods[i]} />}
           <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-body">
             <dt className="text-ink-soft">Attention factor a</dt>
             <dd className="tabular-nums">

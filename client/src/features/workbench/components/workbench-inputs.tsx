@@ -48,8 +48,8 @@ export function WorkbenchInputs({
         </span>
       }
     >
-      <div className="grid gap-6 lg:grid-cols-[minmax(0,5fr)_minmax(0,7fr)]">
-        <div className="flex flex-col gap-4">
+      <div className="grid gap-6 lg:grid-cols-[minmax(0,5fr)_minmax(0,7fr)] xl:grid-cols-1">
+        <div className="flex min-w-0 flex-col gap-4">
           <ModelInput choice={inputs.model} profiles={profiles} onChange={pickModel} errors={errors} />
           {chosen && (
             <p className="text-note text-ink-soft">
@@ -66,7 +66,7 @@ export function WorkbenchInputs({
             onChange={(patch) => onChange({ ...inputs, ...patch })}
           />
         </div>
-        <div className="flex flex-col gap-2">
+        <div className="flex min-w-0 flex-col gap-2">
           <h3 className="text-note font-semibold tracking-wide text-ink-soft uppercase">Methods to compare</h3>
           <MethodRows
             rows={inputs.methods}

@@ -1,4 +1,4 @@
-import type { AnalysisResponse } from "@shared/schemas/analysis";
+import type { AnalysisResponse, MethodId } from "@shared/schemas/analysis";
 import { Notice } from "@/components/notice";
 import { Panel } from "@/components/page";
 import { DecayChart } from "../charts/decay-chart";
@@ -18,6 +18,8 @@ type ResultsProps = {
   onView: (view: number) => void;
   flaggedOnly: boolean;
   onFlaggedOnly: (value: boolean) => void;
+  /** While the figures are stale: the methods the rows ask for now, so a card can say its row has moved on. */
+  currentMethods?: MethodId[] | null;
 };
 
 function MethodPicker({ analysis, view, onView }: Pick<ResultsProps, "analysis" | "view" | "onView">) {
@@ -35,7 +37,14 @@ function MethodPicker({ analysis, view, onView }: Pick<ResultsProps, "analysis" 
 }
 
 /** The figures for one analysis; every panel has its explanation one click away. */
-export function WorkbenchResults({ analysis, view, onView, flaggedOnly, onFlaggedOnly }: ResultsProps) {
+export function WorkbenchResults({
+  analysis,
+  view,
+  onView,
+  flaggedOnly,
+  onFlaggedOnly,
+  currentMethods = null,
+}: ResultsProps) {
   const shown = Math.min(view, analysis.methods.length - 1);
   const methods = analysis.methods.map((m) => m.method);
   return (
@@ -49,7 +58,7 @@ export function WorkbenchResults({ analysis, view, onView, flaggedOnly, onFlagge
           />
         </div>
       </Panel>
-      <div className="grid gap-6 xl:grid-cols-2">
+      <div className="grid gap-6 2xl:grid-cols-2 [&>*]:min-w-0">
         <Panel title="Scale ratio θ′/θ per pair">
           <div className="flex flex-col gap-3">
             <RatioChart analysis={analysis} />
@@ -79,7 +88,7 @@ export function WorkbenchResults({ analysis, view, onView, flaggedOnly, onFlagge
         </div>
       </Panel>
       <Panel title="Methods and their config keys">
-        <MethodSummaries analysis={analysis} />
+        <MethodSummaries analysis={analysis} currentMethods={currentMethods} />
       </Panel>
       <Notice tone="info" title="Estimates, not a verdict">
         {CAUTION} Engine {analysis.engineVersion}.

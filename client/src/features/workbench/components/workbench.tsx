@@ -8,7 +8,6 @@ import { ExportTargets } from "@/components/export-targets";
 import type { ExportRequest } from "@shared/schemas/exports";
 import { isApiError } from "@/lib/api-client";
 import { analysesQueries } from "@/lib/api/analyses";
-import { sig } from "../figures";
 import { useDebounced } from "@/lib/use-debounced";
 import { withDefaults } from "../state/defaults";
 import { layerGroupsOf } from "@shared/layer-groups";
@@ -18,6 +17,7 @@ import { toRequest } from "../state/to-request";
 import { inputsToParams, parseInputs } from "../state/url-codec";
 import { WorkbenchInputs } from "./workbench-inputs";
 import { WorkbenchResults } from "./workbench-results";
+import { describeAnalysis, StaleBanner, staleness, type Answered } from "./stale-results";
 
 type WorkbenchProps = {
   profiles: ModelProfile[];
@@ -46,14 +46,22 @@ export function Workbench({ profiles, profileNotes }: WorkbenchProps) {
   const { request, errors } = useMemo(() => toRequest(inputs, savedShape), [inputs, savedShape]);
   const settled = useDebounced(request, 300, { holdWhileNull: true });
   const analysis = useQuery(analysesQueries.detail(settled));
+  // The figures on screen and the request that produced them, kept together: while new inputs are invalid or still
+  // computing, the last answer stays, labelled by its own request and marked stale (never by the current rows).
+  const [answered, setAnswered] = useState<Answered | null>(null);
+  if (analysis.data && !analysis.isPlaceholderData && settled && answered?.response !== analysis.data)
+    setAnswered({ request: settled, response: analysis.data });
+  const stale = staleness(answered, request, analysis.isError);
   // The stacks are compiled for the method on show (the picker above the charts), with the analysed inputs.
-  const shownMethod = settled ? settled.methods[Math.min(inputs.view, settled.methods.length - 1)] : null;
+  const shownMethod = answered
+    ? answered.request.methods[Math.min(inputs.view, answered.request.methods.length - 1)]
+    : null;
   const exportRequest = useMemo<ExportRequest | null>(
     () =>
-      settled && shownMethod
-        ? { model: settled.model, targetContext: settled.targetContext, method: shownMethod }
+      answered && shownMethod
+        ? { model: answered.request.model, targetContext: answered.request.targetContext, method: shownMethod }
         : null,
-    [settled, shownMethod],
+    [answered, shownMethod],
   );
 
   const trainedContext =
@@ -62,76 +70,83 @@ export function Workbench({ profiles, profileNotes }: WorkbenchProps) {
   const context = {
     scale: trainedContext && target > 0 ? target / trainedContext : null,
     targetContext: target > 0 ? target : null,
-    pairs: analysis.data?.model.pairs ?? chosen?.pairs ?? null,
+    pairs: answered?.response.model.pairs ?? chosen?.pairs ?? null,
   };
   const serverErrors = analysis.isError && isApiError(analysis.error) ? (analysis.error.fields ?? {}) : {};
   const shownErrors = { ...serverErrors, ...errors };
   const missingProfile = model.kind === "saved" && model.id !== null && !chosen;
 
   return (
-    <div className="flex flex-col gap-6">
-      <WorkbenchInputs
-        inputs={inputs}
-        onChange={setInputs}
-        profiles={profiles}
-        chosen={chosen}
-        trainedContext={trainedContext}
-        context={context}
-        errors={shownErrors}
-        profileNotes={chosen && profileNotes ? profileNotes(chosen) : undefined}
-      />
-      {chosen && groups.length > 1 && model.kind === "saved" && (
-        <GroupPicker
-          groups={groups}
-          value={group?.kind ?? ""}
-          onChange={(kind) => setInputs({ ...inputs, model: { ...model, group: kind } })}
-        />
-      )}
-      {missingProfile && (
-        <Notice tone="alert" title="That profile is gone">
-          The link names a profile that no longer exists. Pick another.
-        </Notice>
-      )}
-      <div
-        className="flex min-h-6 flex-wrap items-center gap-3 text-note text-ink-soft"
-        aria-live="polite"
-        data-testid="analysis-status"
+    // Wide screens: the inputs in a sticky side panel (scrolling on their own), the figures beside them.
+    <div className="flex flex-col gap-6 xl:grid xl:grid-cols-[24rem_minmax(0,1fr)] xl:items-start">
+      <aside
+        className="flex min-w-0 flex-col gap-4 xl:sticky xl:top-4 xl:max-h-[calc(100vh-2rem)] xl:overflow-y-auto xl:pr-1"
+        aria-label="Workbench inputs"
+        data-testid="workbench-inputs"
       >
-        {analysis.data && (
-          <span>
-            d = {analysis.data.model.rotaryDim} ({analysis.data.model.pairs} pairs), b ={" "}
-            {sig(analysis.data.model.ropeTheta, 6)}, L = {analysis.data.model.trainedContext} → L′ ={" "}
-            {analysis.data.targetContext}, s = {sig(analysis.data.scale, 4)}
-          </span>
+        <WorkbenchInputs
+          inputs={inputs}
+          onChange={setInputs}
+          profiles={profiles}
+          chosen={chosen}
+          trainedContext={trainedContext}
+          context={context}
+          errors={shownErrors}
+          profileNotes={chosen && profileNotes ? profileNotes(chosen) : undefined}
+        />
+        {chosen && groups.length > 1 && model.kind === "saved" && (
+          <GroupPicker
+            groups={groups}
+            value={group?.kind ?? ""}
+            onChange={(kind) => setInputs({ ...inputs, model: { ...model, group: kind } })}
+          />
         )}
-        {analysis.isFetching && <span className="animate-pulse">Updating…</span>}
-        {request === null && analysis.data && (
-          <span className="text-signal">Some inputs need fixing; the figures below are for the last valid ones.</span>
+        {missingProfile && (
+          <Notice tone="alert" title="That profile is gone">
+            The link names a profile that no longer exists. Pick another.
+          </Notice>
+        )}
+      </aside>
+      <div className="flex min-w-0 flex-col gap-6">
+        <div
+          className="flex min-h-6 flex-wrap items-center gap-3 text-note text-ink-soft"
+          aria-live="polite"
+          data-testid="analysis-status"
+        >
+          {answered && <span>{describeAnalysis(answered.response)}</span>}
+          {analysis.isFetching && <span className="animate-pulse">Updating…</span>}
+        </div>
+        {analysis.isError && (
+          <Notice tone="alert" title="The analysis was refused">
+            {analysis.error.message}
+          </Notice>
+        )}
+        {answered ? (
+          <div className="flex flex-col gap-4" data-testid="workbench-results" data-stale={stale ?? undefined}>
+            {stale && <StaleBanner kind={stale} response={answered.response} />}
+            <div
+              className={`flex flex-col gap-6 transition-opacity ${stale ? "opacity-55" : ""}`}
+              data-testid="stale-figures"
+            >
+              <WorkbenchResults
+                analysis={answered.response}
+                view={inputs.view}
+                onView={(view) => setInputs({ ...inputs, view })}
+                flaggedOnly={inputs.flaggedOnly}
+                onFlaggedOnly={(flaggedOnly) => setInputs({ ...inputs, flaggedOnly })}
+                currentMethods={stale ? inputs.methods.map((r) => r.method) : null}
+              />
+              <Panel title="Rigging for each stack">
+                <ExportTargets request={exportRequest} />
+              </Panel>
+            </div>
+          </div>
+        ) : analysis.isFetching ? (
+          <Loading label="Computing…" />
+        ) : (
+          request === null && <p className="text-body text-ink-soft">Fill in the inputs to see the figures.</p>
         )}
       </div>
-      {analysis.isError && (
-        <Notice tone="alert" title="The analysis was refused">
-          {analysis.error.message}
-        </Notice>
-      )}
-      {analysis.data ? (
-        <WorkbenchResults
-          analysis={analysis.data}
-          view={inputs.view}
-          onView={(view) => setInputs({ ...inputs, view })}
-          flaggedOnly={inputs.flaggedOnly}
-          onFlaggedOnly={(flaggedOnly) => setInputs({ ...inputs, flaggedOnly })}
-        />
-      ) : analysis.isFetching ? (
-        <Loading label="Computing…" />
-      ) : (
-        request === null && <p className="text-body text-ink-soft">Fill in the inputs above to see the figures.</p>
-      )}
-      {analysis.data && (
-        <Panel title="Rigging for each stack">
-          <ExportTargets request={exportRequest} />
-        </Panel>
-      )}
     </div>
   );
 }
