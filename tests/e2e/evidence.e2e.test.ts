@@ -6,7 +6,7 @@ import type { Locator } from "playwright-core";
 import { SCREENSHOT_DIR, launchBrowser, requireBuiltClient, screenshot, signIn } from "../setup/browser";
 import { makeTestApp } from "../setup/app";
 import { createPlan, createProfile, decide, post } from "../setup/plans";
-import { criterion, fullProvenance } from "../setup/evidence";
+import { criterion, fullProvenance, upload } from "../setup/evidence";
 import { startTestServer } from "../setup/server";
 import { createTestUser, type TestUser } from "../setup/users";
 
@@ -18,6 +18,7 @@ let approver: TestUser;
 let planId = 0;
 let title = "";
 let contentHash = "";
+let chartsPlanId = 0;
 const contexts: BrowserContext[] = [];
 const errors: string[] = [];
 
@@ -58,6 +59,33 @@ beforeAll(async () => {
   await post(r, `/api/plans/${planId}/revisions/1/submit`).expect(200);
   await decide(a, `/api/plans/${planId}/revisions/1/decisions`, { decision: "approve" }).expect(200);
   contentHash = (await r.get(`/api/plans/${planId}/revisions/1`).expect(200)).body.contentHash as string;
+
+  // A second approved plan holding one upload of every other kind, for the other four charts.
+  const charts = { targetContext: 32768, method: { method: "yarn", factor: 8 }, stages: [], notes: "" };
+  chartsPlanId = (
+    await createPlan(r, profile.id, {
+      revision: {
+        ...charts,
+        acceptance: [
+          criterion("needle", 32768, ">=", 0.5, { aggregate: "mean" }),
+          criterion("ruler", 32768, ">=", 0.75),
+          criterion("perplexity", 32768, "<=", 1.1, { measure: "ratio" }),
+          criterion("short_regression", 4096, "<=", 0.02),
+        ],
+      },
+    })
+  ).id;
+  await post(r, `/api/plans/${chartsPlanId}/revisions/1/submit`).expect(200);
+  await decide(a, `/api/plans/${chartsPlanId}/revisions/1/decisions`, { decision: "approve" }).expect(200);
+  const fingerprint = (await r.get(`/api/plans/${chartsPlanId}/revisions/1`).expect(200)).body.rotaryFingerprint;
+  const files: Record<string, string[]> = {
+    needle: ["context_length,depth,trials,correct", "4096,0,10,10", "4096,1,10,9", "32768,0,10,8", "32768,1,10,6"],
+    ruler: ["context_length,task,score", "4096,niah,0.95", "4096,vt,0.85", "32768,niah,0.8", "32768,vt,0.6"],
+    perplexity: ["context_length,perplexity", "4096,8.0", "16384,8.2", "32768,8.4"],
+    short_regression: ["benchmark,baseline,tuned", "mmlu,0.62,0.61", "hellaswag,0.80,0.785"],
+  };
+  for (const [kind, lines] of Object.entries(files))
+    await upload(r, chartsPlanId, { kind, fingerprint, file: lines.join("\n") }).expect(201);
 });
 
 afterAll(async () => {
@@ -142,6 +170,22 @@ describe("evidence and proof in the browser", () => {
     expect(svg.x).toBeGreaterThanOrEqual(0);
     expect(svg.x + svg.width).toBeLessThanOrEqual(390);
     await sectionShot(page, page.getByTestId("evidence-section"), "evidence-heatmap-390");
+  }, 60_000);
+
+  it("every kind's chart draws inside a 390 px screen", async () => {
+    const page = await signedIn(researcher, `/plans/${chartsPlanId}`, 390);
+    const section = page.getByTestId("evidence-section");
+    for (const id of ["heatmap-needle", "chart-tasks", "chart-perplexity", "chart-regression"]) {
+      const svg = section.getByTestId(id).locator("svg[role=img]");
+      await svg.waitFor({ timeout: 20_000 });
+      const box = (await svg.boundingBox())!;
+      expect(box.x, id).toBeGreaterThanOrEqual(0);
+      expect(box.x + box.width, id).toBeLessThanOrEqual(390);
+    }
+    // the task chart marks the effective length the verdict reports (mean 0.9 at 4k, 0.7 at 32k, bar 0.75 → 4k)
+    expect(await section.getByTestId("chart-tasks").locator('[data-marker="effective"]').count()).toBe(1);
+    expect(await section.getByTestId("chart-regression").locator("[data-benchmark]").count()).toBe(2);
+    await sectionShot(page, section, "evidence-charts-390");
   }, 60_000);
 
   it("an approver proves the revision, signing the hash and evidence shown; the plans list filters by proof", async () => {

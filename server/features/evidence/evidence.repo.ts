@@ -1,4 +1,4 @@
-import { and, asc, desc, eq } from "drizzle-orm";
+import { and, asc, eq } from "drizzle-orm";
 import { revisionEvidence, revisionProofs, users } from "../../db/schema";
 import type { Executor } from "../../db/client";
 
@@ -46,11 +46,3 @@ export const evidenceFile = async (ex: Executor, revisionId: number, id: number)
 
 export const insertProof = async (ex: Executor, v: typeof revisionProofs.$inferInsert) =>
   (await ex.insert(revisionProofs).values(v).returning())[0];
-
-export const proofsOf = (ex: Executor, revisionId: number) =>
-  ex
-    .select({ p: revisionProofs, byName: users.name })
-    .from(revisionProofs)
-    .innerJoin(users, eq(users.id, revisionProofs.approverId))
-    .where(eq(revisionProofs.revisionId, revisionId))
-    .orderBy(desc(revisionProofs.id));

@@ -20,7 +20,7 @@ import {
   fingerprintOfRow,
   mustPlan,
   mustRevision,
-  signatureStatus,
+  checkedProofs,
   signingKey,
   type PlanRow,
   type RevisionContent,
@@ -157,7 +157,7 @@ export async function revisionEvidence(ex: Executor, deps: AppDeps, planId: numb
   const checks = (await checksOfPlan(ex, planId)).filter((c) => c.revision === n);
   const last = checks.at(-1)?.check;
   const key = signingKey(deps.config.signingKeyFile);
-  const proofs = await repo.proofsOf(ex, rev.id);
+  const proofs = await checkedProofs(ex, key, planId, n, rev.id);
   return {
     revision: n,
     state: rev.state,
@@ -175,35 +175,9 @@ export async function revisionEvidence(ex: Executor, deps: AppDeps, planId: numb
         parity: last ? { passed: last.passed, maxRelativeError: last.maxRelativeError } : null,
       },
     ),
-    proofs: proofs.map(({ p, byName }) => ({
-      id: p.id,
-      verdict: p.verdict as "proven" | "unproven",
-      reason: p.reason,
-      contentHash: p.contentHash,
-      evidenceIds: p.evidenceIds,
-      by: { id: p.approverId, name: byName },
-      at: p.at.toISOString(),
-      keyId: p.keyId,
-      signatureStatus: signatureStatus(key, proofPayload(planId, n, p), p.signature, p.keyId),
-    })),
+    proofs,
   };
 }
-
-/** What a proof decision's signature covers: the approval payload with the verdict as decision and the evidence ids. */
-export const proofPayload = (
-  planId: number,
-  n: number,
-  p: { contentHash: string; approverId: number; verdict: string; evidenceIds: number[]; at: Date },
-) => ({
-  planId,
-  revision: n,
-  contentHash: p.contentHash,
-  approverId: p.approverId,
-  decision: `proof:${p.verdict}`,
-  round: 0,
-  time: p.at.toISOString(),
-  evidenceIds: p.evidenceIds,
-});
 
 export async function listEvidence(deps: AppDeps, planId: number, n: number) {
   return revisionEvidence(deps.db, deps, planId, n);

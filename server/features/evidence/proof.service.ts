@@ -4,9 +4,9 @@ import { AppError, Forbidden } from "../../platform/errors";
 import { hasRole } from "../../platform/roles";
 import type { SessionUser } from "../../../shared/schemas";
 import type { ProofState } from "../../../shared/schemas/evidence-api";
-import { mustPlan, mustRevision, notify, signingKey, signPayload, touchPlan, userRef } from "../plans";
+import { mustPlan, mustRevision, notify, proofPayload, signingKey, signPayload, touchPlan, userRef } from "../plans";
 import * as repo from "./evidence.repo";
-import { proofPayload, revisionEvidence } from "./evidence.service";
+import { revisionEvidence } from "./evidence.service";
 import { updateProof } from "./proof.repo";
 
 /**

@@ -9,6 +9,7 @@ import { budgetSection } from "./report-budget";
 import type { RevisionContent } from "./revision-content";
 import { checkRevision } from "./integrity";
 import { signingKey } from "./signing";
+import { checkedProofs } from "./proofs";
 import { targetBlock, type ExportChoice } from "./export-target";
 import { layeredExport } from "./group-export";
 import { isSigned, latestApproved } from "../../../shared/plan-rules";
@@ -126,7 +127,10 @@ export async function exportRevision(
 export async function revisionReport(deps: AppDeps, planId: number, n: number) {
   const [plan, rev] = await Promise.all([getPlan(deps, planId), mustRevision(deps.db, planId, n)]);
   const content = rev.content as RevisionContent;
-  const c = await check(deps, planId, rev);
+  const [c, proofs] = await Promise.all([
+    check(deps, planId, rev),
+    checkedProofs(deps.db, signingKey(deps.config.signingKeyFile), planId, n, rev.id),
+  ]);
   return renderReport({
     plan: { id: planId, title: plan.title, purpose: plan.purpose, owner: plan.owner ?? undefined },
     revision: rev,
@@ -135,5 +139,6 @@ export async function revisionReport(deps: AppDeps, planId: number, n: number) {
     problems: c.problems,
     decisions: plan.revisions.find((x) => x.number === n)?.decisions ?? [],
     budgetHtml: budgetSection(content),
+    proof: { state: rev.proof ?? null, decisions: proofs },
   });
 }

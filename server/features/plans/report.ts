@@ -42,6 +42,46 @@ export interface ReportInput {
   problems?: string[];
   decisions: { approver: { name: string }; decision: string; comment: string; signedHash: string; at: string }[];
   budgetHtml?: string;
+  /** After approval: the proof state and every proof decision, newest first, each signature checked. */
+  proof?: {
+    state: "proven" | "unproven" | null;
+    decisions: {
+      verdict: string;
+      reason: string;
+      contentHash: string;
+      evidenceIds: number[];
+      by: { name: string };
+      at: string;
+      keyId: string;
+      signatureStatus: string;
+    }[];
+  };
+}
+
+const PROOF_WORDS: Record<string, string> = { proven: "Proven", unproven: "Not proven" };
+const SIGNATURE_WORDS: Record<string, string> = {
+  valid: "signature holds",
+  invalid: "SIGNATURE DOES NOT HOLD",
+  missing: "no signature",
+  unknown_key: "signed with a key this server does not know",
+};
+
+/** The proof section: only for a revision that has been approved (proof follows approval). */
+function proofSection(revisionState: string, proof: ReportInput["proof"]) {
+  if (!proof || !["approved", "superseded"].includes(revisionState)) return "";
+  const state = proof.state
+    ? `<p data-proof="${esc(proof.state)}"><strong>${esc(PROOF_WORDS[proof.state])}</strong>: the latest proof decision below.</p>`
+    : "<p>Awaiting proof: no approver has decided yet whether the evaluations meet the acceptance criteria.</p>";
+  const rows = proof.decisions
+    .map(
+      (d) =>
+        `<tr><td>${esc(d.by.name)}</td><td>${esc(PROOF_WORDS[d.verdict] ?? d.verdict)}</td><td>${esc(d.reason)}</td><td><code>${esc(d.contentHash)}</code></td><td>${esc(d.evidenceIds.map((id) => `#${id}`).join(", ") || "none")}</td><td class="${d.signatureStatus === "valid" ? "ok" : "bad"}">${esc(SIGNATURE_WORDS[d.signatureStatus] ?? d.signatureStatus)} (key ${esc(d.keyId.slice(0, 12))}…)</td><td>${esc(d.at)}</td></tr>`,
+    )
+    .join("");
+  const head = ["approver", "verdict", "reason", "signed hash", "evidence read", "signature", "at"]
+    .map((h) => `<th>${h}</th>`)
+    .join("");
+  return `<h2>Proof</h2>${state}${rows ? `<table><tr>${head}</tr>${rows}</table>` : ""}`;
 }
 
 export function renderReport({
@@ -52,6 +92,7 @@ export function renderReport({
   problems = [],
   decisions,
   budgetHtml,
+  proof,
 }: ReportInput) {
   const row = (cells: unknown[]) => `<tr>${cells.map((v) => `<td>${esc(v)}</td>`).join("")}</tr>`;
   const head = (cells: string[]) => `<tr>${cells.map((v) => `<th>${esc(v)}</th>`).join("")}</tr>`;
@@ -100,6 +141,7 @@ ${wavelengthChart(c)}
 ${budgetHtml ?? ""}
 <h2>Acceptance criteria</h2>${c.acceptance.length ? `<table>${head(["evaluation", "context", "metric", "must be"])}${c.acceptance.map((a) => row([a.evaluation, n(a.contextLength), a.metric, `${a.comparison} ${a.threshold}`])).join("")}</table>` : "<p>None stated.</p>"}
 <h2>Decisions</h2>${decisions.length ? `<table>${head(["approver", "decision", "comment", "signed hash", "at"])}${decisions.map((d) => `<tr><td>${esc(d.approver.name)}</td><td>${esc(d.decision)}</td><td>${esc(d.comment)}</td><td><code>${esc(d.signedHash)}</code></td><td>${esc(d.at)}</td></tr>`).join("")}</table>` : "<p>No decisions yet.</p>"}
+${proofSection(revision.state, proof)}
 <h2>Notes</h2><p>${esc(c.notes) || "—"}</p>
 <p class="caution">Every figure here is an estimate under the stated conventions. A plan is confirmed only by long-context evaluations of the tuned model.</p>
 </body></html>`;

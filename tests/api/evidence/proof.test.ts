@@ -49,6 +49,11 @@ describe("proof: an approved revision whose criteria pass is proven; one that fa
       `%/plans/${p.planId}?%`,
     ]);
     expect(mail).toHaveLength(1);
+    // the signed record (printable report) carries the proof state and the decision's signature
+    const report = await p.researcher.get(`/api/plans/${p.planId}/revisions/1/report`).expect(200);
+    expect(report.text).toContain("<h2>Proof</h2>");
+    expect(report.text).toContain('data-proof="proven"');
+    expect(report.text).toMatch(/<td class="ok">signature holds/);
 
     // a tampered evidence list no longer verifies
     await ownerTestDb().pool.query("UPDATE revision_proofs SET evidence_ids = '{2147483000}' WHERE id = $1", [
@@ -56,6 +61,8 @@ describe("proof: an approved revision whose criteria pass is proven; one that fa
     ]);
     const after = await p.researcher.get(`/api/plans/${p.planId}/revisions/1/evidence`).expect(200);
     expect(after.body.proofs[0].signatureStatus).toBe("invalid");
+    const tampered = await p.researcher.get(`/api/plans/${p.planId}/revisions/1/report`).expect(200);
+    expect(tampered.text).toMatch(/<td class="bad">SIGNATURE DOES NOT HOLD/);
   });
 
   it("failing criteria cannot be proven (409 naming them); not proven needs a reason", async () => {

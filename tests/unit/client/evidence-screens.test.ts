@@ -134,6 +134,15 @@ describe("evidence screens: words", () => {
         fields: { file: "the file is empty" },
       }),
     ).toEqual(["The file is empty."]);
+    // a schema check's own sentence (shared/validation-messages.ts) is kept whole
+    expect(
+      uploadProblems({
+        status: 400,
+        code: "invalid",
+        message: "Engine is required.",
+        fields: { "provenance.engine": "Engine is required." },
+      }),
+    ).toEqual(["In the provenance: Engine is required."]);
   });
 
   it("figures carry their units", () => {

@@ -1,6 +1,6 @@
 import { useEffect, useRef, useState } from "react";
 import { useForm, useWatch } from "react-hook-form";
-import { zodResolver } from "@hookform/resolvers/zod";
+import { formResolver } from "@/lib/form-resolver";
 import { z } from "zod";
 import { PROOF_STATES, type ProofState } from "@shared/schemas/evidence-api";
 import { Button, SubmitButton } from "@/components/button";
@@ -50,7 +50,7 @@ export function ProofDialog({ target, onClose, onDecided }: Props) {
   // What was on screen when the dialog opened is what gets signed, even if the page refreshes underneath.
   const [shown] = useState({ contentHash: target.contentHash, evidenceIds: target.evidenceIds });
   const { register, handleSubmit, control, formState } = useForm({
-    resolver: zodResolver(proofFormSchema),
+    resolver: formResolver(proofFormSchema),
     defaultValues: { verdict: target.allPass ? target.verdict : ("unproven" as const), reason: "" },
   });
   const verdict = useWatch({ control, name: "verdict" });

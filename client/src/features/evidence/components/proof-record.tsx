@@ -9,9 +9,12 @@ const SIGNATURE_WORDS: Record<Proof["signatureStatus"], string> = {
   unknown_key: "signed with a key this server does not know",
 };
 
-/** The revision's proof state and every proof decision, newest first, each with what it signed and whether it holds. */
+/**
+ * The revision's proof state and every proof decision, each with what it signed and whether the signature holds.
+ * `proofs` come newest first, as GET …/evidence lists them.
+ */
 export function ProofRecord({ proof, proofs }: { proof: ProofState | null; proofs: Proof[] }) {
-  const latest = proofs.at(-1);
+  const latest = proofs[0];
   return (
     <div className="flex flex-col gap-2" data-testid="proof-record">
       <p className="flex flex-wrap items-center gap-2 text-body">
@@ -34,7 +37,7 @@ export function ProofRecord({ proof, proofs }: { proof: ProofState | null; proof
       </p>
       {proofs.length > 0 && (
         <ol className="flex flex-col gap-1 text-note text-ink-soft" aria-label="Proof decisions">
-          {[...proofs].reverse().map((p) => (
+          {proofs.map((p) => (
             <li key={p.id} data-proof-decision={p.id}>
               {p.verdict === "proven" ? "Proven" : "Not proven"} by {p.by.name}, {formatDateTime(p.at)}: signed hash{" "}
               <code title={p.contentHash}>{shortHash(p.contentHash)}</code> over evidence{" "}

@@ -1,6 +1,6 @@
 import { useState } from "react";
 import { useForm, useWatch } from "react-hook-form";
-import { zodResolver } from "@hookform/resolvers/zod";
+import { formResolver } from "@/lib/form-resolver";
 import { EVIDENCE_KIND_INFO } from "@shared/schemas/evidence";
 import type { Evidence } from "@shared/schemas/evidence-api";
 import { SubmitButton } from "@/components/button";
@@ -30,7 +30,7 @@ export function UploadForm({ planId, n, fingerprint, defaultKind, lengths }: Upl
   const [problems, setProblems] = useState<string[]>([]);
   const [stored, setStored] = useState<Evidence | null>(null);
   const { register, handleSubmit, control, reset, formState } = useForm<UploadFormValues>({
-    resolver: zodResolver(uploadFormSchema),
+    resolver: formResolver(uploadFormSchema),
     defaultValues: { kind: defaultKind, fingerprint, provenance: provenanceTemplate(lengths) },
   });
   const kind = useWatch({ control, name: "kind" });

@@ -43,7 +43,12 @@ export function uploadProblems(e: Refusal): string[] {
   if (e.code === "not_approved") return [`Not stored: ${sentence(e.message)}`];
   const fields = Object.entries(e.fields ?? {});
   if (!fields.length) return [sentence(e.message)];
-  return fields.map(([key, text]) =>
-    key === "file" ? fileSentence(text, e.message) : `${place(key)}: ${sentence(text)}`,
-  );
+  return fields.map(([key, text]) => {
+    if (key === "file") return fileSentence(text, e.message);
+    // Schema checks already answer a sentence naming the field (shared/validation-messages.ts): keep it whole, and
+    // say when the field lives inside the provenance JSON.
+    if (!key.startsWith("row ") && /^[A-Z][^]*[.!?]$/.test(text.trim()))
+      return key.startsWith("provenance.") ? `In the provenance: ${text.trim()}` : text.trim();
+    return `${place(key)}: ${sentence(text)}`;
+  });
 }
