@@ -1,3 +1,4 @@
+import type { MethodParams } from "./schemas/analysis";
 import type { CurrentScaling, LayerGroup } from "./schemas/models";
 
 /*
@@ -54,3 +55,44 @@ export function layerGroupsOf(p: GroupSource): LayerGroup[] {
       : g,
   );
 }
+
+/** One rotating layer group as a plan (or an export request) rotates it. */
+export interface GroupRotarySpec {
+  kind: string;
+  layers: number[];
+  rotaryDim: number;
+  base: number;
+  method: MethodParams;
+  /** true for the group the plan's own method applies to */
+  scaled: boolean;
+}
+
+/**
+ * Every rotating group of a layered profile with the method it takes: the scaled group the plan's method, each other
+ * group its `groupMethods` entry, else plain RoPE over its own base (as trained). Ordered by each group's first layer,
+ * the order the fingerprint hashes them in (docs/fingerprint.md). no_rope layers rotate nothing and are left out.
+ * Undefined for a profile with a single group: its one setting is the profile's own.
+ */
+export function groupRotarySpecs(
+  p: GroupSource,
+  method: MethodParams,
+  groupMethods: readonly { kind: string; method: MethodParams }[] = [],
+): GroupRotarySpec[] | undefined {
+  if (!p.layerGroups || p.layerGroups.length < 2) return undefined;
+  const groups = layerGroupsOf(p);
+  const si = scaledGroupIndex(groups);
+  return groups
+    .map((g, j) => ({ g, j }))
+    .filter(({ g }) => g.kind !== NO_ROPE && g.rotaryDim > 0 && g.ropeTheta !== null)
+    .map(({ g, j }) => ({
+      kind: g.kind,
+      layers: g.layers,
+      rotaryDim: g.rotaryDim,
+      base: g.ropeTheta!,
+      method: j === si ? method : (groupMethods.find((m) => m.kind === g.kind)?.method ?? AS_TRAINED),
+      scaled: j === si,
+    }))
+    .sort((a, b) => Math.min(...a.layers) - Math.min(...b.layers));
+}
+
+const AS_TRAINED: MethodParams = { method: "default" };

@@ -20,6 +20,20 @@ export const rotaryShapeOf = (m: RotarySource): ModelShape => ({
   hiddenSize: m.hiddenSize,
 });
 
+/**
+ * One layer group's rotary shape: its own base and rotary dimension over the profile's head shape. A group without
+ * rotary positions (no_rope, ropeTheta null) or no group at all gives the profile's own shape. The workbench (group
+ * picker), the plan checks and the frozen per-group results all ask the engine this one question.
+ */
+export const groupShape = (
+  m: RotarySource,
+  g: { ropeTheta: number | null; rotaryDim: number } | null | undefined,
+): ModelShape => {
+  const shape = rotaryShapeOf(m);
+  if (!g || g.ropeTheta === null) return shape;
+  return { ...shape, ropeTheta: g.ropeTheta, partialRotaryFactor: g.rotaryDim / m.headDim };
+};
+
 type BudgetSource = {
   parameters: number;
   layers: number;

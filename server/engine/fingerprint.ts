@@ -1,6 +1,8 @@
 import { createHash } from "node:crypto";
 import { rotaryDimension, type MethodParams, type ModelShape } from "../../shared/schemas/analysis";
+import type { GroupRotarySpec } from "../../shared/layer-groups";
 import { runMethod } from "./methods";
+import { rotateGroups } from "./group-rotary";
 
 /**
  * The rotary fingerprint (docs/fingerprint.md): SHA-256 over a fixed byte layout of what the attention layers actually
@@ -46,10 +48,17 @@ export function rotaryFingerprint(groups: readonly RotaryGroup[]): string {
 }
 
 /**
- * The fingerprint of a plan: its final block's θ′ and attention factor on the model's rotary dimension (one layer
- * group until profiles carry several). Throws when the model has no valid rotary dimension.
+ * The fingerprint of a plan: its block's θ′ and attention factor on the model's rotary dimension, or for a layered
+ * model one record per rotating layer group (`groups`, shared/layer-groups.ts groupRotarySpecs, in first-layer order),
+ * each with its own base, rotary dimension and method. Throws when the model has no valid rotary dimension.
  */
-export function planFingerprint(model: ModelShape, targetContext: number, method: MethodParams): string {
+export function planFingerprint(
+  model: ModelShape,
+  targetContext: number,
+  method: MethodParams,
+  groups?: readonly GroupRotarySpec[],
+): string {
+  if (groups?.length) return rotaryFingerprint(rotateGroups(groups, model.trainedContext, targetContext));
   const d = rotaryDimension(model);
   if (d === null) throw new RangeError("rotary dimension must be a positive even integer");
   const ctx = { d, base: model.ropeTheta, trainedContext: model.trainedContext, targetContext };

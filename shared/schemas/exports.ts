@@ -1,5 +1,7 @@
 import { z } from "zod";
 import { lengthSchema, methodParamsSchema, modelInputSchema } from "./analysis";
+import { layerGroupSchema } from "./models";
+import { groupMethodSchema } from "./plans/requests";
 
 /*
  * Export targets (issue 10; routes GET /api/export-targets, POST /api/exports, GET /api/plans/:id/approved/export?target=).
@@ -40,6 +42,13 @@ export const exportRequestSchema = z.object({
     .min(1, "name at least one target, or leave targets out for all")
     .max(EXPORT_TARGET_IDS.length)
     .optional(),
+  /**
+   * A layered model given inline (issue 11, additive): its layer groups, so the fingerprint and every target's
+   * conformance cover each group. With { modelId } the profile's own groups are used and this is ignored.
+   */
+  layerGroups: z.array(layerGroupSchema).min(1).max(64).optional(),
+  /** each non-scaled group's own method, as a plan's `groupMethods`; groups not listed stay as trained */
+  groupMethods: z.array(groupMethodSchema).max(64).optional(),
 });
 export type ExportRequest = z.infer<typeof exportRequestSchema>;
 
@@ -49,6 +58,18 @@ export const conformanceSchema = z.object({
   worstPair: z.number().nullable(),
   cause: z.string(),
   workaround: z.string(),
+  /** a layered plan (issue 11): the comparison for each rotating layer group, in first-layer order */
+  groups: z
+    .array(
+      z.object({
+        kind: z.string(),
+        status: z.enum(["exact", "equivalent", "differs", "unsupported"]),
+        maxRelativeError: z.number().nullable(),
+        worstPair: z.number().nullable(),
+        cause: z.string(),
+      }),
+    )
+    .optional(),
 });
 
 export const targetExportSchema = z.object({

@@ -42,6 +42,24 @@ export function StatusBadge({ status }: { status: ConformanceStatus }) {
 
 const errorText = (e: number | null) => (e === null ? "—" : e === 0 ? "0" : e.toExponential(2));
 
+type GroupRow = NonNullable<TargetExportBody["conformance"]["groups"]>[number];
+const GROUP_WORDS: Record<string, string> = { full_attention: "full attention", sliding_attention: "local window" };
+
+/** A layered plan: how the stack reads each layer group, so a stack that gets only some layers right is visible. */
+function GroupLines({ groups }: { groups: GroupRow[] }) {
+  return (
+    <ul className="mt-1 flex flex-col gap-0.5" aria-label="By layer group">
+      {groups.map((g) => (
+        <li key={g.kind} data-group={g.kind} className="flex flex-wrap items-center gap-1.5">
+          <span className="text-ink-soft">{GROUP_WORDS[g.kind] ?? g.kind.replace(/_/g, " ")}:</span>
+          <StatusBadge status={g.status} />
+          <span className="font-mono">{errorText(g.maxRelativeError)}</span>
+        </li>
+      ))}
+    </ul>
+  );
+}
+
 /**
  * Targets × status: how each stack reads the plan once its artifact is applied, with the worst relative error over
  * θ′ and the attention factor, the reason in plain words and the nearest workaround.
@@ -73,7 +91,10 @@ export function ConformanceMatrix({ result, caption }: { result: ExportResponse;
                 <span className="text-ink-soft"> (pair {t.conformance.worstPair})</span>
               )}
             </td>
-            <td className="text-note">{t.conformance.cause || "—"}</td>
+            <td className="text-note">
+              {t.conformance.cause || "—"}
+              {t.conformance.groups && <GroupLines groups={t.conformance.groups} />}
+            </td>
             <td className="text-note">{t.conformance.workaround || "—"}</td>
           </tr>
         ))}

@@ -1,4 +1,4 @@
-import type { CompileResult, ConformanceStatus, ConsumerReading, PlanRotary } from "./types";
+import type { CompileResult, ConformanceStatus, ConsumerReading, GroupConformance, PlanRotary } from "./types";
 import { EXACT_TOLERANCE, FLOAT32_TOLERANCE } from "./types";
 
 export interface Conformance {
@@ -9,6 +9,8 @@ export interface Conformance {
   worstPair: number | null;
   cause: string;
   workaround: string;
+  /** a layered plan's comparison per rotating layer group (group-conformance.ts) */
+  groups?: GroupConformance[];
 }
 
 const relative = (read: number, plan: number) =>

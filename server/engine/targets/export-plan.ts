@@ -2,6 +2,8 @@ import type { MethodParams, ModelShape } from "../../../shared/schemas/analysis"
 import { rotaryDimension } from "../../../shared/schemas/analysis";
 import { runMethod } from "../methods";
 import { rotaryFingerprint } from "../fingerprint";
+import { rotateGroups } from "../group-rotary";
+import type { GroupRotarySpec } from "../../../shared/layer-groups";
 import type { CompileInput, TargetId } from "./types";
 import { TARGET_IDS } from "./types";
 import { exportForTargets, type TargetExport } from "./registry";
@@ -37,6 +39,7 @@ export interface PlanExport {
 
 /**
  * The plan's own θ′, attention factor and fingerprint, and each requested target's artifact, read-back and conformance.
+ * A layered model's `groups` make the fingerprint and every target's conformance cover each rotating group.
  * `config` is the model's config.json when known (an imported file); the profile's values are laid over it.
  */
 export function exportPlan(p: {
@@ -45,12 +48,15 @@ export function exportPlan(p: {
   targetContext: number;
   method: MethodParams;
   targets?: readonly TargetId[];
+  /** a layered model's rotating groups with their methods (shared/layer-groups.ts groupRotarySpecs) */
+  groups?: readonly GroupRotarySpec[];
 }): PlanExport {
   const d = rotaryDimension(p.model);
   if (d === null) throw new RangeError("rotary dimension must be a positive even integer (validate the model first)");
   const ctx = { d, base: p.model.ropeTheta, trainedContext: p.model.trainedContext, targetContext: p.targetContext };
   const out = runMethod(ctx, p.method);
   const invFreq = Array.from(out.invFreq);
+  const groups = p.groups?.length ? rotateGroups(p.groups, p.model.trainedContext, p.targetContext) : undefined;
   const input: CompileInput = {
     config: { ...(p.config ?? {}), ...configOfShape(p.model) },
     method: p.method,
@@ -61,13 +67,14 @@ export function exportPlan(p: {
       targetContext: p.targetContext,
       invFreq,
       attentionFactor: out.attentionFactor,
+      ...(groups ? { groups } : {}),
     },
   };
   return {
     invFreq,
     attentionFactor: out.attentionFactor,
     rotaryDim: d,
-    fingerprint: rotaryFingerprint([{ rotaryDim: d, attentionFactor: out.attentionFactor, invFreq }]),
+    fingerprint: rotaryFingerprint(groups ?? [{ rotaryDim: d, attentionFactor: out.attentionFactor, invFreq }]),
     targets: exportForTargets(input, p.targets ?? TARGET_IDS),
   };
 }

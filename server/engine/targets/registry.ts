@@ -1,6 +1,7 @@
 import type { CompileInput, CompileResult, ExportTarget, TargetArtifact, TargetId } from "./types";
 import { TARGET_IDS } from "./types";
 import { conformance, type Conformance } from "./conformance";
+import { coverGroups } from "./group-conformance";
 import { transformersV4EarlyTarget } from "./transformers-v4-early";
 import { transformersV4Target } from "./transformers-v4";
 import { transformersV5Target } from "./transformers-v5";
@@ -67,7 +68,7 @@ export function exportForTargets(input: CompileInput, ids: readonly TargetId[] =
         label: target.label,
         artifact,
         readBack: { invFreq: reading.invFreq, attentionFactor: reading.attentionFactor },
-        conformance: conformance(input.plan, reading, compiled),
+        conformance: coverGroups(input.plan, reading, conformance(input.plan, reading, compiled)),
       };
     } catch (e) {
       const cause = `its reader refuses the artifact: ${e instanceof Error ? e.message : String(e)}`;

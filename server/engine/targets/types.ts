@@ -1,4 +1,5 @@
 import type { MethodParams } from "../../../shared/schemas/analysis";
+import type { GroupRotary } from "../group-rotary";
 
 /**
  * Export targets (issue 10): each consumer stack is data plus a reader. The reader is a pure function that computes
@@ -53,6 +54,11 @@ export interface PlanRotary {
   targetContext: number;
   invFreq: number[];
   attentionFactor: number;
+  /**
+   * A layered model (issue 11): every rotating layer group with its own base, rotary dimension, method, θ′ and
+   * attention factor, in first-layer order; the fields above are the scaled group's. Absent for a single-group model.
+   */
+  groups?: GroupRotary[];
 }
 
 export interface CompileInput {
@@ -87,3 +93,12 @@ export interface ExportTarget {
 export type ConformanceStatus = "exact" | "equivalent" | "differs" | "unsupported";
 export const EXACT_TOLERANCE = 1e-12;
 export const FLOAT32_TOLERANCE = 1e-6;
+
+/** One layer group's comparison, listed under a target's conformance for a layered plan. */
+export interface GroupConformance {
+  kind: string;
+  status: ConformanceStatus;
+  maxRelativeError: number | null;
+  worstPair: number | null;
+  cause: string;
+}

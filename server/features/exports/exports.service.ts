@@ -6,6 +6,10 @@ import { modelDependentIssues, rotaryShapeSchema, type ModelShape } from "../../
 import type { ExportRequest, ExportResponse } from "../../../shared/schemas/exports";
 import { findModelRow, sourceConfigOf } from "../models";
 import { rotaryShapeOf } from "../../../shared/profile-shapes";
+import { groupRotarySpecs } from "../../../shared/layer-groups";
+import type { MethodParams } from "../../../shared/schemas/analysis";
+import type { CurrentScaling, LayerGroup } from "../../../shared/schemas/models";
+import type { GroupMethod } from "../../../shared/schemas/plans";
 
 /** The target list: id, label, consumer, the versions its reader follows and the kind of artifact. */
 export const listTargets = () => ({
@@ -15,8 +19,14 @@ export const listTargets = () => ({
   }),
 });
 
-async function resolveModel(deps: AppDeps, input: ExportRequest["model"]) {
-  if (!("modelId" in input)) return { model: input };
+async function resolveModel(deps: AppDeps, input: ExportRequest["model"], inline?: LayerGroup[]) {
+  if (!("modelId" in input)) {
+    const source = { ...input, layers: input.layers ?? 0, partialRotaryFactor: input.partialRotaryFactor ?? 1 };
+    return {
+      model: input,
+      groups: (m: MethodParams, gm?: GroupMethod[]) => groupRotarySpecs({ ...source, layerGroups: inline }, m, gm),
+    };
+  }
   const row = await findModelRow(deps.db, input.modelId);
   if (!row) throw new NotFound("no such model profile");
   const parsed = rotaryShapeSchema.safeParse(rotaryShapeOf(row));
@@ -26,7 +36,11 @@ async function resolveModel(deps: AppDeps, input: ExportRequest["model"]) {
     );
     throw new Invalid("The stored model profile cannot be exported.", fields);
   }
-  return { model: parsed.data, config: sourceConfigOf(row) };
+  // A layered profile: every rotating group is exported and compared, the others as trained (the plan default).
+  const layerGroups = Array.isArray(row.layerGroups) ? (row.layerGroups as LayerGroup[]) : null;
+  const groups = (method: MethodParams, gm?: GroupMethod[]) =>
+    groupRotarySpecs({ ...row, currentScaling: row.currentScaling as CurrentScaling | null, layerGroups }, method, gm);
+  return { model: parsed.data, config: sourceConfigOf(row), groups };
 }
 
 /**
@@ -34,7 +48,7 @@ async function resolveModel(deps: AppDeps, input: ExportRequest["model"]) {
  * back. A stateless computation: nothing is stored, so nothing is audited.
  */
 export async function exportRequest(deps: AppDeps, input: ExportRequest): Promise<ExportResponse> {
-  const { model, config } = await resolveModel(deps, input.model);
+  const { model, config, groups } = await resolveModel(deps, input.model, input.layerGroups);
   refuseMisfits(model, input);
   return exportPlan({
     model,
@@ -42,6 +56,7 @@ export async function exportRequest(deps: AppDeps, input: ExportRequest): Promis
     targetContext: input.targetContext,
     method: input.method,
     targets: input.targets,
+    groups: groups(input.method, input.groupMethods),
   });
 }
 

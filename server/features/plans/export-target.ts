@@ -2,6 +2,7 @@ import type { AppDeps } from "../../deps";
 import { Invalid } from "../../platform/errors";
 import { exportPlan, type TargetId } from "../../engine/targets";
 import { rotaryShapeOf } from "../../../shared/profile-shapes";
+import { groupRotarySpecs } from "../../../shared/layer-groups";
 import { findModelRow, sourceConfigOf } from "../models";
 import type { RevisionContent } from "./revision-content";
 
@@ -43,6 +44,7 @@ export async function targetBlock(deps: AppDeps, modelId: number, content: Revis
     targetContext,
     method,
     targets: choice.target ? [choice.target] : [],
+    groups: groupRotarySpecs(content.model, method, content.groupMethods),
   });
   return {
     targetContext,

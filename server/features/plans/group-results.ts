@@ -7,7 +7,7 @@ import {
 import type { GroupResult, ModelSnapshot } from "../../../shared/schemas/plans";
 import type { LayerGroup } from "../../../shared/schemas";
 import { NO_ROPE, scaledGroupIndex } from "../../../shared/layer-groups";
-import { rotaryShapeOf } from "../../../shared/profile-shapes";
+import { groupShape, rotaryShapeOf } from "../../../shared/profile-shapes";
 // A cycle-free import: revision-content.ts imports this file only for the two functions below, and stageResult is
 // passed in rather than imported back.
 type StageFn = (
@@ -24,13 +24,6 @@ type StageFn = (
  */
 
 const AS_TRAINED: MethodParams = { method: "default" };
-
-/** The group's own rotary shape: its base and rotary dimension over the profile's head shape. */
-const groupShape = (model: ModelSnapshot, g: LayerGroup) => ({
-  ...rotaryShapeOf(model),
-  ropeTheta: g.ropeTheta ?? model.ropeTheta,
-  partialRotaryFactor: g.rotaryDim / model.headDim,
-});
 
 /**
  * How far the group's layers attend: a sliding window masks keys farther than the window, so as trained those layers

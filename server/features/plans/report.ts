@@ -1,5 +1,6 @@
 import type { RevisionContent } from "./revision-content";
 import { findMethod } from "../../../shared/methods";
+import { groupsSection } from "./report-groups";
 
 const esc = (v: unknown) =>
   String(v ?? "").replace(
@@ -136,6 +137,7 @@ ${row([`${c.model.name} (${c.model.family})`, c.results.rotaryDim, n(c.model.rop
 <p>Attention factor ${n(f.attentionFactor)}; pairs reaching unseen angles ${f.summary.unseenAnglesPairs}, with compressed resolution ${f.summary.compressedResolutionPairs},
 longer than the trained window ${f.summary.exceedsTrainedWindowPairs}. Critical dimension ${c.results.criticalDimension} (Liu et al. 2023).</p>
 ${wavelengthChart(c)}
+${groupsSection(c)}
 <p>Configuration patch:</p><pre><code>${esc(JSON.stringify(f.patch, null, 2))}</code></pre>
 <h2>Stages</h2>${c.stages.length ? `<table>${head(["#", "target", "method", "steps", "batch", "seq len", "lr", "data mix", "unseen / compressed / beyond window"])}${stageRows}</table>` : "<p>No stages.</p>"}
 ${budgetHtml ?? ""}

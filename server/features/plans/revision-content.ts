@@ -15,6 +15,7 @@ import {
 import type { ModelRow } from "../models";
 import type { ModelSnapshot, RevisionContent } from "../../../shared/schemas/plans";
 import { rotaryShapeOf } from "../../../shared/profile-shapes";
+import { groupRotarySpecs } from "../../../shared/layer-groups";
 import { groupMethodIssues, groupResults } from "./group-results";
 
 /**
@@ -121,11 +122,17 @@ export function hashContent(content: unknown): string {
 }
 
 /**
- * The revision's rotary fingerprint (docs/fingerprint.md), from its frozen model snapshot and final block. Stored in
+ * The revision's rotary fingerprint (docs/fingerprint.md), from its frozen model snapshot and final block, over every
+ * rotating layer group of a layered model (a single-group snapshot hashes as it always did). Stored in
  * its own column, outside the hashed content, so revisions made before fingerprints existed keep their content hash.
  */
 export const fingerprintContent = (content: RevisionContent) =>
-  planFingerprint(rotaryShapeOf(content.model), content.targetContext, content.method);
+  planFingerprint(
+    rotaryShapeOf(content.model),
+    content.targetContext,
+    content.method,
+    groupRotarySpecs(content.model, content.method, content.groupMethods),
+  );
 
 /** The stored fingerprint, or for a row written before the column existed and not yet backfilled, computed now. */
 export const fingerprintOfRow = (row: { rotaryFingerprint: string | null; content: unknown }) =>

@@ -4,6 +4,7 @@ import { describe, expect, it } from "vitest";
 import { exportEnvelopeSchema, revisionResponseSchema } from "../../../shared/schemas/plans";
 import { makeTestApp, type Agent } from "../../setup/app";
 import { decide, post, put } from "../../setup/plans";
+import { handFingerprint, plainRope } from "../../setup/hand-fingerprint";
 
 /*
  * Plans on a layered model (issue 11): five local-window layers (base 10 000, window 1024) per full-attention layer
@@ -119,5 +120,48 @@ describe("a plan holds a method per layer group", () => {
     const rev = (await researcher.get(`/api/plans/${created.body.id}/revisions/1`).expect(200)).body;
     expect(rev.content.results.groups).toBeUndefined();
     expect(rev.content.model.layerGroups).toBeUndefined();
+  });
+});
+
+describe("the fingerprint, the conformance matrix and the report cover every layer group", () => {
+  it("a linear ×4 plan on the layered model: one fingerprint record per group, v5 exact per group, flat stacks unsupported", async () => {
+    const researcher = await agentAs(["researcher"]);
+    const approver = await agentAs(["approver"]);
+    const modelId = await layeredModel(researcher);
+    const method = { method: "linear", factor: 4 };
+    const created = await post(researcher, "/api/plans", plan(modelId, { method })).expect(201);
+    const base = `/api/plans/${created.body.id}/revisions/1`;
+    const rev = (await researcher.get(base).expect(200)).body;
+    // Layers 0–4 (local, as trained over 10 000) come first, then layer 5 (full, 1e6 / 4): docs/fingerprint.md.
+    const expected = handFingerprint([
+      { d: 256, a: 1, theta: plainRope(256, 1e4) },
+      { d: 256, a: 1, theta: plainRope(256, 1e6).map((t) => t / 4) },
+    ]);
+    expect(rev.rotaryFingerprint).toBe(expected);
+    // POST /api/exports on the profile (the workbench and the matrix) computes the same fingerprint.
+    const fresh = await post(researcher, "/api/exports", { model: { modelId }, targetContext: 65536, method }).expect(
+      200,
+    );
+    expect(fresh.body.fingerprint).toBe(expected);
+    const v5 = fresh.body.targets.find((t: { id: string }) => t.id === "transformers-v5");
+    expect(v5.conformance.groups.map((g: { kind: string; status: string }) => [g.kind, g.status])).toEqual([
+      ["sliding_attention", "exact"],
+      ["full_attention", "exact"],
+    ]);
+    for (const t of fresh.body.targets.filter((x: { id: string }) => x.id !== "transformers-v5")) {
+      expect(t.conformance.status, t.id).toBe("unsupported");
+      expect(t.conformance.cause, t.id).toMatch(/sliding_attention layers/);
+    }
+
+    await post(researcher, `${base}/submit`).expect(200);
+    await decide(approver, `${base}/decisions`, { decision: "approve" }).expect(200);
+    const exp = await researcher.get(`/api/plans/${created.body.id}/approved/export?target=vllm`).expect(200);
+    expect(exp.body.fingerprint).toBe(expected);
+    expect(exp.body.target.conformance.status).toBe("unsupported");
+
+    // The signed report lists each group with its own flags.
+    const report = await researcher.get(`${base}/report`).expect(200);
+    expect(report.text).toContain("<h2>Layer groups</h2>");
+    expect(report.text).toMatch(/<tr data-kind="sliding_attention"><td>sliding_attention \(10 layers: 0–4, 6–10\)/);
   });
 });

@@ -4,6 +4,7 @@ import { writeJsonText } from "../json-text";
 import { CONFIG_FLOAT_KEYS, floatKeyTest } from "../float-keys";
 import { type Obj } from "./config-view";
 import { isObj } from "../../../../shared/json-values";
+import type { GroupRotary } from "../../group-rotary";
 
 /** Which rule set a config patch is written for (the matching readers are read-v4.ts and read-v5.ts). */
 export type HfRules = "early" | "v4" | "v5";
@@ -144,6 +145,15 @@ function trainedBlock(config: Obj, existing: Obj): Obj {
   return { ...rest, rope_type: ropeType ?? type ?? "default", rope_theta: typeof theta === "number" ? theta : 10000 };
 }
 
+/** A non-scaled group's own block: its method placed over its own base and rotary dimension (v5 rules). */
+function groupBlock(input: CompileInput, g: GroupRotary): Obj {
+  const placed = place(
+    { ...input, method: g.method, plan: { ...input.plan, rotaryDim: g.rotaryDim, base: g.base } },
+    "v5",
+  );
+  return { ...(placed.block ?? { rope_type: "default" }), rope_theta: placed.base };
+}
+
 /** The merge patch for the v5 layout: everything inside `rope_parameters`, nested by layer type when the config has them. */
 export function compileV5(input: CompileInput): CompileResult {
   const placed = place(input, "v5");
@@ -160,9 +170,14 @@ export function compileV5(input: CompileInput): CompileResult {
     // The plan scales the full-attention layers only (issue 11, shared/layer-groups.ts): every other layer type keeps
     // exactly what it was trained with. A nested entry is simply left out of the merge patch (RFC 7396: untouched);
     // a flat config gets the local layers' trained setting written under their type.
-    const scaled = layerTypes.includes(FULL_ATTENTION) ? FULL_ATTENTION : layerTypes[0];
+    const planned = input.plan.groups;
+    const scaled =
+      planned?.find((g) => g.scaled)?.kind ?? (layerTypes.includes(FULL_ATTENTION) ? FULL_ATTENTION : layerTypes[0]);
     for (const t of layerTypes) {
+      // A group the plan gives its own method (groupMethods) gets that method's block over its own base and dimension.
+      const own = planned?.find((g) => g.kind === t && !g.scaled && g.method.method !== "default");
       if (t === scaled) rp[t] = clearStale(nested ? existing[t] : {}, block, keep);
+      else if (own) rp[t] = clearStale(nested ? existing[t] : {}, groupBlock(input, own), keep);
       else if (!nested) rp[t] = trainedBlock(config, existing);
     }
   } else {

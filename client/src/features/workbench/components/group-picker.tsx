@@ -1,7 +1,6 @@
 import { useId } from "react";
-import type { LayerGroup, ModelProfile } from "@shared/schemas/models";
+import type { LayerGroup } from "@shared/schemas/models";
 import { NO_ROPE, scaledGroupIndex } from "@shared/layer-groups";
-import { rotaryShapeOf } from "@shared/profile-shapes";
 
 const WORDS: Record<string, string> = { full_attention: "full attention", sliding_attention: "local window" };
 const label = (g: LayerGroup, scaled: boolean) =>
@@ -13,13 +12,6 @@ const label = (g: LayerGroup, scaled: boolean) =>
 export function pickGroup(groups: LayerGroup[], kind: string | undefined): LayerGroup | undefined {
   const asked = groups.find((g) => g.kind === kind && g.kind !== NO_ROPE);
   return asked ?? groups[scaledGroupIndex(groups)];
-}
-
-/** The engine's model shape for one group: its own base and rotary dimension over the profile's heads. */
-export function groupShape(m: ModelProfile, g: LayerGroup | undefined) {
-  const shape = rotaryShapeOf(m);
-  if (!g || g.ropeTheta === null) return shape;
-  return { ...shape, ropeTheta: g.ropeTheta, partialRotaryFactor: g.rotaryDim / m.headDim };
 }
 
 /** Layered models: which layer group the workbench analyses, one at a time. Layers without rotary are not offered. */

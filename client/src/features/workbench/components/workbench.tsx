@@ -10,8 +10,9 @@ import { isApiError } from "@/lib/api-client";
 import { analysesQueries } from "@/lib/api/analyses";
 import { useDebounced } from "@/lib/use-debounced";
 import { withDefaults } from "../state/defaults";
-import { layerGroupsOf } from "@shared/layer-groups";
-import { GroupPicker, groupShape, pickGroup } from "./group-picker";
+import { layerGroupsOf, scaledGroupIndex } from "@shared/layer-groups";
+import { groupShape } from "@shared/profile-shapes";
+import { GroupPicker, pickGroup } from "./group-picker";
 import type { WorkbenchInputs as Inputs } from "../state/inputs";
 import { toRequest } from "../state/to-request";
 import { inputsToParams, parseInputs } from "../state/url-codec";
@@ -56,12 +57,20 @@ export function Workbench({ profiles, profileNotes }: WorkbenchProps) {
   const shownMethod = answered
     ? answered.request.methods[Math.min(inputs.view, answered.request.methods.length - 1)]
     : null;
+  // A layered profile analysed on the group plans scale compiles like a plan: every other group as trained, and the
+  // matrix and fingerprint cover them all. Another group on show is compiled on its own.
+  const layered = groups.length > 1 && group === groups[scaledGroupIndex(groups)] ? groups : undefined;
   const exportRequest = useMemo<ExportRequest | null>(
     () =>
       answered && shownMethod
-        ? { model: answered.request.model, targetContext: answered.request.targetContext, method: shownMethod }
+        ? {
+            model: answered.request.model,
+            targetContext: answered.request.targetContext,
+            method: shownMethod,
+            ...(layered ? { layerGroups: layered } : {}),
+          }
         : null,
-    [answered, shownMethod],
+    [answered, shownMethod, layered],
   );
 
   const trainedContext =
