@@ -1,9 +1,17 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, BrowserContext, Page } from "playwright-core";
+import crypto from "node:crypto";
 import fs from "node:fs";
 import path from "node:path";
 import type { Locator } from "playwright-core";
-import { SCREENSHOT_DIR, launchBrowser, requireBuiltClient, screenshot, signIn } from "../setup/browser";
+import {
+  SCREENSHOT_DIR,
+  downloadedText,
+  launchBrowser,
+  requireBuiltClient,
+  screenshot,
+  signIn,
+} from "../setup/browser";
 import { makeTestApp } from "../setup/app";
 import { createPlan, createProfile, decide, post } from "../setup/plans";
 import { criterion, fullProvenance, upload } from "../setup/evidence";
@@ -95,7 +103,7 @@ afterAll(async () => {
 });
 
 async function signedIn(who: TestUser, to: string, width = 1280): Promise<Page> {
-  const context = await browser.newContext({ viewport: { width, height: 900 } });
+  const context = await browser.newContext({ viewport: { width, height: 900 }, acceptDownloads: true });
   contexts.push(context);
   const page = await context.newPage();
   page.on("pageerror", (e) => errors.push(`${who.name}: ${e.message}`));
@@ -158,7 +166,15 @@ describe("evidence and proof in the browser", () => {
     const verdict = section.locator('[data-criterion="0"]');
     expect(await verdict.getAttribute("data-status")).toBe("pass");
     expect(await verdict.getByTestId("observed").textContent()).toBe("0.950 (95.0 %), must be ≥ 0.900 (90.0 %)");
-    expect(await section.getByTestId("evidence-checksum").textContent()).toMatch(/^[0-9a-f]{64}$/);
+    const checksum = await section.getByTestId("evidence-checksum").textContent();
+    expect(checksum).toBe(crypto.createHash("sha256").update(PASSKEY_CSV).digest("hex"));
+    // the file comes back from PostgreSQL byte for byte
+    const [download] = await Promise.all([
+      page.waitForEvent("download"),
+      section.getByRole("link", { name: "passkey.csv" }).click(),
+    ]);
+    expect(download.suggestedFilename()).toBe("passkey.csv");
+    expect(await downloadedText(download)).toBe(PASSKEY_CSV);
     await sectionShot(page, section, "evidence-heatmap");
   }, 90_000);
 
