@@ -113,7 +113,7 @@ describe("conformance matrix in the three screens", () => {
 
   it("decision dialog: the approver sees the matrix before signing", async () => {
     const page = await signedIn(approver, `/plans/${planId}`);
-    await page.getByRole("button", { name: "Decide on revision 1" }).click();
+    await page.getByRole("button", { name: "Inspect revision 1" }).click();
     const dialog = page.getByRole("dialog");
     const section = dialog.getByRole("region", { name: "How each stack reads this revision" });
     const matrix = await expectMatrix(section);
@@ -124,7 +124,7 @@ describe("conformance matrix in the three screens", () => {
     const [matrixTop, signTop] = await Promise.all([
       section.boundingBox().then((b) => b!.y),
       dialog
-        .getByRole("button", { name: "Sign and approve" })
+        .getByRole("button", { name: "Sign and pass" })
         .boundingBox()
         .then((b) => b!.y),
     ]);

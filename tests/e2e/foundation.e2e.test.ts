@@ -25,8 +25,8 @@ afterAll(async () => {
 const navLabels = (page: Page) => page.getByRole("navigation", { name: "Main" }).getByRole("link").allTextContents();
 
 // Screens shown only to some roles (the issues' rules, written out by hand): Users and Mail for admins,
-// Review for approvers, Audit for admins and approvers. Everything else is for everyone signed in.
-const RESTRICTED = ["Users", "Review", "Audit", "Mail"];
+// Inspection (the review queue) for approvers, Audit for admins and approvers. Everything else is for everyone signed in.
+const RESTRICTED = ["Users", "Inspection", "Audit", "Mail"];
 const restricted = (labels: string[]) => labels.filter((l) => RESTRICTED.includes(l));
 
 describe("foundation screens in a browser", () => {
@@ -105,7 +105,7 @@ describe("foundation screens in a browser", () => {
     const rosaNav = await navLabels(page);
     expect(rosaNav).toContain("Home");
     expect(rosaNav).toContain("Profile");
-    expect(restricted(rosaNav)).toEqual(["Review", "Audit"]);
+    expect(restricted(rosaNav)).toEqual(["Inspection", "Audit"]);
     const roles = await page.getByLabel("Your roles").textContent();
     expect(roles).toContain("Researcher");
     expect(roles).toContain("Approver");

@@ -106,25 +106,25 @@ describe("a layered model from import to an approved export", () => {
     expect(await local.textContent()).toContain("no pair sees unseen angles");
     expect(await groups.locator('tr[data-kind="full_attention"]').textContent()).toContain("takes the plan's method");
     await screenshot(page, "layouts-plan-groups");
-    await page.getByRole("button", { name: "Submit for review" }).click();
+    await page.getByRole("button", { name: "Send to inspection" }).click();
     await expect
       .poll(() => page.getByRole("list", { name: "Revisions" }).textContent(), { timeout: 15_000 })
-      .toContain("In review");
+      .toContain("At inspection");
   }, 60_000);
 
   it("an approver signs it; the export nests rope_parameters by layer type with the local layers untouched", async () => {
     expect(planId).toBeGreaterThan(0);
     const page = await signedIn(approver, `/plans/${planId}`);
-    await page.getByRole("button", { name: "Decide on revision 1" }).click();
+    await page.getByRole("button", { name: "Inspect revision 1" }).click();
     const dialog = page.getByRole("dialog");
     await dialog.waitFor();
-    await dialog.getByRole("button", { name: "Sign and approve" }).click();
+    await dialog.getByRole("button", { name: "Sign and pass" }).click();
     await page.getByText("Revision 1 is approved and signed.").waitFor();
 
     const owner = await signedIn(researcher, `/plans/${planId}`);
     await expect
       .poll(() => owner.getByRole("list", { name: "Revisions" }).textContent(), { timeout: 15_000 })
-      .toContain("Approved");
+      .toContain("Passed");
     const [download] = await Promise.all([
       owner.waitForEvent("download"),
       owner.getByRole("link", { name: "Download export (config patch JSON)" }).click(),

@@ -75,15 +75,15 @@ const stage = (page: Page, n: number) => page.getByRole("group", { name: `Stage 
 
 async function approveFromQueue(who: TestUser, expectNotice: string) {
   const page = await signedIn(who, "/review");
-  await page.getByRole("heading", { level: 1, name: "Review" }).waitFor();
-  await page.getByRole("button", { name: `Decide on ${title} revision 1` }).click();
+  await page.getByRole("heading", { level: 1, name: "Inspection" }).waitFor();
+  await page.getByRole("button", { name: `Inspect ${title} revision 1` }).click();
   const dialog = page.getByRole("dialog");
   await dialog.waitFor();
   // The dialog names the exact hash the decision signs: the one the plan page showed.
   expect(await dialog.getByTestId("hash-to-sign").textContent()).toBe(signedHash);
   await screenshot(page, "plans-decision-dialog");
   await dialog.getByLabel("Comment (optional)").fill(`Checked by ${who.name}.`);
-  await dialog.getByRole("button", { name: "Sign and approve" }).click();
+  await dialog.getByRole("button", { name: "Sign and pass" }).click();
   await page.getByText(expectNotice).waitFor();
   await dialog.waitFor({ state: "detached" });
   return page;
@@ -104,7 +104,7 @@ describe("plan workflow in a browser", () => {
     await form.getByLabel("Title").fill(title);
     await form.getByLabel("Model", { exact: true }).selectOption({ label: profile.name });
     await form.getByLabel("Purpose").fill("Long documents for the support assistant");
-    await form.getByLabel("Approvals required").selectOption("2");
+    await form.getByLabel("Passes required").selectOption("2");
     await form.getByLabel("Method", { exact: true }).selectOption("yarn");
 
     // A target inside the trained window passes the form's own schema; the server's model check names the field.
@@ -146,19 +146,19 @@ describe("plan workflow in a browser", () => {
     await view.getByRole("table", { name: "Stages" }).waitFor();
     await expect(view.getByRole("table", { name: "Stages" }).locator("tbody tr").count()).resolves.toBe(2);
     await expect
-      .poll(() => page.getByText("Approvals needed").locator("xpath=following-sibling::dd[1]").textContent(), {
+      .poll(() => page.getByText("Passes needed").locator("xpath=following-sibling::dd[1]").textContent(), {
         timeout: 15_000,
       })
       .toContain("2");
 
-    await page.getByRole("button", { name: "Submit for review" }).click();
+    await page.getByRole("button", { name: "Send to inspection" }).click();
     await page
       .getByRole("group", { name: "Revision actions" })
-      .getByRole("button", { name: "Withdraw to draft" })
+      .getByRole("button", { name: "Take back to the walk" })
       .waitFor();
     await expect
       .poll(() => page.getByRole("list", { name: "Revisions" }).textContent(), { timeout: 15_000 })
-      .toContain("In review");
+      .toContain("At inspection");
     signedHash = (await page.getByTestId("content-hash").textContent()) ?? "";
     expect(signedHash).toMatch(/^[0-9a-f]{64}$/);
     await page.getByTestId("verify-status").and(page.locator('[data-ok="true"]')).waitFor();
@@ -197,20 +197,20 @@ describe("plan workflow in a browser", () => {
     await approveFromQueue(approverA, "approved by you; it waits for more approvals");
     // The second approver decides from the plan page itself.
     const page = await signedIn(approverB, `/plans/${planId}`);
-    await page.getByRole("button", { name: "Decide on revision 1" }).click();
+    await page.getByRole("button", { name: "Inspect revision 1" }).click();
     const dialog = page.getByRole("dialog");
     expect(await dialog.getByTestId("hash-to-sign").textContent()).toBe(signedHash);
-    await expect.poll(() => dialog.textContent(), { timeout: 15_000 }).toContain("Approvals so far: 1 of 2");
+    await expect.poll(() => dialog.textContent(), { timeout: 15_000 }).toContain("So far 1 of 2 passes");
     await dialog.getByLabel("Comment (optional)").fill(`Checked by ${approverB.name}.`);
-    await dialog.getByRole("button", { name: "Sign and approve" }).click();
+    await dialog.getByRole("button", { name: "Sign and pass" }).click();
     await page.getByText("Revision 1 is approved and signed.").waitFor();
     await expect
       .poll(() => page.getByRole("list", { name: "Revisions" }).textContent(), { timeout: 15_000 })
-      .toContain("Approved");
+      .toContain("Passed");
     // Decided revisions leave the queue.
     await page.goto(`${server.url}/review`);
-    await page.getByRole("table", { name: "Review queue" }).waitFor();
-    await expect(page.getByRole("button", { name: `Decide on ${title} revision 1` }).count()).resolves.toBe(0);
+    await page.getByRole("table", { name: "Inspection bench" }).waitFor();
+    await expect(page.getByRole("button", { name: `Inspect ${title} revision 1` }).count()).resolves.toBe(0);
   }, 60_000);
 
   it("the researcher sees Approved and downloads the export and the report", async () => {
@@ -218,7 +218,7 @@ describe("plan workflow in a browser", () => {
     await page.getByRole("heading", { level: 1, name: title }).waitFor();
     await expect
       .poll(() => page.getByRole("list", { name: "Revisions" }).textContent(), { timeout: 15_000 })
-      .toContain("Approved");
+      .toContain("Passed");
     await page.getByTestId("verify-status").and(page.locator('[data-ok="true"]')).waitFor();
     await expect(
       page.getByRole("list", { name: "Decisions" }).getByTestId("signed-hash").allTextContents(),
@@ -267,11 +267,11 @@ describe("plan workflow in a browser", () => {
     await otherForm.waitFor();
 
     await stage(page, 2).getByLabel("Steps").fill("300");
-    await form.getByLabel("Notes for reviewers").fill("Longer second stage after the first review.");
+    await form.getByLabel("Notes for inspectors").fill("Longer second stage after the first review.");
     await form.getByRole("button", { name: "Save draft" }).click();
     await page.getByText("Saved as version 2").waitFor();
 
-    await otherForm.getByLabel("Notes for reviewers").fill("A competing edit.");
+    await otherForm.getByLabel("Notes for inspectors").fill("A competing edit.");
     await otherForm.getByRole("button", { name: "Save draft" }).click();
     await other.getByText("Changed since you read it — reload").waitFor();
     await other.getByRole("button", { name: "Reload the saved draft" }).click();
@@ -280,11 +280,14 @@ describe("plan workflow in a browser", () => {
     );
     await other.close();
 
-    await page.goto(`${server.url}/plans/${planId}/diff?a=1&b=2`);
+    await page.goto(`${server.url}/plans/${planId}?revision=2`);
+    await page.getByRole("link", { name: "Lay revisions side by side" }).click();
+    await page.waitForURL(new RegExp(`/plans/${planId}/diff\\?a=1&b=2$`));
     const stages = page.getByRole("region", { name: "Changed stages" });
     await stages.getByText("Stage 2: 1 field changed").waitFor();
+    // Was 200, now 300 steps: +100 and ×1.5 (300 ÷ 200).
     await expect(stages.getByRole("table", { name: "Stage 2 changes" }).textContent()).resolves.toMatch(
-      /steps.*200.*300/,
+      /steps.*200.*300.*\+100 · ×1\.5/,
     );
     await expect
       .poll(() => page.getByRole("region", { name: "Changed fields" }).textContent(), { timeout: 15_000 })
@@ -296,7 +299,7 @@ describe("plan workflow in a browser", () => {
     const page = await signedIn(approverA, `/audit?subjectType=plan&subjectId=${planId}`);
     const table = page.getByRole("table", { name: "Audit trail" });
     await table.getByText("revision.approved").waitFor();
-    const actions = await table.locator("tbody tr td:nth-child(3)").allTextContents();
+    const actions = await table.locator("tbody tr td:nth-child(3) [data-code]").allTextContents();
     for (const a of [
       "plan.created",
       "revision.submitted",
@@ -309,6 +312,9 @@ describe("plan workflow in a browser", () => {
       expect(actions).toContain(a);
     }
     expect(actions.filter((a) => a === "decision.approved")).toHaveLength(2);
+    // Workflow codes also read in the review words (docs/review-words.md); the code stays beside them.
+    const passed = table.locator("tbody tr td:nth-child(3)", { hasText: "revision.approved" });
+    await expect(passed.first().textContent()).resolves.toContain("Passed");
     // The editor sends only what was edited, so the trail names exactly those fields.
     const edited = await table.locator("tbody tr", { hasText: "revision.edited" }).textContent();
     expect(edited).toContain('["stages","notes"]');

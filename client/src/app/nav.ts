@@ -18,7 +18,7 @@ export const NAV = [
   { id: "plans", label: "Plans", to: routes.plans, audience: "everyone" },
   { id: "estimator", label: "Estimator", to: routes.estimator, audience: "everyone" },
   { id: "accelerators", label: "Accelerators", to: routes.accelerators, audience: "everyone" },
-  { id: "review", label: "Review", to: routes.review, audience: ["approver"] },
+  { id: "review", label: "Inspection", to: routes.review, audience: ["approver"] },
   { id: "audit", label: "Audit", to: routes.audit, audience: ["admin", "approver"] },
   { id: "mail", label: "Mail", to: routes.mail, audience: ["admin"] },
   { id: "profile", label: "Profile", to: routes.profile, audience: "everyone" },

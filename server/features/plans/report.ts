@@ -1,6 +1,8 @@
 import type { RevisionContent } from "./revision-content";
 import { findMethod } from "../../../shared/methods";
 import { groupsSection } from "./report-groups";
+import { DECISION_WORDS, STATE_WORDS } from "../../../shared/review-words";
+import type { RevisionState } from "../../../shared/schemas/plans";
 
 const esc = (v: unknown) =>
   String(v ?? "").replace(
@@ -127,7 +129,7 @@ td,th{border:1px solid #d9cfbd;padding:3px 6px;text-align:left;vertical-align:to
 .bad{color:#b23a2e;font-weight:600}.ok{color:#2d7a74;font-weight:600}.caution{background:#f6f1e7;padding:.6rem;border-left:4px solid #9a5b1f}
 @media print{body{margin:0}}</style></head><body>
 <h1>${esc(plan.title)}</h1>
-<p>Plan #${plan.id}, revision ${revision.number} (${esc(revision.state)}) · owner ${esc(plan.owner?.name)} · engine ${esc(revision.engineVersion)}</p>
+<p>Plan #${plan.id}, revision ${revision.number} (${esc(STATE_WORDS[revision.state as RevisionState] ?? revision.state)}) · owner ${esc(plan.owner?.name)} · engine ${esc(revision.engineVersion)}</p>
 <p>Content hash (SHA-256 of RFC 8785 canonical JSON): <code>${esc(revision.contentHash)}</code> —
 ${verified ? '<span class="ok">verified: the stored content matches its hash and every decision\'s server signature holds</span>' : `<span class="bad">INTEGRITY CHECK FAILED: ${esc(problems.join("; ") || "the stored content does not match its hash")}</span>`}</p>
 <p>${esc(plan.purpose)}</p>
@@ -142,7 +144,7 @@ ${groupsSection(c)}
 <h2>Stages</h2>${c.stages.length ? `<table>${head(["#", "target", "method", "steps", "batch", "seq len", "lr", "data mix", "unseen / compressed / beyond window"])}${stageRows}</table>` : "<p>No stages.</p>"}
 ${budgetHtml ?? ""}
 <h2>Acceptance criteria</h2>${c.acceptance.length ? `<table>${head(["evaluation", "context", "metric", "must be"])}${c.acceptance.map((a) => row([a.evaluation, n(a.contextLength), a.metric, `${a.comparison} ${a.threshold}`])).join("")}</table>` : "<p>None stated.</p>"}
-<h2>Decisions</h2>${decisions.length ? `<table>${head(["approver", "decision", "comment", "signed hash", "at"])}${decisions.map((d) => `<tr><td>${esc(d.approver.name)}</td><td>${esc(d.decision)}</td><td>${esc(d.comment)}</td><td><code>${esc(d.signedHash)}</code></td><td>${esc(d.at)}</td></tr>`).join("")}</table>` : "<p>No decisions yet.</p>"}
+<h2>Decisions</h2>${decisions.length ? `<table>${head(["inspector", "decision", "comment", "signed hash", "at"])}${decisions.map((d) => `<tr><td>${esc(d.approver.name)}</td><td>${esc(DECISION_WORDS[d.decision as keyof typeof DECISION_WORDS]?.done ?? d.decision)}</td><td>${esc(d.comment)}</td><td><code>${esc(d.signedHash)}</code></td><td>${esc(d.at)}</td></tr>`).join("")}</table>` : "<p>No decisions yet.</p>"}
 ${proofSection(revision.state, proof)}
 <h2>Notes</h2><p>${esc(c.notes) || "—"}</p>
 <p class="caution">Every figure here is an estimate under the stated conventions. A plan is confirmed only by long-context evaluations of the tuned model.</p>

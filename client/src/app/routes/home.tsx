@@ -15,7 +15,7 @@ const POINTERS: Record<Role, Pointer> = {
     link: { to: paths.users(), label: "Manage users" },
   },
   researcher: {
-    text: "Import a model's configuration, compare rescaling methods pair by pair in the workbench, and draft a staged plan for review.",
+    text: "Import a model's configuration, compare rescaling methods pair by pair in the workbench, and draft a staged plan to send to inspection.",
     link: { to: paths.modelImport(), label: "Import a config.json" },
   },
   infra: {
@@ -23,7 +23,7 @@ const POINTERS: Record<Role, Pointer> = {
     link: { to: paths.estimator(), label: "Open the estimator" },
   },
   approver: {
-    text: "Review submitted plans, question the figures, and sign the exact revision (its hash) that is ready for a tuning run.",
+    text: "Inspect the revisions sent to you, question the figures, and pass the exact revision (its hash) that is ready for a tuning run, or send it back to the walk with a note.",
     link: { to: paths.review(), label: "Open the review queue" },
   },
   viewer: {

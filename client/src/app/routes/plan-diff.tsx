@@ -27,7 +27,7 @@ export function PlanDiffRoute() {
 
   return (
     <Page
-      title={plan.data ? `${plan.data.title}: what changed` : "What changed"}
+      title={plan.data ? `${plan.data.title}: revisions side by side` : "Revisions side by side"}
       lead={
         <Link className="text-seaglass underline underline-offset-4" to={paths.plan(id)}>
           Back to the plan
@@ -40,11 +40,11 @@ export function PlanDiffRoute() {
         </Notice>
       )}
       {plan.data && (
-        <div className="grid max-w-md grid-cols-2 gap-3">
+        <div className="grid max-w-md grid-cols-2 gap-3" role="group" aria-label="Revisions to lay side by side">
           {(["a", "b"] as const).map((key) => (
             <SelectField
               key={key}
-              label={key === "a" ? "From revision" : "To revision"}
+              label={key === "a" ? "Was (revision)" : "Now (revision)"}
               value={key === "a" ? a : b}
               onChange={(e) => pick(key, e.target.value)}
             >
@@ -57,10 +57,10 @@ export function PlanDiffRoute() {
           ))}
         </div>
       )}
-      {a === b && <Notice>Pick two different revisions to compare.</Notice>}
-      {diff.isPending && a !== b && <Loading label="Comparing…" />}
+      {a === b && <Notice>Pick two different revisions to lay side by side.</Notice>}
+      {diff.isPending && a !== b && <Loading label="Laying them side by side…" />}
       {diff.isError && (
-        <Notice tone="alert" title="Could not compare">
+        <Notice tone="alert" title="Could not lay them side by side">
           {diff.error.message}
         </Notice>
       )}

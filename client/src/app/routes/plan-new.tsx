@@ -37,7 +37,7 @@ export function PlanNewRoute() {
   return (
     <Page
       title="New plan"
-      lead="Name the plan, pick the model it extends, and lay out the first revision. It is saved as a draft; submit it for review from its page."
+      lead="Name the plan, pick the model it extends, and lay out the first revision. It is saved on the walk (a draft); send it to inspection from its page."
     >
       {(models.isPending || settings.isPending) && <Loading />}
       {models.isError && (

@@ -2,6 +2,7 @@ import { useState } from "react";
 import { Link, useParams, useSearchParams } from "react-router-dom";
 import { useQuery } from "@tanstack/react-query";
 import type { RevisionContent } from "@shared/schemas/plans";
+import { ACTION_WORDS, passesText } from "@shared/review-words";
 import { ErrorView } from "@/components/error-view";
 import { Page, Panel } from "@/components/page";
 import { Loading, Notice } from "@/components/notice";
@@ -97,10 +98,10 @@ export function PlanRoute() {
             setDeciding(false);
             setNotice(
               state === "approved"
-                ? `Revision ${n} is approved and signed.`
+                ? `Revision ${n} passed inspection and is signed.`
                 : state === "in_review"
-                  ? "Your approval is recorded; the revision waits for more."
-                  : "Sent back to its author for changes.",
+                  ? "Your pass is recorded; the revision waits for more inspectors."
+                  : "Sent back to the walk, with your note to its author.",
             );
             void refreshPlan(p.id);
           }}
@@ -115,7 +116,7 @@ export function PlanRoute() {
               className="text-body text-seaglass underline underline-offset-4"
               to={paths.planDiff(p.id, n > 1 ? n - 1 : 1, n > 1 ? n : 2)}
             >
-              Compare revisions
+              {ACTION_WORDS.compare}
             </Link>
           )}
         </aside>
@@ -125,7 +126,7 @@ export function PlanRoute() {
             aside={
               <span className="text-note text-ink-soft">
                 {summary.author?.name} · {formatDateTime(summary.createdAt)}
-                {summary.submittedAt && ` · submitted ${formatDateTime(summary.submittedAt)}`}
+                {summary.submittedAt && ` · sent to inspection ${formatDateTime(summary.submittedAt)}`}
               </span>
             }
           >
@@ -217,7 +218,7 @@ export function PlanRoute() {
             title="Decisions"
             aside={
               <span className="text-note text-ink-soft">
-                {summary.approvals} of {p.effectiveRequiredApprovals} approvals this round
+                {passesText(summary.approvals, p.effectiveRequiredApprovals)} this round
               </span>
             }
           >

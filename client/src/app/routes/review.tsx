@@ -10,9 +10,9 @@ import { ReviewQueueTable } from "@/features/plans/components/review-queue-table
 import { Pager } from "@/features/plans/components/pager";
 
 const SAID: Record<string, string> = {
-  approved: "approved and signed; its export is ready",
-  in_review: "approved by you; it waits for more approvals",
-  changes_requested: "sent back to its author",
+  approved: "passed and signed; its export is ready",
+  in_review: "passed by you; it waits for more inspectors",
+  changes_requested: "sent back to the walk, with your note to its author",
 };
 
 export function ReviewRoute() {
@@ -23,11 +23,11 @@ export function ReviewRoute() {
   const [notice, setNotice] = useState<string | null>(null);
   return (
     <Page
-      title="Review"
-      lead="Submitted revisions waiting for your decision. You sign the exact content hash shown; a later change would need a new revision."
+      title="Inspection"
+      lead="Revisions sent to inspection and waiting for you. You sign the exact content hash shown; a later change would need a new revision."
     >
       {notice && <Notice tone="success">{notice}</Notice>}
-      <Panel title="Waiting for you">
+      <Panel title="On your bench">
         {queue.isPending && <Loading label="Loading the queue…" />}
         {queue.isError && (
           <Notice tone="alert" title="Could not load the queue">

@@ -3,6 +3,7 @@ import type { AuditEvent } from "@shared/schemas/audit";
 import { Button } from "@/components/button";
 import { TableView } from "@/components/table-view";
 import { formatDateTime } from "@/lib/format";
+import { AUDIT_ACTION_WORDS } from "@shared/review-words";
 
 /** One line per detail key; hashes and long values wrap instead of widening the table. */
 function Detail({ detail }: { detail: Record<string, unknown> }) {
@@ -56,7 +57,15 @@ export function AuditTable({ events, onActor, onSubject, busy = false }: AuditTa
     }),
     column.accessor("action", {
       header: "Action",
-      cell: (c) => <span className="font-mono text-note">{c.getValue()}</span>,
+      // The recorded code stays visible (filters match it); workflow codes also get their words.
+      cell: (c) => (
+        <span className="flex flex-col">
+          {AUDIT_ACTION_WORDS[c.getValue()] && <span className="text-body">{AUDIT_ACTION_WORDS[c.getValue()]}</span>}
+          <span className="font-mono text-note" data-code>
+            {c.getValue()}
+          </span>
+        </span>
+      ),
     }),
     column.display({
       id: "subject",

@@ -3,6 +3,7 @@ import { useForm, useWatch } from "react-hook-form";
 import { useQuery } from "@tanstack/react-query";
 import { formResolver } from "@/lib/form-resolver";
 import { decisionRequestSchema } from "@shared/schemas/plans";
+import { DECISION_WORDS, STATE_WORDS, passesText } from "@shared/review-words";
 import { Button, SubmitButton } from "@/components/button";
 import { Field } from "@/components/field";
 import { Notice } from "@/components/notice";
@@ -26,12 +27,12 @@ const decisionFormSchema = decisionRequestSchema
   .omit({ contentHash: true })
   .refine((d) => d.decision === "approve" || d.comment.trim().length > 0, {
     path: ["comment"],
-    message: "say what should change",
+    message: "Say what to re-lay before sending it back.",
   });
 
 type DecisionDialogProps = { target: DecisionTarget; onClose: () => void; onDecided: (state: string) => void };
 
-/** Approve or send back one revision; shows the exact hash the decision signs. */
+/** Pass or send back one revision at inspection; shows the exact hash the decision signs. */
 export function DecisionDialog({ target, onClose, onDecided }: DecisionDialogProps) {
   const ref = useRef<HTMLDialogElement>(null);
   const decide = useDecide();
@@ -63,7 +64,9 @@ export function DecisionDialog({ target, onClose, onDecided }: DecisionDialogPro
               `Not recorded: the revision changed after you opened it, so the hash above is no longer its content. Close this, read the revision again and decide on what it says now.`,
             );
           else if (isApiError(e) && e.status === 409 && e.fields?.state)
-            setError(`Not recorded: the revision is now ${e.fields.state.replace("_", " ")}. ${e.message}.`);
+            setError(
+              `Not recorded: the revision is now ${STATE_WORDS[e.fields.state as keyof typeof STATE_WORDS] ?? e.fields.state}. ${e.message}.`,
+            );
           else setError(isApiError(e) ? e.message : "Something went wrong. Try again.");
         },
       },
@@ -77,9 +80,9 @@ export function DecisionDialog({ target, onClose, onDecided }: DecisionDialogPro
       aria-labelledby="decision-title"
       className="m-auto max-h-[calc(100vh-2rem)] w-[min(56rem,calc(100vw-2rem))] overflow-y-auto rounded-lg border border-rule bg-paper p-0 text-ink shadow-xl backdrop:bg-ink/40"
     >
-      <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4 p-6" aria-label="Decision">
+      <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4 p-4 sm:p-6" aria-label="Decision">
         <h2 id="decision-title" className="text-title font-semibold">
-          Decide on {target.title}, revision {target.revision}
+          Inspect {target.title}, revision {target.revision}
         </h2>
         <div className="rounded-md border border-hemp/40 bg-hemp-pale/50 px-3 py-2">
           <p className="text-note font-semibold tracking-wide text-hemp-dark uppercase">
@@ -89,8 +92,8 @@ export function DecisionDialog({ target, onClose, onDecided }: DecisionDialogPro
             {shownHash}
           </code>
           <p className="mt-1 text-note text-ink-soft">
-            SHA-256 of the revision’s canonical content: every input, the engine’s figures and the budget sheet.
-            Approvals so far: {target.approvals} of {target.requiredApprovals}.
+            SHA-256 of the revision’s canonical content: every input, the engine’s figures and the budget sheet. So far{" "}
+            {passesText(target.approvals, target.requiredApprovals)}.
           </p>
           {revision.data?.rotaryFingerprint && (
             <p className="mt-1 text-note break-all text-ink-soft">
@@ -107,18 +110,28 @@ export function DecisionDialog({ target, onClose, onDecided }: DecisionDialogPro
         </section>
         {error && <Notice tone="alert">{error}</Notice>}
         <fieldset className="flex flex-col gap-2">
-          <legend className="mb-1 text-note font-semibold">Decision</legend>
-          <label className="inline-flex items-center gap-2 text-body">
-            <input type="radio" value="approve" className="size-4 accent-hemp" {...register("decision")} /> Approve:
-            this plan is ready for a tuning run
+          <legend className="mb-1 text-note font-semibold">Your finding</legend>
+          <label className="inline-flex items-start gap-2 text-body">
+            <input
+              type="radio"
+              value="approve"
+              className="mt-1 size-4 shrink-0 accent-hemp"
+              {...register("decision")}
+            />
+            <span>{DECISION_WORDS.approve.verb}: the plan is sound to tune with</span>
           </label>
-          <label className="inline-flex items-center gap-2 text-body">
-            <input type="radio" value="request_changes" className="size-4 accent-hemp" {...register("decision")} />{" "}
-            Request changes: send it back to its author
+          <label className="inline-flex items-start gap-2 text-body">
+            <input
+              type="radio"
+              value="request_changes"
+              className="mt-1 size-4 shrink-0 accent-hemp"
+              {...register("decision")}
+            />
+            <span>{DECISION_WORDS.request_changes.verb}: its author lays a new revision with what you note</span>
           </label>
         </fieldset>
         <Field
-          label={decision === "approve" ? "Comment (optional)" : "What should change"}
+          label={decision === "approve" ? "Note (optional)" : "What to re-lay (required)"}
           error={formState.errors.comment?.message}
         >
           {({ id, describedBy, invalid }) => (
@@ -137,7 +150,7 @@ export function DecisionDialog({ target, onClose, onDecided }: DecisionDialogPro
             Cancel
           </Button>
           <SubmitButton busy={decide.isPending} busyLabel="Recording…">
-            {decision === "approve" ? "Sign and approve" : "Send back for changes"}
+            {decision === "approve" ? DECISION_WORDS.approve.submit : DECISION_WORDS.request_changes.submit}
           </SubmitButton>
         </div>
       </form>

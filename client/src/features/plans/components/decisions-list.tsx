@@ -1,5 +1,6 @@
 import type { Decision } from "@shared/schemas/plans";
 import { formatDateTime, shortHash } from "@/lib/format";
+import { DECISION_WORDS } from "@shared/review-words";
 
 /** The server's signature on one decision, checked when the plan was read (docs/signing.md). */
 function SignatureLine({ d }: { d: Decision }) {
@@ -51,7 +52,7 @@ export function DecisionsList({
             className={`rounded-md border px-3 py-2 ${approve ? "border-seaglass/40 bg-seaglass-pale/50" : "border-signal/40 bg-signal-pale/60"}`}
           >
             <p className="text-body">
-              <span className="font-semibold">{approve ? "Approved" : "Changes requested"}</span> by {d.approver.name}{" "}
+              <span className="font-semibold">{DECISION_WORDS[d.decision].done}</span> by {d.approver.name}{" "}
               <span className="text-note text-ink-soft">
                 ({d.approver.email}) · {formatDateTime(d.at)} · round {d.round}
                 {d.round !== currentRound && " (earlier round)"}

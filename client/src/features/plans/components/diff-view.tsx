@@ -1,12 +1,11 @@
 import type { DiffResponse, FieldChange } from "@shared/schemas/plans";
 import { formatMoney, formatHours, shortHash } from "@/lib/format";
-import { formatPairRanges } from "../lib/pair-ranges";
-import { FLAG_INFO } from "./flags-summary";
 import { FramedTable } from "@/components/framed-table";
+import { formatPairRanges } from "../lib/pair-ranges";
+import { fieldDelta, showValue } from "../lib/field-delta";
+import { FLAG_INFO } from "./flags-summary";
 
-const show = (v: unknown) =>
-  v === null || v === undefined ? "—" : typeof v === "object" ? JSON.stringify(v) : String(v);
-
+/** Changed fields as a was / now table with the figure's change beside it; neither side is struck out or coloured. */
 function ChangesTable({ changes, caption }: { changes: FieldChange[]; caption: string }) {
   return (
     <FramedTable
@@ -14,18 +13,20 @@ function ChangesTable({ changes, caption }: { changes: FieldChange[]; caption: s
       head={
         <>
           <th scope="col">Field</th>
-          <th scope="col">Before</th>
-          <th scope="col">After</th>
+          <th scope="col">Was</th>
+          <th scope="col">Now</th>
+          <th scope="col">Change</th>
         </>
       }
     >
       {changes.map((c) => (
         <tr key={c.path} className="border-t border-rule/70 align-top">
-          <th scope="row" className="px-3 py-2 font-mono text-note font-medium">
+          <th scope="row" className="px-3 py-2 font-mono text-note font-medium break-all">
             {c.path}
           </th>
-          <td className="px-3 py-2 break-all text-signal-dark line-through decoration-signal/40">{show(c.from)}</td>
-          <td className="px-3 py-2 break-all text-seaglass-dark">{show(c.to)}</td>
+          <td className="px-3 py-2 break-all text-ink-soft">{showValue(c.from)}</td>
+          <td className="px-3 py-2 font-medium break-all">{showValue(c.to)}</td>
+          <td className="px-3 py-2 text-note whitespace-nowrap text-ink-soft">{fieldDelta(c.from, c.to)}</td>
         </tr>
       ))}
     </FramedTable>
@@ -33,8 +34,9 @@ function ChangesTable({ changes, caption }: { changes: FieldChange[]; caption: s
 }
 
 const signed = (n: number, fmt: (v: number) => string) => `${n > 0 ? "+" : n < 0 ? "−" : "±"}${fmt(Math.abs(n))}`;
+const money = (v: number | null) => (v === null ? "—" : formatMoney(v));
 
-/** Revision a → b: inputs, stages by position, pairs whose flags flipped, and what the budget moved. */
+/** Revision a beside revision b: inputs, stages by position, pairs whose flags flipped, and what the budget moved. */
 export function DiffView({ diff }: { diff: DiffResponse }) {
   const flagGroups = new Map<string, DiffResponse["flags"]>();
   for (const f of diff.flags) {
@@ -44,7 +46,7 @@ export function DiffView({ diff }: { diff: DiffResponse }) {
   return (
     <div className="flex flex-col gap-6">
       <p className="text-body">
-        From revision {diff.a.number} (<code title={diff.a.contentHash}>{shortHash(diff.a.contentHash)}</code>) to
+        Was: revision {diff.a.number} (<code title={diff.a.contentHash}>{shortHash(diff.a.contentHash)}</code>). Now:
         revision {diff.b.number} (<code title={diff.b.contentHash}>{shortHash(diff.b.contentHash)}</code>).
       </p>
       <section className="flex flex-col gap-2" aria-label="Changed fields">
@@ -84,13 +86,8 @@ export function DiffView({ diff }: { diff: DiffResponse }) {
                 <span className="font-medium">
                   {scope === "final" ? "Plan target" : `Stage ${Number(scope.split(".")[1]) + 1}`}
                 </span>
-                : {label}{" "}
-                {to ? (
-                  <span className="text-signal-dark">now set</span>
-                ) : (
-                  <span className="text-seaglass-dark">now clear</span>
-                )}{" "}
-                on pairs {formatPairRanges(items.map((i) => i.pair))}
+                : {label} <span className="font-semibold">{to ? "was clear, now set" : "was set, now clear"}</span> on
+                pairs {formatPairRanges(items.map((i) => i.pair))}
               </li>
             );
           })}
@@ -100,24 +97,44 @@ export function DiffView({ diff }: { diff: DiffResponse }) {
         <h2 className="text-title font-semibold">Budget</h2>
         {diff.budget.inputs.length > 0 && <ChangesTable changes={diff.budget.inputs} caption="Budget input changes" />}
         {diff.budget.totals ? (
-          <>
-            <ul className="text-body">
-              {diff.budget.stages.map((s) => (
-                <li key={s.index}>
-                  Stage {s.index + 1}: cost {s.costFrom === null ? "—" : formatMoney(s.costFrom)} →{" "}
-                  {s.costTo === null ? "—" : formatMoney(s.costTo)} ({signed(s.costDelta, formatMoney)}),
-                  accelerator-hours {signed(s.hoursDelta, formatHours)}
-                </li>
-              ))}
-            </ul>
-            <p className="font-semibold">
-              Total cost {formatMoney(diff.budget.totals.costFrom)} → {formatMoney(diff.budget.totals.costTo)} (
-              {signed(diff.budget.totals.costDelta, formatMoney)}), in the catalog’s currency; estimates.
-            </p>
-          </>
+          <FramedTable
+            caption="Budget figures, was and now"
+            head={
+              <>
+                <th scope="col">Figure</th>
+                <th scope="col">Was</th>
+                <th scope="col">Now</th>
+                <th scope="col">Change</th>
+              </>
+            }
+            foot={
+              <tr>
+                <th scope="row" className="px-3 py-2 text-left">
+                  Total cost
+                </th>
+                <td className="px-3 py-2">{money(diff.budget.totals.costFrom)}</td>
+                <td className="px-3 py-2">{money(diff.budget.totals.costTo)}</td>
+                <td className="px-3 py-2 whitespace-nowrap">{signed(diff.budget.totals.costDelta, formatMoney)}</td>
+              </tr>
+            }
+          >
+            {diff.budget.stages.map((s) => (
+              <tr key={s.index} className="border-t border-rule/70 align-top">
+                <th scope="row" className="px-3 py-2 text-left font-medium">
+                  Stage {s.index + 1} cost
+                </th>
+                <td className="px-3 py-2 text-ink-soft">{money(s.costFrom)}</td>
+                <td className="px-3 py-2 font-medium">{money(s.costTo)}</td>
+                <td className="px-3 py-2 text-note whitespace-nowrap text-ink-soft">
+                  {signed(s.costDelta, formatMoney)}; accelerator-hours {signed(s.hoursDelta, formatHours)}
+                </td>
+              </tr>
+            ))}
+          </FramedTable>
         ) : (
           <p className="text-body text-ink-soft">One or both revisions have no costed budget sheet.</p>
         )}
+        {diff.budget.totals && <p className="text-note text-ink-soft">Costs in the catalog’s currency; estimates.</p>}
       </section>
     </div>
   );

@@ -84,7 +84,7 @@ export function NewPlanForm({ models, minApprovals, onCreated, afterStages }: Ne
             {...register("purpose")}
           />
           <SelectField
-            label="Approvals required"
+            label="Passes required"
             error={formState.errors.requiredApprovals?.message}
             hint={`The lab asks for at least ${minApprovals}.`}
             {...register("requiredApprovals", { setValueAs: toNumber })}

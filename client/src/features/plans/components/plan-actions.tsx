@@ -3,6 +3,7 @@ import { Link, useNavigate } from "react-router-dom";
 import type { SessionUser } from "@shared/schemas/auth";
 import type { PlanDetail, RevisionSummary } from "@shared/schemas/plans";
 import { isSigned } from "@shared/plan-rules";
+import { ACTION_WORDS } from "@shared/review-words";
 import { Button } from "@/components/button";
 import { Notice } from "@/components/notice";
 import { apiPaths, paths } from "@/config/paths";
@@ -58,7 +59,7 @@ export function PlanActions({ plan, revision, user, intact, onDecide }: PlanActi
                 submit.mutate({ id: plan.id, n }, { onError });
               }}
             >
-              Submit for review
+              {ACTION_WORDS.submit}
             </Button>
           </>
         )}
@@ -71,7 +72,7 @@ export function PlanActions({ plan, revision, user, intact, onDecide }: PlanActi
               withdraw.mutate({ id: plan.id, n }, { onError });
             }}
           >
-            Withdraw to draft
+            {ACTION_WORDS.withdraw}
           </Button>
         )}
         {canStart && (
@@ -86,9 +87,13 @@ export function PlanActions({ plan, revision, user, intact, onDecide }: PlanActi
             Start new revision
           </Button>
         )}
-        {canDecide && onDecide && <Button onClick={onDecide}>Decide on revision {n}</Button>}
+        {canDecide && onDecide && (
+          <Button onClick={onDecide}>
+            {ACTION_WORDS.inspect} revision {n}
+          </Button>
+        )}
         {alreadyDecided && revision.state === "in_review" && (
-          <span className="text-note text-ink-soft">You have decided on this round.</span>
+          <span className="text-note text-ink-soft">You have inspected this round.</span>
         )}
         {signed &&
           (intact ? (

@@ -21,7 +21,7 @@ export function PlanFacts({ plan }: { plan: PlanDetail }) {
         <dd>{plan.owner?.name ?? "unknown"}</dd>
         <dt className="text-ink-soft">Model</dt>
         <dd>{plan.model?.name ?? "profile removed"}</dd>
-        <dt className="text-ink-soft">Approvals needed</dt>
+        <dt className="text-ink-soft">Passes needed</dt>
         <dd>
           {plan.effectiveRequiredApprovals}
           {raised && (

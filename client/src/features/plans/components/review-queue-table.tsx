@@ -5,6 +5,7 @@ import { Button } from "@/components/button";
 import { DataTable } from "@/components/data-table";
 import { paths } from "@/config/paths";
 import { formatDateTime, shortHash } from "@/lib/format";
+import { ACTION_WORDS, passesText } from "@shared/review-words";
 
 const column = createColumnHelper<ReviewQueueItem>();
 
@@ -31,7 +32,7 @@ export function ReviewQueueTable({
     column.accessor("revision", { header: "Revision", cell: (c) => `r${c.getValue()}` }),
     column.accessor("author", { header: "Author" }),
     column.accessor("submittedAt", {
-      header: "Submitted",
+      header: "Sent",
       cell: (c) => <span className="whitespace-nowrap">{formatDateTime(c.getValue())}</span>,
       enableGlobalFilter: false,
     }),
@@ -39,17 +40,21 @@ export function ReviewQueueTable({
       header: "Content hash",
       cell: (c) => <code title={c.getValue()}>{shortHash(c.getValue())}</code>,
     }),
-    column.accessor((i) => `${i.approvals} of ${i.requiredApprovals}`, {
+    column.accessor((i) => passesText(i.approvals, i.requiredApprovals), {
       id: "approvals",
-      header: "Approvals",
+      header: "Passes",
       enableGlobalFilter: false,
     }),
     column.display({
       id: "actions",
       header: () => <span className="sr-only">Actions</span>,
       cell: ({ row: { original: i } }) => (
-        <Button size="sm" onClick={() => onDecide(i)} aria-label={`Decide on ${i.title} revision ${i.revision}`}>
-          Decide
+        <Button
+          size="sm"
+          onClick={() => onDecide(i)}
+          aria-label={`${ACTION_WORDS.inspect} ${i.title} revision ${i.revision}`}
+        >
+          {ACTION_WORDS.inspect}
         </Button>
       ),
     }),
@@ -58,10 +63,10 @@ export function ReviewQueueTable({
     <DataTable
       data={items}
       columns={columns}
-      caption="Review queue"
+      caption="Inspection bench"
       getRowId={(i) => `${i.planId}-${i.revision}`}
       filterPlaceholder="Type a plan title or author"
-      emptyText="Nothing is waiting for you. Submitted revisions appear here until you decide on them."
+      emptyText="Nothing is on your bench. Revisions sent to inspection appear here until you pass them or send them back."
     />
   );
 }

@@ -20,7 +20,7 @@ export function RevisionTimeline({
       {newestFirst.map((r) => {
         const current = r.number === selected;
         const approvals = r.decisions.filter((d) => d.round === r.round && d.decision === "approve").length;
-        const asks = r.decisions.filter((d) => d.round === r.round && d.decision === "request_changes").length;
+        const sentBack = r.decisions.filter((d) => d.round === r.round && d.decision === "request_changes").length;
         return (
           <li key={r.number} className="relative">
             <span
@@ -42,7 +42,7 @@ export function RevisionTimeline({
               <span className="block text-note text-ink-soft">
                 <code title={r.contentHash}>{shortHash(r.contentHash)}</code>
                 {r.round > 0 &&
-                  ` · round ${r.round}: ${approvals} approval${approvals === 1 ? "" : "s"}${asks ? `, ${asks} asked for changes` : ""}`}
+                  ` · round ${r.round}: ${approvals} pass${approvals === 1 ? "" : "es"}${sentBack ? `, ${sentBack} sent back` : ""}`}
               </span>
             </Link>
           </li>

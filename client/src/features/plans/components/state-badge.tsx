@@ -1,12 +1,8 @@
 import type { RevisionState } from "@shared/schemas/plans";
+import { STATE_MEANINGS, STATE_WORDS } from "@shared/review-words";
 
-export const STATE_LABELS: Record<RevisionState, string> = {
-  draft: "Draft",
-  in_review: "In review",
-  approved: "Approved",
-  changes_requested: "Changes requested",
-  superseded: "Superseded",
-};
+/** The states' words come from the one glossary (docs/review-words.md); the API values stay. */
+export const STATE_LABELS: Record<RevisionState, string> = STATE_WORDS;
 
 const TONES: Record<RevisionState, string> = {
   draft: "bg-paper-deep text-ink-soft border-rule-strong",
@@ -21,6 +17,7 @@ export function StateBadge({ state }: { state: RevisionState }) {
   return (
     <span
       data-state={state}
+      title={STATE_MEANINGS[state]}
       className={`inline-flex items-center rounded-full border px-2 py-0.5 text-note font-medium whitespace-nowrap ${TONES[state]}`}
     >
       {STATE_LABELS[state]}

@@ -60,7 +60,7 @@ export function RevisionFields({ model, afterStages }: { model: AnalysisModel | 
         <AcceptanceFields />
       </Section>
       <Section title="Notes">
-        <Field label="Notes for reviewers" error={notesError}>
+        <Field label="Notes for inspectors" error={notesError}>
           {({ id, describedBy, invalid }) => (
             <textarea
               id={id}
