@@ -119,7 +119,7 @@ describe("a layered model from import to an approved export", () => {
     const dialog = page.getByRole("dialog");
     await dialog.waitFor();
     await dialog.getByRole("button", { name: "Sign and pass" }).click();
-    await page.getByText("Revision 1 is approved and signed.").waitFor();
+    await page.getByText("Revision 1 passed inspection and is signed.").waitFor();
 
     const owner = await signedIn(researcher, `/plans/${planId}`);
     await expect

@@ -56,8 +56,8 @@ afterAll(async () => {
 });
 
 /** A fresh browser session for one person, signed in and on `to`; page errors and console errors are collected. */
-async function signedIn(who: TestUser, to: string): Promise<Page> {
-  const context = await browser.newContext({ viewport: { width: 1280, height: 900 }, acceptDownloads: true });
+async function signedIn(who: TestUser, to: string, width = 1280): Promise<Page> {
+  const context = await browser.newContext({ viewport: { width, height: 900 }, acceptDownloads: true });
   contexts.push(context);
   const page = await context.newPage();
   page.on("pageerror", (e) => errors.push(`${who.name}: ${e.message}`));
@@ -82,7 +82,7 @@ async function approveFromQueue(who: TestUser, expectNotice: string) {
   // The dialog names the exact hash the decision signs: the one the plan page showed.
   expect(await dialog.getByTestId("hash-to-sign").textContent()).toBe(signedHash);
   await screenshot(page, "plans-decision-dialog");
-  await dialog.getByLabel("Comment (optional)").fill(`Checked by ${who.name}.`);
+  await dialog.getByLabel("Note (optional)").fill(`Checked by ${who.name}.`);
   await dialog.getByRole("button", { name: "Sign and pass" }).click();
   await page.getByText(expectNotice).waitFor();
   await dialog.waitFor({ state: "detached" });
@@ -192,18 +192,40 @@ describe("plan workflow in a browser", () => {
     await expect(plans.locator("tbody tr").count()).resolves.toBe(1);
   }, 90_000);
 
-  it("two approvers approve from the review queue; the plan is approved", async () => {
+  // Defect (issue 15): the review page at 390 px was 647 px wide.
+  it("the inspection bench and the decision dialog fit a 390 px screen", async () => {
+    const page = await signedIn(approverA, "/review", 390);
+    const open = page.getByRole("button", { name: `Inspect ${title} revision 1` });
+    await open.waitFor();
+    const width = () => page.evaluate(() => document.documentElement.scrollWidth);
+    expect(await width()).toBeLessThanOrEqual(390);
+    await screenshot(page, "review-390");
+    await open.click();
+    const dialog = page.getByRole("dialog");
+    await dialog.getByTestId("hash-to-sign").waitFor();
+    await dialog.getByRole("radio", { name: /Send back to the walk/ }).check();
+    await dialog.getByRole("button", { name: "Sign and send back" }).click();
+    // Sending back needs a note; nothing is recorded without one.
+    await dialog.getByText("Say what to re-lay before sending it back.").waitFor();
+    expect(await width()).toBeLessThanOrEqual(390);
+    expect(await dialog.evaluate((d) => d.scrollWidth <= d.clientWidth)).toBe(true);
+    await screenshot(page, "review-dialog-390");
+    await dialog.getByRole("button", { name: "Cancel" }).click();
+    await dialog.waitFor({ state: "detached" });
+  }, 60_000);
+
+  it("two approvers pass it from the inspection bench; the plan is passed", async () => {
     expect(planId).toBeGreaterThan(0);
-    await approveFromQueue(approverA, "approved by you; it waits for more approvals");
+    await approveFromQueue(approverA, "passed by you; it waits for more inspectors");
     // The second approver decides from the plan page itself.
     const page = await signedIn(approverB, `/plans/${planId}`);
     await page.getByRole("button", { name: "Inspect revision 1" }).click();
     const dialog = page.getByRole("dialog");
     expect(await dialog.getByTestId("hash-to-sign").textContent()).toBe(signedHash);
     await expect.poll(() => dialog.textContent(), { timeout: 15_000 }).toContain("So far 1 of 2 passes");
-    await dialog.getByLabel("Comment (optional)").fill(`Checked by ${approverB.name}.`);
+    await dialog.getByLabel("Note (optional)").fill(`Checked by ${approverB.name}.`);
     await dialog.getByRole("button", { name: "Sign and pass" }).click();
-    await page.getByText("Revision 1 is approved and signed.").waitFor();
+    await page.getByText("Revision 1 passed inspection and is signed.").waitFor();
     await expect
       .poll(() => page.getByRole("list", { name: "Revisions" }).textContent(), { timeout: 15_000 })
       .toContain("Passed");
@@ -213,7 +235,7 @@ describe("plan workflow in a browser", () => {
     await expect(page.getByRole("button", { name: `Inspect ${title} revision 1` }).count()).resolves.toBe(0);
   }, 60_000);
 
-  it("the researcher sees Approved and downloads the export and the report", async () => {
+  it("the researcher sees Passed and downloads the export and the report", async () => {
     const page = await signedIn(researcher, `/plans/${planId}`);
     await page.getByRole("heading", { level: 1, name: title }).waitFor();
     await expect
