@@ -31,11 +31,14 @@ export function errorMiddleware(err: unknown, req: Request, res: Response, _next
     return send(415, "unsupported", bp.message);
   const mu = err as MulterLike;
   if (mu?.name === "MulterError") {
-    // An oversize file is bad input like any other: 400 naming the part (issue 12), the same for every upload.
+    // An oversize file names the part and the limit; its status is the upload's own contract (file-upload.ts).
     if (mu.code === "LIMIT_FILE_SIZE") {
       const limit =
         typeof res.locals.uploadLimitBytes === "number" ? ` than ${sizeLabel(res.locals.uploadLimitBytes)}` : "";
-      return send(400, "too_large", `the uploaded file is larger${limit}`, { [mu.field ?? "file"]: `larger${limit}` });
+      const status = res.locals.uploadOversizeStatus === 413 ? 413 : 400;
+      return send(status, "too_large", `the uploaded file is larger${limit}`, {
+        [mu.field ?? "file"]: `larger${limit}`,
+      });
     }
     return send(400, "invalid_upload", mu.message, { [mu.field ?? "file"]: mu.message });
   }

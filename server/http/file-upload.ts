@@ -3,14 +3,14 @@ import type { RequestHandler } from "express";
 
 /**
  * One multipart file part held in memory, at most `maxBytes`. Both uploads (config import, evaluation evidence) use this,
- * so an oversize file is answered in one place (error-middleware.ts): a 400 naming the part, like any other bad file
- * (issue 12 lists "a 50 MB file" among bad input answered with 400). The limit rides on res.locals so that answer can
- * say how large a file may be.
+ * so an oversize file is answered in one place (error-middleware.ts), naming the part and the limit. The status differs by
+ * contract: the config import answers 413 above its limit (fixed since the first API contract), the evidence upload 400
+ * (issue 12 lists "a 50 MB file" among bad input answered with 400). Limit and status ride on res.locals.
  */
 export function singleFileUpload(
   field: string,
   maxBytes: number,
-  options: Pick<Options, "fileFilter"> & { fields?: number; fieldSize?: number } = {},
+  options: Pick<Options, "fileFilter"> & { fields?: number; fieldSize?: number; oversizeStatus?: 400 | 413 } = {},
 ): RequestHandler[] {
   const parse = multer({
     storage: multer.memoryStorage(),
@@ -19,6 +19,7 @@ export function singleFileUpload(
   }).single(field);
   const noteLimit: RequestHandler = (_req, res, next) => {
     res.locals.uploadLimitBytes = maxBytes;
+    res.locals.uploadOversizeStatus = options.oversizeStatus ?? 400;
     next();
   };
   return [noteLimit, parse];

@@ -144,8 +144,8 @@ describe("config.json import", () => {
     expect(none.body.error.fields).toHaveProperty("file");
   });
 
-  // One answer for every oversize upload: a 400 naming the part (issue 12's bad-input list; the evidence upload shares it).
-  it("an oversized file (over 1 MB) → 400 naming the file part, nothing written", async () => {
+  // The config import keeps its first contract ("JSON only, ≤1 MB, 413 above"); the evidence upload answers 400 (issue 12).
+  it("an oversized file (over 1 MB) → 413 naming the file part, nothing written", async () => {
     const a = await agentAs(["researcher"]);
     const before = await count();
     const big = Buffer.from(JSON.stringify({ hidden_size: 1, pad: "x".repeat(1024 * 1024 + 10) }));
@@ -153,7 +153,7 @@ describe("config.json import", () => {
       .post("/api/models/import?save=true")
       .set("X-CSRF-Token", a.csrf)
       .attach("file", big, "config.json");
-    expect(r.status).toBe(400);
+    expect(r.status).toBe(413);
     expect(r.body.error).toMatchObject({ code: "too_large", fields: { file: "larger than 1 MB" } });
     expect(await count()).toBe(before);
   });

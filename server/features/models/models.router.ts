@@ -12,7 +12,9 @@ import * as service from "./models.service";
 
 export const MAX_CONFIG_BYTES = 1024 * 1024;
 
+// 413 above the limit: the config import's contract since the first API issue ("JSON only, ≤1 MB, 413 above").
 const upload = singleFileUpload("file", MAX_CONFIG_BYTES, {
+  oversizeStatus: 413,
   fileFilter: (_req, file, cb) => {
     const ok = /\.json$/i.test(file.originalname) || /json/.test(file.mimetype);
     if (ok) cb(null, true);
