@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { makeTestApp } from "../setup/app";
 import { ownerTestDb, testDb } from "../setup/db";
-import { createPlan, createProfile, put } from "../setup/plans";
+import { createPlan, createProfile, decide, post, put } from "../setup/plans";
 
 const { agentAs } = makeTestApp();
 const cluster = { peakFlops: 1e15, memoryBytes: 80e9, pricePerHour: 2 };
@@ -43,5 +43,30 @@ describe("workspace currency (serial: lab-wide)", () => {
       ownerTestDb().pool.query(`UPDATE settings SET value = '"euro"'::jsonb WHERE key = 'currency'`),
     ).rejects.toThrow(/settings_currency_code/);
     await put(admin, "/api/budgets/currency", { currency: before }).expect(200);
+  });
+
+  it("a revision comparison names the currency each side was costed in", async () => {
+    const admin = await agentAs(["admin"]);
+    const researcher = await agentAs(["researcher"]);
+    const approver = await agentAs(["approver"]);
+    const plan = await createPlan(researcher, (await createProfile(researcher)).id);
+    const first = `/api/plans/${plan.id}/revisions/1`;
+    const before = (await researcher.get("/api/budgets/currency").expect(200)).body.currency as string;
+    await put(researcher, first, { version: 1, budget: { cluster, accelerators: 8 } }).expect(200);
+    await post(researcher, `${first}/submit`).expect(200);
+    await decide(approver, `${first}/decisions`, { decision: "request_changes", comment: "more hosts" }).expect(200);
+    await post(researcher, `/api/plans/${plan.id}/revisions`).expect(201);
+
+    const to = before === "EUR" ? "GBP" : "EUR";
+    await put(admin, "/api/budgets/currency", { currency: to }).expect(200);
+    try {
+      const second = `/api/plans/${plan.id}/revisions/2`;
+      const { version } = (await researcher.get(second)).body;
+      await put(researcher, second, { version, budget: { cluster, accelerators: 16 } }).expect(200);
+      const diff = (await researcher.get(`${first}/diff/2`).expect(200)).body;
+      expect(diff.budget.totals).toMatchObject({ currencyFrom: before, currencyTo: to });
+    } finally {
+      await put(admin, "/api/budgets/currency", { currency: before }).expect(200);
+    }
   });
 });

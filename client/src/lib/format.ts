@@ -48,6 +48,11 @@ export function formatCount(value: number): string {
   return abs >= 1000 || Number.isInteger(value) ? grouped.format(value) : sig3(value);
 }
 
+/** Every digit, grouped: a base of 50 000 000 reads "50,000,000" (not "50000000", nor a rounded "50 million"). */
+export function formatGrouped(value: number): string {
+  return Number.isInteger(value) ? grouped.format(value) : String(value);
+}
+
 /** Scientific notation with a superscript exponent: 3.12e21 → "3.12 × 10²¹". */
 export function formatScientific(value: number): string {
   if (!Number.isFinite(value) || value === 0) return String(value);

@@ -85,6 +85,8 @@ export const planRevisions = pgTable(
     engineVersion: text("engine_version").notNull(),
     /** SHA-256 of the final block's rotary layout (docs/fingerprint.md); kept beside the content, outside its hash. */
     rotaryFingerprint: text("rotary_fingerprint"),
+    /** Complete supported length of each base the plan adopts (base-support.ts); beside the content, outside its hash. */
+    baseSupport: jsonb("base_support"),
     /** After approval: proven or unproven by the latest proof decision (revision_proofs); null until one is made. */
     proof: text("proof").$type<ProofState>(),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),

@@ -66,6 +66,11 @@ type Costed = {
   };
 };
 const costed = (c: RevisionContent) => (c.budget && "estimate" in c.budget ? (c.budget as Costed) : undefined);
+/** The currency a revision's budget was frozen in; budget model 1 sheets predate the setting and carry none. */
+const currencyOf = (c: RevisionContent) => {
+  const currency = (c.budget as { currency?: unknown } | undefined)?.currency;
+  return typeof currency === "string" ? currency : null;
+};
 
 /** Which stage costs more, and by how much (b minus a). */
 function budgetDiff(a: RevisionContent, b: RevisionContent) {
@@ -93,6 +98,8 @@ function budgetDiff(a: RevisionContent, b: RevisionContent) {
       costFrom: ea.estimate.totals.cost,
       costTo: eb.estimate.totals.cost,
       costDelta: eb.estimate.totals.cost - ea.estimate.totals.cost,
+      currencyFrom: currencyOf(a),
+      currencyTo: currencyOf(b),
     },
   };
 }

@@ -12,6 +12,7 @@ import { signingKey } from "./signing";
 import { checkedProofs } from "./proofs";
 import { targetBlock, type ExportChoice } from "./export-target";
 import { layeredExport } from "./group-export";
+import { adoptedBaseSupportOfRow } from "./base-support";
 import { isSigned, latestApproved } from "../../../shared/plan-rules";
 
 export const EXPORT_CAUTION =
@@ -140,5 +141,6 @@ export async function revisionReport(deps: AppDeps, planId: number, n: number) {
     decisions: plan.revisions.find((x) => x.number === n)?.decisions ?? [],
     budgetHtml: budgetSection(content),
     proof: { state: rev.proof ?? null, decisions: proofs },
+    adoptedBases: adoptedBaseSupportOfRow(rev),
   });
 }

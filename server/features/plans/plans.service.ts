@@ -25,6 +25,7 @@ import {
 import { budgetPart, keptAcceleratorOf, refuseRetiredAccelerator } from "./budget-part";
 import { signatureStatus, signingKey } from "./signing";
 import { decisionPayload } from "./integrity";
+import { adoptedBaseSupport, adoptedBaseSupportOfRow } from "./base-support";
 import { effectiveRequiredApprovals, latestApproved } from "../../../shared/plan-rules";
 
 /** Engine results and budget figures for revision values; what gets hashed. */
@@ -96,6 +97,7 @@ export async function createPlan(
       content,
       contentHash: hashContent(content),
       rotaryFingerprint: fingerprintContent(content),
+      baseSupport: adoptedBaseSupport(content),
       engineVersion: content.engineVersion,
     });
     await recordAudit(tx, {
@@ -131,6 +133,7 @@ export async function newRevision(deps: AppDeps, actor: SessionUser, planId: num
       content,
       contentHash: hashContent(content),
       rotaryFingerprint: fingerprintContent(content),
+      baseSupport: adoptedBaseSupport(content),
       engineVersion: content.engineVersion,
     });
     await repo.touchPlan(tx, planId);
@@ -175,6 +178,7 @@ export async function updateDraft(
       content,
       contentHash: hashContent(content),
       rotaryFingerprint: fingerprintContent(content),
+      baseSupport: adoptedBaseSupport(content),
       engineVersion: content.engineVersion,
       version: rev.version + 1,
     });
@@ -311,6 +315,7 @@ export async function getRevision(deps: AppDeps, planId: number, n: number) {
     rotaryFingerprint: fingerprintOfRow(r),
     authorId: r.authorId,
     content: r.content as RevisionContent,
+    adoptedBases: adoptedBaseSupportOfRow(r),
   };
 }
 

@@ -1,4 +1,5 @@
 import type { RevisionContent } from "./revision-content";
+import type { AdoptedBaseSupport } from "../../../shared/schemas/plans";
 import { findMethod } from "../../../shared/methods";
 import { groupsSection } from "./report-groups";
 import { DECISION_WORDS, STATE_WORDS } from "../../../shared/review-words";
@@ -59,6 +60,8 @@ export interface ReportInput {
       signatureStatus: string;
     }[];
   };
+  /** Each base the plan adopts with its complete supported length (base-support.ts). */
+  adoptedBases?: readonly AdoptedBaseSupport[];
 }
 
 const PROOF_WORDS: Record<string, string> = { proven: "Proven", unproven: "Not proven" };
@@ -96,13 +99,14 @@ export function renderReport({
   decisions,
   budgetHtml,
   proof,
+  adoptedBases = [],
 }: ReportInput) {
   const row = (cells: unknown[]) => `<tr>${cells.map((v) => `<td>${esc(v)}</td>`).join("")}</tr>`;
   const head = (cells: string[]) => `<tr>${cells.map((v) => `<th>${esc(v)}</th>`).join("")}</tr>`;
   const params = (p: object) =>
     Object.entries(p)
       .filter(([k]) => k !== "method")
-      .map(([k, v]) => `${k}=${Array.isArray(v) ? `[${v.length} values]` : v}`)
+      .map(([k, v]) => `${k}=${Array.isArray(v) ? `[${v.length} values]` : typeof v === "number" ? n(v) : v}`)
       .join(", ");
   const stageRows = c.stages
     .map((s, i) => {
@@ -138,6 +142,7 @@ ${row([`${c.model.name} (${c.model.family})`, c.results.rotaryDim, n(c.model.rop
 <h2>Result at the target</h2>
 <p>Attention factor ${n(f.attentionFactor)}; pairs reaching unseen angles ${f.summary.unseenAnglesPairs}, with compressed resolution ${f.summary.compressedResolutionPairs},
 longer than the trained window ${f.summary.exceedsTrainedWindowPairs}. Critical dimension ${c.results.criticalDimension} (Liu et al. 2023).</p>
+${adoptedBases.map((b) => `<p>New base ${n(b.base)}: ${b.reachesTarget ? `<span class="ok">reaches ${n(b.target)} tokens</span>, no position below it fails the bound (complete scan)` : `<span class="bad">falls short</span>, fails the bound at ${n(b.supportedLength ?? 0)} tokens, below ${n(b.target)}`} (Men et al. 2024).</p>`).join("\n")}
 ${wavelengthChart(c)}
 ${groupsSection(c)}
 <p>Configuration patch:</p><pre><code>${esc(JSON.stringify(f.patch, null, 2))}</code></pre>

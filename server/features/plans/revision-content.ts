@@ -2,7 +2,8 @@ import crypto from "node:crypto";
 import canonicalize from "canonicalize";
 import { analyse, ENGINE_VERSION } from "../../engine";
 import { planFingerprint } from "../../engine/fingerprint";
-import { Invalid } from "../../platform/errors";
+import { invalidFields } from "../../platform/validate";
+import { pathOfKey } from "../../../shared/validation-messages";
 import {
   modelDependentIssues,
   type MethodParams,
@@ -61,7 +62,7 @@ export function checkAgainstModel(model: ModelSnapshot, v: RevisionValues) {
       fields[`acceptance.${i}.contextLength`] = `beyond the plan's target (${v.targetContext})`;
   });
   if (Object.keys(fields).length)
-    throw new Invalid(`the revision does not fit the model: ${Object.keys(fields).join(", ")}`, fields);
+    throw invalidFields(Object.entries(fields).map(([k, m]) => ({ path: pathOfKey(k), message: m })));
 }
 
 /** The engine's result for one rotary shape, target and method, in the stored form. */

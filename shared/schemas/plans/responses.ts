@@ -154,10 +154,25 @@ export const revisionContentSchema = z.object({
 });
 export type RevisionContent = z.infer<typeof revisionContentSchema>;
 
+/**
+ * A base the plan adopts (method "base"), with its complete supported length (Men et al. 2024 bound) scanned up to
+ * the longest target a block using it has: `supportedLength` is the first failing position, null when none fails
+ * below `target` (then `reachesTarget`). Kept beside the content, outside its hash (server/features/plans/base-support.ts).
+ */
+export const adoptedBaseSupportSchema = z.object({
+  base: z.number(),
+  target: z.number(),
+  supportedLength: z.number().nullable(),
+  reachesTarget: z.boolean(),
+});
+export type AdoptedBaseSupport = z.infer<typeof adoptedBaseSupportSchema>;
+
 export const revisionResponseSchema = z.object({
   ...revisionHead,
   authorId: z.number(),
   content: revisionContentSchema,
+  /** Every base the plan adopts, each with whether it reaches its target; empty when the plan keeps the model's base. */
+  adoptedBases: z.array(adoptedBaseSupportSchema),
 });
 export type RevisionResponse = z.infer<typeof revisionResponseSchema>;
 
@@ -217,7 +232,16 @@ export const diffResponseSchema = z.object({
         hoursDelta: z.number(),
       }),
     ),
-    totals: z.object({ costFrom: z.number(), costTo: z.number(), costDelta: z.number() }).nullable(),
+    totals: z
+      .object({
+        costFrom: z.number(),
+        costTo: z.number(),
+        costDelta: z.number(),
+        /** The workspace currency each revision was costed in (null: costed before the setting existed). */
+        currencyFrom: z.string().nullable(),
+        currencyTo: z.string().nullable(),
+      })
+      .nullable(),
   }),
 });
 export type DiffResponse = z.infer<typeof diffResponseSchema>;

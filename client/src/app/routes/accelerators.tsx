@@ -1,4 +1,6 @@
+import { useQuery } from "@tanstack/react-query";
 import { Page } from "@/components/page";
+import { currencyQuery } from "@/features/budgets/api/currency";
 import { ManageAccelerators } from "@/features/accelerators/components/manage-accelerators";
 import { CurrencySetting } from "@/features/budgets/components/currency-setting";
 import { useCurrentUser } from "@/features/auth/hooks/use-session";
@@ -11,6 +13,7 @@ export function AcceleratorsRoute() {
   const canEdit = user.roles.some((r) => (KEEPERS as readonly string[]).includes(r));
   // The currency is a workspace setting: admins only (the server checks the same).
   const isAdmin = user.roles.includes("admin");
+  const currency = useQuery(currencyQuery()).data?.currency;
   return (
     <Page
       title="Accelerators"
@@ -26,7 +29,7 @@ export function AcceleratorsRoute() {
     >
       <div className="flex flex-col gap-5">
         <CurrencySetting canEdit={isAdmin} />
-        <ManageAccelerators canEdit={canEdit} />
+        <ManageAccelerators canEdit={canEdit} currency={currency} />
       </div>
     </Page>
   );

@@ -150,7 +150,7 @@ export function PlanRoute() {
               </Notice>
             )}
             {content ? (
-              <RevisionInputs content={content} />
+              <RevisionInputs content={content} adoptedBases={revision.data?.adoptedBases ?? []} />
             ) : (
               !revision.isError && <Loading label="Loading revision…" />
             )}

@@ -1,7 +1,6 @@
 import { useCallback, useState } from "react";
 import { useQuery } from "@tanstack/react-query";
 import type { Accelerator } from "@shared/schemas/budget";
-import { Button } from "@/components/button";
 import { Loading, Notice } from "@/components/notice";
 import { Panel } from "@/components/page";
 import { acceleratorsQuery } from "../api/list-accelerators";
@@ -12,7 +11,7 @@ import { AcceleratorsTable } from "./accelerators-table";
 type Message = { tone: "success" | "alert"; text: string };
 
 /** The catalog page's body: everyone reads; infra leads and admins add, edit and delete. */
-export function ManageAccelerators({ canEdit }: { canEdit: boolean }) {
+export function ManageAccelerators({ canEdit, currency }: { canEdit: boolean; currency?: string }) {
   const list = useQuery(acceleratorsQuery());
   const remove = useDeleteAccelerator();
   const restore = useRestoreAccelerator();
@@ -66,22 +65,6 @@ export function ManageAccelerators({ canEdit }: { canEdit: boolean }) {
   return (
     <div className="flex flex-col gap-6">
       {message && <Notice tone={message.tone}>{message.text}</Notice>}
-      {confirming && (
-        <Notice tone="alert" title={`Delete ${confirming.name}?`}>
-          <p>
-            If any plan was costed on it, it is retired instead of deleted: it leaves the pickers and every plan keeps
-            its figures.
-          </p>
-          <div className="mt-3 flex gap-3">
-            <Button variant="danger" busy={remove.isPending} onClick={() => confirmDelete(confirming)}>
-              Delete {confirming.name}
-            </Button>
-            <Button variant="secondary" onClick={() => setConfirming(null)}>
-              Keep it
-            </Button>
-          </div>
-        </Notice>
-      )}
       {canEdit && (
         <Panel title={editing ? `Edit ${editing.name}` : "Add an accelerator"}>
           <AcceleratorForm
@@ -96,9 +79,18 @@ export function ManageAccelerators({ canEdit }: { canEdit: boolean }) {
         <AcceleratorsTable
           accelerators={list.data.filter((a) => !a.retiredAt)}
           canEdit={canEdit}
+          currency={currency}
           busyId={remove.isPending ? (remove.variables ?? null) : null}
           onEdit={onEdit}
           onDelete={onDelete}
+          confirming={
+            confirming && {
+              id: confirming.id,
+              busy: remove.isPending,
+              onConfirm: () => confirmDelete(confirming),
+              onCancel: () => setConfirming(null),
+            }
+          }
         />
       </Panel>
       {list.data.some((a) => a.retiredAt) && (
@@ -109,6 +101,7 @@ export function ManageAccelerators({ canEdit }: { canEdit: boolean }) {
           <AcceleratorsTable
             accelerators={list.data.filter((a) => a.retiredAt)}
             canEdit={canEdit}
+            currency={currency}
             busyId={restore.isPending ? (restore.variables ?? null) : null}
             onEdit={onEdit}
             onDelete={onDelete}

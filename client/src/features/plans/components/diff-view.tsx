@@ -34,10 +34,14 @@ function ChangesTable({ changes, caption }: { changes: FieldChange[]; caption: s
 }
 
 const signed = (n: number, fmt: (v: number) => string) => `${n > 0 ? "+" : n < 0 ? "−" : "±"}${fmt(Math.abs(n))}`;
-const money = (v: number | null) => (v === null ? "—" : formatMoney(v));
+const money = (v: number | null, currency?: string) => (v === null ? "—" : formatMoney(v, currency));
 
 /** Revision a beside revision b: inputs, stages by position, pairs whose flags flipped, and what the budget moved. */
 export function DiffView({ diff }: { diff: DiffResponse }) {
+  // Each side in the workspace currency it was costed in (frozen with the revision; null before the setting existed).
+  const was = diff.budget.totals?.currencyFrom ?? undefined;
+  const now = diff.budget.totals?.currencyTo ?? was;
+  const delta = (v: number) => formatMoney(v, now);
   const flagGroups = new Map<string, DiffResponse["flags"]>();
   for (const f of diff.flags) {
     const key = `${f.scope}|${f.flag}|${f.to}`;
@@ -112,9 +116,9 @@ export function DiffView({ diff }: { diff: DiffResponse }) {
                 <th scope="row" className="px-3 py-2 text-left">
                   Total cost
                 </th>
-                <td className="px-3 py-2">{money(diff.budget.totals.costFrom)}</td>
-                <td className="px-3 py-2">{money(diff.budget.totals.costTo)}</td>
-                <td className="px-3 py-2 whitespace-nowrap">{signed(diff.budget.totals.costDelta, formatMoney)}</td>
+                <td className="px-3 py-2">{money(diff.budget.totals.costFrom, was)}</td>
+                <td className="px-3 py-2">{money(diff.budget.totals.costTo, now)}</td>
+                <td className="px-3 py-2 whitespace-nowrap">{signed(diff.budget.totals.costDelta, delta)}</td>
               </tr>
             }
           >
@@ -123,10 +127,10 @@ export function DiffView({ diff }: { diff: DiffResponse }) {
                 <th scope="row" className="px-3 py-2 text-left font-medium">
                   Stage {s.index + 1} cost
                 </th>
-                <td className="px-3 py-2 text-ink-soft">{money(s.costFrom)}</td>
-                <td className="px-3 py-2 font-medium">{money(s.costTo)}</td>
+                <td className="px-3 py-2 text-ink-soft">{money(s.costFrom, was)}</td>
+                <td className="px-3 py-2 font-medium">{money(s.costTo, now)}</td>
                 <td className="px-3 py-2 text-note whitespace-nowrap text-ink-soft">
-                  {signed(s.costDelta, formatMoney)}; accelerator-hours {signed(s.hoursDelta, formatHours)}
+                  {signed(s.costDelta, delta)}; accelerator-hours {signed(s.hoursDelta, formatHours)}
                 </td>
               </tr>
             ))}
@@ -134,7 +138,13 @@ export function DiffView({ diff }: { diff: DiffResponse }) {
         ) : (
           <p className="text-body text-ink-soft">One or both revisions have no costed budget sheet.</p>
         )}
-        {diff.budget.totals && <p className="text-note text-ink-soft">Costs in the catalog’s currency; estimates.</p>}
+        {diff.budget.totals && (
+          <p className="text-note text-ink-soft">
+            {was && now && was !== now
+              ? `Costs in the currency each revision was costed in (${was}, then ${now}); estimates.`
+              : "Costs in the workspace currency the revisions were costed in; estimates."}
+          </p>
+        )}
       </section>
     </div>
   );

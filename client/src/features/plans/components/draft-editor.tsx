@@ -5,6 +5,7 @@ import type { RevisionResponse } from "@shared/schemas/plans";
 import type { RevisionValues, UpdateRevisionRequest } from "@shared/schemas/plans";
 import { Button, SubmitButton } from "@/components/button";
 import { Notice } from "@/components/notice";
+import { LeaveGuard } from "@/components/leave-guard";
 import { isApiError } from "@/lib/api-client";
 import { shortHash } from "@/lib/format";
 import { useUpdateRevision } from "../api/update-revision";
@@ -126,6 +127,7 @@ export function DraftEditor({ planId, revision, onReload, onSaved, afterStages }
           </Notice>
         )}
         {saved && <Notice tone="success">{saved}</Notice>}
+        <LeaveGuard when={form.formState.isDirty && !update.isPending} what={`Revision ${revision.number}`} />
         <RevisionFields model={model} afterStages={afterStages} />
         <div className="flex flex-wrap gap-2 border-t border-rule pt-4">
           <SubmitButton busy={update.isPending} busyLabel="Saving…">

@@ -1,7 +1,7 @@
 import type { ReactNode } from "react";
-import type { RevisionContent } from "@shared/schemas/plans";
+import type { AdoptedBaseSupport, RevisionContent } from "@shared/schemas/plans";
 import { DEFAULT_BANDS } from "@shared/schemas/analysis";
-import { formatCount, sig3 } from "@/lib/format";
+import { formatCount, formatGrouped, sig3 } from "@/lib/format";
 import { describeParams, methodLabel } from "../lib/method-table";
 
 function Row({ label, children }: { label: string; children: ReactNode }) {
@@ -14,7 +14,13 @@ function Row({ label, children }: { label: string; children: ReactNode }) {
 }
 
 /** What the revision was drafted on and for: the frozen model values, the target and the method. */
-export function RevisionInputs({ content }: { content: RevisionContent }) {
+export function RevisionInputs({
+  content,
+  adoptedBases,
+}: {
+  content: RevisionContent;
+  adoptedBases: readonly AdoptedBaseSupport[];
+}) {
   const { model, results } = content;
   const bands = content.bands ?? DEFAULT_BANDS;
   const scale = content.targetContext / model.trainedContext;
@@ -29,7 +35,7 @@ export function RevisionInputs({ content }: { content: RevisionContent }) {
           {model.name} <span className="text-ink-soft">({model.family})</span>
         </Row>
         <Row label="Trained context">{formatCount(model.trainedContext)} tokens</Row>
-        <Row label="Base (rope_theta)">{formatCount(model.ropeTheta)}</Row>
+        <Row label="Base (rope_theta)">{formatGrouped(model.ropeTheta)}</Row>
         <Row label="Head dimension">
           {model.headDim}
           {model.partialRotaryFactor !== 1 && ` × ${model.partialRotaryFactor} rotary`}
@@ -40,7 +46,7 @@ export function RevisionInputs({ content }: { content: RevisionContent }) {
         <Row label="Critical dimension">
           {results.criticalDimension} <span className="text-note text-ink-soft">(Liu et al. 2023, Lemma 1)</span>
         </Row>
-        <Row label="Base supports">
+        <Row label={adoptedBases.length ? "Model's base supports" : "Base supports"}>
           {support.supportedLength === null
             ? support.complete
               ? "every length checked"
@@ -54,6 +60,16 @@ export function RevisionInputs({ content }: { content: RevisionContent }) {
           {formatCount(content.targetContext)} tokens{" "}
           <span className="text-ink-soft">(× {sig3(scale)} the trained window)</span>
         </Row>
+        {adoptedBases.map((b) => (
+          <Row key={b.base} label={`New base ${formatGrouped(b.base)}`}>
+            <span data-testid="adopted-base-support">
+              {b.reachesTarget
+                ? `reaches ${formatGrouped(b.target)} tokens: no failure below it (complete scan)`
+                : `falls short: fails at ${formatGrouped(b.supportedLength ?? 0)} tokens, below ${formatGrouped(b.target)}`}
+            </span>{" "}
+            <span className="text-note text-ink-soft">(Men et al. 2024 bound)</span>
+          </Row>
+        ))}
         <Row label="Method">{methodLabel(content.method.method)}</Row>
         <Row label="Parameters">{describeParams(content.method)}</Row>
         <Row label="Band edges">

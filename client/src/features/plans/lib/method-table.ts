@@ -1,4 +1,5 @@
 import { findMethod, METHOD_IDS, methodEntry, type AnyMethodEntry } from "@shared/methods";
+import { formatGrouped } from "@/lib/format";
 
 export type { ParamField } from "@shared/methods";
 
@@ -18,7 +19,8 @@ export function describeParams(method: { method: string } & Record<string, unkno
     .map(([k, v]) => {
       const label = entry?.fields.find((p) => p.key === k)?.label ?? k;
       if (Array.isArray(v)) return `${label}: ${v.length} values`;
-      return `${label} ${typeof v === "boolean" ? (v ? "yes" : "no") : String(v)}`;
+      const shown = typeof v === "boolean" ? (v ? "yes" : "no") : typeof v === "number" ? formatGrouped(v) : String(v);
+      return `${label} ${shown}`;
     });
   return parts.length ? parts.join(", ") : "engine defaults";
 }
