@@ -60,3 +60,27 @@ export const DROPS_SHIPPED: readonly string[] = ["default", "base"];
 /** "yarn ×4" for a shipped method: its id and, when it has one, its factor. */
 export const shippedText = (m: MethodParams) =>
   "factor" in m && m.factor !== undefined ? `${m.method} ×${Number(m.factor.toPrecision(6))}` : m.method;
+
+/** The lineage a revision's frozen model snapshot carries (present only for a model that ships scaling). */
+export interface SnapshotLineage {
+  servedContext: number;
+  shipped: MethodParams | null;
+}
+
+type LineageSource = { trainedContext: number; lineage?: SnapshotLineage };
+
+export const lineageOf = (m: LineageSource): Lineage | null =>
+  m.lineage ? { pretrainedContext: m.trainedContext, servedContext: m.lineage.servedContext } : null;
+
+/** The method the engine and every export run for a method of a revision (its plan's or a stage's). */
+export function engineMethod(c: { model: LineageSource; extendsFrom?: ExtendsFrom }, method: MethodParams) {
+  const l = lineageOf(c.model);
+  return l ? chainedMethod(method, l, c.extendsFrom) : method;
+}
+
+/** A stored profile's served length: as stored, else its advertised length, else its trained length. */
+export const servedContextOf = (p: {
+  servedContext?: number | null;
+  maxPositionEmbeddings?: number | null;
+  trainedContext: number;
+}) => p.servedContext ?? p.maxPositionEmbeddings ?? p.trainedContext;

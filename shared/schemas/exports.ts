@@ -2,6 +2,7 @@ import { z } from "zod";
 import { lengthSchema, methodParamsSchema, modelInputSchema } from "./analysis";
 import { layerGroupSchema } from "./models";
 import { groupMethodSchema } from "./plans/requests";
+import { EXTENDS_FROM } from "../lineage";
 
 /*
  * Export targets (issue 10; routes GET /api/export-targets, POST /api/exports, GET /api/plans/:id/approved/export?target=).
@@ -37,6 +38,11 @@ export const exportRequestSchema = z.object({
   model: modelInputSchema,
   targetContext: lengthSchema,
   method: methodParamsSchema,
+  /**
+   * Lineage (shared/lineage.ts): with a saved profile that ships scaling, "served" reads the method's factor as a
+   * stretch of the served length, exported over the pre-trained length. Absent: the pre-trained length.
+   */
+  extendsFrom: z.enum(EXTENDS_FROM).optional(),
   targets: z
     .array(targetIdSchema)
     .min(1, "name at least one target, or leave targets out for all")

@@ -4,7 +4,8 @@ import { invalidFields } from "../../platform/validate";
 import { exportPlan, TARGETS, TARGET_IDS } from "../../engine/targets";
 import { modelDependentIssues, rotaryShapeSchema, type ModelShape } from "../../../shared/schemas/analysis";
 import type { ExportRequest, ExportResponse } from "../../../shared/schemas/exports";
-import { findModelRow, sourceConfigOf } from "../models";
+import { findModelRow, sourceConfigOf, type ModelRow } from "../models";
+import { chainedMethod, lineageOf, servedContextOf, type Lineage } from "../../../shared/lineage";
 import { rotaryShapeOf } from "../../../shared/profile-shapes";
 import { groupRotarySpecs } from "../../../shared/layer-groups";
 import type { MethodParams } from "../../../shared/schemas/analysis";
@@ -25,6 +26,7 @@ async function resolveModel(deps: AppDeps, input: ExportRequest["model"], inline
     return {
       model: input,
       groups: (m: MethodParams, gm?: GroupMethod[]) => groupRotarySpecs({ ...source, layerGroups: inline }, m, gm),
+      lineage: null,
     };
   }
   const row = await findModelRow(deps.db, input.modelId);
@@ -40,7 +42,27 @@ async function resolveModel(deps: AppDeps, input: ExportRequest["model"], inline
   const layerGroups = Array.isArray(row.layerGroups) ? (row.layerGroups as LayerGroup[]) : null;
   const groups = (method: MethodParams, gm?: GroupMethod[]) =>
     groupRotarySpecs({ ...row, currentScaling: row.currentScaling as CurrentScaling | null, layerGroups }, method, gm);
-  return { model: parsed.data, config: sourceConfigOf(row), groups };
+  return { model: parsed.data, config: sourceConfigOf(row), groups, lineage: lineageOf(snapshotLineageOf(row)) };
+}
+
+/** The saved profile's lengths as a revision would freeze them (lineage only for a model that ships scaling). */
+const snapshotLineageOf = (row: ModelRow) => ({
+  trainedContext: row.trainedContext,
+  ...(row.currentScaling
+    ? {
+        lineage: { servedContext: servedContextOf(row), shipped: null },
+      }
+    : {}),
+});
+
+/** The method as consumers read it: a stretch of the served length becomes one over the pre-trained length. */
+function methodFor(input: ExportRequest, lineage: Lineage | null) {
+  if (input.extendsFrom !== "served") return input.method;
+  if (!lineage)
+    throw new Invalid("Only a saved profile that ships scaling has a served length to extend from.", {
+      extendsFrom: "needs a saved profile (model.modelId) whose config ships scaling",
+    });
+  return chainedMethod(input.method, lineage, "served");
 }
 
 /**
@@ -48,15 +70,16 @@ async function resolveModel(deps: AppDeps, input: ExportRequest["model"], inline
  * back. A stateless computation: nothing is stored, so nothing is audited.
  */
 export async function exportRequest(deps: AppDeps, input: ExportRequest): Promise<ExportResponse> {
-  const { model, config, groups } = await resolveModel(deps, input.model, input.layerGroups);
-  refuseMisfits(model, input);
+  const { model, config, groups, lineage } = await resolveModel(deps, input.model, input.layerGroups);
+  const method = methodFor(input, lineage);
+  refuseMisfits(model, { ...input, method });
   return exportPlan({
     model,
     config,
     targetContext: input.targetContext,
-    method: input.method,
+    method,
     targets: input.targets,
-    groups: groups(input.method, input.groupMethods),
+    groups: groups(method, input.groupMethods),
   });
 }
 

@@ -1,3 +1,4 @@
+import { servedContextOf } from "../../../shared/lineage";
 import type { AppDeps } from "../../deps";
 import type { Executor } from "../../db/client";
 import { AppError, Conflict, Invalid, NotFound } from "../../platform/errors";
@@ -48,7 +49,7 @@ export function toModelProfile(row: repo.ModelRow): ModelProfile {
     rotaryDim: d,
     pairs: d / 2,
     pretrainedContext: row.trainedContext,
-    servedContext: row.servedContext ?? row.maxPositionEmbeddings ?? row.trainedContext,
+    servedContext: servedContextOf(row),
     createdAt: row.createdAt.toISOString(),
     updatedAt: row.updatedAt.toISOString(),
   };

@@ -6,6 +6,7 @@ import { mustPlan, mustRevision } from "./plans.service";
 import { fingerprintOfRow, type RevisionContent } from "./revision-content";
 import { compareProbe, revisionRotary } from "./conformance-compare";
 import * as repo from "./conformance.repo";
+import { engineMethod } from "../../../shared/lineage";
 
 /**
  * Records a probe result as a conformance check on revision n: compared with the revision's own θ′ and attention
@@ -24,7 +25,7 @@ export async function recordCheck(
     await mustPlan(tx, planId);
     const rev = await mustRevision(tx, planId, n, true);
     const content = rev.content as RevisionContent;
-    const rotary = revisionRotary(content.model, content.targetContext, content.method);
+    const rotary = revisionRotary(content.model, content.targetContext, engineMethod(content, content.method));
     const result = compareProbe(rotary, probe);
     // Whether the probe was pointed at this revision (the fingerprint the plan page's probe command carries).
     const fingerprintMatches = probe.planFingerprint === null ? null : probe.planFingerprint === fingerprintOfRow(rev);

@@ -5,6 +5,7 @@ import { rotaryShapeOf } from "../../../shared/profile-shapes";
 import { groupRotarySpecs } from "../../../shared/layer-groups";
 import { findModelRow, sourceConfigOf } from "../models";
 import type { RevisionContent } from "./revision-content";
+import { engineMethod } from "../../../shared/lineage";
 
 /** `?target=<id>&stage=<n>` of the export routes: a consumer to compile for, and a stage (1-based) instead of the final block. */
 export interface ExportChoice {
@@ -38,6 +39,8 @@ export async function targetBlock(deps: AppDeps, modelId: number, content: Revis
     [targetContext, method, result] = [stage.targetContext, stage.method, content.results.stages[choice.stage - 1]];
   }
   const config = choice.target ? await sourceConfig(deps, modelId) : undefined;
+  // As consumers read it: a plan from the served length exports its factors over the pre-trained length.
+  method = engineMethod(content, method);
   const out = exportPlan({
     model: rotaryShapeOf(content.model),
     config,

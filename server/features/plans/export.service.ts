@@ -14,6 +14,17 @@ import { targetBlock, type ExportChoice } from "./export-target";
 import { layeredExport } from "./group-export";
 import { adoptedBaseSupportOfRow } from "./base-support";
 import { isSigned, latestApproved } from "../../../shared/plan-rules";
+import { lineageOf, startLength } from "../../../shared/lineage";
+
+/** A plan on an already-scaled model says which length it extends from, and where this block's stage starts. */
+function lineagePart(content: RevisionContent, stage: number | undefined) {
+  const l = lineageOf(content.model);
+  if (!l) return {};
+  const from = content.extendsFrom ?? "pretrained";
+  // Stage n is exported for a checkpoint that finished stage n − 1: it starts at that stage's target.
+  const start = stage !== undefined && stage > 1 ? content.stages[stage - 2].targetContext : startLength(l, from);
+  return { extendsFrom: from, startContext: start };
+}
 
 export const EXPORT_CAUTION =
   "Estimates, not guarantees: this patch is what was signed; the extension is confirmed only by long-context evaluations of the tuned model.";
@@ -101,6 +112,7 @@ export async function exportRevision(
       trainedContext: content.model.trainedContext,
       ropeTheta: content.model.ropeTheta,
     },
+    ...lineagePart(content, choice.stage),
     targetContext: block.targetContext,
     method: block.method,
     config: block.config,

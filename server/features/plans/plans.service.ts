@@ -59,6 +59,7 @@ export async function mustRevision(ex: Executor, planId: number, n: number, lock
 export const revisionValues = (c: RevisionContent): RevisionValues => ({
   targetContext: c.targetContext,
   method: c.method,
+  ...(c.extendsFrom ? { extendsFrom: c.extendsFrom } : {}),
   ...(c.groupMethods ? { groupMethods: c.groupMethods } : {}),
   bands: c.bands,
   stages: c.stages,

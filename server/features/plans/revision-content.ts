@@ -12,12 +12,15 @@ import {
   type Bands,
   type ModelShape,
   type LayerGroup,
+  type CurrentScaling,
 } from "../../../shared/schemas";
 import type { ModelRow } from "../models";
 import type { ModelSnapshot, RevisionContent } from "../../../shared/schemas/plans";
 import { rotaryShapeOf } from "../../../shared/profile-shapes";
 import { groupRotarySpecs } from "../../../shared/layer-groups";
 import { groupMethodIssues, groupResults } from "./group-results";
+import { lineageIssues } from "./lineage-rules";
+import { engineMethod, servedContextOf, shippedMethod } from "../../../shared/lineage";
 
 /**
  * The profile values a revision freezes (later edits of the profile do not change a revision) and the content itself:
@@ -42,6 +45,15 @@ export const snapshotOf = (m: ModelRow): ModelSnapshot => ({
   bytesPerElement: m.bytesPerElement,
   // Only layered models carry their groups, so a single-group snapshot (and its content hash) is as before.
   ...(Array.isArray(m.layerGroups) && m.layerGroups.length > 1 ? { layerGroups: m.layerGroups as LayerGroup[] } : {}),
+  // Likewise only a model that ships scaling carries its lineage.
+  ...(m.currentScaling
+    ? {
+        lineage: {
+          servedContext: servedContextOf(m),
+          shipped: shippedMethod(m.currentScaling as CurrentScaling),
+        },
+      }
+    : {}),
 });
 
 /** Model-dependent rules for the plan target and every stage, reported on the field to fix. */
@@ -54,8 +66,11 @@ export function checkAgainstModel(model: ModelSnapshot, v: RevisionValues) {
       fields[[prefix, ...path].filter((p) => p !== "").join(".")] = issue.message.replace(/ \(methods\.0\)/, "");
     }
   };
-  add("", v.targetContext, v.method);
-  v.stages.forEach((s, i) => add(`stages.${i}`, s.targetContext, s.method));
+  add("", v.targetContext, engineMethod({ model, extendsFrom: v.extendsFrom }, v.method));
+  v.stages.forEach((s, i) =>
+    add(`stages.${i}`, s.targetContext, engineMethod({ model, extendsFrom: v.extendsFrom }, s.method)),
+  );
+  Object.assign(fields, lineageIssues(model, v));
   Object.assign(fields, groupMethodIssues(model, v));
   v.acceptance.forEach((a, i) => {
     if (a.contextLength > v.targetContext)
@@ -89,12 +104,22 @@ export function stageResult(shape: ModelShape, target: number, method: MethodPar
   return { analysis: a, result };
 }
 
-/** Runs the engine for the plan target and each stage; the results are frozen into the content. */
-export function buildContent(model: ModelSnapshot, v: RevisionValues): RevisionContent {
-  checkAgainstModel(model, v);
+/**
+ * Runs the engine for the plan target and each stage; the results are frozen into the content. The content keeps the
+ * methods as the author gave them; the engine runs them as consumers read them (engineMethod: a plan that extends
+ * from the served length has its factors carried over to the pre-trained length).
+ */
+export function buildContent(model: ModelSnapshot, values: RevisionValues): RevisionContent {
+  checkAgainstModel(model, values);
+  const chained = (m: MethodParams) => engineMethod({ model, extendsFrom: values.extendsFrom }, m);
+  const v = {
+    ...values,
+    method: chained(values.method),
+    stages: values.stages.map((s) => ({ ...s, method: chained(s.method) })),
+  };
   const final = stageResult(rotaryShapeOf(model), v.targetContext, v.method, v.bands);
   const groups = groupResults(model, v, final.result, stageResult);
-  const { budget: _inputs, ...rest } = v;
+  const { budget: _inputs, ...rest } = values;
   return {
     ...rest,
     engineVersion: ENGINE_VERSION,
@@ -127,13 +152,15 @@ export function hashContent(content: unknown): string {
  * rotating layer group of a layered model (a single-group snapshot hashes as it always did). Stored in
  * its own column, outside the hashed content, so revisions made before fingerprints existed keep their content hash.
  */
-export const fingerprintContent = (content: RevisionContent) =>
-  planFingerprint(
+export const fingerprintContent = (content: RevisionContent) => {
+  const method = engineMethod(content, content.method);
+  return planFingerprint(
     rotaryShapeOf(content.model),
     content.targetContext,
-    content.method,
-    groupRotarySpecs(content.model, content.method, content.groupMethods),
+    method,
+    groupRotarySpecs(content.model, method, content.groupMethods),
   );
+};
 
 /** The stored fingerprint, or for a row written before the column existed and not yet backfilled, computed now. */
 export const fingerprintOfRow = (row: { rotaryFingerprint: string | null; content: unknown }) =>

@@ -3,6 +3,10 @@ import { bandsSchema, configPatchSchema, lengthSchema, methodParamsSchema } from
 import { checkSettings, planBudgetFields } from "../budget";
 import { dbIdParam, dbIdSchema, MAX_DB_ID } from "../common";
 import { evidenceKindSchema } from "../evidence";
+import { EXTENDS_FROM } from "../../lineage";
+
+/** Which length of an already-scaled model a plan extends from (shared/lineage.ts); absent = the pre-trained one. */
+export const extendsFromSchema = z.enum(EXTENDS_FROM);
 
 export const REVISION_STATES = ["draft", "in_review", "approved", "changes_requested", "superseded"] as const;
 export const revisionStateSchema = z.enum(REVISION_STATES);
@@ -68,6 +72,7 @@ export const MAX_STAGES = 32;
 const revisionFields = {
   targetContext: lengthSchema,
   method: methodParamsSchema,
+  extendsFrom: extendsFromSchema.optional(),
   groupMethods: groupMethodsSchema.optional(),
   bands: bandsSchema.optional(),
   stages: z.array(stageSchema).max(MAX_STAGES, `at most ${MAX_STAGES} stages`).default([]),
@@ -93,6 +98,7 @@ export const updateRevisionRequestSchema = z.strictObject({
   version: dbIdSchema,
   targetContext: revisionFields.targetContext.optional(),
   method: methodParamsSchema.optional(),
+  extendsFrom: extendsFromSchema.optional(),
   groupMethods: groupMethodsSchema.optional(),
   bands: bandsSchema.optional(),
   stages: z.array(stageSchema).max(MAX_STAGES, `at most ${MAX_STAGES} stages`).optional(),

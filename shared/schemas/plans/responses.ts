@@ -8,6 +8,7 @@ import { PROOF_STATES } from "../evidence-api";
 import {
   acceptanceCriterionSchema,
   decisionSchema,
+  extendsFromSchema,
   groupMethodSchema,
   revisionStateSchema,
   stageResultSchema,
@@ -110,6 +111,11 @@ export const modelSnapshotSchema = z.object({
   bytesPerElement: z.number(),
   /** The profile's layer groups, frozen with it; only present when the model has more than one. */
   layerGroups: z.array(layerGroupSchema).optional(),
+  /**
+   * Lineage (shared/lineage.ts): only for a model that ships scaling. trainedContext above is the pre-trained length;
+   * this is the length served now and the shipped scaling as a method ("as shipped"), null when it cannot be run.
+   */
+  lineage: z.object({ servedContext: z.number(), shipped: methodParamsSchema.nullable() }).optional(),
 });
 export type ModelSnapshot = z.infer<typeof modelSnapshotSchema>;
 
@@ -132,6 +138,8 @@ export type GroupResult = z.infer<typeof groupResultSchema>;
 export const revisionContentSchema = z.object({
   targetContext: z.number(),
   method: methodParamsSchema,
+  /** Which length the plan extends from; absent on revisions from the pre-trained length (all before lineage). */
+  extendsFrom: extendsFromSchema.optional(),
   groupMethods: z.array(groupMethodSchema).optional(),
   bands: bandsSchema.optional(),
   stages: z.array(stageSchema),
@@ -254,6 +262,12 @@ export const exportEnvelopeSchema = z.object({
   contentHash: z.string(),
   engineVersion: z.string(),
   model: z.object({ name: z.string(), trainedContext: z.number(), ropeTheta: z.number() }),
+  /**
+   * Lineage: which length the plan extends from and that length in tokens. `method` and `config` are as consumers
+   * read them, over model.trainedContext (the pre-trained length), whichever length the plan extends from.
+   */
+  extendsFrom: extendsFromSchema.optional(),
+  startContext: z.number().optional(),
   targetContext: z.number(),
   method: methodParamsSchema,
   config: configPatchSchema,
