@@ -132,6 +132,7 @@ export function issueSentence(issue: IssueLike): string {
       return issue.inclusive === false ? `${L} must be less than ${n}.` : `${L} must be at most ${n}.`;
     }
     case "invalid_format":
+      if (missing) return `${L} is required.`;
       if (issue.format === "email") return `${L} must be an e-mail address, such as name@lab.test.`;
       if (issue.format === "url") return `${L} must be a web address.`;
       if (issue.format === "starts_with") return `${L} must start with "${issue.prefix}".`;

@@ -47,6 +47,8 @@ describe("validation messages in our own words", () => {
 
   it("text, e-mail, choices, lists and unknown keys", () => {
     expect(fieldsOf(loginRequestSchema, { email: "nope", password: "x" }).email).toMatch(/^E-mail must be an e-mail/);
+    // An empty box is missing, not malformed.
+    expect(fieldsOf(loginRequestSchema, { email: "", password: "" }).email).toBe("E-mail is required.");
     const choice = z.object({ comparison: z.enum([">=", "<="]) });
     expect(fieldsOf(choice, { comparison: "=" }).comparison).toBe('Comparison must be one of ">=" or "<=".');
     const list = z.object({ stages: z.array(z.number()).min(1) });
