@@ -22,6 +22,12 @@ export const outboxRowSchema = z.object({
   lastError: z.string().nullable(),
   createdAt: z.string(),
   sentAt: z.string().nullable(),
+  /** When the next try is due (pending rows). */
+  nextAttemptAt: z.string(),
+  /** The plain-text body, opened in place on the Mail page. */
+  body: z.string(),
+  /** The plan and revision a workflow message is about (null for other mail and for rows queued before they were kept). */
+  plan: z.object({ id: z.number(), title: z.string(), revision: z.number().nullable() }).nullable(),
 });
 export type OutboxRow = z.infer<typeof outboxRowSchema>;
 

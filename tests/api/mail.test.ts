@@ -10,6 +10,7 @@ import { startMailSink, type MailSink } from "../../server/mailer/sink";
 import { startOutboxWorker, type WorkerClock } from "../../server/mailer/worker";
 import { approvedMail, changesRequestedMail, planReadyMail, reviewRequestedMail } from "../../server/mailer/messages";
 import type { AppDeps } from "../../server/deps";
+import { createPlan, createProfile, post } from "../setup/plans";
 
 const { pool, db } = testDb();
 let sink: MailSink;
@@ -278,6 +279,31 @@ describe("GET /api/mail", () => {
       [`First ${tag}`, "sent"],
     ]);
     expect(mine[1]).toMatchObject({ to: [to[1]], attempts: 1, lastError: null, sentAt: expect.any(String) });
+  });
+
+  it("outbox rows of workflow mail name their plan and revision and carry the body; the search narrows the outbox too", async () => {
+    const researcher = await app.agentAs(["researcher"]);
+    await app.agentAs(["approver"]); // someone to ask
+    const title = `Outbox plan ${crypto.randomBytes(4).toString("hex")}`;
+    const plan = await createPlan(researcher, (await createProfile(researcher)).id, { title });
+    await post(researcher, `/api/plans/${plan.id}/revisions/1/submit`).expect(200);
+    const admin = await app.agentAs(["admin"]);
+    const found = (await admin.get("/api/mail").query({ q: title }).expect(200)).body;
+    expect(found.outbox.length).toBeGreaterThan(0);
+    for (const row of found.outbox) {
+      expect(row).toMatchObject({
+        kind: "plan.review_requested",
+        subject: `For inspection: "${title}" rev. 1, round 1`,
+        plan: { id: plan.id, title, revision: 1 },
+        nextAttemptAt: expect.any(String),
+      });
+      expect(row.body).toContain(`/plans/${plan.id}?revision=1`);
+    }
+    // Mail queued without a plan has none.
+    const { tag, kind, to } = tagged();
+    await enqueueMail(db, { kind, to, subject: `Plain ${tag}`, body: "plain" });
+    const plain = (await admin.get("/api/mail").query({ q: tag }).expect(200)).body.outbox;
+    expect(plain).toMatchObject([{ subject: `Plain ${tag}`, plan: null, body: "plain" }]);
   });
 
   it("POST /api/mail/deliver sends what is due now", async () => {

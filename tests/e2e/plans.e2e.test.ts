@@ -351,17 +351,21 @@ describe("plan workflow in a browser", () => {
     };
     await deliverDueMail(deps, { kinds: PLAN_MAIL, limit: 5000 });
     const page = await signedIn(admin, "/mail");
-    await page.getByLabel("Search received mail").fill(title);
+    await page.getByLabel("Search mail").fill(title);
     const received = page.getByRole("list", { name: "Received messages" });
     await received.getByText(approverA.email, { exact: false }).first().waitFor();
     // For inspection (to the approvers) and passed (to the author); "ready" goes to infra leads, if any.
-    const subjects = await received.locator("li button span:first-child").allTextContents();
+    const subjects = await received.getByTestId("subject").allTextContents();
     expect(subjects).toContain(`For inspection: "${title}" rev. 1, round 1`);
     expect(subjects).toContain(`Passed: "${title}" rev. 1`);
-    await received.getByRole("button", { name: new RegExp(`^Passed: "${title}"`) }).click();
-    await expect
-      .poll(() => page.getByRole("article", { name: "Message" }).textContent(), { timeout: 15_000 })
-      .toContain(`/plans/${planId}`);
+    // The plan's own line: what was sent, in order, each delivered.
+    const line = page.getByRole("list", { name: "Deliveries by plan" }).getByRole("listitem", { name: title });
+    const kinds = await line.locator("li[data-outbox-id] p:first-child span:first-child").allTextContents();
+    expect(kinds.indexOf("Asked the inspectors")).toBeGreaterThanOrEqual(0);
+    expect(kinds.indexOf("Asked the inspectors")).toBeLessThan(kinds.indexOf("Told the author it passed"));
+    // The body opens in place.
+    await line.getByText(`Passed: "${title}" rev. 1`).click();
+    await expect.poll(() => line.textContent(), { timeout: 15_000 }).toContain(`/plans/${planId}`);
     await screenshot(page, "plans-mail");
   }, 60_000);
 

@@ -1,7 +1,7 @@
-import { desc, ilike, or, sql } from "drizzle-orm";
+import { desc, eq, ilike, or, sql } from "drizzle-orm";
 import { containsPattern } from "../../platform/paging";
 import type { Executor } from "../../db/client";
-import { mailOutbox, mailSinkMessages } from "../../db/schema";
+import { mailOutbox, mailSinkMessages, plans } from "../../db/schema";
 
 export function listSinkMessages(ex: Executor, limit: number, q?: string) {
   const where = q
@@ -26,7 +26,14 @@ export function listSinkMessages(ex: Executor, limit: number, q?: string) {
     .limit(limit);
 }
 
-export function listOutbox(ex: Executor, limit: number) {
+/** Newest first; `q` narrows to a subject or recipient, as for the received messages. */
+export function listOutbox(ex: Executor, limit: number, q?: string) {
+  const where = q
+    ? or(
+        ilike(mailOutbox.subject, containsPattern(q)),
+        sql`rw_text_list(${mailOutbox.toAddresses}) ilike ${containsPattern(q)}`,
+      )
+    : undefined;
   return ex
     .select({
       id: mailOutbox.id,
@@ -38,8 +45,15 @@ export function listOutbox(ex: Executor, limit: number) {
       lastError: mailOutbox.lastError,
       createdAt: mailOutbox.createdAt,
       sentAt: mailOutbox.sentAt,
+      nextAttemptAt: mailOutbox.nextAttemptAt,
+      body: mailOutbox.body,
+      planId: mailOutbox.planId,
+      planTitle: plans.title,
+      revision: mailOutbox.revision,
     })
     .from(mailOutbox)
+    .leftJoin(plans, eq(plans.id, mailOutbox.planId))
+    .where(where)
     .orderBy(desc(mailOutbox.id))
     .limit(limit);
 }

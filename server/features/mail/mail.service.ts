@@ -9,14 +9,16 @@ export const MAIL_PAGE_LIMIT = 200;
 export async function listMail(deps: AppDeps, q?: string): Promise<MailView> {
   const [messages, outbox] = await Promise.all([
     repo.listSinkMessages(deps.db, MAIL_PAGE_LIMIT, q),
-    repo.listOutbox(deps.db, MAIL_PAGE_LIMIT),
+    repo.listOutbox(deps.db, MAIL_PAGE_LIMIT, q),
   ]);
   return {
     messages: messages.map((m) => ({ ...m, receivedAt: m.receivedAt.toISOString() })),
-    outbox: outbox.map((o) => ({
+    outbox: outbox.map(({ planId, planTitle, revision, ...o }) => ({
       ...o,
       createdAt: o.createdAt.toISOString(),
       sentAt: o.sentAt?.toISOString() ?? null,
+      nextAttemptAt: o.nextAttemptAt.toISOString(),
+      plan: planId !== null && planTitle !== null ? { id: planId, title: planTitle, revision } : null,
     })),
   };
 }

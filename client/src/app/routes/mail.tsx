@@ -8,7 +8,7 @@ import { useDebouncedText } from "@/lib/search-state";
 import { useDeliverMail } from "@/features/mail/api/deliver-mail";
 import { mailQueries } from "@/features/mail/api/queries";
 import { MailMessages } from "@/features/mail/components/mail-messages";
-import { OutboxTable } from "@/features/mail/components/outbox-table";
+import { DeliveryTimeline } from "@/features/mail/components/delivery-timeline";
 
 export function MailRoute() {
   const [q, setQ] = useState("");
@@ -26,7 +26,7 @@ export function MailRoute() {
           text:
             r.sent + r.failed === 0
               ? "Nothing was due."
-              : `Sent ${r.sent}${r.failed ? `; ${r.failed} failed and will be retried later (see Last error)` : ""}.`,
+              : `Sent ${r.sent}${r.failed ? `; ${r.failed} failed and will be retried later (see the last error on each line)` : ""}.`,
         }),
       onError: (e) => setResult({ tone: "alert", text: e.message }),
     });
@@ -35,13 +35,13 @@ export function MailRoute() {
   return (
     <Page
       title="Mail"
-      lead="What Ropewalk sent: the local sink’s received messages and the outbox with each delivery’s state. Workflow mail is queued with the change that caused it."
+      lead="What Ropewalk sent, plan by plan: each message on its plan’s line with its delivery attempts, queued with the change that caused it. Open a message to read it. The newest 200 are shown; search to reach older ones."
     >
       {result && <Notice tone={result.tone}>{result.text}</Notice>}
       <div className="flex flex-wrap items-end justify-between gap-3">
         <div className="min-w-72">
           <TextField
-            label="Search received mail"
+            label="Search mail"
             hint="Subject or recipient"
             type="search"
             value={text}
@@ -60,11 +60,11 @@ export function MailRoute() {
       )}
       {mail.data && (
         <>
-          <Panel title={`Received (${mail.data.messages.length})`}>
-            <MailMessages messages={mail.data.messages} />
+          <Panel title="Deliveries by plan">
+            <DeliveryTimeline rows={mail.data.outbox} />
           </Panel>
-          <Panel title="Outbox">
-            <OutboxTable rows={mail.data.outbox} />
+          <Panel title={`Received by the local sink (${mail.data.messages.length})`}>
+            <MailMessages messages={mail.data.messages} />
           </Panel>
         </>
       )}
