@@ -360,7 +360,7 @@ describe("plan workflow in a browser", () => {
     expect(subjects).toContain(`Passed: "${title}" rev. 1`);
     // The plan's own line: what was sent, in order, each delivered.
     const line = page.getByRole("list", { name: "Deliveries by plan" }).getByRole("listitem", { name: title });
-    const kinds = await line.locator("li[data-outbox-id] p:first-child span:first-child").allTextContents();
+    const kinds = await line.getByTestId("kind").allTextContents();
     expect(kinds.indexOf("Asked the inspectors")).toBeGreaterThanOrEqual(0);
     expect(kinds.indexOf("Asked the inspectors")).toBeLessThan(kinds.indexOf("Told the author it passed"));
     // The body opens in place.

@@ -13,7 +13,9 @@ function Delivery({ r }: { r: OutboxRow }) {
     <li className="relative" data-outbox-id={r.id} data-status={r.status}>
       <span aria-hidden className="absolute top-2 -left-[1.45rem] size-3 rounded-full border-2 border-hemp bg-paper" />
       <p className="flex flex-wrap items-center gap-2 text-body">
-        <span className="font-medium">{KIND_WORDS[r.kind] ?? <code className="text-note">{r.kind}</code>}</span>
+        <span className="font-medium" data-testid="kind">
+          {KIND_WORDS[r.kind] ?? <code className="text-note">{r.kind}</code>}
+        </span>
         {r.plan?.revision != null && <span className="text-note text-ink-soft">revision {r.plan.revision}</span>}
         <Chip tone={TONE[r.status as keyof typeof TONE] ?? "muted"}>{r.status}</Chip>
       </p>
