@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { dynamicFactorField } from "./dynamic-factor";
 import { defineMethod, type ParamField } from "./entry";
 import { baseSchema, factorListSchema, factorSchema, lengthSchema, ordered, positive, yarnMscale } from "./params";
 
@@ -97,7 +98,7 @@ const RAW_CATALOG = {
     extends: true,
     defaults: {},
     fields: [
-      factor,
+      dynamicFactorField(factor),
       {
         key: "sequenceLength",
         label: "Inference length l (tokens)",

@@ -17,6 +17,8 @@ export interface ParamField<Key extends string = string> {
   fallback?: (c: FieldContext) => number | boolean | null;
   /** The default in words, for forms without the inputs `fallback` needs. */
   fallbackText?: string;
+  /** Why the default is what it is, shown under the field; uses what the form knows (all null in the plan editor). */
+  note?: (c: FieldContext) => string;
 }
 
 type ParamKey<S extends z.ZodObject> = Exclude<keyof z.output<S>, "method"> & string;

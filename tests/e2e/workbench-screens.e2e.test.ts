@@ -168,10 +168,16 @@ describe("the workbench and the estimator on a phone and on a wide screen", () =
   it("at 1440 px the inputs stay beside the figures in a sticky panel, and each method row folds", async () => {
     const rows: [MethodId, Record<string, string>][] = [
       ["yarn", { betaFast: "24" }],
-      ["llama3", {}],
+      ["dynamic", {}],
     ];
     const { context, page, errors } = await openWorkbench(1440, rows);
     await page.getByRole("article").first().waitFor({ timeout: 15_000 });
+    // The dynamic factor's default is explained beside it: s = 32 768 / 4 096 = 8, so at L′ the base grows
+    // (1 + 8·7)^(64/63) = 57^(64/63) ≈ 60.8 times; f = 1 (the NTK-aware base at s = 8) 8^(64/63) ≈ 8.27 times.
+    const dynamicRow = page.getByTestId("method-row-1");
+    await expect.poll(() => dynamicRow.textContent(), { timeout: 10_000 }).toContain("f = L′/L = 8");
+    expect(await dynamicRow.textContent()).toContain("×60.8");
+    expect(await dynamicRow.textContent()).toContain("×8.27");
     const inputs = page.getByTestId("workbench-inputs");
     expect(await inputs.evaluate((el) => getComputedStyle(el).position)).toBe("sticky");
     // The charts start beside the inputs, not below them: the first chart is in view without scrolling.

@@ -16,6 +16,8 @@ import { createTestUser, type TestUser } from "../setup/users";
 import { makeTestApp } from "../setup/app";
 import { createPlan, createProfile } from "../setup/plans";
 import { activeBoundSearches } from "../../server/features/bounds/bounds.service";
+import { METHOD_CATALOG } from "../../shared/methods";
+import { readPairCsvHeader } from "../../client/src/features/workbench/state/csv-header";
 
 const fixturePath = path.resolve(import.meta.dirname, "../fixtures/configs/every-warning.json");
 
@@ -208,7 +210,26 @@ describe("workbench in a browser", () => {
       page.waitForEvent("download"),
       page.getByRole("button", { name: "Download CSV" }).click(),
     ]);
-    const csv = Papa.parse<string[]>((await downloadedText(download)).trim());
+    const text = await downloadedText(download);
+    // Before the table, # lines name what produced it; they parse back to the analysis shown.
+    expect(readPairCsvHeader(text)).toEqual({
+      model: {
+        rotaryDim: analysis.model.rotaryDim,
+        headDim: analysis.model.headDim,
+        ropeTheta: analysis.model.ropeTheta,
+        trainedContext: analysis.model.trainedContext,
+        partialRotaryFactor: analysis.model.partialRotaryFactor,
+      },
+      profile: name,
+      method: "ntk",
+      "method name": METHOD_CATALOG.ntk.label,
+      parameters: ntk.params,
+      "target length": target,
+      bands: analysis.bands,
+      "engine version": analysis.engineVersion,
+      rows: "flagged pairs only",
+    });
+    const csv = Papa.parse<string[]>(text.trim(), { comments: "#" });
     const headers = (await table.locator("thead th").allTextContents()).map((t) => t.replace(/[▲▼↕]/g, "").trim());
     expect(csv.data[0]).toEqual(headers);
     expect(csv.data.length - 1).toBe(await rows.count());

@@ -1,6 +1,7 @@
 import type { MethodFn } from "../types";
 import { inverseFrequencies } from "../frequencies";
 import { METHOD_CATALOG } from "../../../shared/methods";
+import { dynamicBaseGrowth } from "../../../shared/methods/dynamic-factor";
 import { resolveFactor } from "./common";
 
 /**
@@ -10,8 +11,7 @@ import { resolveFactor } from "./common";
  * so at or below the trained length the result is bit-identical to default RoPE.
  */
 export function dynamicBase(base: number, factor: number, d: number, length: number, trained: number) {
-  const l = Math.max(length, trained);
-  return base * Math.pow(1 + factor * (l / trained - 1), d / (d - 2));
+  return base * dynamicBaseGrowth(factor, d, length, trained);
 }
 
 export const dynamicMethod: MethodFn<"dynamic"> = (ctx, params) => {

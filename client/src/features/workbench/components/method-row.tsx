@@ -160,7 +160,7 @@ export function MethodRow({ index, row, context, errors, canRemove, onChange, on
                 inputMode="decimal"
                 value={value}
                 placeholder={f.required ? "required" : defaultText(f, context)}
-                hint={f.hint}
+                hint={f.note ? `${f.hint ?? ""} ${f.note(context)}`.trim() : f.hint}
                 error={err(f.key)}
                 onChange={(e) => set(f.key, e.target.value)}
               />

@@ -6,25 +6,29 @@ import {
   type SortingState,
   type VisibilityState,
 } from "@tanstack/react-table";
-import type { MethodResult } from "@shared/schemas/analysis";
+import type { AnalysisResponse } from "@shared/schemas/analysis";
 import { Button } from "@/components/button";
 import { Checkbox } from "@/components/field";
 import { TableView } from "@/components/table-view";
 import { METHOD_LABELS } from "../state/method-fields";
 import { downloadText } from "@/lib/download";
+import { formatPairCsvHeader, pairCsvHeader } from "../state/csv-header";
 import { tableToCsv } from "./csv-download";
 import { anyFlag, PAIR_COLUMNS } from "./pair-columns";
 
 type PairTableProps = {
-  method: MethodResult;
-  methodNumber: number;
-  targetContext: number;
+  analysis: AnalysisResponse;
+  /** Which method of the analysis the table lists (index into analysis.methods). */
+  methodIndex: number;
+  /** The saved profile the analysis named, for the CSV header; null for a typed-in shape. */
+  profile: string | null;
   flaggedOnly: boolean;
   onFlaggedOnly: (value: boolean) => void;
 };
 
 /** Every pair of one method: sort by any column, show only flagged pairs, hide columns, download what is shown. */
-export function PairTable({ method, methodNumber, targetContext, flaggedOnly, onFlaggedOnly }: PairTableProps) {
+export function PairTable({ analysis, methodIndex, profile, flaggedOnly, onFlaggedOnly }: PairTableProps) {
+  const method = analysis.methods[methodIndex];
   const [sorting, setSorting] = useState<SortingState>([]);
   const [visibility, setVisibility] = useState<VisibilityState>({ invFreq: false, scaledInvFreq: false });
   const data = useMemo(() => (flaggedOnly ? method.pairs.filter(anyFlag) : method.pairs), [method.pairs, flaggedOnly]);
@@ -41,7 +45,10 @@ export function PairTable({ method, methodNumber, targetContext, flaggedOnly, on
   });
   const rows = table.getRowModel().rows;
   const download = () =>
-    downloadText(tableToCsv(table), `ropewalk-pairs-${methodNumber}-${method.method}-${targetContext}.csv`);
+    downloadText(
+      formatPairCsvHeader(pairCsvHeader(analysis, methodIndex, profile, flaggedOnly)) + tableToCsv(table),
+      `ropewalk-pairs-${methodIndex + 1}-${method.method}-${analysis.targetContext}.csv`,
+    );
 
   return (
     <div className="flex flex-col gap-3">
@@ -84,7 +91,7 @@ export function PairTable({ method, methodNumber, targetContext, flaggedOnly, on
       />
       <p className="text-note text-ink-soft" data-testid="pair-count">
         {rows.length} of {method.pairs.length} pairs shown. Values show 4 significant figures; the CSV holds full
-        precision.
+        precision, after a commented header (# lines) naming the model, method, parameters and engine version.
       </p>
     </div>
   );

@@ -20,6 +20,8 @@ type ResultsProps = {
   onFlaggedOnly: (value: boolean) => void;
   /** While the figures are stale: the methods the rows ask for now, so a card can say its row has moved on. */
   currentMethods?: MethodId[] | null;
+  /** The saved profile the analysis named (for the CSV header), null for a typed-in shape. */
+  profile?: string | null;
 };
 
 function MethodPicker({ analysis, view, onView }: Pick<ResultsProps, "analysis" | "view" | "onView">) {
@@ -44,6 +46,7 @@ export function WorkbenchResults({
   flaggedOnly,
   onFlaggedOnly,
   currentMethods = null,
+  profile = null,
 }: ResultsProps) {
   const shown = Math.min(view, analysis.methods.length - 1);
   const methods = analysis.methods.map((m) => m.method);
@@ -78,9 +81,9 @@ export function WorkbenchResults({
       <Panel title="Pair by pair" aside={<MethodPicker analysis={analysis} view={shown} onView={onView} />}>
         <div className="flex flex-col gap-3">
           <PairTable
-            method={analysis.methods[shown]}
-            methodNumber={shown + 1}
-            targetContext={analysis.targetContext}
+            analysis={analysis}
+            methodIndex={shown}
+            profile={profile}
             flaggedOnly={flaggedOnly}
             onFlaggedOnly={onFlaggedOnly}
           />

@@ -6,6 +6,7 @@ import { Loading, Notice } from "@/components/notice";
 import { Panel } from "@/components/page";
 import { ExportTargets } from "@/components/export-targets";
 import type { ExportRequest } from "@shared/schemas/exports";
+import type { AnalysisRequest } from "@shared/schemas/analysis";
 import { isApiError } from "@/lib/api-client";
 import { analysesQueries } from "@/lib/api/analyses";
 import { useDebounced } from "@/lib/use-debounced";
@@ -19,6 +20,11 @@ import { inputsToParams, parseInputs } from "../state/url-codec";
 import { WorkbenchInputs } from "./workbench-inputs";
 import { WorkbenchResults } from "./workbench-results";
 import { describeAnalysis, StaleBanner, staleness, type Answered } from "./stale-results";
+
+/** The saved profile an analysed request named, if it named one (a layer group or a typed shape is sent as a shape). */
+function profileNameOf({ model }: AnalysisRequest, profiles: ModelProfile[]): string | null {
+  return "modelId" in model ? (profiles.find((p) => p.id === model.modelId)?.name ?? null) : null;
+}
 
 type WorkbenchProps = {
   profiles: ModelProfile[];
@@ -144,6 +150,7 @@ export function Workbench({ profiles, profileNotes }: WorkbenchProps) {
                 flaggedOnly={inputs.flaggedOnly}
                 onFlaggedOnly={(flaggedOnly) => setInputs({ ...inputs, flaggedOnly })}
                 currentMethods={stale ? inputs.methods.map((r) => r.method) : null}
+                profile={profileNameOf(answered.request, profiles)}
               />
               <Panel title="Rigging for each stack">
                 <ExportTargets request={exportRequest} />

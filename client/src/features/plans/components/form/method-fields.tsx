@@ -11,8 +11,12 @@ function ParamInput({ name, param }: { name: string; param: ParamField }) {
   const error = useFieldError(path);
   const label = param.required ? param.label : `${param.label} (optional)`;
   // The plan form has no model context here, so model-dependent defaults are given in words.
-  const fallback = defaultText(param, { scale: null, targetContext: null, pairs: null });
-  const hint = [param.hint, fallback && `Left empty: ${fallback}.`].filter(Boolean).join(" ");
+  const unknown = { scale: null, targetContext: null, pairs: null };
+  const fallback = defaultText(param, unknown);
+  // A field whose default needs explaining says it in full (which repeats the default), else the default alone.
+  const hint = [param.hint, param.note ? param.note(unknown) : fallback && `Left empty: ${fallback}.`]
+    .filter(Boolean)
+    .join(" ");
   if (param.kind === "number" || param.kind === "integer") {
     return <NumberField name={path} label={label} hint={hint} step={param.kind === "integer" ? "1" : "any"} />;
   }
