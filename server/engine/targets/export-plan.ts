@@ -4,7 +4,8 @@ import { runMethod } from "../methods";
 import { rotaryFingerprint } from "../fingerprint";
 import { rotateGroups } from "../group-rotary";
 import type { GroupRotarySpec } from "../../../shared/layer-groups";
-import type { CompileInput, TargetId } from "./types";
+import type { MethodContext } from "../types";
+import type { CompileInput, PlanRun, TargetId } from "./types";
 import { TARGET_IDS } from "./types";
 import { exportForTargets, type TargetExport } from "./registry";
 
@@ -54,27 +55,34 @@ export function exportPlan(p: {
   const d = rotaryDimension(p.model);
   if (d === null) throw new RangeError("rotary dimension must be a positive even integer (validate the model first)");
   const ctx = { d, base: p.model.ropeTheta, trainedContext: p.model.trainedContext, targetContext: p.targetContext };
-  const out = runMethod(ctx, p.method);
-  const invFreq = Array.from(out.invFreq);
   const groups = p.groups?.length ? rotateGroups(p.groups, p.model.trainedContext, p.targetContext) : undefined;
-  const input: CompileInput = {
-    config: { ...(p.config ?? {}), ...configOfShape(p.model) },
-    method: p.method,
-    plan: {
-      rotaryDim: d,
-      base: p.model.ropeTheta,
-      trainedContext: p.model.trainedContext,
-      targetContext: p.targetContext,
-      invFreq,
-      attentionFactor: out.attentionFactor,
-      ...(groups ? { groups } : {}),
-    },
-  };
+  const plan: PlanRun = { ...planRotary(ctx, p.method), ...(groups ? { groups } : {}) };
+  const input: CompileInput = { config: { ...(p.config ?? {}), ...configOfShape(p.model) }, method: p.method, plan };
   return {
-    invFreq,
-    attentionFactor: out.attentionFactor,
+    invFreq: plan.invFreq,
+    attentionFactor: plan.attentionFactor,
     rotaryDim: d,
-    fingerprint: rotaryFingerprint(groups ?? [{ rotaryDim: d, attentionFactor: out.attentionFactor, invFreq }]),
+    fingerprint: rotaryFingerprint(
+      groups ?? [{ rotaryDim: d, attentionFactor: plan.attentionFactor, invFreq: plan.invFreq }],
+    ),
     targets: exportForTargets(input, p.targets ?? TARGET_IDS),
+  };
+}
+
+/**
+ * The engine's one run of the plan's method for an export: every target's compiler reads its filled parameters from
+ * here instead of running the method again.
+ */
+export function planRotary(ctx: MethodContext, method: MethodParams): PlanRun {
+  const out = runMethod(ctx, method);
+  return {
+    rotaryDim: ctx.d,
+    base: ctx.base,
+    trainedContext: ctx.trainedContext,
+    targetContext: ctx.targetContext,
+    invFreq: Array.from(out.invFreq),
+    attentionFactor: out.attentionFactor,
+    params: out.params,
+    effectiveBase: out.effectiveBase,
   };
 }

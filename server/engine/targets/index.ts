@@ -7,7 +7,7 @@ export { applyMergePatch } from "./merge-patch";
 export { floatText, parseJsonTyped, writeJsonText } from "./json-text";
 export { TARGETS, exportForTargets, runningLength, type TargetExport } from "./registry";
 
-export { configOfShape, exportPlan, type PlanExport } from "./export-plan";
+export { configOfShape, exportPlan, planRotary, type PlanExport } from "./export-plan";
 
 /** The shared schema's id list and the engine's must name the same targets (a type error otherwise). */
 type Same<A, B> = [A] extends [B] ? ([B] extends [A] ? true : false) : false;

@@ -61,12 +61,20 @@ export interface PlanRotary {
   groups?: GroupRotary[];
 }
 
+/** The plan plus what the compilers need of the engine's one run of its method for this export. */
+export interface PlanRun extends PlanRotary {
+  /** the method's parameters with every default filled in (a compiler writes these, never a default of its own) */
+  params: MethodParams;
+  /** the base the result corresponds to when the method only changes the base, else null */
+  effectiveBase: number | null;
+}
+
 export interface CompileInput {
   /** the model's config.json as imported, or one synthesised from the profile (keys of the open config format) */
   config: Record<string, unknown>;
   /** the plan's method with its parameters (shared/methods catalog schema) */
   method: MethodParams;
-  plan: PlanRotary;
+  plan: PlanRun;
 }
 
 /** A target either expresses the plan or says why not and what comes closest. */

@@ -1,7 +1,7 @@
 import type { MethodId, MethodParams } from "../../../shared/schemas/analysis";
 import { METHOD_CATALOG } from "../../../shared/methods";
-import { runMethod } from "../../../server/engine/methods";
-import type { CompileInput, ExportTarget, PlanRotary } from "../../../server/engine/targets/types";
+import { planRotary } from "../../../server/engine/targets";
+import type { CompileInput, ExportTarget, PlanRun } from "../../../server/engine/targets/types";
 
 /** A Llama-2-7B-like config.json (d = 128, b = 10 000, L = 4096); fictional values in the open config format. */
 export const LLAMA2_LIKE: Record<string, unknown> = {
@@ -36,17 +36,8 @@ export function planFor(
   method: MethodParams,
   shape: { d: number; base: number; trained: number },
   targetContext: number,
-): PlanRotary {
-  const ctx = { d: shape.d, base: shape.base, trainedContext: shape.trained, targetContext };
-  const out = runMethod(ctx, method);
-  return {
-    rotaryDim: shape.d,
-    base: shape.base,
-    trainedContext: shape.trained,
-    targetContext,
-    invFreq: Array.from(out.invFreq),
-    attentionFactor: out.attentionFactor,
-  };
+): PlanRun {
+  return planRotary({ d: shape.d, base: shape.base, trainedContext: shape.trained, targetContext }, method);
 }
 
 export const LLAMA2_SHAPE = { d: 128, base: 10_000, trained: 4096 };

@@ -1,9 +1,8 @@
 import type { MethodParams, ParamsOf } from "../../../../shared/schemas/analysis";
-import { runMethod } from "../../methods";
 import type { CompileInput } from "../types";
 
 /**
- * The plan's method with every default filled in, as the engine ran it, plus the base the result corresponds to when
+ * The plan's method with every default filled in, as the engine ran it once for the export (PlanRotary), plus the base the result corresponds to when
  * the method only changes the base. The engine's own run is the reference: a compiler writes what the plan means,
  * never a default of its own.
  */
@@ -20,17 +19,10 @@ export interface ResolvedPlan {
 
 export function resolvePlan(input: CompileInput): ResolvedPlan {
   const { plan } = input;
-  const ctx = {
-    d: plan.rotaryDim,
-    base: plan.base,
-    trainedContext: plan.trainedContext,
-    targetContext: plan.targetContext,
-  };
-  const out = runMethod(ctx, input.method);
   return {
-    params: out.params,
+    params: plan.params,
     requested: input.method,
-    effectiveBase: out.effectiveBase,
+    effectiveBase: plan.effectiveBase,
     d: plan.rotaryDim,
     base: plan.base,
     trained: plan.trainedContext,

@@ -1,5 +1,4 @@
 import type { CompileInput, CompileResult, TargetArtifact } from "../types";
-import { runMethod } from "../../methods";
 import { writeJsonText } from "../json-text";
 import { CONFIG_FLOAT_KEYS, floatKeyTest } from "../float-keys";
 import { type Obj } from "./config-view";
@@ -31,17 +30,16 @@ function place(input: CompileInput, rules: HfRules): Placed {
   const { plan, config } = input;
   const L = plan.trainedContext;
   const target = plan.targetContext;
-  const ctx = { d: plan.rotaryDim, base: plan.base, trainedContext: L, targetContext: target };
-  const out = runMethod(ctx, input.method);
-  const p = out.params as Record<string, unknown>;
+  // The engine ran the method once for this export (PlanRotary): its filled params, effective base, attention factor.
+  const p = plan.params as Record<string, unknown>;
   const ratio = target / L;
   const hasTopOriginal = typeof config.original_max_position_embeddings === "number";
-  switch (out.params.method) {
+  switch (plan.params.method) {
     case "default":
       return { block: null, base: plan.base, maxPos: target };
     case "base":
     case "ntk":
-      return { block: null, base: out.effectiveBase!, maxPos: target };
+      return { block: null, base: plan.effectiveBase!, maxPos: target };
     case "linear":
       return { block: { rope_type: "linear", factor: p.factor }, base: plan.base, maxPos: target };
     case "dynamic":
@@ -60,7 +58,7 @@ function place(input: CompileInput, rules: HfRules): Placed {
         maxPos: target,
       };
     case "yarn":
-      return placeYarn(p, rules, L, target, ratio, plan.base, out.attentionFactor, "attentionFactor" in input.method);
+      return placeYarn(p, rules, L, target, ratio, plan.base, plan.attentionFactor, "attentionFactor" in input.method);
     case "longrope": {
       const block: Obj = { rope_type: "longrope", long_factor: p.longFactor, short_factor: p.shortFactor };
       if (rules === "v5") {
@@ -145,12 +143,11 @@ function trainedBlock(config: Obj, existing: Obj): Obj {
   return { ...rest, rope_type: ropeType ?? type ?? "default", rope_theta: typeof theta === "number" ? theta : 10000 };
 }
 
-/** A non-scaled group's own block: its method placed over its own base and rotary dimension (v5 rules). */
+/** A non-scaled group's own block: its method's run placed over its own base and rotary dimension (v5 rules). */
 function groupBlock(input: CompileInput, g: GroupRotary): Obj {
-  const placed = place(
-    { ...input, method: g.method, plan: { ...input.plan, rotaryDim: g.rotaryDim, base: g.base } },
-    "v5",
-  );
+  const { rotaryDim, base, invFreq, attentionFactor, params, effectiveBase } = g;
+  const plan = { ...input.plan, rotaryDim, base, invFreq, attentionFactor, params, effectiveBase };
+  const placed = place({ ...input, method: g.method, plan }, "v5");
   return { ...(placed.block ?? { rope_type: "default" }), rope_theta: placed.base };
 }
 

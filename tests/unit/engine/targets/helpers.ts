@@ -1,6 +1,6 @@
 import type { MethodParams } from "../../../../shared/schemas/analysis";
 import { runMethod } from "../../../../server/engine";
-import type { CompileInput } from "../../../../server/engine/targets";
+import { planRotary, type CompileInput } from "../../../../server/engine/targets";
 
 /** A Llama-like config.json (4.x layout): d = 4096 / 32 = 128, b = 500 000, trained on 8192 tokens. */
 export const LLAMA_LIKE = {
@@ -14,26 +14,14 @@ export const LLAMA_LIKE = {
   rope_scaling: null,
 };
 
-/** The engine's plan for a config shape, as the export service builds it. */
+/** The engine's plan for a config shape, as the export service builds it (one run of the method, planRotary). */
 export function planInput(
   config: Record<string, unknown>,
   method: MethodParams,
   shape: { d: number; base: number; trained: number; target: number },
 ): CompileInput {
   const ctx = { d: shape.d, base: shape.base, trainedContext: shape.trained, targetContext: shape.target };
-  const out = runMethod(ctx, method);
-  return {
-    config,
-    method,
-    plan: {
-      rotaryDim: shape.d,
-      base: shape.base,
-      trainedContext: shape.trained,
-      targetContext: shape.target,
-      invFreq: Array.from(out.invFreq),
-      attentionFactor: out.attentionFactor,
-    },
-  };
+  return { config, method, plan: planRotary(ctx, method) };
 }
 
 /** The config patch Ropewalk exported before export targets existed: the method's patch as JSON.stringify wrote it. */
