@@ -64,7 +64,16 @@ function GroupLines({ groups }: { groups: GroupRow[] }) {
  * Targets × status: how each stack reads the plan once its artifact is applied, with the worst relative error over
  * θ′ and the attention factor, the reason in plain words and the nearest workaround.
  */
-export function ConformanceMatrix({ result, caption }: { result: ExportResponse; caption: string }) {
+/** `showFingerprint` off where the page already prints the fingerprint (the decision dialog's signing box). */
+export function ConformanceMatrix({
+  result,
+  caption,
+  showFingerprint = true,
+}: {
+  result: ExportResponse;
+  caption: string;
+  showFingerprint?: boolean;
+}) {
   return (
     <div className="flex flex-col gap-2" data-testid="conformance-matrix">
       <FramedTable
@@ -99,12 +108,14 @@ export function ConformanceMatrix({ result, caption }: { result: ExportResponse;
           </tr>
         ))}
       </FramedTable>
-      <p className="text-note break-all text-ink-soft">
-        Rotary fingerprint{" "}
-        <code className="text-ink" data-testid="rotary-fingerprint">
-          {result.fingerprint}
-        </code>
-      </p>
+      {showFingerprint && (
+        <p className="text-note break-all text-ink-soft">
+          Rotary fingerprint{" "}
+          <code className="text-ink" data-testid="rotary-fingerprint">
+            {result.fingerprint}
+          </code>
+        </p>
+      )}
     </div>
   );
 }

@@ -7,7 +7,8 @@ import { TargetArtifacts } from "./target-artifacts";
 
 /**
  * The plan compiled for every stack (POST /api/exports): the conformance matrix, and unless `matrixOnly`, the
- * export menu with each stack's artifact. Used by the workbench, the plan page and the decision dialog.
+ * export menu with each stack's artifact and the matrix's fingerprint line (`matrixOnly` is the decision dialog, whose
+ * signing box prints the fingerprint once). Used by the workbench, the plan page and the decision dialog.
  */
 export function ExportTargets({
   request,
@@ -27,7 +28,11 @@ export function ExportTargets({
   if (!compiled.data) return request ? <Loading label="Compiling for each stack…" /> : null;
   return (
     <div className="flex flex-col gap-4">
-      <ConformanceMatrix result={compiled.data} caption="How each stack reads this plan" />
+      <ConformanceMatrix
+        result={compiled.data}
+        caption="How each stack reads this plan"
+        showFingerprint={!matrixOnly}
+      />
       {!matrixOnly && <TargetArtifacts targets={compiled.data.targets} />}
     </div>
   );
