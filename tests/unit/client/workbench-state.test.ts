@@ -3,6 +3,8 @@ import { createEventParser, type ServerEvent } from "../../../client/src/feature
 import { inputsToParams, parseInputs } from "../../../client/src/features/workbench/state/url-codec";
 import { toRequest } from "../../../client/src/features/workbench/state/to-request";
 import type { WorkbenchInputs } from "../../../client/src/features/workbench/state/inputs";
+import { defaultInputs } from "../../../client/src/features/workbench/state/inputs";
+import { shippedRow } from "../../../client/src/features/workbench/state/shipped-row";
 
 // Moved out of tests/e2e/workbench.e2e.test.ts: pure client logic needs no browser.
 // Pure pieces of the workbench, checked without a browser.
@@ -61,5 +63,14 @@ describe("workbench state", () => {
       { event: "progress", data: '{"candidatesExamined":1,"total":9}' },
       { event: "result", data: '{"a":\n1}' },
     ]);
+  });
+});
+
+describe("the as-shipped row", () => {
+  it("carries the shipped method with its factor and survives the URL round trip", () => {
+    const row = shippedRow({ method: "yarn", factor: 4, betaFast: 32, betaSlow: 1 });
+    expect(row).toEqual({ method: "yarn", params: { factor: "4", betaFast: "32", betaSlow: "1" }, shipped: true });
+    const inputs = { ...defaultInputs(), methods: [row, { method: "linear" as const, params: {} }] };
+    expect(parseInputs(inputsToParams(inputs)).methods).toEqual(inputs.methods);
   });
 });

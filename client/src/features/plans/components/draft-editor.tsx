@@ -128,7 +128,19 @@ export function DraftEditor({ planId, revision, onReload, onSaved, afterStages }
         )}
         {saved && <Notice tone="success">{saved}</Notice>}
         <LeaveGuard when={form.formState.isDirty && !update.isPending} what={`Revision ${revision.number}`} />
-        <RevisionFields model={model} afterStages={afterStages} />
+        <RevisionFields
+          model={model}
+          afterStages={afterStages}
+          lineage={
+            m.lineage
+              ? {
+                  pretrainedContext: m.trainedContext,
+                  servedContext: m.lineage.servedContext,
+                  shipped: m.lineage.shipped,
+                }
+              : null
+          }
+        />
         <div className="flex flex-wrap gap-2 border-t border-rule pt-4">
           <SubmitButton busy={update.isPending} busyLabel="Saving…">
             Save draft

@@ -12,6 +12,7 @@ import { useCreatePlan } from "../api/create-plan";
 import { blankRevision, toNumber } from "../lib/form-values";
 import { invalidSummary, placeServerErrors } from "../lib/server-errors";
 import { RevisionFields } from "./form/revision-fields";
+import { shippedMethod } from "@shared/lineage";
 
 type NewPlanFormProps = {
   models: ModelProfile[];
@@ -98,7 +99,19 @@ export function NewPlanForm({ models, minApprovals, onCreated, afterStages }: Ne
               ))}
           </SelectField>
         </div>
-        <RevisionFields model={model ? { modelId: model.id } : null} afterStages={afterStages} />
+        <RevisionFields
+          model={model ? { modelId: model.id } : null}
+          afterStages={afterStages}
+          lineage={
+            model?.currentScaling
+              ? {
+                  pretrainedContext: model.pretrainedContext,
+                  servedContext: model.servedContext,
+                  shipped: shippedMethod(model.currentScaling),
+                }
+              : null
+          }
+        />
         <div className="border-t border-rule pt-4">
           <SubmitButton busy={create.isPending} busyLabel="Saving draft…">
             Save draft

@@ -48,6 +48,7 @@ export function revisionValuesOf(content: RevisionContent): RevisionInput {
   return {
     targetContext: content.targetContext,
     method: content.method,
+    ...(content.extendsFrom ? { extendsFrom: content.extendsFrom } : {}),
     ...(content.bands ? { bands: content.bands } : {}),
     stages: content.stages,
     acceptance: content.acceptance,

@@ -7,6 +7,12 @@ import { sig } from "../figures";
 import { defaultText, METHOD_LABELS, methodEntry, type FieldContext, type MethodField } from "../state/method-fields";
 import type { MethodRow as Row } from "../state/inputs";
 import type { FieldErrors } from "../state/to-request";
+import type { MethodParams } from "@shared/schemas/analysis";
+import { AS_SHIPPED_LABEL, shippedText } from "@shared/lineage";
+import { shippedRow } from "../state/shipped-row";
+
+/** The select's value for the "as shipped" row (never a method id). */
+const SHIPPED = "shipped";
 
 type MethodRowProps = {
   index: number;
@@ -16,6 +22,7 @@ type MethodRowProps = {
   canRemove: boolean;
   onChange: (row: Row) => void;
   onRemove: () => void;
+  shipped?: MethodParams | null;
 };
 
 /** The list fields of LongRoPE: d/2 numbers; two buttons fill them with neutral starting values. */
@@ -68,9 +75,12 @@ const paramCount = (row: Row) => {
 };
 
 /** One method to compare: pick the method, then only its own parameters; empty boxes use the default shown. */
-export function MethodRow({ index, row, context, errors, canRemove, onChange, onRemove }: MethodRowProps) {
+export function MethodRow({ index, row, context, errors, canRemove, onChange, onRemove, shipped }: MethodRowProps) {
   const err = (key: string) => errors[`methods.${index}.${key}`];
-  const set = (key: string, value: string) => onChange({ ...row, params: { ...row.params, [key]: value } });
+  // An edited parameter makes the row an ordinary method: it no longer is the model as shipped.
+  const set = (key: string, value: string) => onChange({ method: row.method, params: { ...row.params, [key]: value } });
+  const pick = (value: string) =>
+    onChange(value === SHIPPED && shipped ? shippedRow(shipped) : { method: value as MethodId, params: {} });
   const fields = methodEntry(row.method).fields;
   const [folded, setFolded] = useState(false);
   // A row with a field marked wrong never hides it.
@@ -87,10 +97,16 @@ export function MethodRow({ index, row, context, errors, canRemove, onChange, on
         <div className="min-w-0 flex-1">
           <SelectField
             label={`Method ${index + 1}`}
-            value={row.method}
+            value={row.shipped ? SHIPPED : row.method}
             error={errors[`methods.${index}`] ?? errors[`methods.${index}.method`]}
-            onChange={(e) => onChange({ method: e.target.value as MethodId, params: {} })}
+            onChange={(e) => pick(e.target.value)}
           >
+            {(shipped || row.shipped) && (
+              <option value={SHIPPED}>
+                {AS_SHIPPED_LABEL}
+                {shipped ? ` (${shippedText(shipped)})` : ""}
+              </option>
+            )}
             {METHOD_IDS.map((m) => (
               <option key={m} value={m}>
                 {METHOD_LABELS[m]}

@@ -1,6 +1,7 @@
 import type { ReactNode } from "react";
 import type { ModelProfile } from "@shared/schemas/models";
 import { Panel } from "@/components/page";
+import { shippedMethod } from "@shared/lineage";
 import { suggestedTarget } from "../state/defaults";
 import type { ModelChoice, WorkbenchInputs as Inputs } from "../state/inputs";
 import type { FieldContext } from "../state/method-fields";
@@ -70,6 +71,9 @@ export function WorkbenchInputs({
           <h3 className="text-note font-semibold tracking-wide text-ink-soft uppercase">Methods to compare</h3>
           <MethodRows
             rows={inputs.methods}
+            shipped={
+              inputs.model.kind === "saved" && !inputs.model.group ? shippedMethod(chosen?.currentScaling) : null
+            }
             context={context}
             errors={errors}
             onChange={(methods) => onChange({ ...inputs, methods, view: Math.min(inputs.view, methods.length - 1) })}

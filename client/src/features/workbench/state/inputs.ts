@@ -9,7 +9,8 @@ export type ModelChoice =
   | { kind: "saved"; id: number | null; group?: string }
   | { kind: "shape"; headDim: string; ropeTheta: string; trainedContext: string; partialRotaryFactor: string };
 
-export type MethodRow = { method: MethodId; params: Record<string, string> };
+/** `shipped`: the row is the saved profile's own scaling, as its config ships it ("as shipped", shared/lineage.ts). */
+export type MethodRow = { method: MethodId; params: Record<string, string>; shipped?: true };
 
 export type WorkbenchInputs = {
   model: ModelChoice;

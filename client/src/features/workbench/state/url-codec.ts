@@ -7,16 +7,24 @@ import { defaultInputs, DEFAULT_METHODS, type MethodRow, type ModelChoice, type 
  *   model=7 group=sliding_attention   a saved profile (and the layer group analysed, absent = the scaled one), or
  *   shape=128,10000,4096,1       headDim, ropeTheta, trainedContext, partialRotaryFactor typed in
  *   target=32768 alpha=1 beta=32 (empty = default)
- *   methods=[["linear",{}],["yarn",{"betaFast":"32"}]]   one JSON param: [method, params as typed]
+ *   methods=[["linear",{}],["yarn",{"betaFast":"32"}]]   one JSON param: [method, params as typed, "shipped"?]
  *   view=1 flagged=1
  */
-const methodsParam = z.array(z.tuple([z.enum(METHOD_IDS), z.record(z.string(), z.string())])).max(MAX_METHODS);
+const methodsParam = z
+  .array(z.tuple([z.enum(METHOD_IDS), z.record(z.string(), z.string())], z.literal("shipped")))
+  .max(MAX_METHODS);
 
 function parseMethods(raw: string | null): MethodRow[] {
   if (raw === null) return DEFAULT_METHODS;
   try {
     const parsed = methodsParam.safeParse(JSON.parse(raw));
-    return parsed.success ? parsed.data.map(([method, params]) => ({ method, params })) : DEFAULT_METHODS;
+    return parsed.success
+      ? parsed.data.map(([method, params, shipped]) => ({
+          method,
+          params,
+          ...(shipped ? { shipped: true as const } : {}),
+        }))
+      : DEFAULT_METHODS;
   } catch {
     return DEFAULT_METHODS;
   }
@@ -66,7 +74,10 @@ export function inputsToParams(inputs: WorkbenchInputs): URLSearchParams {
   if (inputs.target) out.set("target", inputs.target);
   if (inputs.alpha) out.set("alpha", inputs.alpha);
   if (inputs.beta) out.set("beta", inputs.beta);
-  out.set("methods", JSON.stringify(inputs.methods.map((r) => [r.method, compactParams(r.params)])));
+  out.set(
+    "methods",
+    JSON.stringify(inputs.methods.map((r) => [r.method, compactParams(r.params), ...(r.shipped ? ["shipped"] : [])])),
+  );
   if (inputs.view > 0) out.set("view", String(inputs.view));
   if (inputs.flaggedOnly) out.set("flagged", "1");
   return out;

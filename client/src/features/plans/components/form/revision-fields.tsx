@@ -8,6 +8,7 @@ import { NumberField, useFieldError } from "./form-field";
 import { LiveFlags, type AnalysisModel } from "./live-flags";
 import { MethodFields } from "./method-fields";
 import { StagesFields } from "./stages-fields";
+import { ExtendsFromField, type PlanLineage } from "./extends-from-field";
 
 function Section({ title, children, lead }: { title: string; lead?: string; children: ReactNode }) {
   return (
@@ -23,7 +24,16 @@ function Section({ title, children, lead }: { title: string; lead?: string; chil
  * Everything a revision holds, under `revision.*` of the surrounding form: target and method (checked live
  * against the engine), band edges, stages, acceptance criteria and notes.
  */
-export function RevisionFields({ model, afterStages }: { model: AnalysisModel | null; afterStages?: ReactNode }) {
+export function RevisionFields({
+  model,
+  afterStages,
+  lineage = null,
+}: {
+  model: AnalysisModel | null;
+  afterStages?: ReactNode;
+  /** Only for a model that ships scaling: its two lengths and the shipped method. */
+  lineage?: PlanLineage | null;
+}) {
   const { register } = useFormContext<RevisionForm>();
   const notesError = useFieldError("revision.notes");
   return (
@@ -40,6 +50,7 @@ export function RevisionFields({ model, afterStages }: { model: AnalysisModel | 
             hint="The context length the tuned model should handle"
           />
         </div>
+        {lineage && <ExtendsFromField lineage={lineage} />}
         <MethodFields name="revision.method" />
         <details className="rounded-md border border-rule px-3 py-2">
           <summary className="cursor-pointer text-body font-medium">Band edges</summary>
