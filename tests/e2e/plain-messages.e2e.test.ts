@@ -41,7 +41,9 @@ async function submitEveryForm(page: Page): Promise<string> {
   const count = await forms.count();
   for (let i = 0; i < count; i++) {
     const submit = forms.nth(i).locator('button[type="submit"]').first();
-    if (await submit.isVisible()) await submit.click();
+    // A form whose button is hidden or held (busy, nothing to send) is left alone.
+    if ((await submit.isVisible()) && (await submit.isEnabled()))
+      await submit.click({ timeout: 5_000 }).catch(() => undefined);
   }
   await page.waitForTimeout(300);
   return page.locator("body").innerText();
