@@ -1,5 +1,6 @@
 import type { RevisionContent } from "./revision-content";
 import { findMethod } from "../../../shared/methods";
+import { mropeAxisSummary } from "../../../shared/mrope-axes";
 
 const esc = (v: unknown) =>
   String(v ?? "").replace(
@@ -60,4 +61,24 @@ export function groupsSection(c: RevisionContent): string {
     .map((h) => `<th>${esc(h)}</th>`)
     .join("");
   return `<h2>Layer groups</h2><p>Each group is flagged with its own base, rotary dimension and method; a local-window group kept as trained is checked up to its window.</p><table><tr>${head}</tr>${rows}</table>`;
+}
+
+/**
+ * A model with multimodal sections: which position axis each section's pairs rotate by (shared/mrope-axes.ts cites
+ * the loaders), and how many of those pairs the plan's method flags, so a plan that scales them says what it scales.
+ */
+export function mropeSection(c: RevisionContent): string {
+  const section = c.model.mropeSection;
+  if (!section?.length) return "";
+  const f = c.results.final;
+  const pairs = f.bands.length;
+  const interleaved = c.model.mropeInterleaved === true;
+  const items = mropeAxisSummary(section, interleaved, pairs)
+    .map(({ axis, pairs: idx }) => {
+      const unseen = idx.filter((j) => f.flags.unseenAngles.includes(j)).length;
+      const compressed = idx.filter((j) => f.flags.compressedResolution.includes(j)).length;
+      return `<li data-axis="${axis}"><strong>${axis}</strong>: ${idx.length} pairs (${esc(runs(idx))}); the plan's ${esc(f.method)} gives ${unseen} of them unseen angles and ${compressed} compressed resolution</li>`;
+    })
+    .join("");
+  return `<h2>Multimodal sections</h2><p>mrope_section [${esc(section.join(", "))}], ${interleaved ? "interleaved (T H W T H W …)" : "in contiguous blocks (temporal, height, width)"}: the method rescales every pair, so each axis below is scaled with it.</p><ul>${items}</ul>`;
 }

@@ -1,7 +1,7 @@
 import type { RevisionContent } from "./revision-content";
 import type { AdoptedBaseSupport } from "../../../shared/schemas/plans";
 import { findMethod } from "../../../shared/methods";
-import { groupsSection } from "./report-groups";
+import { groupsSection, mropeSection } from "./report-groups";
 import { DECISION_WORDS, STATE_WORDS } from "../../../shared/review-words";
 import type { RevisionState } from "../../../shared/schemas/plans";
 
@@ -144,7 +144,7 @@ ${row([`${c.model.name} (${c.model.family})`, c.results.rotaryDim, n(c.model.rop
 longer than the trained window ${f.summary.exceedsTrainedWindowPairs}. Critical dimension ${c.results.criticalDimension} (Liu et al. 2023).</p>
 ${adoptedBases.map((b) => `<p>New base ${n(b.base)}: ${b.reachesTarget ? `<span class="ok">reaches ${n(b.target)} tokens</span>, no position below it fails the bound (complete scan)` : `<span class="bad">falls short</span>, fails the bound at ${n(b.supportedLength ?? 0)} tokens, below ${n(b.target)}`} (Men et al. 2024).</p>`).join("\n")}
 ${wavelengthChart(c)}
-${groupsSection(c)}
+${groupsSection(c)}${mropeSection(c)}
 <p>Configuration patch:</p><pre><code>${esc(JSON.stringify(f.patch, null, 2))}</code></pre>
 <h2>Stages</h2>${c.stages.length ? `<table>${head(["#", "target", "method", "steps", "batch", "seq len", "lr", "data mix", "unseen / compressed / beyond window"])}${stageRows}</table>` : "<p>No stages.</p>"}
 ${budgetHtml ?? ""}

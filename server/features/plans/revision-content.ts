@@ -54,6 +54,10 @@ export const snapshotOf = (m: ModelRow): ModelSnapshot => ({
         },
       }
     : {}),
+  // Likewise only a model with multimodal sections carries them, so a plan can say which axis each section rotates.
+  ...(Array.isArray(m.mropeSection) && m.mropeSection.length
+    ? { mropeSection: m.mropeSection as number[], mropeInterleaved: m.mropeInterleaved }
+    : {}),
 });
 
 /** Model-dependent rules for the plan target and every stage, reported on the field to fix. */

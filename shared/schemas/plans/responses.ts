@@ -116,6 +116,9 @@ export const modelSnapshotSchema = z.object({
    * this is the length served now and the shipped scaling as a method ("as shipped"), null when it cannot be run.
    */
   lineage: z.object({ servedContext: z.number(), shipped: methodParamsSchema.nullable() }).optional(),
+  /** Multimodal sections (pairs per position axis), frozen with the profile; only present when it has them. */
+  mropeSection: z.array(z.number()).optional(),
+  mropeInterleaved: z.boolean().optional(),
 });
 export type ModelSnapshot = z.infer<typeof modelSnapshotSchema>;
 

@@ -165,3 +165,32 @@ describe("the fingerprint, the conformance matrix and the report cover every lay
     expect(report.text).toMatch(/<tr data-kind="sliding_attention"><td>sliding_attention \(10 layers: 0–4, 6–10\)/);
   });
 });
+
+describe("a plan on a model with multimodal sections says which axis each section rotates", () => {
+  it("contiguous [16, 24, 24]: the snapshot keeps the sections, the report names each axis and its pairs", async () => {
+    const researcher = await agentAs(["researcher"]);
+    const saved = await researcher
+      .post("/api/models/import?save=true")
+      .set("X-CSRF-Token", researcher.csrf)
+      .field(
+        "overrides",
+        JSON.stringify({ name: `Sections-${Math.random().toString(36).slice(2, 8)}`, parameters: 7e9 }),
+      )
+      .attach("file", fixture("mrope-sections-contiguous.json"), "config.json")
+      .expect(201);
+    const created = await post(researcher, "/api/plans", {
+      title: `Sections ${Math.random().toString(36).slice(2, 7)}`,
+      modelId: saved.body.saved.id,
+      revision: { targetContext: 131072, method: { method: "yarn" } },
+    }).expect(201);
+    const base = `/api/plans/${created.body.id}/revisions/1`;
+    const rev = revisionResponseSchema.parse((await researcher.get(base).expect(200)).body);
+    expect(rev.content.model).toMatchObject({ mropeSection: [16, 24, 24], mropeInterleaved: false });
+    const report = (await researcher.get(`${base}/report`).expect(200)).text;
+    expect(report).toContain("<h2>Multimodal sections</h2>");
+    // transformers qwen2_vl apply_multimodal_rotary_pos_emb: block i of mrope_section takes axis i % 3.
+    expect(report).toMatch(/<li data-axis="temporal"><strong>temporal<\/strong>: 16 pairs \(0–15\)/);
+    expect(report).toMatch(/<li data-axis="height"><strong>height<\/strong>: 24 pairs \(16–39\)/);
+    expect(report).toMatch(/<li data-axis="width"><strong>width<\/strong>: 24 pairs \(40–63\)/);
+  });
+});

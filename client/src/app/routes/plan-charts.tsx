@@ -29,7 +29,15 @@ export function RevisionCharts({ content }: { content: RevisionContent }) {
       )}
       <figure className="flex flex-col gap-2">
         <figcaption className="text-body font-semibold">Wavelength of each pair, before and after rescaling</figcaption>
-        <SpectrumChart analysis={a} methodIndex={0} />
+        <SpectrumChart
+          analysis={a}
+          methodIndex={0}
+          sections={
+            content.model.mropeSection
+              ? { section: content.model.mropeSection, interleaved: content.model.mropeInterleaved === true }
+              : null
+          }
+        />
       </figure>
       <figure className="flex flex-col gap-2">
         <figcaption className="text-body font-semibold">How much each pair is slowed (θ′/θ)</figcaption>

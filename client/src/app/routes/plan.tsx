@@ -21,6 +21,7 @@ import { RevisionInputs } from "@/features/plans/components/revision-inputs";
 import { RevisionTimeline } from "@/features/plans/components/revision-timeline";
 import { StagesTable } from "@/features/plans/components/stages-table";
 import { GroupResults } from "@/features/plans/components/group-results";
+import { MropeAxes } from "@/features/plans/components/mrope-axes";
 import { VerifyStatus } from "@/features/plans/components/verify-status";
 import { DecisionDialog } from "@/features/plans/components/decision-dialog";
 import { ProbeChecks } from "@/features/plans/components/probe-checks";
@@ -163,6 +164,11 @@ export function PlanRoute() {
               {content.results.groups && (
                 <Panel title="Layer groups">
                   <GroupResults groups={content.results.groups} />
+                </Panel>
+              )}
+              {content.model.mropeSection && (
+                <Panel title="Position axes">
+                  <MropeAxes content={content} />
                 </Panel>
               )}
               <Panel title="Pair flags per stage">

@@ -12,12 +12,15 @@ import { axisProps, ChartTooltip, FlagMarker, Legend, MARGIN, ReferenceLine, Swa
 import { BAND_STYLE, FLAG_IDS, FLAG_STYLE, INK, methodColour, TARGET_LINE, TRAINED_LINE } from "./palette";
 import { PairTooltipBody } from "./pair-tooltip";
 import { useWidth } from "./use-width";
+import { AXIS_STYLE, MropeStrip, STRIP_HEIGHT, type Sections } from "./mrope-strip";
 
 type SpectrumChartProps = {
   analysis: AnalysisResponse;
   /** Which method of the analysis to draw against the original (index into analysis.methods). */
   methodIndex: number;
   height?: number;
+  /** a profile with multimodal sections: bands over the pair axis, labelled by position axis */
+  sections?: Sections | null;
 };
 
 // Room above the plot for the band names, so they never sit on the data.
@@ -38,7 +41,7 @@ function bandRuns(pairs: PairResult[]) {
  * Wavelength of every pair on a log axis, original and after one method, with the trained and target lengths,
  * the three bands as washes, and a marker on each flagged pair. Hover a pair for its exact values.
  */
-export function SpectrumChart({ analysis, methodIndex, height = 340 }: SpectrumChartProps) {
+export function SpectrumChart({ analysis, methodIndex, height = 340, sections = null }: SpectrumChartProps) {
   const { ref, width } = useWidth<HTMLDivElement>();
   const tip = useTooltip<PairResult>();
   const index = Math.min(Math.max(methodIndex, 0), analysis.methods.length - 1);
@@ -176,6 +179,7 @@ export function SpectrumChart({ analysis, methodIndex, height = 340 }: SpectrumC
               label="pair index i (0 turns fastest)"
               {...axisProps}
             />
+            {sections && <MropeStrip sections={sections} pairs={pairs.length} x={x} y={innerH - STRIP_HEIGHT} />}
             <rect
               width={innerW}
               height={innerH}
@@ -202,6 +206,13 @@ export function SpectrumChart({ analysis, methodIndex, height = 340 }: SpectrumC
             label: `${BAND_STYLE[b].label}: ${BAND_STYLE[b].plain}`,
           })),
           ...FLAG_IDS.map((f) => ({ key: f, swatch: <Swatch kind="marker" flag={f} />, label: FLAG_STYLE[f].label })),
+          ...(sections
+            ? (["temporal", "height", "width"] as const).map((a) => ({
+                key: a,
+                swatch: <Swatch kind="wash" colour={AXIS_STYLE[a].fill} />,
+                label: `${AXIS_STYLE[a].label} axis (mrope_section ${sections.interleaved ? "interleaved" : "in blocks"})`,
+              }))
+            : []),
         ]}
       />
     </div>

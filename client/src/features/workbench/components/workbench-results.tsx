@@ -4,6 +4,7 @@ import { Panel } from "@/components/page";
 import { DecayChart } from "../charts/decay-chart";
 import { RatioChart } from "../charts/ratio-chart";
 import { SpectrumChart } from "../charts/spectrum-chart";
+import type { Sections } from "../charts/mrope-strip";
 import { CAUTION } from "../explain/topics";
 import { HowComputed } from "../explain/how-computed";
 import { METHOD_LABELS } from "../state/method-fields";
@@ -22,6 +23,8 @@ type ResultsProps = {
   currentMethods?: MethodId[] | null;
   /** The saved profile the analysis named (for the CSV header), null for a typed-in shape. */
   profile?: string | null;
+  /** the profile's multimodal sections, drawn as bands over the pair axis */
+  sections?: Sections | null;
 };
 
 function MethodPicker({ analysis, view, onView }: Pick<ResultsProps, "analysis" | "view" | "onView">) {
@@ -47,6 +50,7 @@ export function WorkbenchResults({
   onFlaggedOnly,
   currentMethods = null,
   profile = null,
+  sections = null,
 }: ResultsProps) {
   const shown = Math.min(view, analysis.methods.length - 1);
   const methods = analysis.methods.map((m) => m.method);
@@ -54,7 +58,7 @@ export function WorkbenchResults({
     <div className="flex flex-col gap-6">
       <Panel title="Wavelength per pair" aside={<MethodPicker analysis={analysis} view={shown} onView={onView} />}>
         <div className="flex flex-col gap-3">
-          <SpectrumChart analysis={analysis} methodIndex={shown} />
+          <SpectrumChart analysis={analysis} methodIndex={shown} sections={sections} />
           <HowComputed
             topics={["wavelength", "rotations", "bands", "flags"]}
             methods={[analysis.methods[shown].method]}

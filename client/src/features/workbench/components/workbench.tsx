@@ -151,6 +151,11 @@ export function Workbench({ profiles, profileNotes }: WorkbenchProps) {
                 onFlaggedOnly={(flaggedOnly) => setInputs({ ...inputs, flaggedOnly })}
                 currentMethods={stale ? inputs.methods.map((r) => r.method) : null}
                 profile={profileNameOf(answered.request, profiles)}
+                sections={
+                  chosen?.mropeSection?.length
+                    ? { section: chosen.mropeSection, interleaved: chosen.mropeInterleaved }
+                    : null
+                }
               />
               <Panel title="Rigging for each stack">
                 <ExportTargets request={exportRequest} />

@@ -1,0 +1,60 @@
+/*
+ * Which position axis each rotary pair rotates by, for multimodal sections (`mrope_section`). Followed loaders:
+ * - contiguous: huggingface/transformers src/transformers/models/qwen2_vl/modeling_qwen2_vl.py,
+ *   apply_multimodal_rotary_pos_emb (v4.4x line, read through stored copies; the same split config-import.ts cites):
+ *   cos/sin are split into blocks of `mrope_section` pairs and block i takes axis i % 3, so the first section's pairs
+ *   follow the temporal position, the next the height, the next the width.
+ * - interleaved (`mrope_interleaved: true`): huggingface/transformers src/transformers/models/qwen3_vl/
+ *   modeling_qwen3_vl.py, Qwen3VLTextRotaryEmbedding.apply_interleaved_mrope (v4.57 line, read through stored
+ *   copies): every pair starts temporal; pairs j ≡ 1 (mod 3) with j < 3·section[1] take the height, pairs j ≡ 2
+ *   (mod 3) with j < 3·section[2] the width (T H W T H W … T T).
+ */
+export const MROPE_AXES = ["temporal", "height", "width"] as const;
+export type MropeAxis = (typeof MROPE_AXES)[number];
+
+/** The axis of each of `pairs` rotary pairs; null for a pair the sections do not reach (their sum falls short). */
+export function mropeAxisOfPairs(
+  section: readonly number[],
+  interleaved: boolean,
+  pairs: number,
+): (MropeAxis | null)[] {
+  if (interleaved) {
+    return Array.from({ length: pairs }, (_, j): MropeAxis => {
+      if (j % 3 === 1 && j < 3 * (section[1] ?? 0)) return "height";
+      if (j % 3 === 2 && j < 3 * (section[2] ?? 0)) return "width";
+      return "temporal";
+    });
+  }
+  const out: (MropeAxis | null)[] = [];
+  section.forEach((n, i) => {
+    for (let k = 0; k < n; k++) out.push(MROPE_AXES[i % 3]);
+  });
+  return Array.from({ length: pairs }, (_, j) => out[j] ?? null);
+}
+
+/** Consecutive pairs on one axis, as bands over the pair axis: `from`…`to` inclusive. */
+export interface MropeBand {
+  axis: MropeAxis;
+  from: number;
+  to: number;
+}
+
+export function mropeBands(section: readonly number[], interleaved: boolean, pairs: number): MropeBand[] {
+  const axes = mropeAxisOfPairs(section, interleaved, pairs);
+  const bands: MropeBand[] = [];
+  axes.forEach((axis, j) => {
+    if (axis === null) return;
+    const last = bands[bands.length - 1];
+    if (last && last.axis === axis && last.to === j - 1) last.to = j;
+    else bands.push({ axis, from: j, to: j });
+  });
+  return bands;
+}
+
+/** Per axis: the pairs it rotates, in plain words for the plan page and the report. */
+export function mropeAxisSummary(section: readonly number[], interleaved: boolean, pairs: number) {
+  const axes = mropeAxisOfPairs(section, interleaved, pairs);
+  return MROPE_AXES.map((axis) => ({ axis, pairs: axes.flatMap((a, j) => (a === axis ? [j] : [])) })).filter(
+    (a) => a.pairs.length > 0,
+  );
+}
