@@ -29,8 +29,15 @@ export function Loading({ label = "Loading…" }: { label?: string }) {
   );
 }
 
-export function Chip({ children, tone = "hemp" }: { children: ReactNode; tone?: "hemp" | "seaglass" | "muted" }) {
+export function Chip({
+  children,
+  tone = "hemp",
+}: {
+  children: ReactNode;
+  tone?: "hemp" | "seaglass" | "signal" | "muted";
+}) {
   const tones = {
+    signal: "bg-signal-pale text-signal-dark border-signal/30",
     hemp: "bg-hemp-pale text-hemp-dark border-hemp/30",
     seaglass: "bg-seaglass-pale text-seaglass-dark border-seaglass/30",
     muted: "bg-paper-deep text-ink-soft border-rule",

@@ -3,7 +3,7 @@ import { useQuery } from "@tanstack/react-query";
 import type { ConformanceCheck } from "@shared/schemas/conformance";
 import { Button } from "@/components/button";
 import { FramedTable } from "@/components/framed-table";
-import { Notice } from "@/components/notice";
+import { Chip, Notice } from "@/components/notice";
 import { isApiError } from "@/lib/api-client";
 import { formatDateTime } from "@/lib/format";
 import { useCopyText } from "@/lib/use-copy-text";
@@ -44,15 +44,8 @@ function ChecksTable({ checks }: { checks: ConformanceCheck[] }) {
         <tr key={c.id} data-check={c.id} className="border-t border-rule align-top [&_td]:px-3 [&_td]:py-2">
           <td>{c.revision}</td>
           <td>
-            <span
-              data-passed={c.passed}
-              className={`inline-flex rounded-full border px-2 py-0.5 text-note font-medium ${
-                c.passed
-                  ? "border-seaglass/40 bg-seaglass-pale text-seaglass-dark"
-                  : "border-signal/40 bg-signal-pale text-signal-dark"
-              }`}
-            >
-              {c.passed ? "holds" : "slips"}
+            <span data-passed={c.passed}>
+              <Chip tone={c.passed ? "seaglass" : "signal"}>{c.passed ? "holds" : "slips"}</Chip>
             </span>
           </td>
           <td className="text-note">
