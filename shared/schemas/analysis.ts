@@ -126,11 +126,23 @@ export const modelInputSchema = z.unknown().transform((value, ctx): ModelRef | M
   return z.NEVER;
 });
 
+/**
+ * How the answer is laid out: "rows" (the default, one object per pair) or "columns" (the same numbers, one array
+ * per field and nothing repeated: shared/schemas/analysis-columns.ts).
+ */
+export const analysisFormSchema = z.enum(["rows", "columns"]);
+
 /** The HTTP request. Model-dependent rules run here for an inline shape, and after lookup for { modelId }. */
-export const analysisRequestSchema = z.object({ model: modelInputSchema, ...requestFields }).superRefine((r, ctx) => {
-  if ("modelId" in r.model) return;
-  modelDependentIssues(r.model, r.targetContext, r.methods).forEach((i) => ctx.addIssue({ code: "custom", ...i }));
-});
+export const analysisRequestSchema = z
+  .object({
+    model: modelInputSchema,
+    ...requestFields,
+    form: analysisFormSchema.optional(),
+  })
+  .superRefine((r, ctx) => {
+    if ("modelId" in r.model) return;
+    modelDependentIssues(r.model, r.targetContext, r.methods).forEach((i) => ctx.addIssue({ code: "custom", ...i }));
+  });
 export type AnalysisRequest = z.infer<typeof analysisRequestSchema>;
 
 // ---- response ----

@@ -4,6 +4,7 @@ export * from "./users";
 export * from "./models";
 export * from "./plans";
 export * from "./analysis";
+export * from "./analysis-columns";
 export * from "./tokens";
 export * from "./audit";
 export * from "./exports";

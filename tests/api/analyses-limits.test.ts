@@ -83,8 +83,10 @@ describe("POST /api/analyses is bounded", () => {
 
   it(`caps concurrent large analyses per user at ${HEAVY_ANALYSES_PER_USER}: the rest get 429 with Retry-After; others are unaffected`, async () => {
     const [greedy, other] = await Promise.all([agentAs(["viewer"]), agentAs(["viewer"])]);
-    const burst = Array.from({ length: 6 }, () => post(greedy, heavy));
-    const theirs = post(other, heavy);
+    // Each a different question: a question asked before is a lookup (kept answers), which no cap needs to hold back.
+    const heavyAt = (i: number) => ({ ...heavy, targetContext: heavy.targetContext + 1024 * i });
+    const burst = Array.from({ length: 6 }, (_, i) => post(greedy, heavyAt(i + 1)));
+    const theirs = post(other, heavyAt(100));
     const answers = await Promise.all(burst);
     const refused = answers.filter((r) => r.status === 429);
     expect(answers.every((r) => r.status === 200 || r.status === 429)).toBe(true);
@@ -96,6 +98,17 @@ describe("POST /api/analyses is bounded", () => {
     }
     expect((await theirs).status).toBe(200);
     // slots are given back: the same user is served again once the burst is over
-    expect((await post(greedy, heavy)).status).toBe(200);
+    expect((await post(greedy, heavyAt(200))).status).toBe(200);
   }, 120_000);
+
+  it("a question asked again is answered from the kept answers: no second computation, the same body", async () => {
+    const a = await agentAs(["viewer"]);
+    const question = { ...heavy, targetContext: heavy.targetContext + 7 };
+    const first = await post(a, question);
+    const before = offloadedAnalyses();
+    const again = await post(a, question);
+    expect(again.status).toBe(200);
+    expect(offloadedAnalyses()).toBe(before);
+    expect(again.body).toEqual(first.body);
+  }, 60_000);
 });

@@ -2,6 +2,8 @@ import crypto from "node:crypto";
 import { describe, expect, it } from "vitest";
 import { makeTestApp, type Agent } from "../setup/app";
 import { analysisResponseSchema } from "../../shared/schemas/analysis";
+import { analysisColumnsResponseSchema } from "../../shared/schemas/analysis-columns";
+import { expandAnalysis } from "../../shared/analysis-columns";
 
 const { agent, agentAs } = makeTestApp();
 const model = { headDim: 128, ropeTheta: 10_000, trainedContext: 4096 };
@@ -142,5 +144,33 @@ describe("POST /api/analyses", () => {
         expect(Object.keys(r.body.error.fields)).toContain(field);
       }
     });
+  });
+});
+
+describe('POST /api/analyses with form: "columns"', () => {
+  it("answers the column form, which expands to exactly the default row form's numbers", async () => {
+    const a = await agentAs(["viewer"]);
+    const longFactor = Array.from({ length: 64 }, (_, i) => 1 + i / 8);
+    const body = {
+      model,
+      targetContext: 65_536,
+      methods: [
+        { method: "yarn" },
+        { method: "llama3" },
+        { method: "longrope", longFactor, shortFactor: longFactor.map(() => 1) },
+      ],
+    };
+    const rows = await post(a, body);
+    const columns = await post(a, { ...body, form: "columns" });
+    expect(rows.status).toBe(200);
+    expect(columns.status).toBe(200);
+    expect(rows.body.form).toBeUndefined();
+    const packed = analysisColumnsResponseSchema.parse(columns.body);
+    expect(expandAnalysis(packed)).toEqual(analysisResponseSchema.parse(rows.body));
+    expect(JSON.stringify(columns.body).length).toBeLessThan(JSON.stringify(rows.body).length / 2);
+  });
+
+  it("refuses an unknown form naming the field", async () => {
+    await rejects(await agentAs(["viewer"]), { ...good, form: "table" }, "form");
   });
 });

@@ -3,6 +3,9 @@ import { Invalid } from "../../platform/errors";
 import { invalidFields } from "../../platform/validate";
 import { analyseOffThread } from "./analyses.pool";
 import { takeHeavySlot } from "./analyses.limits";
+import { findKeptAnalysis, keepAnalysis, keyOf } from "./analyses.kept";
+import { packAnalysis } from "../../../shared/analysis-columns";
+import type { AnalysisColumnsResponse } from "../../../shared/schemas/analysis-columns";
 import {
   ANALYSIS_INLINE_WORK,
   modelDependentIssues,
@@ -45,8 +48,19 @@ export const analysisWork = (model: ModelShape, methods: number) => ((rotaryDime
 /**
  * Stateless comparison: resolves { modelId }, applies the rules that need the model, runs the engine —
  * in the request for small analyses, in a pool thread (at most HEAVY_ANALYSES_PER_USER at once per user) for large ones.
+ * A question asked before is answered from the kept answers (analyses.kept.ts). `form: "columns"` answers the same
+ * numbers in the column form.
  */
 export async function analyseRequest(
+  input: AnalysisRequest,
+  resolveModel: ResolveModel,
+  opts: AnalyseOptions,
+): Promise<AnalysisResponse | AnalysisColumnsResponse> {
+  const full = await analyseRows(input, resolveModel, opts);
+  return input.form === "columns" ? packAnalysis(full) : full;
+}
+
+async function analyseRows(
   input: AnalysisRequest,
   resolveModel: ResolveModel,
   opts: AnalyseOptions,
@@ -57,11 +71,19 @@ export async function analyseRequest(
     throw invalidFields(issues);
   }
   const request = { model, targetContext: input.targetContext, bands: input.bands, methods: input.methods };
-  if (analysisWork(model, input.methods.length) <= ANALYSIS_INLINE_WORK) return analyse(request);
-  const release = takeHeavySlot(opts.userId);
-  try {
-    return await analyseOffThread(request, opts.signal);
-  } finally {
-    release();
+  const key = keyOf(request);
+  const kept = findKeptAnalysis(key);
+  if (kept) return kept;
+  let answer: AnalysisResponse;
+  if (analysisWork(model, input.methods.length) <= ANALYSIS_INLINE_WORK) answer = analyse(request);
+  else {
+    const release = takeHeavySlot(opts.userId);
+    try {
+      answer = await analyseOffThread(request, opts.signal);
+    } finally {
+      release();
+    }
   }
+  keepAnalysis(key, answer);
+  return answer;
 }
