@@ -62,15 +62,16 @@ const cookieOf = async (base: string, email: string) => (await signIn(base, emai
 async function timings(base: string, cookie: string, url: string, n = 60) {
   const ms: number[] = [];
   let status = 0;
+  let bytes = 0;
   for (let i = 0; i < n + 5; i++) {
     const t = performance.now();
     const r = await fetch(base + url, { headers: { cookie } });
-    await r.arrayBuffer();
+    bytes = (await r.arrayBuffer()).byteLength;
     status = r.status;
     if (status !== 200) throw new Error(`${url}: ${status}`);
     if (i >= 5) ms.push(performance.now() - t); // the first five warm caches and plans
   }
-  return { status, p50: quantile(ms, 0.5), p95: quantile(ms, 0.95) };
+  return { status, bytes, p50: quantile(ms, 0.5), p95: quantile(ms, 0.95) };
 }
 
 const deps = await prepare();
@@ -98,13 +99,17 @@ if (servePort !== undefined) {
     ["/api/plans/review-queue", "/api/plans/review-queue", approver],
     ["/api/plans/owners", "/api/plans/owners", admin],
     ["/api/models", "/api/models", admin],
+    ["/api/models page 20", "/api/models?page=20", admin],
+    ["/api/models?q=… (picker search)", "/api/models?q=Halyard-11&retired=exclude", admin],
     ["/api/users", "/api/users", admin],
+    ["/api/users page 5", "/api/users?page=5", admin],
+    ["/api/users?q=…", "/api/users?q=Ropemaker44", admin],
   ];
-  console.log("endpoint                          status    p50 ms    p95 ms");
+  console.log("endpoint                          status    p50 ms    p95 ms     bytes");
   for (const [label, url, cookie] of lists) {
     const t = await timings(base, cookie, url);
     console.log(
-      `${label.padEnd(32)}  ${String(t.status).padEnd(6)} ${t.p50.toFixed(1).padStart(8)}  ${t.p95.toFixed(1).padStart(8)}`,
+      `${label.padEnd(32)}  ${String(t.status).padEnd(6)} ${t.p50.toFixed(1).padStart(8)}  ${t.p95.toFixed(1).padStart(8)}  ${String(t.bytes).padStart(8)}`,
     );
   }
   const load = await autocannon({
