@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { MAX_DB_ID } from "./common";
+import { MAX_DB_ID, pagedTotal, pageQuerySchema } from "./common";
 
 /** Lengths are stored in PostgreSQL integer columns, so at most 2^31 − 1. */
 const MAX_LEN = MAX_DB_ID;
@@ -164,8 +164,23 @@ export type ImportResponse = z.infer<typeof importResponseSchema>;
 export const rotaryDimOf = (p: { headDim: number; partialRotaryFactor: number }) =>
   Math.round(p.headDim * p.partialRotaryFactor);
 
+/**
+ * GET /api/models: one page by name (50 by default). `q` keeps profiles whose name contains it (the pickers' search
+ * box); `retired=exclude` leaves retired profiles out (pickers), `include` (the default) lists them too.
+ */
+export const modelsListQuerySchema = pageQuerySchema(50).extend({
+  q: z.string().trim().max(120).optional(),
+  retired: z.enum(["include", "exclude"]).default("include"),
+});
+export type ModelsListQuery = z.infer<typeof modelsListQuerySchema>;
+
 /** Bodies of the model-profile routes (server/features/models/models.router.ts). */
-export const modelsListResponseSchema = z.object({ models: z.array(modelProfileSchema) });
+export const modelsListResponseSchema = z.object({
+  models: z.array(modelProfileSchema),
+  ...pagedTotal,
+  page: z.number(),
+  pageSize: z.number(),
+});
 export const modelResponseSchema = z.object({ model: modelProfileSchema });
 export type ModelsListResponse = z.infer<typeof modelsListResponseSchema>;
 /** DELETE /api/models/:id on a profile plans use: retired instead, with those plans. */

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { roleSchema } from "./common";
+import { pagedTotal, pageQuerySchema, roleSchema } from "./common";
 import { PASSWORD_MIN } from "./auth";
 
 export const userSchema = z.object({
@@ -12,7 +12,16 @@ export const userSchema = z.object({
 });
 export type User = z.infer<typeof userSchema>;
 
-export const usersListResponseSchema = z.object({ users: z.array(userSchema) });
+/** GET /api/users: one page in id order (50 by default); `q` keeps users whose name or e-mail contains it. */
+export const usersListQuerySchema = pageQuerySchema(50).extend({ q: z.string().trim().max(254).optional() });
+export type UsersListQuery = z.infer<typeof usersListQuerySchema>;
+
+export const usersListResponseSchema = z.object({
+  users: z.array(userSchema),
+  ...pagedTotal,
+  page: z.number(),
+  pageSize: z.number(),
+});
 /** POST /api/users and PATCH /api/users/:id: the user as stored. */
 export const userResponseSchema = z.object({ user: userSchema });
 

@@ -187,8 +187,12 @@ describe("hostile input on every documented route", () => {
   });
 
   it("lists every profile afterwards (no stored profile breaks GET /api/models)", async () => {
-    const r = await admin.get("/api/models");
-    expect(r.status, JSON.stringify(r.body).slice(0, 300)).toBe(200);
+    // every page, not just the first
+    for (let page = 1; ; page++) {
+      const r = await admin.get(`/api/models?pageSize=200&page=${page}`);
+      expect(r.status, JSON.stringify(r.body).slice(0, 300)).toBe(200);
+      if (r.body.models.length < 200) break;
+    }
   });
 });
 

@@ -93,7 +93,7 @@ describe("JSON nested deeper than the limit", () => {
       deepJson(),
       model.id,
     ]);
-    const list = await a.get("/api/models");
+    const list = await a.get(`/api/models?q=${encodeURIComponent(model.name)}`);
     expect(list.status, JSON.stringify(list.body).slice(0, 300)).toBe(200);
     const stored = list.body.models.find((m: { id: number }) => m.id === model.id);
     expect(stored.currentScaling).toBeNull();

@@ -187,7 +187,9 @@ describe("retiring a model profile that plans use", () => {
     const del = await researcher.delete(`/api/models/${model.id}`).set("X-CSRF-Token", researcher.csrf);
     expect(del.status).toBe(200);
     expect(del.body).toMatchObject({ retired: true, model: { id: model.id }, usedBy: [{ id: plan.id }] });
-    const list = modelsListResponseSchema.parse((await researcher.get("/api/models").expect(200)).body);
+    const list = modelsListResponseSchema.parse(
+      (await researcher.get(`/api/models?q=${encodeURIComponent(model.name)}`).expect(200)).body,
+    );
     expect(list.models.find((m) => m.id === model.id)?.retiredAt).toEqual(expect.any(String));
     expect(await auditOf("model", model.id)).toEqual(["model.created", "model.retired"]);
 

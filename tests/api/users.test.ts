@@ -23,7 +23,7 @@ describe("user administration", () => {
       .expect(201);
     expect(created.body.user).toMatchObject({ email, roles: ["researcher", "infra"], active: true });
     expect(created.body.user).not.toHaveProperty("passwordHash");
-    const list = await admin.get("/api/users").expect(200);
+    const list = await admin.get(`/api/users?q=${encodeURIComponent(email)}`).expect(200);
     expect(list.body.users.some((u: { email: string }) => u.email === email)).toBe(true);
     const id = created.body.user.id;
     await admin

@@ -74,7 +74,7 @@ export const apiPaths = {
   login: () => api("/auth/login"),
   logout: () => api("/auth/logout"),
   password: () => api("/auth/password"),
-  users: () => api("/users"),
+  users: (query?: QueryValues) => withQuery("/users", query),
   user: (id: number) => api(`/users/${encodeURIComponent(String(id))}`),
   // budget sheet, estimator and accelerator catalog
   budgetEstimate: () => api("/budgets/estimate"),
@@ -117,7 +117,7 @@ export const apiPaths = {
   mail: (query?: QueryValues) => withQuery("/mail", query),
   mailDeliver: () => api("/mail/deliver"),
   // model profiles, analyses and base bounds
-  models: () => api("/models"),
+  models: (query?: QueryValues) => withQuery("/models", query),
   model: (id: number) => api(`/models/${id}`),
   modelRestore: (id: number) => api(`/models/${id}/restore`),
   modelSource: (id: number) => api(`/models/${id}/source`),

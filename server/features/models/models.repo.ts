@@ -1,11 +1,42 @@
-import { asc, eq } from "drizzle-orm";
+import { and, asc, eq, getTableColumns, ilike, isNull, sql, type SQL } from "drizzle-orm";
 import { modelProfiles } from "../../db/schema";
 import type { Executor } from "../../db/client";
+import { cappedCount, containsPattern } from "../../platform/paging";
 
 export type ModelRow = typeof modelProfiles.$inferSelect;
 export type ModelInsert = typeof modelProfiles.$inferInsert;
 
-export const listModelRows = (ex: Executor) => ex.select().from(modelProfiles).orderBy(asc(modelProfiles.name));
+/** A profile as lists show it: every column but the uploaded file (up to 1 MB each), which only GET …/source sends. */
+export type ModelListRow = Omit<ModelRow, "sourceConfig">;
+const { sourceConfig: _file, ...listColumns } = getTableColumns(modelProfiles);
+
+export interface ModelListQuery {
+  q?: string;
+  retired: "include" | "exclude";
+  limit: number;
+  offset: number;
+}
+
+const listWhere = (q: ModelListQuery): SQL | undefined =>
+  and(
+    // ILIKE '%…%' on the name is served by model_profiles_name_trgm (migration 0013).
+    q.q ? ilike(modelProfiles.name, containsPattern(q.q)) : undefined,
+    q.retired === "exclude" ? isNull(modelProfiles.retiredAt) : undefined,
+  );
+
+/** One page by name (model_profiles_name_lower_idx: lower(name), id), without the uploaded files. */
+export const listModelPage = (ex: Executor, q: ModelListQuery): Promise<ModelListRow[]> =>
+  ex
+    .select(listColumns)
+    .from(modelProfiles)
+    .where(listWhere(q))
+    .orderBy(sql`lower(${modelProfiles.name})`, asc(modelProfiles.id))
+    .limit(q.limit)
+    .offset(q.offset);
+
+/** How many profiles match, counted up to a cap (see cappedCount). */
+export const countModels = (ex: Executor, q: ModelListQuery) =>
+  cappedCount(ex, sql`SELECT 1 FROM ${modelProfiles} WHERE ${listWhere(q) ?? sql`true`}`);
 
 export const findModelRow = async (ex: Executor, id: number) =>
   (await ex.select().from(modelProfiles).where(eq(modelProfiles.id, id)).limit(1))[0];

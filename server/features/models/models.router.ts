@@ -5,6 +5,7 @@ import { idParamSchema, importResponseSchema, modelProfileInputSchema } from "..
 import {
   modelResponseSchema,
   modelRetiredResponseSchema,
+  modelsListQuerySchema,
   modelsListResponseSchema,
 } from "../../../shared/schemas/models";
 import { importFormSchema, readImportForm } from "./import-form";
@@ -35,10 +36,11 @@ export const modelsFeature = (usage: service.ModelUsage): ApiFeature => ({
     route({
       method: "get",
       path: "/",
-      summary: "List model profiles",
+      summary: "List model profiles, one page by name (?page, ?pageSize, ?q name search, ?retired=exclude)",
       access: "signed-in",
+      query: modelsListQuerySchema,
       responses: { 200: modelsListResponseSchema },
-      handler: async ({ deps }) => ({ status: 200, body: { models: await service.listModels(deps) } }),
+      handler: async ({ deps, query }) => ({ status: 200, body: await service.listModels(deps, query) }),
     }),
     route({
       method: "post",

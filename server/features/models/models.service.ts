@@ -19,6 +19,8 @@ import * as repo from "./models.repo";
 import { rotaryShapeOf } from "../../../shared/profile-shapes";
 import { layerGroupsOf } from "../../../shared/layer-groups";
 import { isUniqueViolation } from "../../db/errors";
+import { pageWindow } from "../../platform/paging";
+import type { ModelsListQuery } from "../../../shared/schemas/models";
 
 /**
  * A profile stored before the nesting limit existed may hold a scaling block too deep to serialise, which broke
@@ -30,8 +32,8 @@ const UNREADABLE_SCALING: ImportWarning = {
   fix: "Import the config again, or enter the current scaling by hand.",
 };
 
-export function toModelProfile(row: repo.ModelRow): ModelProfile {
-  const { sourceConfig: _omit, ...rest } = row;
+export function toModelProfile(row: repo.ModelListRow | repo.ModelRow): ModelProfile {
+  const { sourceConfig: _omit, ...rest } = row as repo.ModelRow;
   const d = rotaryDimOf(row);
   const unreadable = row.currentScaling != null && findHostile(row.currentScaling) !== undefined;
   const warnings = (row.importWarnings as ImportWarning[]) ?? [];
@@ -66,7 +68,12 @@ const layoutColumns = (input: ModelProfileValues) => ({
 
 const nameTaken = () => new Conflict("a profile with this name already exists", { name: "already taken" });
 
-export const listModels = async (deps: AppDeps) => (await repo.listModelRows(deps.db)).map(toModelProfile);
+/** One page of profiles by name (optionally those whose name contains `q`, optionally without retired ones). */
+export async function listModels(deps: AppDeps, q: ModelsListQuery) {
+  const query = { q: q.q, retired: q.retired, ...pageWindow(q.page, q.pageSize) };
+  const [rows, count] = await Promise.all([repo.listModelPage(deps.db, query), repo.countModels(deps.db, query)]);
+  return { models: rows.map(toModelProfile), ...count, page: q.page, pageSize: q.pageSize };
+}
 
 async function mustFind(deps: AppDeps, id: number) {
   const row = await repo.findModelRow(deps.db, id);

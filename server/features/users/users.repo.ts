@@ -1,6 +1,7 @@
-import { asc, eq, sql } from "drizzle-orm";
+import { asc, eq, ilike, or, sql } from "drizzle-orm";
 import { session, users } from "../../db/schema";
 import type { Executor } from "../../db/client";
+import { cappedCount, containsPattern } from "../../platform/paging";
 import type { Role } from "../../../shared/schemas";
 
 export type UserRow = typeof users.$inferSelect;
@@ -28,7 +29,36 @@ export async function lockActiveAdmins(ex: Executor) {
     .for("update");
 }
 
-export const listUsers = (ex: Executor) => ex.select().from(users).orderBy(asc(users.id));
+export interface UserListQuery {
+  q?: string;
+  limit: number;
+  offset: number;
+}
+
+// ILIKE '%…%' on the name is served by users_name_trgm; on the e-mail it scans, which stays small (people, not rows
+// of work: 500 in a busy lab's year).
+const userWhere = (q: UserListQuery) =>
+  q.q ? or(ilike(users.name, containsPattern(q.q)), ilike(users.email, containsPattern(q.q))) : undefined;
+
+/** One page in id order (the primary key), only the columns the list shows (no password hash). */
+export const listUserPage = (ex: Executor, q: UserListQuery) =>
+  ex
+    .select({
+      id: users.id,
+      email: users.email,
+      name: users.name,
+      roles: users.roles,
+      active: users.active,
+      createdAt: users.createdAt,
+    })
+    .from(users)
+    .where(userWhere(q))
+    .orderBy(asc(users.id))
+    .limit(q.limit)
+    .offset(q.offset);
+
+export const countUsers = (ex: Executor, q: UserListQuery) =>
+  cappedCount(ex, sql`SELECT 1 FROM ${users} WHERE ${userWhere(q) ?? sql`true`}`);
 
 export async function insertUser(
   ex: Executor,

@@ -4,6 +4,7 @@ import {
   idParamSchema,
   updateUserRequestSchema,
   userResponseSchema,
+  usersListQuerySchema,
   usersListResponseSchema,
 } from "../../../shared/schemas";
 import { createUser, listUsers, updateUser } from "./users.service";
@@ -16,10 +17,11 @@ export const usersFeature: ApiFeature = {
     route({
       method: "get",
       path: "/",
-      summary: "List users (admin)",
+      summary: "List users, one page in id order (?page, ?pageSize, ?q name or e-mail search) (admin)",
       access: ["admin"],
+      query: usersListQuerySchema,
       responses: { 200: usersListResponseSchema },
-      handler: async ({ deps }) => ({ status: 200, body: { users: await listUsers(deps) } }),
+      handler: async ({ deps, query }) => ({ status: 200, body: await listUsers(deps, query) }),
     }),
     route({
       method: "post",

@@ -5,9 +5,11 @@ import { recordAudit } from "../../platform/audit";
 import * as repo from "./users.repo";
 import type { CreateUserRequest, Role, SessionUser, UpdateUserRequest, User } from "../../../shared/schemas";
 import { isUniqueViolation } from "../../db/errors";
+import { pageWindow } from "../../platform/paging";
+import type { UsersListQuery } from "../../../shared/schemas/users";
 import { revokeAllTokensOfUser } from "../tokens";
 
-export function toUser(row: repo.UserRow): User {
+export function toUser(row: Pick<repo.UserRow, keyof User>): User {
   return {
     id: row.id,
     email: row.email,
@@ -20,8 +22,11 @@ export function toUser(row: repo.UserRow): User {
 
 export { toSessionUser } from "../../platform/identity";
 
-export async function listUsers(deps: AppDeps) {
-  return (await repo.listUsers(deps.db)).map(toUser);
+/** One page of users in id order (optionally those whose name or e-mail contains `q`). */
+export async function listUsers(deps: AppDeps, q: UsersListQuery) {
+  const query = { q: q.q, ...pageWindow(q.page, q.pageSize) };
+  const [rows, count] = await Promise.all([repo.listUserPage(deps.db, query), repo.countUsers(deps.db, query)]);
+  return { users: rows.map(toUser), ...count, page: q.page, pageSize: q.pageSize };
 }
 
 export async function createUser(deps: AppDeps, actor: SessionUser | null, input: CreateUserRequest) {

@@ -41,7 +41,13 @@ const estimateRequest = { model: { modelId: 7 }, cluster: { acceleratorId: 3 } }
 
 function seeded() {
   const client = new QueryClient();
-  client.setQueryData(modelsQueries.list().queryKey, [profile]);
+  client.setQueryData(modelsQueries.list().queryKey, {
+    models: [profile],
+    total: 1,
+    totalCapped: false,
+    page: 1,
+    pageSize: 50,
+  } as never);
   client.setQueryData(modelsQueries.detail(7).queryKey, profile);
   client.setQueryData(analysesQueries.detail(request).queryKey, { figures: "old" } as never);
   client.setQueryData(budgetEstimateQueries.detail(estimateRequest).queryKey, { stages: "old" } as never);
@@ -52,7 +58,8 @@ const invalidated = (client: QueryClient, key: readonly unknown[]) => client.get
 
 describe("model profiles: one cache, invalidated through the factory", () => {
   it("keys run general to specific under one root", () => {
-    expect(modelsQueries.list().queryKey).toEqual(["models", "list"]);
+    expect(modelsQueries.list().queryKey).toEqual(["models", "list", {}]);
+    expect(modelsQueries.list({ q: "gan", page: 2 }).queryKey).toEqual(["models", "list", { q: "gan", page: 2 }]);
     expect(modelsQueries.detail(7).queryKey).toEqual(["models", "detail", 7]);
     expect(analysesQueries.detail(request).queryKey).toEqual(["analyses", request]);
   });

@@ -8,7 +8,7 @@ import { useCurrentUser } from "@/features/auth/hooks/use-session";
 import { AuditFilters } from "@/features/audit/components/audit-filters";
 import { ChainStatus } from "@/features/audit/components/chain-status";
 import { AuditTable } from "@/features/audit/components/audit-table";
-import { Pager } from "@/features/plans/components/pager";
+import { Pager } from "@/components/pager";
 
 const DEFAULT_PAGE_SIZE = 50;
 

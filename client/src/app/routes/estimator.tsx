@@ -1,7 +1,9 @@
+import { useState } from "react";
 import { useQuery } from "@tanstack/react-query";
 import { useSearchParams } from "react-router-dom";
 import { Page } from "@/components/page";
-import { modelsQueries } from "@/lib/api/models";
+import { useModelChoices } from "@/lib/api/models";
+import { pickerHint, SearchBox } from "@/components/search-box";
 import { acceleratorsQuery } from "@/features/accelerators/api/list-accelerators";
 import { BudgetSheet } from "@/features/budgets/components/budget-sheet";
 import { ModelPicker } from "@/features/budgets/components/model-picker";
@@ -14,12 +16,13 @@ import { modelFromSearch, sheetFromSearch, toSearch } from "@/features/budgets/l
 export function EstimatorRoute() {
   const [params, setParams] = useSearchParams();
   const accelerators = useQuery(acceleratorsQuery());
-  const profiles = useQuery(modelsQueries.list());
   const model = modelFromSearch(params);
+  const [search, setSearch] = useState("");
+  const profiles = useModelChoices(search, model.kind === "profile" ? Number(model.modelId) || null : null);
   const sheet = sheetFromSearch(params);
   const write = (m: ModelDraft, s: SheetDraft) => setParams(toSearch(m, s), { replace: true });
 
-  const profile = model.kind === "profile" ? profiles.data?.find((p) => String(p.id) === model.modelId) : undefined;
+  const profile = model.kind === "profile" ? profiles.profiles.find((p) => String(p.id) === model.modelId) : undefined;
   const context = estimatorContext(modelRequest(model), profile?.trainedContext, sheet.stages);
 
   return (
@@ -35,7 +38,21 @@ export function EstimatorRoute() {
         accelerators={accelerators.data ?? []}
         csvName="ropewalk-estimate.csv"
         modelPanel={(issues) => (
-          <ModelPicker value={model} onChange={(m) => write(m, sheet)} profiles={profiles.data ?? []} issues={issues} />
+          <ModelPicker
+            value={model}
+            onChange={(m) => write(m, sheet)}
+            profiles={profiles.profiles}
+            issues={issues}
+            search={
+              <SearchBox
+                label="Find a profile"
+                value={search}
+                onChange={setSearch}
+                placeholder="part of a name"
+                hint={pickerHint(profiles.profiles.length, profiles.total, profiles.more, "profiles")}
+              />
+            }
+          />
         )}
       />
     </Page>

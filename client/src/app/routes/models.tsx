@@ -1,3 +1,4 @@
+import { useState } from "react";
 import { Link } from "react-router-dom";
 import { useQuery } from "@tanstack/react-query";
 import { Loading, Notice } from "@/components/notice";
@@ -6,13 +7,21 @@ import { paths } from "@/config/paths";
 import { useCurrentUser } from "@/features/auth/hooks/use-session";
 import { canEditProfiles, ModelsTable } from "@/features/models";
 import { modelsQueries } from "@/lib/api/models";
+import { Pager } from "@/components/pager";
+import { SearchBox } from "@/components/search-box";
+import { useDebounced } from "@/lib/use-debounced";
+
+const PAGE_SIZE = 50;
 
 const linkButton =
   "inline-flex items-center rounded-md border px-4 py-2 text-body font-medium no-underline transition-colors";
 
 export function ModelsRoute() {
   const user = useCurrentUser();
-  const models = useQuery(modelsQueries.list());
+  const [search, setSearch] = useState("");
+  const [page, setPage] = useState(1);
+  const q = useDebounced(search.trim(), 250);
+  const models = useQuery(modelsQueries.list({ q: q || undefined, page, pageSize: PAGE_SIZE }));
   const canEdit = canEditProfiles(user.roles);
   return (
     <Page
@@ -33,6 +42,17 @@ export function ModelsRoute() {
         </div>
       )}
       <Panel title="All profiles">
+        <div className="mb-3 max-w-md">
+          <SearchBox
+            label="Find a profile"
+            value={search}
+            onChange={(text) => {
+              setSearch(text);
+              setPage(1);
+            }}
+            placeholder="part of a name"
+          />
+        </div>
         {models.isPending ? (
           <Loading label="Loading profiles…" />
         ) : models.isError ? (
@@ -40,7 +60,19 @@ export function ModelsRoute() {
             {models.error.message}
           </Notice>
         ) : (
-          <ModelsTable models={models.data} />
+          <div className="flex flex-col gap-3">
+            <ModelsTable models={models.data.models} />
+            {(models.data.total > models.data.pageSize || page > 1) && (
+              <Pager
+                page={models.data.page}
+                pageSize={models.data.pageSize}
+                total={models.data.total}
+                totalCapped={models.data.totalCapped}
+                onPage={setPage}
+                noun="Profiles"
+              />
+            )}
+          </div>
         )}
       </Panel>
     </Page>

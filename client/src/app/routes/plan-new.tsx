@@ -1,10 +1,12 @@
+import { useState } from "react";
 import { Link, useNavigate } from "react-router-dom";
 import { useQuery } from "@tanstack/react-query";
 import { ErrorView } from "@/components/error-view";
 import { Page } from "@/components/page";
 import { Loading, Notice } from "@/components/notice";
 import { paths } from "@/config/paths";
-import { modelsQueries } from "@/lib/api/models";
+import { useModelChoices } from "@/lib/api/models";
+import { pickerHint, SearchBox } from "@/components/search-box";
 import { acceleratorsQuery } from "@/features/accelerators/api/list-accelerators";
 import { useCurrentUser } from "@/features/auth/hooks/use-session";
 import { PlanBudgetSheet } from "@/features/budgets/components/plan-budget-sheet";
@@ -14,7 +16,9 @@ import { NewPlanForm } from "@/features/plans/components/new-plan-form";
 export function PlanNewRoute() {
   const user = useCurrentUser();
   const navigate = useNavigate();
-  const models = useQuery(modelsQueries.list());
+  const [search, setSearch] = useState("");
+  const [picked, setPicked] = useState<number | undefined>();
+  const models = useModelChoices(search, picked);
   const settings = useQuery(plansQueries.settings());
   const accelerators = useQuery(acceleratorsQuery());
 
@@ -42,7 +46,7 @@ export function PlanNewRoute() {
       {(models.isPending || settings.isPending) && <Loading />}
       {models.isError && (
         <Notice tone="alert" title="Could not load model profiles">
-          {models.error.message}
+          {models.error?.message}
         </Notice>
       )}
       {settings.isError && (
@@ -50,18 +54,30 @@ export function PlanNewRoute() {
           {settings.error.message}
         </Notice>
       )}
-      {models.data && models.data.length === 0 && (
+      {!models.isPending && models.total === 0 && !search && (
         <Notice title="No model profiles yet">
           Import a model’s configuration first; a plan always extends one profile.
         </Notice>
       )}
-      {models.data && settings.data && (
+      {!models.isPending && settings.data && (
         <NewPlanForm
-          models={models.data}
+          models={models.profiles}
+          onModelPicked={setPicked}
+          modelSearch={
+            <div className="max-w-md">
+              <SearchBox
+                label="Find a model profile"
+                value={search}
+                onChange={setSearch}
+                placeholder="part of a name"
+                hint={pickerHint(models.profiles.length, models.total, models.more, "profiles")}
+              />
+            </div>
+          }
           minApprovals={settings.data.minRequiredApprovals}
           onCreated={(plan) => navigate(paths.plan(plan.id))}
           // budget sheet: the budget engineer may pass a BudgetSheet here as well (it renders inside the form)
-          afterStages={<PlanBudgetSheet models={models.data} accelerators={accelerators.data ?? []} />}
+          afterStages={<PlanBudgetSheet models={models.profiles} accelerators={accelerators.data ?? []} />}
         />
       )}
     </Page>

@@ -1,16 +1,18 @@
+import { useState } from "react";
 import { Link } from "react-router-dom";
 import { useQuery } from "@tanstack/react-query";
 import { planListQuerySchema } from "@shared/schemas/plans";
 import { Page, Panel } from "@/components/page";
 import { Loading, Notice } from "@/components/notice";
 import { paths } from "@/config/paths";
-import { modelsQueries } from "@/lib/api/models";
+import { useModelChoices } from "@/lib/api/models";
+import { pickerHint, SearchBox } from "@/components/search-box";
 import { useSearchState } from "@/lib/search-state";
 import { useCurrentUser } from "@/features/auth/hooks/use-session";
 import { plansQueries } from "@/features/plans/api/queries";
 import { PlanFilters } from "@/features/plans/components/plan-filters";
 import { PlansTable } from "@/features/plans/components/plans-table";
-import { Pager } from "@/features/plans/components/pager";
+import { Pager } from "@/components/pager";
 
 const DEFAULT_PAGE_SIZE = 20;
 
@@ -18,7 +20,8 @@ export function PlansRoute() {
   const user = useCurrentUser();
   const { params, update } = useSearchState(planListQuerySchema);
   const list = useQuery(plansQueries.list(params));
-  const models = useQuery(modelsQueries.list());
+  const [modelSearch, setModelSearch] = useState("");
+  const models = useModelChoices(modelSearch, params.modelId);
 
   const ownerList = useQuery(plansQueries.owners());
 
@@ -43,10 +46,19 @@ export function PlansRoute() {
         </div>
       )}
       <Panel title="Find a plan">
+        <div className="mb-3 max-w-md">
+          <SearchBox
+            label="Find a model for the filter"
+            value={modelSearch}
+            onChange={setModelSearch}
+            placeholder="part of a profile name"
+            hint={pickerHint(models.profiles.length, models.total, models.more, "profiles")}
+          />
+        </div>
         <PlanFilters
           params={params}
           onChange={update}
-          models={(models.data ?? []).map((m) => ({ id: m.id, name: m.name }))}
+          models={models.profiles.map((m) => ({ id: m.id, name: m.name }))}
           owners={owners}
         />
       </Panel>

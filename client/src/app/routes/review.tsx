@@ -7,7 +7,7 @@ import { useRefreshPlan } from "@/features/plans/api/workflow";
 import { plansQueries } from "@/features/plans/api/queries";
 import { DecisionDialog } from "@/features/plans/components/decision-dialog";
 import { ReviewQueueTable } from "@/features/plans/components/review-queue-table";
-import { Pager } from "@/features/plans/components/pager";
+import { Pager } from "@/components/pager";
 
 const SAID: Record<string, string> = {
   approved: "passed and signed; its export is ready",

@@ -1,14 +1,18 @@
-import { useQuery } from "@tanstack/react-query";
+import { useState } from "react";
+import { useSearchParams } from "react-router-dom";
 import { Loading, Notice } from "@/components/notice";
 import { Page } from "@/components/page";
 import { apiPaths } from "@/config/paths";
 import { ImportWarnings } from "@/features/models";
-import { modelsQueries } from "@/lib/api/models";
+import { useModelChoices } from "@/lib/api/models";
+import { pickerHint, SearchBox } from "@/components/search-box";
 import { Workbench } from "@/features/workbench";
 
 /** The workbench, fed with the saved profiles; a profile imported from a file shows the warnings its import raised. */
 export function WorkbenchRoute() {
-  const models = useQuery(modelsQueries.list());
+  const [params] = useSearchParams();
+  const [search, setSearch] = useState("");
+  const models = useModelChoices(search, Number(params.get("model")) || null);
   return (
     <Page
       title="Workbench"
@@ -18,11 +22,20 @@ export function WorkbenchRoute() {
         <Loading label="Loading profiles…" />
       ) : models.isError ? (
         <Notice tone="alert" title="Could not load profiles">
-          {models.error.message}
+          {models.error?.message}
         </Notice>
       ) : (
         <Workbench
-          profiles={models.data}
+          profiles={models.profiles}
+          profileSearch={
+            <SearchBox
+              label="Find a profile"
+              value={search}
+              onChange={setSearch}
+              placeholder="part of a name"
+              hint={pickerHint(models.profiles.length, models.total, models.more, "profiles")}
+            />
+          }
           profileNotes={(p) =>
             p.sourceFileName ? (
               <details

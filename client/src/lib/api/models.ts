@@ -1,4 +1,4 @@
-import { queryOptions, type QueryClient } from "@tanstack/react-query";
+import { keepPreviousData, queryOptions, useQuery, type QueryClient } from "@tanstack/react-query";
 import { modelResponseSchema, modelsListResponseSchema } from "@shared/schemas/models";
 import type { ModelProfile } from "@shared/schemas/models";
 import { apiClient } from "../api-client";
@@ -11,8 +11,15 @@ import { afterEstimateInputsChanged } from "./budgets";
  * fetcher and one cache live here (query-factory style: keys general → specific, each read a `queryOptions`).
  * Features pick the fields they need with `select`, never with a second fetcher or key.
  */
-export const fetchModels = (signal?: AbortSignal) =>
-  apiClient.get(apiPaths.models(), modelsListResponseSchema, signal).then((r) => r.models);
+/** GET /api/models answers one page (50 by name unless asked otherwise); `q` searches names. */
+export interface ModelListQuery {
+  page?: number;
+  pageSize?: number;
+  q?: string;
+  retired?: "include" | "exclude";
+}
+export const fetchModelPage = (query: ModelListQuery, signal?: AbortSignal) =>
+  apiClient.get(apiPaths.models({ ...query }), modelsListResponseSchema, signal);
 
 export const fetchModel = (id: number, signal?: AbortSignal) =>
   apiClient.get(apiPaths.model(id), modelResponseSchema, signal).then((r) => r.model);
@@ -20,7 +27,13 @@ export const fetchModel = (id: number, signal?: AbortSignal) =>
 export const modelsQueries = {
   all: () => ["models"] as const,
   lists: () => [...modelsQueries.all(), "list"] as const,
-  list: () => queryOptions({ queryKey: modelsQueries.lists(), queryFn: ({ signal }) => fetchModels(signal) }),
+  list: (query: ModelListQuery = {}) =>
+    queryOptions({
+      queryKey: [...modelsQueries.lists(), query] as const,
+      queryFn: ({ signal }) => fetchModelPage(query, signal),
+      // while the next page or search loads, the current one stays on screen
+      placeholderData: keepPreviousData,
+    }),
   details: () => [...modelsQueries.all(), "detail"] as const,
   detail: (id: number) =>
     queryOptions({
@@ -50,4 +63,30 @@ export function afterModelDeleted(queryClient: QueryClient, id: number) {
     queryClient.invalidateQueries({ queryKey: modelsQueries.lists() }),
     afterEstimateInputsChanged(queryClient),
   ]);
+}
+
+/** How many profiles a picker offers at once; the search box reaches the rest. */
+export const PICKER_PAGE = 50;
+
+/**
+ * What a profile picker offers: the first PICKER_PAGE profiles in service whose name contains `search`, plus the
+ * chosen one (read by id when the page does not hold it, retired or not), so a choice never drops out of its picker
+ * while the person searches. `more` says the search matched more than are offered.
+ */
+export function useModelChoices(search: string, chosenId: number | null | undefined) {
+  const page = useQuery(
+    modelsQueries.list({ q: search.trim() || undefined, pageSize: PICKER_PAGE, retired: "exclude" }),
+  );
+  const listed = page.data?.models ?? [];
+  const missing = chosenId != null && chosenId > 0 && page.data !== undefined && !listed.some((m) => m.id === chosenId);
+  const chosen = useQuery({ ...modelsQueries.detail(chosenId ?? 0), enabled: missing });
+  const profiles = missing && chosen.data ? [chosen.data, ...listed] : listed;
+  return {
+    profiles,
+    isPending: page.isPending,
+    isError: page.isError,
+    error: page.error,
+    total: page.data?.total ?? 0,
+    more: page.data ? page.data.totalCapped || page.data.total > listed.length : false,
+  };
 }

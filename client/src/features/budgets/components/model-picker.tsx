@@ -1,3 +1,4 @@
+import type { ReactNode } from "react";
 import { useId } from "react";
 import { formatCount } from "@/lib/format";
 import type { ModelProfile } from "@shared/schemas/models";
@@ -38,10 +39,12 @@ type Props = {
   onChange: (next: ModelDraft) => void;
   profiles: ModelChoice[];
   issues: Record<string, string>;
+  /** The search box that narrows `profiles` (the server pages them), shown above the profile picker. */
+  search?: ReactNode;
 };
 
 /** A stored profile, or a model shape typed by hand. */
-export function ModelPicker({ value, onChange, profiles, issues }: Props) {
+export function ModelPicker({ value, onChange, profiles, issues, search }: Props) {
   const uid = useId();
   const radio = (kind: ModelDraft["kind"], label: string) => (
     <Radio
@@ -58,6 +61,7 @@ export function ModelPicker({ value, onChange, profiles, issues }: Props) {
         {radio("profile", "A stored profile")}
         {radio("shape", "Type a shape")}
       </div>
+      {value.kind === "profile" && search}
       {value.kind === "profile" ? (
         <ChoiceField
           className="max-w-xl"

@@ -1,4 +1,4 @@
-import { useState, type ReactNode } from "react";
+import { useEffect, useState, type ReactNode } from "react";
 import { FormProvider, useForm, useWatch } from "react-hook-form";
 import { formResolver } from "@/lib/form-resolver";
 import { createPlanRequestSchema } from "@shared/schemas/plans";
@@ -21,10 +21,21 @@ type NewPlanFormProps = {
   onCreated: (plan: PlanDetail) => void;
   /** Rendered after the stages, inside the form (the budget sheet's place). */
   afterStages?: ReactNode;
+  /** The search box that narrows `models` (the server pages profiles), shown above the fields. */
+  modelSearch?: ReactNode;
+  /** Hears the chosen model id, so the page keeps offering it whatever the search. */
+  onModelPicked?: (id: number | undefined) => void;
 };
 
 /** Title, model and approvals for a new plan, then its first revision; saved as a draft. */
-export function NewPlanForm({ models, minApprovals, onCreated, afterStages }: NewPlanFormProps) {
+export function NewPlanForm({
+  models,
+  minApprovals,
+  onCreated,
+  afterStages,
+  modelSearch,
+  onModelPicked,
+}: NewPlanFormProps) {
   const create = useCreatePlan();
   const [formError, setFormError] = useState<string | null>(null);
   const form = useForm({
@@ -40,6 +51,8 @@ export function NewPlanForm({ models, minApprovals, onCreated, afterStages }: Ne
   const { register, handleSubmit, setError, formState, control } = form;
   const modelId = useWatch({ control, name: "modelId" });
   const model = models.find((m) => m.id === modelId);
+  // The route keeps the choice offered while a search narrows the list (the server pages profiles).
+  useEffect(() => onModelPicked?.(modelId), [modelId, onModelPicked]);
 
   const onSubmit = handleSubmit(
     (values) => {
@@ -57,6 +70,7 @@ export function NewPlanForm({ models, minApprovals, onCreated, afterStages }: Ne
             {formError}
           </Notice>
         )}
+        {modelSearch}
         <div className="grid gap-4 md:grid-cols-2">
           <TextField label="Title" error={formState.errors.title?.message} {...register("title")} />
           <SelectField

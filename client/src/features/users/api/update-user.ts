@@ -1,8 +1,11 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import { type UpdateUserRequest, type User, userResponseSchema } from "@shared/schemas/users";
+import { type UpdateUserRequest, userResponseSchema, type usersListResponseSchema } from "@shared/schemas/users";
+import type { z } from "zod";
 import { apiClient } from "@/lib/api-client";
 import { apiPaths } from "@/config/paths";
 import { usersKeys } from "./keys";
+
+type UsersPage = z.infer<typeof usersListResponseSchema>;
 
 export const updateUser = ({ id, changes }: { id: number; changes: UpdateUserRequest }) =>
   apiClient.send("PATCH", apiPaths.user(id), changes, userResponseSchema).then((r) => r.user);
@@ -13,7 +16,9 @@ export function useUpdateUser() {
     mutationFn: updateUser,
     onSuccess: (user) => {
       // Show the change at once, then re-read the list in case the server changed more than this row.
-      queryClient.setQueryData<User[]>(usersKeys.list(), (list) => list?.map((u) => (u.id === user.id ? user : u)));
+      queryClient.setQueriesData<UsersPage>({ queryKey: usersKeys.list() }, (page) =>
+        page ? { ...page, users: page.users.map((u) => (u.id === user.id ? user : u)) } : page,
+      );
       return queryClient.invalidateQueries({ queryKey: usersKeys.all });
     },
   });

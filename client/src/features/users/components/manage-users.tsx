@@ -2,21 +2,42 @@ import { useState } from "react";
 import { useQuery } from "@tanstack/react-query";
 import type { User } from "@shared/schemas/users";
 import { Loading, Notice } from "@/components/notice";
+import { Pager } from "@/components/pager";
+import { SearchBox } from "@/components/search-box";
+import { useDebounced } from "@/lib/use-debounced";
 import { usersQueries } from "../api/queries";
 import { useUpdateUser } from "../api/update-user";
 import { RoleEditor } from "./role-editor";
 import { UsersTable } from "./users-table";
+
+const PAGE_SIZE = 50;
 
 /**
  * The user list with its row actions: change roles, deactivate, reactivate.
  * `onChanged` hears about every saved change (the page uses it to refresh the session when you edit yourself).
  */
 export function ManageUsers({ currentUserId, onChanged }: { currentUserId: number; onChanged?: (user: User) => void }) {
-  const users = useQuery(usersQueries.list());
+  const [search, setSearch] = useState("");
+  const [page, setPage] = useState(1);
+  const q = useDebounced(search.trim(), 250);
+  const users = useQuery(usersQueries.list({ q: q || undefined, page, pageSize: PAGE_SIZE }));
   const update = useUpdateUser();
   const [editing, setEditing] = useState<User | null>(null);
   const [message, setMessage] = useState<{ tone: "success" | "alert"; text: string } | null>(null);
 
+  const searchBox = (
+    <div className="max-w-md">
+      <SearchBox
+        label="Find a person"
+        value={search}
+        onChange={(text) => {
+          setSearch(text);
+          setPage(1);
+        }}
+        placeholder="part of a name or e-mail"
+      />
+    </div>
+  );
   if (users.isPending) return <Loading label="Loading users…" />;
   if (users.isError)
     return (
@@ -45,9 +66,10 @@ export function ManageUsers({ currentUserId, onChanged }: { currentUserId: numbe
   return (
     <div className="flex flex-col gap-4">
       {message && <Notice tone={message.tone}>{message.text}</Notice>}
+      {searchBox}
       {editing && <RoleEditor key={editing.id} user={editing} onDone={() => setEditing(null)} onSaved={onChanged} />}
       <UsersTable
-        users={users.data}
+        users={users.data.users}
         currentUserId={currentUserId}
         busyUserId={update.isPending ? (update.variables?.id ?? null) : null}
         onEditRoles={(u) => {
@@ -56,6 +78,16 @@ export function ManageUsers({ currentUserId, onChanged }: { currentUserId: numbe
         }}
         onSetActive={setActive}
       />
+      {(users.data.total > users.data.pageSize || page > 1) && (
+        <Pager
+          page={users.data.page}
+          pageSize={users.data.pageSize}
+          total={users.data.total}
+          totalCapped={users.data.totalCapped}
+          onPage={setPage}
+          noun="People"
+        />
+      )}
     </div>
   );
 }

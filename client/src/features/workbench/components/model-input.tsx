@@ -10,6 +10,8 @@ type ModelInputProps = {
   profiles: ModelProfile[];
   onChange: (choice: ModelChoice) => void;
   errors: FieldErrors;
+  /** The search box that narrows `profiles` (the server pages them), shown above the picker. */
+  search?: ReactNode;
 };
 
 const SHAPE_FIELDS = [
@@ -23,10 +25,11 @@ const describe = (p: ModelProfile) =>
   `${p.name} — d ${p.rotaryDim}, b ${tokens(p.ropeTheta)}, L ${tokens(p.trainedContext)}`;
 
 /** A saved profile, or a rotary shape typed in for a quick look. */
-export function ModelInput({ choice, profiles, onChange, errors }: ModelInputProps): ReactNode {
+export function ModelInput({ choice, profiles, onChange, errors, search }: ModelInputProps): ReactNode {
   const value = choice.kind === "shape" ? "shape" : choice.id === null ? "" : String(choice.id);
   return (
     <div className="flex flex-col gap-3">
+      {search}
       <SelectField
         label="Model"
         value={value}

@@ -19,6 +19,7 @@ type WorkbenchInputsProps = {
   context: FieldContext;
   errors: FieldErrors;
   profileNotes?: ReactNode;
+  profileSearch?: ReactNode;
 };
 
 /** Everything that defines the view: model, lengths and bands, the methods to compare. */
@@ -31,6 +32,7 @@ export function WorkbenchInputs({
   context,
   errors,
   profileNotes,
+  profileSearch,
 }: WorkbenchInputsProps) {
   const pickModel = (model: ModelChoice) => {
     const next = { ...inputs, model };
@@ -51,7 +53,13 @@ export function WorkbenchInputs({
     >
       <div className="grid gap-6 lg:grid-cols-[minmax(0,5fr)_minmax(0,7fr)] xl:grid-cols-1">
         <div className="flex min-w-0 flex-col gap-4">
-          <ModelInput choice={inputs.model} profiles={profiles} onChange={pickModel} errors={errors} />
+          <ModelInput
+            choice={inputs.model}
+            profiles={profiles}
+            onChange={pickModel}
+            errors={errors}
+            search={profileSearch}
+          />
           {chosen && (
             <p className="text-note text-ink-soft">
               {chosen.family} · d = {chosen.rotaryDim} ({chosen.pairs} pairs) ·{" "}

@@ -30,10 +30,12 @@ type WorkbenchProps = {
   profiles: ModelProfile[];
   /** Shown under the inputs for the chosen profile, e.g. the warnings its config import raised. */
   profileNotes?: (profile: ModelProfile) => ReactNode;
+  /** The search box that narrows `profiles` (the server pages them). */
+  profileSearch?: ReactNode;
 };
 
 /** Compare rotary scaling methods on one model, pair by pair. The inputs live in the URL. */
-export function Workbench({ profiles, profileNotes }: WorkbenchProps) {
+export function Workbench({ profiles, profileNotes, profileSearch }: WorkbenchProps) {
   const location = useLocation();
   const navigate = useNavigate();
   const [inputs, setInputs] = useState<Inputs>(() =>
@@ -103,6 +105,7 @@ export function Workbench({ profiles, profileNotes }: WorkbenchProps) {
           inputs={inputs}
           onChange={setInputs}
           profiles={profiles}
+          profileSearch={profileSearch}
           chosen={chosen}
           trainedContext={trainedContext}
           context={context}
