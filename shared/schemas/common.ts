@@ -22,6 +22,11 @@ export type Role = z.infer<typeof roleSchema>;
  */
 export const MAX_DB_ID = 2 ** 31 - 1;
 export const dbIdSchema = z.number().int().positive().max(MAX_DB_ID, `ids are at most ${MAX_DB_ID}`);
+/** A SHA-256 digest as lowercase hex: content hashes and rotary fingerprints are both written this way. */
+export const SHA256_HEX = /^[0-9a-f]{64}$/;
+/** SHA-256 hex, as the server computes content hashes. */
+export const contentHashSchema = z.string().regex(SHA256_HEX, "a SHA-256 content hash: 64 lowercase hex characters");
+
 /** The same id as it arrives in a path or query string. */
 export const dbIdParam = z.coerce.number().int().positive().max(MAX_DB_ID, `ids are at most ${MAX_DB_ID}`);
 export const idParamSchema = z.object({ id: dbIdParam });

@@ -1,12 +1,12 @@
 import { z } from "zod";
-import { dbIdSchema } from "./common";
+import { dbIdSchema, SHA256_HEX } from "./common";
 
 /*
  * Conformance checks (issue 10): the JSON tools/probe/ropewalk_probe.py writes in the user's environment, uploaded on a
  * plan revision, and the check Ropewalk records from it. The probe's format is `ropewalk-probe/1` (tools/probe/README.md).
  */
 
-const hex64 = z.string().regex(/^[0-9a-f]{64}$/, "64 lower-case hex digits (a SHA-256)");
+const hex64 = z.string().regex(SHA256_HEX, "64 lower-case hex digits (a SHA-256)");
 const text = (max: number) => z.string().trim().min(1).max(max);
 
 /** One probe result, as the probe writes it; unknown keys are dropped. */

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { contentHashSchema, dbIdSchema, SHA256_HEX } from "./common";
 import { EVIDENCE_KINDS, evidenceKindSchema, provenanceBucketSchema } from "./evidence";
 
 /**
@@ -23,7 +24,7 @@ export type Provenance = z.infer<typeof provenanceSchema>;
 
 export const fingerprintSchema = z
   .string()
-  .regex(/^[0-9a-f]{64}$/, "the rotary fingerprint: 64 lowercase hex characters (docs/fingerprint.md)");
+  .regex(SHA256_HEX, "the rotary fingerprint: 64 lowercase hex characters (docs/fingerprint.md)");
 
 /** The multipart text parts beside `file` (documented in OpenAPI). */
 export const evidenceFormSchema = z.object({
@@ -104,16 +105,8 @@ export const proofRequestSchema = z
   .strictObject({
     verdict: z.enum(PROOF_STATES),
     reason: z.string().trim().max(4000).default(""),
-    contentHash: z.string().regex(/^[0-9a-f]{64}$/, "a SHA-256 content hash: 64 lowercase hex characters"),
-    evidenceIds: z
-      .array(
-        z
-          .number()
-          .int()
-          .positive()
-          .max(2 ** 31 - 1),
-      )
-      .max(500),
+    contentHash: contentHashSchema,
+    evidenceIds: z.array(dbIdSchema).max(500),
   })
   .refine((p) => p.verdict === "proven" || p.reason.length > 0, {
     path: ["reason"],

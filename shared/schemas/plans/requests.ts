@@ -1,7 +1,7 @@
 import { z } from "zod";
 import { bandsSchema, configPatchSchema, lengthSchema, methodParamsSchema } from "../analysis";
 import { checkSettings, planBudgetFields } from "../budget";
-import { dbIdParam, dbIdSchema, MAX_DB_ID } from "../common";
+import { contentHashSchema, dbIdParam, dbIdSchema, MAX_DB_ID } from "../common";
 import { evidenceKindSchema } from "../evidence";
 import { EXTENDS_FROM } from "../../lineage";
 
@@ -107,11 +107,6 @@ export const updateRevisionRequestSchema = z.strictObject({
   budget: planBudgetSchema.nullable().optional(),
 });
 export type UpdateRevisionRequest = z.input<typeof updateRevisionRequestSchema>;
-
-/** SHA-256 hex, as the server computes content hashes. */
-export const contentHashSchema = z
-  .string()
-  .regex(/^[0-9a-f]{64}$/, "a SHA-256 content hash: 64 lowercase hex characters");
 
 /** `contentHash` is the hash the approver read; a decision on any other content is refused (409 hash_mismatch). */
 export const decisionRequestSchema = z.strictObject({
