@@ -156,7 +156,10 @@ export function compileV5(input: CompileInput): CompileResult {
   const placed = place(input, "v5");
   const { config } = input;
   const block: Obj = { ...(placed.block ?? { rope_type: "default" }), rope_theta: placed.base };
-  const layerTypes = Array.isArray(config.layer_types) ? [...new Set(config.layer_types.map(String))] : [];
+  const written = Array.isArray(config.layer_types) ? undefined : derivedLayerTypes(input.plan.groups);
+  const layerTypes = [
+    ...new Set((Array.isArray(config.layer_types) ? config.layer_types : (written ?? [])).map(String)),
+  ];
   const existing = isObj(config.rope_parameters) ? config.rope_parameters : {};
   // partial_rotary_factor lives inside rope_parameters in v5 and is the model's, not the plan's: it is kept.
   const keep = ["partial_rotary_factor"];
@@ -184,7 +187,24 @@ export function compileV5(input: CompileInput): CompileResult {
   // A config.json that still has rope_scaling would win over rope_parameters when v5 converts it.
   if ("rope_scaling" in config) patch.rope_scaling = null;
   if (placed.topOriginal !== undefined) patch.original_max_position_embeddings = placed.topOriginal;
+  if (written) patch.layer_types = written;
   return result(patch, placed);
+}
+
+/**
+ * Each layer's kind from the plan's groups, for a layered config that gives no `layer_types` (its layout is, say, a
+ * `sliding_window_pattern`). v5 nests rope_parameters only under the config's own `layer_types` keys, so without them
+ * it reads one flat block for every layer; the patch writes the list out. An explicit `layer_types` wins over the
+ * pattern in the model configs that still accept one (huggingface/transformers, models/gemma3/configuration_gemma3.py,
+ * Gemma3TextConfig.__init__ derives layer_types only when it is None; from memory, not re-read). Undefined unless every
+ * layer belongs to a rotating group.
+ */
+function derivedLayerTypes(groups: readonly { kind: string; layers: number[] }[] | undefined): string[] | undefined {
+  if (!groups || groups.length < 2) return undefined;
+  const kinds: (string | undefined)[] = [];
+  for (const g of groups) for (const l of g.layers) kinds[l] = g.kind;
+  const dense = Array.from(kinds);
+  return dense.every((k): k is string => typeof k === "string") ? dense : undefined;
 }
 
 function result(patch: Obj, placed: Placed): CompileResult {
