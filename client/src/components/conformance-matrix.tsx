@@ -1,4 +1,5 @@
 import type { ExportResponse, TargetExportBody } from "@shared/schemas/exports";
+import { LabelledCode } from "./labelled-code";
 
 type ConformanceStatus = TargetExportBody["conformance"]["status"];
 import { FramedTable } from "./framed-table";
@@ -109,12 +110,7 @@ export function ConformanceMatrix({
         ))}
       </FramedTable>
       {showFingerprint && (
-        <p className="text-note break-all text-ink-soft">
-          Rotary fingerprint{" "}
-          <code className="text-ink" data-testid="rotary-fingerprint">
-            {result.fingerprint}
-          </code>
-        </p>
+        <LabelledCode label="Rotary fingerprint" value={result.fingerprint} testId="rotary-fingerprint" />
       )}
     </div>
   );

@@ -1,4 +1,5 @@
 import { useState } from "react";
+import { LabelledCode } from "@/components/labelled-code";
 import { Link, useParams, useSearchParams } from "react-router-dom";
 import { useQuery } from "@tanstack/react-query";
 import type { RevisionContent } from "@shared/schemas/plans";
@@ -131,19 +132,14 @@ export function PlanRoute() {
               </span>
             }
           >
-            <p className="mb-4 text-note break-all text-ink-soft">
-              Content hash{" "}
-              <code className="text-ink" data-testid="content-hash">
-                {summary.contentHash}
-              </code>
-            </p>
+            <LabelledCode label="Content hash" value={summary.contentHash} testId="content-hash" className="mb-4" />
             {revisionFingerprint && (
-              <p className="-mt-3 mb-4 text-note break-all text-ink-soft">
-                Rotary fingerprint{" "}
-                <code className="text-ink" data-testid="revision-fingerprint">
-                  {revisionFingerprint}
-                </code>
-              </p>
+              <LabelledCode
+                label="Rotary fingerprint"
+                value={revisionFingerprint}
+                testId="revision-fingerprint"
+                className="-mt-3 mb-4"
+              />
             )}
             {revision.isError && (
               <Notice tone="alert" title="Could not load this revision">

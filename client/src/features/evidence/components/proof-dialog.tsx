@@ -1,4 +1,4 @@
-import { useEffect, useRef, useState } from "react";
+import { useRef, useState } from "react";
 import { useForm, useWatch } from "react-hook-form";
 import { formResolver } from "@/lib/form-resolver";
 import { z } from "zod";
@@ -7,6 +7,7 @@ import { Button, SubmitButton } from "@/components/button";
 import { TextAreaField } from "@/components/field";
 import { Notice } from "@/components/notice";
 import { isApiError } from "@/lib/api-client";
+import { useModalOnMount } from "@/lib/use-modal-on-mount";
 import { useDecideProof } from "../api/evidence";
 
 export type ProofTarget = {
@@ -55,10 +56,7 @@ export function ProofDialog({ target, onClose, onDecided }: Props) {
   });
   const verdict = useWatch({ control, name: "verdict" });
 
-  useEffect(() => {
-    const dialog = ref.current;
-    if (dialog && !dialog.open) dialog.showModal();
-  }, []);
+  useModalOnMount(ref);
 
   const onSubmit = handleSubmit((body) => {
     setError(null);

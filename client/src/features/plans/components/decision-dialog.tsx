@@ -1,4 +1,4 @@
-import { useEffect, useRef, useState } from "react";
+import { useRef, useState } from "react";
 import { useForm, useWatch } from "react-hook-form";
 import { useQuery } from "@tanstack/react-query";
 import { formResolver } from "@/lib/form-resolver";
@@ -9,6 +9,8 @@ import { Field } from "@/components/field";
 import { Notice } from "@/components/notice";
 import { isApiError } from "@/lib/api-client";
 import { ExportTargets } from "@/components/export-targets";
+import { LabelledCode } from "@/components/labelled-code";
+import { useModalOnMount } from "@/lib/use-modal-on-mount";
 import { useDecide } from "../api/decide";
 import { plansQueries } from "../api/queries";
 import { exportRequestOf } from "../lib/export-request";
@@ -46,11 +48,7 @@ export function DecisionDialog({ target, onClose, onDecided }: DecisionDialogPro
   const decision = useWatch({ control, name: "decision" });
   const revision = useQuery(plansQueries.revision(target.planId, target.revision));
 
-  useEffect(() => {
-    const dialog = ref.current;
-    // Removing the element on unmount ends the modal state; closing here would fire onClose during StrictMode's re-run.
-    if (dialog && !dialog.open) dialog.showModal();
-  }, []);
+  useModalOnMount(ref);
 
   const onSubmit = handleSubmit((body) => {
     setError(null);
@@ -96,12 +94,12 @@ export function DecisionDialog({ target, onClose, onDecided }: DecisionDialogPro
             {passesText(target.approvals, target.requiredApprovals)}.
           </p>
           {revision.data?.rotaryFingerprint && (
-            <p className="mt-1 text-note break-all text-ink-soft">
-              Rotary fingerprint{" "}
-              <code className="text-ink" data-testid="fingerprint-to-sign">
-                {revision.data.rotaryFingerprint}
-              </code>
-            </p>
+            <LabelledCode
+              label="Rotary fingerprint"
+              value={revision.data.rotaryFingerprint}
+              testId="fingerprint-to-sign"
+              className="mt-1"
+            />
           )}
         </div>
         <section className="flex flex-col gap-2" aria-label="How each stack reads this revision">
