@@ -4,9 +4,9 @@ import { EVIDENCE_KINDS } from "../../../shared/schemas/evidence";
 import { PROOF_STATES } from "../../../shared/schemas/evidence-api";
 import { users } from "./users";
 import { planRevisions, plans } from "./plans";
+import { inList } from "./sql-lists";
 
 const bytea = customType<{ data: Buffer }>({ dataType: () => "bytea" });
-const inList = (values: readonly string[]) => sql.raw(values.map((v) => `'${v}'`).join(", "));
 
 /**
  * Evaluation results uploaded against an approved revision (issue 12). The file is kept as sent, with its SHA-256, so

@@ -4,9 +4,7 @@ import { DECISIONS, REVISION_STATES, type RevisionState } from "../../../shared/
 import { PROOF_STATES, type ProofState } from "../../../shared/schemas/evidence-api";
 import { users } from "./users";
 import { modelProfiles } from "./models";
-
-/** A constant SQL list of quoted literals from a shared tuple (values are our own constants, never input). */
-const inList = (values: readonly string[]) => sql.raw(values.map((v) => `'${v}'`).join(", "));
+import { inList } from "./sql-lists";
 
 /** Lab-wide settings (one row per key). */
 export const settings = pgTable(
