@@ -201,6 +201,7 @@ export const budgetStageRequestSchema = z
   })
   .transform((stage) => stage as StageRequest);
 
+/** Ordered weakest to strongest: the engine's fit search (server/engine/budget/fit.ts) relies on this order. */
 export const ACTIVATION_CHECKPOINTING = ["none", "selective", "full"] as const;
 export type ActivationCheckpointing = (typeof ACTIVATION_CHECKPOINTING)[number];
 
@@ -309,6 +310,7 @@ const nonNegative = z.number().nonnegative();
 
 /** The version of the memory and compute model; frozen revisions keep the version they were signed with. */
 export const BUDGET_MODEL_VERSION = 2;
+/** In this order: the engine names the first of equal largest terms (server/engine/budget/memory.ts). */
 export const MEMORY_TERMS = ["modelStates", "activationCheckpoints", "recomputeWorkspace", "logits"] as const;
 export const UTILIZATION_BASES = ["assumed", "measured"] as const;
 

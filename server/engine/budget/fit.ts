@@ -1,8 +1,7 @@
 import { MAX_FIT_LOSS_CHUNKS } from "./defaults";
 import { trainingMemoryPerAccelerator, type TrainingMemoryInput } from "./memory";
-import type { ActivationCheckpointing, FitChange } from "./types";
-
-const STRENGTH: readonly ActivationCheckpointing[] = ["none", "selective", "full"];
+import { ACTIVATION_CHECKPOINTING } from "../../../shared/schemas/budget";
+import type { FitChange } from "./types";
 
 /** `from`, 2·from, 4·from … up to `max`. */
 function doublings(from: number, max: number): number[] {
@@ -22,7 +21,8 @@ type Resolved = Required<Omit<TrainingMemoryInput, "model" | "sequenceLength" | 
  * must keep the sequence divisible by 2 × degree and not exceed the accelerators.
  */
 export function cheapestFit(input: Resolved, memoryBytes: number): FitChange | null {
-  const modes = STRENGTH.slice(STRENGTH.indexOf(input.activationCheckpointing));
+  // The shared tuple is ordered weakest to strongest, so the modes from the current one on are the acceptable ones.
+  const modes = ACTIVATION_CHECKPOINTING.slice(ACTIVATION_CHECKPOINTING.indexOf(input.activationCheckpointing));
   const degrees = doublings(input.contextParallel, input.accelerators).filter(
     (cp) => cp === 1 || input.sequenceLength % (2 * cp) === 0,
   );

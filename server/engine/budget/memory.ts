@@ -1,3 +1,4 @@
+import { MEMORY_TERMS } from "../../../shared/schemas/budget";
 import { BUDGET_DEFAULTS } from "./defaults";
 import { bytesOf } from "./kv-cache";
 import type { ActivationCheckpointing, MemoryTerm, ModelShape, TrainingMemory } from "./types";
@@ -68,6 +69,5 @@ export function trainingMemoryPerAccelerator(input: TrainingMemoryInput): Traini
 
 /** The term that takes the most memory (the first of equals, in the schema's order). */
 export function largestMemoryTerm(memory: TrainingMemory): MemoryTerm {
-  const terms = ["modelStates", "activationCheckpoints", "recomputeWorkspace", "logits"] as const;
-  return terms.reduce((best, t) => (memory[t] > memory[best] ? t : best), terms[0]);
+  return MEMORY_TERMS.reduce<MemoryTerm>((best, t) => (memory[t] > memory[best] ? t : best), MEMORY_TERMS[0]);
 }
