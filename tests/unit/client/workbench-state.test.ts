@@ -5,6 +5,7 @@ import { toRequest } from "../../../client/src/features/workbench/state/to-reque
 import type { WorkbenchInputs } from "../../../client/src/features/workbench/state/inputs";
 import { defaultInputs } from "../../../client/src/features/workbench/state/inputs";
 import { shippedRow } from "../../../client/src/features/workbench/state/shipped-row";
+import { methodLabels } from "../../../client/src/features/workbench/state/method-labels";
 
 // Moved out of tests/e2e/workbench.e2e.test.ts: pure client logic needs no browser.
 // Pure pieces of the workbench, checked without a browser.
@@ -72,5 +73,29 @@ describe("the as-shipped row", () => {
     expect(row).toEqual({ method: "yarn", params: { factor: "4", betaFast: "32", betaSlow: "1" }, shipped: true });
     const inputs = { ...defaultInputs(), methods: [row, { method: "linear" as const, params: {} }] };
     expect(parseInputs(inputsToParams(inputs)).methods).toEqual(inputs.methods);
+  });
+});
+
+describe("the legends' names for the analysed methods", () => {
+  it("name the as-shipped row as its picker does, and an edited copy by its method", () => {
+    // key order as the profile's block might hold it, unlike the row's
+    const shipped = { method: "yarn" as const, betaSlow: 1, betaFast: 32, factor: 4 };
+    const row = shippedRow(shipped);
+    const edited = { method: "yarn" as const, params: { ...row.params, factor: "8" } };
+    const inputs: WorkbenchInputs = {
+      ...defaultInputs(),
+      model: { kind: "shape", headDim: "128", ropeTheta: "500000", trainedContext: "8192", partialRotaryFactor: "" },
+      target: "32768",
+      methods: [row, edited, { method: "linear", params: {} }],
+    };
+    const { request } = toRequest(inputs, null);
+    expect(request).not.toBeNull();
+    expect(methodLabels(request!.methods, shipped)).toEqual([
+      "As shipped (yarn ×4)",
+      "YaRN (ramped per pair, with attention factor)",
+      "Position interpolation (every pair divided)",
+    ]);
+    // a model that ships nothing: every row by its method
+    expect(methodLabels(request!.methods, null)[0]).toBe("YaRN (ramped per pair, with attention factor)");
   });
 });

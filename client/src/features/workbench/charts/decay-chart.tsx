@@ -40,7 +40,16 @@ function PositionLine({
  * The long-term decay bound R(m) of RoFormer §3.4.3 against relative distance m (log axis), for the original
  * frequencies and each method. Position 0 is left out: the log axis starts at 1.
  */
-export function DecayChart({ analysis, height = 300 }: { analysis: AnalysisResponse; height?: number }) {
+export function DecayChart({
+  analysis,
+  height = 300,
+  labels,
+}: {
+  analysis: AnalysisResponse;
+  height?: number;
+  /** what each method is called (methodLabels); its method's name when absent */
+  labels?: string[];
+}) {
   const { ref, width } = useWidth<HTMLDivElement>();
   const tip = useTooltip<number>();
   const innerW = width - MARGIN.left - MARGIN.right,
@@ -145,7 +154,7 @@ export function DecayChart({ analysis, height = 300 }: { analysis: AnalysisRespo
             <p>original: R = {sig(series.original[hovered].r, 5)}</p>
             {analysis.methods.map((mr, k) => (
               <p key={k} style={{ color: methodColour(k) }}>
-                {METHOD_LABELS[mr.method]}: R = {sig(series.methods[k][hovered]?.r ?? NaN, 5)}
+                {labels?.[k] ?? METHOD_LABELS[mr.method]}: R = {sig(series.methods[k][hovered]?.r ?? NaN, 5)}
               </p>
             ))}
           </ChartTooltip>
@@ -157,7 +166,7 @@ export function DecayChart({ analysis, height = 300 }: { analysis: AnalysisRespo
           ...analysis.methods.map((m, k) => ({
             key: String(k),
             swatch: <Swatch kind="line" colour={methodColour(k)} />,
-            label: `${k + 1}. ${METHOD_LABELS[m.method]}`,
+            label: `${k + 1}. ${labels?.[k] ?? METHOD_LABELS[m.method]}`,
           })),
         ]}
       />

@@ -13,7 +13,16 @@ import { INK, INK_SOFT, methodColour } from "./palette";
 import { useWidth } from "./use-width";
 
 /** θ′/θ of every pair for every method: 1 = pair kept as trained, 1/s = pair interpolated by the full factor. */
-export function RatioChart({ analysis, height = 280 }: { analysis: AnalysisResponse; height?: number }) {
+export function RatioChart({
+  analysis,
+  height = 280,
+  labels,
+}: {
+  analysis: AnalysisResponse;
+  height?: number;
+  /** what each method is called (methodLabels); its method's name when absent */
+  labels?: string[];
+}) {
   const { ref, width } = useWidth<HTMLDivElement>();
   const tip = useTooltip<number>();
   const innerW = width - MARGIN.left - MARGIN.right,
@@ -104,7 +113,7 @@ export function RatioChart({ analysis, height = 280 }: { analysis: AnalysisRespo
             <p className="font-semibold">Pair {tip.tooltipData}</p>
             {analysis.methods.map((m, k) => (
               <p key={k} style={{ color: methodColour(k) }}>
-                {METHOD_LABELS[m.method]}: θ′/θ = {sig(series[k][tip.tooltipData!].ratio, 6)}
+                {labels?.[k] ?? METHOD_LABELS[m.method]}: θ′/θ = {sig(series[k][tip.tooltipData!].ratio, 6)}
               </p>
             ))}
           </ChartTooltip>
@@ -114,7 +123,7 @@ export function RatioChart({ analysis, height = 280 }: { analysis: AnalysisRespo
         items={analysis.methods.map((m, k) => ({
           key: String(k),
           swatch: <Swatch kind="line" colour={methodColour(k)} />,
-          label: `${k + 1}. ${METHOD_LABELS[m.method]}`,
+          label: `${k + 1}. ${labels?.[k] ?? METHOD_LABELS[m.method]}`,
         }))}
       />
     </div>

@@ -25,15 +25,22 @@ type ResultsProps = {
   profile?: string | null;
   /** the profile's multimodal sections, drawn as bands over the pair axis */
   sections?: Sections | null;
+  /** what each analysed method is called (state/method-labels.ts); the method's name when absent */
+  labels?: string[];
 };
 
-function MethodPicker({ analysis, view, onView }: Pick<ResultsProps, "analysis" | "view" | "onView">) {
+function MethodPicker({
+  analysis,
+  view,
+  onView,
+  labels,
+}: Pick<ResultsProps, "analysis" | "view" | "onView" | "labels">) {
   return (
     <div className="w-72">
       <SelectField label="Method shown" value={String(view)} onChange={(e) => onView(Number(e.target.value))}>
         {analysis.methods.map((m, i) => (
           <option key={i} value={i}>
-            {i + 1}. {METHOD_LABELS[m.method]}
+            {i + 1}. {labels?.[i] ?? METHOD_LABELS[m.method]}
           </option>
         ))}
       </SelectField>
@@ -51,12 +58,16 @@ export function WorkbenchResults({
   currentMethods = null,
   profile = null,
   sections = null,
+  labels,
 }: ResultsProps) {
   const shown = Math.min(view, analysis.methods.length - 1);
   const methods = analysis.methods.map((m) => m.method);
   return (
     <div className="flex flex-col gap-6">
-      <Panel title="Wavelength per pair" aside={<MethodPicker analysis={analysis} view={shown} onView={onView} />}>
+      <Panel
+        title="Wavelength per pair"
+        aside={<MethodPicker analysis={analysis} view={shown} onView={onView} labels={labels} />}
+      >
         <div className="flex flex-col gap-3">
           <SpectrumChart analysis={analysis} methodIndex={shown} sections={sections} />
           <HowComputed
@@ -68,13 +79,13 @@ export function WorkbenchResults({
       <div className="grid gap-6 2xl:grid-cols-2 [&>*]:min-w-0">
         <Panel title="Scale ratio θ′/θ per pair">
           <div className="flex flex-col gap-3">
-            <RatioChart analysis={analysis} />
+            <RatioChart analysis={analysis} labels={labels} />
             <HowComputed topics={["ratio"]} methods={methods} />
           </div>
         </Panel>
         <Panel title="Long-term decay R(m)">
           <div className="flex flex-col gap-3">
-            <DecayChart analysis={analysis} />
+            <DecayChart analysis={analysis} labels={labels} />
             <HowComputed topics={["decay"]} />
           </div>
         </Panel>
@@ -82,7 +93,10 @@ export function WorkbenchResults({
       <Panel title="Base bounds">
         <BoundsPanel analysis={analysis} />
       </Panel>
-      <Panel title="Pair by pair" aside={<MethodPicker analysis={analysis} view={shown} onView={onView} />}>
+      <Panel
+        title="Pair by pair"
+        aside={<MethodPicker analysis={analysis} view={shown} onView={onView} labels={labels} />}
+      >
         <div className="flex flex-col gap-3">
           <PairTable
             analysis={analysis}

@@ -19,6 +19,8 @@ import { toRequest } from "../state/to-request";
 import { inputsToParams, parseInputs } from "../state/url-codec";
 import { WorkbenchInputs } from "./workbench-inputs";
 import { WorkbenchResults } from "./workbench-results";
+import { methodLabels } from "../state/method-labels";
+import { shippedMethod } from "@shared/lineage";
 import { describeAnalysis, StaleBanner, staleness, type Answered } from "./stale-results";
 
 /** The saved profile an analysed request named, if it named one (a layer group or a typed shape is sent as a shape). */
@@ -154,6 +156,11 @@ export function Workbench({ profiles, profileNotes, profileSearch }: WorkbenchPr
                 onFlaggedOnly={(flaggedOnly) => setInputs({ ...inputs, flaggedOnly })}
                 currentMethods={stale ? inputs.methods.map((r) => r.method) : null}
                 profile={profileNameOf(answered.request, profiles)}
+                labels={methodLabels(
+                  answered.request.methods,
+                  // offered (and so named) only for the whole profile, as the inputs offer the row
+                  model.kind === "saved" && !model.group ? shippedMethod(chosen?.currentScaling) : null,
+                )}
                 sections={
                   chosen?.mropeSection?.length
                     ? { section: chosen.mropeSection, interleaved: chosen.mropeInterleaved }
