@@ -1,8 +1,9 @@
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { Browser, BrowserContext, Page } from "playwright-core";
-import { downloadedText, launchBrowser, requireBuiltClient, screenshot, signIn } from "../setup/browser";
+import type { Browser } from "playwright-core";
+import { downloadedText, launchBrowser, requireBuiltClient, screenshot } from "../setup/browser";
 import { startTestServer } from "../setup/server";
+import { signedInPages } from "../setup/signed-in";
 import { createTestUser, type TestUser } from "../setup/users";
 
 /*
@@ -16,8 +17,10 @@ let server: Awaited<ReturnType<typeof startTestServer>>;
 let browser: Browser;
 let researcher: TestUser;
 let approver: TestUser;
-const contexts: BrowserContext[] = [];
-const errors: string[] = [];
+const { signedIn, closeAll, errors } = signedInPages(
+  () => browser,
+  () => server.url,
+);
 const stamp = Date.now().toString(36);
 const modelName = `Windowed ${stamp}`;
 const title = `Windowed to 64k ${stamp}`;
@@ -33,24 +36,10 @@ beforeAll(async () => {
 });
 
 afterAll(async () => {
-  for (const c of contexts) await c.close().catch(() => undefined);
+  await closeAll();
   await browser?.close();
   await server?.close();
 });
-
-async function signedIn(who: TestUser, to: string): Promise<Page> {
-  const context = await browser.newContext({ viewport: { width: 1360, height: 900 }, acceptDownloads: true });
-  contexts.push(context);
-  const page = await context.newPage();
-  page.on("pageerror", (e) => errors.push(`${who.name}: ${e.message}`));
-  page.on("console", (m) => {
-    if (m.type() === "error" && !m.text().startsWith("Failed to load resource"))
-      errors.push(`${who.name}: ${m.text()}`);
-  });
-  await page.goto(`${server.url}${to}`);
-  await signIn(page, who);
-  return page;
-}
 
 describe("a layered model from import to an approved export", () => {
   let planId = 0;
