@@ -21,6 +21,8 @@ type SpectrumChartProps = {
   height?: number;
   /** a profile with multimodal sections: bands over the pair axis, labelled by position axis */
   sections?: Sections | null;
+  /** what each method is called (state/method-labels.ts); its method's name when absent */
+  labels?: string[];
 };
 
 // Room above the plot for the band names, so they never sit on the data.
@@ -41,7 +43,7 @@ function bandRuns(pairs: PairResult[]) {
  * Wavelength of every pair on a log axis, original and after one method, with the trained and target lengths,
  * the three bands as washes, and a marker on each flagged pair. Hover a pair for its exact values.
  */
-export function SpectrumChart({ analysis, methodIndex, height = 340, sections = null }: SpectrumChartProps) {
+export function SpectrumChart({ analysis, methodIndex, height = 340, sections = null, labels }: SpectrumChartProps) {
   const { ref, width } = useWidth<HTMLDivElement>();
   const tip = useTooltip<PairResult>();
   const index = Math.min(Math.max(methodIndex, 0), analysis.methods.length - 1);
@@ -52,7 +54,7 @@ export function SpectrumChart({ analysis, methodIndex, height = 340, sections = 
   const innerW = width - M.left - M.right,
     innerH = height - M.top - M.bottom;
   const colour = methodColour(index);
-  const label = METHOD_LABELS[method.method];
+  const label = labels?.[index] ?? METHOD_LABELS[method.method];
 
   const { x, y } = useMemo(() => {
     const values = pairs.flatMap((p) => [p.wavelength, p.scaledWavelength]).concat([L, target]);

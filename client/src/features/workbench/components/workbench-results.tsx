@@ -69,7 +69,7 @@ export function WorkbenchResults({
         aside={<MethodPicker analysis={analysis} view={shown} onView={onView} labels={labels} />}
       >
         <div className="flex flex-col gap-3">
-          <SpectrumChart analysis={analysis} methodIndex={shown} sections={sections} />
+          <SpectrumChart analysis={analysis} methodIndex={shown} sections={sections} labels={labels} />
           <HowComputed
             topics={["wavelength", "rotations", "bands", "flags"]}
             methods={[analysis.methods[shown].method]}
