@@ -1,3 +1,4 @@
+import { currentBudgetNames } from "../../../shared/budget-legacy-names";
 import { BUDGET_CONVENTIONS } from "./conventions";
 import { BUDGET_DEFAULTS } from "./defaults";
 import { dataParallelRanks, hiddenSizeOf } from "./memory";
@@ -25,16 +26,16 @@ export function resolveOptions(input: ResolvedBudgetInput) {
   };
   const d = BUDGET_DEFAULTS;
   const { model } = input;
-  // Budget model 1's names, still accepted (the schema refuses both names at once and fractions between 0 and 1).
-  const legacyMode = input.recomputeFraction === undefined ? undefined : input.recomputeFraction >= 1 ? "full" : "none";
+  // Budget model 1's names, still accepted.
+  const current = currentBudgetNames(input);
   const bytesPerElement = given("model.bytesPerElement", model.bytesPerElement, d.bytesPerElement);
-  const contextParallel = given("contextParallel", input.contextParallel ?? input.sequenceSharding, d.contextParallel);
+  const contextParallel = given("contextParallel", current.contextParallel, d.contextParallel);
   return {
     utilization: given("utilization", input.utilization, d.utilization),
     convention: given<FlopConvention>("convention", input.convention, d.convention),
     activationCheckpointing: given<ActivationCheckpointing>(
       "activationCheckpointing",
-      input.activationCheckpointing ?? legacyMode,
+      current.activationCheckpointing,
       d.activationCheckpointing,
     ),
     flashAttention: given<boolean>("flashAttention", input.flashAttention, d.flashAttention),

@@ -1,3 +1,4 @@
+import { currentBudgetNames } from "@shared/budget-legacy-names";
 import type { PlanBudgetInput } from "@shared/schemas/plans";
 import { parseNumberText } from "@/lib/number-text";
 import { GIB, TFLOPS } from "@/lib/format";
@@ -23,6 +24,8 @@ export function draftFromPlanBudget(budget: PlanBudgetInput | undefined): {
 } {
   const blank: ClusterDraft = { kind: "catalog", acceleratorId: "", peakTflops: "", memoryGib: "", pricePerHour: "" };
   if (!budget) return { cluster: blank, settings: defaultSettings() };
+  // Budget model 1's names read as their replacements, so saving again writes only the new ones.
+  const current = currentBudgetNames(budget);
   const c = budget.cluster as Record<string, number | undefined>;
   const cluster: ClusterDraft =
     c.acceleratorId !== undefined
@@ -40,12 +43,9 @@ export function draftFromPlanBudget(budget: PlanBudgetInput | undefined): {
       accelerators: text(budget.accelerators),
       utilization: text(budget.utilization),
       convention: budget.convention ?? "",
-      // Budget model 1's names read as their replacements, so saving again writes only the new ones.
-      activationCheckpointing:
-        budget.activationCheckpointing ??
-        (budget.recomputeFraction === undefined ? "" : budget.recomputeFraction >= 1 ? "full" : "none"),
+      activationCheckpointing: current.activationCheckpointing ?? "",
       flashAttention: budget.flashAttention === undefined ? "" : budget.flashAttention ? "on" : "off",
-      contextParallel: text(budget.contextParallel ?? budget.sequenceSharding),
+      contextParallel: text(current.contextParallel),
       lossChunks: text(budget.lossChunks),
       kvCacheBytesPerElement: text(budget.kvCacheBytesPerElement),
       measuredTokensPerSecond: text(budget.measuredTokensPerSecond),
