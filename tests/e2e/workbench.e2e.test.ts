@@ -360,7 +360,7 @@ describe("profiles and bounds in a browser", () => {
     await form.getByLabel("Head dimension (head_dim)").fill("128");
     await form.getByRole("button", { name: "Save profile" }).click();
     await expect
-      .poll(() => form.getByText("attentionHeads must be a multiple of kvHeads").count(), { timeout: 15_000 })
+      .poll(() => form.getByText("Attention heads must be a multiple of key/value heads.").count(), { timeout: 15_000 })
       .toBe(1);
     expect(posted).toBe(0);
     await form.getByLabel("KV heads (num_key_value_heads)").fill("6");
