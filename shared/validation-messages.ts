@@ -22,6 +22,7 @@ const LABELS: Record<string, string> = {
   acceleratorId: "accelerator",
   acceptance: "acceptance criteria",
   contentHash: "content hash",
+  confirmPassword: "repeated new password",
   bytesPerElement: "bytes per element",
 };
 /** One entry of a list field, named by position ("stage 2"). */

@@ -147,12 +147,12 @@ describe("foundation screens in a browser", () => {
     await form.getByLabel("Current password").fill("wrong-current-password");
     await form.getByLabel("New password, again").fill(newPassword);
     await form.getByRole("button", { name: "Change password" }).click();
-    await form.getByText("does not match", { exact: true }).waitFor();
+    await form.getByText("Current password does not match.", { exact: true }).waitFor();
     const current = form.getByLabel("Current password");
     expect(await current.getAttribute("aria-invalid")).toBe("true");
     // The message is the one wired to that input, not a banner elsewhere.
     const errorId = (await current.getAttribute("aria-describedby"))?.split(" ").find((id) => id.endsWith("-error"));
-    expect(await page.locator(`[id="${errorId}"]`).textContent()).toBe("does not match");
+    expect(await page.locator(`[id="${errorId}"]`).textContent()).toBe("Current password does not match.");
 
     await form.getByLabel("Current password").fill(viewer.password);
     await form.getByRole("button", { name: "Change password" }).click();
