@@ -38,7 +38,7 @@ describe("unsaved draft edits", () => {
     const edit = `/plans/${planId}/revisions/1/edit`;
     await page.goto(`${server.url}${edit}`);
     await signIn(page, researcher);
-    const notes = page.getByLabel("Notes for reviewers");
+    const notes = page.getByLabel("Notes for inspectors");
     await notes.waitFor({ timeout: 20_000 });
 
     // Nothing typed yet: the link just goes.
