@@ -314,7 +314,7 @@ describe("profiles and bounds in a browser", () => {
     await signIn(page, viewer);
     await page.getByRole("heading", { level: 1, name: "Model profiles" }).waitFor();
     const table = page.getByRole("table", { name: "Model profiles" });
-    await page.getByLabel("Filter model profiles").fill(profile.name);
+    await page.getByLabel("Find a profile").fill(profile.name);
     await table.getByRole("link", { name: profile.name }).waitFor();
     await expect(page.getByRole("link", { name: "Import config.json" }).count()).resolves.toBe(0);
     await table.getByRole("link", { name: profile.name }).click();
