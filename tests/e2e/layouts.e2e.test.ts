@@ -81,6 +81,8 @@ describe("a layered model from import to an approved export", () => {
     const form = page.getByRole("form", { name: "New plan" });
     await form.waitFor();
     await form.getByLabel("Title").fill(title);
+    // The picker offers one page of profiles; its search finds this one wherever it sorts.
+    await page.getByLabel("Find a model profile").fill(modelName);
     await form.getByLabel("Model", { exact: true }).selectOption({ label: modelName });
     await form.getByLabel("Method", { exact: true }).selectOption("yarn");
     await form.getByLabel("Target context (tokens)").first().fill("65536");

@@ -83,6 +83,8 @@ describe("an already-scaled model extended from its served length", () => {
     const form = page.getByRole("form", { name: "New plan" });
     await form.waitFor();
     await form.getByLabel("Title").fill(title);
+    // The picker offers one page of profiles; its search finds this one wherever it sorts.
+    await page.getByLabel("Find a model profile").fill(modelName);
     await form.getByLabel("Model", { exact: true }).selectOption({ label: modelName });
     const from = form.getByLabel("Extends from");
     await from.waitFor();

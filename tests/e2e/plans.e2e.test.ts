@@ -102,6 +102,8 @@ describe("plan workflow in a browser", () => {
     await form.getByText("Title is required.").waitFor();
 
     await form.getByLabel("Title").fill(title);
+    // The picker offers one page of profiles; its search finds this one wherever it sorts.
+    await page.getByLabel("Find a model profile").fill(profile.name);
     await form.getByLabel("Model", { exact: true }).selectOption({ label: profile.name });
     await form.getByLabel("Purpose").fill("Long documents for the support assistant");
     await form.getByLabel("Passes required").selectOption("2");
