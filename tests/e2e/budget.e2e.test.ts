@@ -397,6 +397,8 @@ describe("budget sheet in a browser", () => {
     const { page, errors } = await signedInPage(context, "/plans/new", planner);
     const form = page.getByRole("form", { name: "New plan" });
     await form.getByLabel("Title").fill("Costed from the start");
+    // The picker offers one page of profiles; its search finds this one wherever it sorts.
+    await page.getByLabel("Find a model profile").fill(profile.name);
     await form.getByLabel("Model", { exact: true }).selectOption({ label: profile.name });
     const sheet = page.getByRole("region", { name: "Budget sheet" });
     await sheet.getByText("Add a stage to cost this plan").waitFor();
