@@ -33,104 +33,64 @@ interface Row {
   noRope?: string[];
 }
 
+/**
+ * One row per fixture: every layout scales its full-attention group; a second rotating group, where there is one, is the
+ * sliding (local) group at its own base with the same rotating dims, left as trained.
+ */
+function layout(
+  file: string,
+  trained: number,
+  method: Row["method"],
+  full: { theta: number; dims: number },
+  extra: { slidingTheta?: number; noRope?: string[] } = {},
+): Row {
+  const { slidingTheta, noRope } = extra;
+  const group = (kind: string, ropeTheta: number) => ({ kind, ropeTheta, rotaryDim: full.dims });
+  return {
+    file,
+    trained,
+    method,
+    scaled: group("full_attention", full.theta),
+    unscaled: slidingTheta === undefined ? [] : [group("sliding_attention", slidingTheta)],
+    noRope,
+  };
+}
+
 const rows: Row[] = [
-  {
-    // qk_rope_head_dim 64 rotates (not 7168/128 = 56); the shipped YaRN names original 4096, so 4096 is pre-trained.
-    file: "latent-attention-yarn.json",
-    trained: 4096,
-    method: "yarn",
-    scaled: { kind: "full_attention", ropeTheta: 10_000, rotaryDim: 64 },
-    unscaled: [],
-  },
-  {
-    // head_dim 256; full layers 1e6 pre-trained 16 384 (the block's original length); local layers rope_local_base_freq 1e4.
-    file: "sliding-full-local-base.json",
-    trained: 16384,
-    method: "linear",
-    scaled: { kind: "full_attention", ropeTheta: 1e6, rotaryDim: 256 },
-    unscaled: [{ kind: "sliding_attention", ropeTheta: 10_000, rotaryDim: 256 }],
-  },
-  {
-    // The same layout as sliding_window_pattern 6 (every sixth layer full): same groups, same numbers.
-    file: "sliding-pattern-local-base.json",
-    trained: 16384,
-    method: "yarn",
-    scaled: { kind: "full_attention", ropeTheta: 1e6, rotaryDim: 256 },
-    unscaled: [{ kind: "sliding_attention", ropeTheta: 10_000, rotaryDim: 256 }],
-  },
-  {
-    // rope_parameters nested by layer type: full yarn over 1e6 with original 32 768; sliding plain 1e4; head_dim 128.
-    file: "nested-rope-parameters.json",
-    trained: 32768,
-    method: "yarn",
-    scaled: { kind: "full_attention", ropeTheta: 1e6, rotaryDim: 128 },
-    unscaled: [{ kind: "sliding_attention", ropeTheta: 10_000, rotaryDim: 128 }],
-  },
-  {
-    // 3584 / 28 = 128 rotating dims, sections 16 + 24 + 24 = 64 pairs; base 1e6, trained 32 768.
-    file: "mrope-sections-contiguous.json",
-    trained: 32768,
-    method: "linear",
-    scaled: { kind: "full_attention", ropeTheta: 1e6, rotaryDim: 128 },
-    unscaled: [],
-  },
-  {
-    // head_dim 128 (sections sum to 60, a warning, not a refusal); base 5e6, trained 262 144.
-    file: "mrope-sections-interleaved-bad-sum.json",
-    trained: 262144,
-    method: "yarn",
-    scaled: { kind: "full_attention", ropeTheta: 5e6, rotaryDim: 128 },
-    unscaled: [],
-  },
-  {
-    // 2560 / 32 = 80 per head, rotary_pct 0.25 → 20 rotate; rotary_emb_base 1e6 (not the 1e4 default).
-    file: "neox-style-keys.json",
-    trained: 4096,
-    method: "linear",
-    scaled: { kind: "full_attention", ropeTheta: 1e6, rotaryDim: 20 },
-    unscaled: [],
-  },
-  {
-    // Top level 1e4 beside rope_parameters 5e5: the newest loaders read 5e5. 4096 / 32 = 128; trained 8192.
-    file: "conflict-base.json",
-    trained: 8192,
-    method: "yarn",
-    scaled: { kind: "full_attention", ropeTheta: 500_000, rotaryDim: 128 },
-    unscaled: [],
-  },
-  {
-    // Top-level original 4096 beside the block's 2048: the loaders take 4096. 3072 / 24 = 128; base 1e4.
-    file: "conflict-original-length.json",
-    trained: 4096,
-    method: "yarn",
-    scaled: { kind: "full_attention", ropeTheta: 10_000, rotaryDim: 128 },
-    unscaled: [],
-  },
-  {
-    // type "su" read as longrope (with a warning); original 4096; 3072 / 32 = 96 dims = 48 pairs (48 factors).
-    file: "legacy-type-su.json",
-    trained: 4096,
-    method: "linear",
-    scaled: { kind: "full_attention", ropeTheta: 10_000, rotaryDim: 96 },
-    unscaled: [],
-  },
-  {
-    // no_rope_layers [1,1,1,0,1,1,1,0]: six rotary layers (2048 / 16 = 128, base 5e6) and two without positions.
-    file: "mixed-rope-nope.json",
-    trained: 65536,
-    method: "yarn",
-    scaled: { kind: "full_attention", ropeTheta: 5e6, rotaryDim: 128 },
-    unscaled: [],
-    noRope: ["no_rope"],
-  },
+  // qk_rope_head_dim 64 rotates (not 7168/128 = 56); the shipped YaRN names original 4096, so 4096 is pre-trained.
+  layout("latent-attention-yarn.json", 4096, "yarn", { theta: 10_000, dims: 64 }),
+  // head_dim 256; full layers 1e6 pre-trained 16 384 (the block's original length); local layers rope_local_base_freq 1e4.
+  layout("sliding-full-local-base.json", 16384, "linear", { theta: 1e6, dims: 256 }, { slidingTheta: 10_000 }),
+  // The same layout as sliding_window_pattern 6 (every sixth layer full): same groups, same numbers.
+  layout("sliding-pattern-local-base.json", 16384, "yarn", { theta: 1e6, dims: 256 }, { slidingTheta: 10_000 }),
+  // rope_parameters nested by layer type: full yarn over 1e6 with original 32 768; sliding plain 1e4; head_dim 128.
+  layout("nested-rope-parameters.json", 32768, "yarn", { theta: 1e6, dims: 128 }, { slidingTheta: 10_000 }),
+  // 3584 / 28 = 128 rotating dims, sections 16 + 24 + 24 = 64 pairs; base 1e6, trained 32 768.
+  layout("mrope-sections-contiguous.json", 32768, "linear", { theta: 1e6, dims: 128 }),
+  // head_dim 128 (sections sum to 60, a warning, not a refusal); base 5e6, trained 262 144.
+  layout("mrope-sections-interleaved-bad-sum.json", 262144, "yarn", { theta: 5e6, dims: 128 }),
+  // 2560 / 32 = 80 per head, rotary_pct 0.25 → 20 rotate; rotary_emb_base 1e6 (not the 1e4 default).
+  layout("neox-style-keys.json", 4096, "linear", { theta: 1e6, dims: 20 }),
+  // Top level 1e4 beside rope_parameters 5e5: the newest loaders read 5e5. 4096 / 32 = 128; trained 8192.
+  layout("conflict-base.json", 8192, "yarn", { theta: 500_000, dims: 128 }),
+  // Top-level original 4096 beside the block's 2048: the loaders take 4096. 3072 / 24 = 128; base 1e4.
+  layout("conflict-original-length.json", 4096, "yarn", { theta: 10_000, dims: 128 }),
+  // type "su" read as longrope (with a warning); original 4096; 3072 / 32 = 96 dims = 48 pairs (48 factors).
+  layout("legacy-type-su.json", 4096, "linear", { theta: 10_000, dims: 96 }),
+  // no_rope_layers [1,1,1,0,1,1,1,0]: six rotary layers (2048 / 16 = 128, base 5e6) and two without positions.
+  layout("mixed-rope-nope.json", 65536, "yarn", { theta: 5e6, dims: 128 }, { noRope: ["no_rope"] }),
 ];
 
-async function importSaved(a: Agent, file: string) {
-  const r = await a
+/** Uploads a fixture as config.json with ?save=true; the refusals below use the same request. */
+const upload = (a: Agent, file: string, name: string, parameters: number) =>
+  a
     .post("/api/models/import?save=true")
     .set("X-CSRF-Token", a.csrf)
-    .field("overrides", JSON.stringify({ name: `Walk-${uniq()}`, parameters: 3e9 }))
+    .field("overrides", JSON.stringify({ name, parameters }))
     .attach("file", fixture(file), "config.json");
+
+async function importSaved(a: Agent, file: string) {
+  const r = await upload(a, file, `Walk-${uniq()}`, 3e9);
   if (r.status !== 201) throw new Error(`import ${file}: ${r.status} ${JSON.stringify(r.body)}`);
   return r.body.saved.id as number;
 }
@@ -211,12 +171,7 @@ describe("layouts without rotary positions are refused", () => {
     "no-position.json",
   ])("%s → 400 not_rotary", async (file) => {
     const a = await agentAs(["researcher"]);
-    const r = await a
-      .post("/api/models/import?save=true")
-      .set("X-CSRF-Token", a.csrf)
-      .field("overrides", JSON.stringify({ name: `Flat-${uniq()}`, parameters: 1e8 }))
-      .attach("file", fixture(file), "config.json")
-      .expect(400);
+    const r = await upload(a, file, `Flat-${uniq()}`, 1e8).expect(400);
     expect(r.body.error.code).toBe("not_rotary");
   });
 });
