@@ -2,7 +2,7 @@ import type { CompileInput, CompileResult, ExportTarget, TargetArtifact } from "
 import { explicitYarnAttention, factorOf, paramsOf, resolvePlan } from "./engines/plan-facts";
 import { isObj } from "../../../shared/json-values";
 import { launchArtifact } from "./engines/launch-text";
-import { yarnGetMscale } from "./engines/engine-rope";
+import { yarnMscale } from "./consumer-rope";
 import { convertedFreqFactors, ggufArch, key, type Metadata } from "./engines/gguf";
 import { readLlamaCpp } from "./engines/llama-cpp-reader";
 
@@ -55,7 +55,7 @@ function compileParts(input: CompileInput): { args: string[]; metadata: Metadata
       const y = paramsOf(p, "yarn");
       const explicit = explicitYarnAttention(p);
       // ggml multiplies the attention factor by 1 + 0.1·ln(1/freq_scale) itself (rope_yarn): pass the remainder.
-      const attn = explicit === null ? 1 : explicit / yarnGetMscale(factorOf(p));
+      const attn = explicit === null ? 1 : explicit / yarnMscale(factorOf(p));
       args.push(
         ...["--rope-scaling", "yarn", "--rope-scale", fl(factorOf(p)), "--rope-freq-base", fl(p.base)],
         ...["--yarn-orig-ctx", String(L), "--yarn-ext-factor", "1.0", "--yarn-attn-factor", fl(attn)],

@@ -4,13 +4,16 @@ import { isObj, numberOr } from "../../../shared/json-values";
 import { argsOf, compactJson, flagValue, launchArtifact, parseJsonArgument } from "./engines/launch-text";
 import { derivedContextLength } from "./engines/sglang-config";
 import {
+  CONSUMER_RULES,
   llama3InvFreq,
   longropeReading,
   plainInvFreq,
   staticDynamicBase,
-  yarnGetMscale,
   yarnInvFreq,
-} from "./engines/engine-rope";
+  yarnMscale,
+} from "./consumer-rope";
+
+const RULES = CONSUMER_RULES.sglang;
 
 /**
  * SGLang, read at sgl-project/sglang main (files at the commits named beside each rule;
@@ -51,7 +54,7 @@ function overridesFor(input: CompileInput): Record<string, unknown> {
         truncate: y.truncate,
       };
       // SGLang ignores attention_factor, mscale and mscale_all_dim for "yarn"; its magnitude is g(s) × attn_factor.
-      if (explicit !== null) block.attn_factor = explicit / yarnGetMscale(factorOf(p));
+      if (explicit !== null) block.attn_factor = explicit / yarnMscale(factorOf(p));
       return { rope_scaling: block, rope_theta: p.base, max_position_embeddings: target };
     }
     case "llama3": {
@@ -157,23 +160,31 @@ function read(config: Record<string, unknown>, artifact: TargetArtifact, running
       const f = need("factor");
       const L = need("original_max_position_embeddings");
       const ext = numberOr(rs?.extrapolation_factor, 1);
-      const inv = yarnInvFreq(
+      const inv = yarnInvFreq({
         d,
         base,
-        f,
-        L,
-        numberOr(rs?.beta_fast, 32),
-        numberOr(rs?.beta_slow, 1),
-        rs?.truncate !== false,
-        ext,
-      );
+        factor: f,
+        original: L,
+        betaFast: numberOr(rs?.beta_fast, 32),
+        betaSlow: numberOr(rs?.beta_slow, 1),
+        truncate: rs?.truncate !== false,
+        extrapolationFactor: ext,
+      });
       // attention_factor, mscale and mscale_all_dim are not read for "yarn" (factory.py): silently ignored.
-      return reading(inv, yarnGetMscale(f) * numberOr(rs?.attn_factor, 1), L);
+      return reading(inv, yarnMscale(f) * numberOr(rs?.attn_factor, 1), L);
     }
     case "llama3": {
       const L = need("original_max_position_embeddings");
       return reading(
-        llama3InvFreq(d, base, need("factor"), need("low_freq_factor"), need("high_freq_factor"), L),
+        llama3InvFreq(
+          d,
+          base,
+          need("factor"),
+          need("low_freq_factor"),
+          need("high_freq_factor"),
+          L,
+          RULES.llama3EqualFactors,
+        ),
         1,
         L,
       );
@@ -184,7 +195,8 @@ function read(config: Record<string, unknown>, artifact: TargetArtifact, running
       const long = (runningLength ?? contextLength) > L;
       const factors = (long ? rs?.long_factor : rs?.short_factor) as number[];
       const explicit = long ? rs?.long_mscale : rs?.short_mscale;
-      const r = longropeReading(d, base, factors, maxPosition, L, typeof explicit === "number" ? explicit : undefined);
+      const given = typeof explicit === "number" ? explicit : undefined;
+      const r = longropeReading(d, base, factors, maxPosition / L, L, given, RULES.longropeLength);
       return reading(r.invFreq, r.attentionFactor, L);
     }
     default:

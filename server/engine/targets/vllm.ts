@@ -4,13 +4,16 @@ import { numberOr } from "../../../shared/json-values";
 import { argsOf, compactJson, flagValue, launchArtifact, parseJsonArgument } from "./engines/launch-text";
 import { derivedMaxModelLen, vllmRopeParameters } from "./engines/vllm-config";
 import {
+  CONSUMER_RULES,
   llama3InvFreq,
   longropeReading,
   plainInvFreq,
   staticDynamicBase,
-  yarnGetMscale,
   yarnInvFreq,
-} from "./engines/engine-rope";
+  yarnMscale,
+} from "./consumer-rope";
+
+const RULES = CONSUMER_RULES.vllm;
 
 /**
  * vLLM, read at vllm-project/vllm main (files at the commits named beside each rule; docs/export-targets-engines.md).
@@ -155,15 +158,15 @@ function read(config: Record<string, unknown>, artifact: TargetArtifact): Consum
     case "yarn": {
       const f = need("factor");
       const L = need("original_max_position_embeddings");
-      const inv = yarnInvFreq(
+      const inv = yarnInvFreq({
         d,
         base,
-        f,
-        L,
-        numberOr(rp.beta_fast, 32),
-        numberOr(rp.beta_slow, 1),
-        rp.truncate !== false,
-      );
+        factor: f,
+        original: L,
+        betaFast: numberOr(rp.beta_fast, 32),
+        betaSlow: numberOr(rp.beta_slow, 1),
+        truncate: rp.truncate !== false,
+      });
       // yarn_scaling_rope.py (0cd5784): attention_factor wins, else mscale/mscale_all_dim when both are non-zero, else g(s).
       const m = numberOr(rp.mscale, 0);
       const mAll = numberOr(rp.mscale_all_dim, 0);
@@ -171,14 +174,22 @@ function read(config: Record<string, unknown>, artifact: TargetArtifact): Consum
         typeof rp.attention_factor === "number"
           ? rp.attention_factor
           : m && mAll
-            ? yarnGetMscale(f, m) / yarnGetMscale(f, mAll)
-            : yarnGetMscale(f);
+            ? yarnMscale(f, m) / yarnMscale(f, mAll)
+            : yarnMscale(f);
       return reading(inv, a, L);
     }
     case "llama3": {
       const L = need("original_max_position_embeddings");
       return reading(
-        llama3InvFreq(d, base, need("factor"), need("low_freq_factor"), need("high_freq_factor"), L),
+        llama3InvFreq(
+          d,
+          base,
+          need("factor"),
+          need("low_freq_factor"),
+          need("high_freq_factor"),
+          L,
+          RULES.llama3EqualFactors,
+        ),
         1,
         L,
       );
@@ -189,7 +200,8 @@ function read(config: Record<string, unknown>, artifact: TargetArtifact): Consum
       const long = maxModelLen > L;
       const factors = (long ? rp.long_factor : rp.short_factor) as number[];
       const explicit = long ? rp.long_mscale : rp.short_mscale;
-      const r = longropeReading(d, base, factors, maxPosition, L, typeof explicit === "number" ? explicit : undefined);
+      const given = typeof explicit === "number" ? explicit : undefined;
+      const r = longropeReading(d, base, factors, maxPosition / L, L, given, RULES.longropeLength);
       return reading(r.invFreq, r.attentionFactor, L);
     }
     default:

@@ -1,7 +1,17 @@
 import type { ConsumerReading } from "../types";
 import { rotaryDimension, type ConfigView, type Obj } from "./config-view";
 import { isObj, num } from "../../../../shared/json-values";
-import { defaultInvFreq, dynamicInvFreq, llama3InvFreq, longropeReading, mscaleOf, yarnInvFreq } from "./formulas";
+import {
+  CONSUMER_RULES,
+  dynamicInvFreq,
+  llama3InvFreq,
+  longropeReading,
+  plainInvFreq,
+  yarnInvFreq,
+  yarnMscale,
+} from "../consumer-rope";
+
+const RULES = CONSUMER_RULES.transformers;
 
 /**
  * How huggingface/transformers 4.x reads `rope_scaling` (src/transformers/modeling_rope_utils.py). Two rule sets:
@@ -32,7 +42,7 @@ export function readV4(view: ConfigView, rules: V4Rules, runningLength?: number)
     base: b,
     originalLength: null,
     method,
-    invFreq: defaultInvFreq(d, b),
+    invFreq: plainInvFreq(d, b),
     attentionFactor: 1,
     warnings,
   });
@@ -48,7 +58,7 @@ export function readV4(view: ConfigView, rules: V4Rules, runningLength?: number)
     case "default":
       return plain("default");
     case "linear":
-      return { ...plain("linear"), invFreq: defaultInvFreq(d, base).map((x) => x / f("factor")!) };
+      return { ...plain("linear"), invFreq: plainInvFreq(d, base).map((x) => x / f("factor")!) };
     case "dynamic": {
       const r = dynamicInvFreq(d, base, f("factor")!, maxPos, seqLen);
       return { ...plain("dynamic"), originalLength: maxPos, invFreq: r.invFreq };
@@ -64,12 +74,13 @@ export function readV4(view: ConfigView, rules: V4Rules, runningLength?: number)
       const expanded = topOriginal !== undefined ? maxPos : maxPos * factor;
       const useLong = rules === "early" ? expanded > original : seqLen > original;
       const ext = (useLong ? rs.long_factor : rs.short_factor) as number[];
-      const r = longropeReading(d, base, ext, factor, original, f("attention_factor"));
+      const r = longropeReading(d, base, ext, factor, original, f("attention_factor"), RULES.longropeLength);
       return { ...plain("longrope"), originalLength: original, ...r };
     }
     case "llama3": {
       const old = f("original_max_position_embeddings")!;
-      const inv = llama3InvFreq(d, base, f("factor")!, f("low_freq_factor")!, f("high_freq_factor")!, old);
+      const [low, high] = [f("low_freq_factor")!, f("high_freq_factor")!];
+      const inv = llama3InvFreq(d, base, f("factor")!, low, high, old, RULES.llama3EqualFactors);
       return { ...plain("llama3"), originalLength: old, invFreq: inv };
     }
     default:
@@ -87,10 +98,10 @@ function readYarn(rs: Obj, rules: V4Rules, d: number, base: number, maxPos: numb
     if (blockOriginal !== undefined) [original, factor] = [blockOriginal, maxPos / blockOriginal];
     const [m, mAll] = [num(rs.mscale), num(rs.mscale_all_dim)];
     if (attention === undefined)
-      attention = m && mAll ? mscaleOf(factor, m) / mscaleOf(factor, mAll) : mscaleOf(factor);
+      attention = m && mAll ? yarnMscale(factor, m) / yarnMscale(factor, mAll) : yarnMscale(factor);
     truncate = rs.truncate === undefined ? true : Boolean(rs.truncate);
   } else {
-    attention ??= mscaleOf(factor, 1, false);
+    attention ??= yarnMscale(factor, 1, false);
   }
   const betaFast = num(rs.beta_fast) || 32; // `or 32`: 0 and null fall back too
   const betaSlow = num(rs.beta_slow) || 1;

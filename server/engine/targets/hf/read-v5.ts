@@ -2,7 +2,17 @@ import type { ConsumerReading } from "../types";
 import type { JsonPath } from "../json-text";
 import { rotaryDimension, type ConfigView, type Obj } from "./config-view";
 import { isObj, num } from "../../../../shared/json-values";
-import { defaultInvFreq, dynamicInvFreq, llama3InvFreq, longropeReading, mscaleOf, yarnInvFreq } from "./formulas";
+import {
+  CONSUMER_RULES,
+  dynamicInvFreq,
+  llama3InvFreq,
+  longropeReading,
+  plainInvFreq,
+  yarnInvFreq,
+  yarnMscale,
+} from "../consumer-rope";
+
+const RULES = CONSUMER_RULES.transformers;
 
 /**
  * How huggingface/transformers 5.x reads the `rope_parameters` layout (src/transformers/modeling_rope_utils.py,
@@ -74,7 +84,7 @@ function readGroup(cfg: Obj, dict: Obj, maxPos: number, seqLen: number, warnings
   const f = (k: string) => num(dict[k]);
   const r = (
     method: string,
-    invFreq = defaultInvFreq(d, base),
+    invFreq = plainInvFreq(d, base),
     attentionFactor = 1,
     originalLength: number | null = null,
   ): ConsumerReading => ({
@@ -93,14 +103,15 @@ function readGroup(cfg: Obj, dict: Obj, maxPos: number, seqLen: number, warnings
     case "linear":
       return r(
         "linear",
-        defaultInvFreq(d, base).map((x) => x / f("factor")!),
+        plainInvFreq(d, base).map((x) => x / f("factor")!),
       );
     case "dynamic":
       return r("dynamic", dynamicInvFreq(d, base, f("factor")!, maxPos, seqLen).invFreq, 1, maxPos);
     case "yarn": {
       const factor = f("factor") ?? maxPos / original;
       const [m, mAll] = [f("mscale"), f("mscale_all_dim")];
-      const a = f("attention_factor") ?? (m && mAll ? mscaleOf(factor, m) / mscaleOf(factor, mAll) : mscaleOf(factor));
+      const a =
+        f("attention_factor") ?? (m && mAll ? yarnMscale(factor, m) / yarnMscale(factor, mAll) : yarnMscale(factor));
       const truncate = dict.truncate === undefined ? true : Boolean(dict.truncate);
       const inv = yarnInvFreq({
         d,
@@ -116,13 +127,21 @@ function readGroup(cfg: Obj, dict: Obj, maxPos: number, seqLen: number, warnings
     case "longrope": {
       const factor = f("factor") ?? maxPos / original;
       const ext = (seqLen > original ? dict.long_factor : dict.short_factor) as number[];
-      const lr = longropeReading(d, base, ext, factor, original, f("attention_factor"));
+      const lr = longropeReading(d, base, ext, factor, original, f("attention_factor"), RULES.longropeLength);
       return r("longrope", lr.invFreq, lr.attentionFactor, original);
     }
     case "llama3":
       return r(
         "llama3",
-        llama3InvFreq(d, base, f("factor")!, f("low_freq_factor")!, f("high_freq_factor")!, original),
+        llama3InvFreq(
+          d,
+          base,
+          f("factor")!,
+          f("low_freq_factor")!,
+          f("high_freq_factor")!,
+          original,
+          RULES.llama3EqualFactors,
+        ),
         1,
         original,
       );

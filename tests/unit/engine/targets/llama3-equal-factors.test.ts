@@ -1,6 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { llama3InvFreq as hfLlama3 } from "../../../../server/engine/targets/hf/formulas";
-import { llama3InvFreq as engineLlama3 } from "../../../../server/engine/targets/engines/engine-rope";
+import { CONSUMER_RULES, llama3InvFreq } from "../../../../server/engine/targets/consumer-rope";
 import { TARGETS } from "../../../../server/engine/targets";
 import { LLAMA_LIKE } from "./helpers";
 
@@ -23,6 +22,11 @@ const factor = 8;
 // θᵢ = 1 / b^(2i/d), written in the order both consumers compute it (1.0 / base ** (arange(0, d, 2) / d)).
 const theta = (i: number) => 1 / Math.pow(base, (2 * i) / d);
 const wave = (i: number) => (2 * Math.PI) / theta(i);
+// The one formula set with each consumer's rule (server/engine/targets/consumer-rope.ts, CONSUMER_RULES).
+const hfLlama3 = (...a: [number, number, number, number, number, number]) =>
+  llama3InvFreq(...a, CONSUMER_RULES.transformers.llama3EqualFactors);
+const engineLlama3 = (...a: [number, number, number, number, number, number]) =>
+  llama3InvFreq(...a, CONSUMER_RULES.vllm.llama3EqualFactors);
 
 describe("llama3 with equal low and high factors", () => {
   it("on an integer original length no pair sits on the edge: both copies give the published two-band rule", () => {
