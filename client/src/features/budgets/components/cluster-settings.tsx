@@ -4,7 +4,7 @@ import { formatBytes, formatMoney, sig3, TFLOPS } from "@/lib/format";
 import { EXAMPLE_CLUSTER, type ClusterDraft, type Convention, type SettingsDraft } from "../lib/sheet-draft";
 import { Radio } from "./radio";
 import { MemorySettings } from "./memory-settings";
-import { SheetInput } from "./sheet-input";
+import { SheetFieldRow, type SheetField } from "./sheet-input";
 import { ChoiceField } from "@/components/field";
 
 type Issues = Record<string, string>;
@@ -26,6 +26,44 @@ const CONVENTION_LABELS: Record<Convention, string> = {
   full: "Full (every position attends to the whole sequence)",
 };
 
+/** A custom accelerator's figures, in the units people quote; request issues name the request's fields. */
+const customFigures = (currency: string | undefined): SheetField<ClusterDraft>[] => [
+  {
+    field: "peakTflops",
+    label: "Dense peak",
+    unit: "TFLOP/s",
+    issueKeys: ["cluster.peakFlops"],
+    hint: "At the training precision, no sparsity",
+  },
+  { field: "memoryGib", label: "Memory per accelerator", unit: "GiB", issueKeys: ["cluster.memoryBytes"] },
+  {
+    field: "pricePerHour",
+    label: "Price per accelerator-hour",
+    issueKeys: ["cluster.pricePerHour"],
+    hint: currency ? `In ${currency}, the workspace currency` : "In the workspace currency",
+  },
+];
+
+const RUN_FIGURES: SheetField<SettingsDraft>[] = [
+  { field: "accelerators", label: "Accelerators", hint: "Across the whole run" },
+  {
+    field: "utilization",
+    label: "Model FLOPs utilisation",
+    placeholder: "0.4",
+    hint: "Blank: 0.4, an assumed figure (common practice, no source); ignored with a measured throughput",
+  },
+  {
+    field: "measuredTokensPerSecond",
+    label: "Measured tokens/s per accelerator",
+    hint: "From a real step: utilisation is then derived, not assumed",
+  },
+  {
+    field: "measuredSequenceLength",
+    label: "Measured at sequence length",
+    hint: "Blank: the first stage's length",
+  },
+];
+
 /** Which accelerators, how many, and the conventions the figures rest on. */
 export function ClusterSettings({
   cluster,
@@ -39,7 +77,6 @@ export function ClusterSettings({
   onSettings,
 }: Props) {
   const uid = useId();
-  const set = (field: keyof SettingsDraft) => (text: string) => onSettings({ ...settings, [field]: text });
   const picked = accelerators.find((a) => String(a.id) === cluster.acceleratorId);
   // Retired accelerators leave the picker, except the one already chosen, so a link or a draft still names it.
   const offered = accelerators.filter((a) => !a.retiredAt || a === picked);
@@ -78,30 +115,13 @@ export function ClusterSettings({
             }
           />
         ) : (
-          <div className="grid gap-3 sm:grid-cols-3">
-            <SheetInput
-              label="Dense peak"
-              unit="TFLOP/s"
-              value={cluster.peakTflops}
-              onChange={(t) => onCluster({ ...cluster, peakTflops: t })}
-              error={issues["cluster.peakFlops"]}
-              hint="At the training precision, no sparsity"
-            />
-            <SheetInput
-              label="Memory per accelerator"
-              unit="GiB"
-              value={cluster.memoryGib}
-              onChange={(t) => onCluster({ ...cluster, memoryGib: t })}
-              error={issues["cluster.memoryBytes"]}
-            />
-            <SheetInput
-              label="Price per accelerator-hour"
-              value={cluster.pricePerHour}
-              onChange={(t) => onCluster({ ...cluster, pricePerHour: t })}
-              error={issues["cluster.pricePerHour"]}
-              hint={currency ? `In ${currency}, the workspace currency` : "In the workspace currency"}
-            />
-          </div>
+          <SheetFieldRow
+            className="grid gap-3 sm:grid-cols-3"
+            fields={customFigures(currency)}
+            draft={cluster}
+            onChange={onCluster}
+            issues={issues}
+          />
         )}
         {cluster.kind === "custom" &&
           (["peakTflops", "memoryGib", "pricePerHour"] as const).every((k) => cluster[k] === EXAMPLE_CLUSTER[k]) && (
@@ -126,37 +146,13 @@ export function ClusterSettings({
             {picked.notes ? ` — ${picked.notes}` : ""}
           </p>
         )}
-        <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
-          <SheetInput
-            label="Accelerators"
-            value={settings.accelerators}
-            onChange={set("accelerators")}
-            error={issues.accelerators}
-            hint="Across the whole run"
-          />
-          <SheetInput
-            label="Model FLOPs utilisation"
-            value={settings.utilization}
-            onChange={set("utilization")}
-            error={issues.utilization}
-            placeholder="0.4"
-            hint="Blank: 0.4, an assumed figure (common practice, no source); ignored with a measured throughput"
-          />
-          <SheetInput
-            label="Measured tokens/s per accelerator"
-            value={settings.measuredTokensPerSecond}
-            onChange={set("measuredTokensPerSecond")}
-            error={issues.measuredTokensPerSecond}
-            hint="From a real step: utilisation is then derived, not assumed"
-          />
-          <SheetInput
-            label="Measured at sequence length"
-            value={settings.measuredSequenceLength}
-            onChange={set("measuredSequenceLength")}
-            error={issues.measuredSequenceLength}
-            hint="Blank: the first stage's length"
-          />
-        </div>
+        <SheetFieldRow
+          className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4"
+          fields={RUN_FIGURES}
+          draft={settings}
+          onChange={onSettings}
+          issues={issues}
+        />
       </fieldset>
 
       <fieldset className="flex flex-col gap-2" disabled={disabled}>

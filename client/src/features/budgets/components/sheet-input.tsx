@@ -54,3 +54,43 @@ export function CellInput({
     </div>
   );
 }
+
+/** The draft's fields that hold text as typed (not the radio choices), so a row of boxes can edit them. */
+type TextKey<D> = { [K in keyof D]: string extends D[K] ? K : never }[keyof D] & string;
+
+/** One box of a SheetFieldRow: the draft field it edits, and its words. */
+export type SheetField<D> = {
+  field: TextKey<D>;
+  label: string;
+  unit?: string;
+  hint?: string;
+  placeholder?: string;
+  /** Request fields whose issue shows under the box, the first that has one; default: the field itself. */
+  issueKeys?: string[];
+};
+
+type SheetFieldRowProps<D> = {
+  fields: SheetField<D>[];
+  draft: D;
+  onChange: (next: D) => void;
+  issues: Record<string, string>;
+  /** The grid the boxes sit in. */
+  className: string;
+};
+
+/** A grid of labelled number boxes over one draft object: each box edits its field and shows its field's issue. */
+export function SheetFieldRow<D>({ fields, draft, onChange, issues, className }: SheetFieldRowProps<D>) {
+  return (
+    <div className={className}>
+      {fields.map(({ field, issueKeys = [field], ...words }) => (
+        <SheetInput
+          key={field}
+          {...words}
+          value={draft[field] as string}
+          onChange={(text) => onChange({ ...draft, [field]: text })}
+          error={issueKeys.map((k) => issues[k]).find((e) => e !== undefined)}
+        />
+      ))}
+    </div>
+  );
+}

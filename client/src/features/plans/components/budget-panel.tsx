@@ -1,11 +1,9 @@
 import { isBudgetV2, type RevisionBudget, type RevisionBudgetV2 } from "@shared/schemas/budget";
 import type { RevisionBudgetV1 } from "@shared/schemas/budget-v1";
 import { Notice } from "@/components/notice";
-import { formatBytes, formatCount, formatHours, formatMoney, formatScientific, sig3 } from "@/lib/format";
-import { FramedTable } from "@/components/framed-table";
+import { formatBytes, formatCount, formatMoney, formatScientific, sig3 } from "@/lib/format";
 import { BudgetPanelV1 } from "./budget-panel-v1";
-
-const cell = "px-3 py-2";
+import { FrozenStageTable } from "./frozen-stage-table";
 const see = (id: string, label: string) => (
   <a className="underline decoration-dotted" href={`#frozen-convention-${id}`}>
     {label}
@@ -39,68 +37,36 @@ function BudgetPanelV2({ budget }: { budget: RevisionBudgetV2 }) {
           At least one stage needs more memory per accelerator than the cluster has; see the stage rows.
         </Notice>
       )}
-      <FramedTable
-        caption="Budget per stage"
-        head={
+      <FrozenStageTable
+        stages={estimate.stages}
+        totals={estimate.totals}
+        heads={{
+          tokens: see("tokens", "Tokens"),
+          flops: see("flops", "FLOPs"),
+          acceleratorHours: see("utilisation", "Accelerator-hours"),
+          cost: see("cost", `Cost (${currency})`),
+          memory: see("activations", "Memory per accelerator"),
+          fits: see("fit", "Fits"),
+        }}
+        money={money}
+        memory={({ trainingMemory: m }) => (
           <>
-            <th scope="col">Stage</th>
-            <th scope="col">{see("tokens", "Tokens")}</th>
-            <th scope="col">{see("flops", "FLOPs")}</th>
-            <th scope="col">{see("utilisation", "Accelerator-hours")}</th>
-            <th scope="col">Wall clock</th>
-            <th scope="col">{see("cost", `Cost (${currency})`)}</th>
-            <th scope="col">{see("activations", "Memory per accelerator")}</th>
-            <th scope="col">{see("fit", "Fits")}</th>
+            {formatBytes(m.total)}
+            <span className="block text-note text-ink-soft">
+              states {formatBytes(m.modelStates)}, checkpoints {formatBytes(m.activationCheckpoints)}, workspace{" "}
+              {formatBytes(m.recomputeWorkspace)}, logits {formatBytes(m.logits)}
+            </span>
           </>
+        )}
+        fitHint={({ fitChange }) =>
+          fitChange && (
+            <span className="block text-note">
+              fits with {fitChange.activationCheckpointing} checkpointing, context parallelism{" "}
+              {fitChange.contextParallel}, loss chunks {fitChange.lossChunks}
+            </span>
+          )
         }
-        foot={
-          <tr>
-            <th scope="row" className={cell}>
-              Total
-            </th>
-            <td className={cell}>{formatCount(estimate.totals.tokens)}</td>
-            <td className={cell}>{formatScientific(estimate.totals.flops)}</td>
-            <td className={cell}>{formatHours(estimate.totals.acceleratorHours)}</td>
-            <td className={cell}>{formatHours(estimate.totals.wallClockHours)}</td>
-            <td className={cell}>{money(estimate.totals.cost)}</td>
-            <td className={cell} colSpan={2} />
-          </tr>
-        }
-      >
-        {estimate.stages.map((s) => (
-          <tr key={s.index} className="border-t border-rule/70 align-top">
-            <th scope="row" className={`${cell} font-medium`}>
-              {s.index + 1}
-            </th>
-            <td className={cell}>{formatCount(s.tokens)}</td>
-            <td className={cell}>{formatScientific(s.flops)}</td>
-            <td className={cell}>{formatHours(s.acceleratorHours)}</td>
-            <td className={cell}>{formatHours(s.wallClockHours)}</td>
-            <td className={cell}>{money(s.cost)}</td>
-            <td className={cell}>
-              {formatBytes(s.trainingMemory.total)}
-              <span className="block text-note text-ink-soft">
-                states {formatBytes(s.trainingMemory.modelStates)}, checkpoints{" "}
-                {formatBytes(s.trainingMemory.activationCheckpoints)}, workspace{" "}
-                {formatBytes(s.trainingMemory.recomputeWorkspace)}, logits {formatBytes(s.trainingMemory.logits)}
-              </span>
-            </td>
-            <td className={cell}>
-              {s.fits ? (
-                <span className="text-seaglass-dark">fits</span>
-              ) : (
-                <span className="font-semibold text-signal-dark">does not fit</span>
-              )}
-              {!s.fits && s.fitChange && (
-                <span className="block text-note">
-                  fits with {s.fitChange.activationCheckpointing} checkpointing, context parallelism{" "}
-                  {s.fitChange.contextParallel}, loss chunks {s.fitChange.lossChunks}
-                </span>
-              )}
-            </td>
-          </tr>
-        ))}
-      </FramedTable>
+      />
       <ul className="flex flex-col gap-1 text-note text-ink-soft" data-testid="frozen-conventions">
         {a.conventions.map((c) => (
           <li key={c.id} id={`frozen-convention-${c.id}`}>
