@@ -78,24 +78,38 @@ class AutoConfig:
         return _Config(values)
 `;
 
-const MODELING_LLAMA = `
+/** A model module whose rotary class computes plain RoPE, as each model file does in the newer releases. */
+const modeling = (className: string) => `
 from transformers.modeling_rope_utils import _default
 
-class LlamaRotaryEmbedding:
+class ${className}RotaryEmbedding:
     compute_default_rope_parameters = staticmethod(_default)
 `;
 
-/** Writes the stand-in package into a fresh folder and returns the folder to put on PYTHONPATH. */
-export function writeStandIn(flavour: StandInFlavour): string {
+/** "windowed_test" → "WindowedTest", the class-name prefix a model file uses. */
+const classPrefix = (modelType: string) =>
+  modelType
+    .split("_")
+    .map((w) => w.charAt(0).toUpperCase() + w.slice(1))
+    .join("");
+
+/**
+ * Writes the stand-in package into a fresh folder and returns the folder to put on PYTHONPATH. `modelTypes` are the
+ * model modules it carries (`transformers.models.<type>.modeling_<type>`), each with its rotary class.
+ */
+export function writeStandIn(flavour: StandInFlavour, modelTypes: readonly string[] = ["llama"]): string {
   const root = mkdtempSync(path.join(tmpdir(), `rw-probe-${flavour}-`));
   const pkg = path.join(root, "transformers");
-  mkdirSync(path.join(pkg, "models", "llama"), { recursive: true });
+  mkdirSync(path.join(pkg, "models"), { recursive: true });
   writeFileSync(path.join(pkg, "__init__.py"), INIT(flavour));
   const utils = flavour === "v4" ? `${ROPE_UTILS}\nROPE_INIT_FUNCTIONS["default"] = _default\n` : ROPE_UTILS;
   writeFileSync(path.join(pkg, "modeling_rope_utils.py"), utils);
   writeFileSync(path.join(pkg, "models", "__init__.py"), "");
-  writeFileSync(path.join(pkg, "models", "llama", "__init__.py"), "");
-  writeFileSync(path.join(pkg, "models", "llama", "modeling_llama.py"), MODELING_LLAMA);
+  for (const type of modelTypes) {
+    mkdirSync(path.join(pkg, "models", type));
+    writeFileSync(path.join(pkg, "models", type, "__init__.py"), "");
+    writeFileSync(path.join(pkg, "models", type, `modeling_${type}.py`), modeling(classPrefix(type)));
+  }
   return root;
 }
 
