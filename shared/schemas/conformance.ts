@@ -9,7 +9,37 @@ import { dbIdSchema, SHA256_HEX } from "./common";
 const hex64 = z.string().regex(SHA256_HEX, "64 lower-case hex digits (a SHA-256)");
 const text = (max: number) => z.string().trim().min(1).max(max);
 
-/** One probe result, as the probe writes it; unknown keys are dropped. */
+const rotaryDimSchema = z
+  .number()
+  .int()
+  .min(2)
+  .max(8192)
+  .refine((d) => d % 2 === 0, "an even number");
+const invFreqSchema = z.array(z.number().finite().positive()).min(1).max(4096);
+const pairsMatch = { path: ["invFreq"], message: "needs rotaryDim / 2 frequencies" };
+
+/**
+ * One layer type's reading, when the config nests rope_parameters by layer type (transformers 5.x): the layers that
+ * rotate with it (indices into layer_types) and what the library built for them.
+ */
+export const probeGroupSchema = z
+  .object({
+    layerType: text(80),
+    layers: z.array(z.number().int().min(0).max(9999)).min(1).max(10000),
+    ropeType: text(40),
+    readFrom: z.string().max(160).optional(),
+    rotaryDim: rotaryDimSchema,
+    attentionFactor: z.number().finite().positive(),
+    invFreq: invFreqSchema,
+  })
+  .refine((g) => g.invFreq.length * 2 === g.rotaryDim, pairsMatch);
+export type ProbeGroup = z.infer<typeof probeGroupSchema>;
+
+/**
+ * One probe result, as the probe writes it; unknown keys are dropped. A layered config's result adds `layerGroups`
+ * (every layer type, in first-layer order; the top-level reading is the scaled group's), and its readFingerprint
+ * hashes one record per group (docs/fingerprint.md).
+ */
 export const probeResultSchema = z
   .object({
     probe: z.literal("ropewalk-probe/1", {
@@ -26,21 +56,19 @@ export const probeResultSchema = z
       .int()
       .positive()
       .max(2 ** 31 - 1),
-    rotaryDim: z
-      .number()
-      .int()
-      .min(2)
-      .max(8192)
-      .refine((d) => d % 2 === 0, "an even number"),
+    rotaryDim: rotaryDimSchema,
     attentionFactor: z.number().finite().positive(),
-    invFreq: z.array(z.number().finite().positive()).min(1).max(4096),
+    invFreq: invFreqSchema,
     planFingerprint: hex64.nullable(),
     readFingerprint: hex64,
+    layerGroups: z
+      .array(probeGroupSchema)
+      .min(1)
+      .max(16)
+      .refine((gs) => new Set(gs.map((g) => g.layerType)).size === gs.length, "one entry per layer type")
+      .optional(),
   })
-  .refine((r) => r.invFreq.length * 2 === r.rotaryDim, {
-    path: ["invFreq"],
-    message: "needs rotaryDim / 2 frequencies",
-  });
+  .refine((r) => r.invFreq.length * 2 === r.rotaryDim, pairsMatch);
 export type ProbeResult = z.infer<typeof probeResultSchema>;
 
 /** A recorded check: pass when every θ′ and the attention factor agree with the revision's at float32 tolerance. */

@@ -77,7 +77,7 @@ describe("probe: what it reads and writes", () => {
     expect(at(16384)).toBeLessThan(at(8192));
   });
 
-  it("a layer-typed rope_parameters needs --layer-type and then reads that entry", () => {
+  it("rope_parameters nested without layer_types needs --layer-type and then reads that entry", () => {
     const cfg = {
       ...LLAMA_LIKE,
       rope_parameters: {
@@ -87,7 +87,9 @@ describe("probe: what it reads and writes", () => {
     };
     const refused = runProbe(["--config", writeConfig(cfg), "--length", "4096"], writeStandIn("v5"));
     expect(refused.status).toBe(2);
-    expect(refused.stderr).toMatch(/nested by layer type .*--layer-type/);
+    expect(refused.stderr).toMatch(
+      /nested \(full_attention, sliding_attention\) but not by the config's layer_types: pass --layer-type/,
+    );
     const out = probeJson(cfg, "v5", ["--length", "4096", "--layer-type", "full_attention"]);
     expect(out).toMatchObject({ ropeType: "linear", readFrom: "rope_parameters.full_attention" });
     expect(out.invFreq[1]).toBeCloseTo(1000000 ** (-2 / 64) / 8, 15);

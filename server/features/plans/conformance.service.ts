@@ -10,7 +10,7 @@ import { engineMethod } from "../../../shared/lineage";
 
 /**
  * Records a probe result as a conformance check on revision n: compared with the revision's own θ′ and attention
- * factor, written with its audit event in one transaction (the revision row locked, so a draft edit cannot slip
+ * factor (every rotating layer group of a layered revision), written with its audit event in one transaction (the revision row locked, so a draft edit cannot slip
  * between the comparison and the record).
  */
 export async function recordCheck(
@@ -25,7 +25,8 @@ export async function recordCheck(
     await mustPlan(tx, planId);
     const rev = await mustRevision(tx, planId, n, true);
     const content = rev.content as RevisionContent;
-    const rotary = revisionRotary(content.model, content.targetContext, engineMethod(content, content.method));
+    const method = engineMethod(content, content.method);
+    const rotary = revisionRotary(content.model, content.targetContext, method, content.groupMethods);
     const result = compareProbe(rotary, probe);
     // Whether the probe was pointed at this revision (the fingerprint the plan page's probe command carries).
     const fingerprintMatches = probe.planFingerprint === null ? null : probe.planFingerprint === fingerprintOfRow(rev);

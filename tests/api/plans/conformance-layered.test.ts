@@ -114,7 +114,12 @@ describe("a probe run on a layered plan's transformers-v5 export is accepted", (
     const researcher = await agentAs(["researcher"]);
     const approver = await agentAs(["approver"]);
     // Full layers: base 1e6, original 32 768 (from the shipped yarn block), linear ×4 to 131 072; local base 1e4.
-    const { planId, rev, config } = await approvedLayeredPlan(researcher, approver, "nested-rope-parameters.json", 131072);
+    const { planId, rev, config } = await approvedLayeredPlan(
+      researcher,
+      approver,
+      "nested-rope-parameters.json",
+      131072,
+    );
     const out = probeOn(config, 131072, rev.rotaryFingerprint!);
     expect(out.layerGroups.map((g) => [g.layerType, g.ropeType, g.rotaryDim, g.layers])).toEqual([
       ["sliding_attention", "default", 128, [0, 1, 2, 4, 5, 6]],
@@ -126,7 +131,9 @@ describe("a probe run on a layered plan's transformers-v5 export is accepted", (
     expect(r.body.maxRelativeError).toBeLessThanOrEqual(1e-12);
     // the server's own fingerprint code agrees with the probe's byte layout over the probe's numbers
     expect(out.readFingerprint).toBe(
-      rotaryFingerprint(out.layerGroups.map((g) => ({ rotaryDim: g.rotaryDim, attentionFactor: 1, invFreq: g.invFreq }))),
+      rotaryFingerprint(
+        out.layerGroups.map((g) => ({ rotaryDim: g.rotaryDim, attentionFactor: 1, invFreq: g.invFreq })),
+      ),
     );
   });
 });
@@ -151,7 +158,9 @@ describe("a layered revision is checked on every group", () => {
     expect(r.body.passed).toBe(false);
     // Every local pair reads θ/4 where the revision keeps θ: |θ/4 − θ| / θ = 3/4 (Chen et al. 2023 for θ/s).
     expect(r.body.maxRelativeError).toBeCloseTo(3 / 4, 12);
-    expect(r.body.cause).toMatch(/^the sliding_attention layers: pair \d+ turns at [\d.e-]+ rad\/token, the revision's at /);
+    expect(r.body.cause).toMatch(
+      /^the sliding_attention layers: pair \d+ turns at [\d.e-]+ rad\/token, the revision's at /,
+    );
     // the probe was aimed at this revision, but what it read is not the revision's
     expect(r.body.fingerprintMatches).toBe(true);
     expect(out.readFingerprint).not.toBe(rev.rotaryFingerprint);
@@ -174,5 +183,33 @@ describe("a layered revision is checked on every group", () => {
       "the probe read only the full_attention layers (--layer-type); the revision also rotates the " +
         "sliding_attention layers: run it without --layer-type",
     );
+  });
+});
+
+describe("a malformed layered probe result", () => {
+  it("is a 400 naming the group's field, and writes nothing", async () => {
+    const researcher = await agentAs(["researcher"]);
+    const approver = await agentAs(["approver"]);
+    const { planId, rev, config } = await approvedLayeredPlan(
+      researcher,
+      approver,
+      "nested-rope-parameters.json",
+      131072,
+    );
+    const out = probeOn(config, 131072, rev.rotaryFingerprint!);
+    const url = `/api/plans/${planId}/revisions/1/conformance-checks`;
+    const [local, full] = out.layerGroups;
+    const cases: [unknown[], string][] = [
+      [[{ ...local, invFreq: local.invFreq.slice(1) }, full], "layerGroups.0.invFreq"],
+      [[local, { ...full, layers: [] }], "layerGroups.1.layers"],
+      [[local, { ...local }], "layerGroups"],
+    ];
+    for (const [layerGroups, field] of cases) {
+      const r = await post(researcher, url, { ...out, layerGroups });
+      expect(r.status, field).toBe(400);
+      expect(Object.keys(r.body.error.fields ?? {}), field).toContain(field);
+    }
+    const list = await researcher.get(`/api/plans/${planId}/conformance-checks`).expect(200);
+    expect(list.body.checks).toHaveLength(0);
   });
 });
