@@ -11,8 +11,8 @@ import { exportForTargets, type TargetExport } from "./registry";
 
 /**
  * config.json as the open config format spells a profile, for models that were not imported from a file (and as the
- * base an imported file's own keys are laid over). hidden_size falls back to head_dim × heads, which is what
- * readers that ignore head_dim (the 4.4x rules) divide back.
+ * base an imported file's own keys are laid over). hidden_size falls back to head_dim × heads, so a reader that
+ * divides it back (a consumer that ignores head_dim) gets the same dimension.
  */
 export function configOfShape(m: ModelShape): Record<string, unknown> {
   const heads = m.attentionHeads ?? 1;

@@ -15,14 +15,16 @@ const RULES = CONSUMER_RULES.transformers;
 
 /**
  * How huggingface/transformers 4.x reads `rope_scaling` (src/transformers/modeling_rope_utils.py). Two rule sets:
- * - "early": the 4.4x line, read at commit 0044e3b (v4.45): yarn builds its ramp from `max_position_embeddings`,
- *   always floors/ceils the ramp ends, knows no `mscale`/`mscale_all_dim`/`truncate` and takes the attention factor
- *   from `attention_factor` or 0.1·ln(factor) + 1; the rotary dim is hidden_size // num_attention_heads (no head_dim);
- *   longrope reads the original length only from a top-level `original_max_position_embeddings`.
+ * - "early": the 4.4x line, read at commits 0044e3b and ef46806 (the latter on the 4.45 line): yarn builds its ramp
+ *   from `max_position_embeddings`, always floors/ceils the ramp ends, knows no `mscale`/`mscale_all_dim`/`truncate`
+ *   and takes the attention factor from `attention_factor` or 0.1·ln(factor) + 1; longrope reads the original length
+ *   only from a top-level `original_max_position_embeddings`. The rotary dim is `head_dim` when the config has one,
+ *   else hidden_size // num_attention_heads: ef46806 reads head_dim (transformers PR #32495, after 4.44), 0044e3b
+ *   did not (docs/export-targets.md, "head_dim in the 4.4x line").
  * - "v4": 4.55 onward (the gpt-oss release, which added `truncate`): yarn reads `original_max_position_embeddings`
  *   from the block and then uses factor = max_position_embeddings / original (the DeepSeek-V3 rule, 4.51+),
- *   `mscale`/`mscale_all_dim` give the attention factor, `truncate` (default true) rounds the ramp ends; head_dim is
- *   read when the config has it. Longrope still reads the top-level original length.
+ *   `mscale`/`mscale_all_dim` give the attention factor, `truncate` (default true) rounds the ramp ends; head_dim as
+ *   in "early". Longrope still reads the top-level original length.
  * Which release introduced which rule is in docs/export-targets.md with its sources.
  */
 export type V4Rules = "early" | "v4";
@@ -33,7 +35,9 @@ export function readV4(view: ConfigView, rules: V4Rules, runningLength?: number)
   const base = num(cfg.rope_theta) ?? 10000; // the config classes' default rope_theta (LlamaConfig: 10000.0)
   const heads = num(cfg.num_attention_heads) ?? 1;
   const hidden = num(cfg.hidden_size) ?? 0;
-  const headDim = rules === "v4" && num(cfg.head_dim) !== undefined ? num(cfg.head_dim)! : Math.floor(hidden / heads);
+  // getattr(config, "head_dim", hidden_size // num_attention_heads) in every `_compute_*` function from 4.45 on
+  // (modeling_rope_utils.py at ef46806; transformers PR #32495). A head_dim of null is not modelled (4.45 would fail).
+  const headDim = num(cfg.head_dim) ?? Math.floor(hidden / heads);
   const d = rotaryDimension(headDim, num(cfg.partial_rotary_factor) ?? 1);
   const maxPos = num(cfg.max_position_embeddings) ?? 2048;
   const rs: Obj | null = isObj(cfg.rope_scaling) ? cfg.rope_scaling : null;
