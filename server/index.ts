@@ -6,6 +6,7 @@ import { startOutboxWorker } from "./mailer/worker";
 import { createLogger } from "./logger";
 import { signingKey } from "./features/plans/signing";
 import { warmBoundPool } from "./features/bounds/bounds.pool";
+import { shutDown } from "./shutdown";
 
 /** Starts the HTTP server; resolves once it listens. Used by `npm start` and production. */
 export async function startServer(config = loadConfig()) {
@@ -28,13 +29,9 @@ export async function startServer(config = loadConfig()) {
     if (closing) return;
     closing = true;
     console.log(`\n${signal} received: finishing open requests, then stopping.`);
-    server.close();
-    server.closeIdleConnections();
-    setTimeout(() => server.closeAllConnections(), 5000).unref();
-    await mailWorker.stop();
-    await pool.end().catch(() => undefined);
-    await sessionPool.end().catch(() => undefined);
-    process.exit(0);
+    const late = await shutDown({ server, workers: { mail: mailWorker }, pools: { pool, sessionPool } });
+    if (late.length) console.error(`Stopped without waiting longer for: ${late.join(", ")}.`);
+    process.exit(late.length ? 1 : 0);
   };
   process.on("SIGTERM", () => void shutdown("SIGTERM"));
   process.on("SIGINT", () => void shutdown("SIGINT"));
