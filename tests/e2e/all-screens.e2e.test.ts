@@ -163,6 +163,8 @@ async function picture(page: Page, name: string) {
   await page.screenshot({
     path: path.join(SCREEN_DIR, `${name}.png`),
     animations: "disabled",
+    // A whole-page picture of a long screen can take a while on a busy runner.
+    timeout: 90_000,
     fullPage: true,
     ...(height > 4000 ? { clip: { x: 0, y: 0, width, height: 4000 } } : {}),
   });

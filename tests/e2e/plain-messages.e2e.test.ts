@@ -43,9 +43,8 @@ async function submitEveryForm(page: Page): Promise<string> {
     const submit = forms.nth(i).locator('button[type="submit"]').first();
     // A form whose button is hidden or held (busy, nothing to send) is left alone.
     if ((await submit.isVisible()) && (await submit.isEnabled()))
-      await submit.click({ timeout: 5_000 }).catch(() => undefined);
+      await submit.click({ timeout: 15_000 }).catch(() => undefined);
   }
-  await page.waitForTimeout(300);
   return page.locator("body").innerText();
 }
 
@@ -73,10 +72,15 @@ describe("empty forms answer in plain sentences", () => {
     for (const [url, sentences] of Object.entries(expected)) {
       await page.goto(`${server.url}${url}`);
       await page.locator("form").first().waitFor({ timeout: 20_000 });
-      const text = await submitEveryForm(page);
+      await submitEveryForm(page);
+      // The answers arrive as each form's check finishes; wait for every expected sentence before reading the screen.
+      for (const sentence of sentences)
+        await expect
+          .poll(() => page.locator("body").innerText(), { message: url, timeout: 20_000 })
+          .toContain(sentence);
+      const text = await page.locator("body").innerText();
       await screenshot(page, `plain-messages${url.replace(/\//g, "-")}`);
       expect(text.match(RAW_VALIDATOR_TEXT)?.[0] ?? null, url).toBeNull();
-      for (const sentence of sentences) expect(text, url).toContain(sentence);
     }
   }, 180_000);
 });

@@ -317,7 +317,7 @@ describe("plan workflow in a browser", () => {
       .poll(() => page.getByRole("region", { name: "Changed fields" }).textContent(), { timeout: 15_000 })
       .toContain("notes");
     await screenshot(page, "plans-diff");
-  }, 60_000);
+  }, 150_000);
 
   it("an approver reads the plan's audit trail", async () => {
     const page = await signedIn(approverA, `/audit?subjectType=plan&subjectId=${planId}`);
