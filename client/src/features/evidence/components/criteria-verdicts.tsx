@@ -58,7 +58,8 @@ export function CriteriaVerdicts({ verdicts, options, evidence }: Props) {
                 <span className="text-ink-soft"> · effective length {v.effectiveLength.toLocaleString("en-US")}</span>
               )}
             </p>
-            <p className="text-note text-ink-soft">{v.reason}</p>
+            {/* A holding criterion is said in full by the observed-against-threshold line; the others need the reason. */}
+            {v.status !== "pass" && <p className="text-note text-ink-soft">{v.reason}</p>}
             {v.evidenceIds.length > 0 && (
               <p className="text-note text-ink-soft">
                 Decided by {v.evidenceIds.map((id) => `${fileName(id)} (#${id})`).join(", ")}
