@@ -1,8 +1,8 @@
-import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser } from "playwright-core";
 import { downloadedText, launchBrowser, requireBuiltClient, screenshot } from "../setup/browser";
 import { startTestServer } from "../setup/server";
+import { importConfigThroughUi } from "../setup/import-config";
 import { signedInPages } from "../setup/signed-in";
 import { createTestUser, type TestUser } from "../setup/users";
 
@@ -11,8 +11,6 @@ import { createTestUser, type TestUser } from "../setup/users";
  * with base 1e6, trained 16 384) goes from its config.json through the import screen, a plan drafted in the form and
  * an approval, to an export whose local layers are exactly as trained.
  */
-const fixture = path.resolve(import.meta.dirname, "../fixtures/configs/sliding-full-local-base.json");
-
 let server: Awaited<ReturnType<typeof startTestServer>>;
 let browser: Browser;
 let researcher: TestUser;
@@ -46,20 +44,15 @@ describe("a layered model from import to an approved export", () => {
 
   it("imports the config: the preview shows the local and full layers apart, and the profile keeps them", async () => {
     const page = await signedIn(researcher, "/models/import");
-    await page.getByRole("heading", { level: 1, name: "Import a config.json" }).waitFor();
-    await page.getByLabel("config.json to import").setInputFiles(fixture);
-    const groups = page.getByTestId("profile-layer-groups");
-    await groups.waitFor();
-    const local = groups.locator('tr[data-kind="sliding_attention"]');
-    await expect.poll(() => local.textContent(), { timeout: 15_000 }).toContain("plain RoPE, unscaled");
-    expect(await local.textContent()).toContain("0–4, 6–10");
-    expect(await groups.locator('tr[data-kind="full_attention"]').textContent()).toContain("linear ×8");
-    await screenshot(page, "layouts-import-preview");
-
-    const form = page.getByRole("form", { name: "Imported profile" });
-    await form.getByLabel("Name", { exact: true }).fill(modelName);
-    await form.getByRole("button", { name: "Save profile" }).click();
-    await page.getByRole("heading", { level: 1, name: modelName }).waitFor();
+    await importConfigThroughUi(page, "sliding-full-local-base.json", modelName, async () => {
+      const groups = page.getByTestId("profile-layer-groups");
+      await groups.waitFor();
+      const local = groups.locator('tr[data-kind="sliding_attention"]');
+      await expect.poll(() => local.textContent(), { timeout: 15_000 }).toContain("plain RoPE, unscaled");
+      expect(await local.textContent()).toContain("0–4, 6–10");
+      expect(await groups.locator('tr[data-kind="full_attention"]').textContent()).toContain("linear ×8");
+      await screenshot(page, "layouts-import-preview");
+    });
     await page.getByTestId("profile-layer-groups").waitFor();
 
     // The workbench analyses one group at a time; it opens on the group plans scale (full attention, base 1e6).

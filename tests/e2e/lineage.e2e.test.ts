@@ -1,8 +1,8 @@
-import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser } from "playwright-core";
 import { downloadedText, launchBrowser, requireBuiltClient, screenshot } from "../setup/browser";
 import { startTestServer } from "../setup/server";
+import { importConfigThroughUi } from "../setup/import-config";
 import { signedInPages } from "../setup/signed-in";
 import { createTestUser, type TestUser } from "../setup/users";
 
@@ -12,8 +12,6 @@ import { createTestUser, type TestUser } from "../setup/users";
  * carries one block over the pre-trained length: 4 × 32768/8192 = 16 = 131072/8192 (the values of
  * tests/api/plans/lineage.test.ts; the loaders' reading is cited in shared/lineage.ts).
  */
-const fixture = path.resolve(import.meta.dirname, "../fixtures/configs/already-scaled-yarn.json");
-
 let server: Awaited<ReturnType<typeof startTestServer>>;
 let browser: Browser;
 let researcher: TestUser;
@@ -49,13 +47,7 @@ describe("an already-scaled model extended from its served length", () => {
 
   it("imports the config: the model page shows the pre-trained and the served length; the legends name it as shipped", async () => {
     const page = await signedIn(researcher, "/models/import");
-    await page.getByRole("heading", { level: 1, name: "Import a config.json" }).waitFor();
-    await page.getByLabel("config.json to import").setInputFiles(fixture);
-    const form = page.getByRole("form", { name: "Imported profile" });
-    await form.waitFor();
-    await form.getByLabel("Name", { exact: true }).fill(modelName);
-    await form.getByRole("button", { name: "Save profile" }).click();
-    await page.getByRole("heading", { level: 1, name: modelName }).waitFor();
+    await importConfigThroughUi(page, "already-scaled-yarn.json", modelName);
 
     const facts = page.getByTestId("profile-facts");
     const fact = (name: string) => facts.locator("dt", { hasText: name }).locator("xpath=following-sibling::dd[1]");
