@@ -1,4 +1,5 @@
-import { mropeBands, type MropeAxis } from "@shared/mrope-axes";
+import { mropeAxisSummary, mropeBands, type MropeAxis } from "@shared/mrope-axes";
+import { layerRuns } from "@/components/layer-groups-table";
 
 /** Multimodal sections of a profile: pairs per position axis, and whether they interleave. */
 export type Sections = { section: number[]; interleaved: boolean };
@@ -51,5 +52,26 @@ export function MropeStrip({
         );
       })}
     </g>
+  );
+}
+
+/**
+ * The strip in words: which pairs each position axis rotates. The chart is one image to assistive technology (its
+ * bands have no names of their own there), and the colours alone do not say where an interleaved band starts.
+ */
+export function MropeAxisList({ sections, pairs }: { sections: Sections; pairs: number }) {
+  const axes = mropeAxisSummary(sections.section, sections.interleaved, pairs);
+  return (
+    <ul
+      aria-label="Position axis of each pair"
+      className="flex flex-col gap-0.5 text-note text-ink-soft"
+      data-testid="mrope-axis-list"
+    >
+      {axes.map(({ axis, pairs: idx }) => (
+        <li key={axis} data-axis={axis}>
+          {`${AXIS_STYLE[axis].label}: ${idx.length} pair${idx.length === 1 ? "" : "s"} (${layerRuns(idx)})`}
+        </li>
+      ))}
+    </ul>
   );
 }

@@ -12,7 +12,7 @@ import { axisProps, ChartTooltip, FlagMarker, Legend, MARGIN, ReferenceLine, Swa
 import { BAND_STYLE, FLAG_IDS, FLAG_STYLE, INK, methodColour, TARGET_LINE, TRAINED_LINE } from "./palette";
 import { PairTooltipBody } from "./pair-tooltip";
 import { useWidth } from "./use-width";
-import { AXIS_STYLE, MropeStrip, STRIP_HEIGHT, type Sections } from "./mrope-strip";
+import { AXIS_STYLE, MropeAxisList, MropeStrip, STRIP_HEIGHT, type Sections } from "./mrope-strip";
 
 type SpectrumChartProps = {
   analysis: AnalysisResponse;
@@ -217,6 +217,7 @@ export function SpectrumChart({ analysis, methodIndex, height = 340, sections = 
             : []),
         ]}
       />
+      {sections && <MropeAxisList sections={sections} pairs={pairs.length} />}
     </div>
   );
 }
