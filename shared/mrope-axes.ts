@@ -10,6 +10,14 @@
  *   (mod 3) with j < 3·section[2] the width (T H W T H W … T T).
  */
 export const MROPE_AXES = ["temporal", "height", "width"] as const;
+
+/**
+ * The config keys that carry the sections, inside the scaling block of any rope_type: huggingface/transformers,
+ * src/transformers/models/qwen2_vl/configuration_qwen2_vl.py validates the block with `ignore_keys={"mrope_section"}`
+ * (v4.4x line, read through stored copies); `mrope_interleaved` is the interleaved layout's flag (from memory of the
+ * qwen3_vl configs). The import reads them there; the config exports keep them there.
+ */
+export const MROPE_KEYS = ["mrope_section", "mrope_interleaved"] as const;
 export type MropeAxis = (typeof MROPE_AXES)[number];
 
 /** The axis of each of `pairs` rotary pairs; null for a pair the sections do not reach (their sum falls short). */

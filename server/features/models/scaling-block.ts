@@ -3,14 +3,8 @@ import { COMMON_SCALING_KEYS, methodForRopeType } from "../../../shared/methods"
 import { ropeScalingKnownKeys, suggestKey } from "./rope-scaling-keys";
 import { scalingWarnings } from "./scaling-warnings";
 import { num, type Json, type Warn } from "./config-values";
-
-/**
- * Multimodal section keys sit in the scaling block of any rope_type: huggingface/transformers,
- * src/transformers/models/qwen2_vl/configuration_qwen2_vl.py validates with `ignore_keys={"mrope_section"}`
- * (v4.4x line, read through stored copies); `mrope_interleaved` is the interleaved layout's flag (from memory of
- * the qwen3_vl configs).
- */
-export const MROPE_KEYS = ["mrope_section", "mrope_interleaved"] as const;
+// Multimodal section keys sit in the scaling block of any rope_type (cited in shared/mrope-axes.ts).
+import { MROPE_KEYS } from "../../../shared/mrope-axes";
 
 /** rope_scaling keys that place the method rather than parametrise it: left out of the imported parameters. */
 const NOT_PARAMETERS: readonly string[] = [...COMMON_SCALING_KEYS.filter((k) => k !== "factor"), ...MROPE_KEYS];

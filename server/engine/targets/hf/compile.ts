@@ -4,6 +4,7 @@ import { CONFIG_FLOAT_KEYS, floatKeyTest } from "../float-keys";
 import { type Obj } from "./config-view";
 import { isObj } from "../../../../shared/json-values";
 import type { GroupRotary } from "../../group-rotary";
+import { MROPE_KEYS } from "../../../../shared/mrope-axes";
 
 /** Which rule set a config patch is written for (the matching readers are read-v4.ts and read-v5.ts). */
 export type HfRules = "early" | "v4" | "v5";
@@ -13,6 +14,19 @@ function clearStale(existing: unknown, block: Obj, keep: string[] = []): Obj {
   const out: Obj = {};
   if (isObj(existing)) for (const k of Object.keys(existing)) if (!(k in block) && !keep.includes(k)) out[k] = null;
   return { ...out, ...block };
+}
+
+/**
+ * The multimodal section keys a block carries (shared/mrope-axes.ts), or null. They are the model's, not the plan's:
+ * its attention layers read them on every forward pass (huggingface/transformers
+ * src/transformers/models/qwen2_vl/modeling_qwen2_vl.py at 00b676f8, Qwen2VLAttention.forward passes
+ * `self.rope_scaling["mrope_section"]` to apply_multimodal_rotary_pos_emb), so every patch keeps them.
+ */
+function sectionKeys(b: unknown): Obj | null {
+  if (!isObj(b)) return null;
+  const out: Obj = {};
+  for (const k of MROPE_KEYS) if (k in b) out[k] = b[k];
+  return Object.keys(out).length ? out : null;
 }
 
 interface Placed {
@@ -117,10 +131,15 @@ function placeYarn(
 /** The merge patch for the 4.x layout: `rope_scaling` beside a top-level `rope_theta`. */
 export function compileV4(input: CompileInput, rules: "early" | "v4"): CompileResult {
   const placed = place(input, rules);
+  const existing = input.config.rope_scaling;
+  const keep = [...MROPE_KEYS];
+  // A plan exported as plain RoPE (or a new base) removes the block, unless it carries multimodal sections: then it
+  // stays as a "default" block with its sections.
+  const block = placed.block ?? (sectionKeys(existing) ? { rope_type: "default" } : null);
   const patch: Obj = {
     rope_theta: placed.base,
     max_position_embeddings: placed.maxPos,
-    rope_scaling: placed.block === null ? null : clearStale(input.config.rope_scaling, placed.block),
+    rope_scaling: block === null ? null : clearStale(existing, block, keep),
   };
   if (placed.topOriginal !== undefined) patch.original_max_position_embeddings = placed.topOriginal;
   return result(patch, placed);
@@ -155,14 +174,18 @@ function groupBlock(input: CompileInput, g: GroupRotary): Obj {
 export function compileV5(input: CompileInput): CompileResult {
   const placed = place(input, "v5");
   const { config } = input;
-  const block: Obj = { ...(placed.block ?? { rope_type: "default" }), rope_theta: placed.base };
+  const existing = isObj(config.rope_parameters) ? config.rope_parameters : {};
+  // Sections a 4.x-layout config keeps in rope_scaling move into rope_parameters with the block, since the patch
+  // removes rope_scaling below (v5 reads them from rope_parameters: from memory of the v5 qwen2_vl config, not re-read).
+  const moved = sectionKeys(existing) ? null : sectionKeys(config.rope_scaling);
+  const block: Obj = { ...(placed.block ?? { rope_type: "default" }), rope_theta: placed.base, ...moved };
   const written = Array.isArray(config.layer_types) ? undefined : derivedLayerTypes(input.plan.groups);
   const layerTypes = [
     ...new Set((Array.isArray(config.layer_types) ? config.layer_types : (written ?? [])).map(String)),
   ];
-  const existing = isObj(config.rope_parameters) ? config.rope_parameters : {};
-  // partial_rotary_factor lives inside rope_parameters in v5 and is the model's, not the plan's: it is kept.
-  const keep = ["partial_rotary_factor"];
+  // partial_rotary_factor lives inside rope_parameters in v5 and is the model's, not the plan's: it is kept, as are
+  // the multimodal sections.
+  const keep = ["partial_rotary_factor", ...MROPE_KEYS];
   let rp: Obj;
   if (layerTypes.length) {
     const nested = layerTypes.every((t) => isObj(existing[t]));

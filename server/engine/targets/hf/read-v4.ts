@@ -1,6 +1,7 @@
 import type { ConsumerReading } from "../types";
 import { rotaryDimension, type ConfigView, type Obj } from "./config-view";
 import { isObj, num } from "../../../../shared/json-values";
+import { MROPE_KEYS } from "../../../../shared/mrope-axes";
 import {
   CONSUMER_RULES,
   dynamicInvFreq,
@@ -174,6 +175,9 @@ function validateV4(view: ConfigView, rs: Obj, type: string, rules: V4Rules, d: 
   }
   const received = new Set(Object.keys(rs));
   if (!received.has("rope_type") && received.delete("type")) received.add("rope_type");
+  // The multimodal config classes validate with ignore_keys={"mrope_section"} (…, "mrope_interleaved" in the qwen3
+  // line): models/qwen2_vl/configuration_qwen2_vl.py, v4.4x line, read through stored copies.
+  for (const k of MROPE_KEYS) received.delete(k);
   const missing = spec.required.filter((k) => !received.has(k));
   if (missing.length) throw new Error(`KeyError: Missing required keys in rope_scaling for '${type}': ${missing}`);
   const unused = [...received].filter((k) => !spec.required.includes(k) && !spec.optional.includes(k));

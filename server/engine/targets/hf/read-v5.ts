@@ -2,6 +2,7 @@ import type { ConsumerReading } from "../types";
 import type { JsonPath } from "../json-text";
 import { rotaryDimension, type ConfigView, type Obj } from "./config-view";
 import { isObj, num } from "../../../../shared/json-values";
+import { MROPE_KEYS } from "../../../../shared/mrope-axes";
 import {
   CONSUMER_RULES,
   dynamicInvFreq,
@@ -178,6 +179,8 @@ function validateV5(view: ConfigView, dict: Obj, path: JsonPath, ignorePartial: 
   }
   const received = new Set(Object.keys(dict));
   if (received.delete("type")) received.add("rope_type");
+  // Multimodal section keys are the model's, ignored by its config class's validation (see read-v4.ts).
+  for (const k of MROPE_KEYS) received.delete(k);
   if (ignorePartial) received.delete("partial_rotary_factor");
   const missing = spec.required.filter((k) => !received.has(k));
   if (missing.length) throw new Error(`KeyError: Missing required keys in rope_parameters for '${type}': ${missing}`);

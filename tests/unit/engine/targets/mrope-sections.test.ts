@@ -1,0 +1,63 @@
+import fs from "node:fs";
+import path from "node:path";
+import { describe, expect, it } from "vitest";
+import type { MethodParams } from "../../../../shared/schemas/analysis";
+import { TARGETS, applyMergePatch, exportForTargets, type TargetId } from "../../../../server/engine/targets";
+import { planInput } from "./helpers";
+
+/*
+ * A model with multimodal sections keeps them through every config.json export: its attention layers read the
+ * sections on every forward pass (huggingface/transformers src/transformers/models/qwen2_vl/modeling_qwen2_vl.py at
+ * 00b676f8, Qwen2VLAttention.forward: `apply_multimodal_rotary_pos_emb(…, self.rope_scaling["mrope_section"])`), so
+ * a patch that removes `rope_scaling` (a method exported as a new base) or leaves out its `mrope_section` breaks the
+ * model at its first step. The check is on the config.json after the merge patch (RFC 7396), as a loader reads it.
+ */
+const config = (n: string) =>
+  JSON.parse(fs.readFileSync(path.join(import.meta.dirname, "../../../fixtures/configs", n), "utf8")) as Record<
+    string,
+    unknown
+  >;
+const HF: TargetId[] = ["transformers-v4-early", "transformers-v4", "transformers-v5"];
+const METHODS: MethodParams[] = [
+  { method: "ntk" },
+  { method: "linear", factor: 4 },
+  { method: "yarn" },
+  { method: "default" },
+];
+const CASES = [
+  {
+    file: "mrope-sections-contiguous.json",
+    shape: { d: 128, base: 1e6, trained: 32768, target: 131072 },
+    keys: { mrope_section: [16, 24, 24] },
+  },
+  {
+    file: "mrope-sections-interleaved-bad-sum.json",
+    shape: { d: 128, base: 5e6, trained: 262144, target: 1048576 },
+    keys: { mrope_section: [24, 20, 16], mrope_interleaved: true },
+  },
+];
+
+/** The block a loader of that line reads the sections from, after the patch: rope_scaling (4.x), rope_parameters (v5). */
+function sectionsBlock(id: TargetId, merged: Record<string, unknown>) {
+  return (id === "transformers-v5" ? merged.rope_parameters : merged.rope_scaling) as Record<string, unknown> | null;
+}
+
+describe("multimodal sections survive every transformers export", () => {
+  for (const { file, shape, keys } of CASES) {
+    for (const id of HF) {
+      for (const method of METHODS) {
+        it(`${file} × ${id} × ${method.method}`, () => {
+          const cfg = config(file);
+          const [out] = exportForTargets(planInput(cfg, method, shape), [id]);
+          const merged = applyMergePatch(cfg, out.artifact!.content) as Record<string, unknown>;
+          const block = sectionsBlock(id, merged);
+          expect(block).toMatchObject(keys);
+          // the renamed spelling is gone, so a 4.x config class cannot rewrite the method back ("type" wins there)
+          expect(block).not.toHaveProperty("type");
+          expect(out.conformance.status, out.conformance.cause).toBe("exact");
+          expect(TARGETS[id].read(cfg, out.artifact!, shape.target).warnings).toEqual([]);
+        });
+      }
+    }
+  }
+});
