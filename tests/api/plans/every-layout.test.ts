@@ -154,6 +154,13 @@ describe("every rotary layout walks import → plan ×4 → approve → transfor
       factor: 4,
       rope_theta: row.scaled.ropeTheta,
     });
+    // Multimodal sections are the model's and stay with the block: its attention layers read them on every step
+    // (server/engine/targets/hf/compile.ts cites where); the v5 patch removes rope_scaling, so they move along.
+    const sections = (JSON.parse(fixture(row.file).toString()) as { rope_scaling?: Record<string, unknown> })
+      .rope_scaling?.mrope_section;
+    if (sections) {
+      expect(v5Block(row.file, artifact.content, row.scaled.kind)).toMatchObject({ mrope_section: sections });
+    }
     // Local groups exactly as trained: their base, no scaling keys at all.
     for (const g of row.unscaled) {
       expect(v5Block(row.file, artifact.content, g.kind)).toEqual({ rope_type: "default", rope_theta: g.ropeTheta });
