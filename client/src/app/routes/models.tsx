@@ -1,4 +1,3 @@
-import { useState } from "react";
 import { Link } from "react-router-dom";
 import { useQuery } from "@tanstack/react-query";
 import { Loading, Notice } from "@/components/notice";
@@ -9,7 +8,7 @@ import { canEditProfiles, ModelsTable } from "@/features/models";
 import { modelsQueries } from "@/lib/api/models";
 import { Pager } from "@/components/pager";
 import { SearchBox } from "@/components/search-box";
-import { useDebounced } from "@/lib/use-debounced";
+import { usePagedSearch } from "@/lib/use-paged-search";
 
 const PAGE_SIZE = 50;
 
@@ -18,10 +17,9 @@ const linkButton =
 
 export function ModelsRoute() {
   const user = useCurrentUser();
-  const [search, setSearch] = useState("");
-  const [page, setPage] = useState(1);
-  const q = useDebounced(search.trim(), 250);
-  const models = useQuery(modelsQueries.list({ q: q || undefined, page, pageSize: PAGE_SIZE }));
+  const paged = usePagedSearch(PAGE_SIZE);
+  const models = useQuery(modelsQueries.list(paged.query));
+  const pager = models.data && paged.pager(models.data);
   const canEdit = canEditProfiles(user.roles);
   return (
     <Page
@@ -43,15 +41,7 @@ export function ModelsRoute() {
       )}
       <Panel title="All profiles">
         <div className="mb-3 max-w-md">
-          <SearchBox
-            label="Find a profile"
-            value={search}
-            onChange={(text) => {
-              setSearch(text);
-              setPage(1);
-            }}
-            placeholder="part of a name"
-          />
+          <SearchBox label="Find a profile" {...paged.searchBox} placeholder="part of a name" />
         </div>
         {models.isPending ? (
           <Loading label="Loading profiles…" />
@@ -62,16 +52,7 @@ export function ModelsRoute() {
         ) : (
           <div className="flex flex-col gap-3">
             <ModelsTable models={models.data.models} />
-            {(models.data.total > models.data.pageSize || page > 1) && (
-              <Pager
-                page={models.data.page}
-                pageSize={models.data.pageSize}
-                total={models.data.total}
-                totalCapped={models.data.totalCapped}
-                onPage={setPage}
-                noun="Profiles"
-              />
-            )}
+            {pager && <Pager {...pager} noun="Profiles" />}
           </div>
         )}
       </Panel>

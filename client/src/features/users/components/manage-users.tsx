@@ -4,7 +4,7 @@ import type { User } from "@shared/schemas/users";
 import { Loading, Notice } from "@/components/notice";
 import { Pager } from "@/components/pager";
 import { SearchBox } from "@/components/search-box";
-import { useDebounced } from "@/lib/use-debounced";
+import { usePagedSearch } from "@/lib/use-paged-search";
 import { usersQueries } from "../api/queries";
 import { useUpdateUser } from "../api/update-user";
 import { RoleEditor } from "./role-editor";
@@ -17,25 +17,15 @@ const PAGE_SIZE = 50;
  * `onChanged` hears about every saved change (the page uses it to refresh the session when you edit yourself).
  */
 export function ManageUsers({ currentUserId, onChanged }: { currentUserId: number; onChanged?: (user: User) => void }) {
-  const [search, setSearch] = useState("");
-  const [page, setPage] = useState(1);
-  const q = useDebounced(search.trim(), 250);
-  const users = useQuery(usersQueries.list({ q: q || undefined, page, pageSize: PAGE_SIZE }));
+  const paged = usePagedSearch(PAGE_SIZE);
+  const users = useQuery(usersQueries.list(paged.query));
   const update = useUpdateUser();
   const [editing, setEditing] = useState<User | null>(null);
   const [message, setMessage] = useState<{ tone: "success" | "alert"; text: string } | null>(null);
 
   const searchBox = (
     <div className="max-w-md">
-      <SearchBox
-        label="Find a person"
-        value={search}
-        onChange={(text) => {
-          setSearch(text);
-          setPage(1);
-        }}
-        placeholder="part of a name or e-mail"
-      />
+      <SearchBox label="Find a person" {...paged.searchBox} placeholder="part of a name or e-mail" />
     </div>
   );
   if (users.isPending) return <Loading label="Loading users…" />;
@@ -46,6 +36,7 @@ export function ManageUsers({ currentUserId, onChanged }: { currentUserId: numbe
       </Notice>
     );
 
+  const pager = paged.pager(users.data);
   const setActive = (user: User, active: boolean) => {
     setMessage(null);
     update.mutate(
@@ -78,16 +69,7 @@ export function ManageUsers({ currentUserId, onChanged }: { currentUserId: numbe
         }}
         onSetActive={setActive}
       />
-      {(users.data.total > users.data.pageSize || page > 1) && (
-        <Pager
-          page={users.data.page}
-          pageSize={users.data.pageSize}
-          total={users.data.total}
-          totalCapped={users.data.totalCapped}
-          onPage={setPage}
-          noun="People"
-        />
-      )}
+      {pager && <Pager {...pager} noun="People" />}
     </div>
   );
 }
