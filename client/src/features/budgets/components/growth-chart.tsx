@@ -4,6 +4,7 @@ import { Group } from "@visx/group";
 import { scaleLinear, scaleLog } from "@visx/scale";
 import { Line, LinePath } from "@visx/shape";
 import type { BudgetEstimateResponse } from "@shared/schemas/budget";
+import { AXIS, powerOfTwoTicks } from "@/components/chart-axis";
 import { formatMoney, formatScientific } from "@/lib/format";
 import { formatLength } from "./chart-colors";
 
@@ -14,14 +15,6 @@ type Marker = { x: number; label: string };
 const WIDTH = 420;
 const HEIGHT = 240;
 const MARGIN = { top: 16, right: 16, bottom: 44, left: 72 };
-
-/** Powers of two inside [lo, hi], thinned to at most `max` ticks. */
-function powerOfTwoTicks(lo: number, hi: number, max = 6): number[] {
-  const ticks: number[] = [];
-  for (let p = 2 ** Math.ceil(Math.log2(lo)); p <= hi; p *= 2) ticks.push(p);
-  const step = Math.ceil(ticks.length / max);
-  return ticks.filter((_, i) => i % step === 0);
-}
 
 function LogLinePanel({
   title,
@@ -72,24 +65,14 @@ function LogLinePanel({
               <title>{`${formatLength(p.x)} tokens: ${yFormat(p.y)}`}</title>
             </circle>
           ))}
-          <AxisLeft
-            scale={y}
-            numTicks={4}
-            tickFormat={(v) => yFormat(Number(v))}
-            stroke="var(--color-rule-strong)"
-            tickStroke="var(--color-rule-strong)"
-            tickLabelProps={{ fill: "var(--color-ink-soft)", fontSize: 11 }}
-          />
+          <AxisLeft scale={y} numTicks={4} tickFormat={(v) => yFormat(Number(v))} {...AXIS} />
           <AxisBottom
             top={innerH}
             scale={x}
-            tickValues={powerOfTwoTicks(lo, hi)}
+            tickValues={powerOfTwoTicks(lo, hi, 6)}
             tickFormat={(v) => formatLength(Number(v))}
             label="Sequence length (tokens, log scale; k = 1024)"
-            labelProps={{ fill: "var(--color-ink-soft)", fontSize: 11, textAnchor: "middle" }}
-            stroke="var(--color-rule-strong)"
-            tickStroke="var(--color-rule-strong)"
-            tickLabelProps={{ fill: "var(--color-ink-soft)", fontSize: 11, textAnchor: "middle" }}
+            {...AXIS}
           />
         </Group>
       </svg>

@@ -3,6 +3,7 @@ import { Group } from "@visx/group";
 import { scaleBand, scaleLinear } from "@visx/scale";
 import { BarStackHorizontal } from "@visx/shape";
 import type { BudgetEstimateResponse } from "@shared/schemas/budget";
+import { AXIS } from "@/components/chart-axis";
 import { formatCount, formatHours } from "@/lib/format";
 import { stageColor } from "./chart-colors";
 
@@ -93,9 +94,7 @@ export function StageShareChart({ stages }: { stages: Stage[] }) {
             scale={xScale}
             numTicks={5}
             tickFormat={(v) => `${Math.round(Number(v) * 100)} %`}
-            stroke="var(--color-rule-strong)"
-            tickStroke="var(--color-rule-strong)"
-            tickLabelProps={{ fill: "var(--color-ink-soft)", fontSize: 11, textAnchor: "middle" }}
+            {...AXIS}
           />
         </Group>
       </svg>

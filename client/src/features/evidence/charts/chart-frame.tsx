@@ -1,12 +1,6 @@
 import type { ReactNode } from "react";
 import { ParentSize } from "@visx/responsive";
 
-export const AXIS = {
-  stroke: "var(--color-rule-strong)",
-  tickStroke: "var(--color-rule-strong)",
-  tickLabelProps: { fill: "var(--color-ink-soft)", fontSize: 11 },
-  labelProps: { fill: "var(--color-ink-soft)", fontSize: 11, textAnchor: "middle" as const },
-};
 export const TRAINED = "var(--color-ink)";
 export const TARGET = "var(--color-hemp)";
 export const TUNED = "var(--color-seaglass)";

@@ -1,15 +1,8 @@
 import { AxisBottom } from "@visx/axis";
 import { scaleLog } from "@visx/scale";
 import { Line } from "@visx/shape";
-import { AXIS, lengthLabel } from "./chart-frame";
-
-/** Powers of two from lo to hi, thinned to at most `max` ticks. */
-export function powerOfTwoTicks(lo: number, hi: number, max: number): number[] {
-  const ticks: number[] = [];
-  for (let p = 2 ** Math.ceil(Math.log2(lo)); p <= hi; p *= 2) ticks.push(p);
-  const step = Math.ceil(ticks.length / Math.max(1, max));
-  return ticks.filter((_, i) => i % step === 0);
-}
+import { AXIS, powerOfTwoTicks } from "@/components/chart-axis";
+import { lengthLabel } from "./chart-frame";
 
 /** A log2 length scale covering the measured lengths and the marked ones, padded a little either side. */
 export function lengthScale(values: number[], innerW: number) {
@@ -37,7 +30,6 @@ export function LengthAxis({
       tickFormat={(v) => lengthLabel(Number(v))}
       label="context length (tokens, log scale)"
       {...AXIS}
-      tickLabelProps={{ ...AXIS.tickLabelProps, textAnchor: "middle" }}
     />
   );
 }

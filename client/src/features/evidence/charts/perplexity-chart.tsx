@@ -4,7 +4,8 @@ import { Group } from "@visx/group";
 import { scaleLinear } from "@visx/scale";
 import { LinePath } from "@visx/shape";
 import type { Point } from "../lib/chart-data";
-import { AXIS, ChartFrame, Key, TARGET, TRAINED, TUNED, isNarrow, lengthLabel } from "./chart-frame";
+import { AXIS } from "@/components/chart-axis";
+import { ChartFrame, Key, TARGET, TRAINED, TUNED, isNarrow, lengthLabel } from "./chart-frame";
 import { LengthAxis, LengthMarker, lengthScale } from "./length-axis";
 
 const HEIGHT = 260;

@@ -3,7 +3,8 @@ import { GridRows } from "@visx/grid";
 import { Group } from "@visx/group";
 import { scaleBand, scaleLinear } from "@visx/scale";
 import type { BenchmarkPair } from "../lib/chart-data";
-import { AXIS, BASELINE, ChartFrame, TUNED, isNarrow } from "./chart-frame";
+import { AXIS } from "@/components/chart-axis";
+import { BASELINE, ChartFrame, TUNED, isNarrow } from "./chart-frame";
 
 const HEIGHT = 260;
 
@@ -56,12 +57,7 @@ export function RegressionChart({ pairs, delta }: { pairs: BenchmarkPair[]; delt
                 </g>
               ))}
               <AxisLeft scale={y} numTicks={4} {...AXIS} />
-              <AxisBottom
-                top={innerH}
-                scale={x}
-                {...AXIS}
-                tickLabelProps={{ ...AXIS.tickLabelProps, textAnchor: "middle" }}
-              />
+              <AxisBottom top={innerH} scale={x} {...AXIS} />
             </Group>
           </svg>
         );

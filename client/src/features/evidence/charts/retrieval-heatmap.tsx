@@ -3,7 +3,8 @@ import { Group } from "@visx/group";
 import { scaleBand, scaleLinear } from "@visx/scale";
 import { Line } from "@visx/shape";
 import { columnPosition, type RetrievalGrid } from "../lib/chart-data";
-import { AXIS, ChartFrame, Key, TARGET, TRAINED, isNarrow, lengthLabel } from "./chart-frame";
+import { AXIS } from "@/components/chart-axis";
+import { ChartFrame, Key, TARGET, TRAINED, isNarrow, lengthLabel } from "./chart-frame";
 
 const HEIGHT = 300;
 
@@ -98,7 +99,7 @@ export function RetrievalHeatmap({ grid, kind, trainedContext, targetContext }: 
                 tickFormat={(d) => String(d)}
                 label={narrow ? undefined : "depth"}
                 {...AXIS}
-                tickLabelProps={{ ...AXIS.tickLabelProps, textAnchor: "end", dy: "0.33em" }}
+                tickLabelProps={{ ...AXIS.tickLabelProps, dy: "0.33em" }}
               />
               <AxisBottom
                 top={innerH}
@@ -107,7 +108,6 @@ export function RetrievalHeatmap({ grid, kind, trainedContext, targetContext }: 
                 tickValues={everyOther ? grid.lengths.filter((_, i) => i % 2 === 0) : grid.lengths}
                 label="context length (tokens)"
                 {...AXIS}
-                tickLabelProps={{ ...AXIS.tickLabelProps, textAnchor: "middle" }}
               />
             </Group>
           </svg>

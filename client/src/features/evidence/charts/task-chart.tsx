@@ -4,7 +4,8 @@ import { Group } from "@visx/group";
 import { scaleLinear } from "@visx/scale";
 import { Line, LinePath } from "@visx/shape";
 import type { Point, TaskSeries } from "../lib/chart-data";
-import { AXIS, ChartFrame, Key, SIGNAL, TARGET, TUNED, isNarrow, lengthLabel } from "./chart-frame";
+import { AXIS } from "@/components/chart-axis";
+import { ChartFrame, Key, SIGNAL, TARGET, TUNED, isNarrow, lengthLabel } from "./chart-frame";
 import { LengthAxis, LengthMarker, lengthScale } from "./length-axis";
 
 const HEIGHT = 280;

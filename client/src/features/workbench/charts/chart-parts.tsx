@@ -1,16 +1,17 @@
-import type { ReactNode } from "react";
+import type { PointerEvent, ReactNode } from "react";
 import { TooltipWithBounds } from "@visx/tooltip";
-import { FLAG_STYLE, INK_SOFT, RULE, type FlagId } from "./palette";
+import { axisLook } from "@/components/chart-axis";
+import { FLAG_STYLE, INK, INK_SOFT, RULE, type FlagId } from "./palette";
 
 export const MARGIN = { top: 16, right: 20, bottom: 48, left: 64 };
 
-/** Shared look of visx axes: ink-soft ticks in the body font. */
-export const axisProps = {
-  stroke: RULE,
-  tickStroke: RULE,
-  tickLabelProps: { fill: INK_SOFT, fontSize: 11, fontFamily: "IBM Plex Sans, sans-serif" },
-  labelProps: { fill: INK_SOFT, fontSize: 12, fontFamily: "IBM Plex Sans, sans-serif", textAnchor: "middle" as const },
-};
+/** The workbench's axes: ink-soft ticks in the body font, on the lighter rule. */
+export const axisProps = axisLook({
+  line: RULE,
+  text: INK_SOFT,
+  labelSize: 12,
+  fontFamily: "IBM Plex Sans, sans-serif",
+});
 
 /** One marker shape per flag, centred on (x, y). Legend swatches pass pair −1: no title, no test hooks. */
 export function FlagMarker({ flag, x, y, pair }: { flag: FlagId; x: number; y: number; pair: number }) {
@@ -130,5 +131,36 @@ export function ReferenceLine({ y, width, colour, label, dashed = "6 4", labelAt
         {label}
       </text>
     </g>
+  );
+}
+
+/** The faint vertical line at the hovered position, from the plot's top to its axis. */
+export function HoverGuide({ x, height }: { x: number; height: number }) {
+  return <line x1={x} x2={x} y1={0} y2={height} stroke={INK} strokeOpacity={0.35} />;
+}
+
+/** The plot's transparent top layer that hears the pointer, so hovering anywhere (not only on a line) shows a tip. */
+export function HoverArea({
+  width,
+  height,
+  onMove,
+  onLeave,
+  testId,
+}: {
+  width: number;
+  height: number;
+  onMove: (event: PointerEvent<SVGRectElement>) => void;
+  onLeave: () => void;
+  testId?: string;
+}) {
+  return (
+    <rect
+      width={width}
+      height={height}
+      fill="transparent"
+      onPointerMove={onMove}
+      onPointerLeave={onLeave}
+      data-testid={testId}
+    />
   );
 }

@@ -8,7 +8,7 @@ import { useTooltip } from "@visx/tooltip";
 import type { AnalysisResponse } from "@shared/schemas/analysis";
 import { decades, shortTick, sig, tokens } from "../figures";
 import { METHOD_LABELS } from "../state/method-fields";
-import { axisProps, ChartTooltip, Legend, MARGIN, Swatch } from "./chart-parts";
+import { axisProps, ChartTooltip, HoverArea, HoverGuide, Legend, MARGIN, Swatch } from "./chart-parts";
 import { INK, methodColour, TARGET_LINE, TRAINED_LINE } from "./palette";
 import { useWidth } from "./use-width";
 
@@ -121,14 +121,7 @@ export function DecayChart({
               />
             ))}
             {tip.tooltipOpen && hovered !== undefined && (
-              <line
-                x1={x(series.original[hovered].m)}
-                x2={x(series.original[hovered].m)}
-                y1={0}
-                y2={innerH}
-                stroke={INK}
-                strokeOpacity={0.35}
-              />
+              <HoverGuide x={x(series.original[hovered].m)} height={innerH} />
             )}
             <AxisLeft scale={y} numTicks={5} label="R(m), relative bound" labelOffset={40} {...axisProps} />
             <AxisBottom
@@ -139,13 +132,7 @@ export function DecayChart({
               label="relative distance m (tokens, log scale)"
               {...axisProps}
             />
-            <rect
-              width={innerW}
-              height={innerH}
-              fill="transparent"
-              onPointerMove={onMove}
-              onPointerLeave={tip.hideTooltip}
-            />
+            <HoverArea width={innerW} height={innerH} onMove={onMove} onLeave={tip.hideTooltip} />
           </Group>
         </svg>
         {tip.tooltipOpen && hovered !== undefined && (

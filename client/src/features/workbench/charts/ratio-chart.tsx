@@ -8,7 +8,7 @@ import { useTooltip } from "@visx/tooltip";
 import type { AnalysisResponse } from "@shared/schemas/analysis";
 import { oneTwoFive, sig } from "../figures";
 import { METHOD_LABELS } from "../state/method-fields";
-import { axisProps, ChartTooltip, Legend, MARGIN, ReferenceLine, Swatch } from "./chart-parts";
+import { axisProps, ChartTooltip, HoverArea, HoverGuide, Legend, MARGIN, ReferenceLine, Swatch } from "./chart-parts";
 import { INK, INK_SOFT, methodColour } from "./palette";
 import { useWidth } from "./use-width";
 
@@ -80,16 +80,7 @@ export function RatioChart({
                 data-method={analysis.methods[k].method}
               />
             ))}
-            {tip.tooltipOpen && tip.tooltipData !== undefined && (
-              <line
-                x1={x(tip.tooltipData)}
-                x2={x(tip.tooltipData)}
-                y1={0}
-                y2={innerH}
-                stroke={INK}
-                strokeOpacity={0.35}
-              />
-            )}
+            {tip.tooltipOpen && tip.tooltipData !== undefined && <HoverGuide x={x(tip.tooltipData)} height={innerH} />}
             <AxisLeft
               scale={y}
               tickValues={ticks}
@@ -99,13 +90,7 @@ export function RatioChart({
               {...axisProps}
             />
             <AxisBottom top={innerH} scale={x} numTicks={Math.min(n, 16)} label="pair index i" {...axisProps} />
-            <rect
-              width={innerW}
-              height={innerH}
-              fill="transparent"
-              onPointerMove={onMove}
-              onPointerLeave={tip.hideTooltip}
-            />
+            <HoverArea width={innerW} height={innerH} onMove={onMove} onLeave={tip.hideTooltip} />
           </Group>
         </svg>
         {tip.tooltipOpen && tip.tooltipData !== undefined && (

@@ -8,7 +8,17 @@ import { useTooltip } from "@visx/tooltip";
 import type { AnalysisResponse, Band, PairResult } from "@shared/schemas/analysis";
 import { decades, shortTick, tokens } from "../figures";
 import { METHOD_LABELS } from "../state/method-fields";
-import { axisProps, ChartTooltip, FlagMarker, Legend, MARGIN, ReferenceLine, Swatch } from "./chart-parts";
+import {
+  axisProps,
+  ChartTooltip,
+  HoverArea,
+  HoverGuide,
+  FlagMarker,
+  Legend,
+  MARGIN,
+  ReferenceLine,
+  Swatch,
+} from "./chart-parts";
 import { BAND_STYLE, FLAG_IDS, FLAG_STYLE, INK, methodColour, TARGET_LINE, TRAINED_LINE } from "./palette";
 import { PairTooltipBody } from "./pair-tooltip";
 import { useWidth } from "./use-width";
@@ -155,16 +165,7 @@ export function SpectrumChart({ analysis, methodIndex, height = 340, sections = 
                 )}
               </g>
             ))}
-            {tip.tooltipOpen && tip.tooltipData && (
-              <line
-                x1={x(tip.tooltipData.index)}
-                x2={x(tip.tooltipData.index)}
-                y1={0}
-                y2={innerH}
-                stroke={INK}
-                strokeOpacity={0.35}
-              />
-            )}
+            {tip.tooltipOpen && tip.tooltipData && <HoverGuide x={x(tip.tooltipData.index)} height={innerH} />}
             <AxisLeft
               scale={y}
               tickValues={decades(y.domain()[0], y.domain()[1])}
@@ -182,14 +183,7 @@ export function SpectrumChart({ analysis, methodIndex, height = 340, sections = 
               {...axisProps}
             />
             {sections && <MropeStrip sections={sections} pairs={pairs.length} x={x} y={innerH - STRIP_HEIGHT} />}
-            <rect
-              width={innerW}
-              height={innerH}
-              fill="transparent"
-              onPointerMove={onMove}
-              onPointerLeave={tip.hideTooltip}
-              data-testid="chart-hover"
-            />
+            <HoverArea width={innerW} height={innerH} onMove={onMove} onLeave={tip.hideTooltip} testId="chart-hover" />
           </Group>
         </svg>
         {tip.tooltipOpen && tip.tooltipData && (
