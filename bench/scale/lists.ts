@@ -1,0 +1,39 @@
+// The list endpoints bench:scale times and explains: each URL and which demo account asks it. Search words are chosen
+// against seed.sql's rows (a purpose "… towline line, batch 991", profiles "Halyard-11-…", people "… Ropemaker44").
+export type Asker = "admin" | "approver";
+export interface ListCase {
+  label: string;
+  url: string;
+  as: Asker;
+}
+
+export const listCases = (midAuditId: string): ListCase[] => [
+  { label: "/api/plans", url: "/api/plans", as: "admin" },
+  { label: "/api/plans?state=in_review", url: "/api/plans?state=in_review", as: "admin" },
+  { label: "/api/plans?q=…", url: "/api/plans?q=towline%20line%2C%20batch%20991", as: "admin" },
+  { label: "/api/plans?q= (no match)", url: "/api/plans?q=no-such-words-here", as: "admin" },
+  { label: "/api/plans?sort=owner", url: "/api/plans?sort=owner&dir=asc", as: "admin" },
+  { label: "/api/plans?sort=model", url: "/api/plans?sort=model", as: "admin" },
+  { label: "/api/plans?sort=title", url: "/api/plans?sort=title&dir=asc", as: "admin" },
+  { label: "/api/plans?ownerId=…", url: "/api/plans?ownerId=7", as: "admin" },
+  { label: "/api/plans?modelId=…", url: "/api/plans?modelId=11", as: "admin" },
+  { label: "/api/plans?proof=none", url: "/api/plans?proof=none", as: "admin" },
+  { label: "/api/plans page 2 000", url: "/api/plans?page=2000", as: "admin" },
+  { label: "/api/audit", url: "/api/audit", as: "admin" },
+  { label: "/api/audit deep (keyset)", url: `/api/audit?before=${midAuditId}`, as: "admin" },
+  { label: "/api/audit deep (page 200)", url: "/api/audit?page=200", as: "admin" },
+  { label: "/api/audit?actorId=…", url: "/api/audit?actorId=7", as: "admin" },
+  { label: "/api/audit?action=…", url: "/api/audit?action=decision.", as: "admin" },
+  { label: "/api/audit?action= (rare)", url: "/api/audit?action=user.role", as: "admin" },
+  { label: "/api/audit?subject=…", url: "/api/audit?subjectType=plan&subjectId=4242", as: "admin" },
+  { label: "/api/mail", url: "/api/mail", as: "admin" },
+  { label: "/api/mail?q= (no match)", url: "/api/mail?q=no-such-words-here", as: "admin" },
+  { label: "/api/plans/review-queue", url: "/api/plans/review-queue", as: "approver" },
+  { label: "/api/plans/owners", url: "/api/plans/owners", as: "admin" },
+  { label: "/api/models", url: "/api/models", as: "admin" },
+  { label: "/api/models page 20", url: "/api/models?page=20", as: "admin" },
+  { label: "/api/models?q=… (picker search)", url: "/api/models?q=Halyard-11&retired=exclude", as: "admin" },
+  { label: "/api/users", url: "/api/users", as: "admin" },
+  { label: "/api/users page 5", url: "/api/users?page=5", as: "admin" },
+  { label: "/api/users?q=…", url: "/api/users?q=Ropemaker44", as: "admin" },
+];
