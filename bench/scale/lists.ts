@@ -18,6 +18,7 @@ export const listCases = (midAuditId: string): ListCase[] => [
   { label: "/api/plans?ownerId=…", url: "/api/plans?ownerId=7", as: "admin" },
   { label: "/api/plans?modelId=…", url: "/api/plans?modelId=11", as: "admin" },
   { label: "/api/plans?proof=none", url: "/api/plans?proof=none", as: "admin" },
+  { label: "/api/plans?proof=proven", url: "/api/plans?proof=proven", as: "admin" },
   { label: "/api/plans page 2 000", url: "/api/plans?page=2000", as: "admin" },
   { label: "/api/audit", url: "/api/audit", as: "admin" },
   { label: "/api/audit deep (keyset)", url: `/api/audit?before=${midAuditId}`, as: "admin" },

@@ -95,10 +95,19 @@ export const planRevisions = pgTable(
   (t) => [
     uniqueIndex("plan_revisions_plan_number").on(t.planId, t.number),
     index("plan_revisions_state").on(t.state),
-    // The review queue: revisions in review, oldest submission first.
+    // The review queue: revisions in review, oldest submission first. Author and round ride along so the queue's
+    // capped count (not the approver's own, not yet decided by them) is an index-only scan, not a heap page per revision.
     index("plan_revisions_in_review")
-      .on(t.submittedAt, t.id)
+      .on(t.submittedAt, t.id, t.authorId, t.round)
       .where(sql`${t.state} = 'in_review'`),
+    // The plan list's proof filter: proven or unproven revisions, and approved ones with no proof decision yet. When
+    // few plans match, the list starts from these instead of walking every plan to test each one's revision.
+    index("plan_revisions_proof")
+      .on(t.proof, t.planId, t.number)
+      .where(sql`${t.proof} IS NOT NULL`),
+    index("plan_revisions_unproven")
+      .on(t.planId, t.number)
+      .where(sql`${t.state} = 'approved' AND ${t.proof} IS NULL`),
     // The column stays text (no type change under live triggers); the CHECK keeps it to the shared list.
     check("plan_revisions_state_known", sql`${t.state} IN (${inList(REVISION_STATES)})`),
     // Proof follows approval: only an approved (or later superseded) revision carries one.
@@ -172,7 +181,13 @@ export const mailOutbox = pgTable(
     planId: integer("plan_id").references(() => plans.id, { onDelete: "set null" }),
     revision: integer("revision"),
   },
-  (t) => [index("mail_outbox_due").on(t.status, t.nextAttemptAt), index("mail_outbox_plan").on(t.planId, t.revision)],
+  (t) => [
+    index("mail_outbox_due").on(t.status, t.nextAttemptAt),
+    index("mail_outbox_plan").on(t.planId, t.revision),
+    // The Mail page's search (subject or recipient), as for the received messages below.
+    index("mail_outbox_subject_trgm").using("gin", t.subject.op("gin_trgm_ops")),
+    index("mail_outbox_to_trgm").using("gin", sql`rw_text_list(${t.toAddresses}) gin_trgm_ops`),
+  ],
 );
 
 /** What the local SMTP sink received (development and tests only). */

@@ -61,6 +61,9 @@ export const auditEvents = pgTable(
     index("audit_events_subject_idx").on(t.subjectType, t.subjectId),
     // One person's actions, newest first, without walking everyone's.
     index("audit_events_actor_idx").on(t.actorId, t.id),
+    // The action filter is a prefix (LIKE 'decision.%'); text_pattern_ops serves it whatever the collation, so a rare
+    // action is an index range instead of a walk of the whole trail, and its capped count an index-only scan.
+    index("audit_events_action_idx").on(t.action.op("text_pattern_ops"), t.id),
   ],
 );
 

@@ -49,7 +49,8 @@ function filters(q: Query): SQL {
   if (q.proof)
     where.push(
       sql`EXISTS (SELECT 1 FROM plan_revisions ar WHERE ar.plan_id = p.id AND ar.number = p.approved_number AND ${
-        q.proof === "none" ? sql`ar.proof IS NULL` : sql`ar.proof = ${q.proof}`
+        // approved_number names an approved revision; saying so lets "none" use plan_revisions_unproven.
+        q.proof === "none" ? sql`ar.state = 'approved' AND ar.proof IS NULL` : sql`ar.proof = ${q.proof}`
       })`,
     );
   if (q.ownerId) where.push(sql`p.owner_id = ${q.ownerId}`);
