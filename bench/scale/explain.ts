@@ -3,6 +3,7 @@
 // with the same parameters. Printed per statement: the plan, and the figures that show whether its cost is bounded —
 // the most rows any node handled (rows × loops plus rows its filter removed), sequential scans, sorts that spill.
 import type pg from "pg";
+import { processCpuMs } from "./cpu";
 
 export interface Captured {
   text: string;
@@ -45,10 +46,23 @@ export interface PlanFigures {
   spills: boolean;
   buffers: number;
   ms: number;
+  /** CPU the database backend spent per run of the statement (not EXPLAIN), from /proc: hardly moved by other load */
+  cpuMs: number;
+}
+
+/**
+ * The backend's CPU per run over `runs` runs. Wall-clock times on a machine shared by many busy processes mostly
+ * measure waiting for a core; the CPU a statement burns does not depend on who else runs. The cluster is local.
+ */
+async function cpuPerRun(client: pg.Client, q: Captured, runs: number) {
+  const pid = (await client.query<{ pid: number }>("SELECT pg_backend_pid() AS pid")).rows[0].pid;
+  const t0 = processCpuMs(pid);
+  for (let i = 0; i < runs; i++) await client.query(q.text, q.values);
+  return (processCpuMs(pid) - t0) / runs;
 }
 
 /** EXPLAIN (ANALYZE, BUFFERS) of one captured statement, and what its plan says about the cost's growth. */
-export async function explain(client: pg.Client, q: Captured): Promise<PlanFigures> {
+export async function explain(client: pg.Client, q: Captured, runs = 40): Promise<PlanFigures> {
   const res = await client.query<{ "QUERY PLAN": string }>(`EXPLAIN (ANALYZE, BUFFERS) ${q.text}`, q.values);
   const lines = res.rows.map((r) => r["QUERY PLAN"]);
   let maxRows = 0;
@@ -75,6 +89,7 @@ export async function explain(client: pg.Client, q: Captured): Promise<PlanFigur
     spills: lines.some((l) => /external|Disk:/.test(l)),
     buffers,
     ms,
+    cpuMs: await cpuPerRun(client, q, runs),
   };
 }
 

@@ -14,6 +14,7 @@ import { quantile, signIn } from "../http-client";
 import { appUrl, BENCH_DB, prepare } from "./prepare";
 import { listCases, type Asker } from "./lists";
 import { captureQueries, explain, listStatements } from "./explain";
+import { cpuNow, cpuSpent, type CpuSample } from "./cpu";
 
 const args = process.argv.slice(2);
 const servePort = args.includes("--serve") ? Number(args[args.indexOf("--serve") + 1]) : undefined;
@@ -25,7 +26,9 @@ async function timings(base: string, cookie: string, url: string, n = 60) {
   const ms: number[] = [];
   let status = 0;
   let bytes = 0;
+  let cpu0: CpuSample | undefined;
   for (let i = 0; i < n + 5; i++) {
+    if (i === 5) cpu0 = await cpuNow(deps.pool);
     const t = performance.now();
     const r = await fetch(base + url, { headers: { cookie } });
     bytes = (await r.arrayBuffer()).byteLength;
@@ -33,7 +36,10 @@ async function timings(base: string, cookie: string, url: string, n = 60) {
     if (status !== 200) throw new Error(`${url}: ${status}`);
     if (i >= 5) ms.push(performance.now() - t); // the first five warm caches and plans
   }
-  return { status, bytes, p50: quantile(ms, 0.5), p95: quantile(ms, 0.95) };
+  // The node figure includes this process's own fetch client, so it overstates the server's share a little.
+  const spent = cpuSpent(cpu0!, await cpuNow(deps.pool));
+  const cpu = { node: spent.node / n, db: spent.db / n };
+  return { status, bytes, p50: quantile(ms, 0.5), p95: quantile(ms, 0.95), cpu };
 }
 
 const load = () =>
@@ -68,7 +74,8 @@ if (servePort !== undefined) {
       for (const q of listStatements(seen)) {
         const f = await explain(client, q);
         console.log(
-          `- most rows at one node ${f.maxRows}, buffers ${f.buffers}, ${f.ms.toFixed(2)} ms, ` +
+          `- most rows at one node ${f.maxRows}, buffers ${f.buffers}, ${f.ms.toFixed(2)} ms under EXPLAIN, ` +
+            `backend CPU ${f.cpuMs.toFixed(2)} ms per run, ` +
             `seq scans: ${f.seqScans.join(", ") || "none"}${f.spills ? ", SPILLS TO DISK" : ""}\n`,
         );
         console.log("```sql\n" + q.text.trim() + "\n-- " + JSON.stringify(q.values) + "\n```\n");
@@ -78,14 +85,16 @@ if (servePort !== undefined) {
     await client.end();
   } else {
     console.log(load());
-    console.log("endpoint                          status    p50 ms    p95 ms     bytes");
+    console.log("endpoint                          status    p50 ms    p95 ms     bytes   CPU ms/request: node    db");
     for (const c of cases) {
       const t = await timings(base, cookies[c.as], c.url);
       console.log(
-        `${c.label.padEnd(32)}  ${String(t.status).padEnd(6)} ${t.p50.toFixed(1).padStart(8)}  ${t.p95.toFixed(1).padStart(8)}  ${String(t.bytes).padStart(8)}`,
+        `${c.label.padEnd(32)}  ${String(t.status).padEnd(6)} ${t.p50.toFixed(1).padStart(8)}  ${t.p95.toFixed(1).padStart(8)}  ${String(t.bytes).padStart(8)}` +
+          `  ${t.cpu.node.toFixed(1).padStart(20)}  ${t.cpu.db.toFixed(1).padStart(5)}`,
       );
     }
     console.log(load());
+    const before = await cpuNow(deps.pool);
     const run = await autocannon({
       url: `${base}/api/plans`,
       connections: 50,
@@ -95,6 +104,12 @@ if (servePort !== undefined) {
     console.log(
       `/api/plans at 50 connections: ${run.requests.average.toFixed(0)} req/s, p50 ${run.latency.p50} ms, p99 ${run.latency.p99} ms, ` +
         `${run.non2xx} non-2xx, ${run.errors} errors, ${run.timeouts} timeouts; ${load()}`,
+    );
+    const spent = cpuSpent(before, await cpuNow(deps.pool));
+    const perRequest = (spent.node + spent.db) / run.requests.total;
+    console.log(
+      `  CPU per request under that load (this process, autocannon included, and the database): ${perRequest.toFixed(2)} ms, ` +
+        `so ${os.cpus().length} idle cores would serve about ${((1000 * os.cpus().length) / perRequest).toFixed(0)} req/s`,
     );
   }
   // Requests autocannon left in flight still finish their queries; ending the pool under them logs spurious 500s.
