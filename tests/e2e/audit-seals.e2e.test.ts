@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { Browser, Page } from "playwright-core";
-import { launchBrowser, requireBuiltClient, screenshot, signIn } from "../setup/browser";
+import type { Browser } from "playwright-core";
+import { launchBrowser, requireBuiltClient, screenshot } from "../setup/browser";
+import { signedInPages } from "../setup/signed-in";
 import { startTestServer } from "../setup/server";
 import { createTestUser, type TestUser } from "../setup/users";
 
@@ -9,7 +10,11 @@ let server: Awaited<ReturnType<typeof startTestServer>>;
 let browser: Browser;
 let admin: TestUser;
 let approver: TestUser;
-const errors: string[] = [];
+const { signedIn, closeAll, errors } = signedInPages(
+  () => browser,
+  () => server.url,
+  { width: 1280 },
+);
 
 beforeAll(async () => {
   requireBuiltClient();
@@ -21,17 +26,10 @@ beforeAll(async () => {
   ]);
 });
 afterAll(async () => {
+  await closeAll();
   await browser?.close();
   await server?.close();
 });
-
-async function signedIn(who: TestUser, to: string): Promise<Page> {
-  const page = await (await browser.newContext({ viewport: { width: 1280, height: 900 } })).newPage();
-  page.on("pageerror", (e) => errors.push(`${who.name}: ${e.message}`));
-  await page.goto(`${server.url}${to}`);
-  await signIn(page, who);
-  return page;
-}
 
 describe("audit seals on the Audit page", () => {
   it("an admin sees that every entry is still chained; an approver is not shown the check", async () => {

@@ -1,17 +1,11 @@
 import path from "node:path";
 import Papa from "papaparse";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { Browser, BrowserContext, Page } from "playwright-core";
-import {
-  launchBrowser,
-  screenshot,
-  SCREENSHOT_DIR,
-  requireBuiltClient,
-  signIn,
-  downloadedText,
-} from "../setup/browser";
+import type { Browser, Page } from "playwright-core";
+import { launchBrowser, screenshot, SCREENSHOT_DIR, requireBuiltClient, downloadedText } from "../setup/browser";
 import { makeTestApp, type Agent } from "../setup/app";
 import { createPlan, createProfile, post, put } from "../setup/plans";
+import { signedInPages } from "../setup/signed-in";
 import { startTestServer } from "../setup/server";
 import { createTestUser, type TestUser } from "../setup/users";
 
@@ -23,6 +17,11 @@ let browser: Browser;
 let planner: TestUser;
 let api: Agent;
 let profile: { id: number; name: string };
+const { signedIn, closeAll, errors } = signedInPages(
+  () => browser,
+  () => server.url,
+  { width: 1280 },
+);
 
 beforeAll(async () => {
   requireBuiltClient();
@@ -38,25 +37,10 @@ beforeAll(async () => {
 });
 
 afterAll(async () => {
+  await closeAll();
   await browser?.close();
   await server?.close();
 });
-
-async function signedInPage(
-  context: BrowserContext,
-  to: string,
-  who: TestUser,
-): Promise<{ page: Page; errors: string[] }> {
-  const page = await context.newPage();
-  const errors: string[] = [];
-  page.on("pageerror", (e) => errors.push(e.message));
-  page.on("console", (m) => {
-    if (m.type() === "error" && !m.text().startsWith("Failed to load resource")) errors.push(m.text());
-  });
-  await page.goto(`${server.url}${to}`);
-  await signIn(page, who);
-  return { page, errors };
-}
 
 /** A catalog entry through the API: 48 GiB, 300 TFLOP/s dense peak, 3 per hour unless told otherwise. */
 async function catalogEntry(prefix: string, over: Record<string, unknown> = {}): Promise<string> {
@@ -84,8 +68,7 @@ async function settledTokens(page: Page): Promise<string | null> {
 
 describe("budget sheet in a browser", () => {
   it("an infra lead adds an accelerator in the catalog; the estimator costs stages on it and downloads the table", async () => {
-    const context = await browser.newContext({ viewport: { width: 1280, height: 900 }, acceptDownloads: true });
-    const { page, errors } = await signedInPage(context, "/accelerators", planner);
+    const page = await signedIn(planner, "/accelerators");
     await page.getByRole("heading", { level: 1, name: "Accelerators" }).waitFor();
 
     const name = `Testbed-${Date.now().toString(36)}`;
@@ -213,7 +196,7 @@ describe("budget sheet in a browser", () => {
     await screenshot(page, "estimator");
 
     expect(errors).toEqual([]);
-    await context.close();
+    await page.context().close();
   }, 90_000);
 
   it("the plan's author costs the draft on that accelerator, sees a stage not fit, fixes it and saves", async () => {
@@ -247,8 +230,7 @@ describe("budget sheet in a browser", () => {
       },
     });
     const editUrl = `/plans/${created.id}/revisions/1/edit`;
-    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
-    const { page, errors } = await signedInPage(context, editUrl, planner);
+    const page = await signedIn(planner, editUrl);
     const sheet = page.getByRole("region", { name: "Budget sheet" });
     await sheet.getByText("Pick an accelerator to cost this plan").waitFor();
 
@@ -333,7 +315,7 @@ describe("budget sheet in a browser", () => {
     await screenshot(page, "plan-budget");
 
     expect(errors).toEqual([]);
-    await context.close();
+    await page.context().close();
   }, 90_000);
 
   it("an accelerator retired under a plan: a new draft names it and asks for another; an estimator link still loads with a notice", async () => {
@@ -362,8 +344,7 @@ describe("budget sheet in a browser", () => {
 
     const other = await catalogEntry("Live-bed");
 
-    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
-    const { page, errors } = await signedInPage(context, `/plans/${created.id}`, planner);
+    const page = await signedIn(planner, `/plans/${created.id}`);
     await page.getByRole("button", { name: "Start new revision" }).click();
     await page.waitForURL(new RegExp(`/plans/${created.id}/revisions/2/edit`));
     const sheet = page.getByRole("region", { name: "Budget sheet" });
@@ -388,13 +369,12 @@ describe("budget sheet in a browser", () => {
       .toContain(acceleratorName);
     await expect(settledTokens(page)).resolves.toBeTruthy();
     expect(errors).toEqual([]);
-    await context.close();
+    await page.context().close();
   }, 90_000);
 
   it("a new plan is costed before its first save; the plan page shows the stored figures", async () => {
     const acceleratorName = await catalogEntry("New-bed");
-    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
-    const { page, errors } = await signedInPage(context, "/plans/new", planner);
+    const page = await signedIn(planner, "/plans/new");
     const form = page.getByRole("form", { name: "New plan" });
     await form.getByLabel("Title").fill("Costed from the start");
     // The picker offers one page of profiles; its search finds this one wherever it sorts.
@@ -421,13 +401,12 @@ describe("budget sheet in a browser", () => {
     expect(rev.content.budget.cluster.name).toBe(acceleratorName);
     expect(rev.content.budget.estimate.totals.tokens).toBe(400 * 64 * 32768);
     expect(errors).toEqual([]);
-    await context.close();
+    await page.context().close();
   }, 60_000);
 
   it("a viewer reads the catalog but gets no way to change it", async () => {
     const viewer = await createTestUser(["viewer"], "Vi Viewer");
-    const context = await browser.newContext();
-    const { page, errors } = await signedInPage(context, "/accelerators", viewer);
+    const page = await signedIn(viewer, "/accelerators");
     await page.getByRole("table", { name: "Accelerators" }).waitFor();
     await expect(page.getByRole("form").count()).resolves.toBe(0);
     await expect(page.getByRole("button", { name: /^(Edit|Delete) / }).count()).resolves.toBe(0);
@@ -437,6 +416,6 @@ describe("budget sheet in a browser", () => {
       .poll(() => page.getByTestId("workspace-currency").textContent(), { timeout: 15_000 })
       .toMatch(/in [A-Z]{3}, the workspace currency/);
     expect(errors).toEqual([]);
-    await context.close();
+    await page.context().close();
   });
 });

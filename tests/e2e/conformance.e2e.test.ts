@@ -1,9 +1,10 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { Browser, BrowserContext, Page } from "playwright-core";
-import { launchBrowser, screenshot, signIn, requireBuiltClient } from "../setup/browser";
+import type { Browser, Page } from "playwright-core";
+import { launchBrowser, screenshot, requireBuiltClient } from "../setup/browser";
 import { makeTestApp } from "../setup/app";
 import { createPlan, createProfile, post } from "../setup/plans";
 import { probeDocument } from "../setup/probe";
+import { signedInPages } from "../setup/signed-in";
 import { startTestServer } from "../setup/server";
 import { createTestUser, type TestUser } from "../setup/users";
 
@@ -16,8 +17,11 @@ let browser: Browser;
 let researcher: TestUser;
 let approver: TestUser;
 let planId = 0;
-const contexts: BrowserContext[] = [];
-const errors: string[] = [];
+const { signedIn, closeAll, errors } = signedInPages(
+  () => browser,
+  () => server.url,
+  { width: 1280 },
+);
 
 beforeAll(async () => {
   requireBuiltClient();
@@ -42,20 +46,10 @@ beforeAll(async () => {
 });
 
 afterAll(async () => {
-  for (const c of contexts) await c.close().catch(() => undefined);
+  await closeAll();
   await browser?.close();
   await server?.close();
 });
-
-async function signedIn(who: TestUser, to: string): Promise<Page> {
-  const context = await browser.newContext({ viewport: { width: 1280, height: 900 }, acceptDownloads: true });
-  contexts.push(context);
-  const page = await context.newPage();
-  page.on("pageerror", (e) => errors.push(`${who.name}: ${e.message}`));
-  await page.goto(`${server.url}${to}`);
-  await signIn(page, who);
-  return page;
-}
 
 /** Every target has a row with one of the four fixed statuses, and the fingerprint is a SHA-256. */
 async function expectMatrix(scope: ReturnType<Page["getByTestId"]>, { fingerprint = true } = {}) {

@@ -1,20 +1,14 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { Browser, BrowserContext, Page } from "playwright-core";
+import type { Browser, Page } from "playwright-core";
 import crypto from "node:crypto";
 import fs from "node:fs";
 import path from "node:path";
 import type { Locator } from "playwright-core";
-import {
-  SCREENSHOT_DIR,
-  downloadedText,
-  launchBrowser,
-  requireBuiltClient,
-  screenshot,
-  signIn,
-} from "../setup/browser";
+import { SCREENSHOT_DIR, downloadedText, launchBrowser, requireBuiltClient, screenshot } from "../setup/browser";
 import { makeTestApp } from "../setup/app";
 import { createPlan, createProfile, decide, post } from "../setup/plans";
 import { criterion, fullProvenance, upload } from "../setup/evidence";
+import { signedInPages } from "../setup/signed-in";
 import { startTestServer } from "../setup/server";
 import { createTestUser, type TestUser } from "../setup/users";
 
@@ -27,8 +21,11 @@ let planId = 0;
 let title = "";
 let contentHash = "";
 let chartsPlanId = 0;
-const contexts: BrowserContext[] = [];
-const errors: string[] = [];
+const { signedIn, closeAll, errors } = signedInPages(
+  () => browser,
+  () => server.url,
+  { width: 1280 },
+);
 
 // Passkey accuracy at 32768 worked by hand: Σ correct ÷ Σ trials = (10 + 9 + 19) / (10 + 10 + 20) = 38 / 40 = 0.95 ≥ 0.9.
 const PASSKEY_CSV = [
@@ -97,20 +94,10 @@ beforeAll(async () => {
 });
 
 afterAll(async () => {
-  for (const c of contexts) await c.close().catch(() => undefined);
+  await closeAll();
   await browser?.close();
   await server?.close();
 });
-
-async function signedIn(who: TestUser, to: string, width = 1280): Promise<Page> {
-  const context = await browser.newContext({ viewport: { width, height: 900 }, acceptDownloads: true });
-  contexts.push(context);
-  const page = await context.newPage();
-  page.on("pageerror", (e) => errors.push(`${who.name}: ${e.message}`));
-  await page.goto(`${server.url}${to}`);
-  await signIn(page, who);
-  return page;
-}
 
 /**
  * The evidence section alone (the plan page above it runs past the full-page picture's 4000 px). The viewport is first

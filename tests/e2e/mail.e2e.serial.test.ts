@@ -1,10 +1,11 @@
 // Serial: it delivers every due row in the shared outbox, which would race other files' mail tests.
 import crypto from "node:crypto";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { Browser, Page } from "playwright-core";
-import { launchBrowser, screenshot, signIn, requireBuiltClient } from "../setup/browser";
+import type { Browser } from "playwright-core";
+import { launchBrowser, screenshot, requireBuiltClient } from "../setup/browser";
 import { testConfig } from "../setup/app";
 import { testDb } from "../setup/db";
+import { signedInPages } from "../setup/signed-in";
 import { startTestServer } from "../setup/server";
 import { createTestUser, type TestUser } from "../setup/users";
 import { deliverDueMail, enqueueMail } from "../../server/mailer/outbox";
@@ -19,7 +20,11 @@ let sink: MailSink;
 let server: Awaited<ReturnType<typeof startTestServer>>;
 let browser: Browser;
 let admin: TestUser;
-const errors: string[] = [];
+const { signedIn, closeAll, errors } = signedInPages(
+  () => browser,
+  () => server.url,
+  { width: 1280 },
+);
 
 beforeAll(async () => {
   requireBuiltClient();
@@ -41,6 +46,7 @@ beforeAll(async () => {
 });
 
 afterAll(async () => {
+  await closeAll();
   await browser?.close();
   await sink?.close();
   await server?.close();
@@ -48,17 +54,6 @@ afterAll(async () => {
 
 const outboxRow = async () =>
   (await pool.query("SELECT status, attempts, sent_at FROM mail_outbox WHERE kind = $1", [`test.${tag}`])).rows;
-
-async function signedIn(who: TestUser, to: string): Promise<Page> {
-  const page = await (await browser.newContext({ viewport: { width: 1280, height: 900 } })).newPage();
-  page.on("pageerror", (e) => errors.push(e.message));
-  page.on("console", (m) => {
-    if (m.type() === "error") errors.push(m.text());
-  });
-  await page.goto(`${server.url}${to}`);
-  await signIn(page, who);
-  return page;
-}
 
 describe("Mail page in a browser", () => {
   it("an admin delivers due mail now; the message reaches the sink and its outbox row is sent", async () => {

@@ -1,9 +1,10 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { Browser, BrowserContext, Page } from "playwright-core";
-import { launchBrowser, screenshot, signIn, requireBuiltClient, downloadedText } from "../setup/browser";
+import type { Browser, Page } from "playwright-core";
+import { launchBrowser, screenshot, requireBuiltClient, downloadedText } from "../setup/browser";
 import { makeTestApp } from "../setup/app";
 import { createPlan, createProfile, twoStageRevision } from "../setup/plans";
 import type { Agent } from "../setup/app";
+import { signedInPages } from "../setup/signed-in";
 import { startTestServer } from "../setup/server";
 import { createTestUser, type TestUser } from "../setup/users";
 import { testDb } from "../setup/db";
@@ -26,8 +27,11 @@ let api: Agent;
 const title = `Gannet to 32k ${Date.now().toString(36)}`;
 let planId = 0;
 let signedHash = "";
-const contexts: BrowserContext[] = [];
-const errors: string[] = [];
+const { signedIn, closeAll, errors } = signedInPages(
+  () => browser,
+  () => server.url,
+  { width: 1280 },
+);
 
 beforeAll(async () => {
   requireBuiltClient();
@@ -49,27 +53,11 @@ beforeAll(async () => {
 });
 
 afterAll(async () => {
-  for (const c of contexts) await c.close().catch(() => undefined);
+  await closeAll();
   await browser?.close();
   await sink?.close();
   await server?.close();
 });
-
-/** A fresh browser session for one person, signed in and on `to`; page errors and console errors are collected. */
-async function signedIn(who: TestUser, to: string, width = 1280): Promise<Page> {
-  const context = await browser.newContext({ viewport: { width, height: 900 }, acceptDownloads: true });
-  contexts.push(context);
-  const page = await context.newPage();
-  page.on("pageerror", (e) => errors.push(`${who.name}: ${e.message}`));
-  // The browser's own line for an expected 409 or 403 is not an application error.
-  page.on("console", (m) => {
-    if (m.type() === "error" && !m.text().startsWith("Failed to load resource"))
-      errors.push(`${who.name}: ${m.text()}`);
-  });
-  await page.goto(`${server.url}${to}`);
-  await signIn(page, who);
-  return page;
-}
 
 const stage = (page: Page, n: number) => page.getByRole("group", { name: `Stage ${n}`, exact: true });
 
