@@ -60,8 +60,8 @@ export function coverGroups(plan: PlanRotary, reading: ConsumerReading | null, c
         `it reads one rotary setting for every layer from this artifact, so it cannot carry the ${named.join(" and ")} ` +
         `beside the others${c.cause ? `. ${c.cause}` : "."}`,
       workaround:
-        "export for transformers-v5 (rope_parameters nested by layer type), or check that this architecture's model " +
-        "file sets those layers apart with the probe before serving",
+        "export for transformers-v5 (rope_parameters nested by layer type). The probe reads only the config, so only a " +
+        "run of this stack can show whether its model code keeps those layers apart",
       groups: perGroup,
     };
   }
