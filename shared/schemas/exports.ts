@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { lengthSchema, methodParamsSchema, modelInputSchema } from "./analysis";
-import { layerGroupSchema } from "./models";
+import { layerGroupSchema, mropeSectionSchema } from "./models";
 import { groupMethodSchema } from "./plans/requests";
 import { EXTENDS_FROM } from "../lineage";
 
@@ -55,6 +55,12 @@ export const exportRequestSchema = z.object({
   layerGroups: z.array(layerGroupSchema).min(1).max(64).optional(),
   /** each non-scaled group's own method, as a plan's `groupMethods`; groups not listed stay as trained */
   groupMethods: z.array(groupMethodSchema).max(64).optional(),
+  /**
+   * A model with multimodal sections given inline (issue 11, additive): the config patches keep the sections in the
+   * block, as they do over a saved profile's imported file. With { modelId } the file's own keys are used.
+   */
+  mropeSection: mropeSectionSchema.optional(),
+  mropeInterleaved: z.boolean().optional(),
 });
 export type ExportRequest = z.infer<typeof exportRequestSchema>;
 

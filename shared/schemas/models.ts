@@ -5,6 +5,8 @@ import { MAX_DB_ID, pagedTotal, pageQuerySchema } from "./common";
 const MAX_LEN = MAX_DB_ID;
 const finite = () => z.number().finite();
 const posInt = (max = MAX_LEN) => z.number().int().positive().max(max);
+/** Multimodal rotary sections: pairs per position axis (shared/mrope-axes.ts). */
+export const mropeSectionSchema = z.array(posInt(4096)).min(1).max(8);
 
 /** A method and its parameters as a profile's "current scaling" (read from a config's rope_scaling block). */
 export const currentScalingSchema = z.object({
@@ -56,7 +58,7 @@ const profileFields = z.object({
   /** Per-layer-type rotary settings; null or absent means one full_attention group over every layer. */
   layerGroups: z.array(layerGroupSchema).min(1).max(64).nullable().optional(),
   /** Multimodal rotary sections (pairs per position axis), or null for text-only rotary. */
-  mropeSection: z.array(posInt(4096)).min(1).max(8).nullable().optional(),
+  mropeSection: mropeSectionSchema.nullable().optional(),
   /** Whether the sections' pairs interleave (t, h, w, t, h, w, …) instead of lying in contiguous blocks. */
   mropeInterleaved: z.boolean().optional(),
   /** Latent attention: the cached width per token and layer (kv_lora_rank + qk_rope_head_dim), or null. */

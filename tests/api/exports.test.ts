@@ -61,6 +61,29 @@ describe("POST /api/exports", () => {
     expect(one.body.targets).toHaveLength(6);
     expect(one.body.fingerprint).toBe(two.body.fingerprint);
   });
+  it("a shape with multimodal sections keeps them in every config patch, NTK-aware (a new base) included", async () => {
+    // Their attention reads rope_scaling["mrope_section"] every step (server/engine/targets/hf/compile.ts cites where).
+    const a = await agentAs(["researcher"]);
+    const r = await post(a, {
+      ...good,
+      method: { method: "ntk" },
+      mropeSection: [16, 24, 24],
+      targets: ["transformers-v4-early", "transformers-v4", "transformers-v5"],
+    });
+    expect(r.status, JSON.stringify(r.body)).toBe(200);
+    const [early, v4, v5] = exportResponseSchema.parse(r.body).targets.map((t) => t.artifact!.content);
+    const base = { rope_theta: 500_000, rope_scaling: { rope_type: "default", mrope_section: [16, 24, 24] } };
+    for (const patch of [early, v4])
+      expect(applyMergePatch(base, patch)).toMatchObject({
+        rope_scaling: { rope_type: "default", mrope_section: [16, 24, 24] },
+      });
+    expect(applyMergePatch(base, v5)).toMatchObject({
+      rope_parameters: { rope_type: "default", mrope_section: [16, 24, 24] },
+    });
+    const bad = await post(a, { ...good, mropeSection: [0, 24] });
+    expect(bad.status).toBe(400);
+    expect(Object.keys(bad.body.error.fields)).toContain("mropeSection.0");
+  });
   it("names the bad field in a 400 and never answers 500", async () => {
     const a = await agentAs(["researcher"]);
     const cases: [unknown, string][] = [

@@ -146,6 +146,14 @@ describe("multimodal sections: bands over the pair axis, and what a plan that sc
     expect(await page.getByTestId("mrope-axes").textContent()).toContain(
       "mrope_section [16, 24, 24], in contiguous blocks (temporal, height, width)",
     );
+    // The rigging keeps the model's sections, which its attention layers read on every step (server/engine/targets/
+    // hf/compile.ts cites where): NTK-aware goes out as a new base, so rope_scaling stays as a "default" block holding
+    // mrope_section instead of being removed.
+    const artifact = page.getByTestId("target-artifact-text");
+    await expect.poll(() => artifact.textContent(), { timeout: 15_000 }).toContain('"rope_scaling"');
+    const patch = JSON.parse((await artifact.textContent()) ?? "{}");
+    expect(patch.rope_scaling).toMatchObject({ rope_type: "default" });
+    expect(patch.rope_scaling).not.toHaveProperty("mrope_section", null);
     await screenshot(page, "mrope-plan-contiguous");
 
     const report = await openReport(page);

@@ -66,6 +66,16 @@ function methodFor(input: ExportRequest, lineage: Lineage | null) {
 }
 
 /**
+ * An inline shape's multimodal sections, in the block a config.json carries them in (the 4.x `rope_scaling`), so the
+ * patches keep them as they do over an imported file (server/engine/targets/hf/compile.ts says why they must).
+ */
+function sectionsConfig(input: ExportRequest): Record<string, unknown> | undefined {
+  if (!input.mropeSection) return undefined;
+  const block = { rope_type: "default", mrope_section: input.mropeSection };
+  return { rope_scaling: input.mropeInterleaved ? { ...block, mrope_interleaved: true } : block };
+}
+
+/**
  * POST /api/exports: compiles the plan for each requested target (all when none are named) and reads each artifact
  * back. A stateless computation: nothing is stored, so nothing is audited.
  */
@@ -75,7 +85,7 @@ export async function exportRequest(deps: AppDeps, input: ExportRequest): Promis
   refuseMisfits(model, { ...input, method });
   return exportPlan({
     model,
-    config,
+    config: config ?? sectionsConfig(input),
     targetContext: input.targetContext,
     method,
     targets: input.targets,
