@@ -25,7 +25,9 @@ export interface CpuSample {
 export async function cpuNow(pool: pg.Pool): Promise<CpuSample> {
   const pids = (
     await pool.query<{ pid: number }>(
-      "SELECT pid FROM pg_stat_activity WHERE datname = current_database() AND pid <> pg_backend_pid()",
+      // Client backends only: an autovacuum worker on the same database is not the requests' cost. The backend that
+      // answers this query is counted too: leaving it out would count its whole life once another one samples.
+      "SELECT pid FROM pg_stat_activity WHERE datname = current_database() AND backend_type = 'client backend'",
     )
   ).rows.map((r) => r.pid);
   const u = process.cpuUsage();
