@@ -18,6 +18,14 @@ export const MROPE_AXES = ["temporal", "height", "width"] as const;
  * qwen3_vl configs). The import reads them there; the config exports keep them there.
  */
 export const MROPE_KEYS = ["mrope_section", "mrope_interleaved"] as const;
+
+/** The multimodal section keys a config block carries, or null when it carries none (or is not an object). */
+export function sectionKeysOf(block: unknown): Record<string, unknown> | null {
+  if (typeof block !== "object" || block === null || Array.isArray(block)) return null;
+  const out: Record<string, unknown> = {};
+  for (const k of MROPE_KEYS) if (k in block) out[k] = (block as Record<string, unknown>)[k];
+  return Object.keys(out).length ? out : null;
+}
 export type MropeAxis = (typeof MROPE_AXES)[number];
 
 /** The axis of each of `pairs` rotary pairs; null for a pair the sections do not reach (their sum falls short). */

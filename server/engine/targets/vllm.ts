@@ -1,6 +1,7 @@
 import type { CompileInput, CompileResult, ConsumerReading, ExportTarget, TargetArtifact } from "./types";
 import { explicitYarnAttention, factorOf, headSize, paramsOf, resolvePlan } from "./engines/plan-facts";
 import { numberOr } from "../../../shared/json-values";
+import { sectionKeysOf } from "../../../shared/mrope-axes";
 import { argsOf, compactJson, flagValue, launchArtifact, parseJsonArgument } from "./engines/launch-text";
 import { derivedMaxModelLen, vllmRopeParameters } from "./engines/vllm-config";
 import {
@@ -82,8 +83,19 @@ function ropeBlock(input: CompileInput): { block: Record<string, unknown>; maxPo
   }
 }
 
+/**
+ * Rope types get_rope builds a multimodal rotary for when the block carries `mrope_section`: "default" and "yarn"
+ * (vllm/model_executor/layers/rotary_embedding/__init__.py at 07b12f1, get_rope; MRotaryEmbedding's own yarn path
+ * not re-read). Every other type builds a one-axis rotary and the sections are never read.
+ */
+const SECTIONED_TYPES = ["default", "yarn"];
+
 function compile(input: CompileInput): CompileResult {
   const { block, maxPosition } = ropeBlock(input);
+  // The overrides replace the whole block, so a model's multimodal sections are written into it (get_rope reads them
+  // from rope_parameters; the 4.x-era config keeps them in rope_scaling).
+  const sections = sectionKeysOf(input.config.rope_parameters) ?? sectionKeysOf(input.config.rope_scaling);
+  if (sections) Object.assign(block, sections);
   const overrides: Record<string, unknown> = {
     rope_parameters: block,
     rope_scaling: block,
@@ -95,7 +107,16 @@ function compile(input: CompileInput): CompileResult {
     overrides.original_max_position_embeddings = block.original_max_position_embeddings;
   }
   const args = ["--hf-overrides", compactJson(overrides), "--max-model-len", String(input.plan.targetContext)];
-  return { ok: true, artifact: launchArtifact('vllm serve "$MODEL"', args, { hfOverrides: overrides }) };
+  const artifact = launchArtifact('vllm serve "$MODEL"', args, { hfOverrides: overrides });
+  if (sections && !SECTIONED_TYPES.includes(String(block.rope_type))) {
+    return {
+      ok: false,
+      cause: `vLLM builds multimodal sections only for rope_type default or yarn; a ${String(block.rope_type)} block runs one position axis, so image and video tokens lose their height and width positions`,
+      workaround: "for this model on vLLM, plan with YaRN or a new base (NTK-aware, adjusted base)",
+      artifact,
+    };
+  }
+  return { ok: true, artifact };
 }
 
 function read(config: Record<string, unknown>, artifact: TargetArtifact): ConsumerReading {

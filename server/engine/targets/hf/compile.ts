@@ -4,7 +4,7 @@ import { CONFIG_FLOAT_KEYS, floatKeyTest } from "../float-keys";
 import { type Obj } from "./config-view";
 import { isObj } from "../../../../shared/json-values";
 import type { GroupRotary } from "../../group-rotary";
-import { MROPE_KEYS } from "../../../../shared/mrope-axes";
+import { MROPE_KEYS, sectionKeysOf } from "../../../../shared/mrope-axes";
 
 /** Which rule set a config patch is written for (the matching readers are read-v4.ts and read-v5.ts). */
 export type HfRules = "early" | "v4" | "v5";
@@ -16,18 +16,12 @@ function clearStale(existing: unknown, block: Obj, keep: string[] = []): Obj {
   return { ...out, ...block };
 }
 
-/**
- * The multimodal section keys a block carries (shared/mrope-axes.ts), or null. They are the model's, not the plan's:
- * its attention layers read them on every forward pass (huggingface/transformers
- * src/transformers/models/qwen2_vl/modeling_qwen2_vl.py at 00b676f8, Qwen2VLAttention.forward passes
- * `self.rope_scaling["mrope_section"]` to apply_multimodal_rotary_pos_emb), so every patch keeps them.
+/*
+ * Multimodal section keys (shared/mrope-axes.ts) are the model's, not the plan's: its attention layers read them on
+ * every forward pass (huggingface/transformers src/transformers/models/qwen2_vl/modeling_qwen2_vl.py at 00b676f8,
+ * Qwen2VLAttention.forward passes `self.rope_scaling["mrope_section"]` to apply_multimodal_rotary_pos_emb), so every
+ * patch keeps them.
  */
-function sectionKeys(b: unknown): Obj | null {
-  if (!isObj(b)) return null;
-  const out: Obj = {};
-  for (const k of MROPE_KEYS) if (k in b) out[k] = b[k];
-  return Object.keys(out).length ? out : null;
-}
 
 interface Placed {
   /** the scaling keys (rope_type first), or null for plain RoPE */
@@ -135,7 +129,7 @@ export function compileV4(input: CompileInput, rules: "early" | "v4"): CompileRe
   const keep = [...MROPE_KEYS];
   // A plan exported as plain RoPE (or a new base) removes the block, unless it carries multimodal sections: then it
   // stays as a "default" block with its sections.
-  const block = placed.block ?? (sectionKeys(existing) ? { rope_type: "default" } : null);
+  const block = placed.block ?? (sectionKeysOf(existing) ? { rope_type: "default" } : null);
   const patch: Obj = {
     rope_theta: placed.base,
     max_position_embeddings: placed.maxPos,
@@ -177,7 +171,7 @@ export function compileV5(input: CompileInput): CompileResult {
   const existing = isObj(config.rope_parameters) ? config.rope_parameters : {};
   // Sections a 4.x-layout config keeps in rope_scaling move into rope_parameters with the block, since the patch
   // removes rope_scaling below (v5 reads them from rope_parameters: from memory of the v5 qwen2_vl config, not re-read).
-  const moved = sectionKeys(existing) ? null : sectionKeys(config.rope_scaling);
+  const moved = sectionKeysOf(existing) ? null : sectionKeysOf(config.rope_scaling);
   const block: Obj = { ...(placed.block ?? { rope_type: "default" }), rope_theta: placed.base, ...moved };
   const written = Array.isArray(config.layer_types) ? undefined : derivedLayerTypes(input.plan.groups);
   const layerTypes = [

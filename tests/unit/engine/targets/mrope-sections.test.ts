@@ -61,3 +61,27 @@ describe("multimodal sections survive every transformers export", () => {
     }
   }
 });
+
+/*
+ * vLLM's --hf-overrides replace the whole block, and get_rope builds a multimodal rotary only for rope_type "default"
+ * or "yarn" with mrope_section in the block (vllm/model_executor/layers/rotary_embedding/__init__.py at 07b12f1).
+ */
+describe("vLLM: the sections go into the overridden block; a type get_rope runs on one axis is refused", () => {
+  for (const { file, shape, keys } of CASES) {
+    for (const method of METHODS) {
+      const sectioned = method.method !== "linear";
+      it(`${file} × ${method.method}: ${sectioned ? "exact, sections kept" : "unsupported"}`, () => {
+        const cfg = config(file);
+        const [out] = exportForTargets(planInput(cfg, method, shape), ["vllm"]);
+        const overrides = (out.artifact!.content as { hfOverrides: Record<string, unknown> }).hfOverrides;
+        expect(overrides.rope_parameters).toMatchObject(keys);
+        if (sectioned) {
+          expect(out.conformance.status, out.conformance.cause).toBe("exact");
+        } else {
+          expect(out.conformance.status).toBe("unsupported");
+          expect(out.conformance.cause).toContain("multimodal sections only for rope_type default or yarn");
+        }
+      });
+    }
+  }
+});
