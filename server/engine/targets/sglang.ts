@@ -1,6 +1,7 @@
 import type { CompileInput, CompileResult, ConsumerReading, ExportTarget, TargetArtifact } from "./types";
 import { explicitYarnAttention, factorOf, headSize, paramsOf, resolvePlan } from "./engines/plan-facts";
 import { isObj, numberOr } from "../../../shared/json-values";
+import { sectionKeysOf } from "../../../shared/mrope-axes";
 import { argsOf, compactJson, flagValue, launchArtifact, parseJsonArgument } from "./engines/launch-text";
 import { derivedContextLength } from "./engines/sglang-config";
 import {
@@ -85,8 +86,20 @@ function overridesFor(input: CompileInput): Record<string, unknown> {
   }
 }
 
+/**
+ * Rope types get_rope builds a multimodal rotary for when the block carries `mrope_section`: "default" (MRotaryEmbedding)
+ * and "yarn" (YaRNScalingMRotaryEmbedding); every other type runs one position axis (rotary_embedding/factory.py,
+ * get_rope, read through a stored annotated copy that names no commit).
+ */
+const SECTIONED_TYPES = ["default", "yarn"];
+
 function compile(input: CompileInput): CompileResult {
   const overrides = overridesFor(input);
+  // The override replaces rope_scaling whole, so a model's multimodal sections are written into it; a plain-RoPE or
+  // new-base plan keeps a "default" block holding them instead of removing it.
+  const sections = sectionKeysOf(input.config.rope_scaling) ?? sectionKeysOf(input.config.rope_parameters);
+  const block = isObj(overrides.rope_scaling) ? overrides.rope_scaling : { rope_type: "default" };
+  if (sections) overrides.rope_scaling = { ...block, ...sections };
   const args = [
     "--json-model-override-args",
     compactJson(overrides),
@@ -96,6 +109,15 @@ function compile(input: CompileInput): CompileResult {
   const artifact = launchArtifact('python -m sglang.launch_server --model-path "$MODEL"', args, {
     modelOverrides: overrides,
   });
+  const type = String(block.rope_type);
+  if (sections && !SECTIONED_TYPES.includes(type)) {
+    return {
+      ok: false,
+      cause: `SGLang builds multimodal sections only for rope_type default or yarn; a ${type} block runs one position axis, so image and video tokens lose their height and width positions`,
+      workaround: "for this model on SGLang, plan with YaRN or a new base (NTK-aware, adjusted base)",
+      artifact,
+    };
+  }
   return { ok: true, artifact };
 }
 

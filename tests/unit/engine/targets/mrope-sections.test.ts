@@ -63,25 +63,40 @@ describe("multimodal sections survive every transformers export", () => {
 });
 
 /*
- * vLLM's --hf-overrides replace the whole block, and get_rope builds a multimodal rotary only for rope_type "default"
- * or "yarn" with mrope_section in the block (vllm/model_executor/layers/rotary_embedding/__init__.py at 07b12f1).
+ * vLLM's --hf-overrides and SGLang's --json-model-override-args replace the whole block, and both get_rope functions
+ * build a multimodal rotary only for rope_type "default" or "yarn" with mrope_section in the block (vLLM:
+ * vllm/model_executor/layers/rotary_embedding/__init__.py at 07b12f1; SGLang: rotary_embedding/factory.py, read
+ * through a stored annotated copy).
  */
-describe("vLLM: the sections go into the overridden block; a type get_rope runs on one axis is refused", () => {
-  for (const { file, shape, keys } of CASES) {
-    for (const method of METHODS) {
-      const sectioned = method.method !== "linear";
-      it(`${file} × ${method.method}: ${sectioned ? "exact, sections kept" : "unsupported"}`, () => {
-        const cfg = config(file);
-        const [out] = exportForTargets(planInput(cfg, method, shape), ["vllm"]);
-        const overrides = (out.artifact!.content as { hfOverrides: Record<string, unknown> }).hfOverrides;
-        expect(overrides.rope_parameters).toMatchObject(keys);
-        if (sectioned) {
-          expect(out.conformance.status, out.conformance.cause).toBe("exact");
-        } else {
-          expect(out.conformance.status).toBe("unsupported");
-          expect(out.conformance.cause).toContain("multimodal sections only for rope_type default or yarn");
-        }
-      });
+const ENGINES = [
+  { id: "vllm" as const, name: "vLLM", block: (c: Record<string, unknown>) => c.hfOverrides, key: "rope_parameters" },
+  {
+    id: "sglang" as const,
+    name: "SGLang",
+    block: (c: Record<string, unknown>) => c.modelOverrides,
+    key: "rope_scaling",
+  },
+];
+describe("serving engines: the sections go into the overridden block; a type get_rope runs on one axis is refused", () => {
+  for (const engine of ENGINES) {
+    for (const { file, shape, keys } of CASES) {
+      for (const method of METHODS) {
+        const sectioned = method.method !== "linear";
+        it(`${engine.id}: ${file} × ${method.method}: ${sectioned ? "exact, sections kept" : "unsupported"}`, () => {
+          const cfg = config(file);
+          const [out] = exportForTargets(planInput(cfg, method, shape), [engine.id]);
+          const overrides = engine.block(out.artifact!.content as Record<string, unknown>) as Record<string, unknown>;
+          expect(overrides[engine.key]).toMatchObject(keys);
+          if (sectioned) {
+            expect(out.conformance.status, out.conformance.cause).toBe("exact");
+          } else {
+            expect(out.conformance.status).toBe("unsupported");
+            expect(out.conformance.cause).toContain(
+              `${engine.name} builds multimodal sections only for rope_type default or yarn`,
+            );
+          }
+        });
+      }
     }
   }
 });
