@@ -3,7 +3,7 @@ import type { Executor } from "../../db/client";
 import type { planListQuerySchema, RevisionState } from "../../../shared/schemas";
 import type { z } from "zod";
 import type { ProofState } from "../../../shared/schemas/evidence-api";
-import { cappedCount, containsPattern } from "../../platform/paging";
+import { cappedCount, cappedTotal, containsPattern, TOTAL_CAP } from "../../platform/paging";
 
 type Query = z.output<typeof planListQuerySchema>;
 
@@ -65,8 +65,18 @@ function filters(q: Query): SQL {
   return sql.join(where, sql` AND `);
 }
 
-/** One page of plans with the stored latest state: the page is chosen first, names are joined to its rows only. */
-export async function listPlanPage(ex: Executor, q: Query) {
+/** The plan list's columns for the page's ids, joined only to the page's rows. */
+const pageColumns = sql`
+    SELECT p.id, p.title, p.purpose, p.owner_id, u.name AS owner_name, p.model_id, m.name AS model_name,
+           p.required_approvals, p.created_at, p.updated_at, p.latest_number, p.latest_state, p.approved_number,
+           ar.proof AS approved_proof`;
+const pageJoins = sql`
+    FROM page JOIN plans p ON p.id = page.id
+    LEFT JOIN plan_revisions ar ON ar.plan_id = p.id AND ar.number = p.approved_number
+    JOIN users u ON u.id = p.owner_id
+    JOIN model_profiles m ON m.id = p.model_id`;
+
+function pageOrder(q: Query) {
   const dir = q.dir === "asc" ? "ASC" : "DESC";
   const order = sql.raw(`${SORT[q.sort]} ${dir}, p.id ${dir}`);
   // Owner and model sorts need the name to choose the page; the others choose it from plans alone.
@@ -76,25 +86,61 @@ export async function listPlanPage(ex: Executor, q: Query) {
       : q.sort === "model"
         ? sql`JOIN model_profiles m ON m.id = p.model_id`
         : sql``;
+  return { order, sortJoin, limit: sql`LIMIT ${q.pageSize} OFFSET ${(q.page - 1) * q.pageSize}` };
+}
+
+/** One page of plans with the stored latest state: the page is chosen first, names are joined to its rows only. */
+export async function listPlanPage(ex: Executor, q: Query) {
+  const { order, sortJoin, limit } = pageOrder(q);
   const res = await ex.execute<PlanListRow>(sql`
     WITH page AS (
       SELECT p.id FROM plans p ${sortJoin}
       WHERE ${filters(q)}
-      ORDER BY ${order}
-      LIMIT ${q.pageSize} OFFSET ${(q.page - 1) * q.pageSize})
-    SELECT p.id, p.title, p.purpose, p.owner_id, u.name AS owner_name, p.model_id, m.name AS model_name,
-           p.required_approvals, p.created_at, p.updated_at, p.latest_number, p.latest_state, p.approved_number,
-           ar.proof AS approved_proof
-    FROM page JOIN plans p ON p.id = page.id
-    LEFT JOIN plan_revisions ar ON ar.plan_id = p.id AND ar.number = p.approved_number
-    JOIN users u ON u.id = p.owner_id
-    JOIN model_profiles m ON m.id = p.model_id
+      ORDER BY ${order} ${limit})
+    ${pageColumns} ${pageJoins}
     ORDER BY ${order}`);
   return res.rows;
 }
 
+/**
+ * "none" alone: every approved revision is its plan's approved_number (approving one supersedes the plan's other
+ * approved revisions, plans.repo supersedeApprovedExcept), so the count walks the partial index
+ * plan_revisions_unproven up to the cap instead of hashing every unproven revision to match it against plans.
+ */
+const onlyUnproven = (q: Query) => q.proof === "none" && !q.state && !q.ownerId && !q.modelId && !q.q;
+
 /** How many plans match, counted up to a cap (see cappedCount). */
-export const countPlans = (ex: Executor, q: Query) => cappedCount(ex, sql`SELECT 1 FROM plans p WHERE ${filters(q)}`);
+export const countPlans = (ex: Executor, q: Query) =>
+  cappedCount(
+    ex,
+    onlyUnproven(q)
+      ? sql`SELECT 1 FROM plan_revisions ar WHERE ar.state = 'approved' AND ar.proof IS NULL`
+      : sql`SELECT 1 FROM plans p WHERE ${filters(q)}`,
+  );
+
+/**
+ * A page and its capped count. A text search finds its matches once (a materialized CTE) and both the page and the
+ * count read them: the trigram look-ups are the costly part, and two statements would run them twice.
+ */
+export async function listPlansCounted(ex: Executor, q: Query) {
+  if (!q.q) {
+    const [rows, count] = await Promise.all([listPlanPage(ex, q), countPlans(ex, q)]);
+    return { rows, count };
+  }
+  const { order, sortJoin, limit } = pageOrder(q);
+  const res = await ex.execute<PlanListRow & { match_count: number }>(sql`
+    WITH matched AS MATERIALIZED (SELECT p.id FROM plans p WHERE ${filters(q)}),
+    counted AS (SELECT count(*)::int AS n FROM (SELECT 1 FROM matched LIMIT ${TOTAL_CAP + 1}) capped),
+    page AS (
+      SELECT p.id FROM matched JOIN plans p ON p.id = matched.id ${sortJoin}
+      ORDER BY ${order} ${limit})
+    ${pageColumns}, counted.n AS match_count ${pageJoins} CROSS JOIN counted
+    ORDER BY ${order}`);
+  const rows: PlanListRow[] = res.rows.map(({ match_count: _, ...r }) => r);
+  if (res.rows.length > 0) return { rows, count: cappedTotal(res.rows[0]!.match_count) };
+  // An empty first page means nothing matched; an empty later page says nothing of the total, so count apart.
+  return { rows, count: q.page === 1 ? cappedTotal(0) : await countPlans(ex, q) };
+}
 
 /** The review queue's rows: in review, not this approver's own, not yet decided by them this round. */
 const waitingFor = (approverId: number) => sql`

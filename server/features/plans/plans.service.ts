@@ -12,7 +12,7 @@ import {
 } from "../../../shared/schemas";
 import type { z } from "zod";
 import * as repo from "./plans.repo";
-import { countPlans, listPlanPage } from "./plans.list";
+import { listPlansCounted } from "./plans.list";
 import {
   buildContent,
   fingerprintContent,
@@ -211,7 +211,7 @@ export async function updatePlanSettings(deps: AppDeps, actor: SessionUser, min:
 }
 
 export async function listPlans(deps: AppDeps, q: z.output<typeof planListQuerySchema>) {
-  const [rows, count] = await Promise.all([listPlanPage(deps.db, q), countPlans(deps.db, q)]);
+  const { rows, count } = await listPlansCounted(deps.db, q);
   return {
     ...count,
     page: q.page,

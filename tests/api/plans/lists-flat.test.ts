@@ -93,6 +93,50 @@ describe("plan list search and sorts", () => {
     expect(await ids(ownerName)).toEqual(expect.arrayContaining([byTitle.id, byPurpose.id]));
   });
 
+  it("a text search's pages tile its matches under every sort, and each page, past the end too, says how many", async () => {
+    const tag = `tq${Math.random().toString(36).slice(2, 8)}`;
+    const researcher = await agentAs(["researcher"]);
+    const model = await createProfile(researcher);
+    for (let i = 0; i < 5; i++) await createPlan(researcher, model.id, { title: `Search ${tag} ${i}` });
+    for (const sort of ["updatedAt", "title", "owner", "model"]) {
+      const url = `/api/plans?q=${tag}&sort=${sort}&dir=asc&pageSize=2`;
+      const seen: number[] = [];
+      // Page 4 is empty: its total cannot come from its own rows.
+      for (let page = 1; page <= 4; page++) {
+        const r = await researcher.get(`${url}&page=${page}`).expect(200);
+        expect(r.body).toMatchObject({ total: 5, totalCapped: false, page });
+        seen.push(...r.body.plans.map((p: { id: number }) => p.id));
+      }
+      expect(new Set(seen).size).toBe(5);
+    }
+    const none = await researcher.get(`/api/plans?q=${tag}-absent`).expect(200);
+    expect(none.body).toMatchObject({ total: 0, totalCapped: false, plans: [] });
+  });
+
+  it("proof=none counts what the filter's definition counts: approved plans whose approved revision has no proof", async () => {
+    const researcher = await agentAs(["researcher"]);
+    const approver = await agentAs(["approver"]);
+    const model = await createProfile(researcher);
+    const plan = await createPlan(researcher, model.id);
+    await post(researcher, `/api/plans/${plan.id}/revisions/1/submit`).expect(200);
+    await decide(approver, `/api/plans/${plan.id}/revisions/1/decisions`, { decision: "approve" }).expect(200);
+    // A second approval supersedes the first: one approved revision per plan is what the count relies on.
+    await post(researcher, `/api/plans/${plan.id}/revisions`).expect(201);
+    await post(researcher, `/api/plans/${plan.id}/revisions/2/submit`).expect(200);
+    await decide(approver, `/api/plans/${plan.id}/revisions/2/decisions`, { decision: "approve" }).expect(200);
+    const definition = async () =>
+      (
+        await db.execute<{ n: number }>(sql`SELECT count(*)::int AS n FROM plans p WHERE EXISTS (
+          SELECT 1 FROM plan_revisions ar WHERE ar.plan_id = p.id AND ar.number = p.approved_number AND ar.proof IS NULL)`)
+      ).rows[0]!.n;
+    const before = await definition();
+    const listed = await researcher.get("/api/plans?proof=none&pageSize=100").expect(200);
+    expect(before).toBeGreaterThan(0);
+    expect(listed.body.total).toBe(before);
+    expect(await definition()).toBe(before);
+    expect(listed.body.plans.map((p: { id: number }) => p.id)).toContain(plan.id);
+  });
+
   it("every sort key answers pages that tile the list without gaps or repeats", async () => {
     const researcher = await agentAs(["researcher"]);
     const model = await createProfile(researcher);
