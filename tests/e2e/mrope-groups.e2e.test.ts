@@ -158,7 +158,10 @@ describe("multimodal sections: bands over the pair axis, and what a plan that sc
 
     const report = await openReport(page);
     expect(await axisItems(report)).toMatchObject({
-      temporal: expect.stringMatching(/^temporal: 16 pairs \(0–15\); .* 0 of them unseen angles and 15 compressed/),
+      // the method by its name, as the plan page names it (not its id)
+      temporal: expect.stringMatching(
+        /^temporal: 16 pairs \(0–15\); the plan's NTK-aware base gives 0 of them unseen angles and 15 compressed/,
+      ),
       height: expect.stringMatching(/^height: 24 pairs \(16–39\); .* 0 of them unseen angles and 8 compressed/),
       width: expect.stringMatching(/^width: 24 pairs \(40–63\); .* 23 of them unseen angles and 0 compressed/),
     });

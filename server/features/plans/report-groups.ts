@@ -77,7 +77,7 @@ export function mropeSection(c: RevisionContent): string {
     .map(({ axis, pairs: idx }) => {
       const unseen = idx.filter((j) => f.flags.unseenAngles.includes(j)).length;
       const compressed = idx.filter((j) => f.flags.compressedResolution.includes(j)).length;
-      return `<li data-axis="${axis}"><strong>${axis}</strong>: ${idx.length} pairs (${esc(runs(idx))}); the plan's ${esc(f.method)} gives ${unseen} of them unseen angles and ${compressed} compressed resolution</li>`;
+      return `<li data-axis="${axis}"><strong>${axis}</strong>: ${idx.length} pairs (${esc(runs(idx))}); the plan's ${esc(findMethod(f.method)?.short ?? f.method)} gives ${unseen} of them unseen angles and ${compressed} compressed resolution</li>`;
     })
     .join("");
   return `<h2>Multimodal sections</h2><p>mrope_section [${esc(section.join(", "))}], ${interleaved ? "interleaved (T H W T H W …)" : "in contiguous blocks (temporal, height, width)"}: the method rescales every pair, so each axis below is scaled with it.</p><ul>${items}</ul>`;
