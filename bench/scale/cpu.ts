@@ -21,8 +21,11 @@ export interface CpuSample {
   db: Map<number, number>;
 }
 
-/** CPU used so far by this process and by each backend connected to the pool's database, in milliseconds. */
-export async function cpuNow(pool: pg.Pool): Promise<CpuSample> {
+/**
+ * CPU used so far by this process (plus the server's, when it runs in a child process) and by each backend connected
+ * to the pool's database, in milliseconds.
+ */
+export async function cpuNow(pool: pg.Pool, serverPid?: number): Promise<CpuSample> {
   const pids = (
     await pool.query<{ pid: number }>(
       // Client backends only: an autovacuum worker on the same database is not the requests' cost. The backend that
@@ -31,7 +34,8 @@ export async function cpuNow(pool: pg.Pool): Promise<CpuSample> {
     )
   ).rows.map((r) => r.pid);
   const u = process.cpuUsage();
-  return { node: (u.user + u.system) / 1000, db: new Map(pids.map((p) => [p, processCpuMs(p)])) };
+  const server = serverPid === undefined ? 0 : processCpuMs(serverPid);
+  return { node: (u.user + u.system) / 1000 + server, db: new Map(pids.map((p) => [p, processCpuMs(p)])) };
 }
 
 /** CPU between two samples; a backend seen only in the later one counts from zero (it started meanwhile). */

@@ -13,7 +13,7 @@ import { seedDemo } from "../../server/db/seed";
 const root = path.resolve(import.meta.dirname, "../..");
 export const BENCH_DB = "ropewalk_bench_scale";
 const port = process.env.PGPORT ?? "54329";
-const ownerUrl = `postgres://${LOCAL_OWNER_ROLE}@127.0.0.1:${port}/${BENCH_DB}`;
+export const ownerUrl = `postgres://${LOCAL_OWNER_ROLE}@127.0.0.1:${port}/${BENCH_DB}`;
 export const appUrl = `postgres://${LOCAL_APP_ROLE}@127.0.0.1:${port}/${BENCH_DB}`;
 
 export async function prepare(reseed: boolean) {
