@@ -1,7 +1,5 @@
-import { execFileSync, spawn, type ChildProcess } from "node:child_process";
-import crypto from "node:crypto";
+import { execFileSync, spawn } from "node:child_process";
 import fs from "node:fs";
-import net from "node:net";
 import os from "node:os";
 import path from "node:path";
 import { performance } from "node:perf_hooks";
@@ -11,6 +9,7 @@ import { DEFAULT_GRID } from "../shared/schemas/bounds";
 import { smallestSupportingBase } from "../server/engine/base-search";
 import { METHOD_IDS } from "../shared/schemas/analysis";
 import { load, median, send, signIn } from "./http-client";
+import { freePort, startProductionApp, waitFor } from "./production-app";
 
 // The figures of the speed table, each as a ratio against a baseline measured in the same run:
 //  - smallest-base search over HTTP (a fresh computation) against the same search in-process;
@@ -25,51 +24,16 @@ const root = path.resolve(import.meta.dirname, "..");
 const DEMO = { email: "researcher@ropewalk.test", password: "ropewalk-demo" };
 const FRESH_RUNS = 3;
 
-const freePort = () =>
-  new Promise<number>((resolve) => {
-    const s = net.createServer().listen(0, "127.0.0.1", () => {
-      const { port } = s.address() as net.AddressInfo;
-      s.close(() => resolve(port));
-    });
-  });
-
-async function waitFor(url: string, child: ChildProcess) {
-  for (let i = 0; i < 600; i++) {
-    if (child.exitCode !== null) throw new Error(`the server exited (${child.exitCode})`);
-    try {
-      if ((await send(url)).status < 500) return;
-    } catch {
-      // not listening yet
-    }
-    await new Promise((r) => setTimeout(r, 250));
-  }
-  throw new Error(`${url} did not answer`);
-}
-
-async function startApp(pgPort: string) {
+function startApp(pgPort: string) {
   execFileSync("bash", [path.join(root, "docker-free-db-scripts/start.sh"), "ropewalk"], {
     stdio: ["ignore", "ignore", "inherit"],
   });
-  const port = await freePort();
-  const child = spawn("node", ["scripts/launch.mjs"], {
-    cwd: root,
-    stdio: ["ignore", "ignore", "inherit"],
-    env: {
-      ...process.env,
-      NODE_ENV: "production",
-      PORT: String(port),
-      DATABASE_URL: `postgres://${LOCAL_APP_ROLE}@127.0.0.1:${pgPort}/ropewalk`,
-      MIGRATION_DATABASE_URL: `postgres://${LOCAL_OWNER_ROLE}@127.0.0.1:${pgPort}/ropewalk`,
-      SESSION_SECRET: crypto.randomBytes(24).toString("hex"),
-      TRUST_PROXY: "true",
-      RW_SEED: "true",
-      LOGIN_LIMIT_PER_ADDRESS: "100000",
-      LOG_LEVEL: "warn",
-    },
+  return startProductionApp({
+    databaseUrl: `postgres://${LOCAL_APP_ROLE}@127.0.0.1:${pgPort}/ropewalk`,
+    migrationUrl: `postgres://${LOCAL_OWNER_ROLE}@127.0.0.1:${pgPort}/ropewalk`,
+    seed: true,
+    tries: 600,
   });
-  const base = `http://127.0.0.1:${port}`;
-  await waitFor(`${base}/api/health`, child);
-  return { base, child };
 }
 
 async function startBareJson(body: Buffer) {
@@ -81,7 +45,7 @@ async function startBareJson(body: Buffer) {
     stdio: ["ignore", "ignore", "inherit"],
   });
   const base = `http://127.0.0.1:${port}`;
-  await waitFor(base, child);
+  await waitFor(base, child, 600);
   return { base, child };
 }
 
