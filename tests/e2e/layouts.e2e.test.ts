@@ -3,6 +3,7 @@ import type { Browser } from "playwright-core";
 import { downloadedText, launchBrowser, requireBuiltClient, screenshot } from "../setup/browser";
 import { startTestServer } from "../setup/server";
 import { importConfigThroughUi } from "../setup/import-config";
+import { draftPlanInForm } from "../setup/plan-form";
 import { signedInPages } from "../setup/signed-in";
 import { createTestUser, type TestUser } from "../setup/users";
 
@@ -70,18 +71,7 @@ describe("a layered model from import to an approved export", () => {
 
   it("drafts a plan in the form; the plan page shows the local layers kept as trained; submits it", async () => {
     const page = await signedIn(researcher, "/plans");
-    await page.getByRole("link", { name: "New plan" }).click();
-    const form = page.getByRole("form", { name: "New plan" });
-    await form.waitFor();
-    await form.getByLabel("Title").fill(title);
-    // The picker offers one page of profiles; its search finds this one wherever it sorts.
-    await page.getByLabel("Find a model profile").fill(modelName);
-    await form.getByLabel("Model", { exact: true }).selectOption({ label: modelName });
-    await form.getByLabel("Method", { exact: true }).selectOption("yarn");
-    await form.getByLabel("Target context (tokens)").first().fill("65536");
-    await form.getByRole("button", { name: "Save draft" }).click();
-    await page.waitForURL(/\/plans\/\d+$/);
-    planId = Number(new URL(page.url()).pathname.split("/").pop());
+    planId = await draftPlanInForm(page, { title, modelName, method: "yarn", target: 65536 });
     const groups = page.getByTestId("group-results");
     await groups.waitFor({ timeout: 15_000 });
     const local = groups.locator('tr[data-kind="sliding_attention"]');

@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
 import { launchBrowser, requireBuiltClient, screenshot } from "../setup/browser";
 import { importConfigThroughUi } from "../setup/import-config";
+import { draftPlanInForm } from "../setup/plan-form";
 import { startTestServer } from "../setup/server";
 import { signedInPages } from "../setup/signed-in";
 import { createTestUser, type TestUser } from "../setup/users";
@@ -55,21 +56,6 @@ afterAll(async () => {
   await browser?.close();
   await server?.close();
 });
-
-/** The new-plan form: a model found through the picker's search, NTK-aware to `target`, saved as a draft. */
-async function draftNtkPlan(page: Page, modelName: string, title: string, target: number): Promise<void> {
-  await page.getByRole("link", { name: "New plan" }).click();
-  const form = page.getByRole("form", { name: "New plan" });
-  await form.waitFor();
-  await form.getByLabel("Title").fill(title);
-  // The picker offers one page of profiles; its search finds this one wherever it sorts.
-  await page.getByLabel("Find a model profile").fill(modelName);
-  await form.getByLabel("Model", { exact: true }).selectOption({ label: modelName });
-  await form.getByLabel("Method", { exact: true }).selectOption("ntk");
-  await form.getByLabel("Target context (tokens)").first().fill(String(target));
-  await form.getByRole("button", { name: "Save draft" }).click();
-  await page.waitForURL(/\/plans\/\d+$/);
-}
 
 /** The report the plan page opens in a new tab. */
 async function openReport(page: Page): Promise<Page> {
@@ -129,7 +115,7 @@ describe("multimodal sections: bands over the pair axis, and what a plan that sc
     await screenshot(page, "mrope-workbench-contiguous");
 
     await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Plans", exact: true }).click();
-    await draftNtkPlan(page, modelName, `Three-strand blocks ×4 ${stamp}`, 131072);
+    await draftPlanInForm(page, { modelName, title: `Three-strand blocks ×4 ${stamp}`, method: "ntk", target: 131072 });
     await page.getByTestId("mrope-axes").waitFor({ timeout: 15_000 });
     /*
      * b = 10⁶, d = 128, L = 32 768, L′ = 131 072 (s = 4).
@@ -199,7 +185,7 @@ describe("multimodal sections: bands over the pair axis, and what a plan that sc
     await screenshot(page, "mrope-workbench-interleaved");
 
     await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Plans", exact: true }).click();
-    await draftNtkPlan(page, modelName, `Three-strand laid ×4 ${stamp}`, 1048576);
+    await draftPlanInForm(page, { modelName, title: `Three-strand laid ×4 ${stamp}`, method: "ntk", target: 1048576 });
     await page.getByTestId("mrope-axes").waitFor({ timeout: 15_000 });
     /*
      * b = 5·10⁶, d = 128, L = 262 144, L′ = 1 048 576 (s = 4).
@@ -227,7 +213,7 @@ describe("a layered model's flags per layer group, on the plan page and in the r
     // layers 0–4 and 6–10 local (window 1 024, base 10 000), 5 and 11 full (base 10⁶); pre-trained 16 384
     await importConfigThroughUi(page, "sliding-full-local-base.json", modelName);
     await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Plans", exact: true }).click();
-    await draftNtkPlan(page, modelName, `Windowed strands to 64k ${stamp}`, 65536);
+    await draftPlanInForm(page, { modelName, title: `Windowed strands to 64k ${stamp}`, method: "ntk", target: 65536 });
     const groups = page.getByTestId("group-results");
     await groups.waitFor({ timeout: 15_000 });
     /*
