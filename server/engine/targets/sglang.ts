@@ -4,6 +4,7 @@ import { isObj, numberOr } from "../../../shared/json-values";
 import { sectionKeysOf } from "../../../shared/mrope-axes";
 import { argsOf, compactJson, flagValue, launchArtifact, parseJsonArgument } from "./engines/launch-text";
 import { derivedContextLength } from "./engines/sglang-config";
+import { unsectionedTypeRefusal } from "./engines/multimodal-types";
 import {
   CONSUMER_RULES,
   llama3InvFreq,
@@ -109,15 +110,8 @@ function compile(input: CompileInput): CompileResult {
   const artifact = launchArtifact('python -m sglang.launch_server --model-path "$MODEL"', args, {
     modelOverrides: overrides,
   });
-  const type = String(block.rope_type);
-  if (sections && !SECTIONED_TYPES.includes(type)) {
-    return {
-      ok: false,
-      cause: `SGLang builds multimodal sections only for rope_type default or yarn; a ${type} block runs one position axis, so image and video tokens lose their height and width positions`,
-      workaround: "for this model on SGLang, plan with YaRN or a new base (NTK-aware, adjusted base)",
-      artifact,
-    };
-  }
+  const refused = sections && unsectionedTypeRefusal("SGLang", SECTIONED_TYPES, String(block.rope_type), artifact);
+  if (refused) return refused;
   return { ok: true, artifact };
 }
 

@@ -4,6 +4,7 @@ import { numberOr } from "../../../shared/json-values";
 import { sectionKeysOf } from "../../../shared/mrope-axes";
 import { argsOf, compactJson, flagValue, launchArtifact, parseJsonArgument } from "./engines/launch-text";
 import { derivedMaxModelLen, vllmRopeParameters } from "./engines/vllm-config";
+import { unsectionedTypeRefusal } from "./engines/multimodal-types";
 import {
   CONSUMER_RULES,
   llama3InvFreq,
@@ -108,14 +109,8 @@ function compile(input: CompileInput): CompileResult {
   }
   const args = ["--hf-overrides", compactJson(overrides), "--max-model-len", String(input.plan.targetContext)];
   const artifact = launchArtifact('vllm serve "$MODEL"', args, { hfOverrides: overrides });
-  if (sections && !SECTIONED_TYPES.includes(String(block.rope_type))) {
-    return {
-      ok: false,
-      cause: `vLLM builds multimodal sections only for rope_type default or yarn; a ${String(block.rope_type)} block runs one position axis, so image and video tokens lose their height and width positions`,
-      workaround: "for this model on vLLM, plan with YaRN or a new base (NTK-aware, adjusted base)",
-      artifact,
-    };
-  }
+  const refused = sections && unsectionedTypeRefusal("vLLM", SECTIONED_TYPES, String(block.rope_type), artifact);
+  if (refused) return refused;
   return { ok: true, artifact };
 }
 
