@@ -72,6 +72,9 @@ describe("empty forms answer in plain sentences", () => {
     for (const [url, sentences] of Object.entries(expected)) {
       await page.goto(`${server.url}${url}`);
       await page.locator("form").first().waitFor({ timeout: 20_000 });
+      // Some forms render only after their page's data arrives (the accelerator form waits for the catalog): send the
+      // forms once the page's requests have settled, or a form not yet drawn is never sent.
+      await page.waitForLoadState("networkidle");
       await submitEveryForm(page);
       // The answers arrive as each form's check finishes; wait for every expected sentence before reading the screen.
       for (const sentence of sentences)
