@@ -108,6 +108,11 @@ export const planRevisions = pgTable(
     index("plan_revisions_unproven")
       .on(t.planId, t.number)
       .where(sql`${t.state} = 'approved' AND ${t.proof} IS NULL`),
+    // A plan holds at most one approved revision: approving one supersedes the others (workflow.service decide,
+    // shared/plan-rules latestApproved). The plan list's proof counts rely on it (plans.list countPlans).
+    uniqueIndex("plan_revisions_one_approved")
+      .on(t.planId)
+      .where(sql`${t.state} = 'approved'`),
     // The column stays text (no type change under live triggers); the CHECK keeps it to the shared list.
     check("plan_revisions_state_known", sql`${t.state} IN (${inList(REVISION_STATES)})`),
     // Proof follows approval: only an approved (or later superseded) revision carries one.

@@ -168,8 +168,10 @@ export async function decide(
     const approvals = await repo.approvalsInRound(tx, rev.id, rev.round);
     const required = await effectiveApprovals(tx, plan);
     if (approvals < required) return { number: n, state: rev.state, approvals };
-    const row = await repo.updateRevision(tx, rev.id, { state: "approved", decidedAt: new Date() });
+    // The previous sign-off steps down first: a plan holds one approved revision at a time, and the database
+    // refuses a second (unique index plan_revisions_one_approved, migration 0022), checked statement by statement.
     const superseded = await repo.supersedeApprovedExcept(tx, planId, rev.id);
+    const row = await repo.updateRevision(tx, rev.id, { state: "approved", decidedAt: new Date() });
     await repo.touchPlan(tx, planId);
     await recordAudit(tx, {
       actorId: actor.id,
