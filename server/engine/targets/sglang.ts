@@ -89,10 +89,32 @@ function overridesFor(input: CompileInput): Record<string, unknown> {
 
 /**
  * Rope types get_rope builds a multimodal rotary for when the block carries `mrope_section`: "default" (MRotaryEmbedding)
- * and "yarn" (YaRNScalingMRotaryEmbedding); every other type runs one position axis (rotary_embedding/factory.py,
- * get_rope, read through a stored annotated copy that names no commit).
+ * and "yarn" (YaRNScalingMRotaryEmbedding); every other type runs one position axis (rotary_embedding/factory.py at
+ * eb047c1, get_rope).
+ *
+ * YaRNScalingMRotaryEmbedding (python/sglang/srt/layers/rotary_embedding/mrope.py at 020d83a) is plain YaRN on the
+ * multimodal layout: get_rope passes it `original_max_position_embeddings` as its length (no enlargement: the class
+ * hands it to the base unchanged), with the same extrapolation_factor, attn_factor, beta_fast, beta_slow and truncate
+ * as the one-axis class; its `_compute_inv_freq` builds the ramp from that length and scales the kept share by
+ * extrapolation_factor, and its cos/sin are multiplied by yarn_get_mscale_simple(s) × attn_factor. It honours
+ * `mrope_interleaved` (apply_interleaved_rope). So the reader reads a sectioned yarn block exactly as a plain one
+ * (tests/unit/engine/targets/multimodal-yarn.test.ts pins it to hand-worked values).
  */
 const SECTIONED_TYPES = ["default", "yarn"];
+
+/**
+ * MRotaryEmbedding (mrope.py at 020d83a) does not refuse sections whose sum is not rotary_dim / 2: it prints a notice
+ * and rescales them (each × (d/2)/sum, floored, at least 1, the last taking the remainder). θ′ is unchanged, but the
+ * pairs' axes are then not the config's.
+ */
+function sectionSumWarning(block: Record<string, unknown> | null, d: number): string | null {
+  const s = block?.mrope_section;
+  if (!Array.isArray(s) || !s.every((n) => typeof n === "number")) return null;
+  const sum = (s as number[]).reduce((a, b) => a + b, 0);
+  return sum === d / 2
+    ? null
+    : `SGLang rescales mrope_section ${JSON.stringify(s)} (sum ${sum}) to sum to ${d / 2} at load, so its pairs' axes are not the config's`;
+}
 
 function compile(input: CompileInput): CompileResult {
   const overrides = overridesFor(input);
@@ -148,6 +170,8 @@ function read(config: Record<string, unknown>, artifact: TargetArtifact, running
         : null
     : "default";
   if (type === null) throw new Error("rope_scaling has neither rope_type nor type: SGLang refuses it");
+  const sumWarning = type === "default" || type === "yarn" ? sectionSumWarning(rs, d) : null;
+  if (sumWarning) warnings.push(sumWarning);
   const need = (key: string) => {
     if (!rs || !(key in rs)) throw new Error(`SGLang's get_rope needs ${key} for rope_type ${type}`);
     return rs[key] as number;
@@ -186,7 +210,8 @@ function read(config: Record<string, unknown>, artifact: TargetArtifact, running
         truncate: rs?.truncate !== false,
         extrapolationFactor: ext,
       });
-      // attention_factor, mscale and mscale_all_dim are not read for "yarn" (factory.py): silently ignored.
+      // attention_factor, mscale and mscale_all_dim are not read for "yarn" (factory.py): silently ignored. The same
+      // holds for a block with sections (YaRNScalingMRotaryEmbedding, SECTIONED_TYPES above).
       return reading(inv, yarnMscale(f) * numberOr(rs?.attn_factor, 1), L);
     }
     case "llama3": {

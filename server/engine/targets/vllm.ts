@@ -86,10 +86,47 @@ function ropeBlock(input: CompileInput): { block: Record<string, unknown>; maxPo
 
 /**
  * Rope types get_rope builds a multimodal rotary for when the block carries `mrope_section`: "default" and "yarn"
- * (vllm/model_executor/layers/rotary_embedding/__init__.py at 07b12f1, get_rope; MRotaryEmbedding's own yarn path
- * not re-read). Every other type builds a one-axis rotary and the sections are never read.
+ * (vllm/model_executor/layers/rotary_embedding/__init__.py at 07b12f1, get_rope). Every other type builds a one-axis
+ * rotary and the sections are never read.
  */
 const SECTIONED_TYPES = ["default", "yarn"];
+
+/**
+ * vLLM's multimodal rotary with YaRN (get_rope at 07b12f1 and 0cd5784: `MRotaryEmbedding(…, original_max_position, …,
+ * scaling_factor=factor, …)` when the yarn block has `mrope_section`), read in
+ * vllm/model_executor/layers/rotary_embedding/mrope.py at dba39a5 and 055e47c:
+ * - it enlarges the length it is given 4× for video positions (`cache_max_position_num = max_position_embeddings * 4`)
+ *   and hands that to the base class, which stores it as `max_position_embeddings`;
+ * - its frequencies are YaRNScalingRotaryEmbedding's (`_compute_inv_freq` is borrowed, yarn_scaling_rope.py 0cd5784 /
+ *   ffdc985), whose ramp ends come from `yarn_find_correction_range(β_fast, β_slow, d, b, self.max_position_embeddings)`
+ *   — so the ramp is built from 4 × original_max_position_embeddings, not from the original length;
+ * - its magnitude is `yarn_get_mscale(factor) × attn_factor`, multiplied into cos/sin; the class takes no
+ *   attention_factor, mscale or mscale_all_dim (at 07b12f1 get_rope forwards only extrapolation_factor, attn_factor,
+ *   beta_fast, beta_slow and truncate to it; 0cd5784 also forwards attention_factor and the mscale pair, to a
+ *   mrope.py our store does not hold — not followed);
+ * - it honours `mrope_interleaved` (apply_interleaved_rope and the triton kernel's interleaved masks) and asserts
+ *   `sum(mrope_section) == rotary_dim // 2` at load.
+ * The correction dim d·ln(L/(2πβ))/(2·ln b) depends on L/β only (YaRN, Peng et al. 2023, the ramp's definition via
+ * r(d) = L/λ_d), so writing β_fast and β_slow times 4 puts the ramp back where the plan has it. The 4 is the fixed
+ * factor of the mrope.py we read; 0cd5784's get_rope takes it as `mrope_positions_factor` (default 4) from the model
+ * file — a model passing another value is not followed.
+ */
+export const VLLM_MROPE_POSITIONS_FACTOR = 4;
+
+/** The multimodal sections of a block, when it has them: the pairs per axis and the layout flag. */
+function sectionsOf(block: Record<string, unknown>): { section: number[]; interleaved: boolean } | null {
+  const s = block.mrope_section;
+  if (!Array.isArray(s) || !s.every((n) => typeof n === "number")) return null;
+  return { section: s as number[], interleaved: block.mrope_interleaved === true };
+}
+
+/** mrope.py (dba39a5, 055e47c) asserts the sections cover every rotating pair; anything else stops vLLM at load. */
+function sectionSumProblem(section: number[], d: number): string | null {
+  const sum = section.reduce((a, b) => a + b, 0);
+  return sum === d / 2
+    ? null
+    : `vLLM's multimodal rotary asserts sum(mrope_section) == rotary_dim // 2 at load (mrope.py): the sections sum to ${sum}, the model rotates ${d / 2} pairs`;
+}
 
 function compile(input: CompileInput): CompileResult {
   const { block, maxPosition } = ropeBlock(input);
@@ -97,6 +134,16 @@ function compile(input: CompileInput): CompileResult {
   // from rope_parameters; the 4.x-era config keeps them in rope_scaling).
   const sections = sectionKeysOf(input.config.rope_parameters) ?? sectionKeysOf(input.config.rope_scaling);
   if (sections) Object.assign(block, sections);
+  const sectioned = sections ? sectionsOf(block) : null;
+  if (sectioned && block.rope_type === "yarn") {
+    // The multimodal class builds the ramp from 4 × the original length: β × 4 gives the plan's ramp ends back, and
+    // its magnitude is g(s) × attn_factor (VLLM_MROPE_POSITIONS_FACTOR).
+    block.beta_fast = (block.beta_fast as number) * VLLM_MROPE_POSITIONS_FACTOR;
+    block.beta_slow = (block.beta_slow as number) * VLLM_MROPE_POSITIONS_FACTOR;
+    if (typeof block.attention_factor === "number") {
+      block.attn_factor = block.attention_factor / yarnMscale(block.factor as number);
+    }
+  }
   const overrides: Record<string, unknown> = {
     rope_parameters: block,
     rope_scaling: block,
@@ -111,6 +158,15 @@ function compile(input: CompileInput): CompileResult {
   const artifact = launchArtifact('vllm serve "$MODEL"', args, { hfOverrides: overrides });
   const refused = sections && unsectionedTypeRefusal("vLLM", SECTIONED_TYPES, String(block.rope_type), artifact);
   if (refused) return refused;
+  const badSum = sectioned && sectionSumProblem(sectioned.section, input.plan.rotaryDim);
+  if (badSum) {
+    return {
+      ok: false,
+      cause: badSum,
+      // no fallback artifact: any block with these sections stops vLLM at load
+      workaround: `correct mrope_section in config.json so it sums to ${input.plan.rotaryDim / 2}, or serve with SGLang or transformers`,
+    };
+  }
   return { ok: true, artifact };
 }
 
@@ -157,8 +213,12 @@ function read(config: Record<string, unknown>, artifact: TargetArtifact): Consum
     warnings,
   });
   switch (type) {
-    case "default":
+    case "default": {
+      const mm = sectionsOf(rp);
+      const problem = mm && sectionSumProblem(mm.section, d);
+      if (problem) throw new Error(problem);
       return reading(plainInvFreq(d, base), 1, null);
+    }
     case "linear":
       // linear_scaling_rope.py (0f17ee0) wraps only a float factor in a list; an int one is iterated and fails.
       if (intFloats.some((p) => p.endsWith("/factor"))) {
@@ -174,6 +234,23 @@ function read(config: Record<string, unknown>, artifact: TargetArtifact): Consum
     case "yarn": {
       const f = need("factor");
       const L = need("original_max_position_embeddings");
+      const mm = sectionsOf(rp);
+      if (mm) {
+        // The multimodal class (VLLM_MROPE_POSITIONS_FACTOR): ramp from 4 × L, magnitude g(s) × attn_factor only.
+        const problem = sectionSumProblem(mm.section, d);
+        if (problem) throw new Error(problem);
+        const ramp = L * VLLM_MROPE_POSITIONS_FACTOR;
+        const inv = yarnInvFreq({
+          d,
+          base,
+          factor: f,
+          original: ramp,
+          betaFast: numberOr(rp.beta_fast, 32),
+          betaSlow: numberOr(rp.beta_slow, 1),
+          truncate: rp.truncate !== false,
+        });
+        return { ...reading(inv, yarnMscale(f) * numberOr(rp.attn_factor, 1), ramp), method: "yarn (multimodal)" };
+      }
       const inv = yarnInvFreq({
         d,
         base,
