@@ -6,7 +6,22 @@ import type { ModelShape } from "./schemas/analysis";
  * their shapes from here, so both sides ask the engines exactly the same question for the same profile.
  */
 
-type RotarySource = Required<Omit<ModelShape, "partialRotaryFactor">> & { partialRotaryFactor: number };
+type SectionKeys = "mropeSection" | "mropeInterleaved";
+type RotarySource = Required<Omit<ModelShape, "partialRotaryFactor" | SectionKeys>> & {
+  partialRotaryFactor: number;
+  /** a profile row's sections (null: none), or a snapshot's (absent: none) */
+  mropeSection?: unknown;
+  mropeInterleaved?: boolean | null;
+};
+
+/**
+ * A profile's multimodal sections as the engine takes them: only when it has some, so the shape of every other model
+ * (and what is computed from it) is as before.
+ */
+export const sectionsOf = (m: Pick<RotarySource, SectionKeys>): Pick<ModelShape, SectionKeys> =>
+  Array.isArray(m.mropeSection) && m.mropeSection.length
+    ? { mropeSection: m.mropeSection as number[], ...(m.mropeInterleaved ? { mropeInterleaved: true } : {}) }
+    : {};
 
 /** The rotary engine's model shape (the analysis schema is strict: only these keys). */
 export const rotaryShapeOf = (m: RotarySource): ModelShape => ({
@@ -18,6 +33,7 @@ export const rotaryShapeOf = (m: RotarySource): ModelShape => ({
   attentionHeads: m.attentionHeads,
   kvHeads: m.kvHeads,
   hiddenSize: m.hiddenSize,
+  ...sectionsOf(m),
 });
 
 /**

@@ -8,7 +8,8 @@ import { criticalBase, criticalDimension, extrapolationBound } from "./extrapola
 import { scanSupportedLength } from "./base-bound";
 import { decayCurve, decayPositions } from "./decay";
 
-export const ENGINE_VERSION = "rw-engine/1.0.0";
+/** 1.1: config patches of models with multimodal sections carry them (docs/export-targets.md, "The signed block"). */
+export const ENGINE_VERSION = "rw-engine/1.1.0";
 /** Keeps the in-request scan near 4 ms even for huge bases or targets (an evaluation costs about 1 µs at d = 256); POST /api/bounds/base gives the full answer. */
 export const ANALYSIS_SCAN_EVALUATIONS = 4_000;
 export { METHODS, runMethod };
@@ -23,7 +24,13 @@ export function analyse(request: ResolvedAnalysisRequest): AnalysisResponse {
   const d = rotaryDimension(model);
   if (d === null) throw new RangeError("rotary dimension must be a positive even integer (validate the request first)");
   const bands = request.bands ?? DEFAULT_BANDS;
-  const ctx: MethodContext = { d, base: model.ropeTheta, trainedContext: model.trainedContext, targetContext };
+  const ctx: MethodContext = {
+    d,
+    base: model.ropeTheta,
+    trainedContext: model.trainedContext,
+    targetContext,
+    ...(model.mropeSection ? { mropeSection: model.mropeSection, mropeInterleaved: model.mropeInterleaved } : {}),
+  };
   const invFreq = inverseFrequencies(d, model.ropeTheta);
   const window = { trainedContext: model.trainedContext, targetContext, bands };
   const boundFor = (base: number) =>

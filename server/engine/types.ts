@@ -8,6 +8,12 @@ export interface MethodContext {
   base: number;
   trainedContext: number;
   targetContext: number;
+  /**
+   * The model's multimodal sections, when it has them: no number depends on them, but the config patch carries them
+   * (methods/common.ts), since the model's attention reads them on every step.
+   */
+  mropeSection?: readonly number[];
+  mropeInterleaved?: boolean;
 }
 
 /** One method's answer: scaled inverse frequencies θ'_i, the cos/sin multiplier a, and its config patch. */

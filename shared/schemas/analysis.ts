@@ -2,6 +2,7 @@ import { z } from "zod";
 import { EXPORT_ROPE_TYPES, METHOD_IDS, METHOD_SCHEMAS, METHODS_NEEDING_EXTENSION, type MethodId } from "../methods";
 import { lengthSchema, MAX_HEAD_DIM, positive } from "../methods/params";
 import { dbIdSchema } from "./common";
+import { mropeSectionSchema } from "./models";
 
 /**
  * Contract of POST /api/analyses: which rotary scaling methods to compare on one model.
@@ -34,6 +35,13 @@ export const rotaryShapeSchema = z.strictObject({
   attentionHeads: z.number().int().positive().max(10_000).optional(),
   kvHeads: z.number().int().positive().max(10_000).optional(),
   hiddenSize: z.number().int().positive().max(1_000_000).optional(),
+  /**
+   * Multimodal sections (pairs per position axis) and their layout flag, when the model has them. They change no
+   * number the engine computes; the config patch carries them, since the model reads them on every step
+   * (shared/mrope-axes.ts, MROPE_KEYS).
+   */
+  mropeSection: mropeSectionSchema.optional(),
+  mropeInterleaved: z.boolean().optional(),
 });
 export type ModelShape = z.infer<typeof rotaryShapeSchema>;
 export const modelRefSchema = z.strictObject({ modelId: dbIdSchema });
@@ -173,6 +181,22 @@ export const pairResultSchema = z.object({
 });
 export type PairResult = z.infer<typeof pairResultSchema>;
 
+/**
+ * The multimodal section keys a block carries for a model that has sections (shared/mrope-axes.ts, MROPE_KEYS), and
+ * `type` beside `rope_type` with the same value. Why `type`: the 4.x multimodal config classes overwrite `rope_type`
+ * with `type` whenever the block has one (mrope read as default): huggingface/transformers
+ * src/transformers/models/qwen2_vl/configuration_qwen2_vl.py at 4efabc6e, Qwen2VLConfig.__init__. A block merged
+ * (RFC 7396) onto a config whose block says `type: "mrope"` would otherwise run as default RoPE; writing `type: null`
+ * instead would remove it on a merge but, for a consumer that replaces `rope_scaling` whole, leave a `type` of None
+ * that the same lines copy into `rope_type`. The same value under both names is read alike by every line
+ * (modeling_rope_utils.py `_check_received_keys` drops `type` when it sees it; v5 takes `rope_type` first).
+ */
+const sectionKeyFields = {
+  type: z.enum(EXPORT_ROPE_TYPES).optional(),
+  mrope_section: z.array(z.number().int()).optional(),
+  mrope_interleaved: z.boolean().optional(),
+};
+
 /** `rope_scaling` in the open model-configuration convention (snake_case keys, as loaders read them). */
 export const ropeScalingBlockSchema = z.object({
   rope_type: z.enum(EXPORT_ROPE_TYPES),
@@ -188,12 +212,28 @@ export const ropeScalingBlockSchema = z.object({
   high_freq_factor: num.optional(),
   long_factor: z.array(num).optional(),
   short_factor: z.array(num).optional(),
+  ...sectionKeyFields,
 });
 export type RopeScalingBlock = z.infer<typeof ropeScalingBlockSchema>;
 
-/** The keys to write into config.json: rope_scaling (null for none), rope_theta only when the base changes. */
+/**
+ * Plain RoPE (or a new base) on a model with multimodal sections: a `default` block that holds only the sections, so
+ * applying the patch keeps them (a null `rope_scaling` would delete them and the model reads them every step).
+ */
+export const sectionsOnlyBlockSchema = z.strictObject({
+  rope_type: z.literal("default"),
+  type: z.literal("default"),
+  mrope_section: z.array(z.number().int()),
+  mrope_interleaved: z.boolean().optional(),
+});
+export type SectionsOnlyBlock = z.infer<typeof sectionsOnlyBlockSchema>;
+
+/**
+ * The keys to write into config.json: rope_scaling (null for none, the sections-only block for none on a model with
+ * sections), rope_theta only when the base changes.
+ */
 export const configPatchSchema = z.object({
-  rope_scaling: ropeScalingBlockSchema.nullable(),
+  rope_scaling: z.union([ropeScalingBlockSchema, sectionsOnlyBlockSchema]).nullable(),
   rope_theta: num.optional(),
   max_position_embeddings: z.number().int(),
 });

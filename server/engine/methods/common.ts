@@ -6,20 +6,42 @@ export const contextRatio = (ctx: MethodContext) => ctx.targetContext / ctx.trai
 
 export const resolveFactor = (ctx: MethodContext, factor: number | undefined) => factor ?? contextRatio(ctx);
 
+/*
+ * A model with multimodal sections reads them from the rotary block on every step (huggingface/transformers
+ * src/transformers/models/qwen2_vl/modeling_qwen2_vl.py at 00b676f8, Qwen2VLAttention.forward passes
+ * `self.rope_scaling["mrope_section"]`), so the patch of such a model keeps them in whatever block it writes: the
+ * per-stack exports do the same (targets/hf/compile.ts, sectionKeysOf). `type` repeats `rope_type`: the 4.x
+ * multimodal config classes copy `type` over `rope_type` (the reasons are at sectionKeyFields in
+ * shared/schemas/analysis.ts).
+ */
+const sectionKeys = (ctx: MethodContext) =>
+  ctx.mropeSection?.length
+    ? { mrope_section: [...ctx.mropeSection], ...(ctx.mropeInterleaved ? { mrope_interleaved: true } : {}) }
+    : null;
+
 export function patchWithScaling(
   ctx: MethodContext,
-  block: Omit<RopeScalingBlock, "original_max_position_embeddings">,
+  block: Omit<RopeScalingBlock, "original_max_position_embeddings" | "type" | "mrope_section" | "mrope_interleaved">,
 ): ConfigPatch {
+  const sections = sectionKeys(ctx);
   return {
-    rope_scaling: { ...block, original_max_position_embeddings: ctx.trainedContext },
+    rope_scaling: {
+      ...block,
+      ...(sections ? { type: block.rope_type } : {}),
+      original_max_position_embeddings: ctx.trainedContext,
+      ...sections,
+    },
     max_position_embeddings: ctx.targetContext,
   };
 }
 
+/** Plain RoPE at a base: no block, or for a model with sections a `default` block holding only them. */
 export function patchWithBase(ctx: MethodContext, base: number | null): ConfigPatch {
+  const sections = sectionKeys(ctx);
+  const rope_scaling = sections ? { rope_type: "default" as const, type: "default" as const, ...sections } : null;
   return base === null
-    ? { rope_scaling: null, max_position_embeddings: ctx.targetContext }
-    : { rope_scaling: null, rope_theta: base, max_position_embeddings: ctx.targetContext };
+    ? { rope_scaling, max_position_embeddings: ctx.targetContext }
+    : { rope_scaling, rope_theta: base, max_position_embeddings: ctx.targetContext };
 }
 
 /**

@@ -2,7 +2,7 @@ import type { MethodFn } from "../types";
 import { inverseFrequencies } from "../frequencies";
 import { METHOD_CATALOG } from "../../../shared/methods";
 import { dynamicBaseGrowth } from "../../../shared/methods/dynamic-factor";
-import { resolveFactor } from "./common";
+import { patchWithScaling, resolveFactor } from "./common";
 
 /**
  * Dynamic NTK-aware base at inference length l (Peng et al. 2023 §3.3, in the form the open model libraries run):
@@ -25,11 +25,7 @@ export const dynamicMethod: MethodFn<"dynamic"> = (ctx, params) => {
     // Loaders use max_position_embeddings as L in the formula above and only grow the base past it,
     // so the export keeps the trained length there; the base grows at inference time.
     ropeScaling: {
-      rope_scaling: {
-        rope_type: METHOD_CATALOG.dynamic.exportType,
-        factor,
-        original_max_position_embeddings: ctx.trainedContext,
-      },
+      ...patchWithScaling(ctx, { rope_type: METHOD_CATALOG.dynamic.exportType, factor }),
       max_position_embeddings: ctx.trainedContext,
     },
     effectiveBase: base,

@@ -54,7 +54,7 @@ export function readV4(view: ConfigView, rules: V4Rules, runningLength?: number)
   if (!rs) return plain("default");
 
   // BC: "rope_type" was "type" (PretrainedConfig keeps reading the old key).
-  const ropeType = String(rs.rope_type ?? rs.type ?? "default");
+  const ropeType = multimodalType(rs) ?? String(rs.rope_type ?? rs.type ?? "default");
   validateV4(view, rs, ropeType, rules, d, maxPos, warnings);
   const f = (key: string) => num(rs[key]);
   const seqLen = runningLength ?? maxPos;
@@ -91,6 +91,17 @@ export function readV4(view: ConfigView, rules: V4Rules, runningLength?: number)
     default:
       throw new Error(`rope_type "${ropeType}" is not in ROPE_INIT_FUNCTIONS`);
   }
+}
+
+/**
+ * The 4.x multimodal config classes, which the configs carrying `mrope_section` load through, copy a `type` over
+ * `rope_type` whenever the block has one, reading "mrope" as "default": huggingface/transformers
+ * src/transformers/models/qwen2_vl/configuration_qwen2_vl.py at 4efabc6e (4.4x line), Qwen2VLConfig.__init__. So a
+ * block merged onto such a config runs the type of its `type` key, not of its `rope_type`. Undefined for other blocks.
+ */
+function multimodalType(rs: Obj): string | undefined {
+  if (!("mrope_section" in rs) || !("type" in rs)) return undefined;
+  return rs.type === "mrope" ? "default" : String(rs.type);
 }
 
 function readYarn(rs: Obj, rules: V4Rules, d: number, base: number, maxPos: number, warnings: string[]) {
