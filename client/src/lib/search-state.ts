@@ -2,6 +2,9 @@ import { useEffect, useState } from "react";
 import { useSearchParams } from "react-router-dom";
 import type { z } from "zod";
 
+/** Query params that carry a keyset cursor: each is cleared with the page number. */
+const KEYSET_CURSORS = ["before", "after"];
+
 /**
  * A view's inputs kept in the URL's search params (so it can be bookmarked and shared), each read with the
  * field's own schema from a shared query schema; a value that does not parse is dropped rather than breaking
@@ -24,10 +27,11 @@ export function useSearchState<S extends z.ZodObject>(schema: S) {
         if (v === undefined || v === null || v === "") next.delete(k);
         else next.set(k, String(v));
       }
-      // A keyset cursor (`before`) belongs to the page it was read for, so it goes with the page.
+      // A keyset cursor (the audit trail's `before`, the plan list's `after`) belongs to the page it was read for,
+      // so it goes with the page.
       if (!("page" in changes)) {
         next.delete("page");
-        next.delete("before");
+        for (const cursor of KEYSET_CURSORS) next.delete(cursor);
       }
       return next;
     });

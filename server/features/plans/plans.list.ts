@@ -3,22 +3,49 @@ import type { Executor } from "../../db/client";
 import type { planListQuerySchema, RevisionState } from "../../../shared/schemas";
 import type { z } from "zod";
 import type { ProofState } from "../../../shared/schemas/evidence-api";
-import { cappedCount, cappedTotal, containsPattern, TOTAL_CAP } from "../../platform/paging";
+import {
+  cappedCount,
+  cappedTotal,
+  containsPattern,
+  decodeCursor,
+  encodeCursor,
+  keysetAfter,
+  TOTAL_CAP,
+} from "../../platform/paging";
 
 type Query = z.output<typeof planListQuerySchema>;
 
 /**
  * Sort keys, each backed by an index (server/db/schema/plans.ts) so a page is a short index range; owner and model
- * sort through an index on the name. Keys come from this fixed table, never from input.
+ * sort through an index on the name. Keys come from this fixed table, never from input. `cursorText` prints the key for a
+ * keyset cursor as text that casts back to the same value: timestamps in UTC to the microsecond (a JavaScript Date
+ * keeps milliseconds only, which would skip or repeat rows sharing one).
  */
-const SORT: Record<Query["sort"], string> = {
-  updatedAt: "p.updated_at",
-  createdAt: "p.created_at",
-  title: "lower(p.title)",
-  state: "p.latest_state",
-  owner: "lower(u.name)",
-  model: "lower(m.name)",
+const SORT: Record<Query["sort"], { key: string; type: "timestamptz" | "text" }> = {
+  updatedAt: { key: "p.updated_at", type: "timestamptz" },
+  createdAt: { key: "p.created_at", type: "timestamptz" },
+  title: { key: "lower(p.title)", type: "text" },
+  state: { key: "p.latest_state", type: "text" },
+  owner: { key: "lower(u.name)", type: "text" },
+  model: { key: "lower(m.name)", type: "text" },
 };
+
+const cursorText = (sort: Query["sort"]) => {
+  const { key, type } = SORT[sort];
+  return sql.raw(type === "timestamptz" ? `to_char(${key} AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.US"Z"')` : key);
+};
+
+/** The order a cursor belongs to: the sort key and direction. */
+const orderName = (q: Query) => `${q.sort}.${q.dir}`;
+
+/** The rows after `q.after` in the page's order, or every row without a cursor. */
+function afterCursor(q: Query): SQL {
+  if (!q.after) return sql`true`;
+  const c = decodeCursor(q.after, orderName(q), "after");
+  const { key, type } = SORT[q.sort];
+  const value = type === "timestamptz" ? sql`${c.key}::timestamptz` : sql`${c.key}::text`;
+  return keysetAfter(sql.raw(key), sql`p.id`, q.dir, value, c.id);
+}
 
 export type PlanListRow = {
   id: number;
@@ -36,6 +63,8 @@ export type PlanListRow = {
   approved_number: number | null;
   /** the approved revision's proof (null: none yet, or no approved revision) */
   approved_proof: ProofState | null;
+  /** the row's sort key as a cursor carries it (cursorText) */
+  sort_key: string;
 };
 
 /**
@@ -66,10 +95,10 @@ function filters(q: Query): SQL {
 }
 
 /** The plan list's columns for the page's ids, joined only to the page's rows. */
-const pageColumns = sql`
-    SELECT p.id, p.title, p.purpose, p.owner_id, u.name AS owner_name, p.model_id, m.name AS model_name,
-           p.required_approvals, p.created_at, p.updated_at, p.latest_number, p.latest_state, p.approved_number,
-           ar.proof AS approved_proof`;
+const pageColumns = (q: Query) => sql`
+    SELECT ${cursorText(q.sort)} AS sort_key, p.id, p.title, p.purpose, p.owner_id, u.name AS owner_name,
+           p.model_id, m.name AS model_name, p.required_approvals, p.created_at, p.updated_at, p.latest_number,
+           p.latest_state, p.approved_number, ar.proof AS approved_proof`;
 const pageJoins = sql`
     FROM page JOIN plans p ON p.id = page.id
     LEFT JOIN plan_revisions ar ON ar.plan_id = p.id AND ar.number = p.approved_number
@@ -78,7 +107,7 @@ const pageJoins = sql`
 
 function pageOrder(q: Query) {
   const dir = q.dir === "asc" ? "ASC" : "DESC";
-  const order = sql.raw(`${SORT[q.sort]} ${dir}, p.id ${dir}`);
+  const order = sql.raw(`${SORT[q.sort].key} ${dir}, p.id ${dir}`);
   // Owner and model sorts need the name to choose the page; the others choose it from plans alone.
   const sortJoin =
     q.sort === "owner"
@@ -86,18 +115,29 @@ function pageOrder(q: Query) {
       : q.sort === "model"
         ? sql`JOIN model_profiles m ON m.id = p.model_id`
         : sql``;
-  return { order, sortJoin, limit: sql`LIMIT ${q.pageSize} OFFSET ${(q.page - 1) * q.pageSize}` };
+  // With a cursor the page starts at it (a range of the sort key's index); without one, `page` is an OFFSET, kept
+  // for links into the first pages (its cost grows with the page number).
+  const offset = q.after ? 0 : (q.page - 1) * q.pageSize;
+  return { order, sortJoin, after: afterCursor(q), limit: sql`LIMIT ${q.pageSize} OFFSET ${offset}` };
 }
+
+/** The cursor for the page after `rows` (null when the page was not full: nothing follows). */
+const nextAfter = (q: Query, rows: PlanListRow[]) => {
+  const last = rows[rows.length - 1];
+  return rows.length === q.pageSize && last
+    ? encodeCursor({ order: orderName(q), key: last.sort_key, id: last.id })
+    : null;
+};
 
 /** One page of plans with the stored latest state: the page is chosen first, names are joined to its rows only. */
 export async function listPlanPage(ex: Executor, q: Query) {
-  const { order, sortJoin, limit } = pageOrder(q);
+  const { order, sortJoin, after, limit } = pageOrder(q);
   const res = await ex.execute<PlanListRow>(sql`
     WITH page AS (
       SELECT p.id FROM plans p ${sortJoin}
-      WHERE ${filters(q)}
+      WHERE ${filters(q)} AND ${after}
       ORDER BY ${order} ${limit})
-    ${pageColumns} ${pageJoins}
+    ${pageColumns(q)} ${pageJoins}
     ORDER BY ${order}`);
   return res.rows;
 }
@@ -125,21 +165,24 @@ export const countPlans = (ex: Executor, q: Query) =>
 export async function listPlansCounted(ex: Executor, q: Query) {
   if (!q.q) {
     const [rows, count] = await Promise.all([listPlanPage(ex, q), countPlans(ex, q)]);
-    return { rows, count };
+    return { rows, count, nextAfter: nextAfter(q, rows) };
   }
-  const { order, sortJoin, limit } = pageOrder(q);
+  const { order, sortJoin, after, limit } = pageOrder(q);
   const res = await ex.execute<PlanListRow & { match_count: number }>(sql`
     WITH matched AS MATERIALIZED (SELECT p.id FROM plans p WHERE ${filters(q)}),
     counted AS (SELECT count(*)::int AS n FROM (SELECT 1 FROM matched LIMIT ${TOTAL_CAP + 1}) capped),
     page AS (
       SELECT p.id FROM matched JOIN plans p ON p.id = matched.id ${sortJoin}
+      WHERE ${after}
       ORDER BY ${order} ${limit})
-    ${pageColumns}, counted.n AS match_count ${pageJoins} CROSS JOIN counted
+    ${pageColumns(q)}, counted.n AS match_count ${pageJoins} CROSS JOIN counted
     ORDER BY ${order}`);
   const rows: PlanListRow[] = res.rows.map(({ match_count: _, ...r }) => r);
-  if (res.rows.length > 0) return { rows, count: cappedTotal(res.rows[0]!.match_count) };
+  const next = nextAfter(q, rows);
+  if (res.rows.length > 0) return { rows, count: cappedTotal(res.rows[0]!.match_count), nextAfter: next };
   // An empty first page means nothing matched; an empty later page says nothing of the total, so count apart.
-  return { rows, count: q.page === 1 ? cappedTotal(0) : await countPlans(ex, q) };
+  const first = q.page === 1 && !q.after;
+  return { rows, count: first ? cappedTotal(0) : await countPlans(ex, q), nextAfter: next };
 }
 
 /** The review queue's rows: in review, not this approver's own, not yet decided by them this round. */

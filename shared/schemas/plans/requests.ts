@@ -122,6 +122,14 @@ export const planListQuerySchema = z.object({
   pageSize: z.coerce.number().int().min(1).max(100).default(20),
   sort: z.enum(["updatedAt", "createdAt", "title", "state", "owner", "model"]).default("updatedAt"),
   dir: z.enum(["asc", "desc"]).default("desc"),
+  /**
+   * Keyset paging: the plans after this cursor (the previous page's `nextAfter`, read under the same sort and
+   * direction); `page` then only labels the page.
+   */
+  after: z
+    .string()
+    .regex(/^[A-Za-z0-9_-]{1,4000}$/, "a cursor from the previous page's nextAfter")
+    .optional(),
   state: revisionStateSchema.optional(),
   /** the approved revision's proof: proven, unproven, or none (approved, no proof decision yet) */
   proof: z.enum(["proven", "unproven", "none"]).optional(),

@@ -42,6 +42,8 @@ export type PlanListItem = z.infer<typeof planListItemSchema>;
 
 export const planListResponseSchema = z.object({
   ...pagedTotal,
+  /** Pass as `after` for the next page: keyset paging, as cheap at any depth (null on the last page). */
+  nextAfter: z.string().nullable(),
   page: z.number(),
   pageSize: z.number(),
   plans: z.array(planListItemSchema),

@@ -156,6 +156,71 @@ describe("plan list search and sorts", () => {
   });
 });
 
+describe("plan list keyset paging", () => {
+  it("following nextAfter walks every plan once under every sort and direction, ties and microseconds included", async () => {
+    const one = await agentAs(["researcher"]);
+    const two = await agentAs(["researcher"]);
+    const model = await createProfile(one);
+    const tag = `ka${Math.random().toString(36).slice(2, 8)}`;
+    const ids: number[] = [];
+    // Ties on every key: titles equal but for case (the title sort is case-blind), two owners, one model, states.
+    for (let i = 0; i < 7; i++)
+      ids.push((await createPlan(i % 2 ? one : two, model.id, { title: i % 3 ? `${tag} same` : `${tag} SAME` })).id);
+    await post(one, `/api/plans/${ids[1]}/revisions/1/submit`).expect(200);
+    // Timestamps tied in threes and twos, and one microsecond apart: a cursor that kept milliseconds only (as a
+    // JavaScript Date does) would skip or repeat these rows.
+    const at = (us: number) => `2026-03-01T10:00:00.12345${us}Z`;
+    await db.execute(sql`UPDATE plans SET updated_at = ${at(6)}, created_at = ${at(1)}
+                         WHERE id IN (${ids[0]}, ${ids[2]}, ${ids[3]})`);
+    await db.execute(
+      sql`UPDATE plans SET updated_at = ${at(7)}, created_at = ${at(2)} WHERE id IN (${ids[4]}, ${ids[5]})`,
+    );
+    const expected = [...ids].sort((x, y) => x - y);
+    const idsOf = (body: { plans: { id: number }[] }) => body.plans.map((p) => p.id);
+    for (const filter of [`modelId=${model.id}`, `q=${tag}`]) {
+      for (const sort of ["updatedAt", "createdAt", "title", "state", "owner", "model"]) {
+        for (const dir of ["asc", "desc"]) {
+          const url = `/api/plans?${filter}&sort=${sort}&dir=${dir}`;
+          const whole = idsOf((await one.get(`${url}&pageSize=100`).expect(200)).body);
+          expect([...whole].sort((x, y) => x - y)).toEqual(expected);
+          for (const pageSize of [2, 7]) {
+            const walked: number[] = [];
+            let after: string | null = null;
+            for (let page = 1; page <= 8; page++) {
+              const cursor: string = after ? `&after=${after}` : "";
+              const body = (await one.get(`${url}&pageSize=${pageSize}&page=${page}${cursor}`).expect(200)).body;
+              expect(body).toMatchObject({ total: 7, totalCapped: false, page });
+              walked.push(...idsOf(body));
+              after = body.nextAfter;
+              if (!after) break;
+            }
+            // Each plan once, in the order one whole page gives.
+            expect(walked).toEqual(whole);
+          }
+        }
+      }
+    }
+    // The microsecond order is the stored one: newest first puts the .123457 pair before the .123456 three.
+    const byUpdated = idsOf((await one.get(`/api/plans?modelId=${model.id}&pageSize=100`).expect(200)).body);
+    expect(byUpdated.slice(-5)).toEqual([ids[5], ids[4], ids[3], ids[2], ids[0]]);
+  });
+
+  it("refuses a cursor it did not give out, or one read under another order, naming the field", async () => {
+    const researcher = await agentAs(["researcher"]);
+    const model = await createProfile(researcher);
+    for (let i = 0; i < 3; i++) await createPlan(researcher, model.id);
+    const url = `/api/plans?modelId=${model.id}&pageSize=1`;
+    const after = (await researcher.get(`${url}&sort=title`).expect(200)).body.nextAfter as string;
+    expect(after).toEqual(expect.any(String));
+    await researcher.get(`${url}&sort=title&page=2&after=${after}`).expect(200);
+    for (const bad of [`sort=owner&after=${after}`, `sort=title&dir=asc&after=${after}`, "after=abc", "after=a%25b"]) {
+      const r = await researcher.get(`${url}&${bad}`);
+      expect(r.status).toBe(400);
+      expect(r.body.error.fields.after).toBeTruthy();
+    }
+  });
+});
+
 describe("capped totals", () => {
   it("count exactly up to the cap, then say there are more", async () => {
     // Identity: generate_series(1, n) has n rows.

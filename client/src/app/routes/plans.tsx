@@ -83,7 +83,13 @@ export function PlansRoute() {
             pageSize={params.pageSize ?? DEFAULT_PAGE_SIZE}
             total={list.data.total}
             totalCapped={list.data.totalCapped}
-            onPage={(page) => update({ page })}
+            // The next page follows the server's cursor (as cheap at any depth); other moves go by page number.
+            onPage={(page) =>
+              update({
+                page,
+                after: page === list.data.page + 1 && list.data.nextAfter ? list.data.nextAfter : undefined,
+              })
+            }
             noun="Plans"
           />
         </div>
