@@ -3,7 +3,15 @@ import { explicitYarnAttention, factorOf, paramsOf, resolvePlan } from "./engine
 import { isObj } from "../../../shared/json-values";
 import { launchArtifact } from "./engines/launch-text";
 import { yarnMscale } from "./consumer-rope";
-import { convertedFreqFactors, ggufArch, key, type Metadata } from "./engines/gguf";
+import {
+  SECTIONED_ARCHS,
+  configSections,
+  convertedFreqFactors,
+  ggufArch,
+  ggufSections,
+  key,
+  type Metadata,
+} from "./engines/gguf";
 import { readLlamaCpp } from "./engines/llama-cpp-reader";
 
 /**
@@ -97,14 +105,50 @@ function compileParts(input: CompileInput): { args: string[]; metadata: Metadata
   }
 }
 
+/**
+ * Multimodal sections in llama.cpp: the GGUF carries them (`rope.dimension_sections`, written by the converter), the
+ * architecture fixes their layout (SECTIONED_ARCHS), and ggml's multi-section rope turns every pair through the same
+ * rope_yarn as the one-axis rope — same freq_scale, ext_factor, attention factor and ramp ends from n_ctx_orig
+ * (ggml/src/ggml-cpu/ops.cpp at 0049e3c, ggml_mrope_cache_init calls rope_yarn per pair with the section's position) —
+ * so linear and YaRN apply to a sectioned model exactly as to a plain one. The artifact's metadata carries the sections
+ * (a rewritten file keeps them); a model whose architecture runs no sections, or runs the other layout, is refused.
+ */
+function sectionRefusal(config: Record<string, unknown>, arch: string): [string, string] | null {
+  const sections = configSections(config);
+  if (!sections) return null;
+  const layout = SECTIONED_ARCHS[arch];
+  const wanted = sections.interleaved ? "interleaved" : "contiguous";
+  const runs = Object.entries(SECTIONED_ARCHS)
+    .map(([a, l]) => `${a} (${l})`)
+    .join(", ");
+  if (!layout) {
+    return [
+      `llama.cpp runs multimodal sections only for the architectures it gives a multi-section rope (${runs}); this model converts as ${arch}, which turns every pair by one position axis, so image and video tokens lose their height and width positions`,
+      "serve this model with vLLM or SGLang, which read mrope_section from the config",
+    ];
+  }
+  if (layout !== wanted) {
+    return [
+      `llama.cpp fixes the section layout by architecture: ${arch} runs ${layout} sections, and this model's config declares ${wanted} ones (mrope_interleaved ${sections.interleaved})`,
+      "serve this model with vLLM or SGLang, which read mrope_interleaved from the config",
+    ];
+  }
+  return null;
+}
+
 function compile(input: CompileInput): CompileResult {
   const { args, metadata, unsupported } = compileParts(input);
   const method = input.method.method;
   if (method === "llama3" || method === "longrope") {
     return { ok: false, cause: unsupported![0], workaround: unsupported![1] };
   }
+  const arch = ggufArch(input.config);
+  const sections = configSections(input.config);
+  if (sections) metadata[key(arch, "rope.dimension_sections")] = ggufSections(sections.section);
   const artifact = launchArtifact('llama-server -m "$MODEL_GGUF"', args, { metadata });
   if (unsupported) return { ok: false, cause: unsupported[0], workaround: unsupported[1], artifact };
+  const refusedSections = sectionRefusal(input.config, arch);
+  if (refusedSections) return { ok: false, cause: refusedSections[0], workaround: refusedSections[1], artifact };
   // A model converted from a llama3 config carries rope_freqs: ggml divides by it on top of any flag.
   if (isObj(input.config.rope_scaling) && convertedFreqFactors(input.config, input.plan.rotaryDim, input.plan.base)) {
     return {

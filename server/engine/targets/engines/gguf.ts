@@ -6,14 +6,56 @@ import { isObj, numberOr } from "../../../../shared/json-values";
  * writes for a config.json, and `--override-kv` parsing. Key names are those of ggml-org/llama.cpp src/llama-arch.cpp
  * (LLM_KV_NAMES); docs/export-targets-engines.md.
  */
-export type Metadata = Record<string, number | string | boolean>;
+export type Metadata = Record<string, number | string | boolean | number[]>;
 
 /**
  * convert_hf_to_gguf.py registers each Hugging Face architecture under a GGUF architecture name; the common decoders
  * map as below (from memory of the converter's model classes: MistralForCausalLM is converted by the Llama class).
  * Anything else keeps its model_type, which is the converter's name for most families.
  */
-const ARCH_BY_MODEL_TYPE: Record<string, string> = { llama: "llama", mistral: "llama", qwen2: "qwen2", qwen3: "qwen3" };
+const ARCH_BY_MODEL_TYPE: Record<string, string> = {
+  llama: "llama",
+  mistral: "llama",
+  qwen2: "qwen2",
+  qwen3: "qwen3",
+  // the multimodal families (src/llama-arch.cpp names LLM_ARCH_QWEN2VL, QWEN3VL, QWEN3VLMOE; the strings from memory)
+  qwen2_vl: "qwen2vl",
+  qwen3_vl: "qwen3vl",
+  qwen3_vl_moe: "qwen3vlmoe",
+};
+
+/**
+ * How llama.cpp lays out multimodal sections, fixed by architecture, not by any key: `llama_model_rope_type` in
+ * ggml-org/llama.cpp src/llama-model.cpp (read through stored copies that name no commit) gives QWEN2VL the rope type
+ * MROPE (contiguous blocks t, h, w) and QWEN3VL / QWEN3VLMOE the type IMROPE (interleaved T H W T H W …); every other
+ * architecture here rotates on one position axis and never reads the sections. The layouts match the followed loaders'
+ * (ggml/src/ggml-cpu/ops.cpp at 0049e3c, ggml_mrope_cache_init: contiguous sectors, or sector % 3 == 1 below
+ * 3·sections[1] for height and % 3 == 2 below 3·sections[2] for width; shared/mrope-axes.ts).
+ */
+export const SECTIONED_ARCHS: Readonly<Record<string, "contiguous" | "interleaved">> = {
+  qwen2vl: "contiguous",
+  qwen3vl: "interleaved",
+  qwen3vlmoe: "interleaved",
+};
+
+/** The model's multimodal sections (in its scaling block, either spelling), or null. */
+export function configSections(config: Record<string, unknown>): { section: number[]; interleaved: boolean } | null {
+  for (const block of [config.rope_parameters, config.rope_scaling]) {
+    if (!isObj(block)) continue;
+    const s = block.mrope_section;
+    if (Array.isArray(s) && s.every((n) => typeof n === "number")) {
+      return { section: s as number[], interleaved: block.mrope_interleaved === true };
+    }
+  }
+  return null;
+}
+
+/**
+ * The sections as the converter writes them: `mrope_section` padded with zeros to four entries (t, h, w, extra) under
+ * `<arch>.rope.dimension_sections` (convert_hf_to_gguf.py, TextModel.set_gguf_parameters: "Pad to 4 dimensions",
+ * gguf_writer.add_rope_dimension_sections; read through stored copies at a458664 and later).
+ */
+export const ggufSections = (section: readonly number[]) => [...section, 0, 0, 0, 0].slice(0, 4);
 
 export function ggufArch(config: Record<string, unknown>): string {
   const type = typeof config.model_type === "string" ? config.model_type : "llama";
@@ -30,6 +72,8 @@ export function convertedMetadata(config: Record<string, unknown>): Metadata {
     meta[key(arch, "context_length")] = config.max_position_embeddings;
   if (typeof config.rope_theta === "number") meta[key(arch, "rope.freq_base")] = config.rope_theta;
   meta[key(arch, "rope.dimension_count")] = Math.floor(headSize(config) * numberOr(config.partial_rotary_factor, 1));
+  const sections = configSections(config);
+  if (sections) meta[key(arch, "rope.dimension_sections")] = ggufSections(sections.section);
   const rs = isObj(config.rope_scaling) ? config.rope_scaling : null;
   const type = rs && (rs.rope_type ?? rs.type);
   // The converter writes linear and yarn blocks as metadata (convert_hf_to_gguf.py, TextModel.set_gguf_parameters).

@@ -16,6 +16,7 @@ function applyArtifactMetadata(config: Record<string, unknown>, artifact: Target
   if (isObj(written)) {
     for (const [k, v] of Object.entries(written)) {
       if (typeof v === "number" || typeof v === "string" || typeof v === "boolean") meta[k] = v;
+      else if (Array.isArray(v) && v.every((n) => typeof n === "number")) meta[k] = v as number[];
     }
   }
   args.forEach((a, i) => {
