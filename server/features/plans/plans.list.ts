@@ -68,6 +68,13 @@ export type PlanListRow = {
 };
 
 /**
+ * "none": an approved revision without a proof decision. A plan holds at most one approved revision (unique index
+ * plan_revisions_one_approved, migration 0022: approving one supersedes the others), and it is the one
+ * plans.approved_number names, so "none" is the plan having a row in the partial index plan_revisions_unproven.
+ */
+const UNPROVEN = sql`ar.state = 'approved' AND ar.proof IS NULL`;
+
+/**
  * Plans matching the filters, as conditions on `plans p` alone. The text search is a union of four trigram-indexed
  * look-ups (title, purpose, owner name, model name) rather than one OR over a four-table join, which no index serves.
  */
@@ -75,12 +82,12 @@ function filters(q: Query): SQL {
   const where: SQL[] = [sql`true`];
   if (q.state) where.push(sql`p.latest_state = ${q.state}`);
   // Proof belongs to the plan's approved revision (plans.approved_number); "none" is approved but not yet decided.
-  if (q.proof)
+  if (q.proof === "none")
+    where.push(sql`EXISTS (SELECT 1 FROM plan_revisions ar WHERE ar.plan_id = p.id AND ${UNPROVEN})`);
+  // A superseded revision keeps its proof, so "proven" and "unproven" name the approved revision by number.
+  else if (q.proof)
     where.push(
-      sql`EXISTS (SELECT 1 FROM plan_revisions ar WHERE ar.plan_id = p.id AND ar.number = p.approved_number AND ${
-        // approved_number names an approved revision; saying so lets "none" use plan_revisions_unproven.
-        q.proof === "none" ? sql`ar.state = 'approved' AND ar.proof IS NULL` : sql`ar.proof = ${q.proof}`
-      })`,
+      sql`EXISTS (SELECT 1 FROM plan_revisions ar WHERE ar.plan_id = p.id AND ar.number = p.approved_number AND ar.proof = ${q.proof})`,
     );
   if (q.ownerId) where.push(sql`p.owner_id = ${q.ownerId}`);
   if (q.modelId) where.push(sql`p.model_id = ${q.modelId}`);
@@ -143,20 +150,20 @@ export async function listPlanPage(ex: Executor, q: Query) {
 }
 
 /**
- * "none" alone: every approved revision is its plan's approved_number (approving one supersedes the plan's other
- * approved revisions, plans.repo supersedeApprovedExcept), so the count walks the partial index
- * plan_revisions_unproven up to the cap instead of hashing every unproven revision to match it against plans.
+ * The rows a capped count reads. "none" counts from plan_revisions_unproven: alone it walks that index up to the cap;
+ * with other filters it joins plans on id, which the planner answers from indexes (docs/scale-figures.md): a merge
+ * join in id order against plans_state_idx for a state, an index probe per plan of the owner's or model's; either
+ * walk ends at the cap or where one side runs out, and never reads every plan as testing each plan's revision did.
  */
-const onlyUnproven = (q: Query) => q.proof === "none" && !q.state && !q.ownerId && !q.modelId && !q.q;
+function countedRows(q: Query): SQL {
+  if (q.proof !== "none") return sql`SELECT 1 FROM plans p WHERE ${filters(q)}`;
+  if (!q.state && !q.ownerId && !q.modelId && !q.q) return sql`SELECT 1 FROM plan_revisions ar WHERE ${UNPROVEN}`;
+  return sql`SELECT 1 FROM plan_revisions ar JOIN plans p ON p.id = ar.plan_id
+    WHERE ${UNPROVEN} AND ${filters({ ...q, proof: undefined })}`;
+}
 
 /** How many plans match, counted up to a cap (see cappedCount). */
-export const countPlans = (ex: Executor, q: Query) =>
-  cappedCount(
-    ex,
-    onlyUnproven(q)
-      ? sql`SELECT 1 FROM plan_revisions ar WHERE ar.state = 'approved' AND ar.proof IS NULL`
-      : sql`SELECT 1 FROM plans p WHERE ${filters(q)}`,
-  );
+export const countPlans = (ex: Executor, q: Query) => cappedCount(ex, countedRows(q));
 
 /**
  * A page and its capped count. A text search finds its matches once (a materialized CTE) and both the page and the

@@ -137,6 +137,77 @@ describe("plan list search and sorts", () => {
     expect(listed.body.plans.map((p: { id: number }) => p.id)).toContain(plan.id);
   });
 
+  it("proof=none with another filter counts what a direct SQL count of the definition gives", async () => {
+    const researcher = await agentAs(["researcher"]);
+    const approver = await agentAs(["approver"]);
+    const model = await createProfile(researcher);
+    const tag = `pn${Math.random().toString(36).slice(2, 8)}`;
+    const plan = async () => (await createPlan(researcher, model.id, { title: `${tag} plan` })).id;
+    const approve = async (id: number, n: number) => {
+      await post(researcher, `/api/plans/${id}/revisions/${n}/submit`).expect(200);
+      await decide(approver, `/api/plans/${id}/revisions/${n}/decisions`, { decision: "approve" }).expect(200);
+    };
+    // approved, no proof yet | approved then a new draft (latest draft, approved revision 1 has no proof)
+    // | approved twice (revision 1 superseded) | approved and proven | in review
+    const [approved, redrafted, twice, proven, inReview] = [
+      await plan(),
+      await plan(),
+      await plan(),
+      await plan(),
+      await plan(),
+    ];
+    await plan(); // never approved
+    await approve(approved, 1);
+    await approve(redrafted, 1);
+    await post(researcher, `/api/plans/${redrafted}/revisions`).expect(201);
+    await approve(twice, 1);
+    await post(researcher, `/api/plans/${twice}/revisions`).expect(201);
+    await approve(twice, 2);
+    await approve(proven, 1);
+    // The proof is set directly (an evidence decision sets this column, tests/api/evidence/proof.test.ts).
+    await db.execute(sql`UPDATE plan_revisions SET proof = 'proven' WHERE plan_id = ${proven}`);
+    await post(researcher, `/api/plans/${inReview}/revisions/1/submit`).expect(200);
+
+    /** The filter's definition, counted plan by plan: the approved revision (approved_number) has no proof. */
+    const definition = async (extra: ReturnType<typeof sql>) =>
+      (
+        await db.execute<{ n: number }>(sql`SELECT count(*)::int AS n FROM plans p WHERE EXISTS (
+          SELECT 1 FROM plan_revisions ar WHERE ar.plan_id = p.id AND ar.number = p.approved_number AND ar.proof IS NULL)
+          AND ${extra}`)
+      ).rows[0]!.n;
+    const cases: [string, ReturnType<typeof sql>, number[]][] = [
+      [`modelId=${model.id}`, sql`p.model_id = ${model.id}`, [approved, redrafted, twice]],
+      [
+        `modelId=${model.id}&state=approved`,
+        sql`p.model_id = ${model.id} AND p.latest_state = 'approved'`,
+        [approved, twice],
+      ],
+      [`modelId=${model.id}&state=draft`, sql`p.model_id = ${model.id} AND p.latest_state = 'draft'`, [redrafted]],
+      [`modelId=${model.id}&state=in_review`, sql`p.model_id = ${model.id} AND p.latest_state = 'in_review'`, []],
+      [`ownerId=${researcher.user!.id}`, sql`p.owner_id = ${researcher.user!.id}`, [approved, redrafted, twice]],
+      [
+        `ownerId=${researcher.user!.id}&state=draft`,
+        sql`p.owner_id = ${researcher.user!.id} AND p.latest_state = 'draft'`,
+        [redrafted],
+      ],
+      [`q=${tag}`, sql`p.title LIKE ${`${tag}%`}`, [approved, redrafted, twice]],
+      [`q=${tag}&state=approved`, sql`p.title LIKE ${`${tag}%`} AND p.latest_state = 'approved'`, [approved, twice]],
+    ];
+    for (const [filter, extra, expected] of cases) {
+      const counted = await definition(extra);
+      expect(counted, filter).toBe(expected.length);
+      const body = (await researcher.get(`/api/plans?proof=none&${filter}&pageSize=100`).expect(200)).body;
+      expect(body, filter).toMatchObject({ total: counted, totalCapped: false });
+      expect(
+        body.plans.map((p: { id: number }) => p.id).sort((x: number, y: number) => x - y),
+        filter,
+      ).toEqual([...expected].sort((x, y) => x - y));
+      // Past the last page the count is taken apart from the rows: still the same.
+      const past = (await researcher.get(`/api/plans?proof=none&${filter}&pageSize=1&page=9`).expect(200)).body;
+      expect(past, filter).toMatchObject({ total: counted, plans: [] });
+    }
+  });
+
   it("every sort key answers pages that tile the list without gaps or repeats", async () => {
     const researcher = await agentAs(["researcher"]);
     const model = await createProfile(researcher);
