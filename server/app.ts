@@ -1,3 +1,4 @@
+import zlib from "node:zlib";
 import express from "express";
 import helmet from "helmet";
 import compression from "compression";
@@ -14,6 +15,7 @@ import { rejectHostileInput } from "./http/hostile";
 import { requestLog } from "./http/request-log";
 import { createLogger } from "./logger";
 import { serveClient } from "./http/static-client";
+import { COMPRESS_FROM_BYTES, DYNAMIC_BROTLI_QUALITY, DYNAMIC_GZIP_LEVEL } from "./platform/prepared-json";
 // Our own validation wording for every zod parse on the server (installs a global zod error map).
 import "../shared/validation-messages";
 
@@ -39,8 +41,15 @@ export function createApp(deps: AppDeps) {
   );
 
   // gzip/brotli for API answers and index.html; precompressed assets already carry Content-Encoding and are left
-  // alone, as are server-sent events (their Cache-Control says no-transform).
-  app.use(compression());
+  // alone, as are server-sent events (their Cache-Control says no-transform) and prepared answers (route.ts). Low
+  // levels: these bytes are compressed on every request (levels measured in server/platform/prepared-json.ts).
+  app.use(
+    compression({
+      level: DYNAMIC_GZIP_LEVEL,
+      threshold: COMPRESS_FROM_BYTES,
+      brotli: { params: { [zlib.constants.BROTLI_PARAM_QUALITY]: DYNAMIC_BROTLI_QUALITY } },
+    }),
+  );
 
   const api = express.Router();
   for (const f of OPEN_FEATURES) api.use(f.prefix || "/", mountFeature(f, deps));

@@ -4,6 +4,7 @@ import type { AppDeps } from "../deps";
 import type { Role, SessionUser } from "../../shared/schemas";
 import { currentUser, requireAuth, requireRole } from "./auth";
 import { parseOr400 } from "../platform/validate";
+import { COMPRESS_FROM_BYTES, type PreparedJson } from "../platform/prepared-json";
 
 export type Method = "get" | "post" | "put" | "patch" | "delete";
 
@@ -15,10 +16,13 @@ export interface RawResponse {
 export type ResponseSpec = z.ZodType | RawResponse;
 export type Responses = { [status: number]: ResponseSpec };
 
-/** What a handler returns: a status the route declares, with a body its schema accepts (checked by the compiler). */
+/**
+ * What a handler returns: a status the route declares, with a body its schema accepts (checked by the compiler), or
+ * the same body already serialised (`prepared`, for answers served many times: server/platform/prepared-json.ts).
+ */
 export type Reply<R extends Responses> = {
   [S in keyof R & number]: R[S] extends z.ZodType
-    ? { status: S; body: z.input<R[S]> }
+    ? { status: S; body: z.input<R[S]> } | { status: S; prepared: PreparedJson<z.input<R[S]>> }
     : { status: S; raw: string | null } | { status: S; streamed: true };
 }[keyof R & number];
 
@@ -60,7 +64,10 @@ export interface RouteSpec<P extends z.ZodType, Q extends z.ZodType, B extends z
 }
 
 type AnyReply =
-  { status: number; body: unknown } | { status: number; raw: string | null } | { status: number; streamed: true };
+  | { status: number; body: unknown }
+  | { status: number; prepared: PreparedJson }
+  | { status: number; raw: string | null }
+  | { status: number; streamed: true };
 
 /** A route with its types checked at definition and erased for the feature's list. */
 export interface ApiRoute {
@@ -124,17 +131,41 @@ function send(deps: AppDeps, def: ApiRoute, req: Request, res: Response, reply: 
     return void res.type(spec.contentType).send(reply.raw);
   }
   if (isRaw(spec)) throw new Error(`${def.method} ${def.path}: JSON body for a ${spec.contentType} response`);
+  const body = "prepared" in reply ? reply.prepared.value : reply.body;
   // Outside production every JSON answer is checked against its declared schema: tests fail on a mismatch,
   // development logs it and still answers, so a drifting contract shows up before a consumer trips on it.
   if (deps.config.env !== "production") {
-    const checked = spec.safeParse(reply.body);
+    const checked = spec.safeParse(body);
     if (!checked.success) {
       const err = new ResponseMismatch(`${def.method.toUpperCase()} ${req.baseUrl}${def.path}`, checked.error.issues);
       if (deps.config.env === "test") throw err;
       console.error(`[contract] ${err.message}`);
     }
   }
+  if ("prepared" in reply) return sendPrepared(req, res, reply.status, reply.prepared);
   res.status(reply.status).json(reply.body);
+}
+
+/**
+ * Sends prepared JSON bytes, compressed as the `compression` middleware would (server/app.ts: same levels, same 1 kB
+ * threshold, Vary: Accept-Encoding, nothing done under Cache-Control: no-transform) but from bytes compressed once.
+ * The middleware leaves an answer that already carries Content-Encoding alone. Between encodings the client
+ * weighs equally, the client's order decides (the middleware would prefer br; either is a valid choice).
+ */
+function sendPrepared(req: Request, res: Response, status: number, prepared: PreparedJson) {
+  res.status(status).vary("Accept-Encoding").type("json");
+  let bytes = prepared.json;
+  const encoding = req.acceptsEncodings("br", "gzip", "identity");
+  if (
+    (encoding === "br" || encoding === "gzip") &&
+    bytes.length >= COMPRESS_FROM_BYTES &&
+    !/\bno-transform\b/.test(String(res.getHeader("Cache-Control") ?? ""))
+  ) {
+    bytes = prepared.encoded(encoding);
+    res.setHeader("Content-Encoding", encoding);
+  }
+  res.setHeader("Content-Length", bytes.length);
+  res.end(bytes);
 }
 
 /** Registers every route of the feature on a fresh Express router (the OpenAPI document reads the same list). */

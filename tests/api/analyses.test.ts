@@ -174,3 +174,50 @@ describe('POST /api/analyses with form: "columns"', () => {
     await rejects(await agentAs(["viewer"]), { ...good, form: "table" }, "form");
   });
 });
+
+describe("POST /api/analyses answers a kept question from prepared bytes", () => {
+  /** The decoded body as bytes; Content-Encoding and Content-Length tell what was on the wire. */
+  const bytesOf = (a: Agent, body: object, acceptEncoding: string) =>
+    post(a, body)
+      .set("Accept-Encoding", acceptEncoding)
+      .buffer(true)
+      .parse((res, cb) => {
+        const chunks: Buffer[] = [];
+        res.on("data", (c: Buffer) => chunks.push(c));
+        res.on("end", () => cb(null, Buffer.concat(chunks)));
+      });
+
+  it("sends the same JSON in every encoding, first time and asked again, compressed only when accepted", async () => {
+    const a = await agentAs(["viewer"]);
+    // A target no other test asks, so the first answer is computed here and the later ones are kept.
+    const body = { model, targetContext: 98_765, methods: [{ method: "yarn" }, { method: "ntk" }], form: "columns" };
+    const first = await bytesOf(a, body, "identity");
+    expect(first.status).toBe(200);
+    expect(first.headers["content-encoding"]).toBeUndefined();
+    expect(first.headers["content-type"]).toMatch(/^application\/json/);
+    expect(first.headers.vary).toMatch(/Accept-Encoding/i);
+    const json = first.body as Buffer;
+    expect(Number(first.headers["content-length"])).toBe(json.length);
+    analysisColumnsResponseSchema.parse(JSON.parse(json.toString()));
+    for (const [accept, encoding] of [
+      ["gzip", "gzip"],
+      ["br", "br"],
+      ["identity", undefined],
+      ["gzip, br", "gzip"], // equal weights: the client's order decides (RFC 9110 §12.5.3 leaves it to the server)
+      ["gzip;q=0.5, br", "br"],
+    ] as const) {
+      const again = await bytesOf(a, body, accept);
+      expect(again.status, accept).toBe(200);
+      expect(again.headers["content-encoding"], accept).toBe(encoding);
+      expect(again.headers.vary).toMatch(/Accept-Encoding/i);
+      expect((again.body as Buffer).equals(json), accept).toBe(true);
+      // what went over the wire is smaller than the JSON when compressed
+      if (encoding) expect(Number(again.headers["content-length"])).toBeLessThan(json.length / 2);
+    }
+    // The row form of the same question is kept beside it and expands to the same numbers.
+    const rows = await bytesOf(a, { ...body, form: undefined }, "gzip");
+    expect(expandAnalysis(analysisColumnsResponseSchema.parse(JSON.parse(json.toString())))).toEqual(
+      analysisResponseSchema.parse(JSON.parse((rows.body as Buffer).toString())),
+    );
+  });
+});

@@ -28,7 +28,7 @@ export const analysesFeature: ApiFeature = {
         try {
           return {
             status: 200,
-            body: await analyseRequest(body, (id) => getModelShape(deps, id), {
+            prepared: await analyseRequest(body, (id) => getModelShape(deps, id), {
               userId: user.id,
               signal: abort.signal,
             }),

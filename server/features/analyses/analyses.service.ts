@@ -3,8 +3,8 @@ import { Invalid } from "../../platform/errors";
 import { invalidFields } from "../../platform/validate";
 import { analyseOffThread } from "./analyses.pool";
 import { takeHeavySlot } from "./analyses.limits";
-import { findKeptAnalysis, keepAnalysis, keyOf } from "./analyses.kept";
-import { packAnalysis } from "../../../shared/analysis-columns";
+import { findKeptAnalysis, keepAnalysis, keyOf, type KeptAnalysis } from "./analyses.kept";
+import type { PreparedJson } from "../../platform/prepared-json";
 import type { AnalysisColumnsResponse } from "../../../shared/schemas/analysis-columns";
 import {
   ANALYSIS_INLINE_WORK,
@@ -49,22 +49,22 @@ export const analysisWork = (model: ModelShape, methods: number) => ((rotaryDime
  * Stateless comparison: resolves { modelId }, applies the rules that need the model, runs the engine —
  * in the request for small analyses, in a pool thread (at most HEAVY_ANALYSES_PER_USER at once per user) for large ones.
  * A question asked before is answered from the kept answers (analyses.kept.ts). `form: "columns"` answers the same
- * numbers in the column form.
+ * numbers in the column form. The answer comes prepared (serialised once, compressed once per encoding).
  */
 export async function analyseRequest(
   input: AnalysisRequest,
   resolveModel: ResolveModel,
   opts: AnalyseOptions,
-): Promise<AnalysisResponse | AnalysisColumnsResponse> {
-  const full = await analyseRows(input, resolveModel, opts);
-  return input.form === "columns" ? packAnalysis(full) : full;
+): Promise<PreparedJson<AnalysisResponse> | PreparedJson<AnalysisColumnsResponse>> {
+  const kept = await analyseKept(input, resolveModel, opts);
+  return input.form === "columns" ? kept.columns : kept.rows;
 }
 
-async function analyseRows(
+async function analyseKept(
   input: AnalysisRequest,
   resolveModel: ResolveModel,
   opts: AnalyseOptions,
-): Promise<AnalysisResponse> {
+): Promise<KeptAnalysis> {
   const model = "modelId" in input.model ? toModelShape(await resolveModel(input.model.modelId)) : input.model;
   const issues = modelDependentIssues(model, input.targetContext, input.methods);
   if (issues.length) {
@@ -84,6 +84,5 @@ async function analyseRows(
       release();
     }
   }
-  keepAnalysis(key, answer);
-  return answer;
+  return keepAnalysis(key, answer);
 }

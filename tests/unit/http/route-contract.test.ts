@@ -12,6 +12,7 @@ import { mountFeature, ResponseMismatch, route, type ApiFeature } from "../../..
 import { AppError } from "../../../server/platform/errors";
 import { httpStatusOf } from "../../../server/http/error-status";
 import type { AppDeps } from "../../../server/deps";
+import { PreparedJson } from "../../../server/platform/prepared-json";
 
 const thing = z.object({ id: z.number(), state: z.enum(["draft", "approved"]) });
 
@@ -37,6 +38,15 @@ const feature: ApiFeature = {
       responses: { 200: thing },
       // The compiler would refuse `state: "lost"` here; the cast stands for data that escaped the types (a raw SQL row).
       handler: () => ({ status: 200, body: { id: 1, state: "lost" as "draft" } }),
+    }),
+    route({
+      method: "get",
+      path: "/:id/prepared-drifted",
+      summary: "prepared, drifted",
+      access: "public",
+      responses: { 200: thing },
+      // The same lie, sent as prepared bytes (a kept answer): checked all the same.
+      handler: () => ({ status: 200, prepared: new PreparedJson({ id: 1, state: "lost" as "draft" }) }),
     }),
     route({
       method: "delete",
@@ -85,6 +95,14 @@ describe("route(): one definition for the Express route and its response contrac
     await request(appFor("test")).get("/things/1/drifted").expect(500);
     expect(caught[0]).toBeInstanceOf(ResponseMismatch);
     expect(String((caught[0] as Error).message)).toMatch(/state/);
+  });
+
+  it("checks prepared answers against the schema too (500 in tests) and sends them as plain JSON otherwise", async () => {
+    await request(appFor("test")).get("/things/1/prepared-drifted").expect(500);
+    expect(caught[0]).toBeInstanceOf(ResponseMismatch);
+    const r = await request(appFor("production")).get("/things/1/prepared-drifted").expect(200);
+    expect(r.headers["content-type"]).toMatch(/^application\/json/);
+    expect(r.body).toEqual({ id: 1, state: "lost" });
   });
 
   it("in development logs the mismatch and still answers", async () => {

@@ -1,0 +1,51 @@
+import zlib from "node:zlib";
+
+/**
+ * How hard dynamic JSON answers are compressed, by the `compression` middleware (server/app.ts) and for prepared
+ * answers alike. Measured on the 8-method analysis in the column form (48 kB JSON, `npm run bench -- stages`,
+ * docs/scale-figures.md "Analyses request, where the time goes"): gzip level 6 (zlib's default) 0.70 ms → 16.9 kB,
+ * level 1 0.38 ms → 17.5 kB; brotli quality 4 (compression 1.8's default) 0.50 ms → 16.0 kB, quality 1 0.12 ms →
+ * 16.2 kB. A few per cent more bytes for half to a quarter of the CPU per answer. Built assets are compressed once at
+ * build time at the highest settings (vite.config.ts) and are not affected.
+ */
+export const DYNAMIC_GZIP_LEVEL = 1;
+export const DYNAMIC_BROTLI_QUALITY = 1;
+/** Below this many bytes an answer goes uncompressed (the `compression` middleware's default threshold, 1 kB). */
+export const COMPRESS_FROM_BYTES = 1024;
+
+export type JsonEncoding = "br" | "gzip";
+
+/**
+ * A JSON answer serialised once and compressed at most once per encoding, for answers served many times (kept
+ * analyses): a repeated question then costs neither JSON.stringify nor compression. `value` is what was serialised;
+ * it is never mutated afterwards. Serialising is deferred to the first `json` read, so an entry kept only to derive
+ * another form never pays for its own bytes.
+ */
+export class PreparedJson<T = unknown> {
+  #json: Buffer | undefined;
+  readonly #encoded = new Map<JsonEncoding, Buffer>();
+
+  constructor(readonly value: T) {}
+
+  get json(): Buffer {
+    return (this.#json ??= Buffer.from(JSON.stringify(this.value), "utf8"));
+  }
+
+  /** The JSON bytes compressed with `encoding` at the dynamic settings above, compressed on first use. */
+  encoded(encoding: JsonEncoding): Buffer {
+    let bytes = this.#encoded.get(encoding);
+    if (!bytes) {
+      bytes =
+        encoding === "br"
+          ? zlib.brotliCompressSync(this.json, {
+              params: {
+                [zlib.constants.BROTLI_PARAM_QUALITY]: DYNAMIC_BROTLI_QUALITY,
+                [zlib.constants.BROTLI_PARAM_SIZE_HINT]: this.json.length,
+              },
+            })
+          : zlib.gzipSync(this.json, { level: DYNAMIC_GZIP_LEVEL });
+      this.#encoded.set(encoding, bytes);
+    }
+    return bytes;
+  }
+}
