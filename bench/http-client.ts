@@ -1,7 +1,12 @@
 import http from "node:http";
+import os from "node:os";
 import { performance } from "node:perf_hooks";
+import autocannon from "autocannon";
+import type pg from "pg";
+import { cpuNow, cpuSpent, processCpuMs } from "./scale/cpu";
 
-// A tiny HTTP client for the speed bench: node:http, so bytes on the wire (before any decoding) can be counted.
+// A tiny HTTP client for the speed bench: node:http, so bytes on the wire (before any decoding) can be counted; and
+// `hammer`, the load runs (autocannon).
 
 export interface RawAnswer {
   status: number;
@@ -64,24 +69,69 @@ export function quantile(xs: number[], p: number) {
   return s[Math.min(s.length - 1, Math.floor(p * s.length))];
 }
 
-/** `connections` loops each sending requests until `total` were sent; req/s and latency quantiles. */
-export async function load(total: number, connections: number, one: () => Promise<RawAnswer>) {
-  const latencies: number[] = [];
-  const failures = new Map<number, number>();
-  let next = 0;
-  const t0 = performance.now();
-  await Promise.all(
-    Array.from({ length: connections }, async () => {
-      while (next++ < total) {
-        const t = performance.now();
-        // a reset connection counts as a failure (status 0) rather than ending the run
-        const r = await one().catch(() => ({ status: 0, ms: performance.now() - t }));
-        if (r.status !== 200) failures.set(r.status, (failures.get(r.status) ?? 0) + 1);
-        latencies.push(r.ms);
-      }
-    }),
-  );
-  const secs = (performance.now() - t0) / 1000;
-  const failed = [...failures].map(([status, n]) => `${n}× ${status}`).join(", ");
-  return { rps: total / secs, p50: quantile(latencies, 0.5), p99: quantile(latencies, 0.99), failed };
+/** Requests each load run sends before it is measured (JIT, pool threads and keep-alive connections warm up). */
+export const HAMMER_WARM = 300;
+/** Requests each load run measures. */
+export const HAMMER_N = 2000;
+
+export interface Hammered {
+  rps: number;
+  p50: number;
+  p99: number;
+  failed: string;
+  /** CPU milliseconds per measured request: the server process, its database backends, this process (autocannon). */
+  cpu: { server: number; db: number; client: number };
+}
+
+export const loadNow = () =>
+  `load average ${os
+    .loadavg()
+    .map((l) => l.toFixed(2))
+    .join(", ")} on ${os.cpus().length} cores`;
+
+/**
+ * POSTs `body` (a fixed string, or a new one per request) at 50 connections with autocannon: warm-up requests first,
+ * then HAMMER_N measured ones. autocannon writes prepared request bytes and counts the answer's bytes without
+ * parsing or keeping them, so the load generator costs far less CPU than a node:http client that buffers each answer
+ * (docs/scale-figures.md "Analyses request, where the time goes"); its CPU is still measured and printed, since it
+ * runs on the same cores. `server.pool` is a pool on the server's database: its backends' CPU is counted.
+ */
+export async function hammer(
+  url: string,
+  headers: Record<string, string>,
+  body: string | (() => string),
+  server: { pid?: number; pool?: pg.Pool | null },
+): Promise<Hammered> {
+  const request = typeof body === "string" ? { body } : { setupRequest: (r: object) => ({ ...r, body: body() }) };
+  const run = (amount: number) =>
+    autocannon({ url, method: "POST", connections: 50, amount, headers, requests: [request] });
+  await run(HAMMER_WARM);
+  const sample = async () => {
+    const u = process.cpuUsage();
+    return {
+      mine: server.pool
+        ? await cpuNow(server.pool)
+        : { node: (u.user + u.system) / 1000, db: new Map<number, number>() },
+      server: server.pid === undefined ? 0 : processCpuMs(server.pid),
+    };
+  };
+  const before = await sample();
+  const r = await run(HAMMER_N);
+  const after = await sample();
+  const spent = cpuSpent(before.mine, after.mine);
+  const n = r.requests.total;
+  const failed = [
+    r.non2xx ? `${r.non2xx}× non-2xx` : "",
+    r.errors ? `${r.errors} errors` : "",
+    r.timeouts ? `${r.timeouts} timeouts` : "",
+  ]
+    .filter(Boolean)
+    .join(", ");
+  return {
+    rps: n / r.duration,
+    p50: r.latency.p50,
+    p99: r.latency.p99,
+    failed,
+    cpu: { server: (after.server - before.server) / n, db: spent.db / n, client: spent.node / n },
+  };
 }

@@ -4,12 +4,14 @@ import { runEngineBench } from "./engine.bench";
 import { runBudgetBench } from "./budget.bench";
 import { runApiBench } from "./api.bench";
 import { runSpeedBench } from "./speed.bench";
+import { runStagesBench } from "./analyses-stages.bench";
 
 const benches: Record<string, () => Promise<void> | void> = {
   engine: runEngineBench,
   budget: runBudgetBench,
   api: runApiBench,
   speed: runSpeedBench,
+  stages: runStagesBench,
 };
 const only = process.argv[2];
 if (only && !benches[only]) throw new Error(`no bench named ${only}; one of ${Object.keys(benches).join(", ")}`);

@@ -8,14 +8,16 @@ import { LOCAL_APP_ROLE, LOCAL_OWNER_ROLE } from "../server/config";
 import { DEFAULT_GRID } from "../shared/schemas/bounds";
 import { smallestSupportingBase } from "../server/engine/base-search";
 import { METHOD_IDS } from "../shared/schemas/analysis";
-import { load, median, send, signIn } from "./http-client";
+import { DYNAMIC_BROTLI_QUALITY, DYNAMIC_GZIP_LEVEL } from "../server/platform/prepared-json";
+import { HAMMER_N, HAMMER_WARM, hammer, loadNow, median, send, signIn, type Hammered } from "./http-client";
 import { freePort, startProductionApp, waitFor } from "./production-app";
 
 // The figures of the speed table, each as a ratio against a baseline measured in the same run:
 //  - smallest-base search over HTTP (a fresh computation) against the same search in-process;
 //  - a repeated question (a kept answer) against the in-process search;
 //  - JavaScript the first page pulls, bytes on the wire against the uncompressed bytes; immutable caching of hashed files;
-//  - POST /api/analyses at 50 connections against a bare Express route answering the same JSON.
+//  - POST /api/analyses at 50 connections against a bare Express route answering the same JSON, compressed the same
+//    way, with the CPU each request cost the server, its database backends and the load generator.
 // The app runs as production runs it (`npm start`, compiled, NODE_ENV=production) in a child process on the loopback
 // cluster's `ropewalk` database; BENCH_URL=http://host:port measures an already running instance instead (kept
 // answers are then not cleared between fresh searches). Demo accounts must exist there (RW_SEED).
@@ -40,7 +42,8 @@ async function startBareJson(body: Buffer) {
   const file = path.join(os.tmpdir(), `ropewalk-bench-body-${process.pid}.json`);
   fs.writeFileSync(file, body);
   const port = await freePort();
-  const child = spawn("node", [path.join(root, "bench/bare-json-server.mjs"), String(port), file], {
+  const levels = [String(DYNAMIC_GZIP_LEVEL), String(DYNAMIC_BROTLI_QUALITY)];
+  const child = spawn("node", [path.join(root, "bench/bare-json-server.mjs"), String(port), file, ...levels], {
     cwd: root,
     stdio: ["ignore", "ignore", "inherit"],
   });
@@ -57,10 +60,10 @@ export async function runSpeedBench() {
   const pgPort = process.env.PGPORT ?? "54329";
   const external = process.env.BENCH_URL;
   const app = external ? { base: external, child: null } : await startApp(pgPort);
+  // The owner role also reads pg_stat_activity for the app's backends, whose CPU the load runs count.
   const owner = external
     ? null
-    : new pg.Client({ connectionString: `postgres://${LOCAL_OWNER_ROLE}@127.0.0.1:${pgPort}/ropewalk` });
-  await owner?.connect();
+    : new pg.Pool({ connectionString: `postgres://${LOCAL_OWNER_ROLE}@127.0.0.1:${pgPort}/ropewalk`, max: 1 });
   const forget = async () => void (await owner?.query("DELETE FROM base_search_results"));
   try {
     // Behind a TLS proxy as in production: the session cookie is Secure, so say the request came over https.
@@ -124,7 +127,8 @@ export async function runSpeedBench() {
     const indexCache = (await send(`${app.base}/`)).headers["cache-control"] ?? "none";
     line(`hashed assets cached immutably`, `${immutable} of ${assets.length}`, `index.html: ${indexCache}`);
 
-    // POST /api/analyses with the 8 methods at 50 connections, against a bare Express route answering the same body.
+    // POST /api/analyses with the 8 methods at 50 connections, each form against a bare Express route answering the
+    // same JSON the same way (gzip through the `compression` middleware at the app's levels).
     const ramp = Array.from({ length: 64 }, (_, i) => 1 + i / 2);
     const analysis = {
       model: { headDim: 128, ropeTheta: 500000, trainedContext: 8192 },
@@ -137,9 +141,9 @@ export async function runSpeedBench() {
             : { method: m },
       ),
     };
-    // Three ways of asking, each at 50 connections: the row form with a new question each time (every answer
-    // computed: what every request cost before answers were kept and the column form existed), the column form with
-    // new questions, and the column form asked the same question again (a kept answer).
+    // Three ways of asking: the row form with a new question each time (every answer computed: what every request
+    // cost before answers were kept and the column form existed), the column form with new questions, and the
+    // column form asked the same question again (a kept answer).
     let asked = 0;
     const fresh = () => ({ ...analysis, targetContext: analysis.targetContext + ++asked });
     const columns = (q: object) => ({ ...q, form: "columns" });
@@ -147,38 +151,50 @@ export async function runSpeedBench() {
     const rowsZip = await post("/api/analyses", fresh(), { "accept-encoding": "gzip" });
     const colsRaw = await post("/api/analyses", columns(fresh()), { "accept-encoding": "identity" });
     const colsZip = await post("/api/analyses", columns(fresh()), { "accept-encoding": "gzip" });
-    const bare = await startBareJson(rowsRaw.body);
-    try {
-      const N = 1000;
-      const gz = { "accept-encoding": "gzip" };
-      const rowsFresh = await load(N, 50, () => post("/api/analyses", fresh(), gz));
-      const colsFresh = await load(N, 50, () => post("/api/analyses", columns(fresh()), gz));
-      const colsKept = await load(N, 50, () => post("/api/analyses", columns(analysis), gz));
-      const baseline = await load(N, 50, () =>
-        send(`${bare.base}/api/analyses`, {
-          method: "POST",
-          headers: { "content-type": "application/json" },
-          body: JSON.stringify(analysis),
-        }),
-      );
-      const figure = (r: Awaited<ReturnType<typeof load>>) =>
-        `${r.rps.toFixed(0)} req/s, p99 ${r.p99.toFixed(0)} ms${r.failed ? ` (not 200: ${r.failed})` : ""}`;
-      const vsBare = (r: Awaited<ReturnType<typeof load>>) =>
-        `${ratio(r.rps, baseline.rps)} the req/s of a bare Express JSON route (${baseline.rps.toFixed(0)} req/s, p99 ${baseline.p99.toFixed(0)} ms)`;
-      const n = analysis.methods.length;
-      line(`POST /api/analyses (${n} methods), rows, each new, 50 conn.`, figure(rowsFresh), vsBare(rowsFresh));
-      line(`  columns, each new`, figure(colsFresh), vsBare(colsFresh));
-      line(`  columns, asked again (kept answer)`, figure(colsKept), vsBare(colsKept));
-      const kB = (b: Buffer) => `${(b.length / 1024).toFixed(0)} kB`;
-      line(`  its answer, rows`, `${kB(rowsRaw.body)} JSON, ${kB(rowsZip.body)} gzip`, "the default form");
-      line(
-        `  its answer, columns`,
-        `${kB(colsRaw.body)} JSON, ${kB(colsZip.body)} gzip`,
-        `${ratio(colsRaw.body.length, rowsRaw.body.length)} the rows (${ratio(colsZip.body.length, rowsZip.body.length)} gzipped)`,
-      );
-    } finally {
-      bare.child.kill("SIGTERM");
-    }
+    const gz = { "accept-encoding": "gzip" };
+    const url = `${app.base}/api/analyses`;
+    const appCpu = () => ({ pid: app.child?.pid, pool: owner });
+    const rowsFresh = await hammer(url, { ...headers, ...gz }, () => JSON.stringify(fresh()), appCpu());
+    const colsFresh = await hammer(url, { ...headers, ...gz }, () => JSON.stringify(columns(fresh())), appCpu());
+    const keptBody = JSON.stringify(columns(analysis));
+    const colsKept = await hammer(url, { ...headers, ...gz }, keptBody, appCpu());
+    const baseline = async (answer: Buffer) => {
+      const bare = await startBareJson(answer);
+      try {
+        // no session, database or engine: the request body is parsed and dropped, the answer re-serialised each time
+        const json = { "content-type": "application/json", ...gz };
+        return await hammer(`${bare.base}/api/analyses`, json, JSON.stringify(analysis), { pid: bare.child.pid });
+      } finally {
+        bare.child.kill("SIGTERM");
+      }
+    };
+    const bareRows = await baseline(rowsRaw.body);
+    const bareCols = await baseline(colsRaw.body);
+    const figure = (r: Hammered) =>
+      `${r.rps.toFixed(0)} req/s, p99 ${r.p99.toFixed(0)} ms${r.failed ? ` (not 200: ${r.failed})` : ""}`;
+    const vsBare = (r: Hammered, bare: Hammered, form: string) =>
+      `${ratio(r.rps, bare.rps)} the req/s of a bare Express JSON route (${form}: ${bare.rps.toFixed(0)} req/s, p99 ${bare.p99.toFixed(0)} ms)`;
+    const n = analysis.methods.length;
+    console.log(`  (autocannon, 50 connections, ${HAMMER_WARM} requests to warm up, then ${HAMMER_N}; ${loadNow()})`);
+    line(
+      `POST /api/analyses (${n} methods), rows, each new, 50 conn.`,
+      figure(rowsFresh),
+      vsBare(rowsFresh, bareRows, "rows"),
+    );
+    line(`  columns, each new`, figure(colsFresh), vsBare(colsFresh, bareCols, "columns"));
+    line(`  columns, asked again (kept answer)`, figure(colsKept), vsBare(colsKept, bareCols, "columns"));
+    const cpu = (r: Hammered) =>
+      `server ${r.cpu.server.toFixed(2)}, database ${r.cpu.db.toFixed(2)}, load generator ${r.cpu.client.toFixed(2)}`;
+    line(`  CPU ms per request, rows, each new`, cpu(rowsFresh), `bare route, rows: ${cpu(bareRows)}`);
+    line(`  CPU ms per request, columns, each new`, cpu(colsFresh), `bare route, columns: ${cpu(bareCols)}`);
+    line(`  CPU ms per request, columns, asked again`, cpu(colsKept), "");
+    const kB = (b: Buffer) => `${(b.length / 1024).toFixed(0)} kB`;
+    line(`  its answer, rows`, `${kB(rowsRaw.body)} JSON, ${kB(rowsZip.body)} gzip`, "the default form");
+    line(
+      `  its answer, columns`,
+      `${kB(colsRaw.body)} JSON, ${kB(colsZip.body)} gzip`,
+      `${ratio(colsRaw.body.length, rowsRaw.body.length)} the rows (${ratio(colsZip.body.length, rowsZip.body.length)} gzipped)`,
+    );
   } finally {
     await owner?.end();
     app.child?.kill("SIGTERM");
