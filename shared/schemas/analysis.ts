@@ -188,8 +188,10 @@ export type PairResult = z.infer<typeof pairResultSchema>;
  * src/transformers/models/qwen2_vl/configuration_qwen2_vl.py at 4efabc6e, Qwen2VLConfig.__init__. A block merged
  * (RFC 7396) onto a config whose block says `type: "mrope"` would otherwise run as default RoPE; writing `type: null`
  * instead would remove it on a merge but, for a consumer that replaces `rope_scaling` whole, leave a `type` of None
- * that the same lines copy into `rope_type`. The same value under both names is read alike by every line
- * (modeling_rope_utils.py `_check_received_keys` drops `type` when it sees it; v5 takes `rope_type` first).
+ * that the same lines copy into `rope_type`. The same value under both names runs the same method on every line:
+ * v5 takes `rope_type` first, and the 4.x validators at most log `type` as an unrecognized key (modeling_rope_utils.py
+ * `_check_received_keys`, read through stored copies; the shipped multimodal configs, whose class writes both keys,
+ * draw the same line).
  */
 const sectionKeyFields = {
   type: z.enum(EXPORT_ROPE_TYPES).optional(),

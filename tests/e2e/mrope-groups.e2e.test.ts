@@ -140,6 +140,9 @@ describe("multimodal sections: bands over the pair axis, and what a plan that sc
     const patch = JSON.parse((await artifact.textContent()) ?? "{}");
     expect(patch.rope_scaling).toMatchObject({ rope_type: "default" });
     expect(patch.rope_scaling).not.toHaveProperty("mrope_section", null);
+    // The revision's frozen block (the export envelope's `config`) keeps them as well, in the same default block.
+    const frozen = JSON.parse((await page.getByTestId("signed-block").textContent()) ?? "{}");
+    expect(frozen.rope_scaling).toEqual({ rope_type: "default", type: "default", mrope_section: [16, 24, 24] });
     await screenshot(page, "mrope-plan-contiguous");
 
     const report = await openReport(page);

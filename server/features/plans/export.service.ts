@@ -15,6 +15,7 @@ import { layeredExport } from "./group-export";
 import { adoptedBaseSupportOfRow } from "./base-support";
 import { isSigned, latestApproved } from "../../../shared/plan-rules";
 import { lineageOf, startLength } from "../../../shared/lineage";
+import { frozenBlockCautions } from "../../../shared/frozen-block";
 
 /** A plan on an already-scaled model says which length it extends from, and where this block's stage starts. */
 function lineagePart(content: RevisionContent, stage: number | undefined) {
@@ -88,6 +89,7 @@ export async function exportRevision(
   const content = rev.content as RevisionContent;
   const decisions = c.decisions.filter((d) => d.decision === "approve" && d.round === rev.round);
   const block = await targetBlock(deps, plan.modelId, content, choice);
+  const cautions = frozenBlockCautions(content.model, block.config);
   await recordAudit(deps.db, {
     actorId: actor.id,
     action: "revision.exported",
@@ -133,6 +135,7 @@ export async function exportRevision(
       payload: d.payload,
     })),
     caution: EXPORT_CAUTION,
+    ...(cautions.length ? { cautions } : {}),
   };
 }
 

@@ -321,6 +321,11 @@ export const exportEnvelopeSchema = z.object({
     }),
   ),
   caution: z.string(),
+  /**
+   * What is wrong with this signed block as it stands (shared/frozen-block.ts): `frozen_config_lacks_sections` for a
+   * revision of a model with multimodal sections signed before blocks carried them. Absent when there is nothing to say.
+   */
+  cautions: z.array(z.object({ code: z.string(), message: z.string() })).optional(),
 });
 export type ExportEnvelope = z.infer<typeof exportEnvelopeSchema>;
 

@@ -28,6 +28,8 @@ import { DecisionDialog } from "@/features/plans/components/decision-dialog";
 import { ProbeChecks } from "@/features/plans/components/probe-checks";
 import { exportRequestOf } from "@/features/plans/lib/export-request";
 import { ExportTargets } from "@/components/export-targets";
+import { SignedBlockCautions } from "@/features/plans/components/signed-block-cautions";
+import { ExportBlock } from "@/features/workbench";
 import { exportsQueries } from "@/lib/api/exports";
 import { EvidenceSection } from "@/features/evidence";
 import { RevisionCharts } from "./plan-charts";
@@ -172,6 +174,19 @@ export function PlanRoute() {
               </Panel>
               <Panel title="What the engine shows at the plan target">
                 <RevisionCharts content={content} />
+              </Panel>
+              <Panel title="Frozen config block">
+                <p className="mb-3 text-body text-ink-soft">
+                  The <code>config</code> this revision&apos;s export hands out once signed: the keys its content
+                  freezes for the plan target.
+                </p>
+                <SignedBlockCautions model={content.model} patch={content.results.final.patch} />
+                <ExportBlock
+                  patch={content.results.final.patch}
+                  label={`revision ${n}`}
+                  heading="Frozen config keys"
+                  testId="signed-block"
+                />
               </Panel>
               <Panel title="Rigging for each stack">
                 <ExportTargets request={exportRequest} />

@@ -2,14 +2,27 @@ import type { ConfigPatch } from "@shared/schemas/analysis";
 import { Button } from "@/components/button";
 import { useCopyText } from "@/lib/use-copy-text";
 
-/** The config.json keys a method needs (rope_scaling and friends), ready to paste, with a copy button. */
-export function ExportBlock({ patch, label }: { patch: ConfigPatch; label: string }) {
+/**
+ * The config.json keys a method needs (rope_scaling and friends), ready to paste, with a copy button. For a model with
+ * multimodal sections the block holds them too (mrope_section, mrope_interleaved: server/engine/methods/common.ts).
+ */
+export function ExportBlock({
+  patch,
+  label,
+  heading = "config.json keys",
+  testId = "export-block",
+}: {
+  patch: ConfigPatch;
+  label: string;
+  heading?: string;
+  testId?: string;
+}) {
   const text = JSON.stringify(patch, null, 2);
   const { copied, copy } = useCopyText();
   return (
     <div className="flex flex-col gap-1">
       <div className="flex items-center justify-between gap-2">
-        <span className="text-note font-semibold text-ink-soft">config.json keys</span>
+        <span className="text-note font-semibold text-ink-soft">{heading}</span>
         <span className="flex items-center gap-2">
           {copied === "yes" && (
             <span className="text-note text-seaglass-dark" role="status">
@@ -33,7 +46,7 @@ export function ExportBlock({ patch, label }: { patch: ConfigPatch; label: strin
       </div>
       <pre
         className="max-h-56 overflow-auto rounded-md border border-rule bg-paper-deep px-3 py-2 text-note"
-        data-testid="export-block"
+        data-testid={testId}
       >
         {text}
       </pre>

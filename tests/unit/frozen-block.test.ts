@@ -1,0 +1,43 @@
+import { describe, expect, it } from "vitest";
+import { analyse } from "../../server/engine";
+import { METHOD_CATALOG, METHOD_IDS } from "../../shared/methods";
+import type { MethodParams } from "../../shared/schemas/analysis";
+import { FROZEN_CONFIG_LACKS_SECTIONS, frozenBlockCautions, missingSectionKeys } from "../../shared/frozen-block";
+
+/*
+ * The caution of a signed block that lacks the model's multimodal sections (shared/frozen-block.ts). The keys are the
+ * ones the model reads every step (shared/mrope-axes.ts MROPE_KEYS cites where); the blocks below are written by hand
+ * in the two forms engine 1.0 froze: `rope_scaling: null` (a new base) and a scaling block without the sections.
+ */
+const contiguous = { mropeSection: [16, 24, 24], mropeInterleaved: false };
+const interleaved = { mropeSection: [24, 20, 16], mropeInterleaved: true };
+
+describe("which section keys a signed block lacks", () => {
+  it("a model without sections never draws the caution", () => {
+    expect(frozenBlockCautions({}, { rope_scaling: null })).toEqual([]);
+  });
+  it("a null block lacks every key the model has", () => {
+    expect(missingSectionKeys(contiguous, { rope_scaling: null })).toEqual(["mrope_section"]);
+    expect(missingSectionKeys(interleaved, { rope_scaling: null })).toEqual(["mrope_section", "mrope_interleaved"]);
+    const [c] = frozenBlockCautions(interleaved, { rope_scaling: null });
+    expect(c.code).toBe(FROZEN_CONFIG_LACKS_SECTIONS);
+    expect(c.message).toContain('"mrope_section" and "mrope_interleaved"');
+    expect(c.message).toContain("rope_scaling is null");
+  });
+  it("a scaling block without the sections, as engine 1.0 froze it", () => {
+    const old = { rope_scaling: { rope_type: "linear", factor: 4, original_max_position_embeddings: 32768 } };
+    expect(missingSectionKeys(contiguous, old)).toEqual(["mrope_section"]);
+  });
+  it("every block the engine freezes now carries them: no caution for any method", () => {
+    for (const model of [contiguous, interleaved]) {
+      for (const id of METHOD_IDS) {
+        const method = (
+          id === "longrope" ? METHOD_CATALOG.longrope.example(64) : METHOD_CATALOG[id].example(64)
+        ) as MethodParams;
+        const shape = { headDim: 128, ropeTheta: 1e6, trainedContext: 32768, ...model };
+        const patch = analyse({ model: shape, targetContext: 131072, methods: [method] }).methods[0].ropeScaling;
+        expect(frozenBlockCautions(model, patch), id).toEqual([]);
+      }
+    }
+  });
+});
