@@ -71,6 +71,20 @@ export const probeResultSchema = z
   .refine((r) => r.invFreq.length * 2 === r.rotaryDim, pairsMatch);
 export type ProbeResult = z.infer<typeof probeResultSchema>;
 
+/**
+ * One layer group's result within a check on a layered revision (or a probe that read several layer types): the
+ * group's kind and layers (indices into layer_types), and its own comparison.
+ */
+export const probeGroupCheckSchema = z.object({
+  kind: z.string(),
+  layers: z.array(z.number().int()),
+  passed: z.boolean(),
+  maxRelativeError: z.number().nullable(),
+  worstPair: z.number().int().nullable(),
+  cause: z.string(),
+});
+export type ProbeGroupCheck = z.infer<typeof probeGroupCheckSchema>;
+
 /** A recorded check: pass when every θ′ and the attention factor agree with the revision's at float32 tolerance. */
 export const conformanceCheckSchema = z.object({
   id: dbIdSchema,
@@ -91,6 +105,11 @@ export const conformanceCheckSchema = z.object({
   readFingerprint: z.string(),
   /** whether the fingerprint the probe was asked to check is this revision's; null when it was given none */
   fingerprintMatches: z.boolean().nullable(),
+  /**
+   * Per layer group, in first-layer order: every group's own result (the fields above are the worst group's). Null
+   * when every layer rotates alike and the probe read one setting, and on checks recorded before groups were kept.
+   */
+  groups: z.array(probeGroupCheckSchema).nullable(),
   by: z.object({ id: z.number(), name: z.string() }),
   via: z.enum(["session", "token"]),
   at: z.string(),

@@ -53,11 +53,13 @@ const both = (local = LOCAL, full = FULL) => [
 
 describe("a layered revision against a probe result", () => {
   it("every group read as planned: passes with error 0", () => {
+    const held = { passed: true, maxRelativeError: 0, worstPair: null, cause: "" };
     expect(compareProbe(layered, probe({ layerGroups: both() }))).toEqual({
-      passed: true,
-      maxRelativeError: 0,
-      worstPair: null,
-      cause: "",
+      ...held,
+      groups: [
+        { kind: "sliding_attention", layers: [0, 1], ...held },
+        { kind: "full_attention", layers: [2], ...held },
+      ],
     });
   });
 
@@ -66,15 +68,39 @@ describe("a layered revision against a probe result", () => {
     expect(r).toMatchObject({ passed: false, worstPair: 1 });
     expect(r.maxRelativeError).toBeCloseTo(0.1, 12);
     expect(r.cause).toBe("the sliding_attention layers: pair 1 turns at 0.11 rad/token, the revision's at 0.1");
+    // each group in its own words: the local layers slip, the full layers hold
+    expect(r.groups).toMatchObject([
+      {
+        kind: "sliding_attention",
+        passed: false,
+        worstPair: 1,
+        cause: "pair 1 turns at 0.11 rad/token, the revision's at 0.1",
+      },
+      { kind: "full_attention", passed: true, maxRelativeError: 0, worstPair: null, cause: "" },
+    ]);
+    expect(r.groups![0].maxRelativeError).toBeCloseTo(0.1, 12);
   });
 
   it("layer types over other layers, a missing type and an extra type pair nothing", () => {
     const moved = [group("sliding_attention", [0], LOCAL), group("full_attention", [1, 2], FULL)];
+    const unread = { passed: false, maxRelativeError: null, worstPair: null };
     expect(compareProbe(layered, probe({ layerGroups: moved }))).toEqual({
-      passed: false,
-      maxRelativeError: null,
-      worstPair: null,
+      ...unread,
       cause: "the library's sliding_attention layers are 0; the revision's are 0–1",
+      groups: [
+        {
+          kind: "sliding_attention",
+          layers: [0, 1],
+          ...unread,
+          cause: "the library's sliding_attention layers are 0; the revision's are 0–1",
+        },
+        {
+          kind: "full_attention",
+          layers: [2],
+          ...unread,
+          cause: "the library's full_attention layers are 1–2; the revision's are 2",
+        },
+      ],
     });
     expect(compareProbe(layered, probe({ layerGroups: [group("full_attention", [2], FULL)] })).cause).toBe(
       "the probe read no sliding_attention layers (the revision's layers 0–1)",
@@ -91,6 +117,15 @@ describe("a layered revision against a probe result", () => {
     expect(r).toMatchObject({ passed: false, worstPair: 1 });
     expect(r.maxRelativeError).toBeCloseTo(0.975, 12);
     expect(r.cause).toBe("the sliding_attention layers: pair 1 turns at 0.0025 rad/token, the revision's at 0.1");
+    expect(r.groups!.map((g) => [g.kind, g.passed])).toEqual([
+      ["sliding_attention", false],
+      ["full_attention", true],
+    ]);
+  });
+
+  it("a flat reading of a one-group revision lists no groups", () => {
+    const single = { ...layered, groups: undefined };
+    expect(compareProbe(single, probe()).groups).toBeNull();
   });
 
   it("a dynamic revision notes the running length only when pairs were compared", () => {

@@ -11,6 +11,7 @@ import {
   text,
   timestamp,
 } from "drizzle-orm/pg-core";
+import type { ProbeGroupCheck } from "../../../shared/schemas/conformance";
 import { users } from "./users";
 import { planRevisions, plans } from "./plans";
 
@@ -44,6 +45,8 @@ export const conformanceChecks = pgTable(
     planFingerprint: text("plan_fingerprint"),
     readFingerprint: text("read_fingerprint").notNull(),
     fingerprintMatches: boolean("fingerprint_matches"),
+    /** a layered comparison's result per layer group (kind, layers, passed, error, pair, cause); null when read once */
+    groups: jsonb("groups").$type<ProbeGroupCheck[]>(),
     upload: jsonb("upload").notNull(),
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
   },

@@ -3,7 +3,7 @@ import { rotateGroups } from "../../engine/group-rotary";
 import { FLOAT32_TOLERANCE } from "../../engine/targets/types";
 import { rotaryDimension, type MethodParams } from "../../../shared/schemas";
 import { groupRotarySpecs } from "../../../shared/layer-groups";
-import type { ProbeResult } from "../../../shared/schemas/conformance";
+import type { ProbeGroupCheck, ProbeResult } from "../../../shared/schemas/conformance";
 import type { ModelSnapshot, RevisionContent } from "./revision-content";
 import { runs } from "./report-groups";
 
@@ -65,10 +65,12 @@ export interface ProbeComparison {
   /** the pair with the largest error; null when that is the attention factor, or nothing could be paired */
   worstPair: number | null;
   cause: string;
+  /** every layer group's own result, in first-layer order; null when every layer rotates alike and was read once */
+  groups: ProbeGroupCheck[] | null;
 }
 
 /** A comparison, and whether any θ′ was paired at all (a reading of another shape or layout pairs nothing). */
-type Outcome = ProbeComparison & { paired: boolean };
+type Outcome = Omit<ProbeComparison, "groups"> & { paired: boolean };
 
 const relative = (read: number, ref: number) => (read === ref ? 0 : Math.abs(read - ref) / Math.abs(ref));
 
@@ -100,19 +102,30 @@ function unpaired(cause: string): Outcome {
 
 /**
  * Group by group: every revision group against the probe's reading for the same layers, the worst one reported with
- * its group named. `readingOf` gives what the library rotates a group's layers with, or a refusal in words.
+ * its group named (a group that could not be paired wins, the first such in layer order), and each group's own result.
+ * `readingOf` gives what the library rotates a group's layers with, or a refusal in words.
  */
-function compareGroups(refs: readonly RevisionGroup[], readingOf: (g: RevisionGroup) => Rotary | string): Outcome {
-  let worst: Outcome | null = null;
-  for (const g of refs) {
+function compareGroups(
+  refs: readonly RevisionGroup[],
+  readingOf: (g: RevisionGroup) => Rotary | string,
+): Outcome & { groups: ProbeGroupCheck[] } {
+  // `own` is the group's result in its own words; `named` the same with the group named, as the check's cause
+  const each = refs.map((g): { own: Outcome; named: Outcome } => {
     const read = readingOf(g);
-    if (typeof read === "string") return unpaired(read);
+    if (typeof read === "string") return { own: unpaired(read), named: unpaired(read) };
     const one = comparePair(g, read);
-    const named = { ...one, cause: one.cause && `the ${g.kind} layers: ${one.cause}` };
-    if (!one.passed && (!one.paired || one.maxRelativeError === null)) return named;
-    if (!worst || (one.maxRelativeError ?? 0) > (worst.maxRelativeError ?? 0)) worst = named;
-  }
-  return worst!;
+    return { own: one, named: { ...one, cause: one.cause && `the ${g.kind} layers: ${one.cause}` } };
+  });
+  const groups = refs.map((g, i) => {
+    const { passed, maxRelativeError, worstPair, cause } = each[i].own;
+    return { kind: g.kind, layers: [...g.layers], passed, maxRelativeError, worstPair, cause };
+  });
+  const blocking = each.find((e) => !e.named.passed && (!e.named.paired || e.named.maxRelativeError === null));
+  if (blocking) return { ...blocking.named, groups };
+  const worst = each.reduce((w, e) =>
+    (e.named.maxRelativeError ?? 0) > (w.named.maxRelativeError ?? 0) ? e : w,
+  ).named;
+  return { ...worst, groups };
 }
 
 /**
@@ -121,21 +134,26 @@ function compareGroups(refs: readonly RevisionGroup[], readingOf: (g: RevisionGr
  * layer types must cover the same layers. Without them the library read one setting: with --layer-type only that
  * type's layers were read, otherwise every layer rotates with the one reading the probe reports.
  */
-function compareLayered(refs: readonly RevisionGroup[], probe: ProbeResult): Outcome {
+function compareLayered(refs: readonly RevisionGroup[], probe: ProbeResult): Outcome & { groups: ProbeGroupCheck[] } {
   const groups = probe.layerGroups;
   if (!groups) {
     if (probe.layerType) {
       const others = refs.filter((g) => g.kind !== probe.layerType).map((g) => g.kind);
-      return unpaired(
-        `the probe read only the ${probe.layerType} layers (--layer-type); the revision also rotates the ` +
-          `${others.join(" and ")} layers: run it without --layer-type`,
+      const read = compareGroups(refs, (g) =>
+        g.kind === probe.layerType ? probe : `not read: the probe ran with --layer-type ${probe.layerType}`,
       );
+      return {
+        ...unpaired(
+          `the probe read only the ${probe.layerType} layers (--layer-type); the revision also rotates the ` +
+            `${others.join(" and ")} layers: run it without --layer-type`,
+        ),
+        groups: read.groups,
+      };
     }
     return compareGroups(refs, () => probe);
   }
   const extra = groups.filter((p) => !refs.some((g) => g.kind === p.layerType)).map((p) => p.layerType);
-  if (extra.length) return unpaired(`the library rotates ${extra.join(" and ")} layers, which the revision does not`);
-  return compareGroups(refs, (g) => {
+  const byGroup = compareGroups(refs, (g) => {
     const read = groups.find((p) => p.layerType === g.kind);
     if (!read) return `the probe read no ${g.kind} layers (the revision's layers ${runs(g.layers)})`;
     const same = read.layers.length === g.layers.length && read.layers.every((l, i) => l === g.layers[i]);
@@ -144,6 +162,13 @@ function compareLayered(refs: readonly RevisionGroup[], probe: ProbeResult): Out
     }
     return read;
   });
+  if (extra.length) {
+    return {
+      ...unpaired(`the library rotates ${extra.join(" and ")} layers, which the revision does not`),
+      groups: byGroup.groups,
+    };
+  }
+  return byGroup;
 }
 
 /**
@@ -153,7 +178,7 @@ function compareLayered(refs: readonly RevisionGroup[], probe: ProbeResult): Out
  * revision. Anything else fails, with the reason in words.
  */
 export function compareProbe(rev: RevisionRotary, probe: ProbeResult): ProbeComparison {
-  const { paired, ...result } = rev.groups
+  const { paired, ...result }: Outcome & { groups?: ProbeGroupCheck[] } = rev.groups
     ? compareLayered(rev.groups, probe)
     : probe.layerGroups
       ? // every layer of the revision rotates alike, so each layer type the library read must rotate as it does
@@ -162,10 +187,11 @@ export function compareProbe(rev: RevisionRotary, probe: ProbeResult): ProbeComp
           (g) => probe.layerGroups!.find((p) => p.layerType === g.kind)!,
         )
       : comparePair(rev, probe);
+  const withGroups = { ...result, groups: result.groups ?? null };
   // Only dynamic scaling depends on the running length; the revision's θ′ are those at its target length.
   if (paired && rev.method === "dynamic" && probe.runningLength !== rev.targetContext) {
     const note = `the probe ran at ${probe.runningLength} tokens, the revision's frequencies are for ${rev.targetContext}`;
-    return { ...result, cause: result.cause ? `${result.cause}; ${note}` : note };
+    return { ...withGroups, cause: result.cause ? `${result.cause}; ${note}` : note };
   }
-  return result;
+  return withGroups;
 }

@@ -164,6 +164,28 @@ describe("a layered revision is checked on every group", () => {
     // the probe was aimed at this revision, but what it read is not the revision's
     expect(r.body.fingerprintMatches).toBe(true);
     expect(out.readFingerprint).not.toBe(rev.rotaryFingerprint);
+
+    // Per group, in first-layer order (layer 0 is local): the local layers slip by 3/4 on every pair but pair 0
+    // (θ_0 = 1: |1/4 − 1| / 1 = 3/4 too, so the worst is the first pair that reaches it); the full layers hold, both
+    // sides computing θ/4 over b = 1e6 in float64.
+    const expected = [
+      {
+        kind: "sliding_attention",
+        layers: [0, 1, 2, 3, 4, 6, 7, 8, 9, 10],
+        passed: false,
+        maxRelativeError: expect.closeTo(3 / 4, 12),
+        worstPair: expect.any(Number),
+        cause: expect.stringMatching(/^pair \d+ turns at [\d.e-]+ rad\/token, the revision's at /),
+      },
+      // its worst pair is wherever pow's last-place rounding differs (Python's libm against V8's), so left open
+      { kind: "full_attention", layers: [5, 11], passed: true, maxRelativeError: expect.any(Number), cause: "" },
+    ];
+    expect(r.body.groups).toMatchObject(expected);
+    expect(Object.keys(r.body.groups[1]).sort()).toEqual(Object.keys(r.body.groups[0]).sort());
+    expect(r.body.groups[1].maxRelativeError).toBeLessThanOrEqual(1e-12);
+    // the list keeps them as recorded
+    const list = await researcher.get(`/api/plans/${planId}/conformance-checks`).expect(200);
+    expect(list.body.checks.at(-1).groups).toEqual(r.body.groups);
   });
 
   it("a reading of one layer type (--layer-type) does not pass a layered revision: the other layers went unread", async () => {
@@ -183,6 +205,18 @@ describe("a layered revision is checked on every group", () => {
       "the probe read only the full_attention layers (--layer-type); the revision also rotates the " +
         "sliding_attention layers: run it without --layer-type",
     );
+    // per group: the local layers went unread, the full layers read by themselves hold
+    expect(r.body.groups).toMatchObject([
+      {
+        kind: "sliding_attention",
+        layers: [0, 1, 2, 4, 5, 6],
+        passed: false,
+        maxRelativeError: null,
+        worstPair: null,
+        cause: "not read: the probe ran with --layer-type full_attention",
+      },
+      { kind: "full_attention", layers: [3, 7], passed: true, maxRelativeError: expect.any(Number), cause: "" },
+    ]);
   });
 });
 

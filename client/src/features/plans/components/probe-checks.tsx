@@ -1,7 +1,8 @@
-import { useRef, useState } from "react";
+import { Fragment, useRef, useState } from "react";
 import { useQuery } from "@tanstack/react-query";
-import type { ConformanceCheck } from "@shared/schemas/conformance";
+import type { ConformanceCheck, ProbeGroupCheck } from "@shared/schemas/conformance";
 import { Button } from "@/components/button";
+import { layerRuns } from "@/components/layer-groups-table";
 import { FramedTable } from "@/components/framed-table";
 import { Chip, Notice } from "@/components/notice";
 import { isApiError } from "@/lib/api-client";
@@ -25,6 +26,54 @@ const probeLine = (targetContext: number, fingerprint: string | null) =>
   (fingerprint ? ` --fingerprint ${fingerprint}` : "") +
   " --out probe.json";
 
+const errorText = (e: number | null) => (e === null ? "—" : e === 0 ? "0" : e.toExponential(2));
+
+function Result({ passed }: { passed: boolean }) {
+  return (
+    <span data-passed={passed}>
+      <Chip tone={passed ? "seaglass" : "signal"}>{passed ? "holds" : "slips"}</Chip>
+    </span>
+  );
+}
+
+/** A layered check's result per layer group: which layers, whether they hold, and why not. */
+function GroupRows({ check, groups }: { check: number; groups: ProbeGroupCheck[] }) {
+  return (
+    <tr data-check-groups={check} className="align-top [&>td]:px-3 [&>td]:pb-3">
+      <td />
+      <td colSpan={5}>
+        <table className="w-full text-note" aria-label={`Layer groups of check ${check}`}>
+          <thead className="text-left text-ink-soft">
+            <tr className="[&_th]:pr-3 [&_th]:font-semibold">
+              <th scope="col">Layer group</th>
+              <th scope="col">Layers</th>
+              <th scope="col">Result</th>
+              <th scope="col">Worst relative error</th>
+              <th scope="col">Why</th>
+            </tr>
+          </thead>
+          <tbody>
+            {groups.map((g) => (
+              <tr key={g.kind} data-group={g.kind} className="border-t border-rule [&_td]:py-1 [&_td]:pr-3">
+                <td className="font-mono">{g.kind}</td>
+                <td>{layerRuns(g.layers)}</td>
+                <td>
+                  <Result passed={g.passed} />
+                </td>
+                <td className="font-mono whitespace-nowrap">
+                  {errorText(g.maxRelativeError)}
+                  {g.worstPair !== null && <span className="text-ink-soft"> (pair {g.worstPair})</span>}
+                </td>
+                <td>{g.cause || "—"}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </td>
+    </tr>
+  );
+}
+
 function ChecksTable({ checks }: { checks: ConformanceCheck[] }) {
   return (
     <FramedTable
@@ -41,28 +90,29 @@ function ChecksTable({ checks }: { checks: ConformanceCheck[] }) {
       }
     >
       {checks.map((c) => (
-        <tr key={c.id} data-check={c.id} className="border-t border-rule align-top [&_td]:px-3 [&_td]:py-2">
-          <td>{c.revision}</td>
-          <td>
-            <span data-passed={c.passed}>
-              <Chip tone={c.passed ? "seaglass" : "signal"}>{c.passed ? "holds" : "slips"}</Chip>
-            </span>
-          </td>
-          <td className="text-note">
-            {c.library} {c.libraryVersion} · {c.ropeType} at {c.runningLength}
-            {c.fingerprintMatches === false && (
-              <span className="block text-signal-dark">run for another revision&apos;s fingerprint</span>
-            )}
-          </td>
-          <td className="font-mono text-note whitespace-nowrap">
-            {c.maxRelativeError === null ? "—" : c.maxRelativeError === 0 ? "0" : c.maxRelativeError.toExponential(2)}
-            {c.worstPair !== null && <span className="text-ink-soft"> (pair {c.worstPair})</span>}
-          </td>
-          <td className="text-note">{c.cause || "—"}</td>
-          <td className="text-note">
-            {c.by.name} · {c.via === "token" ? "token" : "upload"} · {formatDateTime(c.at)}
-          </td>
-        </tr>
+        <Fragment key={c.id}>
+          <tr data-check={c.id} className="border-t border-rule align-top [&>td]:px-3 [&>td]:py-2">
+            <td>{c.revision}</td>
+            <td>
+              <Result passed={c.passed} />
+            </td>
+            <td className="text-note">
+              {c.library} {c.libraryVersion} · {c.ropeType} at {c.runningLength}
+              {c.fingerprintMatches === false && (
+                <span className="block text-signal-dark">run for another revision&apos;s fingerprint</span>
+              )}
+            </td>
+            <td className="font-mono text-note whitespace-nowrap">
+              {errorText(c.maxRelativeError)}
+              {c.worstPair !== null && <span className="text-ink-soft"> (pair {c.worstPair})</span>}
+            </td>
+            <td className="text-note">{c.cause || "—"}</td>
+            <td className="text-note">
+              {c.by.name} · {c.via === "token" ? "token" : "upload"} · {formatDateTime(c.at)}
+            </td>
+          </tr>
+          {c.groups && <GroupRows check={c.id} groups={c.groups} />}
+        </Fragment>
       ))}
     </FramedTable>
   );
