@@ -89,8 +89,17 @@ export async function runStagesBench() {
       `${(size / 1024).toFixed(1)} kB`,
     );
   }
-  const rowsGz = zlib.gzipSync(rowsJson, { level: 6 }).length;
-  time("gzip level 6, rows", () => zlib.gzipSync(rowsJson, { level: 6 }), `${(rowsGz / 1024).toFixed(1)} kB`);
+  for (const level of [6, 1]) {
+    const size = zlib.gzipSync(rowsJson, { level }).length;
+    time(`gzip level ${level}, rows`, () => zlib.gzipSync(rowsJson, { level }), `${(size / 1024).toFixed(1)} kB`);
+  }
+  const q1 = { [zlib.constants.BROTLI_PARAM_QUALITY]: 1 };
+  const rowsBr = zlib.brotliCompressSync(rowsJson, { params: q1 }).length;
+  time(
+    "brotli quality 1, rows",
+    () => zlib.brotliCompressSync(rowsJson, { params: q1 }),
+    `${(rowsBr / 1024).toFixed(1)} kB`,
+  );
   const secret = crypto.randomBytes(24).toString("hex");
   time("session cookie signature check (HMAC-SHA256)", () =>
     crypto.createHmac("sha256", secret).update("0123456789abcdef0123456789abcdef").digest("base64"),
