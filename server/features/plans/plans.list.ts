@@ -82,12 +82,13 @@ function filters(q: Query): SQL {
   const where: SQL[] = [sql`true`];
   if (q.state) where.push(sql`p.latest_state = ${q.state}`);
   // Proof belongs to the plan's approved revision (plans.approved_number); "none" is approved but not yet decided.
-  if (q.proof === "none")
-    where.push(sql`EXISTS (SELECT 1 FROM plan_revisions ar WHERE ar.plan_id = p.id AND ${UNPROVEN})`);
-  // A superseded revision keeps its proof, so "proven" and "unproven" name the approved revision by number.
-  else if (q.proof)
+  // Matching the number also skips the look-up for plans never approved (approved_number null), which on the page
+  // walk is most of a state's plans (docs/scale-figures.md).
+  if (q.proof)
     where.push(
-      sql`EXISTS (SELECT 1 FROM plan_revisions ar WHERE ar.plan_id = p.id AND ar.number = p.approved_number AND ar.proof = ${q.proof})`,
+      sql`EXISTS (SELECT 1 FROM plan_revisions ar WHERE ar.plan_id = p.id AND ar.number = p.approved_number AND ${
+        q.proof === "none" ? UNPROVEN : sql`ar.proof = ${q.proof}`
+      })`,
     );
   if (q.ownerId) where.push(sql`p.owner_id = ${q.ownerId}`);
   if (q.modelId) where.push(sql`p.model_id = ${q.modelId}`);
