@@ -7,7 +7,20 @@ export interface ListCase {
   as: Asker;
 }
 
-export const listCases = (midAuditId: string): ListCase[] => [
+/**
+ * Orders whose deep pages are read by keyset cursor: each cursor is page 2 000's `nextAfter` under that order (40 000
+ * plans in), asked once before the cases run (planCursors in run.ts).
+ */
+export const DEEP_PLAN_ORDERS = [
+  "sort=updatedAt&dir=desc",
+  "sort=createdAt&dir=asc",
+  "sort=title&dir=asc",
+  "sort=state&dir=asc",
+  "sort=owner&dir=asc",
+  "sort=model&dir=desc",
+];
+
+export const listCases = (midAuditId: string, planCursors: Record<string, string> = {}): ListCase[] => [
   { label: "/api/plans", url: "/api/plans", as: "admin" },
   { label: "/api/plans?state=in_review", url: "/api/plans?state=in_review", as: "admin" },
   { label: "/api/plans?q=…", url: "/api/plans?q=towline%20line%2C%20batch%20991", as: "admin" },
@@ -19,7 +32,18 @@ export const listCases = (midAuditId: string): ListCase[] => [
   { label: "/api/plans?modelId=…", url: "/api/plans?modelId=11", as: "admin" },
   { label: "/api/plans?proof=none", url: "/api/plans?proof=none", as: "admin" },
   { label: "/api/plans?proof=proven", url: "/api/plans?proof=proven", as: "admin" },
+  { label: "/api/plans?proof=none&state=approved", url: "/api/plans?proof=none&state=approved", as: "admin" },
+  { label: "/api/plans?proof=none&state=draft", url: "/api/plans?proof=none&state=draft", as: "admin" },
+  { label: "/api/plans?proof=none&state=in_review", url: "/api/plans?proof=none&state=in_review", as: "admin" },
+  { label: "/api/plans?proof=none&ownerId=…", url: "/api/plans?proof=none&ownerId=7", as: "admin" },
+  { label: "/api/plans?proof=none&modelId=…", url: "/api/plans?proof=none&modelId=11", as: "admin" },
+  { label: "/api/plans?proof=none&q=…", url: "/api/plans?proof=none&q=towline%20line%2C%20batch%20991", as: "admin" },
   { label: "/api/plans page 2 000", url: "/api/plans?page=2000", as: "admin" },
+  ...DEEP_PLAN_ORDERS.filter((o) => planCursors[o]).map((o) => ({
+    label: `/api/plans?${o} deep (keyset)`,
+    url: `/api/plans?${o}&page=2001&after=${planCursors[o]}`,
+    as: "admin" as const,
+  })),
   { label: "/api/audit", url: "/api/audit", as: "admin" },
   { label: "/api/audit deep (keyset)", url: `/api/audit?before=${midAuditId}`, as: "admin" },
   { label: "/api/audit deep (page 200)", url: "/api/audit?page=200", as: "admin" },

@@ -3,6 +3,7 @@
 // 50-connection throughput of /api/plans. `npm run bench:scale -- --serve PORT` serves the app on that database until
 // interrupted (demo accounts, password "ropewalk-demo"). `--reseed` drops and rebuilds the database first. `--explain`
 // prints, per endpoint, each SQL statement it runs with its EXPLAIN (ANALYZE, BUFFERS) plan (markdown; docs/scale-figures.md).
+// `--only TEXT` (repeatable) keeps the endpoints whose label contains one of the texts.
 // The timings run twice: against the app in this process (development mode, which checks every reply against its
 // schema) and against the compiled production server in a child process (bench/scale/production.ts), as deployed.
 import os from "node:os";
@@ -14,13 +15,14 @@ import { createApp } from "../../server/app";
 import { DEMO_PASSWORD } from "../../server/db/seed";
 import { quantile, signIn } from "../http-client";
 import { appUrl, BENCH_DB, prepare } from "./prepare";
-import { listCases, type Asker } from "./lists";
+import { DEEP_PLAN_ORDERS, listCases, type Asker } from "./lists";
 import { captureQueries, explain, listStatements } from "./explain";
 import { cpuNow, cpuSpent, type CpuSample } from "./cpu";
 import { PROXIED, startProduction } from "./production";
 
 const args = process.argv.slice(2);
 const servePort = args.includes("--serve") ? Number(args[args.indexOf("--serve") + 1]) : undefined;
+const only = args.flatMap((a, i) => (a === "--only" && args[i + 1] ? [args[i + 1]!] : []));
 
 /** Where the app answers: in this process (development mode) or the compiled production server (a child process). */
 interface Target {
@@ -80,6 +82,18 @@ async function measureLists(t: Target, cases: ReturnType<typeof listCases>) {
   console.log(load());
 }
 
+/** Page 2 000's keyset cursor under each deep-paged order (DEEP_PLAN_ORDERS), as the plans screen would follow it. */
+async function planCursors(base: string) {
+  const headers = (await askers(base)).admin;
+  const cursors: Record<string, string> = {};
+  for (const order of DEEP_PLAN_ORDERS) {
+    const r = await fetch(`${base}/api/plans?${order}&page=2000`, { headers });
+    const next = ((await r.json()) as { nextAfter?: string | null }).nextAfter;
+    if (next) cursors[order] = next;
+  }
+  return cursors;
+}
+
 async function throughput(t: Target) {
   const before = await cpuNow(deps.pool, t.serverPid);
   const run = await autocannon({ url: `${t.base}/api/plans`, connections: 50, duration: 15, headers: t.headers.admin });
@@ -105,7 +119,9 @@ if (servePort !== undefined) {
   process.on("SIGINT", () => process.exit(0));
 } else {
   const midAudit = (await deps.pool.query("SELECT max(id) / 2 AS id FROM audit_events")).rows[0].id as string;
-  const cases = listCases(midAudit);
+  const cases = listCases(midAudit, await planCursors(base)).filter(
+    (c) => only.length === 0 || only.some((o) => c.label.includes(o)),
+  );
   if (args.includes("--explain")) {
     const headers = await askers(base);
     const client = new pg.Client({ connectionString: appUrl });
