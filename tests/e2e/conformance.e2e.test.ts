@@ -1,3 +1,5 @@
+import fs from "node:fs";
+import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
 import { launchBrowser, screenshot, requireBuiltClient } from "../setup/browser";
@@ -62,6 +64,56 @@ async function expectMatrix(scope: ReturnType<Page["getByTestId"]>, { fingerprin
   if (fingerprint) expect(await matrix.getByTestId("rotary-fingerprint").textContent()).toMatch(/^[0-9a-f]{64}$/);
   return matrix;
 }
+
+describe("probe checks on a layered plan", () => {
+  it("the plan page lists each layer group's result under the check", async () => {
+    // sliding-full-local-base.json: head_dim 256; local layers 0–4 and 6–10 over base 1e4, full layers 5 and 11 over
+    // 1e6; a linear ×4 plan to 65 536 scales the full layers only (θ/4, Chen et al. 2023) and keeps the local ones.
+    const api = await makeTestApp().signIn(researcher);
+    const config = fs.readFileSync(path.join(import.meta.dirname, "../fixtures/configs/sliding-full-local-base.json"));
+    const saved = await api
+      .post("/api/models/import?save=true")
+      .set("X-CSRF-Token", api.csrf)
+      .field("overrides", JSON.stringify({ name: `Layered hawser ${Date.now()}`, parameters: 3e9 }))
+      .attach("file", config, "config.json")
+      .expect(201);
+    const layered = await createPlan(api, saved.body.saved.id, {
+      title: `Layered probe ${Date.now()}`,
+      revision: { targetContext: 65536, method: { method: "linear", factor: 4 } },
+    });
+    // A reading that scaled the local layers too: they slip by 3/4 on every pair, the full layers hold.
+    const theta = (b: number, s: number) => Array.from({ length: 128 }, (_, i) => b ** ((-2 * i) / 256) / s);
+    const group = (layerType: string, layers: number[], invFreq: number[]) => ({
+      layerType,
+      layers,
+      ropeType: "linear",
+      rotaryDim: 256,
+      attentionFactor: 1,
+      invFreq,
+    });
+    const local = [0, 1, 2, 3, 4, 6, 7, 8, 9, 10];
+    const doc = {
+      ...probeDocument(256, 1e6, 4),
+      runningLength: 65536,
+      layerType: "full_attention",
+      layerGroups: [group("sliding_attention", local, theta(1e4, 4)), group("full_attention", [5, 11], theta(1e6, 4))],
+    };
+    await post(api, `/api/plans/${layered.id}/revisions/1/conformance-checks`, doc).expect(201);
+
+    const page = await signedIn(researcher, `/plans/${layered.id}`);
+    const checks = page.getByTestId("probe-checks");
+    const groups = checks.locator("tr[data-check-groups]");
+    await groups.waitFor({ timeout: 20_000 });
+    const rows = await groups
+      .locator("tr[data-group]")
+      .evaluateAll((trs) => trs.map((tr) => [...tr.querySelectorAll("td")].slice(0, 3).map((td) => td.textContent)));
+    expect(rows).toEqual([
+      ["sliding_attention", "0–4, 6–10", "slips"],
+      ["full_attention", "5, 11", "holds"],
+    ]);
+    await screenshot(page, "conformance-plan-groups");
+  }, 60_000);
+});
 
 describe("conformance matrix in the three screens", () => {
   it("workbench: the matrix follows the method on show, with each stack's artifact", async () => {
