@@ -166,7 +166,10 @@ export const llamaCppTarget: ExportTarget = {
   id: "llama-cpp",
   label: "llama.cpp (GGUF flags and metadata)",
   consumer: "llama.cpp",
-  versions: ["master (common/arg.cpp, src/llama-context.cpp, src/llama-model.cpp, ggml-cpu rope)"],
+  versions: [
+    "master (common/arg.cpp, src/llama-context.cpp, src/llama-model.cpp, ggml-cpu rope)",
+    "ggml-cpu/ops.cpp @ 0049e3c (multi-section rope)",
+  ],
   artifactKind: "launch-args",
   compile,
   read: (config: Record<string, unknown>, artifact: TargetArtifact) => readLlamaCpp(config, artifact),

@@ -249,7 +249,11 @@ export const sglangTarget: ExportTarget = {
   id: "sglang",
   label: "SGLang (--json-model-override-args)",
   consumer: "SGLang",
-  versions: ["main @ eb047c1 (rotary_embedding/factory.py)", "configs/model_config.py @ 001adf5"],
+  versions: [
+    "main @ eb047c1 (rotary_embedding/factory.py)",
+    "configs/model_config.py @ 001adf5",
+    "rotary_embedding/mrope.py @ 020d83a",
+  ],
   artifactKind: "launch-args",
   compile,
   read,

@@ -306,7 +306,11 @@ export const vllmTarget: ExportTarget = {
   id: "vllm",
   label: "vLLM (--hf-overrides)",
   consumer: "vLLM",
-  versions: ["main @ 0cd5784 (rotary_embedding/__init__.py)", "config/model.py @ 0052a5b"],
+  versions: [
+    "main @ 0cd5784 (rotary_embedding/__init__.py)",
+    "config/model.py @ 0052a5b",
+    "rotary_embedding/mrope.py @ 055e47c",
+  ],
   artifactKind: "launch-args",
   compile,
   read,
