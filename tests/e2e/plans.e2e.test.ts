@@ -423,6 +423,41 @@ describe("plan workflow in a browser", () => {
     await screenshot(page, "plans-integrity-failure");
   }, 60_000);
 
+  it("the plans list reads on by cursor: Next page follows the server's nextAfter, Previous goes back by number", async () => {
+    const model = await createProfile(api);
+    const tag = `Tern ${Date.now().toString(36)}`;
+    for (let i = 0; i < 5; i++) await createPlan(api, model.id, { title: `${tag} ${i}` });
+    const page = await signedIn(researcher, `/plans?modelId=${model.id}&pageSize=2&sort=title&dir=asc`);
+    const table = page.getByRole("table", { name: "Plans" });
+    const titles = async (expected: string[]) => {
+      await table.getByText(expected[0]!, { exact: true }).waitFor();
+      await expect
+        .poll(async () => (await table.locator("tbody tr td:first-child a").allTextContents()).map((t) => t.trim()))
+        .toEqual(expected);
+    };
+    const pager = page.getByRole("navigation", { name: "Plans pages" });
+    await titles([`${tag} 0`, `${tag} 1`]);
+    await pager.getByRole("button", { name: "Next page" }).click();
+    await titles([`${tag} 2`, `${tag} 3`]);
+    // The second page was asked by cursor (page only labels it).
+    const second = new URL(page.url()).searchParams;
+    expect(second.get("page")).toBe("2");
+    expect(second.get("after")).toMatch(/^[A-Za-z0-9_-]+$/);
+    await pager.getByRole("button", { name: "Next page" }).click();
+    await titles([`${tag} 4`]);
+    expect(new URL(page.url()).searchParams.get("after")).not.toBe(second.get("after"));
+    await pager.getByRole("button", { name: "Previous page" }).click();
+    await titles([`${tag} 2`, `${tag} 3`]);
+    expect(new URL(page.url()).searchParams.get("after")).toBeNull();
+    // A new order starts again from page 1 and drops the cursor read under the old one.
+    await pager.getByRole("button", { name: "Next page" }).click();
+    await titles([`${tag} 4`]);
+    await table.getByRole("columnheader", { name: /Plan/ }).getByRole("button").click();
+    await titles([`${tag} 4`, `${tag} 3`]);
+    const reordered = new URL(page.url()).searchParams;
+    expect([reordered.get("dir"), reordered.get("page"), reordered.get("after")]).toEqual(["desc", null, null]);
+  }, 60_000);
+
   it("no page error or console error along the way", () => {
     expect(errors).toEqual([]);
   });
