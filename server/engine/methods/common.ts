@@ -14,7 +14,7 @@ export const resolveFactor = (ctx: MethodContext, factor: number | undefined) =>
  * multimodal config classes copy `type` over `rope_type` (the reasons are at sectionKeyFields in
  * shared/schemas/analysis.ts).
  */
-const sectionKeys = (ctx: MethodContext) =>
+const sectionKeys = (ctx: Pick<MethodContext, "mropeSection" | "mropeInterleaved">) =>
   ctx.mropeSection?.length
     ? { mrope_section: [...ctx.mropeSection], ...(ctx.mropeInterleaved ? { mrope_interleaved: true } : {}) }
     : null;
@@ -35,8 +35,14 @@ export function patchWithScaling(
   };
 }
 
-/** Plain RoPE at a base: no block, or for a model with sections a `default` block holding only them. */
-export function patchWithBase(ctx: MethodContext, base: number | null): ConfigPatch {
+/**
+ * Plain RoPE at a base: no block, or for a model with sections a `default` block holding only them. Also the block of
+ * a layer group without rotary positions (plans/group-results.ts), which needs only the target and the sections.
+ */
+export function patchWithBase(
+  ctx: Pick<MethodContext, "targetContext" | "mropeSection" | "mropeInterleaved">,
+  base: number | null,
+): ConfigPatch {
   const sections = sectionKeys(ctx);
   const rope_scaling = sections ? { rope_type: "default" as const, type: "default" as const, ...sections } : null;
   return base === null

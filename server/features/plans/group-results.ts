@@ -7,7 +7,8 @@ import {
 import type { GroupResult, ModelSnapshot } from "../../../shared/schemas/plans";
 import type { LayerGroup } from "../../../shared/schemas";
 import { NO_ROPE, scaledGroupIndex } from "../../../shared/layer-groups";
-import { groupShape, rotaryShapeOf } from "../../../shared/profile-shapes";
+import { groupShape, rotaryShapeOf, sectionsOf } from "../../../shared/profile-shapes";
+import { patchWithBase } from "../../engine/methods/common";
 // A cycle-free import: revision-content.ts imports this file only for the two functions below, and stageResult is
 // passed in rather than imported back.
 type StageFn = (
@@ -60,7 +61,12 @@ export function groupMethodIssues(model: ModelSnapshot, v: RevisionValues): Reco
   return fields;
 }
 
-const unrotated = (g: LayerGroup, target: number): GroupResult => ({
+/**
+ * A group without rotary positions: nothing to scale. Its block is still a patch of the model's one config.json, so
+ * for a model with multimodal sections it holds them as every other group's block does (patchWithBase), instead of a
+ * null rope_scaling that would delete the sections the rotating layers read.
+ */
+const unrotated = (model: ModelSnapshot, g: LayerGroup, target: number): GroupResult => ({
   kind: g.kind,
   layers: g.layers,
   ropeTheta: null,
@@ -76,7 +82,7 @@ const unrotated = (g: LayerGroup, target: number): GroupResult => ({
   flags: { unseenAngles: [], compressedResolution: [], exceedsTrainedWindow: [] },
   bands: [],
   scaledWavelengths: [],
-  patch: { rope_scaling: null, max_position_embeddings: target },
+  patch: patchWithBase({ targetContext: target, ...sectionsOf(model) }, null),
 });
 
 /** Every group's frozen result; undefined for a single-group model (its result is `final`). */
@@ -91,7 +97,7 @@ export function groupResults(
   const si = scaledGroupIndex(groups);
   return groups.map((g, j): GroupResult => {
     const head = { kind: g.kind, layers: g.layers, ropeTheta: g.ropeTheta, rotaryDim: g.rotaryDim };
-    if (g.kind === NO_ROPE || g.rotaryDim === 0) return unrotated(g, v.targetContext);
+    if (g.kind === NO_ROPE || g.rotaryDim === 0) return unrotated(model, g, v.targetContext);
     if (j === si)
       return { ...final, ...head, slidingWindow: g.slidingWindow, checkedUpTo: v.targetContext, scaled: true };
     const method = v.groupMethods?.find((gm) => gm.kind === g.kind)?.method ?? AS_TRAINED;
