@@ -89,7 +89,7 @@ export async function exportRevision(
   const content = rev.content as RevisionContent;
   const decisions = c.decisions.filter((d) => d.decision === "approve" && d.round === rev.round);
   const block = await targetBlock(deps, plan.modelId, content, choice);
-  const cautions = frozenBlockCautions(content.model, block.config);
+  const cautions = frozenBlockCautions(content.model, block.config, { stage: choice.stage });
   await recordAudit(deps.db, {
     actorId: actor.id,
     action: "revision.exported",

@@ -27,6 +27,7 @@ import { signatureStatus, signingKey } from "./signing";
 import { decisionPayload } from "./integrity";
 import { adoptedBaseSupport, adoptedBaseSupportOfRow } from "./base-support";
 import { effectiveRequiredApprovals, latestApproved } from "../../../shared/plan-rules";
+import { revisionBlockCautions } from "../../../shared/frozen-block";
 
 /** Engine results and budget figures for revision values; what gets hashed. */
 export async function makeContent(
@@ -318,6 +319,7 @@ export async function getRevision(deps: AppDeps, planId: number, n: number) {
     authorId: r.authorId,
     content: r.content as RevisionContent,
     adoptedBases: adoptedBaseSupportOfRow(r),
+    blockCautions: revisionBlockCautions(r.content as RevisionContent),
   };
 }
 

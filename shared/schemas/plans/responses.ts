@@ -186,6 +186,14 @@ export const revisionResponseSchema = z.object({
   content: revisionContentSchema,
   /** Every base the plan adopts, each with whether it reaches its target; empty when the plan keeps the model's base. */
   adoptedBases: z.array(adoptedBaseSupportSchema),
+  /**
+   * What is wrong with the blocks this revision signs as they stand (shared/frozen-block.ts revisionBlockCautions), in
+   * the words each block's export carries: `stage` null for the plan target's block, n for `?stage=n`'s. Empty when
+   * there is nothing to say.
+   */
+  blockCautions: z.array(
+    z.object({ stage: z.number().int().positive().nullable(), code: z.string(), message: z.string() }),
+  ),
 });
 export type RevisionResponse = z.infer<typeof revisionResponseSchema>;
 

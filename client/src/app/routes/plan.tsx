@@ -178,9 +178,9 @@ export function PlanRoute() {
               <Panel title="Frozen config block">
                 <p className="mb-3 text-body text-ink-soft">
                   The <code>config</code> this revision&apos;s export hands out once signed: the keys its content
-                  freezes for the plan target.
+                  freezes for the plan target (each stage&apos;s block exports with <code>?stage=n</code>).
                 </p>
-                <SignedBlockCautions model={content.model} patch={content.results.final.patch} />
+                <SignedBlockCautions cautions={revision.data?.blockCautions ?? []} />
                 <ExportBlock
                   patch={content.results.final.patch}
                   label={`revision ${n}`}

@@ -1,20 +1,28 @@
-import type { ConfigPatch } from "@shared/schemas/analysis";
-import type { ModelSnapshot } from "@shared/schemas/plans";
-import { frozenBlockCautions } from "@shared/frozen-block";
+import type { RevisionResponse } from "@shared/schemas/plans";
 import { Notice } from "@/components/notice";
 
 /**
- * What the export envelope's `cautions` say about a revision's signed block, from the same rule (shared/frozen-block.ts):
- * a model with multimodal sections whose block was signed without them.
+ * What the export envelope's `cautions` say about each block a revision signed (the revision's `blockCautions`, from
+ * the same rule, shared/frozen-block.ts): a model with multimodal sections whose plan-target or stage block was signed
+ * without them.
  */
-export function SignedBlockCautions({ model, patch }: { model: ModelSnapshot; patch: ConfigPatch }) {
-  const cautions = frozenBlockCautions(model, patch);
+export function SignedBlockCautions({ cautions }: { cautions: RevisionResponse["blockCautions"] }) {
   if (!cautions.length) return null;
   return (
     <div className="mb-3 flex flex-col gap-2" data-testid="signed-block-cautions">
       {cautions.map((c) => (
-        <Notice key={c.code} tone="alert" title="The signed block lacks the model's sections">
-          <p data-code={c.code}>{c.message}</p>
+        <Notice
+          key={`${c.stage ?? "target"}-${c.code}`}
+          tone="alert"
+          title={
+            c.stage === null
+              ? "The signed block lacks the model's sections"
+              : `Stage ${c.stage}'s signed block lacks the model's sections`
+          }
+        >
+          <p data-code={c.code} data-stage={c.stage ?? "target"}>
+            {c.message}
+          </p>
         </Notice>
       ))}
     </div>
