@@ -13,9 +13,6 @@ export interface BlockCaution {
 
 export const FROZEN_CONFIG_LACKS_SECTIONS = "frozen_config_lacks_sections";
 
-/** The per-stack exports whose rigging keeps the sections (server/engine/targets: hf/compile.ts, vllm, sglang). */
-const KEEPING_TARGETS = ["transformers-v4", "transformers-v5", "vllm", "sglang"] as const;
-
 type SectionedModel = { mropeSection?: readonly number[]; mropeInterleaved?: boolean };
 
 /** The section keys the model has that the signed block lacks (none for a model without sections). */
@@ -27,15 +24,20 @@ export function missingSectionKeys(model: SectionedModel, patch: { rope_scaling:
   return wanted.filter((k) => !has(k));
 }
 
-/** Which signed block: the plan target's (the export without `?stage`), or stage n's (`?stage=n`). */
+/**
+ * Which signed block: the plan target's (the export without `?stage`), or stage n's (`?stage=n`), and the stacks whose
+ * rigging of it keeps the sections: asked of the targets themselves (server/engine/targets/registry.ts
+ * targetsKeepingSections), never listed here.
+ */
 export interface BlockScope {
   stage?: number;
+  keepingTargets: readonly string[];
 }
 
 export function frozenBlockCautions(
   model: SectionedModel,
   patch: { rope_scaling: unknown },
-  { stage }: BlockScope = {},
+  { stage, keepingTargets }: BlockScope,
 ): BlockCaution[] {
   const missing = missingSectionKeys(model, patch);
   if (!missing.length) return [];
@@ -46,14 +48,17 @@ export function frozenBlockCautions(
       : "applying it as a whole rope_scaling block drops them";
   const block = stage === undefined ? "This signed block" : `Stage ${stage}'s signed block`;
   const query = stage === undefined ? "?target=<stack>" : `?stage=${stage}&target=<stack>`;
+  const wayOut = keepingTargets.length
+    ? `Export it with ${query} (${keepingTargets.join(", ")}), whose rigging keeps the sections, or draft a new ` +
+      "revision, whose signed block carries them."
+    : "As this model and plan stand, no stack's rigging keeps them for this plan either: draft a new revision, " +
+      "whose signed block carries them.";
   return [
     {
       code: FROZEN_CONFIG_LACKS_SECTIONS,
       message:
         `${block} lacks ${keys}, which the model reads on every step: ${effect}. It was signed before ` +
-        `signed blocks carried multimodal sections, and stays as signed. Export it with ${query} ` +
-        `(${KEEPING_TARGETS.join(", ")}), whose rigging keeps the sections, or draft a new revision, whose signed ` +
-        "block carries them.",
+        `signed blocks carried multimodal sections, and stays as signed. ${wayOut}`,
     },
   ];
 }
@@ -61,20 +66,4 @@ export function frozenBlockCautions(
 /** One signed block's caution, for the plan page: `stage` null for the plan target's block. */
 export interface ScopedBlockCaution extends BlockCaution {
   stage: number | null;
-}
-
-/**
- * The cautions of every block a revision signed, the plan target's first and then each stage's, in the words each
- * block's export carries (`?stage=n` for a stage's).
- */
-export function revisionBlockCautions(content: {
-  model: SectionedModel;
-  results: { final: { patch: { rope_scaling: unknown } }; stages: readonly { patch: { rope_scaling: unknown } }[] };
-}): ScopedBlockCaution[] {
-  return [
-    ...frozenBlockCautions(content.model, content.results.final.patch).map((c) => ({ stage: null, ...c })),
-    ...content.results.stages.flatMap((s, i) =>
-      frozenBlockCautions(content.model, s.patch, { stage: i + 1 }).map((c) => ({ stage: i + 1, ...c })),
-    ),
-  ];
 }

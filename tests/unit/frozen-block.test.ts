@@ -11,15 +11,17 @@ import { FROZEN_CONFIG_LACKS_SECTIONS, frozenBlockCautions, missingSectionKeys }
  */
 const contiguous = { mropeSection: [16, 24, 24], mropeInterleaved: false };
 const interleaved = { mropeSection: [24, 20, 16], mropeInterleaved: true };
+/** the stacks a caution offers come from the targets (tests/unit/engine/targets/sections-keeping.test.ts) */
+const ways = { keepingTargets: ["transformers-v4"] };
 
 describe("which section keys a signed block lacks", () => {
   it("a model without sections never draws the caution", () => {
-    expect(frozenBlockCautions({}, { rope_scaling: null })).toEqual([]);
+    expect(frozenBlockCautions({}, { rope_scaling: null }, ways)).toEqual([]);
   });
   it("a null block lacks every key the model has", () => {
     expect(missingSectionKeys(contiguous, { rope_scaling: null })).toEqual(["mrope_section"]);
     expect(missingSectionKeys(interleaved, { rope_scaling: null })).toEqual(["mrope_section", "mrope_interleaved"]);
-    const [c] = frozenBlockCautions(interleaved, { rope_scaling: null });
+    const [c] = frozenBlockCautions(interleaved, { rope_scaling: null }, ways);
     expect(c.code).toBe(FROZEN_CONFIG_LACKS_SECTIONS);
     expect(c.message).toContain('"mrope_section" and "mrope_interleaved"');
     expect(c.message).toContain("rope_scaling is null");
@@ -36,7 +38,7 @@ describe("which section keys a signed block lacks", () => {
         ) as MethodParams;
         const shape = { headDim: 128, ropeTheta: 1e6, trainedContext: 32768, ...model };
         const patch = analyse({ model: shape, targetContext: 131072, methods: [method] }).methods[0].ropeScaling;
-        expect(frozenBlockCautions(model, patch), id).toEqual([]);
+        expect(frozenBlockCautions(model, patch, ways), id).toEqual([]);
       }
     }
   });

@@ -7,7 +7,7 @@ import type { GroupRotarySpec } from "../../../shared/layer-groups";
 import type { MethodContext } from "../types";
 import type { CompileInput, PlanRun, TargetId } from "./types";
 import { TARGET_IDS } from "./types";
-import { exportForTargets, type TargetExport } from "./registry";
+import { exportForTargets, targetsKeepingSections, type TargetExport } from "./registry";
 
 /**
  * config.json as the open config format spells a profile, for models that were not imported from a file (and as the
@@ -43,7 +43,7 @@ export interface PlanExport {
  * A layered model's `groups` make the fingerprint and every target's conformance cover each rotating group.
  * `config` is the model's config.json when known (an imported file); the profile's values are laid over it.
  */
-export function exportPlan(p: {
+export interface PlanExportRequest {
   model: ModelShape;
   config?: Record<string, unknown>;
   targetContext: number;
@@ -51,13 +51,25 @@ export function exportPlan(p: {
   targets?: readonly TargetId[];
   /** a layered model's rotating groups with their methods (shared/layer-groups.ts groupRotarySpecs) */
   groups?: readonly GroupRotarySpec[];
-}): PlanExport {
+}
+
+/** What every target's compiler is handed for this request: the plan's one run and the model's config. */
+function compileInput(p: PlanExportRequest): {
+  input: CompileInput;
+  d: number;
+  groups?: ReturnType<typeof rotateGroups>;
+} {
   const d = rotaryDimension(p.model);
   if (d === null) throw new RangeError("rotary dimension must be a positive even integer (validate the model first)");
   const ctx = { d, base: p.model.ropeTheta, trainedContext: p.model.trainedContext, targetContext: p.targetContext };
   const groups = p.groups?.length ? rotateGroups(p.groups, p.model.trainedContext, p.targetContext) : undefined;
   const plan: PlanRun = { ...planRotary(ctx, p.method), ...(groups ? { groups } : {}) };
-  const input: CompileInput = { config: { ...(p.config ?? {}), ...configOfShape(p.model) }, method: p.method, plan };
+  return { input: { config: { ...(p.config ?? {}), ...configOfShape(p.model) }, method: p.method, plan }, d, groups };
+}
+
+export function exportPlan(p: PlanExportRequest): PlanExport {
+  const { input, d, groups } = compileInput(p);
+  const plan = input.plan;
   return {
     invFreq: plan.invFreq,
     attentionFactor: plan.attentionFactor,
@@ -68,6 +80,10 @@ export function exportPlan(p: {
     targets: exportForTargets(input, p.targets ?? TARGET_IDS),
   };
 }
+
+/** The targets (all, or `p.targets`) whose rigging of this plan runs it and keeps the model's multimodal sections. */
+export const stacksKeepingSections = (p: PlanExportRequest): TargetId[] =>
+  targetsKeepingSections(compileInput(p).input, p.targets ?? TARGET_IDS);
 
 /**
  * The engine's one run of the plan's method for an export: every target's compiler reads its filled parameters from

@@ -8,6 +8,11 @@ import { transformersV5Target } from "./transformers-v5";
 import { vllmTarget } from "./vllm";
 import { sglangTarget } from "./sglang";
 import { llamaCppTarget } from "./llama-cpp";
+import { applyMergePatch } from "./merge-patch";
+import { argsOf, flagValue } from "./engines/launch-text";
+import { ggufArch, key } from "./engines/gguf";
+import { sectionKeysOf } from "../../../shared/mrope-axes";
+import { isObj } from "../../../shared/json-values";
 
 /** Every consumer Ropewalk compiles for: adding a target is one entry here and one file with its reader. */
 export const TARGETS: Record<TargetId, ExportTarget> = {
@@ -81,4 +86,58 @@ export function exportForTargets(input: CompileInput, ids: readonly TargetId[] =
       };
     }
   });
+}
+
+type Sections = Record<string, unknown> | null;
+type Config = Record<string, unknown>;
+
+/** The multimodal section keys of config.json once a merge patch is applied (RFC 7396), in the block `pick` reads. */
+const merged = (pick: (c: Config) => unknown) => (config: Config, a: TargetArtifact) =>
+  sectionKeysOf(pick(applyMergePatch(config, a.content) as Config));
+
+/** Top-level keys of the config replaced whole by the JSON after `flag` (`config.update(...)`), then `pick`'s block. */
+const overridden = (flag: string, pick: (c: Config) => unknown) => (config: Config, a: TargetArtifact) => {
+  const text = flagValue(argsOf(a), flag);
+  const overrides: unknown = text === undefined ? {} : JSON.parse(text);
+  return sectionKeysOf(pick({ ...config, ...(isObj(overrides) ? overrides : {}) }));
+};
+
+/**
+ * Where each consumer holds a model's multimodal sections once our artifact is applied: the sections it runs with, or
+ * null when the artifact leaves it none. One entry per target, so a new target must say; the signed-block caution
+ * (shared/frozen-block.ts) names the targets from here, never from a list of its own.
+ * - 4.x transformers reads `rope_scaling`: models/qwen2_vl/modeling_qwen2_vl.py at 00b676f8,
+ *   `self.rope_scaling["mrope_section"]`; v5 takes `rope_scaling or rope_parameters` (RotaryEmbeddingConfigMixin,
+ *   v5 line, read through a stored copy; server/features/models/config-import.ts scaledBlock cites the same line);
+ * - vLLM and SGLang apply their JSON flag as `config.update(...)`, top-level keys replaced whole (vllm.ts and sglang.ts
+ *   readers cite where); vLLM's get_rope takes `rope_parameters` before `rope_scaling` as vllm.ts's compile reads them;
+ * - llama.cpp runs the GGUF's `<arch>.rope.dimension_sections` (llama-cpp.ts, SECTIONED_ARCHS), which the artifact's
+ *   metadata states for the architecture it converts as.
+ */
+export const SECTIONS_WITH_ARTIFACT: Record<TargetId, (config: Config, artifact: TargetArtifact) => Sections> = {
+  "transformers-v4-early": merged((c) => c.rope_scaling),
+  "transformers-v4": merged((c) => c.rope_scaling),
+  "transformers-v5": merged((c) => c.rope_scaling || c.rope_parameters),
+  vllm: overridden("--hf-overrides", (c) => c.rope_parameters ?? c.rope_scaling),
+  sglang: overridden("--json-model-override-args", (c) => c.rope_scaling),
+  "llama-cpp": (config, a) => {
+    const metadata = a.content.metadata;
+    const sections = isObj(metadata) ? metadata[key(ggufArch(config), "rope.dimension_sections")] : undefined;
+    return Array.isArray(sections) ? { mrope_section: sections } : null;
+  },
+};
+
+/**
+ * The targets whose rigging of this plan, compiled for this model, runs the plan (conformance exact or equivalent) and
+ * keeps the model's multimodal sections (SECTIONS_WITH_ARTIFACT): the ways out the signed-block caution names.
+ */
+export function targetsKeepingSections(input: CompileInput, ids: readonly TargetId[] = TARGET_IDS): TargetId[] {
+  return exportForTargets(input, ids)
+    .filter(
+      (t) =>
+        t.artifact !== null &&
+        (t.conformance.status === "exact" || t.conformance.status === "equivalent") &&
+        SECTIONS_WITH_ARTIFACT[t.id](input.config, t.artifact) !== null,
+    )
+    .map((t) => t.id);
 }

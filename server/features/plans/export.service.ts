@@ -10,12 +10,11 @@ import type { RevisionContent } from "./revision-content";
 import { checkRevision } from "./integrity";
 import { signingKey } from "./signing";
 import { checkedProofs } from "./proofs";
-import { targetBlock, type ExportChoice } from "./export-target";
+import { blockCautions, targetBlock, type ExportChoice } from "./export-target";
 import { layeredExport } from "./group-export";
 import { adoptedBaseSupportOfRow } from "./base-support";
 import { isSigned, latestApproved } from "../../../shared/plan-rules";
 import { lineageOf, startLength } from "../../../shared/lineage";
-import { frozenBlockCautions } from "../../../shared/frozen-block";
 
 /** A plan on an already-scaled model says which length it extends from, and where this block's stage starts. */
 function lineagePart(content: RevisionContent, stage: number | undefined) {
@@ -89,7 +88,7 @@ export async function exportRevision(
   const content = rev.content as RevisionContent;
   const decisions = c.decisions.filter((d) => d.decision === "approve" && d.round === rev.round);
   const block = await targetBlock(deps, plan.modelId, content, choice);
-  const cautions = frozenBlockCautions(content.model, block.config, { stage: choice.stage });
+  const cautions = await blockCautions(deps, plan.modelId, content, choice.stage);
   await recordAudit(deps.db, {
     actorId: actor.id,
     action: "revision.exported",

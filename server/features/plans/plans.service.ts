@@ -27,7 +27,7 @@ import { signatureStatus, signingKey } from "./signing";
 import { decisionPayload } from "./integrity";
 import { adoptedBaseSupport, adoptedBaseSupportOfRow } from "./base-support";
 import { effectiveRequiredApprovals, latestApproved } from "../../../shared/plan-rules";
-import { revisionBlockCautions } from "../../../shared/frozen-block";
+import { revisionBlockCautions } from "./export-target";
 
 /** Engine results and budget figures for revision values; what gets hashed. */
 export async function makeContent(
@@ -306,7 +306,7 @@ export async function getPlan(deps: AppDeps, id: number) {
 }
 
 export async function getRevision(deps: AppDeps, planId: number, n: number) {
-  await mustPlan(deps.db, planId);
+  const plan = await mustPlan(deps.db, planId);
   const r = await mustRevision(deps.db, planId, n);
   return {
     number: r.number,
@@ -319,7 +319,7 @@ export async function getRevision(deps: AppDeps, planId: number, n: number) {
     authorId: r.authorId,
     content: r.content as RevisionContent,
     adoptedBases: adoptedBaseSupportOfRow(r),
-    blockCautions: revisionBlockCautions(r.content as RevisionContent),
+    blockCautions: await revisionBlockCautions(deps, plan.modelId, r.content as RevisionContent),
   };
 }
 
