@@ -1,5 +1,5 @@
 // `npm run bench`: each bench file exports one run function; add new ones to this list.
-// `npm run bench -- speed` (or engine, budget, api) runs one of them.
+// `npm run bench -- speed` (or engine, budget, api, stages) runs one of them.
 import { runEngineBench } from "./engine.bench";
 import { runBudgetBench } from "./budget.bench";
 import { runApiBench } from "./api.bench";
