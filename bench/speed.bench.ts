@@ -49,6 +49,8 @@ async function startBareJson(body: Buffer) {
   });
   const base = `http://127.0.0.1:${port}`;
   await waitFor(base, child, 600);
+  // the server has read the body by the time it answers
+  fs.rmSync(file, { force: true });
   return { base, child };
 }
 
