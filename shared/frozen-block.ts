@@ -8,6 +8,8 @@ import { MROPE_KEYS } from "./mrope-axes";
 export interface BlockCaution {
   /** stable, for scripts: frozen_config_lacks_sections */
   code: string;
+  /** a layer group's block: its kind (the export's layerGroups[].kind); absent for the plan target's or a stage's */
+  group?: string;
   message: string;
 }
 
@@ -25,19 +27,43 @@ export function missingSectionKeys(model: SectionedModel, patch: { rope_scaling:
 }
 
 /**
- * Which signed block: the plan target's (the export without `?stage`), or stage n's (`?stage=n`), and the stacks whose
- * rigging of it keeps the sections: asked of the targets themselves (server/engine/targets/registry.ts
- * targetsKeepingSections), never listed here.
+ * A layered model's group block (the export's `layerGroups[].config`, one per kind): `rotates` when the group has
+ * rotary positions, so its block is also the group's `ropeParametersByLayerType` entry (server/engine/layer-nesting.ts
+ * gives no_rope layers none).
+ */
+export interface GroupScope {
+  kind: string;
+  rotates: boolean;
+}
+
+/**
+ * Which signed block: the plan target's (the export without `?stage`), stage n's (`?stage=n`), or a layer group's
+ * (every export of a layered revision carries each group's block), and the stacks whose rigging of it keeps the
+ * sections: asked of the targets themselves (server/engine/targets/registry.ts targetsKeepingSections), never listed
+ * here.
  */
 export interface BlockScope {
   stage?: number;
+  group?: GroupScope;
   keepingTargets: readonly string[];
+}
+
+/** How the caution names its block, and the export that rigs it for a stack. */
+function blockWords(stage: number | undefined, group: GroupScope | undefined) {
+  if (group) {
+    const where = group.rotates
+      ? `(layerGroups' config and ropeParametersByLayerType.${group.kind})`
+      : "(layerGroups' config)";
+    return { block: `The ${group.kind} layer group's signed block ${where}`, query: "?target=<stack>" };
+  }
+  if (stage === undefined) return { block: "This signed block", query: "?target=<stack>" };
+  return { block: `Stage ${stage}'s signed block`, query: `?stage=${stage}&target=<stack>` };
 }
 
 export function frozenBlockCautions(
   model: SectionedModel,
   patch: { rope_scaling: unknown },
-  { stage, keepingTargets }: BlockScope,
+  { stage, group, keepingTargets }: BlockScope,
 ): BlockCaution[] {
   const missing = missingSectionKeys(model, patch);
   if (!missing.length) return [];
@@ -46,8 +72,7 @@ export function frozenBlockCautions(
     patch.rope_scaling === null
       ? "its rope_scaling is null, so applying it deletes the sections"
       : "applying it as a whole rope_scaling block drops them";
-  const block = stage === undefined ? "This signed block" : `Stage ${stage}'s signed block`;
-  const query = stage === undefined ? "?target=<stack>" : `?stage=${stage}&target=<stack>`;
+  const { block, query } = blockWords(stage, group);
   const wayOut = keepingTargets.length
     ? `Export it with ${query} (${keepingTargets.join(", ")}), whose rigging keeps the sections, or draft a new ` +
       "revision, whose signed block carries them."
@@ -56,6 +81,7 @@ export function frozenBlockCautions(
   return [
     {
       code: FROZEN_CONFIG_LACKS_SECTIONS,
+      ...(group ? { group: group.kind } : {}),
       message:
         `${block} lacks ${keys}, which the model reads on every step: ${effect}. It was signed before ` +
         `signed blocks carried multimodal sections, and stays as signed. ${wayOut}`,
@@ -66,4 +92,27 @@ export function frozenBlockCautions(
 /** One signed block's caution, for the plan page: `stage` null for the plan target's block. */
 export interface ScopedBlockCaution extends BlockCaution {
   stage: number | null;
+}
+
+/** A layered revision's group blocks as the export hands them out (server/features/plans/group-export.ts). */
+export interface SignedGroup {
+  kind: string;
+  /** null for a group without rotary positions (no_rope) */
+  ropeTheta: number | null;
+  patch: { rope_scaling: unknown };
+}
+
+/** The group blocks that lack the model's sections: the same rule as every other signed block. */
+export const groupsLackingSections = (model: SectionedModel, groups: readonly SignedGroup[] | undefined) =>
+  (groups ?? []).filter((g) => missingSectionKeys(model, g.patch).length > 0);
+
+/** One caution per group block that lacks the sections, naming the group's kind. */
+export function groupBlockCautions(
+  model: SectionedModel,
+  groups: readonly SignedGroup[] | undefined,
+  keepingTargets: readonly string[],
+): BlockCaution[] {
+  return groupsLackingSections(model, groups).flatMap((g) =>
+    frozenBlockCautions(model, g.patch, { group: { kind: g.kind, rotates: g.ropeTheta !== null }, keepingTargets }),
+  );
 }

@@ -2,7 +2,12 @@ import { describe, expect, it } from "vitest";
 import { analyse } from "../../server/engine";
 import { METHOD_CATALOG, METHOD_IDS } from "../../shared/methods";
 import type { MethodParams } from "../../shared/schemas/analysis";
-import { FROZEN_CONFIG_LACKS_SECTIONS, frozenBlockCautions, missingSectionKeys } from "../../shared/frozen-block";
+import {
+  FROZEN_CONFIG_LACKS_SECTIONS,
+  frozenBlockCautions,
+  groupBlockCautions,
+  missingSectionKeys,
+} from "../../shared/frozen-block";
 
 /*
  * The caution of a signed block that lacks the model's multimodal sections (shared/frozen-block.ts). The keys are the
@@ -41,5 +46,25 @@ describe("which section keys a signed block lacks", () => {
         expect(frozenBlockCautions(model, patch, ways), id).toEqual([]);
       }
     }
+  });
+});
+
+describe("layer-group blocks draw the same caution, naming the group", () => {
+  const groups = [
+    { kind: "sliding_attention", ropeTheta: 1e4, patch: { rope_scaling: null } },
+    { kind: "full_attention", ropeTheta: 1e6, patch: { rope_scaling: { rope_type: "linear", mrope_section: [1] } } },
+    { kind: "no_rope", ropeTheta: null, patch: { rope_scaling: null } },
+  ];
+  it("each group block without the sections, and only those; its v5 entry named when the group rotates", () => {
+    const cautions = groupBlockCautions(contiguous, groups, ways.keepingTargets);
+    expect(cautions.map((c) => c.group)).toEqual(["sliding_attention", "no_rope"]);
+    expect(cautions[0].message).toContain("ropeParametersByLayerType.sliding_attention");
+    expect(cautions[1].message).not.toContain("ropeParametersByLayerType");
+    // the group's message is the same rule's: missing keys, effect and way out
+    const [plain] = frozenBlockCautions(contiguous, { rope_scaling: null }, ways);
+    expect(cautions[1].message.slice(cautions[1].message.indexOf(" lacks "))).toBe(
+      plain.message.slice(plain.message.indexOf(" lacks ")),
+    );
+    expect(groupBlockCautions({}, groups, ways.keepingTargets)).toEqual([]);
   });
 });

@@ -8,6 +8,8 @@ import type { RevisionContent } from "./revision-content";
 import { engineMethod } from "../../../shared/lineage";
 import {
   frozenBlockCautions,
+  groupBlockCautions,
+  groupsLackingSections,
   missingSectionKeys,
   type BlockCaution,
   type ScopedBlockCaution,
@@ -77,10 +79,38 @@ export async function targetBlock(deps: AppDeps, modelId: number, content: Revis
   };
 }
 
+/** The stacks whose rigging of the block (compiled for the model's own file) keeps the sections. */
+async function keepingTargets(deps: AppDeps, modelId: number, request: ReturnType<typeof signedBlock>["request"]) {
+  return stacksKeepingSections({ ...request, config: await sourceConfig(deps, modelId) });
+}
+
+/** The cautions of one block's own config: the plan target's, or stage n's. */
+async function ownBlockCautions(deps: AppDeps, modelId: number, content: RevisionContent, stage?: number) {
+  const { result, request } = signedBlock(content, stage);
+  if (!missingSectionKeys(content.model, result.patch).length) return [];
+  return frozenBlockCautions(content.model, result.patch, {
+    stage,
+    keepingTargets: await keepingTargets(deps, modelId, request),
+  });
+}
+
 /**
- * What is wrong with a signed block as it stands (shared/frozen-block.ts), for its export and the plan page. The stacks
- * its caution offers are asked of every target: those whose rigging of this block, compiled for the model's own file,
- * runs it and keeps the sections (engine/targets/registry.ts targetsKeepingSections).
+ * The cautions of a layered revision's group blocks (layerGroups[].config, and the ropeParametersByLayerType entries
+ * built from them): every export of the revision carries them, whichever block it is for. Rigging for a stack compiles
+ * every group with the plan target's request, so the stacks offered are that request's.
+ */
+async function groupCautions(deps: AppDeps, modelId: number, content: RevisionContent): Promise<BlockCaution[]> {
+  const groups = content.results.groups;
+  if (!groupsLackingSections(content.model, groups).length) return [];
+  const keeping = await keepingTargets(deps, modelId, signedBlock(content, undefined).request);
+  return groupBlockCautions(content.model, groups, keeping);
+}
+
+/**
+ * What is wrong with the blocks an export carries as they stand (shared/frozen-block.ts): its own block's (the plan
+ * target's, or stage n's), then each layer group's. The stacks a caution offers are asked of every target: those whose
+ * rigging, compiled for the model's own file, runs the plan and keeps the sections
+ * (engine/targets/registry.ts targetsKeepingSections). Nothing is compiled unless a block lacks the sections.
  */
 export async function blockCautions(
   deps: AppDeps,
@@ -88,19 +118,29 @@ export async function blockCautions(
   content: RevisionContent,
   stage?: number,
 ): Promise<BlockCaution[]> {
-  const { result, request } = signedBlock(content, stage);
-  if (!missingSectionKeys(content.model, result.patch).length) return [];
-  const keepingTargets = stacksKeepingSections({ ...request, config: await sourceConfig(deps, modelId) });
-  return frozenBlockCautions(content.model, result.patch, { stage, keepingTargets });
+  const [own, groups] = await Promise.all([
+    ownBlockCautions(deps, modelId, content, stage),
+    groupCautions(deps, modelId, content),
+  ]);
+  return [...own, ...groups];
 }
 
-/** The cautions of every block a revision signed, the plan target's first (stage null), then each stage's. */
+/**
+ * The cautions of every block a revision signed, for the plan page: the plan target's first (stage null), then each
+ * stage's, then each layer group's (stage null, `group` its kind), once each.
+ */
 export async function revisionBlockCautions(
   deps: AppDeps,
   modelId: number,
   content: RevisionContent,
 ): Promise<ScopedBlockCaution[]> {
   const scopes = [undefined, ...content.stages.map((_, i) => i + 1)];
-  const each = await Promise.all(scopes.map((stage) => blockCautions(deps, modelId, content, stage)));
-  return each.flatMap((cautions, i) => cautions.map((c) => ({ stage: scopes[i] ?? null, ...c })));
+  const [each, groups] = await Promise.all([
+    Promise.all(scopes.map((stage) => ownBlockCautions(deps, modelId, content, stage))),
+    groupCautions(deps, modelId, content),
+  ]);
+  return [
+    ...each.flatMap((cautions, i) => cautions.map((c) => ({ stage: scopes[i] ?? null, ...c }))),
+    ...groups.map((c) => ({ stage: null, ...c })),
+  ];
 }

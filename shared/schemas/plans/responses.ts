@@ -188,11 +188,18 @@ export const revisionResponseSchema = z.object({
   adoptedBases: z.array(adoptedBaseSupportSchema),
   /**
    * What is wrong with the blocks this revision signs as they stand (shared/frozen-block.ts revisionBlockCautions), in
-   * the words each block's export carries: `stage` null for the plan target's block, n for `?stage=n`'s. Empty when
-   * there is nothing to say.
+   * the words each block's export carries: `stage` null for the plan target's block, n for `?stage=n`'s; a layer
+   * group's block (carried by every export of the revision) has stage null and `group` its kind. Empty when there is
+   * nothing to say.
    */
   blockCautions: z.array(
-    z.object({ stage: z.number().int().positive().nullable(), code: z.string(), message: z.string() }),
+    z.object({
+      stage: z.number().int().positive().nullable(),
+      /** a layer group's block: its kind (layerGroups[].kind), stage null */
+      group: z.string().optional(),
+      code: z.string(),
+      message: z.string(),
+    }),
   ),
 });
 export type RevisionResponse = z.infer<typeof revisionResponseSchema>;
@@ -331,9 +338,11 @@ export const exportEnvelopeSchema = z.object({
   caution: z.string(),
   /**
    * What is wrong with this signed block as it stands (shared/frozen-block.ts): `frozen_config_lacks_sections` for a
-   * revision of a model with multimodal sections signed before blocks carried them. Absent when there is nothing to say.
+   * revision of a model with multimodal sections signed before blocks carried them. `group` names a layer group's block
+   * (layerGroups[].kind; its ropeParametersByLayerType entry too) when that is the one meant. Absent when there is
+   * nothing to say.
    */
-  cautions: z.array(z.object({ code: z.string(), message: z.string() })).optional(),
+  cautions: z.array(z.object({ code: z.string(), group: z.string().optional(), message: z.string() })).optional(),
 });
 export type ExportEnvelope = z.infer<typeof exportEnvelopeSchema>;
 
