@@ -28,7 +28,7 @@ export function RevisionInputs({
   return (
     <div className="grid gap-6 md:grid-cols-2">
       <dl
-        className="grid grid-cols-[11rem_1fr] gap-x-3 gap-y-1.5 text-body"
+        className="grid grid-cols-[11rem_minmax(0,1fr)] gap-x-3 gap-y-1.5 text-body [overflow-wrap:anywhere]"
         aria-label="Model as frozen in this revision"
       >
         <Row label="Model">
@@ -55,7 +55,10 @@ export function RevisionInputs({
           <span className="text-note text-ink-soft">(Men et al. 2024 bound)</span>
         </Row>
       </dl>
-      <dl className="grid grid-cols-[11rem_1fr] gap-x-3 gap-y-1.5 text-body" aria-label="Target and method">
+      <dl
+        className="grid grid-cols-[11rem_minmax(0,1fr)] gap-x-3 gap-y-1.5 text-body [overflow-wrap:anywhere]"
+        aria-label="Target and method"
+      >
         <Row label="Target context">
           {formatCount(content.targetContext)} tokens{" "}
           <span className="text-ink-soft">(× {sig3(scale)} the trained window)</span>

@@ -19,7 +19,7 @@ export function SignedBlockCautions({ cautions }: { cautions: RevisionResponse["
     <div className="mb-3 flex flex-col gap-2" data-testid="signed-block-cautions">
       {cautions.map((c) => (
         <Notice key={`${c.group ?? c.stage ?? "target"}-${c.code}`} tone="alert" title={titleOf(c)}>
-          <p data-code={c.code} data-stage={c.stage ?? "target"} data-group={c.group}>
+          <p className="break-words" data-code={c.code} data-stage={c.stage ?? "target"} data-group={c.group}>
             {c.message}
           </p>
         </Notice>
