@@ -103,12 +103,29 @@ const overridden = (flag: string, pick: (c: Config) => unknown) => (config: Conf
 };
 
 /**
+ * The sections v5 runs with: its block is `rope_scaling` when present and non-empty, else `rope_parameters`
+ * (hf/read-v5.ts cites where). Nested by layer type (keys among the config's `layer_types`, standardize_rope_params'
+ * "Case 2", server/engine/layer-nesting.ts), each layer type's rotary is built from its own entry, so the sections are
+ * held only when every entry holds them (a layered multimodal v5 config read through that rule; no such published
+ * model was read); the top level of a nested dict holds no block of its own.
+ */
+function v5Sections(c: Config): unknown {
+  const source = isObj(c.rope_scaling) && Object.keys(c.rope_scaling).length ? c.rope_scaling : c.rope_parameters;
+  const layerTypes = Array.isArray(c.layer_types) ? c.layer_types.map(String) : [];
+  const nested = isObj(source) ? Object.keys(source).filter((k) => layerTypes.includes(k)) : [];
+  if (!nested.length) return source;
+  const each = nested.map((t) => sectionKeysOf((source as Config)[t]));
+  return each.every((x) => x !== null) ? each[0] : null;
+}
+
+/**
  * Where each consumer holds a model's multimodal sections once our artifact is applied: the sections it runs with, or
  * null when the artifact leaves it none. One entry per target, so a new target must say; the signed-block caution
  * (shared/frozen-block.ts) names the targets from here, never from a list of its own.
  * - 4.x transformers reads `rope_scaling`: models/qwen2_vl/modeling_qwen2_vl.py at 00b676f8,
  *   `self.rope_scaling["mrope_section"]`; v5 takes `rope_scaling or rope_parameters` (RotaryEmbeddingConfigMixin,
- *   v5 line, read through a stored copy; server/features/models/config-import.ts scaledBlock cites the same line);
+ *   v5 line, read through a stored copy; server/features/models/config-import.ts scaledBlock cites the same line),
+ *   per layer type when nested (v5Sections);
  * - vLLM and SGLang apply their JSON flag as `config.update(...)`, top-level keys replaced whole (vllm.ts and sglang.ts
  *   readers cite where); vLLM's get_rope takes `rope_parameters` before `rope_scaling` as vllm.ts's compile reads them;
  * - llama.cpp runs the GGUF's `<arch>.rope.dimension_sections` (llama-cpp.ts, SECTIONED_ARCHS), which the artifact's
@@ -117,7 +134,7 @@ const overridden = (flag: string, pick: (c: Config) => unknown) => (config: Conf
 export const SECTIONS_WITH_ARTIFACT: Record<TargetId, (config: Config, artifact: TargetArtifact) => Sections> = {
   "transformers-v4-early": merged((c) => c.rope_scaling),
   "transformers-v4": merged((c) => c.rope_scaling),
-  "transformers-v5": merged((c) => c.rope_scaling || c.rope_parameters),
+  "transformers-v5": merged(v5Sections),
   vllm: overridden("--hf-overrides", (c) => c.rope_parameters ?? c.rope_scaling),
   sglang: overridden("--json-model-override-args", (c) => c.rope_scaling),
   "llama-cpp": (config, a) => {

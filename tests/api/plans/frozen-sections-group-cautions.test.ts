@@ -110,6 +110,9 @@ describe("layer-group blocks signed without the model's sections", () => {
     expect(c.message).toContain(`The no_rope layer group's signed block (layerGroups' config) lacks "mrope_section"`);
     expect(c.message).toContain("rope_scaling is null, so applying it deletes the sections");
     expect(c.message).toContain("draft a new revision");
+    // The way out is the one stack whose rigging runs a per-layer-type plan and keeps the sections in every layer
+    // type's entry (tests/unit/engine/targets/sections-keeping-layered.test.ts); the flat stacks run no layered plan.
+    expect(c.message).toContain("Export it with ?target=<stack> (transformers-v5), whose rigging keeps the sections");
     // The plan target's block kept them; the page lists the group's caution once, in the export's words.
     expect(page.blockCautions).toEqual([{ stage: null, ...c }]);
     // Every export of the revision carries the group blocks, so a stack's rigging says it too.
@@ -151,6 +154,7 @@ describe("layer-group blocks signed without the model's sections", () => {
     expect(byKind.full_attention).toContain("ropeParametersByLayerType.full_attention) lacks");
     expect(byKind.full_attention).toContain("applying it as a whole rope_scaling block drops them");
     expect(byKind.no_rope).toContain("(layerGroups' config) lacks");
+    for (const message of Object.values(byKind)) expect(message).toContain("?target=<stack> (transformers-v5)");
     expect(page.blockCautions).toEqual(exp.cautions!.map((c) => ({ stage: null, ...c })));
   });
 });

@@ -173,6 +173,8 @@ export function compileV5(input: CompileInput): CompileResult {
   // removes rope_scaling below (v5 reads them from rope_parameters: from memory of the v5 qwen2_vl config, not re-read).
   const moved = sectionKeysOf(existing) ? null : sectionKeysOf(config.rope_scaling);
   const block: Obj = { ...(placed.block ?? { rope_type: "default" }), rope_theta: placed.base, ...moved };
+  // The model's sections from a flat block (rope_parameters, else the 4.x rope_scaling the patch removes).
+  const sections = sectionKeysOf(existing) ?? sectionKeysOf(config.rope_scaling);
   const written = Array.isArray(config.layer_types) ? undefined : derivedLayerTypes(input.plan.groups);
   const layerTypes = [
     ...new Set((Array.isArray(config.layer_types) ? config.layer_types : (written ?? [])).map(String)),
@@ -190,12 +192,16 @@ export function compileV5(input: CompileInput): CompileResult {
     const planned = input.plan.groups;
     const scaled =
       planned?.find((g) => g.scaled)?.kind ?? (layerTypes.includes(FULL_ATTENTION) ? FULL_ATTENTION : layerTypes[0]);
+    // Nested, each layer type is read from its own entry only (hf/read-v5.ts), so the sections a flat block held go
+    // into every entry the patch writes: the top-level keys are cleared above and a local type's trained block (its
+    // own base) would otherwise have none. A nested entry keeps its own sections (`keep`).
+    const sectioned = (b: Obj): Obj => (nested ? b : { ...b, ...sections });
     for (const t of layerTypes) {
       // A group the plan gives its own method (groupMethods) gets that method's block over its own base and dimension.
       const own = planned?.find((g) => g.kind === t && !g.scaled && g.method.method !== "default");
-      if (t === scaled) rp[t] = clearStale(nested ? existing[t] : {}, block, keep);
-      else if (own) rp[t] = clearStale(nested ? existing[t] : {}, groupBlock(input, own), keep);
-      else if (!nested) rp[t] = trainedBlock(config, existing);
+      if (t === scaled) rp[t] = clearStale(nested ? existing[t] : {}, sectioned(block), keep);
+      else if (own) rp[t] = clearStale(nested ? existing[t] : {}, sectioned(groupBlock(input, own)), keep);
+      else if (!nested) rp[t] = sectioned(trainedBlock(config, existing));
     }
   } else {
     rp = clearStale(existing, block, keep);
