@@ -47,9 +47,10 @@ SELECT p.id, r.n,
 FROM plans p CROSS JOIN LATERAL generate_series(1, 1 + p.id % 3) AS r(n)
 WHERE p.title LIKE '% lot %';
 
--- The same fill as migration 0013's backfill.
+-- The same fill as migrations 0013's and 0024's backfills (no revision here carries a proof, so approved_proof stays null).
 UPDATE plans p SET latest_number = l.number, latest_state = l.state,
-  approved_number = (SELECT max(r.number) FROM plan_revisions r WHERE r.plan_id = p.id AND r.state = 'approved')
+  approved_number = (SELECT max(r.number) FROM plan_revisions r WHERE r.plan_id = p.id AND r.state = 'approved'),
+  approved_proof = (SELECT r.proof FROM plan_revisions r WHERE r.plan_id = p.id AND r.state = 'approved')
 FROM (SELECT DISTINCT ON (plan_id) plan_id, number, state FROM plan_revisions ORDER BY plan_id, number DESC) l
 WHERE l.plan_id = p.id;
 ALTER TABLE plan_revisions ENABLE TRIGGER plan_revisions_keep_latest;

@@ -40,12 +40,15 @@ export const plans = pgTable(
     createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
     /**
-     * The latest revision's number and state, and the newest approved revision, stored so lists read one row per
-     * plan. A trigger on plan_revisions (migration 0013) keeps them in the transaction that changes a revision.
+     * The latest revision's number and state, the newest approved revision, and that revision's proof (null: not yet
+     * decided, or none approved), stored so lists read and filter one row per plan. A trigger on plan_revisions
+     * (plans_keep_latest, migrations 0013 and 0024) keeps them in the statement that changes a revision's state,
+     * number or proof, whichever code path does it.
      */
     latestNumber: integer("latest_number").notNull().default(1),
     latestState: text("latest_state").$type<RevisionState>().notNull().default("draft"),
     approvedNumber: integer("approved_number"),
+    approvedProof: text("approved_proof").$type<ProofState>(),
   },
   (t) => [
     // One index per sort key of the plans list (id breaks ties, so a page is a range scan).
@@ -56,10 +59,20 @@ export const plans = pgTable(
     index("plans_state_updated_idx").on(t.latestState, t.updatedAt, t.id),
     index("plans_owner_idx").on(t.ownerId, t.updatedAt, t.id),
     index("plans_model_idx").on(t.modelId, t.updatedAt, t.id),
+    // The proof filter on plans with an approved revision ("none" is a null proof here), beside the state and the
+    // default sort: proof with a state is one range for its page and its count (docs/scale-figures.md).
+    index("plans_proof_idx")
+      .on(t.approvedProof, t.latestState, t.updatedAt, t.id)
+      .where(sql`${t.approvedNumber} IS NOT NULL`),
     // Trigram indexes make ILIKE '%…%' an index search (pg_trgm, created by the migration).
     index("plans_title_trgm").using("gin", t.title.op("gin_trgm_ops")),
     index("plans_purpose_trgm").using("gin", t.purpose.op("gin_trgm_ops")),
     check("plans_latest_state_known", sql`${t.latestState} IN (${inList(REVISION_STATES)})`),
+    // A proof belongs to the approved revision: none without one.
+    check(
+      "plans_approved_proof_known",
+      sql`${t.approvedProof} IS NULL OR (${t.approvedNumber} IS NOT NULL AND ${t.approvedProof} IN (${inList(PROOF_STATES)}))`,
+    ),
   ],
 );
 

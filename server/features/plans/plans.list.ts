@@ -68,11 +68,15 @@ export type PlanListRow = {
 };
 
 /**
- * "none": an approved revision without a proof decision. A plan holds at most one approved revision (unique index
- * plan_revisions_one_approved, migration 0022: approving one supersedes the others), and it is the one
- * plans.approved_number names, so "none" is the plan having a row in the partial index plan_revisions_unproven.
+ * The proof filter on the plan's stored approved revision (plans.approved_number, approved_proof; kept by the
+ * plans_keep_latest trigger, migration 0024). "none" is an approved revision without a proof decision yet. Both are
+ * columns of plans, so with a state the page and the count are one range of plans_proof_idx, and beside any other
+ * filter a plan is tested from its own row, not by a look-up of its revision (docs/scale-figures.md).
  */
-const UNPROVEN = sql`ar.state = 'approved' AND ar.proof IS NULL`;
+const proofIs = (proof: NonNullable<Query["proof"]>) =>
+  proof === "none"
+    ? sql`p.approved_number IS NOT NULL AND p.approved_proof IS NULL`
+    : sql`p.approved_number IS NOT NULL AND p.approved_proof = ${proof}`;
 
 /**
  * Plans matching the filters, as conditions on `plans p` alone. The text search is a union of four trigram-indexed
@@ -81,15 +85,7 @@ const UNPROVEN = sql`ar.state = 'approved' AND ar.proof IS NULL`;
 function filters(q: Query): SQL {
   const where: SQL[] = [sql`true`];
   if (q.state) where.push(sql`p.latest_state = ${q.state}`);
-  // Proof belongs to the plan's approved revision (plans.approved_number); "none" is approved but not yet decided.
-  // Matching the number also skips the look-up for plans never approved (approved_number null), which on the page
-  // walk is most of a state's plans (docs/scale-figures.md).
-  if (q.proof)
-    where.push(
-      sql`EXISTS (SELECT 1 FROM plan_revisions ar WHERE ar.plan_id = p.id AND ar.number = p.approved_number AND ${
-        q.proof === "none" ? UNPROVEN : sql`ar.proof = ${q.proof}`
-      })`,
-    );
+  if (q.proof) where.push(proofIs(q.proof));
   if (q.ownerId) where.push(sql`p.owner_id = ${q.ownerId}`);
   if (q.modelId) where.push(sql`p.model_id = ${q.modelId}`);
   if (q.q) {
@@ -106,10 +102,9 @@ function filters(q: Query): SQL {
 const pageColumns = (q: Query) => sql`
     SELECT ${cursorText(q.sort)} AS sort_key, p.id, p.title, p.purpose, p.owner_id, u.name AS owner_name,
            p.model_id, m.name AS model_name, p.required_approvals, p.created_at, p.updated_at, p.latest_number,
-           p.latest_state, p.approved_number, ar.proof AS approved_proof`;
+           p.latest_state, p.approved_number, p.approved_proof`;
 const pageJoins = sql`
     FROM page JOIN plans p ON p.id = page.id
-    LEFT JOIN plan_revisions ar ON ar.plan_id = p.id AND ar.number = p.approved_number
     JOIN users u ON u.id = p.owner_id
     JOIN model_profiles m ON m.id = p.model_id`;
 
@@ -138,33 +133,25 @@ const nextAfter = (q: Query, rows: PlanListRow[]) => {
 };
 
 /** One page of plans with the stored latest state: the page is chosen first, names are joined to its rows only. */
-export async function listPlanPage(ex: Executor, q: Query) {
+export function planPageStatement(q: Query): SQL {
   const { order, sortJoin, after, limit } = pageOrder(q);
-  const res = await ex.execute<PlanListRow>(sql`
+  return sql`
     WITH page AS (
       SELECT p.id FROM plans p ${sortJoin}
       WHERE ${filters(q)} AND ${after}
       ORDER BY ${order} ${limit})
     ${pageColumns(q)} ${pageJoins}
-    ORDER BY ${order}`);
-  return res.rows;
+    ORDER BY ${order}`;
 }
 
-/**
- * The rows a capped count reads. "none" counts from plan_revisions_unproven: alone it walks that index up to the cap;
- * with other filters it joins plans on id, which the planner answers from indexes (docs/scale-figures.md): a merge
- * join in id order against plans_state_idx for a state, an index probe per plan of the owner's or model's; either
- * walk ends at the cap or where one side runs out, and never reads every plan as testing each plan's revision did.
- */
-function countedRows(q: Query): SQL {
-  if (q.proof !== "none") return sql`SELECT 1 FROM plans p WHERE ${filters(q)}`;
-  if (!q.state && !q.ownerId && !q.modelId && !q.q) return sql`SELECT 1 FROM plan_revisions ar WHERE ${UNPROVEN}`;
-  return sql`SELECT 1 FROM plan_revisions ar JOIN plans p ON p.id = ar.plan_id
-    WHERE ${UNPROVEN} AND ${filters({ ...q, proof: undefined })}`;
-}
+export const listPlanPage = async (ex: Executor, q: Query) =>
+  (await ex.execute<PlanListRow>(planPageStatement(q))).rows;
+
+/** The rows a capped count of the list reads: plans alone, each filter a condition on its row. */
+export const countedPlans = (q: Query): SQL => sql`SELECT 1 FROM plans p WHERE ${filters(q)}`;
 
 /** How many plans match, counted up to a cap (see cappedCount). */
-export const countPlans = (ex: Executor, q: Query) => cappedCount(ex, countedRows(q));
+export const countPlans = (ex: Executor, q: Query) => cappedCount(ex, countedPlans(q));
 
 /**
  * A page and its capped count. A text search finds its matches once (a materialized CTE) and both the page and the

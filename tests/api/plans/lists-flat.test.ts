@@ -4,6 +4,7 @@ import { makeTestApp } from "../../setup/app";
 import { testDb } from "../../setup/db";
 import { createPlan, createProfile, decide, post } from "../../setup/plans";
 import { cappedCount } from "../../../server/platform/paging";
+import { approvedPlanWith, criterion, upload } from "../../setup/evidence";
 
 const { agentAs } = makeTestApp();
 const { db } = testDb();
@@ -69,6 +70,166 @@ describe("stored latest state on plans", () => {
     expect(r.body).toMatchObject({ total: 1, totalCapped: false });
     const drafts = await researcher.get(`/api/plans?state=draft&modelId=${model.id}`).expect(200);
     expect(drafts.body.plans.map((p: { id: number }) => p.id)).toEqual([a.id]);
+  });
+});
+
+/** The stored approved revision and its proof against a direct derivation: the plan's one approved revision. */
+async function storedProof(planId: number) {
+  const r = await db.execute<Record<string, unknown>>(sql`
+    SELECT p.approved_number, p.approved_proof,
+           (SELECT number FROM plan_revisions WHERE plan_id = p.id AND state = 'approved') AS derived_number,
+           (SELECT proof FROM plan_revisions WHERE plan_id = p.id AND state = 'approved') AS derived_proof
+    FROM plans p WHERE p.id = ${planId}`);
+  const row = r.rows[0]!;
+  return { stored: [row.approved_number, row.approved_proof], derived: [row.derived_number, row.derived_proof] };
+}
+
+describe("stored approved proof on plans", () => {
+  // 19 of 20 passkey trials correct: 0.95, over a 0.9 bar (the evidence tests' fixture).
+  const PASSKEY = "context_length,depth,trials,correct\n32768,0,10,10\n32768,1,10,9";
+
+  it("equals the approved revision's proof after approval, a proof decision, a new revision and a newer approval", async () => {
+    const p = await approvedPlanWith(agentAs, [criterion("passkey", 32768, ">=", 0.9)]);
+    const base = `/api/plans/${p.planId}`;
+    const check = async (expected: unknown[], proofFilter: string) => {
+      const s = await storedProof(p.planId);
+      expect(s.stored).toEqual(s.derived);
+      expect(s.stored).toEqual(expected);
+      const listed = await p.researcher.get(`/api/plans?proof=${proofFilter}&ownerId=${p.researcher.user!.id}`);
+      expect(listed.body.plans.map((x: { id: number }) => x.id)).toEqual([p.planId]);
+      expect(listed.body.plans[0].proof).toBe(expected[1]);
+    };
+    await check([1, null], "none");
+    // A proof decision through the evidence route.
+    const ev = await upload(p.researcher, p.planId, { kind: "passkey", fingerprint: p.fingerprint, file: PASSKEY });
+    expect(ev.status).toBe(201);
+    const proof = { verdict: "proven", contentHash: p.contentHash, evidenceIds: [ev.body.evidence.id] };
+    expect((await post(p.approver, `${base}/revisions/1/proof`, proof)).status).toBe(200);
+    await check([1, "proven"], "proven");
+    // A new revision leaves the approved one (and its proof) where they were.
+    await post(p.researcher, `${base}/revisions`).expect(201);
+    await check([1, "proven"], "proven");
+    // A newer approval supersedes revision 1: the proof was revision 1's, so the plan's is undecided again.
+    await post(p.researcher, `${base}/revisions/2/submit`).expect(200);
+    await decide(p.approver, `${base}/revisions/2/decisions`, { decision: "approve" }).expect(200);
+    await check([2, null], "none");
+    const rev2 = (await p.researcher.get(`${base}/revisions/2`).expect(200)).body;
+    const ev2 = await upload(
+      p.researcher,
+      p.planId,
+      { kind: "passkey", fingerprint: rev2.rotaryFingerprint, file: PASSKEY },
+      2,
+    );
+    expect(ev2.status).toBe(201);
+    const unproven = {
+      verdict: "unproven",
+      reason: "kept back for a longer run",
+      contentHash: rev2.contentHash,
+      evidenceIds: [ev2.body.evidence.id],
+    };
+    const r = await post(p.approver, `${base}/revisions/2/proof`, unproven);
+    expect(r.status, JSON.stringify(r.body)).toBe(200);
+    await check([2, "unproven"], "unproven");
+    // A change outside the services (an administrator's fix in SQL) is followed too: the trigger does it.
+    await db.execute(sql`UPDATE plan_revisions SET state = 'superseded' WHERE plan_id = ${p.planId} AND number = 2`);
+    expect((await storedProof(p.planId)).stored).toEqual([null, null]);
+  });
+
+  it("every proof filter with each state, owner, model and text filter pages and counts what SQL derives", async () => {
+    const researcher = await agentAs(["researcher"]);
+    const other = await agentAs(["researcher"]);
+    const approver = await agentAs(["approver"]);
+    const model = await createProfile(researcher);
+    const tag = `pf${Math.random().toString(36).slice(2, 8)}`;
+    const plan = async (who = researcher) => (await createPlan(who, model.id, { title: `${tag} plan` })).id;
+    const approve = async (id: number, n: number, who = researcher) => {
+      await post(who, `/api/plans/${id}/revisions/${n}/submit`).expect(200);
+      await decide(approver, `/api/plans/${id}/revisions/${n}/decisions`, { decision: "approve" }).expect(200);
+    };
+    // The proof is set directly here (the route is exercised above); the trigger follows any UPDATE.
+    const setProof = (id: number, n: number, proof: string) =>
+      db.execute(sql`UPDATE plan_revisions SET proof = ${proof} WHERE plan_id = ${id} AND number = ${n}`);
+    await plan(); // never approved, draft
+    const inReview = await plan();
+    await post(researcher, `/api/plans/${inReview}/revisions/1/submit`).expect(200);
+    for (const who of [researcher, other]) {
+      const none = await plan(who);
+      await approve(none, 1, who);
+      const proven = await plan(who);
+      await approve(proven, 1, who);
+      await setProof(proven, 1, "proven");
+      const unproven = await plan(who);
+      await approve(unproven, 1, who);
+      await setProof(unproven, 1, "unproven");
+      // approved and proven, then a new revision in review: the plan's state is in_review, its proof still proven
+      const provenThenReview = await plan(who);
+      await approve(provenThenReview, 1, who);
+      await setProof(provenThenReview, 1, "proven");
+      await post(who, `/api/plans/${provenThenReview}/revisions`).expect(201);
+      await post(who, `/api/plans/${provenThenReview}/revisions/2/submit`).expect(200);
+      // proven, then a newer approval: revision 1 superseded with its proof, revision 2 undecided
+      const reapproved = await plan(who);
+      await approve(reapproved, 1, who);
+      await setProof(reapproved, 1, "proven");
+      await post(who, `/api/plans/${reapproved}/revisions`).expect(201);
+      await approve(reapproved, 2, who);
+      // approved, then a new draft
+      const redrafted = await plan(who);
+      await approve(redrafted, 1, who);
+      await post(who, `/api/plans/${redrafted}/revisions`).expect(201);
+    }
+
+    /** The filter's definition straight from the revisions, in the list's default order (newest change first). */
+    const derived = async (proof: string, extra: ReturnType<typeof sql>) =>
+      (
+        await db.execute<{ id: number }>(sql`SELECT p.id FROM plans p WHERE EXISTS (
+          SELECT 1 FROM plan_revisions ar WHERE ar.plan_id = p.id AND ar.state = 'approved'
+            AND ${proof === "none" ? sql`ar.proof IS NULL` : sql`ar.proof = ${proof}`})
+          AND ${extra} ORDER BY p.updated_at DESC, p.id DESC`)
+      ).rows.map((r) => r.id);
+    const filters: [string, ReturnType<typeof sql>][] = [
+      [`modelId=${model.id}`, sql`p.model_id = ${model.id}`],
+      ...["draft", "in_review", "approved", "changes_requested", "superseded"].map(
+        (state): [string, ReturnType<typeof sql>] => [
+          `modelId=${model.id}&state=${state}`,
+          sql`p.model_id = ${model.id} AND p.latest_state = ${state}`,
+        ],
+      ),
+      [`ownerId=${other.user!.id}`, sql`p.owner_id = ${other.user!.id}`],
+      [`ownerId=${other.user!.id}&state=approved`, sql`p.owner_id = ${other.user!.id} AND p.latest_state = 'approved'`],
+      [`q=${tag}`, sql`p.title LIKE ${`${tag}%`}`],
+      [`q=${tag}&state=in_review`, sql`p.title LIKE ${`${tag}%`} AND p.latest_state = 'in_review'`],
+    ];
+    let nonEmpty = 0;
+    for (const proof of ["none", "proven", "unproven"]) {
+      for (const [filter, extra] of filters) {
+        const label = `proof=${proof}&${filter}`;
+        const expected = await derived(proof, extra);
+        if (expected.length > 0) nonEmpty++;
+        // Pages of two, followed by page number and by cursor, tile the derived list in its order.
+        const byPage: number[] = [];
+        const byCursor: number[] = [];
+        let after: string | null = null;
+        for (let page = 1; page <= Math.ceil(expected.length / 2) + 1; page++) {
+          const url = `/api/plans?proof=${proof}&${filter}&pageSize=2&page=${page}`;
+          const body = (await researcher.get(url).expect(200)).body;
+          expect(body, label).toMatchObject({ total: expected.length, totalCapped: false });
+          byPage.push(...body.plans.map((x: { id: number }) => x.id));
+          if (page === 1 || after) {
+            const keyed: { plans: { id: number }[]; nextAfter: string | null } = (
+              await researcher.get(`${url}${after ? `&after=${after}` : ""}`).expect(200)
+            ).body;
+            byCursor.push(...keyed.plans.map((x: { id: number }) => x.id));
+            after = keyed.nextAfter;
+          }
+        }
+        expect(byPage, label).toEqual(expected);
+        expect(byCursor, label).toEqual(expected);
+      }
+    }
+    // The fixture reaches every proof value with several filters, and leaves some combinations empty.
+    expect(nonEmpty).toBeGreaterThan(12);
+    expect(nonEmpty).toBeLessThan(3 * filters.length);
   });
 });
 
