@@ -65,6 +65,10 @@ describe("migration 0024 (plans.approved_proof)", () => {
         { plan: 4, approved_number: 1, approved_proof: "unproven", derived: "unproven" },
         { plan: 5, approved_number: null, approved_proof: null, derived: null },
       ]);
+      // The planner is given the columns' joint frequencies (migration 0024's comment says why).
+      expect(await q("SELECT stxkind FROM pg_statistic_ext WHERE stxname = 'plans_state_proof_stats'")).toEqual([
+        { stxkind: "{m}" },
+      ]);
       // From here the trigger keeps it: a proof decision on plan 2's approved revision.
       await q(
         `UPDATE plan_revisions SET proof = 'proven' WHERE number = 1 AND plan_id = (SELECT id FROM plans WHERE title = 'mig 2')`,
