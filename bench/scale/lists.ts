@@ -8,8 +8,9 @@ export interface ListCase {
 }
 
 /**
- * Orders whose deep pages are read by keyset cursor: each cursor is page 2 000's `nextAfter` under that order (40 000
- * plans in), asked once before the cases run (planCursors in run.ts).
+ * Orders whose deep pages are read by keyset cursor, both ways: each `after` is 40 000 plans in under that order (page
+ * 2 001 of 20 a page) and each `before` that page's `prevBefore` (page 2 000), found once before the cases run
+ * (planCursors in run.ts).
  */
 export const DEEP_PLAN_ORDERS = [
   "sort=updatedAt&dir=desc",
@@ -20,7 +21,10 @@ export const DEEP_PLAN_ORDERS = [
   "sort=model&dir=desc",
 ];
 
-export const listCases = (midAuditId: string, planCursors: Record<string, string> = {}): ListCase[] => [
+export const listCases = (
+  midAuditId: string,
+  planCursors: Record<string, { after: string; before: string }> = {},
+): ListCase[] => [
   { label: "/api/plans", url: "/api/plans", as: "admin" },
   { label: "/api/plans?state=in_review", url: "/api/plans?state=in_review", as: "admin" },
   { label: "/api/plans?q=…", url: "/api/plans?q=towline%20line%2C%20batch%20991", as: "admin" },
@@ -38,12 +42,20 @@ export const listCases = (midAuditId: string, planCursors: Record<string, string
   { label: "/api/plans?proof=none&ownerId=…", url: "/api/plans?proof=none&ownerId=7", as: "admin" },
   { label: "/api/plans?proof=none&modelId=…", url: "/api/plans?proof=none&modelId=11", as: "admin" },
   { label: "/api/plans?proof=none&q=…", url: "/api/plans?proof=none&q=towline%20line%2C%20batch%20991", as: "admin" },
-  { label: "/api/plans page 2 000", url: "/api/plans?page=2000", as: "admin" },
-  ...DEEP_PLAN_ORDERS.filter((o) => planCursors[o]).map((o) => ({
-    label: `/api/plans?${o} deep (keyset)`,
-    url: `/api/plans?${o}&page=2001&after=${planCursors[o]}`,
-    as: "admin" as const,
-  })),
+  // The deepest page the server answers by number (an OFFSET): the capped total's last, 10 000 plans in.
+  { label: "/api/plans page 500 (deepest by number)", url: "/api/plans?page=500", as: "admin" },
+  ...DEEP_PLAN_ORDERS.filter((o) => planCursors[o]).flatMap((o) => [
+    {
+      label: `/api/plans?${o} deep (keyset)`,
+      url: `/api/plans?${o}&page=2001&after=${planCursors[o]!.after}`,
+      as: "admin" as const,
+    },
+    {
+      label: `/api/plans?${o} deep previous (keyset)`,
+      url: `/api/plans?${o}&page=2000&before=${planCursors[o]!.before}`,
+      as: "admin" as const,
+    },
+  ]),
   { label: "/api/audit", url: "/api/audit", as: "admin" },
   { label: "/api/audit deep (keyset)", url: `/api/audit?before=${midAuditId}`, as: "admin" },
   { label: "/api/audit deep (page 200)", url: "/api/audit?page=200", as: "admin" },

@@ -82,14 +82,28 @@ async function measureLists(t: Target, cases: ReturnType<typeof listCases>) {
   console.log(load());
 }
 
-/** Page 2 000's keyset cursor under each deep-paged order (DEEP_PLAN_ORDERS), as the plans screen would follow it. */
+/**
+ * Keyset cursors 40 000 plans in under each deep-paged order (DEEP_PLAN_ORDERS), reached as the plans screen reaches
+ * them: following nextAfter page by page (100 a page, as the server answers pages by number only up to its capped
+ * total). `after` reads page 2 001 of 20; `before` is that page's prevBefore, reading page 2 000 back from it.
+ */
 async function planCursors(base: string) {
   const headers = (await askers(base)).admin;
-  const cursors: Record<string, string> = {};
+  const cursors: Record<string, { after: string; before: string }> = {};
+  const read = async (url: string) =>
+    (await (await fetch(`${base}${url}`, { headers })).json()) as {
+      nextAfter?: string | null;
+      prevBefore?: string | null;
+    };
   for (const order of DEEP_PLAN_ORDERS) {
-    const r = await fetch(`${base}/api/plans?${order}&page=2000`, { headers });
-    const next = ((await r.json()) as { nextAfter?: string | null }).nextAfter;
-    if (next) cursors[order] = next;
+    let after: string | null | undefined = null;
+    for (let page = 1; page <= 400; page++) {
+      after = (await read(`/api/plans?${order}&pageSize=100&page=${page}${after ? `&after=${after}` : ""}`)).nextAfter;
+      if (!after) break;
+    }
+    if (!after) continue;
+    const before = (await read(`/api/plans?${order}&page=2001&after=${after}`)).prevBefore;
+    if (before) cursors[order] = { after, before };
   }
   return cursors;
 }

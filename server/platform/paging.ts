@@ -21,6 +21,13 @@ export const cappedTotal = (n: number, cap = TOTAL_CAP) => ({ total: Math.min(n,
 /** ILIKE treats % and _ as wildcards; a search for "a_b" means those three characters. */
 export const containsPattern = (q: string) => `%${q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
 
+/**
+ * The deepest page a list answers by number (an OFFSET): the last one its capped total can name. An OFFSET walks every
+ * row before the page, so without this a request for page 2 000 cost forty times page 50; past it the pager has
+ * already stopped naming pages ("10,000+") and moves by keyset cursor, so the bound costs no reachable page.
+ */
+export const deepestNumberedPage = (pageSize: number, cap = TOTAL_CAP) => Math.ceil(cap / pageSize);
+
 /** A page request in rows: `page` counts from 1. */
 export const pageWindow = (page: number, pageSize: number) => ({ limit: pageSize, offset: (page - 1) * pageSize });
 

@@ -423,7 +423,7 @@ describe("plan workflow in a browser", () => {
     await screenshot(page, "plans-integrity-failure");
   }, 60_000);
 
-  it("the plans list reads on by cursor: Next page follows the server's nextAfter, Previous goes back by number", async () => {
+  it("the plans list reads by cursor both ways: Next page follows nextAfter, Previous page prevBefore", async () => {
     const model = await createProfile(api);
     const tag = `Tern ${Date.now().toString(36)}`;
     for (let i = 0; i < 5; i++) await createPlan(api, model.id, { title: `${tag} ${i}` });
@@ -448,14 +448,29 @@ describe("plan workflow in a browser", () => {
     expect(new URL(page.url()).searchParams.get("after")).not.toBe(second.get("after"));
     await pager.getByRole("button", { name: "Previous page" }).click();
     await titles([`${tag} 2`, `${tag} 3`]);
-    expect(new URL(page.url()).searchParams.get("after")).toBeNull();
+    // The previous page was asked by cursor too, read backwards from the shown page's first plan.
+    const back = new URL(page.url()).searchParams;
+    expect([back.get("page"), back.get("after")]).toEqual(["2", null]);
+    expect(back.get("before")).toMatch(/^[A-Za-z0-9_-]+$/);
+    // Page 1 is the top of the list: no cursor.
+    await pager.getByRole("button", { name: "Previous page" }).click();
+    await titles([`${tag} 0`, `${tag} 1`]);
+    const top = new URL(page.url()).searchParams;
+    expect([top.get("page"), top.get("after"), top.get("before")]).toEqual(["1", null, null]);
+    await pager.getByRole("button", { name: "Next page" }).click();
+    await titles([`${tag} 2`, `${tag} 3`]);
     // A new order starts again from page 1 and drops the cursor read under the old one.
     await pager.getByRole("button", { name: "Next page" }).click();
     await titles([`${tag} 4`]);
     await table.getByRole("columnheader", { name: /Plan/ }).getByRole("button").click();
     await titles([`${tag} 4`, `${tag} 3`]);
     const reordered = new URL(page.url()).searchParams;
-    expect([reordered.get("dir"), reordered.get("page"), reordered.get("after")]).toEqual(["desc", null, null]);
+    expect([reordered.get("dir"), reordered.get("page"), reordered.get("after"), reordered.get("before")]).toEqual([
+      "desc",
+      null,
+      null,
+      null,
+    ]);
   }, 60_000);
 
   it("no page error or console error along the way", () => {

@@ -27,7 +27,7 @@ export function useSearchState<S extends z.ZodObject>(schema: S) {
         if (v === undefined || v === null || v === "") next.delete(k);
         else next.set(k, String(v));
       }
-      // A keyset cursor (the audit trail's `before`, the plan list's `after`) belongs to the page it was read for,
+      // A keyset cursor (the audit trail's `before`, the plan list's `after` and `before`) belongs to the page it was read for,
       // so it goes with the page.
       if (!("page" in changes)) {
         next.delete("page");

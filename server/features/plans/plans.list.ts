@@ -3,11 +3,13 @@ import type { Executor } from "../../db/client";
 import type { planListQuerySchema, RevisionState } from "../../../shared/schemas";
 import type { z } from "zod";
 import type { ProofState } from "../../../shared/schemas/evidence-api";
+import { Invalid } from "../../platform/errors";
 import {
   cappedCount,
   cappedTotal,
   containsPattern,
   decodeCursor,
+  deepestNumberedPage,
   encodeCursor,
   keysetAfter,
   TOTAL_CAP,
@@ -38,13 +40,37 @@ const cursorText = (sort: Query["sort"]) => {
 /** The order a cursor belongs to: the sort key and direction. */
 const orderName = (q: Query) => `${q.sort}.${q.dir}`;
 
-/** The rows after `q.after` in the page's order, or every row without a cursor. */
-function afterCursor(q: Query): SQL {
-  if (!q.after) return sql`true`;
-  const c = decodeCursor(q.after, orderName(q), "after");
+/**
+ * Where the page starts: after `q.after` (next page), or just before `q.before` (previous page, read backwards from the
+ * cursor), or every row without a cursor (`page` is then an OFFSET).
+ */
+function cursorBound(q: Query): SQL {
+  const token = q.after ?? q.before;
+  if (!token) return sql`true`;
+  const field = q.after ? "after" : "before";
+  const c = decodeCursor(token, orderName(q), field);
   const { key, type } = SORT[q.sort];
   const value = type === "timestamptz" ? sql`${c.key}::timestamptz` : sql`${c.key}::text`;
-  return keysetAfter(sql.raw(key), sql`p.id`, q.dir, value, c.id);
+  // Rows before the cursor in the list's order are the rows after it in the opposite order.
+  const dir = q.after ? q.dir : q.dir === "asc" ? "desc" : "asc";
+  return keysetAfter(sql.raw(key), sql`p.id`, dir, value, c.id);
+}
+
+/**
+ * A request the list answers within its bound, or a 400 naming the field: both cursors at once, or a page number past
+ * the deepest one an OFFSET serves (deepestNumberedPage; deeper pages are reached by cursor).
+ */
+export function checkPageRequest(q: Query) {
+  if (q.after && q.before)
+    throw new Invalid("before: give after (next page) or before (previous page), not both", {
+      before: "not with after",
+    });
+  const deepest = deepestNumberedPage(q.pageSize);
+  if (!q.after && !q.before && q.page > deepest)
+    throw new Invalid(
+      `page: pages by number stop at ${deepest} (${TOTAL_CAP} plans at ${q.pageSize} a page); read on with the page's nextAfter as after`,
+      { page: `at most ${deepest} without a cursor` },
+    );
 }
 
 export type PlanListRow = {
@@ -111,6 +137,10 @@ const pageJoins = sql`
 function pageOrder(q: Query) {
   const dir = q.dir === "asc" ? "ASC" : "DESC";
   const order = sql.raw(`${SORT[q.sort].key} ${dir}, p.id ${dir}`);
+  // A previous page is chosen walking backwards from its cursor (one row more, to tell whether any come before it),
+  // then shown in the list's order.
+  const back = q.dir === "asc" ? "DESC" : "ASC";
+  const pick = q.before ? sql.raw(`${SORT[q.sort].key} ${back}, p.id ${back}`) : order;
   // Owner and model sorts need the name to choose the page; the others choose it from plans alone.
   const sortJoin =
     q.sort === "owner"
@@ -119,27 +149,37 @@ function pageOrder(q: Query) {
         ? sql`JOIN model_profiles m ON m.id = p.model_id`
         : sql``;
   // With a cursor the page starts at it (a range of the sort key's index); without one, `page` is an OFFSET, kept
-  // for links into the first pages (its cost grows with the page number).
-  const offset = q.after ? 0 : (q.page - 1) * q.pageSize;
-  return { order, sortJoin, after: afterCursor(q), limit: sql`LIMIT ${q.pageSize} OFFSET ${offset}` };
+  // for links into the first pages (its cost grows with the page number, bounded by checkPageRequest).
+  const offset = q.after || q.before ? 0 : (q.page - 1) * q.pageSize;
+  const rows = q.before ? q.pageSize + 1 : q.pageSize;
+  return { order, pick, sortJoin, after: cursorBound(q), limit: sql`LIMIT ${rows} OFFSET ${offset}` };
 }
+
+/** A previous page's rows without the one read past its start, and whether any plans come before it. */
+function trimmed(q: Query, rows: PlanListRow[]) {
+  if (!q.before) return { rows, more: q.after !== undefined || q.page > 1 };
+  return rows.length > q.pageSize ? { rows: rows.slice(1), more: true } : { rows, more: false };
+}
+
+const cursorOf = (q: Query, row: PlanListRow) => encodeCursor({ order: orderName(q), key: row.sort_key, id: row.id });
+
+/** The cursor for the page before `rows` (null on the first page: nothing precedes it). */
+const prevBefore = (q: Query, rows: PlanListRow[], more: boolean) => (more && rows[0] ? cursorOf(q, rows[0]) : null);
 
 /** The cursor for the page after `rows` (null when the page was not full: nothing follows). */
 const nextAfter = (q: Query, rows: PlanListRow[]) => {
   const last = rows[rows.length - 1];
-  return rows.length === q.pageSize && last
-    ? encodeCursor({ order: orderName(q), key: last.sort_key, id: last.id })
-    : null;
+  return rows.length === q.pageSize && last ? cursorOf(q, last) : null;
 };
 
 /** One page of plans with the stored latest state: the page is chosen first, names are joined to its rows only. */
 export function planPageStatement(q: Query): SQL {
-  const { order, sortJoin, after, limit } = pageOrder(q);
+  const { order, pick, sortJoin, after, limit } = pageOrder(q);
   return sql`
     WITH page AS (
       SELECT p.id FROM plans p ${sortJoin}
       WHERE ${filters(q)} AND ${after}
-      ORDER BY ${order} ${limit})
+      ORDER BY ${pick} ${limit})
     ${pageColumns(q)} ${pageJoins}
     ORDER BY ${order}`;
 }
@@ -158,26 +198,31 @@ export const countPlans = (ex: Executor, q: Query) => cappedCount(ex, countedPla
  * count read them: the trigram look-ups are the costly part, and two statements would run them twice.
  */
 export async function listPlansCounted(ex: Executor, q: Query) {
+  checkPageRequest(q);
   if (!q.q) {
-    const [rows, count] = await Promise.all([listPlanPage(ex, q), countPlans(ex, q)]);
-    return { rows, count, nextAfter: nextAfter(q, rows) };
+    const [read, count] = await Promise.all([listPlanPage(ex, q), countPlans(ex, q)]);
+    const { rows, more } = trimmed(q, read);
+    return { rows, count, nextAfter: nextAfter(q, rows), prevBefore: prevBefore(q, rows, more) };
   }
-  const { order, sortJoin, after, limit } = pageOrder(q);
+  const { order, pick, sortJoin, after, limit } = pageOrder(q);
   const res = await ex.execute<PlanListRow & { match_count: number }>(sql`
     WITH matched AS MATERIALIZED (SELECT p.id FROM plans p WHERE ${filters(q)}),
     counted AS (SELECT count(*)::int AS n FROM (SELECT 1 FROM matched LIMIT ${TOTAL_CAP + 1}) capped),
     page AS (
       SELECT p.id FROM matched JOIN plans p ON p.id = matched.id ${sortJoin}
       WHERE ${after}
-      ORDER BY ${order} ${limit})
+      ORDER BY ${pick} ${limit})
     ${pageColumns(q)}, counted.n AS match_count ${pageJoins} CROSS JOIN counted
     ORDER BY ${order}`);
-  const rows: PlanListRow[] = res.rows.map(({ match_count: _, ...r }) => r);
-  const next = nextAfter(q, rows);
-  if (res.rows.length > 0) return { rows, count: cappedTotal(res.rows[0]!.match_count), nextAfter: next };
+  const { rows, more } = trimmed(
+    q,
+    res.rows.map(({ match_count: _, ...r }) => r),
+  );
+  const cursors = { nextAfter: nextAfter(q, rows), prevBefore: prevBefore(q, rows, more) };
+  if (res.rows.length > 0) return { rows, count: cappedTotal(res.rows[0]!.match_count), ...cursors };
   // An empty first page means nothing matched; an empty later page says nothing of the total, so count apart.
-  const first = q.page === 1 && !q.after;
-  return { rows, count: first ? cappedTotal(0) : await countPlans(ex, q), nextAfter: next };
+  const first = q.page === 1 && !q.after && !q.before;
+  return { rows, count: first ? cappedTotal(0) : await countPlans(ex, q), ...cursors };
 }
 
 /** The review queue's rows: in review, not this approver's own, not yet decided by them this round. */

@@ -212,10 +212,11 @@ export async function updatePlanSettings(deps: AppDeps, actor: SessionUser, min:
 }
 
 export async function listPlans(deps: AppDeps, q: z.output<typeof planListQuerySchema>) {
-  const { rows, count, nextAfter } = await listPlansCounted(deps.db, q);
+  const { rows, count, nextAfter, prevBefore } = await listPlansCounted(deps.db, q);
   return {
     ...count,
     nextAfter,
+    prevBefore,
     page: q.page,
     pageSize: q.pageSize,
     plans: rows.map((r) => ({

@@ -130,6 +130,14 @@ export const planListQuerySchema = z.object({
     .string()
     .regex(/^[A-Za-z0-9_-]{1,4000}$/, "a cursor from the previous page's nextAfter")
     .optional(),
+  /**
+   * Keyset paging backwards: the page of plans just before this cursor (the shown page's `prevBefore`), for "Previous
+   * page" at any depth; `page` then only labels the page. Not with `after`.
+   */
+  before: z
+    .string()
+    .regex(/^[A-Za-z0-9_-]{1,4000}$/, "a cursor from the shown page's prevBefore")
+    .optional(),
   state: revisionStateSchema.optional(),
   /** the approved revision's proof: proven, unproven, or none (approved, no proof decision yet) */
   proof: z.enum(["proven", "unproven", "none"]).optional(),

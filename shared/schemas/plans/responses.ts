@@ -44,6 +44,8 @@ export const planListResponseSchema = z.object({
   ...pagedTotal,
   /** Pass as `after` for the next page: keyset paging, as cheap at any depth (null on the last page). */
   nextAfter: z.string().nullable(),
+  /** Pass as `before` for the previous page, by cursor like `nextAfter` (null on the first page). */
+  prevBefore: z.string().nullable(),
   page: z.number(),
   pageSize: z.number(),
   plans: z.array(planListItemSchema),

@@ -3,7 +3,7 @@ import { sql } from "drizzle-orm";
 import { makeTestApp } from "../../setup/app";
 import { testDb } from "../../setup/db";
 import { createPlan, createProfile, decide, post } from "../../setup/plans";
-import { cappedCount } from "../../../server/platform/paging";
+import { cappedCount, TOTAL_CAP } from "../../../server/platform/paging";
 import { approvedPlanWith, criterion, upload } from "../../setup/evidence";
 
 const { agentAs } = makeTestApp();
@@ -418,16 +418,34 @@ describe("plan list keyset paging", () => {
           for (const pageSize of [2, 7]) {
             const walked: number[] = [];
             let after: string | null = null;
+            let last = { page: 1, prevBefore: null as string | null };
             for (let page = 1; page <= 8; page++) {
               const cursor: string = after ? `&after=${after}` : "";
               const body = (await one.get(`${url}&pageSize=${pageSize}&page=${page}${cursor}`).expect(200)).body;
               expect(body).toMatchObject({ total: 7, totalCapped: false, page });
+              // The first page has nothing before it.
+              if (page === 1) expect(body.prevBefore).toBeNull();
               walked.push(...idsOf(body));
               after = body.nextAfter;
+              // (a full last page still gives a nextAfter, whose page is empty: no first row to go back from)
+              if (body.plans.length > 0) last = { page, prevBefore: body.prevBefore };
               if (!after) break;
             }
             // Each plan once, in the order one whole page gives.
             expect(walked).toEqual(whole);
+            // Back from the last page by prevBefore: each page is the same slice of the whole list, to the first.
+            let before = last.prevBefore;
+            for (let page = last.page - 1; page >= 1; page--) {
+              expect(before, `${url} page ${page}`).toEqual(expect.any(String));
+              const body = (await one.get(`${url}&pageSize=${pageSize}&page=${page}&before=${before}`).expect(200))
+                .body;
+              expect(body).toMatchObject({ total: 7, totalCapped: false, page });
+              expect(idsOf(body)).toEqual(whole.slice((page - 1) * pageSize, page * pageSize));
+              // The page read backwards reads on forwards as the walk did.
+              expect(body.nextAfter).toEqual(expect.any(String));
+              before = body.prevBefore;
+            }
+            expect(before).toBeNull();
           }
         }
       }
@@ -435,6 +453,37 @@ describe("plan list keyset paging", () => {
     // The microsecond order is the stored one: newest first puts the .123457 pair before the .123456 three.
     const byUpdated = idsOf((await one.get(`/api/plans?modelId=${model.id}&pageSize=100`).expect(200)).body);
     expect(byUpdated.slice(-5)).toEqual([ids[5], ids[4], ids[3], ids[2], ids[0]]);
+  });
+
+  it("answers pages by number only as deep as the capped total names them; deeper pages go by cursor", async () => {
+    const researcher = await agentAs(["researcher"]);
+    const model = await createProfile(researcher);
+    for (let i = 0; i < 3; i++) await createPlan(researcher, model.id);
+    const url = `/api/plans?modelId=${model.id}`;
+    // The deepest numbered page holds the TOTAL_CAP-th plan (10 000): ceil(10 000 / pageSize). At 20 a page that is
+    // page 500 (rows 9 981–10 000); at 3 it is 3 334 (rows 10 000–10 002), as (page − 1) × size < cap ≤ page × size.
+    for (const [pageSize, deepest] of [
+      [20, 500],
+      [3, 3334],
+      [100, 100],
+    ]) {
+      expect((deepest! - 1) * pageSize! < TOTAL_CAP && TOTAL_CAP <= deepest! * pageSize!).toBe(true);
+      const ok = await researcher.get(`${url}&pageSize=${pageSize}&page=${deepest}`).expect(200);
+      expect(ok.body).toMatchObject({ plans: [], total: 3, page: deepest });
+      const deeper = await researcher.get(`${url}&pageSize=${pageSize}&page=${deepest! + 1}`);
+      expect(deeper.status).toBe(400);
+      expect(deeper.body.error.fields.page).toBeTruthy();
+      expect(deeper.body.error.message).toContain("after");
+    }
+    // With a cursor the number only labels the page, so a deep label is fine (the plans screen reads on this way).
+    const first = (await researcher.get(`${url}&pageSize=1`).expect(200)).body;
+    const deep = await researcher.get(`${url}&pageSize=1&page=20001&after=${first.nextAfter}`).expect(200);
+    expect(deep.body.plans).toHaveLength(1);
+    await researcher.get(`${url}&pageSize=1&page=20000&before=${deep.body.prevBefore}`).expect(200);
+    // One direction at a time.
+    const both = await researcher.get(`${url}&pageSize=1&after=${first.nextAfter}&before=${first.nextAfter}`);
+    expect(both.status).toBe(400);
+    expect(both.body.error.fields.before).toBeTruthy();
   });
 
   it("refuses a cursor it did not give out, or one read under another order, naming the field", async () => {
@@ -445,11 +494,17 @@ describe("plan list keyset paging", () => {
     const after = (await researcher.get(`${url}&sort=title`).expect(200)).body.nextAfter as string;
     expect(after).toEqual(expect.any(String));
     await researcher.get(`${url}&sort=title&page=2&after=${after}`).expect(200);
-    for (const bad of [`sort=owner&after=${after}`, `sort=title&dir=asc&after=${after}`, "after=abc", "after=a%25b"]) {
-      const r = await researcher.get(`${url}&${bad}`);
-      expect(r.status).toBe(400);
-      expect(r.body.error.fields.after).toBeTruthy();
-    }
+    for (const field of ["after", "before"])
+      for (const bad of [
+        `sort=owner&${field}=${after}`,
+        `sort=title&dir=asc&${field}=${after}`,
+        `${field}=abc`,
+        `${field}=a%25b`,
+      ]) {
+        const r = await researcher.get(`${url}&${bad}`);
+        expect(r.status, bad).toBe(400);
+        expect(r.body.error.fields[field], bad).toBeTruthy();
+      }
   });
 });
 

@@ -83,13 +83,14 @@ export function PlansRoute() {
             pageSize={params.pageSize ?? DEFAULT_PAGE_SIZE}
             total={list.data.total}
             totalCapped={list.data.totalCapped}
-            // The next page follows the server's cursor (as cheap at any depth); other moves go by page number.
-            onPage={(page) =>
-              update({
-                page,
-                after: page === list.data.page + 1 && list.data.nextAfter ? list.data.nextAfter : undefined,
-              })
-            }
+            // Next and previous follow the server's cursors (as cheap at any depth, where a page number is an OFFSET
+            // the server answers only for the first pages); page 1 is the top of the list, without one.
+            onPage={(page) => {
+              const next = page === list.data.page + 1 && list.data.nextAfter ? list.data.nextAfter : undefined;
+              const prev =
+                page === list.data.page - 1 && page > 1 && list.data.prevBefore ? list.data.prevBefore : undefined;
+              update({ page, after: next, before: next ? undefined : prev });
+            }}
             noun="Plans"
           />
         </div>
