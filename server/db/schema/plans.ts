@@ -113,8 +113,9 @@ export const planRevisions = pgTable(
     index("plan_revisions_in_review")
       .on(t.submittedAt, t.id, t.authorId, t.round)
       .where(sql`${t.state} = 'in_review'`),
-    // The plan list's proof filter: proven or unproven revisions, and approved ones with no proof decision yet. When
-    // few plans match, the list starts from these instead of walking every plan to test each one's revision.
+    // Proven or unproven revisions, and approved ones with no proof decision yet. The plan list's proof filter read
+    // these until migration 0024 stored the approved revision's proof on plans (plans_proof_idx); no list reads them
+    // now (docs/scale-figures.md), and they stay until a measured reason says whether to drop them.
     index("plan_revisions_proof")
       .on(t.proof, t.planId, t.number)
       .where(sql`${t.proof} IS NOT NULL`),
@@ -122,7 +123,7 @@ export const planRevisions = pgTable(
       .on(t.planId, t.number)
       .where(sql`${t.state} = 'approved' AND ${t.proof} IS NULL`),
     // A plan holds at most one approved revision: approving one supersedes the others (workflow.service decide,
-    // shared/plan-rules latestApproved). The plan list's proof counts rely on it (plans.list countPlans).
+    // shared/plan-rules latestApproved). The stored plans.approved_proof (the plan list's proof filter) relies on it.
     uniqueIndex("plan_revisions_one_approved")
       .on(t.planId)
       .where(sql`${t.state} = 'approved'`),
