@@ -446,9 +446,11 @@ describe("plan workflow in a browser", () => {
     await pager.getByRole("button", { name: "Next page" }).click();
     await titles([`${tag} 4`]);
     expect(new URL(page.url()).searchParams.get("after")).not.toBe(second.get("after"));
+    // The previous page is asked of the server by cursor too, read backwards from the shown page's first plan.
+    const asked = page.waitForRequest((r) => r.url().includes("/api/plans?") && r.url().includes("before="));
     await pager.getByRole("button", { name: "Previous page" }).click();
+    expect(new URL((await asked).url()).searchParams.get("after")).toBeNull();
     await titles([`${tag} 2`, `${tag} 3`]);
-    // The previous page was asked by cursor too, read backwards from the shown page's first plan.
     const back = new URL(page.url()).searchParams;
     expect([back.get("page"), back.get("after")]).toEqual(["2", null]);
     expect(back.get("before")).toMatch(/^[A-Za-z0-9_-]+$/);
