@@ -4,11 +4,15 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
 import { launchBrowser, requireBuiltClient, SCREENSHOT_DIR } from "../setup/browser";
 import { makeTestApp } from "../setup/app";
-import { ownerTestDb } from "../setup/db";
-import { decide, post, twoStageRevision } from "../setup/plans";
+import {
+  importSectionedModel,
+  LAYERED_SECTIONS,
+  ntkThenLinearRevision,
+  rewriteStoredContent,
+} from "../setup/frozen-sections";
+import { decide, post } from "../setup/plans";
 import { startTestServer } from "../setup/server";
 import { signedInPages } from "../setup/signed-in";
-import { hashContent } from "../../server/features/plans/revision-content";
 
 /*
  * The plan page's "Frozen config block" panel names every signed block of an older revision that lacks the model's
@@ -27,8 +31,6 @@ const { signedIn, closeAll, errors } = signedInPages(
   () => browser,
   () => server.url,
 );
-const FILE = "sliding-full-nope-mrope-sections.json";
-const fixture = () => fs.readFileSync(path.join(import.meta.dirname, "../fixtures/configs", FILE));
 
 beforeAll(async () => {
   requireBuiltClient();
@@ -48,50 +50,29 @@ const nulled = (b: Block) => ({ ...b, patch: { ...b.patch, rope_scaling: null } 
 async function oldSignedPlan() {
   const researcher = await agentAs(["researcher"]);
   const approver = await agentAs(["approver"]);
-  const imported = await researcher
-    .post("/api/models/import?save=true")
-    .set("X-CSRF-Token", researcher.csrf)
-    .field("overrides", JSON.stringify({ name: `Notices-${Math.random().toString(36).slice(2, 8)}`, parameters: 7e9 }))
-    .attach("file", fixture(), "config.json")
-    .expect(201);
-  const r = twoStageRevision();
   const created = await post(researcher, "/api/plans", {
     title: `Old signed blocks ${Math.random().toString(36).slice(2, 7)}`,
-    modelId: imported.body.saved.id,
-    revision: {
-      ...r,
-      targetContext: 131072,
-      method: { method: "linear" },
-      stages: [
-        { ...r.stages[0], targetContext: 65536, sequenceLength: 65536, method: { method: "ntk" } },
-        { ...r.stages[1], targetContext: 131072, sequenceLength: 131072, method: { method: "linear" } },
-      ],
-      acceptance: [{ ...r.acceptance[0], contextLength: 131072 }],
-    },
+    modelId: await importSectionedModel(researcher, LAYERED_SECTIONS, "Notices"),
+    revision: ntkThenLinearRevision(),
   });
   expect(created.status, JSON.stringify(created.body)).toBe(201);
   const id = created.body.id as number;
   const base = `/api/plans/${id}/revisions/1`;
   await post(researcher, `${base}/submit`).expect(200);
-  const owner = ownerTestDb();
-  const row = await owner.pool.query("SELECT id, content FROM plan_revisions WHERE plan_id = $1", [id]);
-  const stored = row.rows[0].content;
-  const [s1, s2] = stored.results.stages as Block[];
-  const content = {
-    ...stored,
-    engineVersion: "rw-engine/1.0.0",
-    results: {
-      ...stored.results,
-      stages: [nulled(s1), s2],
-      groups: (stored.results.groups as (Block & { kind: string })[]).map((g) =>
-        g.kind === "sliding_attention" || g.kind === "no_rope" ? nulled(g) : g,
-      ),
-    },
-  };
-  await owner.pool.query(
-    "UPDATE plan_revisions SET content = $1, content_hash = $2, engine_version = $3 WHERE id = $4",
-    [content, hashContent(content), "rw-engine/1.0.0", row.rows[0].id],
-  );
+  await rewriteStoredContent(id, (stored) => {
+    const [s1, s2] = stored.results.stages as Block[];
+    return {
+      ...stored,
+      engineVersion: "rw-engine/1.0.0",
+      results: {
+        ...stored.results,
+        stages: [nulled(s1), s2],
+        groups: (stored.results.groups as (Block & { kind: string })[]).map((g) =>
+          g.kind === "sliding_attention" || g.kind === "no_rope" ? nulled(g) : g,
+        ),
+      },
+    };
+  });
   await decide(approver, `${base}/decisions`, { decision: "approve" }).expect(200);
   return { id, researcher: researcher.user! };
 }

@@ -1,11 +1,13 @@
-import fs from "node:fs";
-import path from "node:path";
 import { describe, expect, it } from "vitest";
 import { exportEnvelopeSchema, revisionResponseSchema } from "../../../shared/schemas/plans";
 import { applyMergePatch } from "../../../server/engine/targets";
-import { hashContent } from "../../../server/features/plans/revision-content";
 import { makeTestApp, type Agent } from "../../setup/app";
-import { ownerTestDb } from "../../setup/db";
+import {
+  fixtureBytes,
+  importSectionedModel,
+  LAYERED_SECTIONS,
+  rewriteStoredContent,
+} from "../../setup/frozen-sections";
 import { decide, post } from "../../setup/plans";
 
 /*
@@ -21,11 +23,12 @@ import { decide, post } from "../../setup/plans";
  * top-level keys whole, server/engine/targets/registry.ts SECTIONS_WITH_ARTIFACT cites where).
  */
 const { agentAs } = makeTestApp();
-const FILE = "sliding-full-nope-mrope-sections.json";
-const fixture = () => fs.readFileSync(path.join(import.meta.dirname, "../../fixtures/configs", FILE));
 const sectionsAfter = (patch: object) =>
-  (applyMergePatch(JSON.parse(fixture().toString()), patch) as { rope_scaling?: { mrope_section?: unknown } | null })
-    .rope_scaling?.mrope_section;
+  (
+    applyMergePatch(JSON.parse(fixtureBytes(LAYERED_SECTIONS).toString()), patch) as {
+      rope_scaling?: { mrope_section?: unknown } | null;
+    }
+  ).rope_scaling?.mrope_section;
 const CODE = "frozen_config_lacks_sections";
 
 type Patch = { rope_scaling: Record<string, unknown> | null } & Record<string, unknown>;
@@ -41,17 +44,11 @@ async function signedOld(
   researcher: Agent,
   approver: Agent,
   method: "ntk" | "linear",
-  age: (stored: { results: { final: { patch: Patch }; groups: Group[] } }) => Record<string, unknown>,
+  age: (stored: { results: { final: { patch: Patch }; groups: Group[] } }) => { engineVersion: string },
 ) {
-  const r = await researcher
-    .post("/api/models/import?save=true")
-    .set("X-CSRF-Token", researcher.csrf)
-    .field("overrides", JSON.stringify({ name: `GrpSect-${Math.random().toString(36).slice(2, 8)}`, parameters: 7e9 }))
-    .attach("file", fixture(), "config.json")
-    .expect(201);
   const created = await post(researcher, "/api/plans", {
     title: `Group cautions ${Math.random().toString(36).slice(2, 7)}`,
-    modelId: r.body.saved.id,
+    modelId: await importSectionedModel(researcher, LAYERED_SECTIONS, "GrpSect"),
     revision: { targetContext: 131072, method: { method } },
   }).expect(201);
   const id = created.body.id as number;
@@ -60,14 +57,7 @@ async function signedOld(
   const fresh = revisionResponseSchema.parse((await researcher.get(base).expect(200)).body);
   expect(fresh.blockCautions).toEqual([]);
 
-  const owner = ownerTestDb();
-  const row = await owner.pool.query("SELECT id, content FROM plan_revisions WHERE plan_id = $1", [id]);
-  const content = age(row.rows[0].content);
-  const hash = hashContent(content);
-  await owner.pool.query(
-    "UPDATE plan_revisions SET content = $1, content_hash = $2, engine_version = $3 WHERE id = $4",
-    [content, hash, content.engineVersion, row.rows[0].id],
-  );
+  const { hash } = await rewriteStoredContent(id, age);
   await decide(approver, `${base}/decisions`, { decision: "approve" }).expect(200);
   const exp = exportEnvelopeSchema.parse((await researcher.get(`/api/plans/${id}/approved/export`).expect(200)).body);
   expect(exp.contentHash).toBe(hash);

@@ -1,9 +1,8 @@
-import fs from "node:fs";
-import path from "node:path";
 import { describe, expect, it } from "vitest";
 import { exportEnvelopeSchema, revisionResponseSchema } from "../../../shared/schemas/plans";
 import { applyMergePatch } from "../../../server/engine/targets";
-import { makeTestApp, type Agent } from "../../setup/app";
+import { makeTestApp } from "../../setup/app";
+import { fixtureBytes, importSectionedModel, LAYERED_SECTIONS } from "../../setup/frozen-sections";
 import { decide, post } from "../../setup/plans";
 
 /*
@@ -15,30 +14,21 @@ import { decide, post } from "../../setup/plans";
  * delete them. The local group stays as trained (default RoPE over its own base: no factor, no base change).
  */
 const { agentAs } = makeTestApp();
-const FILE = "sliding-full-nope-mrope-sections.json";
-const fixture = () => fs.readFileSync(path.join(import.meta.dirname, "../../fixtures/configs", FILE));
 /** The sections left in the model's file once a block is merged onto it (RFC 7396, as a config patch is applied). */
 const sectionsAfter = (patch: object) =>
-  (applyMergePatch(JSON.parse(fixture().toString()), patch) as { rope_scaling?: { mrope_section?: unknown } | null })
-    .rope_scaling?.mrope_section;
+  (
+    applyMergePatch(JSON.parse(fixtureBytes(LAYERED_SECTIONS).toString()), patch) as {
+      rope_scaling?: { mrope_section?: unknown } | null;
+    }
+  ).rope_scaling?.mrope_section;
 const SECTIONS = [16, 24, 24];
-
-async function layeredSectionedModel(a: Agent) {
-  const r = await a
-    .post("/api/models/import?save=true")
-    .set("X-CSRF-Token", a.csrf)
-    .field("overrides", JSON.stringify({ name: `WinSect-${Math.random().toString(36).slice(2, 8)}`, parameters: 7e9 }))
-    .attach("file", fixture(), "config.json")
-    .expect(201);
-  return r.body.saved.id as number;
-}
 
 describe("every layer group's signed block of a layered multimodal model carries the sections", () => {
   for (const method of ["ntk", "linear"] as const) {
     it(`${method}: content groups, envelope layerGroups and the v5 nesting keep mrope_section; local stays as trained`, async () => {
       const researcher = await agentAs(["researcher"]);
       const approver = await agentAs(["approver"]);
-      const modelId = await layeredSectionedModel(researcher);
+      const modelId = await importSectionedModel(researcher, LAYERED_SECTIONS, "WinSect");
       const created = await post(researcher, "/api/plans", {
         title: `Layered sections ${Math.random().toString(36).slice(2, 7)}`,
         modelId,

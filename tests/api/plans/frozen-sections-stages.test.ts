@@ -1,11 +1,13 @@
-import fs from "node:fs";
-import path from "node:path";
 import { describe, expect, it } from "vitest";
 import { exportEnvelopeSchema, revisionResponseSchema } from "../../../shared/schemas/plans";
-import { hashContent } from "../../../server/features/plans/revision-content";
 import { makeTestApp, type Agent } from "../../setup/app";
-import { ownerTestDb } from "../../setup/db";
-import { decide, post, twoStageRevision } from "../../setup/plans";
+import {
+  CONTIGUOUS_SECTIONS,
+  importSectionedModel,
+  ntkThenLinearRevision,
+  rewriteStoredContent,
+} from "../../setup/frozen-sections";
+import { decide, post } from "../../setup/plans";
 
 /*
  * Stage blocks of a revision signed before blocks carried multimodal sections (issue 11): each stage hands out its own
@@ -15,45 +17,18 @@ import { decide, post, twoStageRevision } from "../../setup/plans";
  * one: the blocks engine 1.0 froze, written in review with their own valid hash.
  */
 const { agentAs } = makeTestApp();
-const FILE = "mrope-sections-contiguous.json";
-const fixture = () => fs.readFileSync(path.join(import.meta.dirname, "../../fixtures/configs", FILE));
-
-async function sectionedModel(a: Agent) {
-  const r = await a
-    .post("/api/models/import?save=true")
-    .set("X-CSRF-Token", a.csrf)
-    .field("overrides", JSON.stringify({ name: `Stages-${Math.random().toString(36).slice(2, 8)}`, parameters: 7e9 }))
-    .attach("file", fixture(), "config.json")
-    .expect(201);
-  return r.body.saved.id as number;
-}
-
-// Trained 32 768: stage 1 moves the base to 65 536 (NTK), stage 2 and the plan target stretch to 131 072 (linear, s = 4).
-const revision = () => {
-  const r = twoStageRevision();
-  return {
-    ...r,
-    targetContext: 131072,
-    method: { method: "linear" },
-    stages: [
-      { ...r.stages[0], targetContext: 65536, sequenceLength: 65536, method: { method: "ntk" } },
-      { ...r.stages[1], targetContext: 131072, sequenceLength: 131072, method: { method: "linear" } },
-    ],
-    acceptance: [{ ...r.acceptance[0], contextLength: 131072 }],
-  };
-};
-
 const exported = async (a: Agent, url: string) => exportEnvelopeSchema.parse((await a.get(url).expect(200)).body);
 
 describe("stage blocks signed without the model's sections", () => {
   it("?stage=1 carries the caution naming that stage; the page's revision lists it; blocks with sections draw none", async () => {
     const researcher = await agentAs(["researcher"]);
     const approver = await agentAs(["approver"]);
-    const modelId = await sectionedModel(researcher);
+    const modelId = await importSectionedModel(researcher, CONTIGUOUS_SECTIONS, "Stages");
     const created = await post(researcher, "/api/plans", {
       title: `Stage sections ${Math.random().toString(36).slice(2, 7)}`,
       modelId,
-      revision: revision(),
+      // Trained 32 768: stage 1 moves the base to 65 536 (NTK), stage 2 and the plan target stretch to 131 072 (s = 4).
+      revision: ntkThenLinearRevision(),
     }).expect(201);
     const id = created.body.id as number;
     const base = `/api/plans/${id}/revisions/1`;
@@ -65,20 +40,14 @@ describe("stage blocks signed without the model's sections", () => {
 
     // Engine 1.0 froze stage 1's new base as rope_scaling: null (methods/common.ts patchWithBase before 1.1); the
     // linear blocks are left with their sections, so only stage 1 lacks them.
-    const owner = ownerTestDb();
-    const row = await owner.pool.query("SELECT id, content FROM plan_revisions WHERE plan_id = $1", [id]);
-    const stored = row.rows[0].content;
-    const [s1, s2] = stored.results.stages;
-    const content = {
-      ...stored,
-      engineVersion: "rw-engine/1.0.0",
-      results: { ...stored.results, stages: [{ ...s1, patch: { ...s1.patch, rope_scaling: null } }, s2] },
-    };
-    const hash = hashContent(content);
-    await owner.pool.query(
-      "UPDATE plan_revisions SET content = $1, content_hash = $2, engine_version = $3 WHERE id = $4",
-      [content, hash, "rw-engine/1.0.0", row.rows[0].id],
-    );
+    const { hash } = await rewriteStoredContent(id, (stored) => {
+      const [s1, s2] = stored.results.stages;
+      return {
+        ...stored,
+        engineVersion: "rw-engine/1.0.0",
+        results: { ...stored.results, stages: [{ ...s1, patch: { ...s1.patch, rope_scaling: null } }, s2] },
+      };
+    });
     await decide(approver, `${base}/decisions`, { decision: "approve" }).expect(200);
 
     const one = await exported(researcher, `/api/plans/${id}/approved/export?stage=1`);

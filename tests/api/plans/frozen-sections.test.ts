@@ -1,5 +1,3 @@
-import fs from "node:fs";
-import path from "node:path";
 import { describe, expect, it } from "vitest";
 import { exportEnvelopeSchema } from "../../../shared/schemas/plans";
 import { ENGINE_VERSION } from "../../../server/engine";
@@ -7,6 +5,12 @@ import { TARGETS, applyMergePatch } from "../../../server/engine/targets";
 import { hashContent } from "../../../server/features/plans/revision-content";
 import { makeTestApp, type Agent } from "../../setup/app";
 import { ownerTestDb } from "../../setup/db";
+import {
+  CONTIGUOUS_SECTIONS,
+  fixtureBytes,
+  importSectionedModel,
+  rewriteStoredContent,
+} from "../../setup/frozen-sections";
 import { decide, post } from "../../setup/plans";
 
 /*
@@ -17,20 +21,10 @@ import { decide, post } from "../../setup/plans";
  * is the hand-written contiguous config with the older `type: "mrope"` block.
  */
 const { agentAs } = makeTestApp();
-const FILE = "mrope-sections-contiguous.json";
-const fixture = () => fs.readFileSync(path.join(import.meta.dirname, "../../fixtures/configs", FILE));
-const fixtureConfig = () => JSON.parse(fixture().toString()) as Record<string, unknown>;
+const fixtureConfig = () => JSON.parse(fixtureBytes(CONTIGUOUS_SECTIONS).toString()) as Record<string, unknown>;
 const SECTIONS = [16, 24, 24];
 
-async function sectionedModel(a: Agent) {
-  const r = await a
-    .post("/api/models/import?save=true")
-    .set("X-CSRF-Token", a.csrf)
-    .field("overrides", JSON.stringify({ name: `Sections-${Math.random().toString(36).slice(2, 8)}`, parameters: 7e9 }))
-    .attach("file", fixture(), "config.json")
-    .expect(201);
-  return r.body.saved.id as number;
-}
+const sectionedModel = (a: Agent) => importSectionedModel(a, CONTIGUOUS_SECTIONS, "Sections");
 
 /** A plan with one method, sent to inspection; answers its id and revision path. */
 async function submitted(researcher: Agent, modelId: number, method: Record<string, unknown>) {
@@ -97,22 +91,14 @@ describe("the signed block of a multimodal model carries its sections", () => {
     const { id, base } = await submitted(researcher, modelId, { method: "ntk" });
     // As a revision frozen by engine 1.0 was stored: the NTK block was `rope_scaling: null` (methods/common.ts
     // patchWithBase before 1.1). Written in review, with its own valid hash, so the approval below signs that hash.
-    const owner = ownerTestDb();
-    const row = await owner.pool.query("SELECT id, content FROM plan_revisions WHERE plan_id = $1", [id]);
-    const stored = row.rows[0].content;
-    const content = {
+    const { revisionId, hash } = await rewriteStoredContent(id, (stored) => ({
       ...stored,
       engineVersion: "rw-engine/1.0.0",
       results: {
         ...stored.results,
         final: { ...stored.results.final, patch: { ...stored.results.final.patch, rope_scaling: null } },
       },
-    };
-    const hash = hashContent(content);
-    await owner.pool.query(
-      "UPDATE plan_revisions SET content = $1, content_hash = $2, engine_version = $3 WHERE id = $4",
-      [content, hash, "rw-engine/1.0.0", row.rows[0].id],
-    );
+    }));
     await decide(approver, `${base}/decisions`, { decision: "approve" }).expect(200);
 
     const env = await exported(researcher, `/api/plans/${id}/approved/export`);
@@ -129,8 +115,8 @@ describe("the signed block of a multimodal model carries its sections", () => {
     const rigged = applyMergePatch(fixtureConfig(), t.target!.artifact!.content) as { rope_scaling: unknown };
     expect(rigged.rope_scaling).toMatchObject({ rope_type: "default", mrope_section: SECTIONS });
     // never rewritten: stored content and hash as signed, and the revision still verifies
-    const after = await owner.pool.query("SELECT content, content_hash FROM plan_revisions WHERE id = $1", [
-      row.rows[0].id,
+    const after = await ownerTestDb().pool.query("SELECT content, content_hash FROM plan_revisions WHERE id = $1", [
+      revisionId,
     ]);
     expect(after.rows[0].content_hash).toBe(hash);
     expect(hashContent(after.rows[0].content)).toBe(hash);
