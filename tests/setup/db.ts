@@ -1,3 +1,4 @@
+import type pg from "pg";
 import { createDb } from "../../server/db/client";
 
 let shared: ReturnType<typeof createDb> | undefined;
@@ -18,4 +19,14 @@ export function ownerTestDb() {
   if (!url) throw new Error("TEST_MIGRATION_DATABASE_URL is not set; run tests through vitest (globalSetup)");
   owner ??= createDb(url, 2);
   return owner;
+}
+
+/** Runs one statement that should be refused; answers PostgreSQL's error (code, constraint), or undefined if it ran. */
+export async function sqlError(pool: pg.Pool, text: string, values: unknown[]) {
+  try {
+    await pool.query(text, values);
+    return undefined;
+  } catch (e) {
+    return e as { code?: string; constraint?: string };
+  }
 }

@@ -2,29 +2,15 @@
  * Migration 0024 stores the approved revision's proof on plans (approved_proof) for the plan list's proof filter. Its
  * backfill must give every existing plan what the revisions say, and the trigger must keep it from then on.
  */
-import fs from "node:fs";
-import os from "node:os";
-import path from "node:path";
 import { describe, expect, it } from "vitest";
-import { MIGRATIONS_DIR } from "../../../server/db/migrate";
 import { scratchDatabase } from "../../setup/scratch-db";
 
 describe("migration 0024 (plans.approved_proof)", () => {
   it("backfills each plan from its approved revision, then the trigger follows proof decisions", async () => {
     const s = await scratchDatabase();
     try {
-      // Build the database up to the migration before this one, from a copy of migrations/ cut there.
-      const journal = JSON.parse(fs.readFileSync(path.join(MIGRATIONS_DIR, "meta/_journal.json"), "utf8"));
-      const cut = journal.entries.findIndex((e: { tag: string }) => e.tag.endsWith("_approved_proof"));
-      expect(cut).toBeGreaterThan(0);
-      const dir = fs.mkdtempSync(path.join(os.tmpdir(), "rw-migrations-"));
-      fs.cpSync(MIGRATIONS_DIR, dir, { recursive: true });
-      fs.writeFileSync(
-        path.join(dir, "meta/_journal.json"),
-        JSON.stringify({ ...journal, entries: journal.entries.slice(0, cut) }),
-      );
-      await s.migrate(dir);
-      fs.rmSync(dir, { recursive: true, force: true });
+      // Build the database up to the migration before this one.
+      await s.migrateBefore("_approved_proof");
       const q = (text: string) => s.owner.pool.query(text).then((r) => r.rows);
       // Plans as the workflow leaves them (written in SQL: the application's schema already has the new column).
       // 1: approved, proven | 2: approved, undecided | 3: proven revision 1 superseded by an undecided revision 2

@@ -9,21 +9,14 @@ import { describe, expect, it } from "vitest";
 import { MIGRATIONS_DIR } from "../../../server/db/migrate";
 import { seedDemo } from "../../../server/db/seed";
 import { makeTestApp, testConfig } from "../../setup/app";
-import { testDb } from "../../setup/db";
+import { sqlError as sqlErrorOn, testDb } from "../../setup/db";
 import { createPlan, createProfile, decide, post } from "../../setup/plans";
 import { scratchDatabase } from "../../setup/scratch-db";
 
 const { agentAs } = makeTestApp();
 const { pool } = testDb();
 
-const sqlError = async (text: string, values: unknown[]) => {
-  try {
-    await pool.query(text, values);
-    return undefined;
-  } catch (e) {
-    return e as { code?: string; constraint?: string };
-  }
-};
+const sqlError = (text: string, values: unknown[]) => sqlErrorOn(pool, text, values);
 
 const approvedOf = async (planId: number) =>
   (

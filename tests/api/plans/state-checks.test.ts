@@ -6,20 +6,13 @@
 import { describe, expect, it } from "vitest";
 import { makeTestApp } from "../../setup/app";
 import { createPlan, createProfile } from "../../setup/plans";
-import { testDb } from "../../setup/db";
+import { sqlError as sqlErrorOn, testDb } from "../../setup/db";
 import { REVISION_STATES } from "../../../shared/schemas";
 
 const { agentAs } = makeTestApp();
 const { pool } = testDb();
 
-const sqlError = async (text: string, values: unknown[]) => {
-  try {
-    await pool.query(text, values);
-    return undefined;
-  } catch (e) {
-    return e as { code?: string; constraint?: string };
-  }
-};
+const sqlError = (text: string, values: unknown[]) => sqlErrorOn(pool, text, values);
 
 describe("plan states and decisions in the database", () => {
   it("refuses a revision state outside the shared list, accepts each listed one", async () => {
