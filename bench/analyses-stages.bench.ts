@@ -9,6 +9,7 @@ import { assertNotHostile } from "../server/platform/hostile";
 import { packAnalysis } from "../shared/analysis-columns";
 import { analysisRequestSchema, analysisResponseSchema, METHOD_IDS } from "../shared/schemas/analysis";
 import { anyAnalysisResponseSchema } from "../shared/schemas/analysis-columns";
+import { everyMethodQuestion } from "./analysis-question";
 import { median } from "./http-client";
 
 // `npm run bench -- stages`: what one POST /api/analyses (8 methods, d = 128) costs, stage by stage, in this process
@@ -40,19 +41,7 @@ async function timeAsync(label: string, f: () => Promise<unknown>, note = "") {
 }
 
 export async function runStagesBench() {
-  const ramp = Array.from({ length: 64 }, (_, i) => 1 + i / 2);
-  const input = {
-    model: { headDim: 128, ropeTheta: 500000, trainedContext: 8192 },
-    targetContext: 1_048_576,
-    form: "columns",
-    methods: METHOD_IDS.map((m) =>
-      m === "longrope"
-        ? { method: m, longFactor: ramp, shortFactor: ramp.map(() => 1) }
-        : m === "base"
-          ? { method: m, base: 5e7 }
-          : { method: m },
-    ),
-  };
+  const input = { ...everyMethodQuestion(), form: "columns" };
   const raw = JSON.stringify(input);
   console.log(`\nPOST /api/analyses, one request's stages (${METHOD_IDS.length} methods, d = 128; median of ${RUNS})`);
   time("JSON.parse of the request body", () => JSON.parse(raw), `${(raw.length / 1024).toFixed(1)} kB`);

@@ -9,7 +9,7 @@ import { LOCAL_APP_ROLE, LOCAL_OWNER_ROLE, loadConfig } from "../server/config";
 import { createDb } from "../server/db/client";
 import { migrateDatabase } from "../server/db/migrate";
 import { insertUser } from "../server/features/users/users.repo";
-import { METHOD_IDS } from "../shared/schemas/analysis";
+import { everyMethodQuestion } from "./analysis-question";
 import { quantile, signIn } from "./http-client";
 
 // The API under load on this machine: POST /api/analyses (all methods, d = 128, target 1 048 576) with 16 requests
@@ -46,19 +46,7 @@ export async function runApiBench() {
   const base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
 
   const headers = await signIn(base, "bench@example.test", "bench-password-1");
-  const ramp = Array.from({ length: 64 }, (_, i) => 1 + i / 2);
-  const methods = METHOD_IDS.map((m) =>
-    m === "longrope"
-      ? { method: m, longFactor: ramp, shortFactor: ramp.map(() => 1) }
-      : m === "base"
-        ? { method: m, base: 5e7 }
-        : { method: m },
-  );
-  const body = JSON.stringify({
-    model: { headDim: 128, ropeTheta: 500000, trainedContext: 8192 },
-    targetContext: 1_048_576,
-    methods,
-  });
+  const body = JSON.stringify(everyMethodQuestion());
 
   const latencies: number[] = [];
   const total = 400;

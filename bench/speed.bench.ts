@@ -7,8 +7,8 @@ import pg from "pg";
 import { LOCAL_APP_ROLE, LOCAL_OWNER_ROLE } from "../server/config";
 import { DEFAULT_GRID } from "../shared/schemas/bounds";
 import { smallestSupportingBase } from "../server/engine/base-search";
-import { METHOD_IDS } from "../shared/schemas/analysis";
 import { DYNAMIC_BROTLI_QUALITY, DYNAMIC_GZIP_LEVEL } from "../server/platform/prepared-json";
+import { everyMethodQuestion } from "./analysis-question";
 import { HAMMER_N, HAMMER_WARM, hammer, loadNow, median, send, signIn, type Hammered } from "./http-client";
 import { freePort, startProductionApp, waitFor } from "./production-app";
 
@@ -131,18 +131,7 @@ export async function runSpeedBench() {
 
     // POST /api/analyses with the 8 methods at 50 connections, each form against a bare Express route answering the
     // same JSON the same way (gzip through the `compression` middleware at the app's levels).
-    const ramp = Array.from({ length: 64 }, (_, i) => 1 + i / 2);
-    const analysis = {
-      model: { headDim: 128, ropeTheta: 500000, trainedContext: 8192 },
-      targetContext: 1_048_576,
-      methods: METHOD_IDS.map((m) =>
-        m === "longrope"
-          ? { method: m, longFactor: ramp, shortFactor: ramp.map(() => 1) }
-          : m === "base"
-            ? { method: m, base: 5e7 }
-            : { method: m },
-      ),
-    };
+    const analysis = everyMethodQuestion();
     // Three ways of asking: the row form with a new question each time (every answer computed: what every request
     // cost before answers were kept and the column form existed), the column form with new questions, and the
     // column form asked the same question again (a kept answer).
