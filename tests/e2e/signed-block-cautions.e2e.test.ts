@@ -9,8 +9,9 @@ import {
   LAYERED_SECTIONS,
   ntkThenLinearRevision,
   rewriteStoredContent,
+  submittedPlan,
 } from "../setup/frozen-sections";
-import { decide, post } from "../setup/plans";
+import { decide } from "../setup/plans";
 import { startTestServer } from "../setup/server";
 import { signedInPages } from "../setup/signed-in";
 
@@ -50,15 +51,8 @@ const nulled = (b: Block) => ({ ...b, patch: { ...b.patch, rope_scaling: null } 
 async function oldSignedPlan() {
   const researcher = await agentAs(["researcher"]);
   const approver = await agentAs(["approver"]);
-  const created = await post(researcher, "/api/plans", {
-    title: `Old signed blocks ${Math.random().toString(36).slice(2, 7)}`,
-    modelId: await importSectionedModel(researcher, LAYERED_SECTIONS, "Notices"),
-    revision: ntkThenLinearRevision(),
-  });
-  expect(created.status, JSON.stringify(created.body)).toBe(201);
-  const id = created.body.id as number;
-  const base = `/api/plans/${id}/revisions/1`;
-  await post(researcher, `${base}/submit`).expect(200);
+  const modelId = await importSectionedModel(researcher, LAYERED_SECTIONS, "Notices");
+  const { id, base } = await submittedPlan(researcher, modelId, ntkThenLinearRevision(), "Old signed blocks");
   await rewriteStoredContent(id, (stored) => {
     const [s1, s2] = stored.results.stages as Block[];
     return {

@@ -3,7 +3,7 @@ import { hashContent } from "../../server/features/plans/revision-content";
 import type { Agent } from "./app";
 import { ownerTestDb } from "./db";
 import { configFixture } from "./import-config";
-import { twoStageRevision } from "./plans";
+import { createPlan, post, twoStageRevision } from "./plans";
 
 /*
  * Shared by the tests of signed blocks that lack a multimodal model's sections (issue 11): tests/api/plans/
@@ -49,6 +49,17 @@ export const ntkThenLinearRevision = () => {
     acceptance: [{ ...r.acceptance[0], contextLength: 131072 }],
   };
 };
+
+/** A plan titled `<title> <random>` on the model with `revision`, sent to inspection; answers its id and revision 1's path. */
+export async function submittedPlan(researcher: Agent, modelId: number, revision: object, title: string) {
+  const { id } = await createPlan(researcher, modelId, {
+    title: `${title} ${Math.random().toString(36).slice(2, 7)}`,
+    revision,
+  });
+  const base = `/api/plans/${id}/revisions/1`;
+  await post(researcher, `${base}/submit`).expect(200);
+  return { id, base };
+}
 
 /**
  * "Ages" the plan's one stored revision to what an older engine froze: `transform` answers the old content (with its

@@ -7,8 +7,9 @@ import {
   importSectionedModel,
   LAYERED_SECTIONS,
   rewriteStoredContent,
+  submittedPlan,
 } from "../../setup/frozen-sections";
-import { decide, post } from "../../setup/plans";
+import { decide } from "../../setup/plans";
 
 /*
  * Layer-group blocks of a layered multimodal model signed before they carried the sections (issue 11). Every export of
@@ -46,14 +47,9 @@ async function signedOld(
   method: "ntk" | "linear",
   age: (stored: { results: { final: { patch: Patch }; groups: Group[] } }) => { engineVersion: string },
 ) {
-  const created = await post(researcher, "/api/plans", {
-    title: `Group cautions ${Math.random().toString(36).slice(2, 7)}`,
-    modelId: await importSectionedModel(researcher, LAYERED_SECTIONS, "GrpSect"),
-    revision: { targetContext: 131072, method: { method } },
-  }).expect(201);
-  const id = created.body.id as number;
-  const base = `/api/plans/${id}/revisions/1`;
-  await post(researcher, `${base}/submit`).expect(200);
+  const modelId = await importSectionedModel(researcher, LAYERED_SECTIONS, "GrpSect");
+  const revision = { targetContext: 131072, method: { method } };
+  const { id, base } = await submittedPlan(researcher, modelId, revision, "Group cautions");
   const fresh = revisionResponseSchema.parse((await researcher.get(base).expect(200)).body);
   expect(fresh.blockCautions).toEqual([]);
 

@@ -6,8 +6,9 @@ import {
   importSectionedModel,
   ntkThenLinearRevision,
   rewriteStoredContent,
+  submittedPlan,
 } from "../../setup/frozen-sections";
-import { decide, post } from "../../setup/plans";
+import { decide } from "../../setup/plans";
 
 /*
  * Stage blocks of a revision signed before blocks carried multimodal sections (issue 11): each stage hands out its own
@@ -24,15 +25,8 @@ describe("stage blocks signed without the model's sections", () => {
     const researcher = await agentAs(["researcher"]);
     const approver = await agentAs(["approver"]);
     const modelId = await importSectionedModel(researcher, CONTIGUOUS_SECTIONS, "Stages");
-    const created = await post(researcher, "/api/plans", {
-      title: `Stage sections ${Math.random().toString(36).slice(2, 7)}`,
-      modelId,
-      // Trained 32 768: stage 1 moves the base to 65 536 (NTK), stage 2 and the plan target stretch to 131 072 (s = 4).
-      revision: ntkThenLinearRevision(),
-    }).expect(201);
-    const id = created.body.id as number;
-    const base = `/api/plans/${id}/revisions/1`;
-    await post(researcher, `${base}/submit`).expect(200);
+    // Trained 32 768: stage 1 moves the base to 65 536 (NTK), stage 2 and the plan target stretch to 131 072 (s = 4).
+    const { id, base } = await submittedPlan(researcher, modelId, ntkThenLinearRevision(), "Stage sections");
 
     // A new revision's every block carries the sections: nothing to say on the page.
     const fresh = revisionResponseSchema.parse((await researcher.get(base).expect(200)).body);

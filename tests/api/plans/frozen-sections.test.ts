@@ -10,6 +10,7 @@ import {
   fixtureBytes,
   importSectionedModel,
   rewriteStoredContent,
+  submittedPlan,
 } from "../../setup/frozen-sections";
 import { decide, post } from "../../setup/plans";
 
@@ -27,16 +28,8 @@ const SECTIONS = [16, 24, 24];
 const sectionedModel = (a: Agent) => importSectionedModel(a, CONTIGUOUS_SECTIONS, "Sections");
 
 /** A plan with one method, sent to inspection; answers its id and revision path. */
-async function submitted(researcher: Agent, modelId: number, method: Record<string, unknown>) {
-  const created = await post(researcher, "/api/plans", {
-    title: `Sections ${Math.random().toString(36).slice(2, 7)}`,
-    modelId,
-    revision: { targetContext: 131072, method },
-  }).expect(201);
-  const base = `/api/plans/${created.body.id}/revisions/1`;
-  await post(researcher, `${base}/submit`).expect(200);
-  return { id: created.body.id as number, base };
-}
+const submitted = (researcher: Agent, modelId: number, method: Record<string, unknown>) =>
+  submittedPlan(researcher, modelId, { targetContext: 131072, method }, "Sections");
 
 const exported = async (a: Agent, url: string) => exportEnvelopeSchema.parse((await a.get(url).expect(200)).body);
 
