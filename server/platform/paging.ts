@@ -48,6 +48,13 @@ export interface KeysetCursor {
 export const encodeCursor = (c: KeysetCursor) =>
   Buffer.from(JSON.stringify([c.order, c.key, c.id]), "utf8").toString("base64url");
 
+/** Row ids are PostgreSQL `integer`s (serial): a larger one fails the cursor's cast in the database. */
+const MAX_ROW_ID = 2 ** 31 - 1;
+
+/** The 400 for a cursor token this list could not have given out. */
+export const notOurCursor = (field: string) =>
+  new Invalid(`${field}: not a cursor this list gave out`, { [field]: "not a cursor this list gave out" });
+
 /** The cursor behind `token`, or a 400 naming `field` when it is not one this list gave out for `order`. */
 export function decodeCursor(token: string, order: string, field: string): KeysetCursor {
   let parts: unknown;
@@ -62,9 +69,10 @@ export function decodeCursor(token: string, order: string, field: string): Keyse
     typeof parts[0] !== "string" ||
     typeof parts[1] !== "string" ||
     !Number.isSafeInteger(parts[2]) ||
-    (parts[2] as number) < 1
+    (parts[2] as number) < 1 ||
+    (parts[2] as number) > MAX_ROW_ID
   )
-    throw new Invalid(`${field}: not a cursor this list gave out`, { [field]: "not a cursor this list gave out" });
+    throw notOurCursor(field);
   if (parts[0] !== order)
     throw new Invalid(`${field}: the cursor was read under another sort order; start again from page 1`, {
       [field]: "read under another sort order",

@@ -12,6 +12,7 @@ import {
   deepestNumberedPage,
   encodeCursor,
   keysetAfter,
+  notOurCursor,
   TOTAL_CAP,
 } from "../../platform/paging";
 
@@ -37,6 +38,16 @@ const cursorText = (sort: Query["sort"]) => {
   return sql.raw(type === "timestamptz" ? `to_char(${key} AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.US"Z"')` : key);
 };
 
+/**
+ * Whether a cursor's timestamp key is one cursorText could have written (UTC, to the microsecond, a real calendar
+ * time): anything else would fail its cast in the database. The round trip through Date refuses 30 February, which
+ * Date.parse alone rolls over.
+ */
+const isCursorTimestamp = (key: string) =>
+  /^[1-9]\d{3}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}\.\d{6}Z$/.test(key) &&
+  !Number.isNaN(Date.parse(key)) &&
+  new Date(Date.parse(key)).toISOString().slice(0, 19) === key.slice(0, 19);
+
 /** The order a cursor belongs to: the sort key and direction. */
 const orderName = (q: Query) => `${q.sort}.${q.dir}`;
 
@@ -50,6 +61,7 @@ function cursorBound(q: Query): SQL {
   const field = q.after ? "after" : "before";
   const c = decodeCursor(token, orderName(q), field);
   const { key, type } = SORT[q.sort];
+  if ((type === "timestamptz" && !isCursorTimestamp(c.key)) || c.key.includes("\u0000")) throw notOurCursor(field);
   const value = type === "timestamptz" ? sql`${c.key}::timestamptz` : sql`${c.key}::text`;
   // Rows before the cursor in the list's order are the rows after it in the opposite order.
   const dir = q.after ? q.dir : q.dir === "asc" ? "desc" : "asc";

@@ -506,6 +506,30 @@ describe("plan list keyset paging", () => {
         expect(r.body.error.fields[field], bad).toBeTruthy();
       }
   });
+
+  it("refuses a well-formed token whose key or id the database could not read, as a 400, never a 500", async () => {
+    const researcher = await agentAs(["researcher"]);
+    const token = (order: string, key: string, id: number) =>
+      Buffer.from(JSON.stringify([order, key, id]), "utf8").toString("base64url");
+    // Each would fail its cast in PostgreSQL (a month 13, 30 February, year 0, a NUL byte in text, an id past int4).
+    const forged = [
+      ["updatedAt.desc", "2026-13-01T00:00:00.000000Z", 1],
+      ["updatedAt.desc", "2026-02-30T00:00:00.000000Z", 1],
+      ["createdAt.asc", "0000-01-01T00:00:00.000000Z", 1],
+      ["updatedAt.desc", "yesterday", 1],
+      ["title.asc", "a\u0000b", 1],
+      ["title.asc", "a", 2 ** 31],
+    ] as const;
+    for (const [order, key, id] of forged) {
+      const [sort, dir] = order.split(".");
+      const r = await researcher.get(`/api/plans?sort=${sort}&dir=${dir}&after=${token(order, key, id)}`);
+      expect(r.status, `${order} ${key} ${id}`).toBe(400);
+      expect(r.body.error.fields.after).toBe("not a cursor this list gave out");
+    }
+    // The shape cursorText writes is read back.
+    const good = token("updatedAt.desc", "2026-02-28T23:59:59.999999Z", 1);
+    await researcher.get(`/api/plans?sort=updatedAt&dir=desc&after=${good}`).expect(200);
+  });
 });
 
 describe("capped totals", () => {
