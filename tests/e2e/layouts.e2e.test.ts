@@ -58,7 +58,7 @@ describe("a layered model from import to an approved export", () => {
 
     // The workbench analyses one group at a time; it opens on the group plans scale (full attention, base 1e6).
     await page.getByRole("link", { name: "Open in the workbench" }).click();
-    const picker = page.getByLabel("Layer group");
+    const picker = page.getByRole("combobox", { name: "Layer group", exact: true });
     await picker.waitFor();
     expect(await picker.inputValue()).toBe("full_attention");
     const status = page.getByTestId("analysis-status");
