@@ -79,19 +79,34 @@ export async function targetBlock(deps: AppDeps, modelId: number, content: Revis
   };
 }
 
-/** The stacks whose rigging of the block (compiled for the model's own file) keeps the sections. */
-async function keepingTargets(deps: AppDeps, modelId: number, request: ReturnType<typeof signedBlock>["request"]) {
-  return stacksKeepingSections({ ...request, config: await sourceConfig(deps, modelId) });
+/**
+ * The stacks whose rigging of a block (compiled for the model's own file) keeps the sections, for one call: the file is
+ * read once and each block's stacks asked once, however many of the revision's blocks lack the sections (the plan
+ * target's request serves both its own caution and the groups').
+ */
+function stacksAsker(deps: AppDeps, modelId: number, content: RevisionContent) {
+  let config: ReturnType<typeof sourceConfig> | undefined;
+  const asked = new Map<number | undefined, Promise<TargetId[]>>();
+  return (stage: number | undefined) => {
+    let stacks = asked.get(stage);
+    if (!stacks) {
+      stacks = (async () =>
+        stacksKeepingSections({
+          ...signedBlock(content, stage).request,
+          config: await (config ??= sourceConfig(deps, modelId)),
+        }))();
+      asked.set(stage, stacks);
+    }
+    return stacks;
+  };
 }
+type StacksAsker = ReturnType<typeof stacksAsker>;
 
 /** The cautions of one block's own config: the plan target's, or stage n's. */
-async function ownBlockCautions(deps: AppDeps, modelId: number, content: RevisionContent, stage?: number) {
-  const { result, request } = signedBlock(content, stage);
+async function ownBlockCautions(content: RevisionContent, stage: number | undefined, stacks: StacksAsker) {
+  const { result } = signedBlock(content, stage);
   if (!missingSectionKeys(content.model, result.patch).length) return [];
-  return frozenBlockCautions(content.model, result.patch, {
-    stage,
-    keepingTargets: await keepingTargets(deps, modelId, request),
-  });
+  return frozenBlockCautions(content.model, result.patch, { stage, keepingTargets: await stacks(stage) });
 }
 
 /**
@@ -99,11 +114,10 @@ async function ownBlockCautions(deps: AppDeps, modelId: number, content: Revisio
  * built from them): every export of the revision carries them, whichever block it is for. Rigging for a stack compiles
  * every group with the plan target's request, so the stacks offered are that request's.
  */
-async function groupCautions(deps: AppDeps, modelId: number, content: RevisionContent): Promise<BlockCaution[]> {
+async function groupCautions(content: RevisionContent, stacks: StacksAsker): Promise<BlockCaution[]> {
   const groups = content.results.groups;
   if (!groupsLackingSections(content.model, groups).length) return [];
-  const keeping = await keepingTargets(deps, modelId, signedBlock(content, undefined).request);
-  return groupBlockCautions(content.model, groups, keeping);
+  return groupBlockCautions(content.model, groups, await stacks(undefined));
 }
 
 /**
@@ -118,10 +132,8 @@ export async function blockCautions(
   content: RevisionContent,
   stage?: number,
 ): Promise<BlockCaution[]> {
-  const [own, groups] = await Promise.all([
-    ownBlockCautions(deps, modelId, content, stage),
-    groupCautions(deps, modelId, content),
-  ]);
+  const stacks = stacksAsker(deps, modelId, content);
+  const [own, groups] = await Promise.all([ownBlockCautions(content, stage, stacks), groupCautions(content, stacks)]);
   return [...own, ...groups];
 }
 
@@ -135,9 +147,10 @@ export async function revisionBlockCautions(
   content: RevisionContent,
 ): Promise<ScopedBlockCaution[]> {
   const scopes = [undefined, ...content.stages.map((_, i) => i + 1)];
+  const stacks = stacksAsker(deps, modelId, content);
   const [each, groups] = await Promise.all([
-    Promise.all(scopes.map((stage) => ownBlockCautions(deps, modelId, content, stage))),
-    groupCautions(deps, modelId, content),
+    Promise.all(scopes.map((stage) => ownBlockCautions(content, stage, stacks))),
+    groupCautions(content, stacks),
   ]);
   return [
     ...each.flatMap((cautions, i) => cautions.map((c) => ({ stage: scopes[i] ?? null, ...c }))),
