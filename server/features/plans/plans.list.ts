@@ -184,6 +184,12 @@ const nextAfter = (q: Query, rows: PlanListRow[]) => {
   return rows.length === q.pageSize && last ? cursorOf(q, last) : null;
 };
 
+/** A page as read, answered: without the row read past a previous page's start, with the cursors on either side. */
+function withCursors(q: Query, read: PlanListRow[]) {
+  const { rows, more } = trimmed(q, read);
+  return { rows, nextAfter: nextAfter(q, rows), prevBefore: prevBefore(q, rows, more) };
+}
+
 /** One page of plans with the stored latest state: the page is chosen first, names are joined to its rows only. */
 export function planPageStatement(q: Query): SQL {
   const { order, pick, sortJoin, after, limit } = pageOrder(q);
@@ -213,8 +219,7 @@ export async function listPlansCounted(ex: Executor, q: Query) {
   checkPageRequest(q);
   if (!q.q) {
     const [read, count] = await Promise.all([listPlanPage(ex, q), countPlans(ex, q)]);
-    const { rows, more } = trimmed(q, read);
-    return { rows, count, nextAfter: nextAfter(q, rows), prevBefore: prevBefore(q, rows, more) };
+    return { ...withCursors(q, read), count };
   }
   const { order, pick, sortJoin, after, limit } = pageOrder(q);
   const res = await ex.execute<PlanListRow & { match_count: number }>(sql`
@@ -226,15 +231,14 @@ export async function listPlansCounted(ex: Executor, q: Query) {
       ORDER BY ${pick} ${limit})
     ${pageColumns(q)}, counted.n AS match_count ${pageJoins} CROSS JOIN counted
     ORDER BY ${order}`);
-  const { rows, more } = trimmed(
+  const page = withCursors(
     q,
     res.rows.map(({ match_count: _, ...r }) => r),
   );
-  const cursors = { nextAfter: nextAfter(q, rows), prevBefore: prevBefore(q, rows, more) };
-  if (res.rows.length > 0) return { rows, count: cappedTotal(res.rows[0]!.match_count), ...cursors };
+  if (res.rows.length > 0) return { ...page, count: cappedTotal(res.rows[0]!.match_count) };
   // An empty first page means nothing matched; an empty later page says nothing of the total, so count apart.
   const first = q.page === 1 && !q.after && !q.before;
-  return { rows, count: first ? cappedTotal(0) : await countPlans(ex, q), ...cursors };
+  return { ...page, count: first ? cappedTotal(0) : await countPlans(ex, q) };
 }
 
 /** The review queue's rows: in review, not this approver's own, not yet decided by them this round. */
