@@ -26,6 +26,18 @@ export function sectionKeysOf(block: unknown): Record<string, unknown> | null {
   for (const k of MROPE_KEYS) if (k in block) out[k] = (block as Record<string, unknown>)[k];
   return Object.keys(out).length ? out : null;
 }
+/**
+ * The sections a config block holds, as numbers, with its layout flag: null when the block is not an object or has no
+ * numeric `mrope_section`.
+ */
+export function blockSections(block: unknown): { section: number[]; interleaved: boolean } | null {
+  if (typeof block !== "object" || block === null || Array.isArray(block)) return null;
+  const b = block as Record<string, unknown>;
+  const s = b.mrope_section;
+  if (!Array.isArray(s) || !s.every((n) => typeof n === "number")) return null;
+  return { section: s as number[], interleaved: b.mrope_interleaved === true };
+}
+
 export type MropeAxis = (typeof MROPE_AXES)[number];
 
 /** The axis of each of `pairs` rotary pairs; null for a pair the sections do not reach (their sum falls short). */

@@ -1,7 +1,7 @@
 import type { CompileInput, CompileResult, ConsumerReading, ExportTarget, TargetArtifact } from "./types";
 import { explicitYarnAttention, factorOf, headSize, paramsOf, resolvePlan } from "./engines/plan-facts";
 import { isObj, numberOr } from "../../../shared/json-values";
-import { sectionKeysOf } from "../../../shared/mrope-axes";
+import { blockSections, sectionKeysOf } from "../../../shared/mrope-axes";
 import { argsOf, compactJson, flagValue, launchArtifact, parseJsonArgument } from "./engines/launch-text";
 import { derivedContextLength } from "./engines/sglang-config";
 import { unsectionedTypeRefusal } from "./engines/multimodal-types";
@@ -108,9 +108,9 @@ const SECTIONED_TYPES = ["default", "yarn"];
  * pairs' axes are then not the config's.
  */
 function sectionSumWarning(block: Record<string, unknown> | null, d: number): string | null {
-  const s = block?.mrope_section;
-  if (!Array.isArray(s) || !s.every((n) => typeof n === "number")) return null;
-  const sum = (s as number[]).reduce((a, b) => a + b, 0);
+  const s = blockSections(block)?.section;
+  if (!s) return null;
+  const sum = s.reduce((a, b) => a + b, 0);
   return sum === d / 2
     ? null
     : `SGLang rescales mrope_section ${JSON.stringify(s)} (sum ${sum}) to sum to ${d / 2} at load, so its pairs' axes are not the config's`;

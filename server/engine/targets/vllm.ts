@@ -1,7 +1,7 @@
 import type { CompileInput, CompileResult, ConsumerReading, ExportTarget, TargetArtifact } from "./types";
 import { explicitYarnAttention, factorOf, headSize, paramsOf, resolvePlan } from "./engines/plan-facts";
 import { numberOr } from "../../../shared/json-values";
-import { sectionKeysOf } from "../../../shared/mrope-axes";
+import { blockSections, sectionKeysOf } from "../../../shared/mrope-axes";
 import { argsOf, compactJson, flagValue, launchArtifact, parseJsonArgument } from "./engines/launch-text";
 import { derivedMaxModelLen, vllmRopeParameters } from "./engines/vllm-config";
 import { unsectionedTypeRefusal } from "./engines/multimodal-types";
@@ -113,13 +113,6 @@ const SECTIONED_TYPES = ["default", "yarn"];
  */
 export const VLLM_MROPE_POSITIONS_FACTOR = 4;
 
-/** The multimodal sections of a block, when it has them: the pairs per axis and the layout flag. */
-function sectionsOf(block: Record<string, unknown>): { section: number[]; interleaved: boolean } | null {
-  const s = block.mrope_section;
-  if (!Array.isArray(s) || !s.every((n) => typeof n === "number")) return null;
-  return { section: s as number[], interleaved: block.mrope_interleaved === true };
-}
-
 /** mrope.py (dba39a5, 055e47c) asserts the sections cover every rotating pair; anything else stops vLLM at load. */
 function sectionSumProblem(section: number[], d: number): string | null {
   const sum = section.reduce((a, b) => a + b, 0);
@@ -134,7 +127,7 @@ function compile(input: CompileInput): CompileResult {
   // from rope_parameters; the 4.x-era config keeps them in rope_scaling).
   const sections = sectionKeysOf(input.config.rope_parameters) ?? sectionKeysOf(input.config.rope_scaling);
   if (sections) Object.assign(block, sections);
-  const sectioned = sections ? sectionsOf(block) : null;
+  const sectioned = sections ? blockSections(block) : null;
   if (sectioned && block.rope_type === "yarn") {
     // The multimodal class builds the ramp from 4 × the original length: β × 4 gives the plan's ramp ends back, and
     // its magnitude is g(s) × attn_factor (VLLM_MROPE_POSITIONS_FACTOR).
@@ -214,7 +207,7 @@ function read(config: Record<string, unknown>, artifact: TargetArtifact): Consum
   });
   switch (type) {
     case "default": {
-      const mm = sectionsOf(rp);
+      const mm = blockSections(rp);
       const problem = mm && sectionSumProblem(mm.section, d);
       if (problem) throw new Error(problem);
       return reading(plainInvFreq(d, base), 1, null);
@@ -234,7 +227,7 @@ function read(config: Record<string, unknown>, artifact: TargetArtifact): Consum
     case "yarn": {
       const f = need("factor");
       const L = need("original_max_position_embeddings");
-      const mm = sectionsOf(rp);
+      const mm = blockSections(rp);
       if (mm) {
         // The multimodal class (VLLM_MROPE_POSITIONS_FACTOR): ramp from 4 × L, magnitude g(s) × attn_factor only.
         const problem = sectionSumProblem(mm.section, d);

@@ -1,5 +1,6 @@
 import { headSize } from "./plan-facts";
 import { isObj, numberOr } from "../../../../shared/json-values";
+import { blockSections } from "../../../../shared/mrope-axes";
 
 /**
  * GGUF side of the llama.cpp target: the architecture prefix of the metadata keys, the rope metadata the converter
@@ -40,14 +41,7 @@ export const SECTIONED_ARCHS: Readonly<Record<string, "contiguous" | "interleave
 
 /** The model's multimodal sections (in its scaling block, either spelling), or null. */
 export function configSections(config: Record<string, unknown>): { section: number[]; interleaved: boolean } | null {
-  for (const block of [config.rope_parameters, config.rope_scaling]) {
-    if (!isObj(block)) continue;
-    const s = block.mrope_section;
-    if (Array.isArray(s) && s.every((n) => typeof n === "number")) {
-      return { section: s as number[], interleaved: block.mrope_interleaved === true };
-    }
-  }
-  return null;
+  return blockSections(config.rope_parameters) ?? blockSections(config.rope_scaling);
 }
 
 /**
