@@ -143,7 +143,8 @@ describe("evidence and proof in the browser", () => {
     await form.getByText(/^Stored passkey\.csv as evidence #\d+: 9 rows/).waitFor();
 
     const heatmap = section.getByTestId("heatmap-passkey");
-    await heatmap.waitFor();
+    // the figure is in the page before visx ParentSize has measured it (debounced 50 ms); its svg comes once it has a width
+    await heatmap.locator("svg[role=img]").waitFor({ timeout: 20_000 });
     expect(await heatmap.locator("rect[data-cell]").count()).toBe(9);
     // the chart takes its figure's width (visx ParentSize), whatever the panel's width is
     const [figure, drawn] = await Promise.all([heatmap.boundingBox(), heatmap.locator("svg").first().boundingBox()]);
@@ -168,8 +169,8 @@ describe("evidence and proof in the browser", () => {
   it("on a 390 px screen the heatmap fits the width", async () => {
     const page = await signedIn(researcher, `/plans/${planId}`, 390);
     const heatmap = page.getByTestId("heatmap-passkey");
-    await heatmap.waitFor({ timeout: 20_000 });
-    const svg = (await heatmap.locator("svg").first().boundingBox())!;
+    await heatmap.locator("svg[role=img]").waitFor({ timeout: 20_000 });
+    const svg = (await heatmap.locator("svg[role=img]").boundingBox())!;
     expect(svg.x).toBeGreaterThanOrEqual(0);
     expect(svg.x + svg.width).toBeLessThanOrEqual(390);
     await sectionShot(page, page.getByTestId("evidence-section"), "evidence-heatmap-390");
