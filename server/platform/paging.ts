@@ -28,6 +28,20 @@ export const containsPattern = (q: string) => `%${q.replace(/[\\%_]/g, (c) => `\
  */
 export const deepestNumberedPage = (pageSize: number, cap = TOTAL_CAP) => Math.ceil(cap / pageSize);
 
+/**
+ * A page number the list answers by OFFSET, or a 400 naming `page` past deepestNumberedPage. `noun` names the list's rows
+ * and `readOn` how to go deeper by the list's keyset cursor, for the message. Lists call it only when no cursor is given
+ * (with one the number only labels the page).
+ */
+export function checkNumberedPage(page: number, pageSize: number, noun: string, readOn: string) {
+  const deepest = deepestNumberedPage(pageSize);
+  if (page > deepest)
+    throw new Invalid(
+      `page: pages by number stop at ${deepest} (${TOTAL_CAP} ${noun} at ${pageSize} a page); read on with ${readOn}`,
+      { page: `at most ${deepest} without a cursor` },
+    );
+}
+
 /** A page request in rows: `page` counts from 1. */
 export const pageWindow = (page: number, pageSize: number) => ({ limit: pageSize, offset: (page - 1) * pageSize });
 

@@ -4,7 +4,11 @@ import { dbIdParam, MAX_DB_ID, pagedTotal } from "./common";
 export const auditQuerySchema = z.object({
   page: z.coerce.number().int().min(1).max(MAX_DB_ID).default(1),
   pageSize: z.coerce.number().int().min(1).max(200).default(50),
-  /** Keyset paging: events older than this id (the previous page's `nextBefore`); `page` then only labels the page. */
+  /**
+   * Keyset paging: events older than this id (the previous page's `nextBefore`, or the shown page's `prevBefore`); `page`
+   * then only labels the page. Without it `page` is an OFFSET, answered up to ceil(10 000 / pageSize) (a 400 naming
+   * `page` beyond: server/platform/paging.ts checkNumberedPage).
+   */
   before: dbIdParam.optional(),
   action: z.string().max(80).optional(),
   actorId: dbIdParam.optional(),
@@ -48,6 +52,11 @@ export const auditPageSchema = z.object({
   ...pagedTotal,
   /** Pass as `before` for the next page: keyset paging, as cheap at any depth (null on the last page). */
   nextBefore: z.number().nullable(),
+  /**
+   * Pass as `before` for the page above (newer events): keyset paging backwards, so "Previous page" works at any depth,
+   * where a page number is answered only up to the capped total. Null when the page above is the first (no cursor).
+   */
+  prevBefore: z.number().nullable(),
   page: z.number(),
   pageSize: z.number(),
   events: z.array(auditEventSchema),

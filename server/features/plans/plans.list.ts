@@ -8,8 +8,8 @@ import {
   cappedCount,
   cappedTotal,
   containsPattern,
+  checkNumberedPage,
   decodeCursor,
-  deepestNumberedPage,
   encodeCursor,
   keysetAfter,
   notOurCursor,
@@ -70,19 +70,14 @@ function cursorBound(q: Query): SQL {
 
 /**
  * A request the list answers within its bound, or a 400 naming the field: both cursors at once, or a page number past
- * the deepest one an OFFSET serves (deepestNumberedPage; deeper pages are reached by cursor).
+ * the deepest one an OFFSET serves (checkNumberedPage; deeper pages are reached by cursor).
  */
 export function checkPageRequest(q: Query) {
   if (q.after && q.before)
     throw new Invalid("before: give after (next page) or before (previous page), not both", {
       before: "not with after",
     });
-  const deepest = deepestNumberedPage(q.pageSize);
-  if (!q.after && !q.before && q.page > deepest)
-    throw new Invalid(
-      `page: pages by number stop at ${deepest} (${TOTAL_CAP} plans at ${q.pageSize} a page); read on with the page's nextAfter as after`,
-      { page: `at most ${deepest} without a cursor` },
-    );
+  if (!q.after && !q.before) checkNumberedPage(q.page, q.pageSize, "plans", "the page's nextAfter as after");
 }
 
 export type PlanListRow = {

@@ -53,13 +53,13 @@ export function AuditRoute() {
             pageSize={params.pageSize ?? DEFAULT_PAGE_SIZE}
             total={page.data.total}
             totalCapped={page.data.totalCapped}
-            // The next page follows the server's cursor (as cheap at any depth); other moves go by page number.
-            onPage={(p) =>
-              update({
-                page: p,
-                before: p === page.data.page + 1 && page.data.nextBefore ? page.data.nextBefore : undefined,
-              })
-            }
+            // Next and previous follow the server's cursors (as cheap at any depth, where a page number is an OFFSET
+            // the server answers only for the first pages); page 1 is the top of the trail, without one.
+            onPage={(p) => {
+              const next = p === page.data.page + 1 ? page.data.nextBefore : null;
+              const prev = p === page.data.page - 1 && p > 1 ? page.data.prevBefore : null;
+              update({ page: p, before: next ?? prev ?? undefined });
+            }}
             noun="Events"
           />
         </div>
