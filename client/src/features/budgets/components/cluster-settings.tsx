@@ -2,7 +2,7 @@ import { useId } from "react";
 import type { Accelerator, BudgetEstimateResponse } from "@shared/schemas/budget";
 import { formatBytes, formatMoney, sig3, TFLOPS } from "@/lib/format";
 import { EXAMPLE_CLUSTER, type ClusterDraft, type Convention, type SettingsDraft } from "../lib/sheet-draft";
-import { Radio } from "./radio";
+import { Radio } from "@/components/radio";
 import { MemorySettings } from "./memory-settings";
 import { SheetFieldRow, type SheetField } from "./sheet-input";
 import { ChoiceField } from "@/components/field";

@@ -1,7 +1,7 @@
 import { useId } from "react";
 import type { ActivationCheckpointing } from "@shared/schemas/budget";
 import type { SettingsDraft } from "../lib/sheet-draft";
-import { RadioColumn } from "./radio";
+import { RadioColumn } from "@/components/radio";
 import { SheetFieldRow, type SheetField } from "./sheet-input";
 
 type Props = {

@@ -3,7 +3,7 @@ import { useId } from "react";
 import { formatCount } from "@/lib/format";
 import type { ModelProfile } from "@shared/schemas/models";
 import { emptyShape, type ModelDraft, type ShapeField } from "../lib/model-draft";
-import { Radio } from "./radio";
+import { Radio } from "@/components/radio";
 import { SheetInput } from "./sheet-input";
 import { ChoiceField } from "@/components/field";
 
