@@ -1,10 +1,11 @@
 import { useRef, useState } from "react";
-import { useForm, useWatch } from "react-hook-form";
+import { Controller, useForm, useWatch } from "react-hook-form";
 import { formResolver } from "@/lib/form-resolver";
 import { z } from "zod";
 import { PROOF_STATES, type ProofState } from "@shared/schemas/evidence-api";
 import { Button, SubmitButton } from "@/components/button";
 import { TextAreaField } from "@/components/field";
+import { RadioColumn } from "@/components/radio";
 import { Notice } from "@/components/notice";
 import { isApiError } from "@/lib/api-client";
 import { useModalOnMount } from "@/lib/use-modal-on-mount";
@@ -91,26 +92,28 @@ export function ProofDialog({ target, onClose, onDecided }: Props) {
           </p>
         </div>
         {error && <Notice tone="alert">{error}</Notice>}
-        <fieldset className="flex flex-col gap-2">
-          <legend className="mb-1 text-note font-semibold">Verdict</legend>
-          <label className={`inline-flex items-center gap-2 text-body ${target.allPass ? "" : "text-ink-soft"}`}>
-            <input
-              type="radio"
-              value="proven"
-              disabled={!target.allPass}
-              className="size-4 accent-hemp"
-              {...register("verdict")}
+        <Controller
+          control={control}
+          name="verdict"
+          render={({ field }) => (
+            <RadioColumn
+              name={field.name}
+              title="Verdict"
+              options={[
+                {
+                  value: "proven",
+                  label: "Proven: every criterion holds on this evidence",
+                  // Proven is open only when every criterion passes on the evidence shown.
+                  disabled: !target.allPass,
+                  description: target.allPass ? undefined : `Not open: criteria ${target.open} do not hold yet.`,
+                },
+                { value: "unproven", label: "Not proven: the evaluations fall short" },
+              ]}
+              value={field.value}
+              onChange={field.onChange}
             />
-            Proven: every criterion holds on this evidence
-          </label>
-          {!target.allPass && (
-            <p className="pl-6 text-note text-ink-soft">Not open: criteria {target.open} do not hold yet.</p>
           )}
-          <label className="inline-flex items-center gap-2 text-body">
-            <input type="radio" value="unproven" className="size-4 accent-hemp" {...register("verdict")} /> Not proven:
-            the evaluations fall short
-          </label>
-        </fieldset>
+        />
         <TextAreaField
           label={verdict === "proven" ? "Comment (optional)" : "Why it is not proven"}
           rows={3}

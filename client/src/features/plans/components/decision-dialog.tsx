@@ -1,11 +1,12 @@
 import { useRef, useState } from "react";
-import { useForm, useWatch } from "react-hook-form";
+import { Controller, useForm, useWatch } from "react-hook-form";
 import { useQuery } from "@tanstack/react-query";
 import { formResolver } from "@/lib/form-resolver";
 import { decisionRequestSchema } from "@shared/schemas/plans";
 import { DECISION_WORDS, STATE_WORDS, passesText } from "@shared/review-words";
 import { Button, SubmitButton } from "@/components/button";
 import { Field } from "@/components/field";
+import { RadioColumn, type RadioOption } from "@/components/radio";
 import { Notice } from "@/components/notice";
 import { isApiError } from "@/lib/api-client";
 import { ExportTargets } from "@/components/export-targets";
@@ -31,6 +32,15 @@ const decisionFormSchema = decisionRequestSchema
     path: ["comment"],
     message: "Say what to re-lay before sending it back.",
   });
+
+/** The two findings, in the review words (shared/review-words.ts). */
+const FINDINGS: RadioOption<"approve" | "request_changes">[] = [
+  { value: "approve", label: `${DECISION_WORDS.approve.verb}: the plan is sound to tune with` },
+  {
+    value: "request_changes",
+    label: `${DECISION_WORDS.request_changes.verb}: its author lays a new revision with what you note`,
+  },
+];
 
 type DecisionDialogProps = { target: DecisionTarget; onClose: () => void; onDecided: (state: string) => void };
 
@@ -107,27 +117,20 @@ export function DecisionDialog({ target, onClose, onDecided }: DecisionDialogPro
           <ExportTargets request={revision.data ? exportRequestOf(revision.data.content) : null} matrixOnly />
         </section>
         {error && <Notice tone="alert">{error}</Notice>}
-        <fieldset className="flex flex-col gap-2">
-          <legend className="mb-1 text-note font-semibold">Your finding</legend>
-          <label className="inline-flex items-start gap-2 text-body">
-            <input
-              type="radio"
-              value="approve"
-              className="mt-1 size-4 shrink-0 accent-hemp"
-              {...register("decision")}
+        <Controller
+          control={control}
+          name="decision"
+          render={({ field }) => (
+            <RadioColumn
+              name={field.name}
+              title="Your finding"
+              options={FINDINGS}
+              value={field.value}
+              onChange={field.onChange}
+              align="start"
             />
-            <span>{DECISION_WORDS.approve.verb}: the plan is sound to tune with</span>
-          </label>
-          <label className="inline-flex items-start gap-2 text-body">
-            <input
-              type="radio"
-              value="request_changes"
-              className="mt-1 size-4 shrink-0 accent-hemp"
-              {...register("decision")}
-            />
-            <span>{DECISION_WORDS.request_changes.verb}: its author lays a new revision with what you note</span>
-          </label>
-        </fieldset>
+          )}
+        />
         <Field
           label={decision === "approve" ? "Note (optional)" : "What to re-lay (required)"}
           error={formState.errors.comment?.message}
