@@ -22,7 +22,7 @@ const BROWSER = "tests/setup/global-browser.ts";
 const BROWSER_RETRY = process.env.CI === "true" ? 1 : 0;
 
 function layer(name: string, folders: string[], globalSetup: string[], serialOrder: number, retry = 0) {
-  const include = folders.map((f) => `${f}/**/*.test.ts`);
+  const include = folders.map((f) => `${f}/**/*.test.{ts,tsx}`);
   return [
     { resolve: { alias }, test: { ...base, retry, name, include, exclude: [SERIAL], globalSetup } },
     {

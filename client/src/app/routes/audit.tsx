@@ -53,6 +53,7 @@ export function AuditRoute() {
             pageSize={params.pageSize ?? DEFAULT_PAGE_SIZE}
             total={page.data.total}
             totalCapped={page.data.totalCapped}
+            cursor={{ rows: page.data.events.length, hasNext: page.data.nextBefore != null }}
             // Next and previous follow the server's cursors (as cheap at any depth, where a page number is an OFFSET
             // the server answers only for the first pages); page 1 is the top of the trail, without one.
             onPage={(p) => {

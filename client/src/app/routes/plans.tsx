@@ -83,6 +83,7 @@ export function PlansRoute() {
             pageSize={params.pageSize ?? DEFAULT_PAGE_SIZE}
             total={list.data.total}
             totalCapped={list.data.totalCapped}
+            cursor={{ rows: list.data.plans.length, hasNext: list.data.nextAfter != null }}
             // Next and previous follow the server's cursors (as cheap at any depth, where a page number is an OFFSET
             // the server answers only for the first pages); page 1 is the top of the list, without one.
             onPage={(page) => {
