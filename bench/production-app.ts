@@ -43,7 +43,9 @@ type ProductionOptions = {
 /** Starts the compiled production server behind an assumed TLS proxy (TRUST_PROXY); `stop()` ends it. */
 export async function startProductionApp({ databaseUrl, migrationUrl, seed, tries }: ProductionOptions) {
   const port = await freePort();
-  const child = spawn("node", ["scripts/launch.mjs"], {
+  // BENCH_CPU_PROF=<dir>: the server writes a V8 CPU profile there when it stops (read it with bench/cpu-profile-top.mjs).
+  const profile = process.env.BENCH_CPU_PROF ? ["--cpu-prof", `--cpu-prof-dir=${process.env.BENCH_CPU_PROF}`] : [];
+  const child = spawn("node", [...profile, "scripts/launch.mjs"], {
     cwd: root,
     stdio: ["ignore", "ignore", "inherit"],
     env: {

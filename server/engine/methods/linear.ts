@@ -1,5 +1,5 @@
 import type { MethodFn } from "../types";
-import { inverseFrequencies } from "../frequencies";
+import { modelFrequencies } from "../memo";
 import { METHOD_CATALOG } from "../../../shared/methods";
 import { patchWithScaling, resolveFactor } from "./common";
 
@@ -7,7 +7,7 @@ import { patchWithScaling, resolveFactor } from "./common";
 export const linearMethod: MethodFn<"linear"> = (ctx, params) => {
   const factor = resolveFactor(ctx, params.factor);
   return {
-    invFreq: inverseFrequencies(ctx.d, ctx.base).map((t) => t / factor),
+    invFreq: modelFrequencies(ctx.d, ctx.base).map((t) => t / factor),
     attentionFactor: 1,
     params: { method: "linear", factor },
     ropeScaling: patchWithScaling(ctx, { rope_type: METHOD_CATALOG.linear.exportType, factor }),

@@ -1,5 +1,6 @@
 import type { MethodFn } from "../types";
-import { inverseFrequencies, wavelength } from "../frequencies";
+import { wavelength } from "../frequencies";
+import { modelFrequencies } from "../memo";
 import { patchWithScaling, resolveFactor } from "./common";
 import { LLAMA3_DEFAULTS, METHOD_CATALOG } from "../../../shared/methods";
 
@@ -17,7 +18,7 @@ export const llama3Method: MethodFn<"llama3"> = (ctx, params) => {
   const L = ctx.trainedContext;
   const lowWavelength = L / lowFreqFactor;
   const highWavelength = L / highFreqFactor;
-  const invFreq = inverseFrequencies(ctx.d, ctx.base).map((theta) => {
+  const invFreq = modelFrequencies(ctx.d, ctx.base).map((theta) => {
     const lambda = wavelength(theta);
     if (lambda < highWavelength) return theta;
     if (lambda > lowWavelength) return theta / factor;

@@ -1,5 +1,5 @@
 import type { MethodFn } from "../types";
-import { inverseFrequencies } from "../frequencies";
+import { modelFrequencies } from "../memo";
 import { METHOD_CATALOG } from "../../../shared/methods";
 import { contextRatio, patchWithScaling } from "./common";
 
@@ -12,7 +12,7 @@ export const longropeMethod: MethodFn<"longrope"> = (ctx, params) => {
   const s = contextRatio(ctx);
   const extended = ctx.targetContext > ctx.trainedContext;
   const e = extended ? params.longFactor : params.shortFactor;
-  const invFreq = inverseFrequencies(ctx.d, ctx.base).map((theta, i) => theta / e[i]);
+  const invFreq = modelFrequencies(ctx.d, ctx.base).map((theta, i) => theta / e[i]);
   return {
     invFreq,
     attentionFactor: longropeAttentionFactor(s, ctx.trainedContext),

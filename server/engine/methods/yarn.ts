@@ -1,7 +1,7 @@
 import type { RopeScalingBlock } from "../../../shared/schemas/analysis";
 import { METHOD_CATALOG, YARN_DEFAULTS, yarnMscale } from "../../../shared/methods";
 import type { MethodFn } from "../types";
-import { inverseFrequencies } from "../frequencies";
+import { modelFrequencies } from "../memo";
 import { factorMismatchNote, patchWithScaling, resolveFactor } from "./common";
 
 /** Defaults and g(s, m) (Peng et al. 2023, Eq. 22) live in the catalog so the forms show the same numbers. */
@@ -55,7 +55,7 @@ export const yarnMethod: MethodFn<"yarn"> = (ctx, params) => {
   const betaSlow = params.betaSlow ?? YARN_DEFAULTS.betaSlow;
   const truncate = params.truncate ?? YARN_DEFAULTS.truncate;
   const { low, high } = yarnRampRange(ctx.d, ctx.base, ctx.trainedContext, betaFast, betaSlow, truncate);
-  const invFreq = inverseFrequencies(ctx.d, ctx.base).map((theta, j) => {
+  const invFreq = modelFrequencies(ctx.d, ctx.base).map((theta, j) => {
     const ramp = Math.min(Math.max((j - low) / (high - low), 0), 1);
     const keep = 1 - ramp;
     return (theta / factor) * (1 - keep) + theta * keep;
