@@ -28,6 +28,21 @@ export function throttledPgStore(
   let lastSweep = now();
 
   class ThrottledTouchStore extends PgStore {
+    /**
+     * Every request reads its session (connect-pg-simple 10, index.js `get`: `SELECT sess FROM "session" WHERE sid = $1
+     * AND expire >= to_timestamp($2)`, through `_asyncQuery`); that read goes as a named prepared statement, so
+     * PostgreSQL parses and plans it once per connection. It is still read on every request: a session signed out or
+     * revoked elsewhere (its row deleted) is refused on the next request. Other queries go the library's way.
+     */
+    async _asyncQuery(query: string, params: unknown[], noTableCreation?: boolean): Promise<unknown> {
+      if (!query.startsWith("SELECT sess FROM ")) {
+        const base = PgStore.prototype as unknown as { _asyncQuery: ThrottledTouchStore["_asyncQuery"] };
+        return base._asyncQuery.call(this, query, params, noTableCreation);
+      }
+      const res = await pool.query({ name: "rw_session_read", text: query, values: params });
+      return res.rows[0];
+    }
+
     override touch(sid: string, sess: SessionData, callback?: () => void) {
       const t = now();
       if (t - lastSweep > FORGET_AFTER_MS) {

@@ -1,6 +1,6 @@
 import crypto from "node:crypto";
 import { and, eq, isNull, sql } from "drizzle-orm";
-import type { Db, Executor } from "../db/client";
+import type { Db } from "../db/client";
 import { apiTokens, users } from "../db/schema";
 import { tokenScopeSchema, type Role, type SessionUser, type TokenScope } from "../../shared/schemas";
 
@@ -11,16 +11,32 @@ import { tokenScopeSchema, type Role, type SessionUser, type TokenScope } from "
 
 type UserRow = typeof users.$inferSelect;
 
-export const toSessionUser = (row: UserRow): SessionUser => ({
+export const toSessionUser = (row: Pick<UserRow, "id" | "email" | "name" | "roles">): SessionUser => ({
   id: row.id,
   email: row.email,
   name: row.name,
   roles: row.roles as Role[],
 });
 
+/**
+ * The user read of every signed-in request, as a named prepared statement per database handle: drizzle builds its SQL
+ * once and PostgreSQL parses and plans it once per connection, and only the columns a SessionUser needs are read
+ * (docs/scale-figures.md "New questions: what repeats between them"). It still reads the row on every request.
+ */
+const userReads = new WeakMap<Db, ReturnType<typeof prepareUserRead>>();
+const prepareUserRead = (db: Db) =>
+  db
+    .select({ id: users.id, email: users.email, name: users.name, roles: users.roles, active: users.active })
+    .from(users)
+    .where(eq(users.id, sql.placeholder("id")))
+    .limit(1)
+    .prepare("rw_active_session_user");
+
 /** The signed-in user for a session's user id, or undefined when the account is gone or deactivated. */
-export async function activeSessionUser(ex: Executor, id: number): Promise<SessionUser | undefined> {
-  const [row] = await ex.select().from(users).where(eq(users.id, id)).limit(1);
+export async function activeSessionUser(db: Db, id: number): Promise<SessionUser | undefined> {
+  let read = userReads.get(db);
+  if (!read) userReads.set(db, (read = prepareUserRead(db)));
+  const [row] = await read.execute({ id });
   return row && row.active ? toSessionUser(row) : undefined;
 }
 

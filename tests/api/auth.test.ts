@@ -124,6 +124,26 @@ describe("sign-in and sessions", () => {
     expect(r.status).toBe(401);
   });
 
+  it("refuses at once a session ended or a user deactivated by another instance (rows changed in the database)", async () => {
+    // The session read and the user read are prepared statements, never answered from memory: each request reads both.
+    const a = await agentAs(["researcher"]);
+    const b = await agentAs(["researcher"]);
+    for (let i = 0; i < 3; i++) await a.get("/api/auth/session").expect((r) => expect(r.body.user.id).toBe(a.user!.id));
+    for (let i = 0; i < 3; i++) await b.get("/api/auth/session").expect((r) => expect(r.body.user.id).toBe(b.user!.id));
+    await deps.pool.query("DELETE FROM session WHERE sess->>'userId' = $1", [String(a.user!.id)]);
+    await deps.pool.query("UPDATE users SET active = false WHERE id = $1", [b.user!.id]);
+    expect((await a.get("/api/auth/session")).body.user).toBeNull();
+    expect((await b.get("/api/auth/session")).body.user).toBeNull();
+    const model = { headDim: 64, ropeTheta: 10_000, trainedContext: 4096 };
+    const ask = { model, targetContext: 8192, methods: [{ method: "default" }] };
+    // refused either way: 403 when the session's CSRF token went with it, 401 when nobody is signed in
+    for (const who of [a, b]) {
+      const r = await who.post("/api/analyses").set("X-CSRF-Token", who.csrf).send(ask);
+      expect([401, 403]).toContain(r.status);
+      expect(r.body.methods).toBeUndefined();
+    }
+  });
+
   it("lets a user change their own password", async () => {
     const a = await agentAs(["viewer"]);
     const bad = await a
