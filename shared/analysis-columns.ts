@@ -32,12 +32,20 @@ export function packAnalysis(full: AnalysisResponse): AnalysisColumnsResponse {
   };
 }
 
+/**
+ * The rows back, with every field where the engine puts it (server/engine/index.ts `analyse`: `methods` before
+ * `decay`, each method's `pairs` after `effectiveBase`), so the expanded answer serialises to the engine's JSON byte
+ * for byte: the server keeps an answer in one form and derives the other from it (analyses.kept.ts).
+ */
 export function expandAnalysis(packed: AnalysisColumnsResponse): AnalysisResponse {
-  const { form: _form, pairColumns: common, methods, ...rest } = packed;
+  const { form: _form, pairColumns: common, methods, decay, ...rest } = packed;
   return {
     ...rest,
-    methods: methods.map(({ pairColumns: own, ...m }) => ({
-      ...m,
+    methods: methods.map(({ pairColumns: own, method, params, attentionFactor, effectiveBase, ...after }) => ({
+      method,
+      params,
+      attentionFactor,
+      effectiveBase,
       pairs: common.invFreq.map((invFreq, i): PairResult => ({
         index: i,
         invFreq,
@@ -50,6 +58,8 @@ export function expandAnalysis(packed: AnalysisColumnsResponse): AnalysisRespons
         unseenAngles: own.unseenAngles[i] === 1,
         compressedResolution: own.compressedResolution[i] === 1,
       })),
+      ...after,
     })),
+    decay,
   };
 }

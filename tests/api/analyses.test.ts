@@ -1,9 +1,10 @@
 import crypto from "node:crypto";
 import { describe, expect, it } from "vitest";
 import { makeTestApp, type Agent } from "../setup/app";
-import { analysisResponseSchema } from "../../shared/schemas/analysis";
+import { analyse } from "../../server/engine";
+import { analysisResponseSchema, resolvedAnalysisRequestSchema } from "../../shared/schemas/analysis";
 import { analysisColumnsResponseSchema } from "../../shared/schemas/analysis-columns";
-import { expandAnalysis } from "../../shared/analysis-columns";
+import { expandAnalysis, packAnalysis } from "../../shared/analysis-columns";
 
 const { agent, agentAs } = makeTestApp();
 const model = { headDim: 128, ropeTheta: 10_000, trainedContext: 4096 };
@@ -219,5 +220,23 @@ describe("POST /api/analyses answers a kept question from prepared bytes", () =>
     expect(expandAnalysis(analysisColumnsResponseSchema.parse(JSON.parse(json.toString())))).toEqual(
       analysisResponseSchema.parse(JSON.parse((rows.body as Buffer).toString())),
     );
+  });
+
+  it("derives the form not yet kept from the kept bytes: the same JSON as the engine's answer, byte for byte", async () => {
+    const a = await agentAs(["viewer"]);
+    // Targets no other test asks. Each question's first form is computed, the second derived from the kept one.
+    const ask = (targetContext: number) => ({
+      model,
+      targetContext,
+      methods: [{ method: "yarn" }, { method: "base", base: 5e5 }],
+    });
+    const engine = (targetContext: number) => analyse(resolvedAnalysisRequestSchema.parse(ask(targetContext)));
+    const text = async (body: object) => ((await bytesOf(a, body, "identity")).body as Buffer).toString();
+    // columns first, then rows
+    expect(await text({ ...ask(77_777), form: "columns" })).toBe(JSON.stringify(packAnalysis(engine(77_777))));
+    expect(await text(ask(77_777))).toBe(JSON.stringify(engine(77_777)));
+    // rows first, then columns
+    expect(await text(ask(77_778))).toBe(JSON.stringify(engine(77_778)));
+    expect(await text({ ...ask(77_778), form: "columns" })).toBe(JSON.stringify(packAnalysis(engine(77_778))));
   });
 });

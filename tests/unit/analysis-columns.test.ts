@@ -41,6 +41,16 @@ describe("analysis column form", () => {
     },
   );
 
+  it.each(cases.map((c, i) => [i, c] as const))(
+    "case %i: the expanded answer serialises to the engine's JSON byte for byte (same fields in the same order)",
+    (_i, c) => {
+      const full = analyse(resolvedAnalysisRequestSchema.parse(c));
+      const json = JSON.stringify(full);
+      expect(JSON.stringify(expandAnalysis(packAnalysis(full)))).toBe(json);
+      expect(JSON.stringify(expandAnalysis(JSON.parse(JSON.stringify(packAnalysis(full)))))).toBe(json);
+    },
+  );
+
   it("the original-frequency columns the column form sends once are the same in every method's rows", () => {
     const full = analyse(resolvedAnalysisRequestSchema.parse(cases[0]));
     const common = (m: (typeof full.methods)[number]) =>
