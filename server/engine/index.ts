@@ -5,7 +5,7 @@ import { METHODS, runMethod } from "./methods";
 import { classifyPairs, summarisePairs } from "./pairs";
 import { criticalBase, criticalDimension, extrapolationBound } from "./extrapolation";
 import { decayPositions } from "./decay";
-import { frequencyKey, keptDecayCurve, keptScan, modelFrequencies } from "./memo";
+import { type FrequencySet, frequencySet, keptDecayCurve, keptScan, modelFrequencies } from "./memo";
 
 /** 1.1: config patches of models with multimodal sections carry them (docs/export-targets.md, "The signed block"). */
 export const ENGINE_VERSION = "rw-engine/1.1.0";
@@ -31,7 +31,7 @@ export function analyse(request: ResolvedAnalysisRequest): AnalysisResponse {
     ...(model.mropeSection ? { mropeSection: model.mropeSection, mropeInterleaved: model.mropeInterleaved } : {}),
   };
   const invFreq = modelFrequencies(d, model.ropeTheta);
-  const invFreqKey = frequencyKey(invFreq);
+  const original = frequencySet(invFreq);
   const window = { trainedContext: model.trainedContext, targetContext, bands };
   const boundFor = (base: number) =>
     extrapolationBound({ d, originalBase: model.ropeTheta, trained: model.trainedContext, base, tune: targetContext });
@@ -42,7 +42,7 @@ export function analyse(request: ResolvedAnalysisRequest): AnalysisResponse {
     const out = runMethod(ctx, params);
     const scaled = Array.from(out.invFreq);
     const pairs = classifyPairs(invFreq, scaled, window);
-    byMethod[String(index)] = keptDecayCurve(scaled, positions);
+    byMethod[String(index)] = keptDecayCurve(frequencySet(scaled), positions);
     return {
       method: out.params.method,
       params: out.params,
@@ -65,14 +65,14 @@ export function analyse(request: ResolvedAnalysisRequest): AnalysisResponse {
     criticalDimension: criticalDimension(d, model.ropeTheta, model.trainedContext),
     criticalBase: criticalBase(model.ropeTheta, model.trainedContext, targetContext),
     extrapolationBound: boundFor(model.ropeTheta),
-    baseSupport: baseSupport(invFreq, invFreqKey, model.ropeTheta, targetContext),
+    baseSupport: baseSupport(original, model.ropeTheta, targetContext),
     methods,
-    decay: { positions, original: keptDecayCurve(invFreq, positions, invFreqKey), byMethod },
+    decay: { positions, original: keptDecayCurve(original, positions), byMethod },
   };
 }
 
-function baseSupport(invFreq: Float64Array, invFreqKey: string, base: number, targetContext: number) {
-  const scan = keptScan(invFreq, targetContext, ANALYSIS_SCAN_EVALUATIONS, invFreqKey);
+function baseSupport(original: FrequencySet, base: number, targetContext: number) {
+  const scan = keptScan(original, targetContext, ANALYSIS_SCAN_EVALUATIONS);
   const supportsTarget = scan.supportedLength !== null ? false : scan.complete ? true : null;
   return { base, ...scan, supportsTarget };
 }

@@ -4,20 +4,19 @@ import { inverseFrequencies } from "./frequencies";
 
 /*
  * Pure sub-results of an analysis that repeat between different questions, kept in this process
- * (docs/scale-figures.md "New questions: what repeats between them"). Every entry is keyed by everything its value
- * depends on, down to the bits of each frequency, so a kept value is exactly what the computation would return:
+ * (docs/scale-figures.md "New questions: what repeats between them"). Every entry is found by everything its value
+ * depends on, down to the bits of each frequency (a hash finds the entry, a bit-for-bit comparison of the kept
+ * frequencies confirms it), so a kept value is exactly what the computation would return:
  *
  * - θ_i = b^(−2i/d) depends on (d, b) only: the model's frequencies, and every method's starting point, are computed
  *   once per model instead of once per method and request (nine times in an 8-method analysis).
  * - R(m) of a frequency set depends on that set and m only. A new target moves only the last of the ~90 decay
  *   positions, and the unscaled curve, `default`'s, `base`'s and LongRoPE's (explicit factors) do not move with the
- *   target at all; each of those is computed once per set and position.
+ *   target at all: each set's last curve is kept, and a position it shares with the new one is not computed again.
  * - The analysis's bounded base scan depends on the frequencies, the target and the evaluation budget: a question
  *   changing only its methods or bands asks it again.
  *
- * Bounds: 64 models' frequencies, 256 frequency sets of decay values of up to 1 024 positions each, 256 scans: at
- * most about 10 MB. A frequency set's decay values are kept from its second sighting on, so sets seen once (a scaled
- * set for one target) cost one key and nothing else.
+ * Bounds: 64 models' frequencies, 256 frequency sets' last curves, 256 scans: well under 1 MB at d = 128.
  */
 
 /** A Map holding at most `max` entries, dropping the least recently used (the engine imports no packages). */
@@ -42,13 +41,28 @@ class Recent<K, V> {
   }
 }
 
-/** The exact bits of a frequency set, as a string (two sets share a key only when every value is the same double). */
-export function frequencyKey(invFreq: ArrayLike<number>): string {
-  const f = invFreq instanceof Float64Array ? invFreq : Float64Array.from(invFreq);
-  const units = new Uint16Array(f.buffer, f.byteOffset, f.length * 4);
-  let key = "";
-  for (let i = 0; i < units.length; i += 4096) key += String.fromCharCode(...units.subarray(i, i + 4096));
-  return key;
+/** A frequency set as the kept entries compare it: its own copy of the values and a hash of their bits. */
+export interface FrequencySet {
+  readonly values: Float64Array;
+  readonly hash: number;
+}
+
+export function frequencySet(invFreq: ArrayLike<number>): FrequencySet {
+  const values = Float64Array.from(invFreq);
+  const words = new Uint32Array(values.buffer);
+  // FNV-1a over the 32-bit words: finds the entry; sameBits decides.
+  let hash = 0x811c9dc5;
+  for (let i = 0; i < words.length; i++) hash = Math.imul(hash ^ words[i], 0x01000193);
+  return { values, hash: hash >>> 0 };
+}
+
+/** Whether two sets hold the same doubles, bit for bit. */
+export function sameBits(a: FrequencySet, b: FrequencySet): boolean {
+  if (a.hash !== b.hash || a.values.length !== b.values.length) return false;
+  const x = new Uint32Array(a.values.buffer),
+    y = new Uint32Array(b.values.buffer);
+  for (let i = 0; i < x.length; i++) if (x[i] !== y[i]) return false;
+  return true;
 }
 
 const frequencies = new Recent<string, Float64Array>(64);
@@ -62,49 +76,39 @@ export function modelFrequencies(d: number, base: number): Float64Array {
   return kept.slice();
 }
 
-/** Positions kept per frequency set; past it, further positions are computed but not kept. */
-const POSITIONS_PER_SET = 1024;
-/** Marks a frequency set seen once: its values are kept from the second sighting on. */
-const SEEN_ONCE = "seen once";
-const decayValues = new Recent<string, Map<number, number> | typeof SEEN_ONCE>(256);
+interface Curve {
+  set: FrequencySet;
+  positions: readonly number[];
+  values: readonly number[];
+}
+const curves = new Recent<number, Curve>(256);
 
-/** decayCurve(invFreq, positions) (decay.ts), each R(m) computed once per exact frequency set and position. */
-export function keptDecayCurve(invFreq: ArrayLike<number>, positions: readonly number[], key = frequencyKey(invFreq)) {
-  let byPosition = decayValues.get(key);
-  if (byPosition === undefined) {
-    decayValues.set(key, SEEN_ONCE);
-    return positions.map((m) => relativeUpperBound(invFreq, m));
-  }
-  if (byPosition === SEEN_ONCE) decayValues.set(key, (byPosition = new Map()));
-  const kept = byPosition;
-  return positions.map((m) => {
-    let r = kept.get(m);
-    if (r === undefined) {
-      r = relativeUpperBound(invFreq, m);
-      if (kept.size < POSITIONS_PER_SET) kept.set(m, r);
-    }
-    return r;
-  });
+/** decayCurve(set, positions) (decay.ts); R(m) at a position the set's last curve had is taken from it. */
+export function keptDecayCurve(set: FrequencySet, positions: readonly number[]): number[] {
+  const last = curves.get(set.hash);
+  const kept = last && sameBits(last.set, set) ? last : null;
+  const values = positions.map((m, i) =>
+    kept && i < kept.positions.length && kept.positions[i] === m ? kept.values[i] : relativeUpperBound(set.values, m),
+  );
+  curves.set(set.hash, { set, positions: positions.slice(), values: values.slice() });
+  return values;
 }
 
-const scans = new Recent<string, ScanResult>(256);
+const scans = new Recent<string, { set: FrequencySet; scan: ScanResult }>(256);
 
-/** scanSupportedLength(invFreq, maxLength, { maxEvaluations }) kept per exact frequency set, length and budget. */
-export function keptScan(
-  invFreq: ArrayLike<number>,
-  maxLength: number,
-  maxEvaluations: number,
-  key = frequencyKey(invFreq),
-) {
-  const full = `${maxLength}|${maxEvaluations}|${key}`;
-  let kept = scans.get(full);
-  if (!kept) scans.set(full, (kept = scanSupportedLength(invFreq, maxLength, { maxEvaluations })));
-  return { ...kept };
+/** scanSupportedLength(set, maxLength, { maxEvaluations }) kept per exact frequency set, length and budget. */
+export function keptScan(set: FrequencySet, maxLength: number, maxEvaluations: number): ScanResult {
+  const key = `${set.hash}|${maxLength}|${maxEvaluations}`;
+  const kept = scans.get(key);
+  if (kept && sameBits(kept.set, set)) return { ...kept.scan };
+  const scan = scanSupportedLength(set.values, maxLength, { maxEvaluations });
+  scans.set(key, { set, scan });
+  return { ...scan };
 }
 
 /** Tests: every sub-result is computed afresh. */
 export function forgetEngineMemo() {
   frequencies.clear();
-  decayValues.clear();
+  curves.clear();
   scans.clear();
 }

@@ -131,11 +131,11 @@ function send(deps: AppDeps, def: ApiRoute, req: Request, res: Response, reply: 
     return void res.type(spec.contentType).send(reply.raw);
   }
   if (isRaw(spec)) throw new Error(`${def.method} ${def.path}: JSON body for a ${spec.contentType} response`);
-  const body = "prepared" in reply ? reply.prepared.value : reply.body;
   // Outside production every JSON answer is checked against its declared schema: tests fail on a mismatch,
   // development logs it and still answers, so a drifting contract shows up before a consumer trips on it.
+  // (A prepared answer's value may be parsed back from its bytes: read only here.)
   if (deps.config.env !== "production") {
-    const checked = spec.safeParse(body);
+    const checked = spec.safeParse("prepared" in reply ? reply.prepared.value : reply.body);
     if (!checked.success) {
       const err = new ResponseMismatch(`${def.method.toUpperCase()} ${req.baseUrl}${def.path}`, checked.error.issues);
       if (deps.config.env === "test") throw err;

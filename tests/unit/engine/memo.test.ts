@@ -3,7 +3,8 @@ import { analyse } from "../../../server/engine";
 import { relativeUpperBound } from "../../../server/engine/decay";
 import {
   forgetEngineMemo,
-  frequencyKey,
+  sameBits,
+  frequencySet,
   keptDecayCurve,
   keptScan,
   modelFrequencies,
@@ -49,8 +50,8 @@ describe("kept model frequencies θ_i = b^(−2i/d) (RoFormer Eq. 15)", () => {
 describe("kept decay values R(m)", () => {
   it("differ with the frequency set and with the position", () => {
     const positions = [2, 3];
-    const half = ask(() => keptDecayCurve([1, 0.5], positions));
-    const quarter = ask(() => keptDecayCurve([1, 0.25], positions));
+    const half = ask(() => keptDecayCurve(frequencySet([1, 0.5]), positions));
+    const quarter = ask(() => keptDecayCurve(frequencySet([1, 0.25]), positions));
     positions.forEach((m, i) => {
       expect(half[i]).toBeCloseTo(twoPairR(1, 0.5, m), 14);
       expect(quarter[i]).toBeCloseTo(twoPairR(1, 0.25, m), 14);
@@ -58,39 +59,52 @@ describe("kept decay values R(m)", () => {
     expect(half[0]).not.toBeCloseTo(quarter[0], 6);
     expect(half[0]).not.toBeCloseTo(half[1], 6);
     // one pair: |S_1| = 1 at every position
-    for (const r of ask(() => keptDecayCurve([0.3], [0, 7, 1000]))) expect(r).toBeCloseTo(1, 15);
+    for (const r of ask(() => keptDecayCurve(frequencySet([0.3]), [0, 7, 1000]))) expect(r).toBeCloseTo(1, 15);
   });
 
   it("tell apart sets that differ only in the last bit of one value", () => {
     const t1 = 0.5 + 2 ** -53;
-    expect(frequencyKey([1, 0.5])).not.toBe(frequencyKey([1, t1]));
-    expect(frequencyKey([1, 0.5])).toBe(frequencyKey(Float64Array.of(1, 0.5)));
+    expect(sameBits(frequencySet([1, 0.5]), frequencySet([1, t1]))).toBe(false);
+    expect(sameBits(frequencySet([1, 0.5]), frequencySet(Float64Array.of(1, 0.5)))).toBe(true);
+    expect(sameBits(frequencySet([0]), frequencySet([-0]))).toBe(false);
     const m = 1e9;
-    // the memo is the pure function: the same value as evaluating R directly, for both sets
-    const a = ask(() => keptDecayCurve([1, 0.5], [m]))[0];
-    const b = ask(() => keptDecayCurve([1, t1], [m]))[0];
+    // the kept value is the pure function's: the same as evaluating R directly, for both sets
+    const a = ask(() => keptDecayCurve(frequencySet([1, 0.5]), [m]))[0];
+    const b = ask(() => keptDecayCurve(frequencySet([1, t1]), [m]))[0];
     expect(a).toBe(relativeUpperBound([1, 0.5], m));
     expect(b).toBe(relativeUpperBound([1, t1], m));
+  });
+
+  it("computes a position the set's last curve did not have (a new target's last position)", () => {
+    const set = frequencySet([1, 0.5]);
+    ask(() => keptDecayCurve(set, [0, 2, 3]));
+    const moved = keptDecayCurve(set, [0, 2, 5]);
+    [0, 2, 5].forEach((m, i) => expect(moved[i]).toBeCloseTo(twoPairR(1, 0.5, m), 14));
+    const shorter = keptDecayCurve(set, [0, 7]);
+    [0, 7].forEach((m, i) => expect(shorter[i]).toBeCloseTo(twoPairR(1, 0.5, m), 14));
   });
 });
 
 describe("kept base scans (Men et al. 2024: first m with Σ cos(m·θ_i) < 0)", () => {
   // One pair: cos(mθ) < 0 first at m = ⌈π/(2θ)⌉ when π/(2θ) is not an integer: θ = 1/1000 → 1571, θ = 1/100 → 158.
   it("differ with the frequencies, the length and the budget", () => {
-    expect(ask(() => keptScan([1 / 1000], 2000, 4000))).toEqual({
+    expect(ask(() => keptScan(frequencySet([1 / 1000]), 2000, 4000))).toEqual({
       supportedLength: 1571,
       checkedUpTo: 1571,
       complete: true,
     });
-    expect(ask(() => keptScan([1 / 100], 2000, 4000))).toMatchObject({ supportedLength: 158, complete: true });
+    expect(ask(() => keptScan(frequencySet([1 / 100]), 2000, 4000))).toMatchObject({
+      supportedLength: 158,
+      complete: true,
+    });
     // a length short of the first negative position: none found, every m below it checked
-    expect(ask(() => keptScan([1 / 1000], 1000, 4000))).toEqual({
+    expect(ask(() => keptScan(frequencySet([1 / 1000]), 1000, 4000))).toEqual({
       supportedLength: null,
       checkedUpTo: 1000,
       complete: true,
     });
     // a budget of one evaluation: only m = 0 (B = 1) was looked at
-    expect(ask(() => keptScan([1 / 1000], 2000, 1))).toEqual({
+    expect(ask(() => keptScan(frequencySet([1 / 1000]), 2000, 1))).toEqual({
       supportedLength: null,
       checkedUpTo: 1,
       complete: false,
