@@ -1,6 +1,6 @@
 import fs from "node:fs";
 import path from "node:path";
-import { chromium, type Browser, type Download, type Page } from "playwright-core";
+import { chromium, type Browser, type BrowserContext, type Download, type Page } from "playwright-core";
 
 const root = path.resolve(import.meta.dirname, "../..");
 export const SCREENSHOT_DIR = path.join(root, "artifacts/screenshots");
@@ -32,9 +32,62 @@ export const BROWSER_ENDPOINT_ENV = "ROPEWALK_TEST_BROWSER_WS";
  * and a close); launches one of its own when run outside the e2e project. Each file still works in its own
  * contexts, and `close()` on a connected browser closes only those.
  */
-export function launchBrowser(): Promise<Browser> {
+export async function launchBrowser(): Promise<Browser> {
   const shared = process.env[BROWSER_ENDPOINT_ENV];
-  return shared ? chromium.connect(shared) : chromium.launch(LAUNCH_OPTIONS);
+  const browser = await (shared ? chromium.connect(shared) : chromium.launch(LAUNCH_OPTIONS));
+  const rate = cpuSlowdown();
+  return rate ? withCpuSlowdown(browser, rate) : browser;
+}
+
+/**
+ * `E2E_CPU_SLOWDOWN=<n>` runs every page's renderer n times slower (CDP Emulation.setCPUThrottlingRate), so a test that
+ * reads the screen before it has drawn fails on a fast machine the way it would on a busy CI one. Off when unset.
+ */
+export const CPU_SLOWDOWN_ENV = "E2E_CPU_SLOWDOWN";
+
+function cpuSlowdown(): number | null {
+  const raw = process.env[CPU_SLOWDOWN_ENV]?.trim();
+  if (!raw) return null;
+  const rate = Number(raw);
+  if (!Number.isFinite(rate) || rate < 1)
+    throw new Error(`${CPU_SLOWDOWN_ENV} must be a number of at least 1, got "${raw}"`);
+  return rate > 1 ? rate : null;
+}
+
+/**
+ * Every page the tests open goes through `browser.newContext()` (`browser.newPage()` calls it too) and then
+ * `context.newPage()`, so the throttle is set here once for all files: `newPage()` resolves only once the page is
+ * throttled, and pages the app opens itself (a report in a new tab) are throttled as soon as they appear. The CDP
+ * session stays attached for the page's life; detaching it would drop the throttle.
+ */
+function withCpuSlowdown(browser: Browser, rate: number): Browser {
+  const throttled = new WeakMap<Page, Promise<void>>();
+  const throttle = (page: Page): Promise<void> => {
+    let done = throttled.get(page);
+    if (!done) {
+      done = page
+        .context()
+        .newCDPSession(page)
+        .then((cdp) => cdp.send("Emulation.setCPUThrottlingRate", { rate }))
+        .then(() => undefined);
+      throttled.set(page, done);
+    }
+    return done;
+  };
+  const newContext = browser.newContext.bind(browser);
+  browser.newContext = async (...args: Parameters<Browser["newContext"]>): Promise<BrowserContext> => {
+    const context = await newContext(...args);
+    // A page closed before its session attached needs no throttle.
+    context.on("page", (page) => void throttle(page).catch(() => undefined));
+    const newPage = context.newPage.bind(context);
+    context.newPage = async () => {
+      const page = await newPage();
+      await throttle(page);
+      return page;
+    };
+    return context;
+  };
+  return browser;
 }
 
 /** The text of a finished download; `download.path()` is unavailable on a connected browser, so it is streamed. */
