@@ -75,7 +75,8 @@ describe("budget sheet in a browser", () => {
     const form = page.getByRole("form", { name: "Add an accelerator" });
     // The shared schema speaks before the server is asked.
     await form.getByRole("button", { name: "Add accelerator" }).click();
-    await expect(form.locator('[aria-invalid="true"]').count()).resolves.toBeGreaterThan(0);
+    // The schema's check runs asynchronously after the click: wait for the first flagged field, not a count at once.
+    await form.locator('[aria-invalid="true"]').first().waitFor();
     await form.getByLabel("Name").fill(name);
     await form.getByLabel("Memory (GiB)").fill("48");
     await form.getByLabel("Dense peak (TFLOP/s)").fill("300");
@@ -110,9 +111,13 @@ describe("budget sheet in a browser", () => {
       .getByRole("button", { name: `Delete ${spare}` })
       .click();
     await page.getByText(`Deleted ${spare}.`).waitFor();
-    await expect(
-      page.getByRole("table", { name: "Accelerators" }).locator("tbody tr").filter({ hasText: spare }).count(),
-    ).resolves.toBe(0);
+    // The notice comes with the mutation's answer; the row goes with the list's refetch after it.
+    await expect
+      .poll(
+        () => page.getByRole("table", { name: "Accelerators" }).locator("tbody tr").filter({ hasText: spare }).count(),
+        { timeout: 15_000 },
+      )
+      .toBe(0);
     await screenshot(page, "accelerators");
 
     // A bare visit: example cluster figures, said to be examples, and no figures until a model is chosen.
@@ -141,8 +146,8 @@ describe("budget sheet in a browser", () => {
       .poll(() => page.getByTestId("assumptions").textContent(), { timeout: 15_000 })
       .toContain("0.400 (assumed)");
     // Each convention is stated once; the figures link to it instead of repeating it.
-    await expect(page.locator("#budget-convention-activations").count()).resolves.toBe(1);
-    await expect(page.getByTestId("convention-links").count()).resolves.toBeGreaterThan(1);
+    await expect.poll(() => page.locator("#budget-convention-activations").count(), { timeout: 15_000 }).toBe(1);
+    await expect.poll(() => page.getByTestId("convention-links").count(), { timeout: 15_000 }).toBeGreaterThan(1);
     await expect(page.getByTestId("assumptions").textContent()).resolves.toContain("Korthikanti et al. 2022");
     // Every cost carries the workspace currency (an ISO code).
     await expect(page.getByTestId("total-cost").textContent()).resolves.toMatch(/ [A-Z]{3}$/);
@@ -186,10 +191,10 @@ describe("budget sheet in a browser", () => {
     // A published recipe adds a stage labelled as the paper's own run, with its source.
     await page.getByText("Start from a published recipe").click();
     await page.getByRole("button", { name: "Use YaRN fine-tune" }).click();
-    await expect(page.getByTestId("recipe-label-2").textContent()).resolves.toMatch(
-      /As reported.*Peng.*2023.*not a prediction/,
-    );
-    await expect(page.getByLabel("Stage 3 sequence length").inputValue()).resolves.toBe("65536");
+    await expect
+      .poll(() => page.getByTestId("recipe-label-2").textContent(), { timeout: 15_000 })
+      .toMatch(/As reported.*Peng.*2023.*not a prediction/);
+    await expect.poll(() => page.getByLabel("Stage 3 sequence length").inputValue(), { timeout: 15_000 }).toBe("65536");
     await page.getByTestId("stage-chart").waitFor();
     await page.getByTestId("growth-chart").waitFor();
     await settledTokens(page);
@@ -271,7 +276,9 @@ describe("budget sheet in a browser", () => {
     await misfit.waitFor({ state: "detached" });
     await settledTokens(page);
     await expect(sheet.getByText("does not fit in accelerator memory").count()).resolves.toBe(0);
-    await expect(sheet.getByTestId("fit-cell").allTextContents()).resolves.toEqual(["fits", "fits"]);
+    await expect
+      .poll(() => sheet.getByTestId("fit-cell").allTextContents(), { timeout: 15_000 })
+      .toEqual(["fits", "fits"]);
     await page.getByRole("button", { name: "Save draft" }).click();
     // The editor starts again from the saved version (it is keyed by version).
     await page.getByText("Editing version 2 of revision 1").waitFor();
@@ -301,16 +308,14 @@ describe("budget sheet in a browser", () => {
     await page.getByText("Changed since you read it — reload").waitFor();
     await page.getByRole("button", { name: "Reload the saved draft" }).click();
     await page.getByText("Editing version 3 of revision 1").waitFor();
-    // The reloaded sheet starts from the stored budget block.
-    await expect(
-      page
-        .getByRole("region", { name: "Budget sheet" })
-        .getByLabel("Context parallelism", { exact: true })
-        .inputValue(),
-    ).resolves.toBe("2");
-    await expect(
-      page.getByRole("region", { name: "Budget sheet" }).getByLabel("Stage 1 steps", { exact: true }).inputValue(),
-    ).resolves.toBe("100");
+    // The reloaded sheet starts from the stored budget block (its fields are filled once the saved draft is read).
+    const reloaded = page.getByRole("region", { name: "Budget sheet" });
+    await expect
+      .poll(() => reloaded.getByLabel("Context parallelism", { exact: true }).inputValue(), { timeout: 15_000 })
+      .toBe("2");
+    await expect
+      .poll(() => reloaded.getByLabel("Stage 1 steps", { exact: true }).inputValue(), { timeout: 15_000 })
+      .toBe("100");
     await settledTokens(page);
     await screenshot(page, "plan-budget");
 
@@ -350,17 +355,17 @@ describe("budget sheet in a browser", () => {
     const sheet = page.getByRole("region", { name: "Budget sheet" });
     const notice = sheet.getByTestId("retired-accelerator");
     await expect.poll(() => notice.textContent(), { timeout: 15_000 }).toContain(`${acceleratorName} is retired`);
-    await expect(sheet.getByLabel("Catalog accelerator").locator("option:checked").textContent()).resolves.toBe(
-      `${acceleratorName} (retired)`,
-    );
+    await expect
+      .poll(() => sheet.getByLabel("Catalog accelerator").locator("option:checked").textContent(), { timeout: 15_000 })
+      .toBe(`${acceleratorName} (retired)`);
     await settledTokens(page);
     await screenshot(page, "plan-budget-retired-accelerator");
     // Once another is picked, the retired one leaves the picker.
     await sheet.getByLabel("Catalog accelerator").selectOption({ label: other });
     await notice.waitFor({ state: "detached" });
-    await expect(sheet.getByLabel("Catalog accelerator").locator("option").allTextContents()).resolves.not.toContain(
-      `${acceleratorName} (retired)`,
-    );
+    await expect
+      .poll(() => sheet.getByLabel("Catalog accelerator").locator("option").allTextContents(), { timeout: 15_000 })
+      .not.toContain(`${acceleratorName} (retired)`);
 
     // An estimator link to the retired accelerator still loads its figures, with the notice.
     await page.goto(`${server.url}/estimator?model=${profile.id}&acc=${acc.id}`);
@@ -395,7 +400,7 @@ describe("budget sheet in a browser", () => {
       .toContain(acceleratorName);
     // The frozen figures carry the currency they were costed in and state each convention once.
     await expect(page.getByTestId("budget-panel").textContent()).resolves.toMatch(/Cost \([A-Z]{3}\)/);
-    await expect(page.locator("#frozen-convention-activations").count()).resolves.toBe(1);
+    await expect.poll(() => page.locator("#frozen-convention-activations").count(), { timeout: 15_000 }).toBe(1);
     const rev = (await api.get(`/api/plans/${id}/revisions/1`).expect(200)).body;
     expect(rev.content.budget.inputs).toMatchObject({ accelerators: 8 });
     expect(rev.content.budget.cluster.name).toBe(acceleratorName);
@@ -408,9 +413,10 @@ describe("budget sheet in a browser", () => {
     const viewer = await createTestUser(["viewer"], "Vi Viewer");
     const page = await signedIn(viewer, "/accelerators");
     await page.getByRole("table", { name: "Accelerators" }).waitFor();
+    // The line for readers says the page has drawn for this role: only then does the absence of controls mean anything.
+    await page.getByText("Infra leads and admins keep this list.").waitFor();
     await expect(page.getByRole("form").count()).resolves.toBe(0);
     await expect(page.getByRole("button", { name: /^(Edit|Delete) / }).count()).resolves.toBe(0);
-    await page.getByText("Infra leads and admins keep this list.").waitFor();
     // The workspace currency is shown, not offered for change (admins change it).
     await expect
       .poll(() => page.getByTestId("workspace-currency").textContent(), { timeout: 15_000 })

@@ -57,12 +57,16 @@ describe("unsaved draft edits", () => {
     expect(await notes.inputValue()).toBe("warm-up doubled after the first run");
 
     // Reloading the tab: the browser's own beforeunload question; dismissing it keeps the page.
+    // Wait for the question itself, not a fixed few seconds of the reload.
     const asked: string[] = [];
+    const question = page.waitForEvent("dialog");
     page.once("dialog", (d) => {
       asked.push(d.type());
       void d.dismiss();
     });
-    await page.reload({ timeout: 3_000 }).catch(() => undefined);
+    // Dismissed, the reload never finishes: it is left to fail on its own (or with the context).
+    void page.reload().catch(() => undefined);
+    await question;
     expect(asked).toEqual(["beforeunload"]);
     expect(await notes.inputValue()).toBe("warm-up doubled after the first run");
 

@@ -136,6 +136,8 @@ describe("evidence and proof in the browser", () => {
     await form.getByLabel("Results file").setInputFiles(csvFile("context_length,depth,trials,correct\n32768,0,ten,10"));
     await form.getByRole("button", { name: "Upload results" }).click();
     await form.getByTestId("upload-problems").getByText('Row 2, column trials: "ten" is not a number.').waitFor();
+    // The section waited for above is drawn before its list of uploads has loaded: wait for the list's empty line.
+    await section.getByText("No evaluation results uploaded yet.").waitFor();
     expect(await section.getByText("No evaluation results uploaded yet.").count()).toBe(1);
 
     await form.getByLabel("Results file").setInputFiles(csvFile(PASSKEY_CSV));

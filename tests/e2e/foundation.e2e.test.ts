@@ -43,7 +43,8 @@ describe("foundation screens in a browser", () => {
     // A signed-out visit to /users lands on sign-in and returns to /users afterwards.
     await page.goto(`${server.url}/users`);
     await page.waitForURL(/\/sign-in\?next=%2Fusers$/);
-    await expect(page.getByRole("heading", { name: "Sign in to Ropewalk" }).isVisible()).resolves.toBe(true);
+    // The URL changes before the sign-in screen has drawn: wait for its heading to be visible, not a look at once.
+    await page.getByRole("heading", { name: "Sign in to Ropewalk" }).waitFor({ state: "visible" });
     await screenshot(page, "sign-in");
 
     // A wrong password is refused with a message and no navigation.
@@ -181,7 +182,7 @@ describe("foundation screens in a browser", () => {
     const nameHeader = table.getByRole("columnheader", { name: /Name/ });
     expect(await nameHeader.getAttribute("aria-sort")).toBe("ascending");
     await nameHeader.getByRole("button").click();
-    expect(await nameHeader.getAttribute("aria-sort")).toBe("descending");
+    await expect.poll(() => nameHeader.getAttribute("aria-sort"), { timeout: 15_000 }).toBe("descending");
 
     await page.getByLabel("Find a person").fill(target.email);
     const row = table.locator("tbody tr").filter({ hasText: target.email });
@@ -190,7 +191,8 @@ describe("foundation screens in a browser", () => {
     await editor.getByLabel(/^Infra lead/).check();
     await editor.getByRole("button", { name: "Save roles" }).click();
     await editor.waitFor({ state: "detached" });
-    await expect(row.textContent()).resolves.toMatch(/Infra lead.*Viewer|Viewer.*Infra lead/);
+    // The editor closes with the save's answer; the row shows the new roles once the list has been read again.
+    await expect.poll(() => row.textContent(), { timeout: 15_000 }).toMatch(/Infra lead.*Viewer|Viewer.*Infra lead/);
 
     await page.getByRole("button", { name: "Deactivate Vera Viewer" }).click();
     await page.getByText("Vera Viewer is deactivated").waitFor();

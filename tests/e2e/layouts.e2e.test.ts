@@ -60,7 +60,8 @@ describe("a layered model from import to an approved export", () => {
     await page.getByRole("link", { name: "Open in the workbench" }).click();
     const picker = page.getByRole("combobox", { name: "Layer group", exact: true });
     await picker.waitFor();
-    expect(await picker.inputValue()).toBe("full_attention");
+    // The picker is drawn before the profile's groups fill it and pick the default.
+    await expect.poll(() => picker.inputValue(), { timeout: 15_000 }).toBe("full_attention");
     const status = page.getByTestId("analysis-status");
     await expect.poll(() => status.textContent(), { timeout: 15_000 }).toContain("d = 256 (128 pairs), b = 1 × 10⁶");
     await picker.selectOption("sliding_attention");

@@ -65,7 +65,10 @@ describe("an already-scaled model extended from its served length", () => {
     await expect
       .poll(() => legends.first().textContent(), { timeout: 20_000 })
       .toContain("λ′ after As shipped (yarn ×4)");
-    expect(await legends.allTextContents()).toContainEqual(expect.stringContaining("1. As shipped (yarn ×4)"));
+    // The other charts (and their legends) draw on their own, once their frames have a width.
+    await expect
+      .poll(() => legends.allTextContents(), { timeout: 20_000 })
+      .toContainEqual(expect.stringContaining("1. As shipped (yarn ×4)"));
     await screenshot(page, "lineage-workbench");
   }, 120_000);
 
@@ -80,10 +83,12 @@ describe("an already-scaled model extended from its served length", () => {
     await form.getByLabel("Model", { exact: true }).selectOption({ label: modelName });
     const from = form.getByLabel("Extends from");
     await from.waitFor();
-    expect(await from.locator("option").allTextContents()).toEqual([
-      expect.stringMatching(/^Pre-trained length \(8[,\s\u202f]?192 tokens\)$/),
-      expect.stringMatching(/^Served length \(32[,\s\u202f]?768 tokens, as shipped: yarn ×4\)$/),
-    ]);
+    await expect
+      .poll(() => from.locator("option").allTextContents(), { timeout: 15_000 })
+      .toEqual([
+        expect.stringMatching(/^Pre-trained length \(8[,\s\u202f]?192 tokens\)$/),
+        expect.stringMatching(/^Served length \(32[,\s\u202f]?768 tokens, as shipped: yarn ×4\)$/),
+      ]);
     await from.selectOption("served");
     await form.getByLabel("Method", { exact: true }).selectOption("yarn");
     await form.getByLabel("Factor s (optional)").first().fill("4");

@@ -97,8 +97,10 @@ describe("multimodal sections: bands over the pair axis, and what a plan that sc
       "height: 24 pairs (16–39)",
       "width: 24 pairs (40–63)",
     ]);
-    // the strip along the pair axis: three adjacent bands whose widths go 16 : 24 : 24
+    // the strip along the pair axis: three adjacent bands whose widths go 16 : 24 : 24. The list above is words; the
+    // strip is drawn in the wavelength chart, which comes once visx ParentSize has measured its frame.
     const bands = page.getByTestId("mrope-bands").locator("g[data-axis]");
+    await bands.first().waitFor({ timeout: 20_000 });
     expect(await bands.evaluateAll((gs) => gs.map((g) => g.getAttribute("data-axis")))).toEqual([
       "temporal",
       "height",
@@ -177,10 +179,10 @@ describe("multimodal sections: bands over the pair axis, and what a plan that sc
       `height: 20 pairs (${every(1, 58, 3).join(", ")})`,
       `width: 16 pairs (${every(2, 47, 3).join(", ")})`,
     ]);
-    const order = await page
-      .getByTestId("mrope-bands")
-      .locator("g[data-axis]")
-      .evaluateAll((gs) => gs.map((g) => g.getAttribute("data-axis")));
+    // the strip is drawn once the chart's frame has a width (visx ParentSize), after the list above
+    const strip = page.getByTestId("mrope-bands").locator("g[data-axis]");
+    await strip.first().waitFor({ timeout: 20_000 });
+    const order = await strip.evaluateAll((gs) => gs.map((g) => g.getAttribute("data-axis")));
     // one band per pair up to 47 (T H W …), then 48 T, 49 H, 50–51 T, 52 H, 53–54 T, 55 H, 56–57 T, 58 H, 59–63 T
     expect(order.length).toBe(48 + 9);
     expect(order.slice(0, 6)).toEqual(["temporal", "height", "width", "temporal", "height", "width"]);

@@ -53,8 +53,10 @@ describe("empty forms answer in plain sentences", () => {
     const page = await newPage();
     await page.goto(`${server.url}/sign-in`);
     await page.getByLabel("E-mail").waitFor();
-    const text = await submitEveryForm(page);
-    expect(text).toContain("E-mail is required.");
+    await submitEveryForm(page);
+    // The form's check answers a moment after the click: wait for the sentence before reading the screen.
+    await expect.poll(() => page.locator("body").innerText(), { timeout: 20_000 }).toContain("E-mail is required.");
+    const text = await page.locator("body").innerText();
     expect(text).not.toMatch(RAW_VALIDATOR_TEXT);
   }, 60_000);
 

@@ -179,7 +179,8 @@ describe("plan workflow in a browser", () => {
     await plans.getByRole("button", { name: "Plan" }).click();
     await page.waitForURL((u) => u.searchParams.get("sort") === "title" && u.searchParams.get("dir") === "asc");
     await plans.locator('th[aria-sort="ascending"]', { hasText: "Plan" }).waitFor();
-    await expect(plans.locator("tbody tr").count()).resolves.toBe(1);
+    // The header follows the URL at once; the rows follow the server's answer to the new order.
+    await expect.poll(() => plans.locator("tbody tr").count(), { timeout: 15_000 }).toBe(1);
   }, 90_000);
 
   // Defect (issue 15): the review page at 390 px was 647 px wide.
@@ -232,16 +233,20 @@ describe("plan workflow in a browser", () => {
       .poll(() => page.getByRole("list", { name: "Revisions" }).textContent(), { timeout: 15_000 })
       .toContain("Passed");
     await page.getByTestId("verify-status").and(page.locator('[data-ok="true"]')).waitFor();
-    await expect(
-      page.getByRole("list", { name: "Decisions" }).getByTestId("signed-hash").allTextContents(),
-    ).resolves.toEqual([signedHash, signedHash]);
+    // The decisions come with the plan's query, not with the check waited for above: wait for both, not a read at once.
+    await expect
+      .poll(() => page.getByRole("list", { name: "Decisions" }).getByTestId("signed-hash").allTextContents(), {
+        timeout: 15_000,
+      })
+      .toEqual([signedHash, signedHash]);
     // Each decision says that the server's signature on it holds.
     const seals = page.getByRole("list", { name: "Decisions" }).getByTestId("signature-status");
-    await expect(seals.evaluateAll((els) => els.map((e) => e.getAttribute("data-status")))).resolves.toEqual([
-      "valid",
-      "valid",
-    ]);
-    await expect(seals.first().textContent()).resolves.toMatch(/Server signature holds · key [0-9a-f]/);
+    await expect
+      .poll(() => seals.evaluateAll((els) => els.map((e) => e.getAttribute("data-status"))), { timeout: 15_000 })
+      .toEqual(["valid", "valid"]);
+    await expect
+      .poll(() => seals.first().textContent(), { timeout: 15_000 })
+      .toMatch(/Server signature holds · key [0-9a-f]/);
     await screenshot(page, "plans-plan-approved");
 
     const [exported] = await Promise.all([
@@ -345,11 +350,15 @@ describe("plan workflow in a browser", () => {
     const received = page.getByRole("list", { name: "Received messages" });
     await received.getByText(approverA.email, { exact: false }).first().waitFor();
     // For inspection (to the approvers) and passed (to the author); "ready" goes to infra leads, if any.
-    const subjects = await received.getByTestId("subject").allTextContents();
-    expect(subjects).toContain(`For inspection: "${title}" rev. 1, round 1`);
-    expect(subjects).toContain(`Passed: "${title}" rev. 1`);
+    // The search is debounced and the list keeps the unsearched messages until it answers: wait for both subjects.
+    const subjects = received.getByTestId("subject");
+    await expect
+      .poll(() => subjects.allTextContents(), { timeout: 15_000 })
+      .toContain(`For inspection: "${title}" rev. 1, round 1`);
+    await expect.poll(() => subjects.allTextContents(), { timeout: 15_000 }).toContain(`Passed: "${title}" rev. 1`);
     // The plan's own line: what was sent, in order, each delivered.
     const line = page.getByRole("list", { name: "Deliveries by plan" }).getByRole("listitem", { name: title });
+    await line.getByTestId("kind").filter({ hasText: "Told the author it passed" }).first().waitFor();
     const kinds = await line.getByTestId("kind").allTextContents();
     expect(kinds.indexOf("Asked the inspectors")).toBeGreaterThanOrEqual(0);
     expect(kinds.indexOf("Asked the inspectors")).toBeLessThan(kinds.indexOf("Told the author it passed"));
@@ -380,6 +389,7 @@ describe("plan workflow in a browser", () => {
     expect((await ok.json()).config.rope_scaling.rope_type).toBe("yarn");
 
     await page.getByRole("button", { name: "I have stored it" }).click();
+    await page.getByTestId("new-token-secret").waitFor({ state: "detached" });
     await expect(page.getByTestId("new-token-secret").count()).resolves.toBe(0);
     await page.getByRole("button", { name: "Revoke cluster export" }).click();
     await page.getByText("cluster export is revoked").waitFor();
@@ -398,7 +408,7 @@ describe("plan workflow in a browser", () => {
     const panel = page.getByTestId("budget-panel");
     await panel.waitFor();
     const rows = panel.getByRole("table", { name: "Budget per stage" }).locator("tbody tr");
-    await expect(rows.count()).resolves.toBe(2);
+    await expect.poll(() => rows.count(), { timeout: 15_000 }).toBe(2);
     // Tokens = steps × global batch × sequence length: 200 × 64 × 16 384 and 200 × 32 × 32 768, 419 430 400 in all.
     await expect(rows.nth(0).locator("td").first().textContent()).resolves.toBe("210 million");
     await expect(panel.locator("tfoot td").first().textContent()).resolves.toBe("419 million");
@@ -416,9 +426,11 @@ describe("plan workflow in a browser", () => {
     const status = page.getByTestId("verify-status");
     await status.and(page.locator('[data-ok="false"]')).waitFor();
     await expect.poll(() => status.textContent(), { timeout: 15_000 }).toContain("Integrity failure");
-    await expect(page.getByRole("button", { name: "Download export (config patch JSON)" }).isDisabled()).resolves.toBe(
-      true,
-    );
+    await expect
+      .poll(() => page.getByRole("button", { name: "Download export (config patch JSON)" }).isDisabled(), {
+        timeout: 15_000,
+      })
+      .toBe(true);
     await expect(page.getByRole("link", { name: "Download export (config patch JSON)" }).count()).resolves.toBe(0);
     await screenshot(page, "plans-integrity-failure");
   }, 60_000);

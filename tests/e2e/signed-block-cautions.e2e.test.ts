@@ -85,12 +85,13 @@ describe("the plan page names each old signed block that lacks the sections", ()
       await notices.first().waitFor();
       // The blocks faked old are exactly the ones named: stage 1's, then the sliding and no_rope groups'; the plan
       // target's block, stage 2's and the full-attention group's kept the sections and draw none.
-      const titles = await notices.locator("p.font-semibold").allTextContents();
-      expect(titles).toEqual([
-        "Stage 1's signed block lacks the model's sections",
-        "The sliding_attention layer group's signed block lacks the model's sections",
-        "The no_rope layer group's signed block lacks the model's sections",
-      ]);
+      await expect
+        .poll(() => notices.locator("p.font-semibold").allTextContents(), { timeout: 15_000 })
+        .toEqual([
+          "Stage 1's signed block lacks the model's sections",
+          "The sliding_attention layer group's signed block lacks the model's sections",
+          "The no_rope layer group's signed block lacks the model's sections",
+        ]);
       const stage = panel.locator('p[data-code="frozen_config_lacks_sections"][data-stage="1"]');
       await expect(stage.textContent()).resolves.toContain(`Stage 1's signed block lacks "mrope_section"`);
       const sliding = panel.locator('p[data-group="sliding_attention"]');

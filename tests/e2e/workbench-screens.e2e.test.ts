@@ -113,8 +113,12 @@ describe("workbench results are labelled by the request that made them", () => {
     // Marked in words and dimmed.
     const banner = page.getByTestId("stale-banner");
     expect(await banner.textContent()).toMatch(/stale/i);
-    const opacity = await page.getByTestId("stale-figures").evaluate((el) => Number(getComputedStyle(el).opacity));
-    expect(opacity).toBeLessThan(1);
+    // The dimming is a CSS transition: read the opacity until it has started, not once at the transition's first frame.
+    await expect
+      .poll(() => page.getByTestId("stale-figures").evaluate((el) => Number(getComputedStyle(el).opacity)), {
+        timeout: 10_000,
+      })
+      .toBeLessThan(1);
     await screenshot(page, "workbench-stale");
 
     // Fixing the rows brings fresh figures under the new names, no longer marked.
@@ -124,8 +128,12 @@ describe("workbench results are labelled by the request that made them", () => {
     const answer = await (await fresh).json();
     expect(answer.methods[0].method).toBe("default");
     await expect.poll(() => results.getAttribute("data-stale"), { timeout: 15_000 }).toBeNull();
-    expect(await cards.first().getAttribute("aria-label")).toBe(`Method 1: ${label("default")}`);
-    expect(await cards.nth(6).getAttribute("aria-label")).toBe(`Method 7: ${label("dynamic")}`);
+    await expect
+      .poll(() => cards.first().getAttribute("aria-label"), { timeout: 15_000 })
+      .toBe(`Method 1: ${label("default")}`);
+    await expect
+      .poll(() => cards.nth(6).getAttribute("aria-label"), { timeout: 15_000 })
+      .toBe(`Method 7: ${label("dynamic")}`);
     expect(errors).toEqual([]);
     await context.close();
   }, 90_000);
@@ -194,6 +202,7 @@ describe("the workbench and the estimator on a phone and on a wide screen", () =
     // Folding a row hides its parameters and says how many are set; unfolding brings them back as typed.
     const row = page.getByTestId("method-row-0");
     await row.getByRole("button", { name: "Fold the parameters of method 1" }).click();
+    await row.getByLabel("β fast (rotations)").waitFor({ state: "detached" });
     await expect(row.getByLabel("β fast (rotations)").count()).resolves.toBe(0);
     expect(await row.getByRole("button", { name: "Unfold the parameters of method 1" }).textContent()).toContain(
       "1 set",

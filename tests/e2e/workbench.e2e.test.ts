@@ -90,7 +90,7 @@ describe("workbench in a browser", () => {
     const warningsBox = page.getByTestId("import-warnings");
     await warningsBox.waitFor();
     const items = warningsBox.locator("li");
-    await expect(items.count()).resolves.toBe(preview.warnings.length);
+    await expect.poll(() => items.count(), { timeout: 15_000 }).toBe(preview.warnings.length);
     for (const w of preview.warnings) {
       const item = warningsBox.locator(`li[data-code="${w.code}"]`).first();
       await expect.poll(() => item.textContent(), { timeout: 15_000 }).toContain(w.message);
@@ -130,7 +130,9 @@ describe("workbench in a browser", () => {
     expect(savedModel.importWarnings).toEqual(preview.warnings);
     await page.waitForURL(`${server.url}/models/${savedModel.id}`);
     await page.getByRole("heading", { level: 1, name }).waitFor();
-    await expect(page.getByTestId("import-warnings").locator("li").count()).resolves.toBe(preview.warnings.length);
+    await expect
+      .poll(() => page.getByTestId("import-warnings").locator("li").count(), { timeout: 15_000 })
+      .toBe(preview.warnings.length);
     const sourceLink = page.getByRole("link", { name: /Download the original/ });
     const source = await page.request.get(new URL((await sourceLink.getAttribute("href"))!, server.url).toString());
     expect(await source.text()).toBe(fs.readFileSync(fixturePath, "utf8"));
@@ -142,7 +144,10 @@ describe("workbench in a browser", () => {
     await page.getByRole("link", { name: "Open in the workbench" }).click();
     await page.waitForURL(/\/workbench\?/);
     await page.getByLabel("Method 1", { exact: true }).waitFor();
-    expect(await page.getByLabel("Model", { exact: true }).inputValue()).toBe(String(savedModel.id));
+    // A select reads "" until its options (the profiles) have loaded and hold the chosen one.
+    await expect
+      .poll(() => page.getByLabel("Model", { exact: true }).inputValue(), { timeout: 15_000 })
+      .toBe(String(savedModel.id));
     const answered = analysisFor(page, target);
     await page.getByLabel("Method 2", { exact: true }).selectOption("ntk");
     await page.getByLabel("Target length L′ (tokens)").fill(String(target));
@@ -162,20 +167,26 @@ describe("workbench in a browser", () => {
       (lambda) => lambda > L,
     ).length;
     expect(beyond).toBeGreaterThan(0);
-    await expect(markers("exceedsTrainedWindow").count()).resolves.toBe(beyond);
-    await expect(markers("compressedResolution").count()).resolves.toBe(linear.summary.compressedResolutionPairs);
+    // The chart draws the answer once its frame has a width (visx ParentSize), after the status line above.
+    await expect.poll(() => markers("exceedsTrainedWindow").count(), { timeout: 15_000 }).toBe(beyond);
+    await expect
+      .poll(() => markers("compressedResolution").count(), { timeout: 15_000 })
+      .toBe(linear.summary.compressedResolutionPairs);
     expect(linear.summary.compressedResolutionPairs).toBeGreaterThan(0);
-    // Position interpolation never reaches unseen angles (Chen et al. 2023; DOMAIN flag rule).
+    // Position interpolation never reaches unseen angles (Chen et al. 2023; DOMAIN flag rule). Read once the chart
+    // shows the linear row's markers above, so a zero here is the drawn chart's, not an empty frame's.
     await expect(markers("unseenAngles").count()).resolves.toBe(0);
 
     await page.getByLabel("Method shown").first().selectOption("1");
-    await expect(markers("unseenAngles").count()).resolves.toBe(ntk.summary.unseenAnglesPairs);
+    await expect.poll(() => markers("unseenAngles").count(), { timeout: 15_000 }).toBe(ntk.summary.unseenAnglesPairs);
     // NTK-aware scaling extrapolates some low-frequency pairs (Peng et al. 2023 §3.1).
     expect(ntk.summary.unseenAnglesPairs).toBeGreaterThan(0);
     const hover = chart.getByTestId("chart-hover");
     const box = (await hover.boundingBox())!;
     await hover.hover({ position: { x: box.width * 0.995, y: box.height / 2 } });
-    await expect(page.getByTestId("chart-tooltip").textContent()).resolves.toMatch(new RegExp(`Pair ${d / 2 - 1} `));
+    await expect
+      .poll(() => page.getByTestId("chart-tooltip").textContent(), { timeout: 15_000 })
+      .toMatch(new RegExp(`Pair ${d / 2 - 1} `));
     await page
       .getByTestId("smallest-base")
       .getByText(/Smallest base that supports|No base on the grid/)
@@ -197,7 +208,7 @@ describe("workbench in a browser", () => {
     // The table: all 64 pairs, then only flagged ones; the CSV holds exactly the rows and columns shown.
     const table = page.getByRole("table", { name: /^Pairs of/ });
     const rows = table.locator("tbody tr");
-    await expect(rows.count()).resolves.toBe(d / 2);
+    await expect.poll(() => rows.count(), { timeout: 15_000 }).toBe(d / 2);
     await page.getByLabel("Flagged pairs only").check();
     const flagged = ntk.pairs.filter((p) => p.exceedsTrainedWindow || p.unseenAngles || p.compressedResolution).length;
     expect(flagged).toBeLessThan(d / 2);
@@ -256,9 +267,10 @@ describe("workbench in a browser", () => {
     await page.reload();
     await reloaded;
     await page.getByLabel("Method 2", { exact: true }).waitFor();
-    expect(await readInputs(page)).toEqual(before);
+    // The model picker and the chart's picker fill in as their data arrives after the reload.
+    await expect.poll(() => readInputs(page), { timeout: 15_000 }).toEqual(before);
     expect(page.url()).toBe(url);
-    await expect(rows.count()).resolves.toBe(flagged);
+    await expect.poll(() => rows.count(), { timeout: 15_000 }).toBe(flagged);
 
     expect(pageErrors).toEqual([]);
     await context.close();
