@@ -123,7 +123,12 @@ export async function hammer(
   const spent = cpuSpent(before.mine, after.mine);
   const n = r.requests.total;
   const failed = [
-    r.non2xx ? `${r.non2xx}× non-2xx` : "",
+    r.non2xx
+      ? `${r.non2xx}× non-2xx (${Object.entries(r.statusCodeStats as Record<string, { count: number }>)
+          .filter(([code]) => !code.startsWith("2"))
+          .map(([code, { count }]) => `${count}× ${code}`)
+          .join(", ")})`
+      : "",
     r.errors ? `${r.errors} errors` : "",
     r.timeouts ? `${r.timeouts} timeouts` : "",
   ]
