@@ -52,11 +52,49 @@ const marginAt = (m: number, sumTheta: number) => 1e-7 + 2 ** -50 * m * sumTheta
  * The best p is taken per evaluation. (A plain |B'| ≤ Σθ bound is the p = 0, first-order case.)
  */
 export function scanSupportedLength(invFreq: ArrayLike<number>, maxLength: number, opts: ScanOptions = {}): ScanResult {
+  return scan(invFreq, maxLength, opts, null).result;
+}
+
+/**
+ * The fast scan for `maxLength`, and whether its answer is the answer for every length of maxLength's octave
+ * [2^K, 2^(K+1)) with the same options (`sameForOctave`). Lengths of one octave share K; they differ only in the
+ * margin (marginAt grows with the length) and in the two end-of-range tests. Along the scan, each decision is checked
+ * against the whole octave's margins [μ_lo, μ_hi] at once:
+ * - the near-zero test `B < margin && B(m) < 0` gives the same outcome for every margin in range (B ≥ μ_hi, B < μ_lo,
+ *   or B(m) ≥ 0);
+ * - the jump: the slack B − margin is rounded monotonically in the margin; safeSteps is, in exact arithmetic on its
+ *   (slack-independent) float inputs, non-decreasing in the slack (each root grows with D, and more pairs p count as
+ *   D grows), and its float value is within a relative 8·2^−53 of that exact value (every sum it rounds has
+ *   non-negative terms). So with `best` evaluated at both ends of the slack range and widened by OCTAVE_SLACK, the
+ *   jump 2^k is the same for every margin when both widened ends give the same k;
+ * - the end-of-range tests never fire: every position evaluated is below 2^K, and every jump's largest possible step
+ *   is shorter than 2^K − m.
+ * When one check fails the answer still holds for maxLength (nothing on its path changed), just not for the octave.
+ */
+export function scanOverOctave(invFreq: ArrayLike<number>, maxLength: number, opts: ScanOptions = {}) {
+  let K = 0;
+  while (2 ** (K + 1) <= maxLength) K++;
+  const { result, sameForOctave } = scan(invFreq, maxLength, opts, { lo: 2 ** K, hi: 2 ** (K + 1) - 1 });
+  return { result, sameForOctave, octave: K };
+}
+
+/** Widening of the jump's bounds over an octave: far above safeSteps' rounding (8·2^−53 ≈ 8.9e−16, see above). */
+const OCTAVE_SLACK = 1e-12;
+
+function scan(
+  invFreq: ArrayLike<number>,
+  maxLength: number,
+  opts: ScanOptions,
+  octave: { lo: number; hi: number } | null,
+): { result: ScanResult; sameForOctave: boolean } {
   const n = invFreq.length;
   const budget = opts.maxEvaluations ?? Infinity;
-  const found = (m: number) => ({ supportedLength: m, checkedUpTo: m, complete: true });
-  const none = { supportedLength: null, checkedUpTo: maxLength, complete: true };
-  if (maxLength <= 0) return none;
+  let same = octave !== null;
+  const done = (result: ScanResult) => ({ result, sameForOctave: same });
+  const found = (m: number) => done({ supportedLength: m, checkedUpTo: m, complete: true });
+  // reaching maxLength depends on maxLength: never the same for the octave
+  const none = () => ((same = false), done({ supportedLength: null, checkedUpTo: maxLength, complete: true }));
+  if (maxLength <= 0) return none();
   let K = 0;
   while (2 ** (K + 1) <= maxLength) K++;
   // rotation tables by 2^k, filled only up to the largest jump used (short scans never pay for long jumps)
@@ -80,6 +118,9 @@ export function scanSupportedLength(invFreq: ArrayLike<number>, maxLength: numbe
     sumTheta += invFreq[i];
   }
   const margin = marginAt(maxLength, sumTheta);
+  const marginLo = octave ? marginAt(octave.lo, sumTheta) : margin,
+    marginHi = octave ? marginAt(octave.hi, sumTheta) : margin;
+  const jumpOf = (safe: number) => Math.min(K, 31 - Math.clz32(Math.floor(safe) + 1));
 
   const c = new Float64Array(n),
     s = new Float64Array(n);
@@ -96,14 +137,23 @@ export function scanSupportedLength(invFreq: ArrayLike<number>, maxLength: numbe
     }
     let B = 0;
     for (let i = 0; i < n; i++) B += c[i];
+    if (same) {
+      if (m >= octave!.lo) same = false;
+      else if (B >= marginLo && B < marginHi && cosineSum(invFreq, m) < 0) same = false;
+    }
     if (B < margin && cosineSum(invFreq, m) < 0) return found(m);
-    if (++evaluations >= budget) return { supportedLength: null, checkedUpTo: m + 1, complete: false };
+    if (++evaluations >= budget) return done({ supportedLength: null, checkedUpTo: m + 1, complete: false });
     if (opts.onProgress && evaluations % PROGRESS_EVERY === 0) opts.onProgress(m);
 
     const safe = safeSteps(invFreq, c, s, tailSq, B - margin);
     const step = Math.floor(safe) + 1; // positions m+1 … m+step−1 are proven non-negative
-    if (step >= maxLength - m) return none;
+    if (step >= maxLength - m) return none();
     const k = Math.min(K, 31 - Math.clz32(step));
+    if (same) {
+      const least = safeSteps(invFreq, c, s, tailSq, B - marginHi) * (1 - OCTAVE_SLACK);
+      const most = safeSteps(invFreq, c, s, tailSq, B - marginLo) * (1 + OCTAVE_SLACK);
+      if (jumpOf(least) !== k || jumpOf(most) !== k || Math.floor(most) + 1 >= octave!.lo - m) same = false;
+    }
     if (k > builtK) buildUpTo(k);
     const o = k * n;
     for (let i = 0; i < n; i++) {
@@ -117,7 +167,7 @@ export function scanSupportedLength(invFreq: ArrayLike<number>, maxLength: numbe
     m += 2 ** k;
     sinceAnchor++;
   }
-  return none;
+  return none();
 }
 
 /** Fast scan to the end: first m < maxLength with B(m) < 0, or null; same answers as supportedLengthNaive. */

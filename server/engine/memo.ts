@@ -1,4 +1,4 @@
-import { scanSupportedLength, type ScanResult } from "./base-bound";
+import { scanOverOctave, type ScanResult } from "./base-bound";
 import { relativeUpperBound } from "./decay";
 import { inverseFrequencies } from "./frequencies";
 
@@ -13,8 +13,9 @@ import { inverseFrequencies } from "./frequencies";
  * - R(m) of a frequency set depends on that set and m only. A new target moves only the last of the ~90 decay
  *   positions, and the unscaled curve, `default`'s, `base`'s and LongRoPE's (explicit factors) do not move with the
  *   target at all: each set's last curve is kept, and a position it shares with the new one is not computed again.
- * - The analysis's bounded base scan depends on the frequencies, the target and the evaluation budget: a question
- *   changing only its methods or bands asks it again.
+ * - The analysis's bounded base scan depends on the frequencies, the target and the evaluation budget; within one
+ *   octave of targets [2^K, 2^(K+1)) it mostly takes the same path, and when it proves that (base-bound.ts,
+ *   scanOverOctave) its answer is kept for the octave, else for the target alone.
  *
  * Bounds: 64 models' frequencies, 256 frequency sets' last curves, 256 scans: well under 1 MB at d = 128.
  */
@@ -96,14 +97,23 @@ export function keptDecayCurve(set: FrequencySet, positions: readonly number[]):
 
 const scans = new Recent<string, { set: FrequencySet; scan: ScanResult }>(256);
 
-/** scanSupportedLength(set, maxLength, { maxEvaluations }) kept per exact frequency set, length and budget. */
+/**
+ * scanSupportedLength(set, maxLength, { maxEvaluations }), kept per exact frequency set, budget and either the octave
+ * of maxLength, when the scan proved its answer the same for every length of it (scanOverOctave in base-bound.ts),
+ * or else maxLength itself.
+ */
 export function keptScan(set: FrequencySet, maxLength: number, maxEvaluations: number): ScanResult {
-  const key = `${set.hash}|${maxLength}|${maxEvaluations}`;
-  const kept = scans.get(key);
-  if (kept && sameBits(kept.set, set)) return { ...kept.scan };
-  const scan = scanSupportedLength(set.values, maxLength, { maxEvaluations });
-  scans.set(key, { set, scan });
-  return { ...scan };
+  let K = 0;
+  while (2 ** (K + 1) <= maxLength) K++;
+  const octaveKey = `${set.hash}|octave ${K}|${maxEvaluations}`;
+  const lengthKey = `${set.hash}|${maxLength}|${maxEvaluations}`;
+  for (const key of [octaveKey, lengthKey]) {
+    const kept = scans.get(key);
+    if (kept && sameBits(kept.set, set)) return { ...kept.scan };
+  }
+  const { result, sameForOctave } = scanOverOctave(set.values, maxLength, { maxEvaluations });
+  scans.set(sameForOctave ? octaveKey : lengthKey, { set, scan: result });
+  return { ...result };
 }
 
 /** Tests: every sub-result is computed afresh. */
