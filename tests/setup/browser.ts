@@ -1,6 +1,13 @@
 import fs from "node:fs";
 import path from "node:path";
-import { chromium, type Browser, type BrowserContext, type Download, type Page } from "playwright-core";
+import {
+  chromium,
+  type Browser,
+  type BrowserContext,
+  type CDPSession,
+  type Download,
+  type Page,
+} from "playwright-core";
 
 const root = path.resolve(import.meta.dirname, "../..");
 export const SCREENSHOT_DIR = path.join(root, "artifacts/screenshots");
@@ -40,7 +47,7 @@ export async function launchBrowser(): Promise<Browser> {
 }
 
 /**
- * `E2E_CPU_SLOWDOWN=<n>` runs every page's renderer n times slower (CDP Emulation.setCPUThrottlingRate), so a test that
+ * `E2E_CPU_SLOWDOWN=<n>` runs the page under test n times slower (CDP Emulation.setCPUThrottlingRate), so a test that
  * reads the screen before it has drawn fails on a fast machine the way it would on a busy CI one. Off when unset.
  */
 export const CPU_SLOWDOWN_ENV = "E2E_CPU_SLOWDOWN";
@@ -57,32 +64,45 @@ function cpuSlowdown(): number | null {
 /**
  * Every page the tests open goes through `browser.newContext()` (`browser.newPage()` calls it too) and then
  * `context.newPage()`, so the throttle is set here once for all files: `newPage()` resolves only once the page is
- * throttled, and pages the app opens itself (a report in a new tab) are throttled as soon as they appear. The CDP
- * session stays attached for the page's life; detaching it would drop the throttle.
+ * throttled, and a page the app opens itself (a report in a new tab) is throttled as soon as it appears.
+ * Only the newest open page of the file is slowed; the one before gets its full speed back, and is slowed again when
+ * the newer one closes. Chromium's throttle keeps a renderer busy even when its page is idle (about half a core per
+ * throttled page on our 2-core machine), and the files keep every page open until they end: slowing them all slowed
+ * the machine (a 13-page file took minutes) rather than the page under test. Each page's CDP session stays attached
+ * for its life; detaching it would drop the throttle.
  */
 function withCpuSlowdown(browser: Browser, rate: number): Browser {
-  const throttled = new WeakMap<Page, Promise<void>>();
-  const throttle = (page: Page): Promise<void> => {
-    let done = throttled.get(page);
-    if (!done) {
-      done = page
-        .context()
-        .newCDPSession(page)
-        .then((cdp) => cdp.send("Emulation.setCPUThrottlingRate", { rate }))
-        .then(() => undefined);
-      throttled.set(page, done);
-    }
-    return done;
+  type Open = { page: Page; cdp: Promise<CDPSession>; slowed: Promise<void> };
+  const open: Open[] = []; // oldest first; the last one is slowed
+  const setRate = (o: Open, r: number) =>
+    o.cdp.then((cdp) => cdp.send("Emulation.setCPUThrottlingRate", { rate: r })).then(() => undefined);
+  const quietly = (p: Promise<void>) => void p.catch(() => undefined); // the page may have closed meanwhile
+  const slow = (page: Page): Promise<void> => {
+    const known = open.find((o) => o.page === page);
+    if (known) return known.slowed;
+    const previous = open.at(-1);
+    const cdp = page.context().newCDPSession(page);
+    const o: Open = { page, cdp, slowed: Promise.resolve() };
+    o.slowed = setRate(o, rate);
+    open.push(o);
+    if (previous) quietly(setRate(previous, 1));
+    page.once("close", () => {
+      const i = open.indexOf(o);
+      if (i < 0) return;
+      open.splice(i, 1);
+      const newest = open.at(-1);
+      if (i === open.length && newest) quietly(setRate(newest, rate));
+    });
+    return o.slowed;
   };
   const newContext = browser.newContext.bind(browser);
   browser.newContext = async (...args: Parameters<Browser["newContext"]>): Promise<BrowserContext> => {
     const context = await newContext(...args);
-    // A page closed before its session attached needs no throttle.
-    context.on("page", (page) => void throttle(page).catch(() => undefined));
+    context.on("page", (page) => quietly(slow(page)));
     const newPage = context.newPage.bind(context);
     context.newPage = async () => {
       const page = await newPage();
-      await throttle(page);
+      await slow(page);
       return page;
     };
     return context;
