@@ -20,6 +20,7 @@ import { METHOD_CATALOG } from "../../shared/methods";
 import { readPairCsvHeader } from "../../client/src/features/workbench/state/csv-header";
 import { expandAnalysis } from "../../shared/analysis-columns";
 import { analysisColumnsResponseSchema } from "../../shared/schemas/analysis-columns";
+import { DEFAULT_GRID } from "../../shared/schemas/bounds";
 
 const fixturePath = path.resolve(import.meta.dirname, "../fixtures/configs/every-warning.json");
 
@@ -388,7 +389,15 @@ describe("profiles and bounds in a browser", () => {
   it("cancelling the smallest-base search stops the server's search", async () => {
     const context = await browser.newContext({ viewport: { width: 1280, height: 860 } });
     const page = await context.newPage();
-    // A typed-in shape and a target of 2^30 tokens: the grid search then runs for a long time.
+    // A typed-in shape and a target of 2^30 tokens, which no base on the grid supports. The default grid's 701 bases
+    // are all tried in about 1.5 s, sooner than a slow browser reaches Cancel (with E2E_CPU_SLOWDOWN=6 the search
+    // finished first and Cancel was gone): the page's question is sent on the finest grid the API takes (1000 bases per
+    // decade, 7001 bases, shared/schemas/bounds.ts), so the server's search outlasts the click.
+    await page.route("**/api/bounds/base/stream", (route) =>
+      route.continue({
+        postData: JSON.stringify({ ...route.request().postDataJSON(), grid: { ...DEFAULT_GRID, perDecade: 1000 } }),
+      }),
+    );
     const methods = encodeURIComponent(JSON.stringify([["linear", {}]]));
     await page.goto(`${server.url}/workbench?shape=128,10000,4096,1&target=${2 ** 30}&methods=${methods}`);
     await signIn(page, researcher);
