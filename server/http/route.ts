@@ -120,7 +120,7 @@ function accessGuard(access: Access): RequestHandler[] {
   return [requireRole(...access)];
 }
 
-function send(deps: AppDeps, def: ApiRoute, req: Request, res: Response, reply: AnyReply) {
+async function send(deps: AppDeps, def: ApiRoute, req: Request, res: Response, reply: AnyReply): Promise<void> {
   const spec = def.responses[reply.status];
   if (!spec) throw new Error(`${def.method} ${req.baseUrl}${def.path} answered undeclared status ${reply.status}`);
   if ("streamed" in reply) return;
@@ -152,7 +152,7 @@ function send(deps: AppDeps, def: ApiRoute, req: Request, res: Response, reply: 
  * The middleware leaves an answer that already carries Content-Encoding alone. Between encodings the client
  * weighs equally, the client's order decides (the middleware would prefer br; either is a valid choice).
  */
-function sendPrepared(req: Request, res: Response, status: number, prepared: PreparedJson) {
+async function sendPrepared(req: Request, res: Response, status: number, prepared: PreparedJson) {
   res.status(status).vary("Accept-Encoding").type("json");
   let bytes = prepared.json;
   const encoding = req.acceptsEncodings("br", "gzip", "identity");
@@ -161,7 +161,7 @@ function sendPrepared(req: Request, res: Response, status: number, prepared: Pre
     bytes.length >= COMPRESS_FROM_BYTES &&
     !/\bno-transform\b/.test(String(res.getHeader("Cache-Control") ?? ""))
   ) {
-    bytes = prepared.encoded(encoding);
+    bytes = await prepared.encoded(encoding);
     res.setHeader("Content-Encoding", encoding);
   }
   res.setHeader("Content-Length", bytes.length);
@@ -190,7 +190,7 @@ export function mountFeature(feature: ApiFeature, deps: AppDeps): Router {
           },
         };
         const answer = await def.handler(ctx);
-        if (answer !== CLIENT_GONE) send(deps, def, req, res, answer);
+        if (answer !== CLIENT_GONE) await send(deps, def, req, res, answer);
       } catch (e) {
         next(e);
       }

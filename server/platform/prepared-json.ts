@@ -1,4 +1,8 @@
+import { promisify } from "node:util";
 import zlib from "node:zlib";
+
+const gzip = promisify(zlib.gzip);
+const brotli = promisify(zlib.brotliCompress);
 
 /**
  * How hard dynamic JSON answers are compressed, by the `compression` middleware (server/app.ts) and for prepared
@@ -29,7 +33,7 @@ export type JsonEncoding = "br" | "gzip";
 export class PreparedJson<T = unknown> {
   #value: T | undefined;
   #json: Buffer | undefined;
-  readonly #encoded = new Map<JsonEncoding, Buffer>();
+  readonly #encoded = new Map<JsonEncoding, Promise<Buffer>>();
 
   constructor(value: T) {
     this.#value = value;
@@ -50,20 +54,27 @@ export class PreparedJson<T = unknown> {
     return (this.#json ??= Buffer.from(JSON.stringify(this.#value), "utf8"));
   }
 
-  /** The JSON bytes compressed with `encoding` at the dynamic settings above, compressed on first use. */
-  encoded(encoding: JsonEncoding): Buffer {
+  /**
+   * The JSON bytes compressed with `encoding` at the dynamic settings above, compressed on first use. Compression runs
+   * on libuv's thread pool (zlib's callback API), not on the thread that answers requests: a new analysis's 48 kB
+   * costs about 0.4 ms of gzip, which the main thread then spends on the next request (docs/scale-figures.md
+   * "Compressing off the request thread"). Concurrent first uses share one compression.
+   */
+  encoded(encoding: JsonEncoding): Promise<Buffer> {
     let bytes = this.#encoded.get(encoding);
     if (!bytes) {
       bytes =
         encoding === "br"
-          ? zlib.brotliCompressSync(this.json, {
+          ? brotli(this.json, {
               params: {
                 [zlib.constants.BROTLI_PARAM_QUALITY]: DYNAMIC_BROTLI_QUALITY,
                 [zlib.constants.BROTLI_PARAM_SIZE_HINT]: this.json.length,
               },
             })
-          : zlib.gzipSync(this.json, { level: DYNAMIC_GZIP_LEVEL });
+          : gzip(this.json, { level: DYNAMIC_GZIP_LEVEL });
       this.#encoded.set(encoding, bytes);
+      // a failed compression is not kept: the next use tries again
+      bytes.catch(() => this.#encoded.delete(encoding));
     }
     return bytes;
   }
