@@ -72,10 +72,15 @@ export function scanSupportedLength(invFreq: ArrayLike<number>, maxLength: numbe
  * When one check fails the answer still holds for maxLength (nothing on its path changed), just not for the octave.
  */
 export function scanOverOctave(invFreq: ArrayLike<number>, maxLength: number, opts: ScanOptions = {}) {
+  const K = octaveOf(maxLength);
+  return scan(invFreq, maxLength, opts, { lo: 2 ** K, hi: 2 ** (K + 1) - 1 });
+}
+
+/** K with 2^K ≤ n < 2^(K+1) (0 for n < 2): the octave of n, and the scan's largest jump 2^K. */
+export function octaveOf(n: number): number {
   let K = 0;
-  while (2 ** (K + 1) <= maxLength) K++;
-  const { result, sameForOctave } = scan(invFreq, maxLength, opts, { lo: 2 ** K, hi: 2 ** (K + 1) - 1 });
-  return { result, sameForOctave, octave: K };
+  while (2 ** (K + 1) <= n) K++;
+  return K;
 }
 
 /** Widening of the jump's bounds over an octave: far above safeSteps' rounding (8·2^−53 ≈ 8.9e−16, see above). */
@@ -95,8 +100,7 @@ function scan(
   // reaching maxLength depends on maxLength: never the same for the octave
   const none = () => ((same = false), done({ supportedLength: null, checkedUpTo: maxLength, complete: true }));
   if (maxLength <= 0) return none();
-  let K = 0;
-  while (2 ** (K + 1) <= maxLength) K++;
+  const K = octaveOf(maxLength);
   // rotation tables by 2^k, filled only up to the largest jump used (short scans never pay for long jumps)
   const powCos = new Float64Array((K + 1) * n),
     powSin = new Float64Array((K + 1) * n);

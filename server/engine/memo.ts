@@ -1,4 +1,4 @@
-import { scanOverOctave, type ScanResult } from "./base-bound";
+import { octaveOf, scanOverOctave, type ScanResult } from "./base-bound";
 import { relativeUpperBound } from "./decay";
 import { inverseFrequencies } from "./frequencies";
 
@@ -103,9 +103,7 @@ const scans = new Recent<string, { set: FrequencySet; scan: ScanResult }>(256);
  * or else maxLength itself.
  */
 export function keptScan(set: FrequencySet, maxLength: number, maxEvaluations: number): ScanResult {
-  let K = 0;
-  while (2 ** (K + 1) <= maxLength) K++;
-  const octaveKey = `${set.hash}|octave ${K}|${maxEvaluations}`;
+  const octaveKey = `${set.hash}|octave ${octaveOf(maxLength)}|${maxEvaluations}`;
   const lengthKey = `${set.hash}|${maxLength}|${maxEvaluations}`;
   for (const key of [octaveKey, lengthKey]) {
     const kept = scans.get(key);
