@@ -112,7 +112,8 @@ export function groupBlockCautions(
   groups: readonly SignedGroup[] | undefined,
   keepingTargets: readonly string[],
 ): BlockCaution[] {
-  return groupsLackingSections(model, groups).flatMap((g) =>
+  // frozenBlockCautions answers [] for a group whose block keeps the sections
+  return (groups ?? []).flatMap((g) =>
     frozenBlockCautions(model, g.patch, { group: { kind: g.kind, rotates: g.ropeTheta !== null }, keepingTargets }),
   );
 }

@@ -113,8 +113,7 @@ function compileParts(input: CompileInput): { args: string[]; metadata: Metadata
  * so linear and YaRN apply to a sectioned model exactly as to a plain one. The artifact's metadata carries the sections
  * (a rewritten file keeps them); a model whose architecture runs no sections, or runs the other layout, is refused.
  */
-function sectionRefusal(config: Record<string, unknown>, arch: string): [string, string] | null {
-  const sections = configSections(config);
+function sectionRefusal(sections: ReturnType<typeof configSections>, arch: string): [string, string] | null {
   if (!sections) return null;
   const layout = SECTIONED_ARCHS[arch];
   const wanted = sections.interleaved ? "interleaved" : "contiguous";
@@ -147,7 +146,7 @@ function compile(input: CompileInput): CompileResult {
   if (sections) metadata[key(arch, "rope.dimension_sections")] = ggufSections(sections.section);
   const artifact = launchArtifact('llama-server -m "$MODEL_GGUF"', args, { metadata });
   if (unsupported) return { ok: false, cause: unsupported[0], workaround: unsupported[1], artifact };
-  const refusedSections = sectionRefusal(input.config, arch);
+  const refusedSections = sectionRefusal(sections, arch);
   if (refusedSections) return { ok: false, cause: refusedSections[0], workaround: refusedSections[1], artifact };
   // A model converted from a llama3 config carries rope_freqs: ggml divides by it on top of any flag.
   if (isObj(input.config.rope_scaling) && convertedFreqFactors(input.config, input.plan.rotaryDim, input.plan.base)) {

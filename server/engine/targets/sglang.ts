@@ -170,7 +170,7 @@ function read(config: Record<string, unknown>, artifact: TargetArtifact, running
         : null
     : "default";
   if (type === null) throw new Error("rope_scaling has neither rope_type nor type: SGLang refuses it");
-  const sumWarning = type === "default" || type === "yarn" ? sectionSumWarning(rs, d) : null;
+  const sumWarning = SECTIONED_TYPES.includes(type) ? sectionSumWarning(rs, d) : null;
   if (sumWarning) warnings.push(sumWarning);
   const need = (key: string) => {
     if (!rs || !(key in rs)) throw new Error(`SGLang's get_rope needs ${key} for rope_type ${type}`);

@@ -171,10 +171,11 @@ export function compileV5(input: CompileInput): CompileResult {
   const existing = isObj(config.rope_parameters) ? config.rope_parameters : {};
   // Sections a 4.x-layout config keeps in rope_scaling move into rope_parameters with the block, since the patch
   // removes rope_scaling below (v5 reads them from rope_parameters: from memory of the v5 qwen2_vl config, not re-read).
-  const moved = sectionKeysOf(existing) ? null : sectionKeysOf(config.rope_scaling);
-  const block: Obj = { ...(placed.block ?? { rope_type: "default" }), rope_theta: placed.base, ...moved };
   // The model's sections from a flat block (rope_parameters, else the 4.x rope_scaling the patch removes).
-  const sections = sectionKeysOf(existing) ?? sectionKeysOf(config.rope_scaling);
+  const own = sectionKeysOf(existing);
+  const sections = own ?? sectionKeysOf(config.rope_scaling);
+  const moved = own ? null : sections;
+  const block: Obj = { ...(placed.block ?? { rope_type: "default" }), rope_theta: placed.base, ...moved };
   const written = Array.isArray(config.layer_types) ? undefined : derivedLayerTypes(input.plan.groups);
   const layerTypes = [
     ...new Set((Array.isArray(config.layer_types) ? config.layer_types : (written ?? [])).map(String)),
