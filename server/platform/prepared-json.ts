@@ -21,37 +21,23 @@ export type JsonEncoding = "br" | "gzip";
 
 /**
  * A JSON answer serialised once and compressed at most once per encoding, for answers served many times (kept
- * analyses): a repeated question then costs neither JSON.stringify nor compression. Serialising is deferred to the
- * first `json` read, so an entry kept only to derive another form never pays for its own bytes.
+ * analyses): a repeated question then costs neither JSON.stringify nor compression.
  *
- * `PreparedJson.bytes(value)` serialises at once and keeps only the bytes: the value's objects are left to the
- * garbage collector while still young, and a long-kept answer is a few buffers outside the JavaScript heap instead
- * of thousands of objects every full collection walks (docs/scale-figures.md "New questions: what repeats between
- * them"). Its `value` is then parsed back from the bytes when read: equal as JSON (serialising it again gives the
- * same bytes), not the same objects. `value` is never mutated.
+ * Only the bytes are kept, serialised at construction: the value's objects are left to the garbage collector while
+ * still young, and a long-kept answer is a few buffers outside the JavaScript heap instead of thousands of objects
+ * every full collection walks (docs/scale-figures.md "New questions: what repeats between them"). `value` is parsed
+ * back from the bytes when read: equal as JSON (serialising it again gives the same bytes), not the same objects.
  */
 export class PreparedJson<T = unknown> {
-  #value: T | undefined;
-  #json: Buffer | undefined;
+  readonly json: Buffer;
   readonly #encoded = new Map<JsonEncoding, Promise<Buffer>>();
 
   constructor(value: T) {
-    this.#value = value;
-  }
-
-  static bytes<T>(value: T): PreparedJson<T> {
-    const prepared = new PreparedJson<T>(value);
-    void prepared.json;
-    prepared.#value = undefined;
-    return prepared;
+    this.json = Buffer.from(JSON.stringify(value), "utf8");
   }
 
   get value(): T {
-    return this.#value ?? (JSON.parse(this.json.toString("utf8")) as T);
-  }
-
-  get json(): Buffer {
-    return (this.#json ??= Buffer.from(JSON.stringify(this.#value), "utf8"));
+    return JSON.parse(this.json.toString("utf8")) as T;
   }
 
   /**

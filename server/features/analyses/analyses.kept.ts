@@ -23,16 +23,16 @@ export class KeptAnalysis {
   #columns: PreparedJson<AnalysisColumnsResponse> | undefined;
 
   constructor(answer: AnalysisResponse, form: AnalysisForm) {
-    if (form === "columns") this.#columns = PreparedJson.bytes(packAnalysis(answer));
-    else this.#rows = PreparedJson.bytes(answer);
+    if (form === "columns") this.#columns = new PreparedJson(packAnalysis(answer));
+    else this.#rows = new PreparedJson(answer);
   }
 
   get rows(): PreparedJson<AnalysisResponse> {
-    return (this.#rows ??= PreparedJson.bytes(expandAnalysis(this.#columns!.value)));
+    return (this.#rows ??= new PreparedJson(expandAnalysis(this.#columns!.value)));
   }
 
   get columns(): PreparedJson<AnalysisColumnsResponse> {
-    return (this.#columns ??= PreparedJson.bytes(packAnalysis(this.#rows!.value)));
+    return (this.#columns ??= new PreparedJson(packAnalysis(this.#rows!.value)));
   }
 
   /** Bytes held now or later: the row JSON (the column JSON is about 0.29× of it), both forms and their compressions. */

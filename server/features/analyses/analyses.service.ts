@@ -84,5 +84,5 @@ async function analyseKept(
       release();
     }
   }
-  return keepAnalysis(key, answer, input.form === "columns" ? "columns" : "rows");
+  return keepAnalysis(key, answer, input.form ?? "rows");
 }

@@ -7,7 +7,7 @@ describe("PreparedJson compressed off the request thread", () => {
   const value = { pairs: Array.from({ length: 400 }, (_, i) => ({ index: i, theta: 10_000 ** (-i / 400) })) };
 
   it("gives back bytes that decompress to the JSON, in each encoding", async () => {
-    const prepared = PreparedJson.bytes(value);
+    const prepared = new PreparedJson(value);
     expect(zlib.gunzipSync(await prepared.encoded("gzip")).equals(prepared.json)).toBe(true);
     expect(zlib.brotliDecompressSync(await prepared.encoded("br")).equals(prepared.json)).toBe(true);
     expect(JSON.parse(prepared.json.toString("utf8"))).toEqual(value);
