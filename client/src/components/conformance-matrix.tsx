@@ -1,4 +1,5 @@
 import type { ExportResponse, TargetExportBody } from "@shared/schemas/exports";
+import { relativeErrorText } from "@/lib/format";
 import { LabelledCode } from "./labelled-code";
 
 type ConformanceStatus = TargetExportBody["conformance"]["status"];
@@ -41,8 +42,6 @@ export function StatusBadge({ status }: { status: ConformanceStatus }) {
   );
 }
 
-const errorText = (e: number | null) => (e === null ? "—" : e === 0 ? "0" : e.toExponential(2));
-
 type GroupRow = NonNullable<TargetExportBody["conformance"]["groups"]>[number];
 const GROUP_WORDS: Record<string, string> = { full_attention: "full attention", sliding_attention: "local window" };
 
@@ -54,7 +53,7 @@ function GroupLines({ groups }: { groups: GroupRow[] }) {
         <li key={g.kind} data-group={g.kind} className="flex flex-wrap items-center gap-1.5">
           <span className="text-ink-soft">{GROUP_WORDS[g.kind] ?? g.kind.replace(/_/g, " ")}:</span>
           <StatusBadge status={g.status} />
-          <span className="font-mono">{errorText(g.maxRelativeError)}</span>
+          <span className="font-mono">{relativeErrorText(g.maxRelativeError)}</span>
         </li>
       ))}
     </ul>
@@ -96,7 +95,7 @@ export function ConformanceMatrix({
               <StatusBadge status={t.conformance.status} />
             </td>
             <td className="font-mono text-note whitespace-nowrap">
-              {errorText(t.conformance.maxRelativeError)}
+              {relativeErrorText(t.conformance.maxRelativeError)}
               {t.conformance.worstPair !== null && (
                 <span className="text-ink-soft"> (pair {t.conformance.worstPair})</span>
               )}

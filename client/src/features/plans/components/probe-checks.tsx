@@ -6,7 +6,7 @@ import { layerRuns } from "@/components/layer-groups-table";
 import { FramedTable } from "@/components/framed-table";
 import { Chip, Notice } from "@/components/notice";
 import { isApiError } from "@/lib/api-client";
-import { formatDateTime } from "@/lib/format";
+import { formatDateTime, relativeErrorText } from "@/lib/format";
 import { useCopyText } from "@/lib/use-copy-text";
 import { plansQueries } from "../api/queries";
 import { useUploadProbe } from "../api/conformance-checks";
@@ -25,8 +25,6 @@ const probeLine = (targetContext: number, fingerprint: string | null) =>
   `python3 tools/probe/ropewalk_probe.py --config path/to/config.json --length ${targetContext}` +
   (fingerprint ? ` --fingerprint ${fingerprint}` : "") +
   " --out probe.json";
-
-const errorText = (e: number | null) => (e === null ? "—" : e === 0 ? "0" : e.toExponential(2));
 
 function Result({ passed }: { passed: boolean }) {
   return (
@@ -61,7 +59,7 @@ function GroupRows({ check, groups }: { check: number; groups: ProbeGroupCheck[]
                   <Result passed={g.passed} />
                 </td>
                 <td className="font-mono whitespace-nowrap">
-                  {errorText(g.maxRelativeError)}
+                  {relativeErrorText(g.maxRelativeError)}
                   {g.worstPair !== null && <span className="text-ink-soft"> (pair {g.worstPair})</span>}
                 </td>
                 <td>{g.cause || "—"}</td>
@@ -103,7 +101,7 @@ function ChecksTable({ checks }: { checks: ConformanceCheck[] }) {
               )}
             </td>
             <td className="font-mono text-note whitespace-nowrap">
-              {errorText(c.maxRelativeError)}
+              {relativeErrorText(c.maxRelativeError)}
               {c.worstPair !== null && <span className="text-ink-soft"> (pair {c.worstPair})</span>}
             </td>
             <td className="text-note">{c.cause || "—"}</td>
