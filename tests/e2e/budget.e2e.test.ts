@@ -100,7 +100,7 @@ describe("budget sheet in a browser", () => {
     await edit.getByLabel("Price per accelerator-hour").fill("3.5");
     await edit.getByRole("button", { name: "Save changes" }).click();
     await page.getByText(`Saved ${name}.`).waitFor();
-    await expect.poll(() => row.textContent(), { timeout: 15_000 }).toContain("3.50");
+    await expect.poll(() => row.textContent()).toContain("3.50");
 
     // Delete asks first, then the row goes.
     const spare = await catalogEntry("Spare", { memoryBytes: 16 * GIB });
@@ -139,15 +139,11 @@ describe("budget sheet in a browser", () => {
     // ceil(1e9 / (32 × 32768)) = 954 steps → 1 000 341 504 tokens; plus 200 × 64 × 16384 = 209 715 200.
     await expect(settledTokens(page)).resolves.toBe("1.21 billion");
     await page.getByText("954 whole steps").waitFor();
-    await expect
-      .poll(() => page.getByTestId("convention-formula").textContent(), { timeout: 15_000 })
-      .toContain("Kaplan et al. 2020");
-    await expect
-      .poll(() => page.getByTestId("assumptions").textContent(), { timeout: 15_000 })
-      .toContain("0.400 (assumed)");
+    await expect.poll(() => page.getByTestId("convention-formula").textContent()).toContain("Kaplan et al. 2020");
+    await expect.poll(() => page.getByTestId("assumptions").textContent()).toContain("0.400 (assumed)");
     // Each convention is stated once; the figures link to it instead of repeating it.
-    await expect.poll(() => page.locator("#budget-convention-activations").count(), { timeout: 15_000 }).toBe(1);
-    await expect.poll(() => page.getByTestId("convention-links").count(), { timeout: 15_000 }).toBeGreaterThan(1);
+    await expect.poll(() => page.locator("#budget-convention-activations").count()).toBe(1);
+    await expect.poll(() => page.getByTestId("convention-links").count()).toBeGreaterThan(1);
     await expect(page.getByTestId("assumptions").textContent()).resolves.toContain("Korthikanti et al. 2022");
     // Every cost carries the workspace currency (an ISO code).
     await expect(page.getByTestId("total-cost").textContent()).resolves.toMatch(/ [A-Z]{3}$/);
@@ -183,18 +179,16 @@ describe("budget sheet in a browser", () => {
       (b) => document.querySelector('[data-testid="total-compute"]')?.textContent !== b,
       before,
     );
-    await expect
-      .poll(() => page.getByTestId("convention-formula").textContent(), { timeout: 15_000 })
-      .toContain("Chowdhery et al. 2022");
+    await expect.poll(() => page.getByTestId("convention-formula").textContent()).toContain("Chowdhery et al. 2022");
     expect(new URL(page.url()).searchParams.get("conv")).toBe("full");
 
     // A published recipe adds a stage labelled as the paper's own run, with its source.
     await page.getByText("Start from a published recipe").click();
     await page.getByRole("button", { name: "Use YaRN fine-tune" }).click();
     await expect
-      .poll(() => page.getByTestId("recipe-label-2").textContent(), { timeout: 15_000 })
+      .poll(() => page.getByTestId("recipe-label-2").textContent())
       .toMatch(/As reported.*Peng.*2023.*not a prediction/);
-    await expect.poll(() => page.getByLabel("Stage 3 sequence length").inputValue(), { timeout: 15_000 }).toBe("65536");
+    await expect.poll(() => page.getByLabel("Stage 3 sequence length").inputValue()).toBe("65536");
     await page.getByTestId("stage-chart").waitFor();
     await page.getByTestId("growth-chart").waitFor();
     await settledTokens(page);
@@ -252,7 +246,7 @@ describe("budget sheet in a browser", () => {
     const misfit = sheet.getByRole("alert").filter({ hasText: "Stage 2 does not fit in accelerator memory" });
     await misfit.waitFor();
     await expect
-      .poll(() => misfit.textContent(), { timeout: 15_000 })
+      .poll(() => misfit.textContent())
       .toMatch(
         /largest term is the activation checkpoints \(32 GiB\).*cheapest change that fits: context parallelism 2 \(/,
       );
@@ -260,7 +254,7 @@ describe("budget sheet in a browser", () => {
     // cheapest fit: degree 2 and 2 chunks, 6.5e9 + 17.2e9 + 9.1e9 + 33.6e9 ÷ 2 = 49.6e9 ≤ 51.5e9.
     await sheet.getByLabel("Vocabulary size", { exact: true }).fill("128256");
     await expect
-      .poll(() => misfit.textContent(), { timeout: 15_000 })
+      .poll(() => misfit.textContent())
       .toMatch(/largest term is the logits \(62\.6 GiB\).*context parallelism 2 and loss chunks 2/);
     // The sheet edits the plan's own stage: the stage field above shows its length.
     await expect(
@@ -276,9 +270,7 @@ describe("budget sheet in a browser", () => {
     await misfit.waitFor({ state: "detached" });
     await settledTokens(page);
     await expect(sheet.getByText("does not fit in accelerator memory").count()).resolves.toBe(0);
-    await expect
-      .poll(() => sheet.getByTestId("fit-cell").allTextContents(), { timeout: 15_000 })
-      .toEqual(["fits", "fits"]);
+    await expect.poll(() => sheet.getByTestId("fit-cell").allTextContents()).toEqual(["fits", "fits"]);
     await page.getByRole("button", { name: "Save draft" }).click();
     // The editor starts again from the saved version (it is keyed by version).
     await page.getByText("Editing version 2 of revision 1").waitFor();
@@ -310,12 +302,8 @@ describe("budget sheet in a browser", () => {
     await page.getByText("Editing version 3 of revision 1").waitFor();
     // The reloaded sheet starts from the stored budget block (its fields are filled once the saved draft is read).
     const reloaded = page.getByRole("region", { name: "Budget sheet" });
-    await expect
-      .poll(() => reloaded.getByLabel("Context parallelism", { exact: true }).inputValue(), { timeout: 15_000 })
-      .toBe("2");
-    await expect
-      .poll(() => reloaded.getByLabel("Stage 1 steps", { exact: true }).inputValue(), { timeout: 15_000 })
-      .toBe("100");
+    await expect.poll(() => reloaded.getByLabel("Context parallelism", { exact: true }).inputValue()).toBe("2");
+    await expect.poll(() => reloaded.getByLabel("Stage 1 steps", { exact: true }).inputValue()).toBe("100");
     await settledTokens(page);
     await screenshot(page, "plan-budget");
 
@@ -354,9 +342,9 @@ describe("budget sheet in a browser", () => {
     await page.waitForURL(new RegExp(`/plans/${created.id}/revisions/2/edit`));
     const sheet = page.getByRole("region", { name: "Budget sheet" });
     const notice = sheet.getByTestId("retired-accelerator");
-    await expect.poll(() => notice.textContent(), { timeout: 15_000 }).toContain(`${acceleratorName} is retired`);
+    await expect.poll(() => notice.textContent()).toContain(`${acceleratorName} is retired`);
     await expect
-      .poll(() => sheet.getByLabel("Catalog accelerator").locator("option:checked").textContent(), { timeout: 15_000 })
+      .poll(() => sheet.getByLabel("Catalog accelerator").locator("option:checked").textContent())
       .toBe(`${acceleratorName} (retired)`);
     await settledTokens(page);
     await screenshot(page, "plan-budget-retired-accelerator");
@@ -364,14 +352,12 @@ describe("budget sheet in a browser", () => {
     await sheet.getByLabel("Catalog accelerator").selectOption({ label: other });
     await notice.waitFor({ state: "detached" });
     await expect
-      .poll(() => sheet.getByLabel("Catalog accelerator").locator("option").allTextContents(), { timeout: 15_000 })
+      .poll(() => sheet.getByLabel("Catalog accelerator").locator("option").allTextContents())
       .not.toContain(`${acceleratorName} (retired)`);
 
     // An estimator link to the retired accelerator still loads its figures, with the notice.
     await page.goto(`${server.url}/estimator?model=${profile.id}&acc=${acc.id}`);
-    await expect
-      .poll(() => page.getByTestId("retired-accelerator").textContent(), { timeout: 15_000 })
-      .toContain(acceleratorName);
+    await expect.poll(() => page.getByTestId("retired-accelerator").textContent()).toContain(acceleratorName);
     await expect(settledTokens(page)).resolves.toBeTruthy();
     expect(errors).toEqual([]);
     await page.context().close();
@@ -395,12 +381,10 @@ describe("budget sheet in a browser", () => {
     await page.waitForURL(/\/plans\/\d+$/);
     const id = Number(new URL(page.url()).pathname.split("/").pop());
     await page.getByTestId("budget-panel").waitFor();
-    await expect
-      .poll(() => page.getByTestId("budget-panel").textContent(), { timeout: 15_000 })
-      .toContain(acceleratorName);
+    await expect.poll(() => page.getByTestId("budget-panel").textContent()).toContain(acceleratorName);
     // The frozen figures carry the currency they were costed in and state each convention once.
     await expect(page.getByTestId("budget-panel").textContent()).resolves.toMatch(/Cost \([A-Z]{3}\)/);
-    await expect.poll(() => page.locator("#frozen-convention-activations").count(), { timeout: 15_000 }).toBe(1);
+    await expect.poll(() => page.locator("#frozen-convention-activations").count()).toBe(1);
     const rev = (await api.get(`/api/plans/${id}/revisions/1`).expect(200)).body;
     expect(rev.content.budget.inputs).toMatchObject({ accelerators: 8 });
     expect(rev.content.budget.cluster.name).toBe(acceleratorName);
@@ -419,7 +403,7 @@ describe("budget sheet in a browser", () => {
     await expect(page.getByRole("button", { name: /^(Edit|Delete) / }).count()).resolves.toBe(0);
     // The workspace currency is shown, not offered for change (admins change it).
     await expect
-      .poll(() => page.getByTestId("workspace-currency").textContent(), { timeout: 15_000 })
+      .poll(() => page.getByTestId("workspace-currency").textContent())
       .toMatch(/in [A-Z]{3}, the workspace currency/);
     expect(errors).toEqual([]);
     await page.context().close();

@@ -128,9 +128,7 @@ describe("conformance matrix in the three screens", () => {
     expect(["exact", "equivalent"]).toContain(early);
     await panel.getByLabel("Stack to rig").selectOption("vllm");
     // The artifact shown before the choice is still on the page until the new one renders.
-    await expect
-      .poll(() => panel.getByTestId("target-artifact-text").textContent(), { timeout: 15_000 })
-      .toContain("--max-model-len");
+    await expect.poll(() => panel.getByTestId("target-artifact-text").textContent()).toContain("--max-model-len");
     await screenshot(page, "conformance-workbench");
   }, 60_000);
 
@@ -142,9 +140,7 @@ describe("conformance matrix in the three screens", () => {
     // the revision's stored fingerprint is the one its final block compiles to
     expect(await page.getByTestId("revision-fingerprint").textContent()).toBe(fingerprint);
     await panel.getByLabel("Stack to rig").selectOption("transformers-v5");
-    await expect
-      .poll(() => panel.getByTestId("target-artifact-text").textContent(), { timeout: 15_000 })
-      .toContain("rope_parameters");
+    await expect.poll(() => panel.getByTestId("target-artifact-text").textContent()).toContain("rope_parameters");
     await panel.getByRole("button", { name: /^Copy the config\.json merge patch/ }).waitFor();
 
     const checks = page.getByTestId("probe-checks");

@@ -79,7 +79,7 @@ describe("foundation screens in a browser", () => {
     // The list is paged by the server, so the server's search finds her wherever she sorts.
     await page.getByLabel("Find a person").fill("rosa");
     const rows = page.getByRole("table", { name: "Users" }).locator("tbody tr");
-    await expect.poll(() => rows.count(), { timeout: 15_000 }).toBe(1);
+    await expect.poll(() => rows.count()).toBe(1);
     await expect(rows.first().textContent()).resolves.toMatch(/Rosa Researcher.*Researcher.*Approver/);
     await page.getByLabel("Find a person").fill("");
 
@@ -117,7 +117,7 @@ describe("foundation screens in a browser", () => {
     await page.goto(`${server.url}/users`);
     const refusal = page.getByTestId("not-allowed");
     await refusal.waitFor();
-    await expect.poll(() => refusal.textContent(), { timeout: 15_000 }).toContain("not allowed for your roles");
+    await expect.poll(() => refusal.textContent()).toContain("not allowed for your roles");
     await expect(page.getByRole("table").count()).resolves.toBe(0);
     await screenshot(page, "not-allowed");
 
@@ -182,7 +182,7 @@ describe("foundation screens in a browser", () => {
     const nameHeader = table.getByRole("columnheader", { name: /Name/ });
     expect(await nameHeader.getAttribute("aria-sort")).toBe("ascending");
     await nameHeader.getByRole("button").click();
-    await expect.poll(() => nameHeader.getAttribute("aria-sort"), { timeout: 15_000 }).toBe("descending");
+    await expect.poll(() => nameHeader.getAttribute("aria-sort")).toBe("descending");
 
     await page.getByLabel("Find a person").fill(target.email);
     const row = table.locator("tbody tr").filter({ hasText: target.email });
@@ -192,11 +192,11 @@ describe("foundation screens in a browser", () => {
     await editor.getByRole("button", { name: "Save roles" }).click();
     await editor.waitFor({ state: "detached" });
     // The editor closes with the save's answer; the row shows the new roles once the list has been read again.
-    await expect.poll(() => row.textContent(), { timeout: 15_000 }).toMatch(/Infra lead.*Viewer|Viewer.*Infra lead/);
+    await expect.poll(() => row.textContent()).toMatch(/Infra lead.*Viewer|Viewer.*Infra lead/);
 
     await page.getByRole("button", { name: "Deactivate Vera Viewer" }).click();
     await page.getByText("Vera Viewer is deactivated").waitFor();
-    await expect.poll(() => row.textContent(), { timeout: 15_000 }).toContain("Deactivated");
+    await expect.poll(() => row.textContent()).toContain("Deactivated");
 
     // A deactivated account cannot sign in.
     const other = await browser.newContext();

@@ -49,7 +49,7 @@ describe("a layered model from import to an approved export", () => {
       const groups = page.getByTestId("profile-layer-groups");
       await groups.waitFor();
       const local = groups.locator('tr[data-kind="sliding_attention"]');
-      await expect.poll(() => local.textContent(), { timeout: 15_000 }).toContain("plain RoPE, unscaled");
+      await expect.poll(() => local.textContent()).toContain("plain RoPE, unscaled");
       expect(await local.textContent()).toContain("0–4, 6–10");
       expect(await groups.locator('tr[data-kind="full_attention"]').textContent()).toContain("linear ×8");
       await screenshot(page, "layouts-import-preview");
@@ -61,12 +61,12 @@ describe("a layered model from import to an approved export", () => {
     const picker = page.getByRole("combobox", { name: "Layer group", exact: true });
     await picker.waitFor();
     // The picker is drawn before the profile's groups fill it and pick the default.
-    await expect.poll(() => picker.inputValue(), { timeout: 15_000 }).toBe("full_attention");
+    await expect.poll(() => picker.inputValue()).toBe("full_attention");
     const status = page.getByTestId("analysis-status");
-    await expect.poll(() => status.textContent(), { timeout: 15_000 }).toContain("d = 256 (128 pairs), b = 1 × 10⁶");
+    await expect.poll(() => status.textContent()).toContain("d = 256 (128 pairs), b = 1 × 10⁶");
     await picker.selectOption("sliding_attention");
     await page.waitForURL((u) => u.searchParams.get("group") === "sliding_attention");
-    await expect.poll(() => status.textContent(), { timeout: 15_000 }).toMatch(/b = 10[,\s\u202f]?000,/);
+    await expect.poll(() => status.textContent()).toMatch(/b = 10[,\s\u202f]?000,/);
     await screenshot(page, "layouts-workbench-local-group");
   }, 120_000);
 
@@ -82,9 +82,7 @@ describe("a layered model from import to an approved export", () => {
     expect(await groups.locator('tr[data-kind="full_attention"]').textContent()).toContain("takes the plan's method");
     await screenshot(page, "layouts-plan-groups");
     await page.getByRole("button", { name: "Send to inspection" }).click();
-    await expect
-      .poll(() => page.getByRole("list", { name: "Revisions" }).textContent(), { timeout: 15_000 })
-      .toContain("At inspection");
+    await expect.poll(() => page.getByRole("list", { name: "Revisions" }).textContent()).toContain("At inspection");
   }, 60_000);
 
   it("an approver signs it; the export nests rope_parameters by layer type with the local layers untouched", async () => {
@@ -97,9 +95,7 @@ describe("a layered model from import to an approved export", () => {
     await page.getByText("Revision 1 passed inspection and is signed.").waitFor();
 
     const owner = await signedIn(researcher, `/plans/${planId}`);
-    await expect
-      .poll(() => owner.getByRole("list", { name: "Revisions" }).textContent(), { timeout: 15_000 })
-      .toContain("Passed");
+    await expect.poll(() => owner.getByRole("list", { name: "Revisions" }).textContent()).toContain("Passed");
     const [download] = await Promise.all([
       owner.waitForEvent("download"),
       owner.getByRole("link", { name: "Download export (config patch JSON)" }).click(),

@@ -84,7 +84,7 @@ describe("an already-scaled model extended from its served length", () => {
     const from = form.getByLabel("Extends from");
     await from.waitFor();
     await expect
-      .poll(() => from.locator("option").allTextContents(), { timeout: 15_000 })
+      .poll(() => from.locator("option").allTextContents())
       .toEqual([
         expect.stringMatching(/^Pre-trained length \(8[,\s\u202f]?192 tokens\)$/),
         expect.stringMatching(/^Served length \(32[,\s\u202f]?768 tokens, as shipped: yarn ×4\)$/),
@@ -98,9 +98,7 @@ describe("an already-scaled model extended from its served length", () => {
     await page.waitForURL(/\/plans\/\d+$/);
     planId = Number(new URL(page.url()).pathname.split("/").pop());
     await page.getByRole("button", { name: "Send to inspection" }).click();
-    await expect
-      .poll(() => page.getByRole("list", { name: "Revisions" }).textContent(), { timeout: 15_000 })
-      .toContain("At inspection");
+    await expect.poll(() => page.getByRole("list", { name: "Revisions" }).textContent()).toContain("At inspection");
     await screenshot(page, "lineage-plan");
   }, 60_000);
 
@@ -114,9 +112,7 @@ describe("an already-scaled model extended from its served length", () => {
     await page.getByText("Revision 1 passed inspection and is signed.").waitFor();
 
     const owner = await signedIn(researcher, `/plans/${planId}`);
-    await expect
-      .poll(() => owner.getByRole("list", { name: "Revisions" }).textContent(), { timeout: 15_000 })
-      .toContain("Passed");
+    await expect.poll(() => owner.getByRole("list", { name: "Revisions" }).textContent()).toContain("Passed");
     const [download] = await Promise.all([
       owner.waitForEvent("download"),
       owner.getByRole("link", { name: "Download export (config patch JSON)" }).click(),

@@ -65,7 +65,7 @@ describe("Mail page in a browser", () => {
     const deliveries = page.getByRole("list", { name: "Deliveries by plan" });
     const statuses = () =>
       deliveries.locator("li[data-outbox-id]").evaluateAll((els) => els.map((e) => e.getAttribute("data-status")));
-    await expect.poll(statuses, { timeout: 15_000 }).toEqual(["pending"]);
+    await expect.poll(statuses).toEqual(["pending"]);
     // Mail about no plan sits on the "Other mail" line, its attempts inline.
     await deliveries.getByRole("listitem", { name: "Other mail" }).getByText("Waiting for its first try").waitFor();
     const received = page.getByRole("list", { name: "Received messages" });
@@ -81,7 +81,7 @@ describe("Mail page in a browser", () => {
     await received.getByText(subject).click();
     await received.getByText(`Delivered by the Mail page's button (${tag}).`).waitFor();
     await expect(received.textContent()).resolves.toContain(to);
-    await expect.poll(statuses, { timeout: 15_000 }).toEqual(["sent"]);
+    await expect.poll(statuses).toEqual(["sent"]);
     await expect(deliveries.getByTestId("attempts").textContent()).resolves.toMatch(/^Sent .* after 1 try$/);
 
     const [row] = await outboxRow();

@@ -138,7 +138,7 @@ describe("multimodal sections: bands over the pair axis, and what a plan that sc
     // hf/compile.ts cites where): NTK-aware goes out as a new base, so rope_scaling stays as a "default" block holding
     // mrope_section instead of being removed.
     const artifact = page.getByTestId("target-artifact-text");
-    await expect.poll(() => artifact.textContent(), { timeout: 15_000 }).toContain('"rope_scaling"');
+    await expect.poll(() => artifact.textContent()).toContain('"rope_scaling"');
     const patch = JSON.parse((await artifact.textContent()) ?? "{}");
     expect(patch.rope_scaling).toMatchObject({ rope_type: "default" });
     expect(patch.rope_scaling).not.toHaveProperty("mrope_section", null);
@@ -164,7 +164,7 @@ describe("multimodal sections: bands over the pair axis, and what a plan that sc
     // head_dim 128: 64 pairs, but 24 + 20 + 16 = 60
     await importConfigThroughUi(page, "mrope-sections-interleaved-bad-sum.json", modelName, async () => {
       await expect
-        .poll(() => page.getByTestId("import-warnings").textContent(), { timeout: 15_000 })
+        .poll(() => page.getByTestId("import-warnings").textContent())
         .toContain("mrope_section [24, 20, 16] adds up to 60 pairs, but the rotary dimension 128 has 64.");
     });
 

@@ -112,7 +112,7 @@ describe("plan workflow in a browser", () => {
     // The live check answers for 4096 → 32768 (s = 8) before anything is saved.
     const live = page.getByTestId("live-flags");
     await live.waitFor();
-    await expect.poll(() => live.textContent(), { timeout: 15_000 }).toContain("×8 the trained window");
+    await expect.poll(() => live.textContent()).toContain("×8 the trained window");
 
     await form.getByRole("button", { name: "Add stage" }).click();
     await form.getByRole("button", { name: "Add stage" }).click();
@@ -146,9 +146,7 @@ describe("plan workflow in a browser", () => {
       .getByRole("group", { name: "Revision actions" })
       .getByRole("button", { name: "Take back to the walk" })
       .waitFor();
-    await expect
-      .poll(() => page.getByRole("list", { name: "Revisions" }).textContent(), { timeout: 15_000 })
-      .toContain("At inspection");
+    await expect.poll(() => page.getByRole("list", { name: "Revisions" }).textContent()).toContain("At inspection");
     signedHash = (await page.getByTestId("content-hash").textContent()) ?? "";
     expect(signedHash).toMatch(/^[0-9a-f]{64}$/);
     await page.getByTestId("verify-status").and(page.locator('[data-ok="true"]')).waitFor();
@@ -169,7 +167,7 @@ describe("plan workflow in a browser", () => {
     await plans.getByRole("link", { name: title }).waitFor();
     // The owner filter lists every plan owner (GET /api/plans/owners), not only those on this page.
     const owner = page.getByLabel("Owner", { exact: true });
-    await expect.poll(() => owner.locator("option").allTextContents(), { timeout: 15_000 }).toContain(otherOwner.name);
+    await expect.poll(() => owner.locator("option").allTextContents()).toContain(otherOwner.name);
     await owner.selectOption({ label: otherOwner.name });
     await page.waitForURL((u) => u.searchParams.get("ownerId") === String(otherOwner.id));
     await plans.getByText("No plans match these filters.").waitFor();
@@ -180,7 +178,7 @@ describe("plan workflow in a browser", () => {
     await page.waitForURL((u) => u.searchParams.get("sort") === "title" && u.searchParams.get("dir") === "asc");
     await plans.locator('th[aria-sort="ascending"]', { hasText: "Plan" }).waitFor();
     // The header follows the URL at once; the rows follow the server's answer to the new order.
-    await expect.poll(() => plans.locator("tbody tr").count(), { timeout: 15_000 }).toBe(1);
+    await expect.poll(() => plans.locator("tbody tr").count()).toBe(1);
   }, 90_000);
 
   // Defect (issue 15): the review page at 390 px was 647 px wide.
@@ -213,13 +211,11 @@ describe("plan workflow in a browser", () => {
     await page.getByRole("button", { name: "Inspect revision 1" }).click();
     const dialog = page.getByRole("dialog");
     expect(await dialog.getByTestId("hash-to-sign").textContent()).toBe(signedHash);
-    await expect.poll(() => dialog.textContent(), { timeout: 15_000 }).toContain("So far 1 of 2 passes");
+    await expect.poll(() => dialog.textContent()).toContain("So far 1 of 2 passes");
     await dialog.getByLabel("Note (optional)").fill(`Checked by ${approverB.name}.`);
     await dialog.getByRole("button", { name: "Sign and pass" }).click();
     await page.getByText("Revision 1 passed inspection and is signed.").waitFor();
-    await expect
-      .poll(() => page.getByRole("list", { name: "Revisions" }).textContent(), { timeout: 15_000 })
-      .toContain("Passed");
+    await expect.poll(() => page.getByRole("list", { name: "Revisions" }).textContent()).toContain("Passed");
     // Decided revisions leave the queue.
     await page.goto(`${server.url}/review`);
     await page.getByRole("table", { name: "Inspection bench" }).waitFor();
@@ -229,9 +225,7 @@ describe("plan workflow in a browser", () => {
   it("the researcher sees Passed and downloads the export and the report", async () => {
     const page = await signedIn(researcher, `/plans/${planId}`);
     await page.getByRole("heading", { level: 1, name: title }).waitFor();
-    await expect
-      .poll(() => page.getByRole("list", { name: "Revisions" }).textContent(), { timeout: 15_000 })
-      .toContain("Passed");
+    await expect.poll(() => page.getByRole("list", { name: "Revisions" }).textContent()).toContain("Passed");
     await page.getByTestId("verify-status").and(page.locator('[data-ok="true"]')).waitFor();
     // The decisions come with the plan's query, not with the check waited for above: wait for both, not a read at once.
     await expect
@@ -242,11 +236,9 @@ describe("plan workflow in a browser", () => {
     // Each decision says that the server's signature on it holds.
     const seals = page.getByRole("list", { name: "Decisions" }).getByTestId("signature-status");
     await expect
-      .poll(() => seals.evaluateAll((els) => els.map((e) => e.getAttribute("data-status"))), { timeout: 15_000 })
+      .poll(() => seals.evaluateAll((els) => els.map((e) => e.getAttribute("data-status"))))
       .toEqual(["valid", "valid"]);
-    await expect
-      .poll(() => seals.first().textContent(), { timeout: 15_000 })
-      .toMatch(/Server signature holds · key [0-9a-f]/);
+    await expect.poll(() => seals.first().textContent()).toMatch(/Server signature holds · key [0-9a-f]/);
     await screenshot(page, "plans-plan-approved");
 
     const [exported] = await Promise.all([
@@ -306,9 +298,7 @@ describe("plan workflow in a browser", () => {
     await expect(stages.getByRole("table", { name: "Stage 2 changes" }).textContent()).resolves.toMatch(
       /steps.*200.*300.*\+100 · ×1\.5/,
     );
-    await expect
-      .poll(() => page.getByRole("region", { name: "Changed fields" }).textContent(), { timeout: 15_000 })
-      .toContain("notes");
+    await expect.poll(() => page.getByRole("region", { name: "Changed fields" }).textContent()).toContain("notes");
     await screenshot(page, "plans-diff");
   }, 150_000);
 
@@ -352,10 +342,8 @@ describe("plan workflow in a browser", () => {
     // For inspection (to the approvers) and passed (to the author); "ready" goes to infra leads, if any.
     // The search is debounced and the list keeps the unsearched messages until it answers: wait for both subjects.
     const subjects = received.getByTestId("subject");
-    await expect
-      .poll(() => subjects.allTextContents(), { timeout: 15_000 })
-      .toContain(`For inspection: "${title}" rev. 1, round 1`);
-    await expect.poll(() => subjects.allTextContents(), { timeout: 15_000 }).toContain(`Passed: "${title}" rev. 1`);
+    await expect.poll(() => subjects.allTextContents()).toContain(`For inspection: "${title}" rev. 1, round 1`);
+    await expect.poll(() => subjects.allTextContents()).toContain(`Passed: "${title}" rev. 1`);
     // The plan's own line: what was sent, in order, each delivered.
     const line = page.getByRole("list", { name: "Deliveries by plan" }).getByRole("listitem", { name: title });
     await line.getByTestId("kind").filter({ hasText: "Told the author it passed" }).first().waitFor();
@@ -364,7 +352,7 @@ describe("plan workflow in a browser", () => {
     expect(kinds.indexOf("Asked the inspectors")).toBeLessThan(kinds.indexOf("Told the author it passed"));
     // The body opens in place.
     await line.getByText(`Passed: "${title}" rev. 1`).click();
-    await expect.poll(() => line.textContent(), { timeout: 15_000 }).toContain(`/plans/${planId}`);
+    await expect.poll(() => line.textContent()).toContain(`/plans/${planId}`);
     await screenshot(page, "plans-mail");
   }, 60_000);
 
@@ -393,7 +381,7 @@ describe("plan workflow in a browser", () => {
     await expect(page.getByTestId("new-token-secret").count()).resolves.toBe(0);
     await page.getByRole("button", { name: "Revoke cluster export" }).click();
     await page.getByText("cluster export is revoked").waitFor();
-    await expect.poll(() => table.locator("tbody tr").first().textContent(), { timeout: 15_000 }).toContain("Revoked");
+    await expect.poll(() => table.locator("tbody tr").first().textContent()).toContain("Revoked");
     expect((await withToken()).status).toBe(401);
   }, 60_000);
 
@@ -408,11 +396,11 @@ describe("plan workflow in a browser", () => {
     const panel = page.getByTestId("budget-panel");
     await panel.waitFor();
     const rows = panel.getByRole("table", { name: "Budget per stage" }).locator("tbody tr");
-    await expect.poll(() => rows.count(), { timeout: 15_000 }).toBe(2);
+    await expect.poll(() => rows.count()).toBe(2);
     // Tokens = steps × global batch × sequence length: 200 × 64 × 16 384 and 200 × 32 × 32 768, 419 430 400 in all.
     await expect(rows.nth(0).locator("td").first().textContent()).resolves.toBe("210 million");
     await expect(panel.locator("tfoot td").first().textContent()).resolves.toBe("419 million");
-    await expect.poll(() => panel.textContent(), { timeout: 15_000 }).toContain("64 × custom accelerator");
+    await expect.poll(() => panel.textContent()).toContain("64 × custom accelerator");
     await screenshot(page, "plans-budget");
   }, 60_000);
 
@@ -425,7 +413,7 @@ describe("plan workflow in a browser", () => {
     const page = await signedIn(researcher, `/plans/${planId}?revision=1`);
     const status = page.getByTestId("verify-status");
     await status.and(page.locator('[data-ok="false"]')).waitFor();
-    await expect.poll(() => status.textContent(), { timeout: 15_000 }).toContain("Integrity failure");
+    await expect.poll(() => status.textContent()).toContain("Integrity failure");
     await expect
       .poll(() => page.getByRole("button", { name: "Download export (config patch JSON)" }).isDisabled(), {
         timeout: 15_000,

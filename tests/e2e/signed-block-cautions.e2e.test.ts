@@ -86,7 +86,7 @@ describe("the plan page names each old signed block that lacks the sections", ()
       // The blocks faked old are exactly the ones named: stage 1's, then the sliding and no_rope groups'; the plan
       // target's block, stage 2's and the full-attention group's kept the sections and draw none.
       await expect
-        .poll(() => notices.locator("p.font-semibold").allTextContents(), { timeout: 15_000 })
+        .poll(() => notices.locator("p.font-semibold").allTextContents())
         .toEqual([
           "Stage 1's signed block lacks the model's sections",
           "The sliding_attention layer group's signed block lacks the model's sections",

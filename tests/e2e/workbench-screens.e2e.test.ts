@@ -71,7 +71,7 @@ describe("workbench results are labelled by the request that made them", () => {
     ];
     const { context, page, errors, analysis } = await openWorkbench(1440, rows);
     const cards = page.getByRole("article");
-    await expect.poll(() => cards.count(), { timeout: 15_000 }).toBe(8);
+    await expect.poll(() => cards.count()).toBe(8);
     const results = page.getByTestId("workbench-results");
     expect(await results.getAttribute("data-stale")).toBeNull();
 
@@ -79,7 +79,7 @@ describe("workbench results are labelled by the request that made them", () => {
     await page.getByLabel("Method 6", { exact: true }).selectOption("longrope");
     await page.getByLabel("Method 7", { exact: true }).selectOption("base");
     await page.getByLabel("Method 1", { exact: true }).selectOption("default");
-    await expect.poll(() => results.getAttribute("data-stale"), { timeout: 15_000 }).toBe("invalid");
+    await expect.poll(() => results.getAttribute("data-stale")).toBe("invalid");
 
     // The figures on screen are still the answer to the eight-row request: every card carries that request's method.
     const shown = analysis.methods.map((m: { method: MethodId }) => m.method);
@@ -127,13 +127,9 @@ describe("workbench results are labelled by the request that made them", () => {
     await page.getByLabel("Method 7", { exact: true }).selectOption("dynamic");
     const answer = await (await fresh).json();
     expect(answer.methods[0].method).toBe("default");
-    await expect.poll(() => results.getAttribute("data-stale"), { timeout: 15_000 }).toBeNull();
-    await expect
-      .poll(() => cards.first().getAttribute("aria-label"), { timeout: 15_000 })
-      .toBe(`Method 1: ${label("default")}`);
-    await expect
-      .poll(() => cards.nth(6).getAttribute("aria-label"), { timeout: 15_000 })
-      .toBe(`Method 7: ${label("dynamic")}`);
+    await expect.poll(() => results.getAttribute("data-stale")).toBeNull();
+    await expect.poll(() => cards.first().getAttribute("aria-label")).toBe(`Method 1: ${label("default")}`);
+    await expect.poll(() => cards.nth(6).getAttribute("aria-label")).toBe(`Method 7: ${label("dynamic")}`);
     expect(errors).toEqual([]);
     await context.close();
   }, 90_000);

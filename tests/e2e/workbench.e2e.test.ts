@@ -91,11 +91,11 @@ describe("workbench in a browser", () => {
     const warningsBox = page.getByTestId("import-warnings");
     await warningsBox.waitFor();
     const items = warningsBox.locator("li");
-    await expect.poll(() => items.count(), { timeout: 15_000 }).toBe(preview.warnings.length);
+    await expect.poll(() => items.count()).toBe(preview.warnings.length);
     for (const w of preview.warnings) {
       const item = warningsBox.locator(`li[data-code="${w.code}"]`).first();
-      await expect.poll(() => item.textContent(), { timeout: 15_000 }).toContain(w.message);
-      await expect.poll(() => item.textContent(), { timeout: 15_000 }).toContain(w.fix);
+      await expect.poll(() => item.textContent()).toContain(w.message);
+      await expect.poll(() => item.textContent()).toContain(w.fix);
     }
     // The fixture carries each mistake of the domain notes' import list that applies to a yarn block.
     const codes = preview.warnings.map((w: { code: string }) => w.code);
@@ -109,7 +109,7 @@ describe("workbench in a browser", () => {
       expect(codes).toContain(code);
     }
     // d = head_dim 256 × partial_rotary_factor 0.5 = 128, shown before saving.
-    await expect.poll(() => page.getByTestId("rotary-summary").textContent(), { timeout: 15_000 }).toContain("d = 128");
+    await expect.poll(() => page.getByTestId("rotary-summary").textContent()).toContain("d = 128");
     await screenshot(page, "workbench-import-preview");
 
     const name = `Troubled ${Date.now().toString(36)}`;
@@ -131,9 +131,7 @@ describe("workbench in a browser", () => {
     expect(savedModel.importWarnings).toEqual(preview.warnings);
     await page.waitForURL(`${server.url}/models/${savedModel.id}`);
     await page.getByRole("heading", { level: 1, name }).waitFor();
-    await expect
-      .poll(() => page.getByTestId("import-warnings").locator("li").count(), { timeout: 15_000 })
-      .toBe(preview.warnings.length);
+    await expect.poll(() => page.getByTestId("import-warnings").locator("li").count()).toBe(preview.warnings.length);
     const sourceLink = page.getByRole("link", { name: /Download the original/ });
     const source = await page.request.get(new URL((await sourceLink.getAttribute("href"))!, server.url).toString());
     expect(await source.text()).toBe(fs.readFileSync(fixturePath, "utf8"));
@@ -146,9 +144,7 @@ describe("workbench in a browser", () => {
     await page.waitForURL(/\/workbench\?/);
     await page.getByLabel("Method 1", { exact: true }).waitFor();
     // A select reads "" until its options (the profiles) have loaded and hold the chosen one.
-    await expect
-      .poll(() => page.getByLabel("Model", { exact: true }).inputValue(), { timeout: 15_000 })
-      .toBe(String(savedModel.id));
+    await expect.poll(() => page.getByLabel("Model", { exact: true }).inputValue()).toBe(String(savedModel.id));
     const answered = analysisFor(page, target);
     await page.getByLabel("Method 2", { exact: true }).selectOption("ntk");
     await page.getByLabel("Target length L′ (tokens)").fill(String(target));
@@ -169,25 +165,21 @@ describe("workbench in a browser", () => {
     ).length;
     expect(beyond).toBeGreaterThan(0);
     // The chart draws the answer once its frame has a width (visx ParentSize), after the status line above.
-    await expect.poll(() => markers("exceedsTrainedWindow").count(), { timeout: 15_000 }).toBe(beyond);
-    await expect
-      .poll(() => markers("compressedResolution").count(), { timeout: 15_000 })
-      .toBe(linear.summary.compressedResolutionPairs);
+    await expect.poll(() => markers("exceedsTrainedWindow").count()).toBe(beyond);
+    await expect.poll(() => markers("compressedResolution").count()).toBe(linear.summary.compressedResolutionPairs);
     expect(linear.summary.compressedResolutionPairs).toBeGreaterThan(0);
     // Position interpolation never reaches unseen angles (Chen et al. 2023; DOMAIN flag rule). Read once the chart
     // shows the linear row's markers above, so a zero here is the drawn chart's, not an empty frame's.
     await expect(markers("unseenAngles").count()).resolves.toBe(0);
 
     await page.getByLabel("Method shown").first().selectOption("1");
-    await expect.poll(() => markers("unseenAngles").count(), { timeout: 15_000 }).toBe(ntk.summary.unseenAnglesPairs);
+    await expect.poll(() => markers("unseenAngles").count()).toBe(ntk.summary.unseenAnglesPairs);
     // NTK-aware scaling extrapolates some low-frequency pairs (Peng et al. 2023 §3.1).
     expect(ntk.summary.unseenAnglesPairs).toBeGreaterThan(0);
     const hover = chart.getByTestId("chart-hover");
     const box = (await hover.boundingBox())!;
     await hover.hover({ position: { x: box.width * 0.995, y: box.height / 2 } });
-    await expect
-      .poll(() => page.getByTestId("chart-tooltip").textContent(), { timeout: 15_000 })
-      .toMatch(new RegExp(`Pair ${d / 2 - 1} `));
+    await expect.poll(() => page.getByTestId("chart-tooltip").textContent()).toMatch(new RegExp(`Pair ${d / 2 - 1} `));
     await page
       .getByTestId("smallest-base")
       .getByText(/Smallest base that supports|No base on the grid/)
@@ -200,16 +192,16 @@ describe("workbench in a browser", () => {
       .locator("xpath=ancestor::section[1]");
     await spectrumPanel.getByText("How is this computed?").click();
     const explained = spectrumPanel.locator("details[open]");
-    await expect.poll(() => explained.textContent(), { timeout: 15_000 }).toContain("RoFormer, Su et al. 2021");
+    await expect.poll(() => explained.textContent()).toContain("RoFormer, Su et al. 2021");
     await expect
-      .poll(() => explained.textContent(), { timeout: 15_000 })
+      .poll(() => explained.textContent())
       .toContain("confirmed only by long-context evaluations of the tuned model");
     await screenshot(page, "workbench-charts");
 
     // The table: all 64 pairs, then only flagged ones; the CSV holds exactly the rows and columns shown.
     const table = page.getByRole("table", { name: /^Pairs of/ });
     const rows = table.locator("tbody tr");
-    await expect.poll(() => rows.count(), { timeout: 15_000 }).toBe(d / 2);
+    await expect.poll(() => rows.count()).toBe(d / 2);
     await page.getByLabel("Flagged pairs only").check();
     const flagged = ntk.pairs.filter((p) => p.exceedsTrainedWindow || p.unseenAngles || p.compressedResolution).length;
     expect(flagged).toBeLessThan(d / 2);
@@ -269,9 +261,9 @@ describe("workbench in a browser", () => {
     await reloaded;
     await page.getByLabel("Method 2", { exact: true }).waitFor();
     // The model picker and the chart's picker fill in as their data arrives after the reload.
-    await expect.poll(() => readInputs(page), { timeout: 15_000 }).toEqual(before);
+    await expect.poll(() => readInputs(page)).toEqual(before);
     expect(page.url()).toBe(url);
-    await expect.poll(() => rows.count(), { timeout: 15_000 }).toBe(flagged);
+    await expect.poll(() => rows.count()).toBe(flagged);
 
     expect(pageErrors).toEqual([]);
     await context.close();
@@ -307,7 +299,7 @@ describe("profiles and bounds in a browser", () => {
     await page.getByRole("button", { name: "Yes, delete it" }).click();
     expect((await retired).status()).toBe(200);
     const notice = page.getByRole("status").filter({ hasText: "Retired, not deleted" });
-    await expect.poll(() => notice.textContent(), { timeout: 15_000 }).toContain(`#${plan.id}`);
+    await expect.poll(() => notice.textContent()).toContain(`#${plan.id}`);
     expect(new URL(page.url()).pathname).toBe(`/models/${profile.id}`);
     await page.getByText("This profile is retired").waitFor();
     await screenshot(page, "workbench-profile-in-use");
@@ -315,7 +307,7 @@ describe("profiles and bounds in a browser", () => {
     await page.goto(`${server.url}/plans/new`);
     await page.getByLabel("Model", { exact: true }).waitFor();
     await expect
-      .poll(() => page.getByLabel("Model", { exact: true }).locator("option").allTextContents(), { timeout: 15_000 })
+      .poll(() => page.getByLabel("Model", { exact: true }).locator("option").allTextContents())
       .not.toContain(profile.name);
     await page.goto(`${server.url}/models/${profile.id}`);
     await page.getByRole("button", { name: "Restore profile" }).click();
@@ -353,10 +345,10 @@ describe("profiles and bounds in a browser", () => {
     // Before the fix the page said "the server sent a response this page does not understand" here.
     expect(await page.getByText("does not understand").count()).toBe(0);
     await expect
-      .poll(() => warningsBox.locator('li[data-code="head_dim_not_integer"]').textContent(), { timeout: 15_000 })
+      .poll(() => warningsBox.locator('li[data-code="head_dim_not_integer"]').textContent())
       .toContain("136.53");
     await expect
-      .poll(() => warningsBox.locator('li[data-code="kv_heads_not_divisor"]').textContent(), { timeout: 15_000 })
+      .poll(() => warningsBox.locator('li[data-code="kv_heads_not_divisor"]').textContent())
       .toContain("1, 2, 3, 5, 6, 10, 15 or 30");
     const form = page.getByRole("form", { name: "Imported profile" });
     expect(await form.getByLabel("Head dimension (head_dim)").inputValue()).toBe("");
@@ -368,13 +360,11 @@ describe("profiles and bounds in a browser", () => {
       if (r.url().includes("save=true")) posted += 1;
     });
     await form.getByRole("button", { name: "Save profile" }).click();
-    await expect.poll(() => form.getByText("required").count(), { timeout: 15_000 }).toBeGreaterThan(0);
+    await expect.poll(() => form.getByText("required").count()).toBeGreaterThan(0);
     await form.getByLabel("Name", { exact: true }).fill(`Odd heads ${Date.now().toString(36)}`);
     await form.getByLabel("Head dimension (head_dim)").fill("128");
     await form.getByRole("button", { name: "Save profile" }).click();
-    await expect
-      .poll(() => form.getByText("Attention heads must be a multiple of key/value heads.").count(), { timeout: 15_000 })
-      .toBe(1);
+    await expect.poll(() => form.getByText("Attention heads must be a multiple of key/value heads.").count()).toBe(1);
     expect(posted).toBe(0);
     await form.getByLabel("KV heads (num_key_value_heads)").fill("6");
     const saving = page.waitForResponse((r) => r.url().includes("/api/models/import?save=true"));
