@@ -21,10 +21,14 @@ export interface ExportChoice {
   stage?: number;
 }
 
-/** An imported profile's own config.json (see sourceConfigOf), or undefined. */
-async function sourceConfig(deps: AppDeps, modelId: number): Promise<Record<string, unknown> | undefined> {
-  const row = await findModelRow(deps.db, modelId);
-  return row ? sourceConfigOf(row) : undefined;
+/**
+ * An imported profile's own config.json (see sourceConfigOf), or undefined, read at most once per call of the export
+ * or plan page however many of its parts need it: `modelFile(deps, id)` makes the getter they share.
+ */
+export type ModelFile = () => Promise<Record<string, unknown> | undefined>;
+export function modelFile(deps: AppDeps, modelId: number): ModelFile {
+  let read: ReturnType<ModelFile> | undefined;
+  return () => (read ??= findModelRow(deps.db, modelId).then((row) => (row ? sourceConfigOf(row) : undefined)));
 }
 
 /**
@@ -65,9 +69,9 @@ function signedBlock(content: RevisionContent, stage: number | undefined) {
  * target's artifact, read-back and conformance. The profile's imported file, if any, is only the config the patch is
  * laid on.
  */
-export async function targetBlock(deps: AppDeps, modelId: number, content: RevisionContent, choice: ExportChoice) {
+export async function targetBlock(file: ModelFile, content: RevisionContent, choice: ExportChoice) {
   const { targetContext, method, result, request } = signedBlock(content, choice.stage);
-  const config = choice.target ? await sourceConfig(deps, modelId) : undefined;
+  const config = choice.target ? await file() : undefined;
   const out = exportPlan({ ...request, config, targets: choice.target ? [choice.target] : [] });
   return {
     targetContext,
@@ -80,21 +84,16 @@ export async function targetBlock(deps: AppDeps, modelId: number, content: Revis
 }
 
 /**
- * The stacks whose rigging of a block (compiled for the model's own file) keeps the sections, for one call: the file is
- * read once and each block's stacks asked once, however many of the revision's blocks lack the sections (the plan
- * target's request serves both its own caution and the groups').
+ * The stacks whose rigging of a block (compiled for the model's own file) keeps the sections, for one call: each
+ * block's stacks are asked once, however many of the revision's blocks lack the sections (the plan target's request
+ * serves both its own caution and the groups').
  */
-function stacksAsker(deps: AppDeps, modelId: number, content: RevisionContent) {
-  let config: ReturnType<typeof sourceConfig> | undefined;
+function stacksAsker(file: ModelFile, content: RevisionContent) {
   const asked = new Map<number | undefined, Promise<TargetId[]>>();
   return (stage: number | undefined) => {
     let stacks = asked.get(stage);
     if (!stacks) {
-      stacks = (async () =>
-        stacksKeepingSections({
-          ...signedBlock(content, stage).request,
-          config: await (config ??= sourceConfig(deps, modelId)),
-        }))();
+      stacks = (async () => stacksKeepingSections({ ...signedBlock(content, stage).request, config: await file() }))();
       asked.set(stage, stacks);
     }
     return stacks;
@@ -127,12 +126,11 @@ async function groupCautions(content: RevisionContent, stacks: StacksAsker): Pro
  * (engine/targets/registry.ts targetsKeepingSections). Nothing is compiled unless a block lacks the sections.
  */
 export async function blockCautions(
-  deps: AppDeps,
-  modelId: number,
+  file: ModelFile,
   content: RevisionContent,
   stage?: number,
 ): Promise<BlockCaution[]> {
-  const stacks = stacksAsker(deps, modelId, content);
+  const stacks = stacksAsker(file, content);
   const [own, groups] = await Promise.all([ownBlockCautions(content, stage, stacks), groupCautions(content, stacks)]);
   return [...own, ...groups];
 }
@@ -147,7 +145,7 @@ export async function revisionBlockCautions(
   content: RevisionContent,
 ): Promise<ScopedBlockCaution[]> {
   const scopes = [undefined, ...content.stages.map((_, i) => i + 1)];
-  const stacks = stacksAsker(deps, modelId, content);
+  const stacks = stacksAsker(modelFile(deps, modelId), content);
   const [each, groups] = await Promise.all([
     Promise.all(scopes.map((stage) => ownBlockCautions(content, stage, stacks))),
     groupCautions(content, stacks),

@@ -10,7 +10,7 @@ import type { RevisionContent } from "./revision-content";
 import { checkRevision } from "./integrity";
 import { signingKey } from "./signing";
 import { checkedProofs } from "./proofs";
-import { blockCautions, targetBlock, type ExportChoice } from "./export-target";
+import { blockCautions, modelFile, targetBlock, type ExportChoice } from "./export-target";
 import { layeredExport } from "./group-export";
 import { adoptedBaseSupportOfRow } from "./base-support";
 import { isSigned, latestApproved } from "../../../shared/plan-rules";
@@ -87,8 +87,12 @@ export async function exportRevision(
   }
   const content = rev.content as RevisionContent;
   const decisions = c.decisions.filter((d) => d.decision === "approve" && d.round === rev.round);
-  const block = await targetBlock(deps, plan.modelId, content, choice);
-  const cautions = await blockCautions(deps, plan.modelId, content, choice.stage);
+  // the block and its cautions may both need the model's file: one read serves both
+  const file = modelFile(deps, plan.modelId);
+  const [block, cautions] = await Promise.all([
+    targetBlock(file, content, choice),
+    blockCautions(file, content, choice.stage),
+  ]);
   await recordAudit(deps.db, {
     actorId: actor.id,
     action: "revision.exported",
