@@ -14,6 +14,9 @@ const FORGET_AFTER_MS = 10 * TOUCH_EVERY_MS;
  * user costs one small write a minute instead of one per request, and a slow pool never holds a reply. The stored
  * expiry can lag the cookie by at most TOUCH_EVERY_MS of a 12-hour lifetime.
  */
+/** The session table (migrations; created there, never by the library). */
+const TABLE = "session";
+
 export function throttledPgStore(
   pool: pg.Pool,
   opts: {
@@ -29,18 +32,32 @@ export function throttledPgStore(
 
   class ThrottledTouchStore extends PgStore {
     /**
-     * Every request reads its session (connect-pg-simple 10, index.js `get`: `SELECT sess FROM "session" WHERE sid = $1
-     * AND expire >= to_timestamp($2)`, through `_asyncQuery`); that read goes as a named prepared statement, so
-     * PostgreSQL parses and plans it once per connection. It is still read on every request: a session signed out or
-     * revoked elsewhere (its row deleted) is refused on the next request. Other queries go the library's way.
+     * Every request reads its session. connect-pg-simple 10's `get` (index.js) sends `SELECT sess FROM <table> WHERE
+     * sid = $1 AND expire >= to_timestamp($2)` with the time in whole seconds rounded up; here the same read goes as a
+     * named prepared statement, so PostgreSQL parses and plans it once per connection. It is still read on every
+     * request: a session signed out or revoked elsewhere (its row deleted) is refused on the next request. As the
+     * library does, a stored text `sess` is parsed, and one that does not parse is destroyed.
      */
-    async _asyncQuery(query: string, params: unknown[], noTableCreation?: boolean): Promise<unknown> {
-      if (!query.startsWith("SELECT sess FROM ")) {
-        const base = PgStore.prototype as unknown as { _asyncQuery: ThrottledTouchStore["_asyncQuery"] };
-        return base._asyncQuery.call(this, query, params, noTableCreation);
-      }
-      const res = await pool.query({ name: "rw_session_read", text: query, values: params });
-      return res.rows[0];
+    override get(sid: string, callback: (err: unknown, session?: SessionData | null) => void) {
+      pool
+        .query<{ sess: SessionData | string }>({
+          name: "rw_session_read",
+          text: `SELECT sess FROM "${TABLE}" WHERE sid = $1 AND expire >= to_timestamp($2)`,
+          values: [sid, Math.ceil(Date.now() / 1000)],
+        })
+        .then(
+          ({ rows: [row] }) => {
+            if (!row) return callback(null);
+            let sess: SessionData;
+            try {
+              sess = typeof row.sess === "string" ? (JSON.parse(row.sess) as SessionData) : row.sess;
+            } catch {
+              return this.destroy(sid, callback);
+            }
+            callback(null, sess);
+          },
+          (err: unknown) => callback(err),
+        );
     }
 
     override touch(sid: string, sess: SessionData, callback?: () => void) {
@@ -60,7 +77,7 @@ export function throttledPgStore(
   }
   return new ThrottledTouchStore({
     pool,
-    tableName: "session",
+    tableName: TABLE,
     createTableIfMissing: false,
     // Expired sessions are pruned every 15 minutes; tests build many apps and skip the timer.
     pruneSessionInterval: opts.prune ? 15 * 60 : false,
