@@ -109,23 +109,21 @@ function compareGroups(
   refs: readonly RevisionGroup[],
   readingOf: (g: RevisionGroup) => Rotary | string,
 ): Outcome & { groups: ProbeGroupCheck[] } {
-  // `own` is the group's result in its own words; `named` the same with the group named, as the check's cause
-  const each = refs.map((g): { own: Outcome; named: Outcome } => {
+  // each group's result in its own words (a refusal in words when the probe has no reading for it)
+  const each = refs.map((g) => {
     const read = readingOf(g);
-    if (typeof read === "string") return { own: unpaired(read), named: unpaired(read) };
-    const one = comparePair(g, read);
-    return { own: one, named: { ...one, cause: one.cause && `the ${g.kind} layers: ${one.cause}` } };
+    return { g, read: typeof read !== "string", own: typeof read === "string" ? unpaired(read) : comparePair(g, read) };
   });
-  const groups = refs.map((g, i) => {
-    const { passed, maxRelativeError, worstPair, cause } = each[i].own;
+  const groups = each.map(({ g, own: { passed, maxRelativeError, worstPair, cause } }) => {
     return { kind: g.kind, layers: [...g.layers], passed, maxRelativeError, worstPair, cause };
   });
-  const blocking = each.find((e) => !e.named.passed && (!e.named.paired || e.named.maxRelativeError === null));
-  if (blocking) return { ...blocking.named, groups };
-  const worst = each.reduce((w, e) =>
-    (e.named.maxRelativeError ?? 0) > (w.named.maxRelativeError ?? 0) ? e : w,
-  ).named;
-  return { ...worst, groups };
+  // the check's own cause names the group it comes from (a refusal already says what is missing)
+  const named = ({ g, read, own }: (typeof each)[number]): Outcome =>
+    read ? { ...own, cause: own.cause && `the ${g.kind} layers: ${own.cause}` } : own;
+  const blocking = each.find((e) => !e.own.passed && (!e.own.paired || e.own.maxRelativeError === null));
+  if (blocking) return { ...named(blocking), groups };
+  const worst = each.reduce((w, e) => ((e.own.maxRelativeError ?? 0) > (w.own.maxRelativeError ?? 0) ? e : w));
+  return { ...named(worst), groups };
 }
 
 /**
