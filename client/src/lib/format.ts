@@ -53,10 +53,10 @@ export function formatGrouped(value: number): string {
   return Number.isInteger(value) ? grouped.format(value) : String(value);
 }
 
-/** Scientific notation with a superscript exponent: 3.12e21 → "3.12 × 10²¹". */
 /** A worst relative error as the conformance screens print it: "—" when there is none, "0", else 2 decimals in e-form. */
 export const relativeErrorText = (e: number | null) => (e === null ? "—" : e === 0 ? "0" : e.toExponential(2));
 
+/** Scientific notation with a superscript exponent: 3.12e21 → "3.12 × 10²¹". */
 export function formatScientific(value: number): string {
   if (!Number.isFinite(value) || value === 0) return String(value);
   const exponent = Math.floor(Math.log10(Math.abs(value)));
