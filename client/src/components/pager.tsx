@@ -1,5 +1,5 @@
 import { Button } from "@/components/button";
-import { formatCount } from "@/lib/format";
+import { formatCount, formatGrouped } from "@/lib/format";
 
 type PagerProps = {
   page: number;
@@ -16,7 +16,10 @@ type PagerProps = {
   noun: string;
 };
 
-/** "Plans 21–40 of 57" (or "of 10,000+") with previous / next. Pages count from 1, as the server's `page` does. */
+/**
+ * "Plans 21–40 of 57" (or "of 10,000+") with previous / next. Pages count from 1, as the server's `page` does. The rows
+ * are named with every digit (a place in the list, not a magnitude to round).
+ */
 export function Pager({ page, pageSize, total, totalCapped = false, cursor, onPage, noun }: PagerProps) {
   const pages = Math.max(1, Math.ceil(total / pageSize));
   const first = total === 0 ? 0 : (page - 1) * pageSize + 1;
@@ -33,7 +36,7 @@ export function Pager({ page, pageSize, total, totalCapped = false, cursor, onPa
       className="flex flex-wrap items-center justify-between gap-3 text-note text-ink-soft"
     >
       <span>
-        {noun} {formatCount(first)}–{formatCount(last)} of {of}
+        {noun} {formatGrouped(first)}–{formatGrouped(last)} of {of}
       </span>
       <span className="flex gap-2">
         <Button variant="secondary" size="sm" disabled={page <= 1} onClick={() => onPage(page - 1)}>

@@ -53,6 +53,21 @@ describe("Pager", () => {
     expect(r).toEqual({ words: "Events 10,201–10,213 of 10,000+", previous: true, next: false });
   });
 
+  // A position in the list is a row's place, read to the row: past a million, formatCount's short scale ("1 million")
+  // named the first and last rows of a deep page the same.
+  it("names the rows of a deep page with every digit", () => {
+    const r = read({
+      page: 20_001,
+      pageSize: 50,
+      total: 10_000,
+      totalCapped: true,
+      cursor: { rows: 13, hasNext: false },
+      onPage,
+      noun: "Events",
+    });
+    expect(r.words).toBe("Events 1,000,001–1,000,013 of 10,000+");
+  });
+
   it("a cursor-read list that is counted in full still stops at its last page", () => {
     const r = read({ page: 2, pageSize: 20, total: 40, cursor: { rows: 20, hasNext: true }, onPage, noun: "Plans" });
     expect(r).toEqual({ words: "Plans 21–40 of 40 · page 2 of 2", previous: true, next: false });
