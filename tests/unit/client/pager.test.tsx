@@ -15,6 +15,9 @@ function read(props: Parameters<typeof Pager>[0]) {
 }
 
 const onPage = () => {};
+/** The audit trail past its counting cap (10 000 events counted, 50 a page), read by cursor. */
+const cappedTrail = (page: number, rows: number, hasNext: boolean) =>
+  read({ page, pageSize: 50, total: 10_000, totalCapped: true, cursor: { rows, hasNext }, onPage, noun: "Events" });
 
 describe("Pager", () => {
   it("a counted list names its last page and closes Next there", () => {
@@ -26,45 +29,21 @@ describe("Pager", () => {
   });
 
   it("a capped total keeps Next open while the server names a cursor for the page after", () => {
-    const r = read({
-      page: 4,
-      pageSize: 50,
-      total: 10_000,
-      totalCapped: true,
-      cursor: { rows: 50, hasNext: true },
-      onPage,
-      noun: "Events",
-    });
+    const r = cappedTrail(4, 50, true);
     expect(r).toEqual({ words: "Events 151–200 of 10,000+", previous: true, next: true });
   });
 
   // The defect: past the cap, on the trail's partly filled last page, Next stayed open and asked for a page by number,
   // which the server refuses (page= stops at ceil(10 000 / pageSize)); and the range claimed a full page of rows.
   it("a capped total's partly filled last page closes Next and counts only the rows it holds", () => {
-    const r = read({
-      page: 205,
-      pageSize: 50,
-      total: 10_000,
-      totalCapped: true,
-      cursor: { rows: 13, hasNext: false },
-      onPage,
-      noun: "Events",
-    });
+    const r = cappedTrail(205, 13, false);
     expect(r).toEqual({ words: "Events 10,201–10,213 of 10,000+", previous: true, next: false });
   });
 
   // A position in the list is a row's place, read to the row: past a million, formatCount's short scale ("1 million")
   // named the first and last rows of a deep page the same.
   it("names the rows of a deep page with every digit", () => {
-    const r = read({
-      page: 20_001,
-      pageSize: 50,
-      total: 10_000,
-      totalCapped: true,
-      cursor: { rows: 13, hasNext: false },
-      onPage,
-      noun: "Events",
-    });
+    const r = cappedTrail(20_001, 13, false);
     expect(r.words).toBe("Events 1,000,001–1,000,013 of 10,000+");
   });
 
